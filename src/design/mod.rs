@@ -1,0 +1,10 @@
+//! Designers: from two risk points to the smallest plan that honours both.
+
+mod bracket;
+mod search;
+mod single;
+
+pub use single::{
+    Alternative, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, SingleDesign, design_single,
+    single_alternatives,
+};

@@ -1,0 +1,296 @@
+//! The single-sampling designer: the smallest `(n, c)` that honours both
+//! risk points exactly under the chosen model.
+//!
+//! # Method
+//!
+//! For a fixed acceptance number `c`, `Pa(n)` falls as `n` grows, so the
+//! consumer's point holds from `n_min(c)` on and the producer's point up to
+//! `n_max(c)`; `c` is feasible when `n_min(c) <= n_max(c)`. Both bounds grow
+//! with `c`, so the smallest sample over all feasible `c` is `n_min` of the
+//! smallest feasible `c`.
+//!
+//! 1. A guess `c0` comes from Cameron's Poisson operating ratio with the
+//!    Wilson–Hilferty approximation ([`bracket`](super::bracket)).
+//! 2. Going down from `c0`, stop at the first `c` that is certainly
+//!    infeasible together with every smaller one: `n_min(c) - n_max(c) >= 2`
+//!    means even the real-valued relaxation of `n` has no solution at `c`,
+//!    and the relaxation's operating ratio rises monotonically as `c` falls
+//!    (Cameron 1952 for the Poisson case; checked for all three models
+//!    against the exhaustive search of tests/reference/make_reference.py).
+//! 3. Going up from there, the first feasible `c` gives the answer.
+//!
+//! Each `n_min` and `n_max` is an exact threshold search on the model's
+//! tails ([`search`](super::search)), started from the approximation, so a
+//! typical design costs a few dozen tail evaluations, none of them a scan
+//! over `n`.
+//!
+//! # Tie rule
+//!
+//! When several acceptance numbers fit at the smallest `n`, the plan takes
+//! the one that uses the smaller share of its allowance on the worse side,
+//! `min_c max(alpha_achieved / alpha, beta_achieved / beta)`, and the
+//! smallest `c` among exact ties: neither party is favoured, and the margin
+//! left is as even as the whole numbers allow.
+
+use serde::Serialize;
+
+use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z};
+use super::search::first_true;
+use crate::error::DesignError;
+use crate::model::{Model, ModelKind, nonconforming_in_lot};
+use crate::plan::StagedPlan;
+use crate::risk::RiskPair;
+
+/// The largest sample size the designer will propose for the binomial and
+/// Poisson models (`10^9`); the hypergeometric model is capped by the lot.
+pub const MAX_SAMPLE_SIZE: u64 = 1_000_000_000;
+
+/// The largest acceptance number the designer will propose (`10^5`).
+pub const MAX_ACCEPTANCE_NUMBER: u64 = 100_000;
+
+/// A solved single plan.
+#[derive(Clone, Debug, PartialEq)]
+pub struct SingleDesign {
+    /// The plan, one stage.
+    pub plan: StagedPlan,
+    /// Sample size.
+    pub n: u64,
+    /// Acceptance number.
+    pub c: u64,
+    /// Achieved producer's risk `1 - Pa(p1)`.
+    pub producer_risk: f64,
+    /// Achieved consumer's risk `Pa(p2)`.
+    pub consumer_risk: f64,
+    /// Every acceptance number that also meets both points at `n` (the
+    /// chosen one included), for the record of the tie rule.
+    pub fitting_c: Vec<u64>,
+}
+
+/// For one acceptance number, the sample sizes that meet each point.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct Alternative {
+    /// Acceptance number.
+    pub c: u64,
+    /// Smallest `n` meeting the consumer's point, if any within the caps.
+    pub n_min: Option<u64>,
+    /// Largest `n` meeting the producer's point, if any.
+    pub n_max: Option<u64>,
+}
+
+impl Alternative {
+    /// Whether some `n` meets both points with this `c`.
+    pub fn feasible(&self) -> bool {
+        matches!((self.n_min, self.n_max), (Some(lo), Some(hi)) if lo <= hi)
+    }
+
+    /// Why no `n` meets both points with this `c`, in words.
+    pub fn reason(&self) -> Option<String> {
+        match (self.n_min, self.n_max) {
+            _ if self.feasible() => None,
+            (None, _) => Some("no sample within the limits meets the consumer's point".to_string()),
+            (Some(_), None) => {
+                Some("even the smallest sample breaks the producer's point".to_string())
+            }
+            (Some(lo), Some(hi)) => Some(format!(
+                "the consumer's point needs n >= {lo}, the producer's allows n <= {hi}"
+            )),
+        }
+    }
+}
+
+/// The exact searches of one design request, shared by the solver and the
+/// list of alternatives.
+struct Solver<'a> {
+    model: &'a Model,
+    p1: f64,
+    alpha: f64,
+    p2: f64,
+    beta: f64,
+    z_alpha: f64,
+    z_beta: f64,
+    limit: u64,
+}
+
+impl<'a> Solver<'a> {
+    fn new(model: &'a Model, risks: &RiskPair) -> Self {
+        let (producer, consumer) = (risks.producer(), risks.consumer());
+        Solver {
+            model,
+            p1: producer.quality,
+            alpha: producer.risk,
+            p2: consumer.quality,
+            beta: consumer.risk,
+            z_alpha: z(1.0 - producer.risk),
+            z_beta: z(1.0 - consumer.risk),
+            limit: model.max_sample().min(MAX_SAMPLE_SIZE),
+        }
+    }
+
+    /// Smallest sample that can hold a count above `c`.
+    fn smallest_n(&self, c: u64) -> u64 {
+        match self.model.kind() {
+            ModelKind::Poisson => 1,
+            _ => c + 1,
+        }
+    }
+
+    fn guess(&self, lambda: f64, p: f64) -> u64 {
+        let n = sample_for_mean(lambda, p, self.model.kind(), self.model.lot_size());
+        if n.is_finite() {
+            n.round().clamp(1.0, self.limit as f64) as u64
+        } else {
+            self.limit
+        }
+    }
+
+    fn consumer_risk(&self, n: u64, c: u64) -> f64 {
+        self.model.tails(n, c, self.p2, 0, 0).cdf
+    }
+
+    fn producer_risk(&self, n: u64, c: u64) -> f64 {
+        self.model.tails(n, c, self.p1, 0, 0).sf
+    }
+
+    /// `n_min(c)`: smallest `n` with `Pa(n, c, p2) <= beta`.
+    fn n_min(&self, c: u64) -> Option<u64> {
+        let guess = self.guess(poisson_mean_at(c, self.z_beta), self.p2);
+        let ln_beta = self.beta.ln();
+        first_true(self.smallest_n(c), self.limit, guess, |n| {
+            let pa = self.consumer_risk(n, c);
+            (pa <= self.beta, pa.max(f64::MIN_POSITIVE).ln() - ln_beta)
+        })
+    }
+
+    /// `n_max(c)`: largest `n` with `1 - Pa(n, c, p1) <= alpha`.
+    fn n_max(&self, c: u64) -> Option<u64> {
+        let guess = self.guess(poisson_mean_at(c, -self.z_alpha), self.p1);
+        let ln_alpha = self.alpha.ln();
+        let start = self.smallest_n(c);
+        match first_true(start, self.limit, guess, |n| {
+            let risk = self.producer_risk(n, c);
+            (
+                risk > self.alpha,
+                ln_alpha - risk.max(f64::MIN_POSITIVE).ln(),
+            )
+        }) {
+            None => Some(self.limit),
+            Some(n) if n > 1 => Some(n - 1),
+            Some(_) => None,
+        }
+    }
+
+    fn alternative(&self, c: u64) -> Alternative {
+        Alternative {
+            c,
+            n_min: self.n_min(c),
+            n_max: self.n_max(c),
+        }
+    }
+
+    /// No `c' <= c` can be feasible (see the module documentation).
+    fn hopeless_at_and_below(&self, c: u64) -> bool {
+        match (self.n_min(c), self.n_max(c)) {
+            (Some(lo), Some(hi)) => lo >= hi + 2,
+            (Some(_), None) => true,
+            (None, _) => false,
+        }
+    }
+}
+
+/// Designs the single plan with the smallest sample that meets both risk
+/// points exactly under `model`.
+///
+/// # Errors
+/// [`DesignError::NoPlan`] when a finite lot cannot tell the two qualities
+/// apart (both round to the same number of nonconforming units);
+/// [`DesignError::BeyondCap`] when the plan would need more than
+/// [`MAX_SAMPLE_SIZE`] units or an acceptance number above
+/// [`MAX_ACCEPTANCE_NUMBER`].
+///
+/// # Example
+/// ```
+/// use lotsman::{design_single, Model, ModelKind, RiskPair, RiskPoint};
+/// let model = Model::new(ModelKind::Binomial, None).unwrap();
+/// let risks = RiskPair::new(
+///     RiskPoint { quality: 0.01, risk: 0.05 },
+///     RiskPoint { quality: 0.06, risk: 0.10 },
+///     &model,
+/// ).unwrap();
+/// let d = design_single(&model, &risks).unwrap();
+/// assert!(d.producer_risk <= 0.05 && d.consumer_risk <= 0.10);
+/// ```
+pub fn design_single(model: &Model, risks: &RiskPair) -> Result<SingleDesign, DesignError> {
+    let s = Solver::new(model, risks);
+    if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {
+        let d1 = nonconforming_in_lot(s.p1, lot);
+        let d2 = nonconforming_in_lot(s.p2, lot);
+        if d1 == d2 {
+            return Err(DesignError::NoPlan {
+                reason: format!(
+                    "in a lot of {lot} units both qualities mean {d1} nonconforming unit{} (D = round(p N)), so no sample can tell them apart",
+                    if d1 == 1 { "" } else { "s" }
+                ),
+                suggestion: "inspect 100% of the lot, or widen the pair of points so that they differ by at least one unit in this lot".to_string(),
+            });
+        }
+    }
+    let ratio = match model.kind() {
+        ModelKind::Poisson => s.p2 / s.p1,
+        _ => (-s.p2).ln_1p() / (-s.p1).ln_1p(),
+    };
+    let beyond = || DesignError::BeyondCap {
+        what: format!("an acceptance number above {MAX_ACCEPTANCE_NUMBER}"),
+        cap: MAX_ACCEPTANCE_NUMBER.to_string(),
+    };
+    let c0 = acceptance_number_for_ratio(ratio, s.z_alpha, s.z_beta, MAX_ACCEPTANCE_NUMBER)
+        .ok_or_else(beyond)?;
+    let mut c = c0;
+    while c > 0 && !s.hopeless_at_and_below(c - 1) {
+        c -= 1;
+    }
+    let (n, c) = loop {
+        if c > MAX_ACCEPTANCE_NUMBER {
+            return Err(beyond());
+        }
+        match s.n_min(c) {
+            Some(n) if s.producer_risk(n, c) <= s.alpha => break (n, c),
+            Some(_) => c += 1,
+            None => {
+                return Err(DesignError::BeyondCap {
+                    what: format!("a sample above {} units", s.limit),
+                    cap: s.limit.to_string(),
+                });
+            }
+        }
+    };
+    // Larger acceptance numbers only lower the producer's risk, so those that
+    // fit at n are the run from c up while the consumer's point still holds.
+    let mut fitting_c = vec![c];
+    let mut next = c + 1;
+    while (model.kind() == ModelKind::Poisson || next < n) && s.consumer_risk(n, next) <= s.beta {
+        fitting_c.push(next);
+        next += 1;
+    }
+    let score = |c: u64| (s.producer_risk(n, c) / s.alpha).max(s.consumer_risk(n, c) / s.beta);
+    let chosen = fitting_c
+        .iter()
+        .copied()
+        .min_by(|&a, &b| score(a).total_cmp(&score(b)).then(a.cmp(&b)))
+        .unwrap_or(c);
+    let plan = StagedPlan::single_checked_by_designer(n, chosen);
+    Ok(SingleDesign {
+        plan,
+        n,
+        c: chosen,
+        producer_risk: s.producer_risk(n, chosen),
+        consumer_risk: s.consumer_risk(n, chosen),
+        fitting_c,
+    })
+}
+
+/// For each acceptance number `0..=c_last`, the range of sample sizes that
+/// meets each risk point, for the haggling over nearby plans.
+pub fn single_alternatives(model: &Model, risks: &RiskPair, c_last: u64) -> Vec<Alternative> {
+    let s = Solver::new(model, risks);
+    (0..=c_last).map(|c| s.alternative(c)).collect()
+}

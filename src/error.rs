@@ -1,0 +1,138 @@
+//! Error types. Every message names the parameter, the value it was given
+//! and the range it must lie in, so that one line on a terminal is enough to
+//! fix the input.
+
+use std::path::PathBuf;
+
+use thiserror::Error;
+
+/// A value that is not a valid input.
+#[derive(Debug, Clone, PartialEq, Error)]
+pub enum InputError {
+    /// A number outside its valid range.
+    #[error("{parameter} = {value} is out of range: it must be {range}")]
+    OutOfRange {
+        /// What the value is (for example "producer's quality (--aql)").
+        parameter: String,
+        /// The value as given.
+        value: String,
+        /// The valid range, in words.
+        range: String,
+    },
+    /// Text that does not parse as the expected kind of value.
+    #[error("{parameter} = '{value}' is not {expected}")]
+    Unparsable {
+        /// What the value is.
+        parameter: String,
+        /// The text as given.
+        value: String,
+        /// What was expected, in words.
+        expected: String,
+    },
+    /// The hypergeometric model without a lot size.
+    #[error(
+        "the hypergeometric model needs a lot size: give --lot-size N (or lot_size in the plan source)"
+    )]
+    LotSizeMissing,
+    /// Values that are each valid but do not fit together.
+    #[error("{0}")]
+    Inconsistent(String),
+}
+
+impl InputError {
+    /// Shorthand for [`InputError::OutOfRange`].
+    pub fn out_of_range(parameter: &str, value: impl ToString, range: &str) -> Self {
+        InputError::OutOfRange {
+            parameter: parameter.to_string(),
+            value: value.to_string(),
+            range: range.to_string(),
+        }
+    }
+
+    /// Shorthand for [`InputError::Unparsable`].
+    pub fn unparsable(parameter: &str, value: &str, expected: &str) -> Self {
+        InputError::Unparsable {
+            parameter: parameter.to_string(),
+            value: value.to_string(),
+            expected: expected.to_string(),
+        }
+    }
+}
+
+/// Why a design request has no answer.
+#[derive(Debug, Clone, PartialEq, Error)]
+pub enum DesignError {
+    /// No sample size and acceptance number meet both risk points.
+    #[error("no plan meets both risk points: {reason}; {suggestion}")]
+    NoPlan {
+        /// Why, in terms of the inputs.
+        reason: String,
+        /// What the user can do.
+        suggestion: String,
+    },
+    /// The points are so close that the plan would exceed the search caps.
+    #[error(
+        "the risk points are too close: a plan would need {what}, beyond the cap of {cap}; widen the points (raise the RQL or lower the AQL) or relax alpha or beta"
+    )]
+    BeyondCap {
+        /// The quantity that would exceed its cap.
+        what: String,
+        /// The cap.
+        cap: String,
+    },
+}
+
+/// A plan source that cannot be read, parsed or written.
+#[derive(Debug, Error)]
+pub enum SourceError {
+    /// The file system refused.
+    #[error("{path}: {source}")]
+    Io {
+        /// The file.
+        path: PathBuf,
+        /// The cause.
+        source: std::io::Error,
+    },
+    /// The YAML does not parse, or does not fit the schema (the message
+    /// carries the field, line and column).
+    #[error("{path}: {message}")]
+    Parse {
+        /// The file.
+        path: PathBuf,
+        /// serde_yaml's message, with the line and column.
+        message: String,
+    },
+    /// The YAML parses but holds an invalid value.
+    #[error("{path}: {source}")]
+    Invalid {
+        /// The file.
+        path: PathBuf,
+        /// What is wrong.
+        source: InputError,
+    },
+    /// The source's risk points have no plan.
+    #[error("{path}: {source}")]
+    Design {
+        /// The file.
+        path: PathBuf,
+        /// Why.
+        source: DesignError,
+    },
+}
+
+/// Any error of the library, for callers that only report it.
+#[derive(Debug, Error)]
+pub enum Error {
+    /// See [`InputError`].
+    #[error(transparent)]
+    Input(#[from] InputError),
+    /// See [`DesignError`].
+    #[error(transparent)]
+    Design(#[from] DesignError),
+    /// See [`SourceError`].
+    #[error(transparent)]
+    Source(#[from] SourceError),
+    /// Writing a report failed.
+    #[error("cannot write output: {0}")]
+    Output(#[from] std::io::Error),
+}

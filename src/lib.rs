@@ -1,0 +1,51 @@
+//! # lotsman
+//!
+//! Acceptance-sampling plans from two risk points: the producer's point (an
+//! acceptable quality level `p1` that must be accepted with probability at
+//! least `1 - alpha`) and the consumer's point (a rejectable quality level
+//! `p2` that may be accepted with probability at most `beta`).
+//!
+//! The crate designs the smallest plan that honours both, exactly under the
+//! binomial, hypergeometric or Poisson model; evaluates any staged attribute
+//! plan (OC, AOQ, ATI, ASN, AOQL, indifference quality); and keeps plans as
+//! versioned YAML sources that can be re-solved and verified.
+//!
+//! ```
+//! use lotsman::{design_single, measures, Model, ModelKind, RiskPair, RiskPoint};
+//! let model = Model::new(ModelKind::Hypergeometric, Some(2000)).unwrap();
+//! let risks = RiskPair::new(
+//!     RiskPoint { quality: 0.01, risk: 0.05 },
+//!     RiskPoint { quality: 0.05, risk: 0.10 },
+//!     &model,
+//! ).unwrap();
+//! let d = design_single(&model, &risks).unwrap();
+//! let at_aql = measures(&d.plan, &model, 0.01);
+//! assert!(at_aql.pa >= 0.95);
+//! ```
+//!
+//! Sampling never guarantees the quality of a lot; critical and safety
+//! characteristics need the inspection that the applicable contract,
+//! regulation or licensed practice requires.
+
+#![forbid(unsafe_code)]
+#![warn(missing_docs)]
+
+mod design;
+mod error;
+mod model;
+mod plan;
+mod quantity;
+mod risk;
+
+pub use design::{
+    Alternative, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, SingleDesign, design_single,
+    single_alternatives,
+};
+pub use error::{DesignError, Error, InputError, SourceError};
+pub use model::{MAX_LOT_SIZE, Model, ModelKind, Tails, nonconforming_in_lot};
+pub use plan::{
+    Aoql, MAX_STAGES, Measures, Stage, StageOutcomes, StagedPlan, acceptance_probability, aoql,
+    indifference_quality, measures, stage_outcomes,
+};
+pub use quantity::{MAX_RANGE_POINTS, QualityRange, parse_fraction, parse_fraction_list};
+pub use risk::{RiskPair, RiskPoint};

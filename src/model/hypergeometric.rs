@@ -1,0 +1,140 @@
+//! The hypergeometric model: the count of nonconforming units in a sample of
+//! `n` drawn without replacement from a lot of `N` units of which `D` are
+//! nonconforming.
+//!
+//! ```text
+//! P(X = k) = C(D, k) C(N - D, n - k) / C(N, n),   max(0, n - N + D) <= k <= min(n, D)
+//! ```
+//!
+//! The log-probability is the ratio of three binomial terms at `p = n / N`,
+//! `b(k; D, p) b(n - k; N - D, p) / b(n; N, p)`, each in Loader's saddle-point
+//! form, so that no log-gamma of size `N ln N` is ever subtracted.
+
+use super::saddle::ln_binomial_pmf;
+use super::tail::Terms;
+
+/// `Hypergeometric(N, D, n)` with `D <= N` and `n <= N`.
+#[derive(Clone, Copy, Debug)]
+pub(crate) struct Hypergeometric {
+    lot: u64,
+    bad: u64,
+    sample: u64,
+}
+
+impl Hypergeometric {
+    pub(crate) fn new(lot: u64, bad: u64, sample: u64) -> Self {
+        debug_assert!(bad <= lot && sample <= lot);
+        Hypergeometric { lot, bad, sample }
+    }
+}
+
+/// The number of nonconforming units in a lot of `lot` units at quality `p`:
+/// `D = round(p N)`, halves rounded up.
+///
+/// A lot holds a whole number of nonconforming units, so the quality of a
+/// finite lot is always `D / N`. A product `p N` within `1e-9` (relative) of a
+/// whole number is taken as that number first, so that `0.07 * 100`, which is
+/// `7.000000000000001` in binary, means 7 and not a rounding accident.
+pub fn nonconforming_in_lot(p: f64, lot: u64) -> u64 {
+    let x = p * lot as f64;
+    let nearest = x.round();
+    let d = if (x - nearest).abs() <= 1e-9 * nearest.max(1.0) {
+        nearest
+    } else {
+        (x + 0.5).floor()
+    };
+    (d.max(0.0) as u64).min(lot)
+}
+
+impl Terms for Hypergeometric {
+    fn ln_pmf(&self, k: u64) -> f64 {
+        let (lo, hi) = self.support();
+        if k < lo || k > hi {
+            return f64::NEG_INFINITY;
+        }
+        let total = self.lot as f64;
+        let p = self.sample as f64 / total;
+        let q = (self.lot - self.sample) as f64 / total;
+        ln_binomial_pmf(k, self.bad, p, q)
+            + ln_binomial_pmf(self.sample - k, self.lot - self.bad, p, q)
+            - ln_binomial_pmf(self.sample, self.lot, p, q)
+    }
+
+    fn ratio_up(&self, k: u64) -> f64 {
+        let num = (self.bad - k) as f64 * (self.sample - k) as f64;
+        let den = (k + 1) as f64 * (self.lot - self.bad - self.sample + k + 1) as f64;
+        num / den
+    }
+
+    fn ratio_down(&self, k: u64) -> f64 {
+        let num = k as f64 * (self.lot - self.bad - self.sample + k) as f64;
+        let den = (self.bad - k + 1) as f64 * (self.sample - k + 1) as f64;
+        num / den
+    }
+
+    fn support(&self) -> (u64, u64) {
+        let good = self.lot - self.bad;
+        (self.sample.saturating_sub(good), self.sample.min(self.bad))
+    }
+
+    fn mode(&self) -> u64 {
+        let m = (self.sample as f64 + 1.0) * (self.bad as f64 + 1.0) / (self.lot as f64 + 2.0);
+        let (lo, hi) = self.support();
+        (m.floor() as u64).clamp(lo, hi)
+    }
+}
+
+/// Expected number of units inspected by the single plan `(n, c)` on a lot
+/// of `lot` units holding `bad` nonconforming ones, under fully curtailed
+/// inspection (stop at the `(c + 1)`-th nonconforming or the `(n - c)`-th
+/// conforming unit).
+///
+/// ```text
+/// E = (c + 1)(N + 1)/(D + 1) P(H(N + 1, D + 1, n + 1) >= c + 2)
+///   + (n - c)(N + 1)/(N - D + 1) P(H(N + 1, D, n + 1) <= c)
+/// ```
+///
+/// where `H(N, D, n)` is the count in `n` units drawn from `N` holding `D`.
+/// Derivation as for the binomial: the stopping position is negative
+/// hypergeometric, and `k C(k - 1, c) = (c + 1) C(k, c + 1)` turns its
+/// truncated mean into a tail of a lot with one more unit of each kind.
+pub(crate) fn curtailed_sample_mean(lot: u64, bad: u64, n: u64, c: u64) -> f64 {
+    let reject = Hypergeometric::new(lot + 1, bad + 1, n + 1);
+    let accept = Hypergeometric::new(lot + 1, bad, n + 1);
+    let reject_part = (c + 1) as f64 * (lot + 1) as f64 / (bad + 1) as f64
+        * super::tail::tails(&reject, c + 1).sf;
+    let accept_part = (n - c) as f64 * (lot + 1) as f64 / (lot - bad + 1) as f64
+        * super::tail::tails(&accept, c).cdf;
+    reject_part + accept_part
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn lot_count_rounds_half_up_and_absorbs_binary_noise() {
+        assert_eq!(nonconforming_in_lot(0.07, 100), 7); // 7.000000000000001
+        assert_eq!(nonconforming_in_lot(0.015, 100), 2); // 1.5 rounds up
+        assert_eq!(nonconforming_in_lot(0.0149, 100), 1);
+        assert_eq!(nonconforming_in_lot(0.0151, 100), 2);
+        assert_eq!(nonconforming_in_lot(0.004, 100), 0);
+        assert_eq!(nonconforming_in_lot(0.005, 100), 1);
+        assert_eq!(nonconforming_in_lot(0.999_999, 100), 100);
+    }
+
+    #[test]
+    fn pmf_sums_to_one_over_the_support() {
+        for &(lot, bad, sample) in &[
+            (50u64, 5u64, 10u64),
+            (1000, 40, 125),
+            (20, 19, 7),
+            (30, 3, 30),
+        ] {
+            let h = Hypergeometric::new(lot, bad, sample);
+            let (lo, hi) = h.support();
+            let s: f64 = (lo..=hi).map(|k| h.ln_pmf(k).exp()).sum();
+            assert!((s - 1.0).abs() < 1e-13, "{lot} {bad} {sample}: {s}");
+        }
+    }
+}

@@ -1,0 +1,236 @@
+//! What a plan does to lots of a given quality: OC, AOQ, ATI, ASN, and the
+//! AOQL and indifference quality of the whole curve.
+
+use serde::Serialize;
+
+use crate::model::{Model, ModelKind, nonconforming_in_lot};
+use crate::plan::{StagedPlan, stage_outcomes};
+
+/// The measures of a plan at one quality.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct Measures {
+    /// The quality `p`.
+    pub quality: f64,
+    /// Probability of acceptance `Pa(p)`.
+    pub pa: f64,
+    /// Average outgoing quality under rectifying inspection (rejected lots
+    /// screened 100%, nonconforming units found replaced).
+    pub aoq: f64,
+    /// Average total inspection per lot; needs the lot size.
+    pub ati: Option<f64>,
+    /// Average sample number without curtailment.
+    pub asn: f64,
+    /// Average sample number with full curtailment (single plans of the
+    /// unit-count models only).
+    pub asn_curtailed: Option<f64>,
+}
+
+/// The measures of `plan` at quality `p`.
+///
+/// With `a_j` the probability of acceptance at stage `j` and `n_j` the
+/// cumulative sample size, lot size `N`:
+///
+/// ```text
+/// Pa  = sum_j a_j
+/// AOQ = sum_j a_j p (N - n_j) / N        (without a lot size: Pa p)
+/// ATI = sum_j a_j n_j + (1 - Pa) N
+/// ASN = sum_j (a_j + r_j) n_j
+/// ```
+///
+/// For a single plan these are the textbook `AOQ = Pa p (N - n) / N` and
+/// `ATI = n + (1 - Pa)(N - n)` (Montgomery, *Introduction to Statistical
+/// Quality Control*, the chapter on lot-by-lot acceptance sampling for
+/// attributes, from memory).
+pub fn measures(plan: &StagedPlan, model: &Model, p: f64) -> Measures {
+    let outcomes = stage_outcomes(plan, model, p);
+    let stages = plan.stages();
+    let pa = outcomes.pa();
+    let asn = stages
+        .iter()
+        .zip(outcomes.accept.iter().zip(&outcomes.reject))
+        .map(|(s, (a, r))| (a + r) * s.n as f64)
+        .sum();
+    let (aoq, ati) = match model.lot_size() {
+        Some(lot) => {
+            let big_n = lot as f64;
+            let outgoing: f64 = stages
+                .iter()
+                .zip(&outcomes.accept)
+                .map(|(s, a)| a * (big_n - s.n as f64) / big_n)
+                .sum();
+            let inspected: f64 = stages
+                .iter()
+                .zip(&outcomes.accept)
+                .map(|(s, a)| a * s.n as f64)
+                .sum();
+            (outgoing * p, Some(inspected + (1.0 - pa) * big_n))
+        }
+        None => (pa * p, None),
+    };
+    let asn_curtailed = plan
+        .as_single()
+        .and_then(|(n, c)| model.curtailed_single_asn(n, c, p));
+    Measures {
+        quality: p,
+        pa,
+        aoq,
+        ati,
+        asn,
+        asn_curtailed,
+    }
+}
+
+/// The probability of acceptance of `plan` at quality `p`.
+pub fn acceptance_probability(plan: &StagedPlan, model: &Model, p: f64) -> f64 {
+    stage_outcomes(plan, model, p).pa()
+}
+
+/// The average outgoing quality limit: the largest AOQ over all qualities.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct Aoql {
+    /// The AOQL.
+    pub value: f64,
+    /// The quality at which AOQ reaches it.
+    pub quality: f64,
+}
+
+/// Largest quality the curve searches need: where `Pa` has fallen below
+/// `1e-12`, found by doubling from `r / n` (the quality at which the expected
+/// count reaches the last rejection number).
+fn quality_ceiling(plan: &StagedPlan, model: &Model) -> f64 {
+    let last = plan.stages()[plan.stages().len() - 1];
+    let top = match model.kind() {
+        ModelKind::Poisson => f64::MAX,
+        _ => 1.0,
+    };
+    let mut p = (last.reject as f64 / last.n as f64).min(0.5 * top);
+    while acceptance_probability(plan, model, p) > 1e-12 && p < 0.5 * top {
+        p = (2.0 * p).min(0.5 * (p + top));
+        if top - p < 1e-12 {
+            break;
+        }
+    }
+    p
+}
+
+/// The AOQL of `plan` and the quality where it occurs.
+///
+/// For the binomial and Poisson models AOQ is a smooth function of `p`: a
+/// coarse pass of 64 points up to where `Pa < 1e-12` brackets the maximum,
+/// then golden-section search narrows the bracket to a relative width of
+/// `1e-12` (about 60 evaluations). For the hypergeometric model a lot's
+/// quality can only be `D / N`: the same bracket-then-golden-section search
+/// runs over the whole numbers `D` and ends by checking the neighbours.
+///
+/// Source: the golden-section search, e.g. Press et al., *Numerical
+/// Recipes* (3rd ed.), section 10.2.
+pub fn aoql(plan: &StagedPlan, model: &Model) -> Aoql {
+    let aoq = |p: f64| measures(plan, model, p).aoq;
+    let ceiling = quality_ceiling(plan, model);
+    const COARSE: usize = 64;
+    if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {
+        let d_top = nonconforming_in_lot(ceiling, lot).max(1);
+        let at = |d: u64| aoq(d as f64 / lot as f64);
+        let grid: Vec<u64> = (0..=COARSE as u64)
+            .map(|i| d_top * i / COARSE as u64)
+            .collect();
+        let best = argmax(&grid, |&d| at(d));
+        let (mut lo, mut hi) = (grid[best.saturating_sub(1)], grid[(best + 1).min(COARSE)]);
+        while hi - lo > 2 {
+            let m1 = lo + (hi - lo) / 3;
+            let m2 = hi - (hi - lo) / 3;
+            if at(m1) < at(m2) {
+                lo = m1;
+            } else {
+                hi = m2;
+            }
+        }
+        let candidates: Vec<u64> = (lo..=hi).collect();
+        let d = candidates[argmax(&candidates, |&d| at(d))];
+        let quality = d as f64 / lot as f64;
+        return Aoql {
+            value: aoq(quality),
+            quality,
+        };
+    }
+    let grid: Vec<f64> = (1..=COARSE)
+        .map(|i| ceiling * i as f64 / COARSE as f64)
+        .collect();
+    let best = argmax(&grid, |&p| aoq(p));
+    let lo = if best == 0 { 0.0 } else { grid[best - 1] };
+    let hi = grid[(best + 1).min(COARSE - 1)];
+    let quality = golden_max(aoq, lo, hi);
+    Aoql {
+        value: aoq(quality),
+        quality,
+    }
+}
+
+fn argmax<T>(xs: &[T], f: impl Fn(&T) -> f64) -> usize {
+    let mut best = 0;
+    let mut best_value = f64::NEG_INFINITY;
+    for (i, x) in xs.iter().enumerate() {
+        let v = f(x);
+        if v > best_value {
+            best = i;
+            best_value = v;
+        }
+    }
+    best
+}
+
+/// Maximiser of a unimodal `f` on `[lo, hi]` by golden-section search.
+fn golden_max(f: impl Fn(f64) -> f64, mut lo: f64, mut hi: f64) -> f64 {
+    const INV_PHI: f64 = 0.618_033_988_749_894_8;
+    let mut x1 = hi - INV_PHI * (hi - lo);
+    let mut x2 = lo + INV_PHI * (hi - lo);
+    let (mut f1, mut f2) = (f(x1), f(x2));
+    while hi - lo > 1e-12 * hi {
+        if f1 < f2 {
+            lo = x1;
+            x1 = x2;
+            f1 = f2;
+            x2 = lo + INV_PHI * (hi - lo);
+            f2 = f(x2);
+        } else {
+            hi = x2;
+            x2 = x1;
+            f2 = f1;
+            x1 = hi - INV_PHI * (hi - lo);
+            f1 = f(x1);
+        }
+    }
+    0.5 * (lo + hi)
+}
+
+/// The indifference quality: where `Pa = 0.5`.
+///
+/// `Pa` falls as `p` rises, so bisection on `p` between 0 and the ceiling
+/// of the other searches finds it to a relative width of `1e-13`. For the
+/// hypergeometric model, the smallest lot quality `D / N` with `Pa <= 0.5`.
+pub fn indifference_quality(plan: &StagedPlan, model: &Model) -> f64 {
+    let ceiling = quality_ceiling(plan, model);
+    let pa = |p: f64| acceptance_probability(plan, model, p);
+    if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {
+        let (mut lo, mut hi) = (0u64, nonconforming_in_lot(ceiling, lot).max(1));
+        while hi - lo > 1 {
+            let mid = lo + (hi - lo) / 2;
+            if pa(mid as f64 / lot as f64) <= 0.5 {
+                hi = mid;
+            } else {
+                lo = mid;
+            }
+        }
+        return hi as f64 / lot as f64;
+    }
+    let (mut lo, mut hi) = (0.0, ceiling);
+    while hi - lo > 1e-13 * hi {
+        let mid = 0.5 * (lo + hi);
+        if pa(mid) <= 0.5 {
+            hi = mid;
+        } else {
+            lo = mid;
+        }
+    }
+    0.5 * (lo + hi)
+}

@@ -1,0 +1,183 @@
+//! The staged attribute plan: one type for single, double, multiple and
+//! item-by-item plans.
+
+use serde::{Deserialize, Serialize};
+
+use crate::error::InputError;
+use crate::model::{Model, ModelKind};
+
+/// The most stages a plan may have.
+pub const MAX_STAGES: usize = 10;
+
+/// One stage of a staged plan, on cumulative figures.
+///
+/// After `n` units in all have been inspected, the cumulative count `d` of
+/// nonconforming units (or nonconformities) decides: accept when
+/// `d <= accept`, reject when `d >= reject`, otherwise go on to the next
+/// stage. `accept = None` means the stage cannot accept (only reject or go
+/// on).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Stage {
+    /// Cumulative sample size after this stage.
+    pub n: u64,
+    /// Acceptance number on the cumulative count, if the stage can accept.
+    pub accept: Option<u64>,
+    /// Rejection number on the cumulative count.
+    pub reject: u64,
+}
+
+/// A validated staged plan.
+///
+/// A single plan `(n, c)` is one stage with `accept = c` and
+/// `reject = c + 1`.
+///
+/// Valid means: 1 to [`MAX_STAGES`] stages; cumulative sizes strictly
+/// increasing from at least 1; on every stage `accept < reject`; every stage
+/// but the last leaves some count undecided (otherwise the later stages are
+/// never reached); the last stage decides every count
+/// (`reject = accept + 1`); and, for the unit-count models, every acceptance
+/// number is below its cumulative sample size (otherwise the stage accepts
+/// every lot) and, for the hypergeometric model, the sample fits in the lot.
+///
+/// # Example
+/// ```
+/// use lotsman::{Model, ModelKind, StagedPlan};
+/// let m = Model::new(ModelKind::Binomial, None).unwrap();
+/// let plan = StagedPlan::single(80, 2, &m).unwrap();
+/// assert_eq!(plan.stages()[0].reject, 3);
+/// assert!(StagedPlan::single(2, 2, &m).is_err());
+/// ```
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct StagedPlan {
+    stages: Vec<Stage>,
+}
+
+impl StagedPlan {
+    /// The single plan: draw `n`, accept when at most `c` are nonconforming.
+    ///
+    /// # Errors
+    /// As [`StagedPlan::new`].
+    pub fn single(n: u64, c: u64, model: &Model) -> Result<Self, InputError> {
+        Self::new(
+            vec![Stage {
+                n,
+                accept: Some(c),
+                reject: c.saturating_add(1),
+            }],
+            model,
+        )
+    }
+
+    /// The single plan `(n, c)` of a designer that has already checked it
+    /// against the model (`n >= 1`, `c < n` for the unit-count models, `n`
+    /// within the lot).
+    pub(crate) fn single_checked_by_designer(n: u64, c: u64) -> Self {
+        debug_assert!(n >= 1);
+        StagedPlan {
+            stages: vec![Stage {
+                n,
+                accept: Some(c),
+                reject: c + 1,
+            }],
+        }
+    }
+
+    /// A plan from its stages, validated for `model`.
+    ///
+    /// # Errors
+    /// [`InputError`] naming the stage and the rule it breaks.
+    pub fn new(stages: Vec<Stage>, model: &Model) -> Result<Self, InputError> {
+        if stages.is_empty() || stages.len() > MAX_STAGES {
+            return Err(InputError::out_of_range(
+                "number of stages",
+                stages.len(),
+                "1 to 10",
+            ));
+        }
+        let last = stages.len() - 1;
+        let mut previous_n = 0;
+        for (i, s) in stages.iter().enumerate() {
+            let name = |what: &str| format!("stage {} {what}", i + 1);
+            if s.n <= previous_n {
+                return Err(if i == 0 {
+                    InputError::out_of_range(&name("sample size"), s.n, "at least 1")
+                } else {
+                    InputError::Inconsistent(format!(
+                        "stage {} cumulative sample size {} must exceed stage {}'s {}",
+                        i + 1,
+                        s.n,
+                        i,
+                        previous_n
+                    ))
+                });
+            }
+            previous_n = s.n;
+            if s.n > model.max_sample() {
+                return Err(InputError::Inconsistent(format!(
+                    "{} {} exceeds the lot size {}",
+                    name("cumulative sample size"),
+                    s.n,
+                    model.max_sample()
+                )));
+            }
+            if let Some(a) = s.accept {
+                if a >= s.reject {
+                    return Err(InputError::Inconsistent(format!(
+                        "{}: acceptance number {a} must be below the rejection number {}",
+                        name("numbers"),
+                        s.reject
+                    )));
+                }
+                if model.kind() != ModelKind::Poisson && a >= s.n {
+                    return Err(InputError::Inconsistent(format!(
+                        "{}: acceptance number {a} must be below the cumulative sample size {}, or every lot is accepted",
+                        name("numbers"),
+                        s.n
+                    )));
+                }
+            }
+            if s.reject == 0 {
+                return Err(InputError::out_of_range(
+                    &name("rejection number"),
+                    0,
+                    "at least 1",
+                ));
+            }
+            let lowest_open = s.accept.map_or(0, |a| a + 1);
+            if i < last && lowest_open + 1 > s.reject {
+                return Err(InputError::Inconsistent(format!(
+                    "stage {} decides every count, so stage {} is never reached",
+                    i + 1,
+                    i + 2
+                )));
+            }
+            if i == last && s.accept.map(|a| a + 1) != Some(s.reject) {
+                return Err(InputError::Inconsistent(format!(
+                    "the last stage must decide every count: its rejection number must be its acceptance number + 1 (got accept {}, reject {})",
+                    s.accept.map_or("none".to_string(), |a| a.to_string()),
+                    s.reject
+                )));
+            }
+        }
+        Ok(StagedPlan { stages })
+    }
+
+    /// The stages, in order.
+    pub fn stages(&self) -> &[Stage] {
+        &self.stages
+    }
+
+    /// The largest number of units the plan can inspect.
+    pub fn max_sample(&self) -> u64 {
+        self.stages[self.stages.len() - 1].n
+    }
+
+    /// `Some((n, c))` when the plan is a single plan.
+    pub fn as_single(&self) -> Option<(u64, u64)> {
+        match self.stages.as_slice() {
+            [s] => s.accept.map(|c| (s.n, c)),
+            _ => None,
+        }
+    }
+}

@@ -1,0 +1,166 @@
+//! Parsing of the numbers a user types: qualities and risks as a fraction
+//! (`0.01`) or a percent (`1%`), ranges `LO:HI:COUNT` and lists `p,p,...`.
+
+use crate::error::InputError;
+
+/// Parses a fraction written as a decimal (`0.015`, `1.5e-2`) or a percent
+/// (`1.5%`). Rejects NaN, infinities and anything else that is not a plain
+/// finite number; the caller checks the range.
+///
+/// # Errors
+/// [`InputError::Unparsable`] naming `parameter`.
+///
+/// # Example
+/// ```
+/// assert_eq!(lotsman::parse_fraction("--aql", "1.5%").unwrap(), 0.015);
+/// assert_eq!(lotsman::parse_fraction("--aql", "0.015").unwrap(), 0.015);
+/// assert!(lotsman::parse_fraction("--aql", "1%%").is_err());
+/// ```
+pub fn parse_fraction(parameter: &str, text: &str) -> Result<f64, InputError> {
+    let bad = || InputError::unparsable(parameter, text, "a fraction (0.01) or a percent (1%)");
+    let t = text.trim();
+    let (digits, scale) = match t.strip_suffix('%') {
+        Some(rest) => (rest.trim_end(), 100.0),
+        None => (t, 1.0),
+    };
+    if digits.is_empty()
+        || !digits
+            .chars()
+            .all(|ch| ch.is_ascii_digit() || matches!(ch, '.' | 'e' | 'E' | '+' | '-'))
+    {
+        return Err(bad());
+    }
+    let value: f64 = digits.parse().map_err(|_| bad())?;
+    if !value.is_finite() {
+        return Err(bad());
+    }
+    // Dividing by 100 would turn 1.1% into 0.011000000000000001; parsing the
+    // shifted decimal keeps the value the user wrote.
+    if scale == 100.0 {
+        return shift_percent(digits).ok_or_else(bad);
+    }
+    Ok(value)
+}
+
+/// `digits` (a decimal number) divided by 100, parsed from the shifted text so
+/// that the result is the double nearest to the decimal the user meant.
+fn shift_percent(digits: &str) -> Option<f64> {
+    let shifted = format!("{digits}e-2");
+    let (mantissa, exponent) = match digits.find(['e', 'E']) {
+        Some(i) => (&digits[..i], digits[i + 1..].parse::<i32>().ok()? - 2),
+        None => return shifted.parse().ok(),
+    };
+    format!("{mantissa}e{exponent}").parse().ok()
+}
+
+/// Parses a comma-separated list of fractions.
+///
+/// # Errors
+/// [`InputError::Unparsable`] for an empty list or a bad element.
+pub fn parse_fraction_list(parameter: &str, text: &str) -> Result<Vec<f64>, InputError> {
+    if text.trim().is_empty() {
+        return Err(InputError::unparsable(
+            parameter,
+            text,
+            "a list of qualities such as 1%,2%,5%",
+        ));
+    }
+    text.split(',')
+        .map(|part| parse_fraction(parameter, part))
+        .collect()
+}
+
+/// A range of qualities `LO:HI:COUNT`, evenly spaced, ends included.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct QualityRange {
+    /// First quality.
+    pub lo: f64,
+    /// Last quality.
+    pub hi: f64,
+    /// Number of points, at least 2.
+    pub count: usize,
+}
+
+/// The most points one range may ask for.
+pub const MAX_RANGE_POINTS: usize = 100_000;
+
+impl QualityRange {
+    /// Parses `LO:HI:COUNT`, for example `0.5%:8%:50`.
+    ///
+    /// # Errors
+    /// [`InputError`] for a malformed text, `LO >= HI` or a count outside
+    /// `2..=100000`.
+    pub fn parse(parameter: &str, text: &str) -> Result<Self, InputError> {
+        let parts: Vec<&str> = text.split(':').collect();
+        let [lo, hi, count] = parts.as_slice() else {
+            return Err(InputError::unparsable(
+                parameter,
+                text,
+                "LO:HI:COUNT, for example 0.5%:8%:50",
+            ));
+        };
+        let lo = parse_fraction(parameter, lo)?;
+        let hi = parse_fraction(parameter, hi)?;
+        let count: usize = count.trim().parse().map_err(|_| {
+            InputError::unparsable(parameter, text, "LO:HI:COUNT with a whole COUNT")
+        })?;
+        if !(2..=MAX_RANGE_POINTS).contains(&count) {
+            return Err(InputError::out_of_range(
+                &format!("{parameter} count"),
+                count,
+                "2 to 100000",
+            ));
+        }
+        if lo >= hi {
+            return Err(InputError::Inconsistent(format!(
+                "{parameter}: LO = {lo} must be below HI = {hi}"
+            )));
+        }
+        Ok(QualityRange { lo, hi, count })
+    }
+
+    /// The qualities of the range.
+    pub fn points(&self) -> Vec<f64> {
+        let step = (self.hi - self.lo) / (self.count - 1) as f64;
+        (0..self.count)
+            .map(|i| {
+                if i + 1 == self.count {
+                    self.hi
+                } else {
+                    self.lo + step * i as f64
+                }
+            })
+            .collect()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn percents_parse_to_the_decimal_the_user_meant() {
+        assert_eq!(parse_fraction("q", "1.1%").unwrap(), 0.011);
+        assert_eq!(parse_fraction("q", "0.65%").unwrap(), 0.0065);
+        assert_eq!(parse_fraction("q", "2.5e-1%").unwrap(), 0.0025);
+        assert_eq!(parse_fraction("q", " 4 % ").unwrap(), 0.04);
+    }
+
+    #[test]
+    fn rejects_what_is_not_a_plain_number() {
+        for text in [
+            "", "%", "1%%", "nan", "inf", "-inf", "0x10", "1,5", "one", "1e999",
+        ] {
+            assert!(parse_fraction("q", text).is_err(), "{text:?}");
+        }
+    }
+
+    #[test]
+    fn ranges_include_both_ends() {
+        let r = QualityRange::parse("--range", "1%:5%:5").unwrap();
+        assert_eq!(r.points(), vec![0.01, 0.02, 0.03, 0.04, 0.05]);
+        assert!(QualityRange::parse("--range", "5%:1%:5").is_err());
+        assert!(QualityRange::parse("--range", "1%:5%:1").is_err());
+        assert!(QualityRange::parse("--range", "1%:5%").is_err());
+    }
+}

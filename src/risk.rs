@@ -1,0 +1,112 @@
+//! The two risk points that a sampling plan must honour.
+
+use serde::{Deserialize, Serialize};
+
+use crate::error::InputError;
+use crate::model::Model;
+
+/// One point of the OC curve that the plan is held to: at `quality`, the
+/// probability of the unwanted decision may be at most `risk`.
+///
+/// For the producer's point the unwanted decision is rejection (the risk is
+/// alpha, and the lot at the acceptable quality level must be accepted with
+/// probability at least `1 - alpha`); for the consumer's point it is
+/// acceptance (the risk is beta at the rejectable quality level).
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct RiskPoint {
+    /// Fraction nonconforming (or nonconformities per unit for Poisson).
+    pub quality: f64,
+    /// The largest allowed probability of the unwanted decision.
+    pub risk: f64,
+}
+
+/// The producer's point (AQL, alpha) and the consumer's point (RQL, beta),
+/// validated together for one model.
+///
+/// Valid means: both qualities are qualities of the model
+/// ([`Model::accepts_quality`]), `p1 < p2`, both risks lie in `(0, 1)`, and
+/// `alpha + beta < 1` (otherwise a plan that accepts everything with
+/// probability 1 - alpha, or a coin toss, already meets both and the design
+/// says nothing).
+///
+/// # Example
+/// ```
+/// use lotsman::{Model, ModelKind, RiskPair, RiskPoint};
+/// let model = Model::new(ModelKind::Binomial, None).unwrap();
+/// let pair = RiskPair::new(
+///     RiskPoint { quality: 0.01, risk: 0.05 },
+///     RiskPoint { quality: 0.06, risk: 0.10 },
+///     &model,
+/// ).unwrap();
+/// assert_eq!(pair.producer().quality, 0.01);
+/// assert!(RiskPair::new(pair.consumer(), pair.producer(), &model).is_err());
+/// ```
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct RiskPair {
+    producer: RiskPoint,
+    consumer: RiskPoint,
+}
+
+impl RiskPair {
+    /// Validates the pair for `model`.
+    ///
+    /// # Errors
+    /// [`InputError::OutOfRange`] naming the quality or risk that is out of
+    /// range; [`InputError::Inconsistent`] when `p1 >= p2` or
+    /// `alpha + beta >= 1`. (A finite lot too small to tell the two
+    /// qualities apart is valid input; the designer explains why it has no
+    /// plan.)
+    pub fn new(
+        producer: RiskPoint,
+        consumer: RiskPoint,
+        model: &Model,
+    ) -> Result<Self, InputError> {
+        let range = match model.kind() {
+            crate::ModelKind::Poisson => "above 0 (nonconformities per unit)",
+            _ => "between 0 and 1 (exclusive), e.g. 0.01 or 1%",
+        };
+        for (name, q) in [
+            ("producer's quality (AQL)", producer.quality),
+            ("consumer's quality (RQL)", consumer.quality),
+        ] {
+            if !model.accepts_quality(q) {
+                return Err(InputError::out_of_range(name, q, range));
+            }
+        }
+        for (name, r) in [
+            ("alpha (producer's risk)", producer.risk),
+            ("beta (consumer's risk)", consumer.risk),
+        ] {
+            if !(r > 0.0 && r < 1.0) {
+                return Err(InputError::out_of_range(
+                    name,
+                    r,
+                    "between 0 and 1 (exclusive), e.g. 0.05 or 5%",
+                ));
+            }
+        }
+        if producer.quality >= consumer.quality {
+            return Err(InputError::Inconsistent(format!(
+                "the producer's quality (AQL) {} must be below the consumer's quality (RQL) {}",
+                producer.quality, consumer.quality
+            )));
+        }
+        if producer.risk + consumer.risk >= 1.0 {
+            return Err(InputError::Inconsistent(format!(
+                "alpha + beta = {} + {} must be below 1, or any plan (even accepting every lot with probability 1 - alpha) meets both points",
+                producer.risk, consumer.risk
+            )));
+        }
+        Ok(RiskPair { producer, consumer })
+    }
+
+    /// The producer's point: quality p1 (AQL) and risk alpha.
+    pub fn producer(&self) -> RiskPoint {
+        self.producer
+    }
+
+    /// The consumer's point: quality p2 (RQL, LTPD) and risk beta.
+    pub fn consumer(&self) -> RiskPoint {
+        self.consumer
+    }
+}
