@@ -30,22 +30,41 @@
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
 
+mod atomic;
+mod demo;
 mod design;
 mod error;
 mod model;
 mod plan;
 mod quantity;
+mod report;
 mod risk;
+mod source;
+mod templates;
 
+pub use atomic::write_atomic;
+pub use demo::{DEMO_PLANS, DemoRow, run_demo};
 pub use design::{
-    Alternative, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, SingleDesign, design_single,
-    single_alternatives,
+    Alternative, DesignRequest, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, Scheme, SingleDesign,
+    Solution, design_single, single_alternatives, solve,
 };
 pub use error::{DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, Tails, nonconforming_in_lot};
 pub use plan::{
-    Aoql, MAX_STAGES, Measures, Stage, StageOutcomes, StagedPlan, acceptance_probability, aoql,
-    indifference_quality, measures, stage_outcomes,
+    Aoql, Evaluation, MAX_STAGES, Measures, Stage, StageOutcomes, StagedPlan,
+    acceptance_probability, aoql, default_qualities, evaluate, indifference_quality, measures,
+    quality_at_pa, stage_outcomes,
 };
-pub use quantity::{MAX_RANGE_POINTS, QualityRange, parse_fraction, parse_fraction_list};
+pub use quantity::{
+    MAX_RANGE_POINTS, QualityRange, parse_count, parse_fraction, parse_fraction_list, parse_stage,
+};
+pub use report::{
+    AlternativeReport, Csv, DesignReport, EvaluationReport, Json, PointReport, ReportFormat, Table,
+    VerificationReport, VerifyEntry, VerifyStatus, format_quality, format_significant,
+};
 pub use risk::{RiskPair, RiskPoint};
+pub use source::{
+    Difference, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan, SCHEMA_VERSION, Verdict,
+    tool_version, verify,
+};
+pub use templates::{TEMPLATES, template, template_kinds};

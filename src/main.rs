@@ -1,1 +1,290 @@
-fn main() {}
+//! The `lotsman` binary: parse the command line, turn it into validated
+//! library requests, call the library, print, and map the outcome to an exit
+//! code (0 ok, 1 verify mismatch, 2 invalid input or no plan).
+
+mod cli;
+
+use std::io::Write;
+use std::path::Path;
+use std::process::ExitCode;
+
+use clap::Parser;
+use cli::{Cli, Command, DesignFormat, EvaluateFormat, ModelArg, ModelFlags, VerifyFormat};
+use lotsman::{
+    Csv, DesignReport, DesignRequest, Error, EvaluationReport, InputError, Json, MAX_LOT_SIZE,
+    Model, ModelKind, PlanSource, QualityRange, ReportFormat, RiskPair, RiskPoint, Scheme,
+    SourceError, StagedPlan, Table, Verdict, VerificationReport, VerifyEntry, VerifyStatus,
+    default_qualities, evaluate, parse_count, parse_fraction, parse_fraction_list, parse_stage,
+    run_demo, solve, template, template_kinds, verify, write_atomic,
+};
+
+fn main() -> ExitCode {
+    let cli = Cli::parse();
+    match run(cli) {
+        Ok(code) => code,
+        Err(e) => {
+            eprintln!("lotsman: error: {e}");
+            ExitCode::from(2)
+        }
+    }
+}
+
+fn run(cli: Cli) -> Result<ExitCode, Error> {
+    match cli.command {
+        Command::Design(args) => design(args),
+        Command::Evaluate(args) => evaluate_cmd(args),
+        Command::Verify(args) => verify_cmd(args),
+        Command::New(args) => match template(&args.kind) {
+            Some(text) => {
+                print_out(text.as_bytes())?;
+                Ok(ExitCode::SUCCESS)
+            }
+            None => Err(InputError::unparsable(
+                "template kind",
+                &args.kind,
+                &format!("one of: {}", template_kinds().join(", ")),
+            )
+            .into()),
+        },
+        Command::Demo(args) => demo(&args.output_dir),
+    }
+}
+
+fn print_out(bytes: &[u8]) -> Result<(), Error> {
+    let mut out = std::io::stdout().lock();
+    out.write_all(bytes)?;
+    out.flush()?;
+    Ok(())
+}
+
+/// The model from `--model` and `--lot-size`: binomial by default, the
+/// hypergeometric model when a lot size is given without a model.
+fn model_from(flags: &ModelFlags) -> Result<Model, InputError> {
+    let lot = flags
+        .lot_size
+        .as_deref()
+        .map(|t| parse_count("--lot-size", t, MAX_LOT_SIZE))
+        .transpose()?;
+    let kind = match (flags.model, lot) {
+        (Some(ModelArg::Binomial), _) => ModelKind::Binomial,
+        (Some(ModelArg::Hypergeometric), _) => ModelKind::Hypergeometric,
+        (Some(ModelArg::Poisson), _) => ModelKind::Poisson,
+        (None, Some(_)) => ModelKind::Hypergeometric,
+        (None, None) => ModelKind::Binomial,
+    };
+    Model::new(kind, lot)
+}
+
+fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
+    let (mut source, request) = match &args.source {
+        Some(path) => {
+            let source = PlanSource::load(path)?;
+            let request = source.request().map_err(|e| SourceError::Invalid {
+                path: path.clone(),
+                source: e,
+            })?;
+            (source, request)
+        }
+        None => {
+            let model = model_from(&args.model)?;
+            let point = |q: &Option<String>,
+                         q_name: &str,
+                         r: &str,
+                         r_name: &str|
+             -> Result<RiskPoint, InputError> {
+                let quality = parse_fraction(q_name, q.as_deref().unwrap_or(""))?;
+                Ok(RiskPoint {
+                    quality,
+                    risk: parse_fraction(r_name, r)?,
+                })
+            };
+            let risks = RiskPair::new(
+                point(&args.aql, "--aql", &args.alpha, "--alpha")?,
+                point(&args.rql, "--rql", &args.beta, "--beta")?,
+                &model,
+            )?;
+            let request = DesignRequest {
+                scheme: Scheme::Single,
+                model,
+                risks,
+            };
+            let title = args
+                .title
+                .clone()
+                .unwrap_or_else(|| "Untitled plan".to_string());
+            (PlanSource::new(&title, &request), request)
+        }
+    };
+    let solution = solve(&request).map_err(|e| match &args.source {
+        Some(path) => Error::Source(SourceError::Design {
+            path: path.clone(),
+            source: e,
+        }),
+        None => Error::Design(e),
+    })?;
+    source.record(&solution);
+    if let Some(target) = &args.output {
+        refuse_overwriting_input(target, args.source.as_deref())?;
+        write_atomic(target, source.to_yaml().as_bytes()).map_err(|e| SourceError::Io {
+            path: target.clone(),
+            source: e,
+        })?;
+        eprintln!("lotsman: wrote plan source {}", target.display());
+    }
+    let report = DesignReport::new(&source.title, &solution);
+    let mut text = Vec::new();
+    match args.format {
+        DesignFormat::Table => Table.design(&mut text, &report)?,
+        DesignFormat::Json => Json.design(&mut text, &report)?,
+        DesignFormat::Yaml => text = source.to_yaml().into_bytes(),
+    }
+    print_out(&text)?;
+    Ok(ExitCode::SUCCESS)
+}
+
+/// `--output` never replaces the source that was read.
+fn refuse_overwriting_input(target: &Path, input: Option<&Path>) -> Result<(), InputError> {
+    let Some(input) = input else { return Ok(()) };
+    let same = match (std::fs::canonicalize(target), std::fs::canonicalize(input)) {
+        (Ok(a), Ok(b)) => a == b,
+        _ => false,
+    };
+    if same {
+        return Err(InputError::Inconsistent(format!(
+            "--output {} is the plan source being read; write to a new file and compare before replacing it",
+            target.display()
+        )));
+    }
+    Ok(())
+}
+
+fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
+    let (plan, model, risks) = match &args.source {
+        Some(path) => {
+            let source = PlanSource::load(path)?;
+            let invalid = |e| SourceError::Invalid {
+                path: path.clone(),
+                source: e,
+            };
+            let request = source.request().map_err(invalid)?;
+            let plan = source.recorded_plan(&request.model).map_err(invalid)?;
+            (plan, request.model, Some(request.risks))
+        }
+        None => {
+            let model = model_from(&args.model)?;
+            let plan = match (&args.n, &args.c) {
+                (Some(n), Some(c)) => StagedPlan::single(
+                    parse_count("--n", n, u64::MAX)?,
+                    parse_count("--c", c, u64::MAX)?,
+                    &model,
+                )?,
+                _ if !args.stage.is_empty() => {
+                    let stages = args
+                        .stage
+                        .iter()
+                        .map(|s| parse_stage(s))
+                        .collect::<Result<Vec<_>, _>>()?;
+                    StagedPlan::new(stages, &model)?
+                }
+                _ => {
+                    return Err(InputError::Inconsistent(
+                        "give a plan: FILE.yaml, or --n N --c C, or --stage N:AC:RE (repeated)"
+                            .to_string(),
+                    )
+                    .into());
+                }
+            };
+            (plan, model, None)
+        }
+    };
+    let mut qualities = Vec::new();
+    if let Some(list) = &args.at {
+        qualities.extend(parse_fraction_list("--at", list)?);
+    }
+    if let Some(range) = &args.range {
+        qualities.extend(QualityRange::parse("--range", range)?.points());
+    }
+    if qualities.is_empty() {
+        qualities = default_qualities(&plan, &model, risks.as_ref());
+    }
+    let evaluation = evaluate(&plan, &model, &qualities)?;
+    let report = EvaluationReport::from(&evaluation);
+    let mut text = Vec::new();
+    match args.format {
+        EvaluateFormat::Table => Table.evaluation(&mut text, &report)?,
+        EvaluateFormat::Json => Json.evaluation(&mut text, &report)?,
+        EvaluateFormat::Csv => Csv.evaluation(&mut text, &report)?,
+    }
+    print_out(&text)?;
+    Ok(ExitCode::SUCCESS)
+}
+
+fn verify_one(path: &Path) -> VerifyEntry {
+    let entry = |status, differences, message| VerifyEntry {
+        path: path.display().to_string(),
+        status,
+        differences,
+        message,
+    };
+    let source = match PlanSource::load(path) {
+        Ok(s) => s,
+        Err(e) => return entry(VerifyStatus::Invalid, Vec::new(), Some(e.to_string())),
+    };
+    match verify(&source) {
+        Ok(Verdict::Match) => entry(VerifyStatus::Match, Vec::new(), None),
+        Ok(Verdict::Mismatch(diffs)) => entry(VerifyStatus::Mismatch, diffs, None),
+        Err(e) => entry(VerifyStatus::Invalid, Vec::new(), Some(e.to_string())),
+    }
+}
+
+fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
+    let report = VerificationReport {
+        results: args.sources.iter().map(|p| verify_one(p)).collect(),
+    };
+    let mut text = Vec::new();
+    match args.format {
+        VerifyFormat::Table => Table.verification(&mut text, &report)?,
+        VerifyFormat::Json => Json.verification(&mut text, &report)?,
+        VerifyFormat::Csv => Csv.verification(&mut text, &report)?,
+    }
+    print_out(&text)?;
+    Ok(match report.worst() {
+        VerifyStatus::Match => ExitCode::SUCCESS,
+        VerifyStatus::Mismatch => ExitCode::from(1),
+        VerifyStatus::Invalid => ExitCode::from(2),
+    })
+}
+
+fn demo(dir: &Path) -> Result<ExitCode, Error> {
+    let rows = run_demo(dir)?;
+    let mut out = String::new();
+    out.push_str(
+        "lotsman demo: Tarnwick Pump Works, receiving inspection (an invented scenario)\n\n",
+    );
+    for r in &rows {
+        let per_unit = r.model == "poisson";
+        out.push_str(&format!(
+            "{}\n  {}  [{} model]\n  plan {}; achieved alpha {:.4}, beta {:.4}; AOQL {} at {}\n  verify: {}\n  wrote {}\n\n",
+            r.title,
+            r.file,
+            r.model,
+            r.plan,
+            r.risks.0,
+            r.risks.1,
+            lotsman::format_quality(r.aoql.0, per_unit),
+            lotsman::format_quality(r.aoql.1, per_unit),
+            if r.verified { "the recorded plan matches a fresh solve" } else { "MISMATCH" },
+            r.written.iter().map(|p| p.display().to_string()).collect::<Vec<_>>().join(", "),
+        ));
+    }
+    out.push_str(
+        "Sampling does not guarantee the quality of any lot. Critical and safety characteristics\n\
+         need the inspection that the applicable contract, regulation or licensed practice requires.\n",
+    );
+    print_out(out.as_bytes())?;
+    Ok(if rows.iter().all(|r| r.verified) {
+        ExitCode::SUCCESS
+    } else {
+        ExitCode::from(1)
+    })
+}

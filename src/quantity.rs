@@ -53,6 +53,58 @@ fn shift_percent(digits: &str) -> Option<f64> {
     format!("{mantissa}e{exponent}").parse().ok()
 }
 
+/// Parses a whole number of units (a lot size, a sample size, a count).
+///
+/// # Errors
+/// [`InputError::Unparsable`] for anything but decimal digits;
+/// [`InputError::OutOfRange`] above `max`.
+///
+/// # Example
+/// ```
+/// assert_eq!(lotsman::parse_count("--lot-size", "2500", 1_000_000).unwrap(), 2500);
+/// assert!(lotsman::parse_count("--lot-size", "2.5e3", 1_000_000).is_err());
+/// ```
+pub fn parse_count(parameter: &str, text: &str, max: u64) -> Result<u64, InputError> {
+    let t = text.trim();
+    if t.is_empty() || !t.chars().all(|ch| ch.is_ascii_digit()) {
+        return Err(InputError::unparsable(parameter, text, "a whole number"));
+    }
+    match t.parse::<u64>() {
+        Ok(v) if v <= max => Ok(v),
+        _ => Err(InputError::out_of_range(
+            parameter,
+            t,
+            &format!("at most {max}"),
+        )),
+    }
+}
+
+/// Parses a stage `N:AC:RE` (cumulative sample size, acceptance number or
+/// `-` for none, rejection number), the notation of `evaluate --stage`.
+///
+/// # Errors
+/// [`InputError::Unparsable`] for a malformed text.
+pub fn parse_stage(text: &str) -> Result<crate::plan::Stage, InputError> {
+    let bad = || {
+        InputError::unparsable(
+            "--stage",
+            text,
+            "N:AC:RE, for example 50:1:4 (AC may be '-')",
+        )
+    };
+    let parts: Vec<&str> = text.split(':').collect();
+    let [n, ac, re] = parts.as_slice() else {
+        return Err(bad());
+    };
+    let n = parse_count("--stage sample size", n, u64::MAX).map_err(|_| bad())?;
+    let accept = match ac.trim() {
+        "-" => None,
+        a => Some(parse_count("--stage acceptance number", a, u64::MAX).map_err(|_| bad())?),
+    };
+    let reject = parse_count("--stage rejection number", re, u64::MAX).map_err(|_| bad())?;
+    Ok(crate::plan::Stage { n, accept, reject })
+}
+
 /// Parses a comma-separated list of fractions.
 ///
 /// # Errors

@@ -205,17 +205,29 @@ fn golden_max(f: impl Fn(f64) -> f64, mut lo: f64, mut hi: f64) -> f64 {
 
 /// The indifference quality: where `Pa = 0.5`.
 ///
-/// `Pa` falls as `p` rises, so bisection on `p` between 0 and the ceiling
-/// of the other searches finds it to a relative width of `1e-13`. For the
-/// hypergeometric model, the smallest lot quality `D / N` with `Pa <= 0.5`.
+/// See [`quality_at_pa`](crate::quality_at_pa), of which it is the case
+/// `target = 0.5`.
 pub fn indifference_quality(plan: &StagedPlan, model: &Model) -> f64 {
+    quality_where(plan, model, |p| {
+        acceptance_probability(plan, model, p) <= 0.5
+    })
+}
+
+/// The smallest quality at which `reached(p)` holds, for a condition that
+/// turns true once as `p` rises from 0 to the search ceiling: bisection on
+/// `p` to a relative width of `1e-13`, or on `D` for the hypergeometric
+/// model (the lot quality `D / N`).
+pub(crate) fn quality_where(
+    plan: &StagedPlan,
+    model: &Model,
+    reached: impl Fn(f64) -> bool,
+) -> f64 {
     let ceiling = quality_ceiling(plan, model);
-    let pa = |p: f64| acceptance_probability(plan, model, p);
     if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {
         let (mut lo, mut hi) = (0u64, nonconforming_in_lot(ceiling, lot).max(1));
         while hi - lo > 1 {
             let mid = lo + (hi - lo) / 2;
-            if pa(mid as f64 / lot as f64) <= 0.5 {
+            if reached(mid as f64 / lot as f64) {
                 hi = mid;
             } else {
                 lo = mid;
@@ -226,7 +238,7 @@ pub fn indifference_quality(plan: &StagedPlan, model: &Model) -> f64 {
     let (mut lo, mut hi) = (0.0, ceiling);
     while hi - lo > 1e-13 * hi {
         let mid = 0.5 * (lo + hi);
-        if pa(mid) <= 0.5 {
+        if reached(mid) {
             hi = mid;
         } else {
             lo = mid;

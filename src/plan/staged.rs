@@ -1,6 +1,8 @@
 //! The staged attribute plan: one type for single, double, multiple and
 //! item-by-item plans.
 
+use std::fmt;
+
 use serde::{Deserialize, Serialize};
 
 use crate::error::InputError;
@@ -179,5 +181,28 @@ impl StagedPlan {
             [s] => s.accept.map(|c| (s.n, c)),
             _ => None,
         }
+    }
+}
+
+impl fmt::Display for Stage {
+    /// `N:AC:RE`, the notation of `evaluate --stage`; `-` for a stage that
+    /// cannot accept.
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self.accept {
+            Some(a) => write!(f, "{}:{}:{}", self.n, a, self.reject),
+            None => write!(f, "{}:-:{}", self.n, self.reject),
+        }
+    }
+}
+
+impl fmt::Display for StagedPlan {
+    /// `n = 80, c = 2` for a single plan, the stages in `N:AC:RE` notation
+    /// otherwise.
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        if let Some((n, c)) = self.as_single() {
+            return write!(f, "n = {n}, c = {c}");
+        }
+        let parts: Vec<String> = self.stages.iter().map(Stage::to_string).collect();
+        f.write_str(&parts.join(" "))
     }
 }

@@ -398,12 +398,20 @@ def naive_design(prob: DesignProblem, n_limit: int):
     return None, None
 
 
+#: Relative distance from a threshold below which a boundary is flagged.
+NEAR_TIE = 1e-12
+
+
 def mp_verify_alternative(prob: DesignProblem, c, n_min, n_max, margins):
     """Re-check the n_min / n_max boundaries of one c at 50 digits.
 
     Appends the relative distance of each boundary Pa from its threshold
     to ``margins`` and raises if scipy's decision disagrees with mpmath's.
+    Returns the names ("n_min", "n_max") whose boundary Pa lies within
+    NEAR_TIE of its threshold, i.e. decisions that hinge on the last bits
+    (typically exact decimal ties such as Pa = 95/100 against 1 - 0.05).
     """
+    start = len(margins)
     m, L = prob.model, prob.lot_size
     beta, target = mpf(prob.beta), 1 - mpf(prob.alpha)
 
@@ -431,6 +439,7 @@ def mp_verify_alternative(prob: DesignProblem, c, n_min, n_max, margins):
                             "n_max+1"))
     else:
         assert c == 0 and pa(1, prob.p1) < target
+    return sorted({m[-1].rstrip("+-1") for m in margins[start:] if m[0] < NEAR_TIE})
 
 
 # --------------------------------------------------------------------------
@@ -712,6 +721,12 @@ DESIGN_CASES = [
     (POI, 0.01, 0.01, 0.03, 0.05, None),
     (POI, 0.02, 0.10, 0.06, 0.20, None),
     (POI, 0.0001, 0.05, 0.000125, 0.10, None),
+    # Poisson with several nonconformities per unit: n_min(c) can repeat, so
+    # the tie rule has real work to do, and feasibility can be non-monotone.
+    (POI, 0.2, 0.05, 2.0, 0.05, None),  # n = 4: c = 2 and 3 qualify, rule picks 3
+    (POI, 0.3, 0.05, 1.5, 0.05, None),  # n = 8: c = 5 and 6 qualify, rule picks 5
+    (POI, 0.5, 0.05, 0.75, 0.10, None),  # feasibility in c goes ...T F T...
+    (POI, 1.0, 0.05, 1.5, 0.10, None),  # needs c >= n, excluded by n >= c+1: no plan
     (HYP, 0.02, 0.05, 0.10, 0.10, 50),
     (HYP, 0.01, 0.05, 0.015, 0.10, 50),  # D1 = D2 = 1: no plan
     (HYP, 2 / 30, 0.01, 0.10, 0.01, 30),  # D1 = 2, D2 = 3: n = N
@@ -794,14 +809,16 @@ def build_designs(notes, margins):
         res = prob.solve()
         tag = f"{model} p1={p1} a={alpha} p2={p2} b={beta} N={lot}"
         c_top = (res["c"] + 3) if res["n"] is not None else 3
-        alts, feas = [], []
+        alts, feas, near = [], [], []
         for c in range(c_top + 1):
             nmn, nmx = prob.n_min(c), prob.n_max(c)
-            mp_verify_alternative(prob, c, nmn, nmx, margins)
+            for field in mp_verify_alternative(prob, c, nmn, nmx, margins):
+                near.append(dict(c=c, field=field))
+                notes.append(f"design {tag}: c={c} {field} sits on an exact/near tie")
             alts.append(dict(c=c, n_min=nmn, n_max=nmx))
             feas.append(nmn is not None and nmx is not None and nmn <= nmx)
         row = dict(model=model, p1=p1, alpha=alpha, p2=p2, beta=beta, lot_size=lot,
-                   alternatives=alts)
+                   alternatives=alts, near_ties=near)
         if res["n"] is None:
             row.update(n=None, c=None, producer_risk=None, consumer_risk=None,
                        reason="no_plan")
@@ -812,6 +829,10 @@ def build_designs(notes, margins):
             cdf1, sf1 = mp_tails(model, n, c, p1, lot)
             cdf2, _ = mp_tails(model, n, c, p2, lot)
             assert cdf1 >= 1 - mpf(alpha) and cdf2 <= mpf(beta), tag
+            for v, t, f in ((cdf1, 1 - mpf(alpha), "producer_risk"),
+                            (cdf2, mpf(beta), "consumer_risk")):
+                if abs(v - t) < NEAR_TIE * t:
+                    near.append(dict(c=c, field=f))
             pr, cr = to_float(sf1), to_float(cdf2)
             for a, b in ((pr, res["producer_risk"]), (cr, res["consumer_risk"])):
                 assert abs(a - b) <= 1e-9 * max(abs(a), 1e-300), (tag, a, b)
@@ -828,19 +849,20 @@ def build_designs(notes, margins):
                              f" (scores {', '.join(sc)})")
                 if res["ties"][1][0] - res["ties"][0][0] <= 1e-9 * res["ties"][0][0]:
                     notes.append(f"design {tag}: tie-rule scores (near-)equal")
+                    near.append(dict(c=c, field="tie_rule"))
             # look past the alternatives window for non-monotone feasibility
             seen_true, pattern = False, []
             for cc in range(min(c_top + 25, (lot or 10**12))):
                 nmn = prob.n_min(cc)
-                f = nmn is not None and prob.producer_ok(nmn, cc)
+                if nmn is None:
+                    break  # no larger c can meet the consumer's point in this lot
+                f = prob.producer_ok(nmn, cc)
                 pattern.append("T" if f else "F")
                 if seen_true and not f:
                     notes.append(f"design {tag}: feasibility non-monotone in c: "
                                  f"{''.join(pattern)}")
                     break
                 seen_true |= f
-                if nmn is None:
-                    break
         rows.append(row)
     return rows
 

@@ -1,0 +1,157 @@
+//! The command line, as clap derive structs. Only parsing lives here: every
+//! value is text or a plain number until `main` converts it into a
+//! validated library request.
+
+use std::path::PathBuf;
+
+use clap::{Args, Parser, Subcommand, ValueEnum};
+
+/// Acceptance-sampling plans from two risk points.
+#[derive(Debug, Parser)]
+#[command(name = "lotsman", version, about, long_about = None, max_term_width = 100)]
+pub struct Cli {
+    #[command(subcommand)]
+    pub command: Command,
+}
+
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// Design the smallest plan that meets both risk points.
+    Design(DesignArgs),
+    /// Evaluate a plan: OC, AOQ, ATI and ASN at chosen qualities, AOQL.
+    Evaluate(EvaluateArgs),
+    /// Re-solve plan sources and compare with the plans they record.
+    Verify(VerifyArgs),
+    /// Print a commented plan-source template.
+    New(NewArgs),
+    /// Run the whole job on the demo plans of the invented scenario.
+    Demo(DemoArgs),
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum ModelArg {
+    Binomial,
+    Hypergeometric,
+    Poisson,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum SchemeArg {
+    Single,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum DesignFormat {
+    Table,
+    Json,
+    Yaml,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum EvaluateFormat {
+    Table,
+    Json,
+    Csv,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum VerifyFormat {
+    Table,
+    Json,
+    Csv,
+}
+
+/// The inputs that describe the lot and the model.
+#[derive(Debug, Args)]
+pub struct ModelFlags {
+    /// Likelihood model [default: binomial, or hypergeometric with --lot-size]
+    #[arg(long, value_enum)]
+    pub model: Option<ModelArg>,
+    /// Lot size N (required by the hypergeometric model; gives ATI and AOQ's (N-n)/N)
+    #[arg(long, value_name = "N")]
+    pub lot_size: Option<String>,
+}
+
+#[derive(Debug, Args)]
+pub struct DesignArgs {
+    /// A plan source to solve instead of the flags below
+    #[arg(value_name = "FILE.yaml", conflicts_with_all = ["aql", "rql", "alpha", "beta", "model", "lot_size", "title"])]
+    pub source: Option<PathBuf>,
+    /// Producer's quality p1 (AQL), as a fraction (0.01) or a percent (1%)
+    #[arg(long, value_name = "P1", required_unless_present = "source")]
+    pub aql: Option<String>,
+    /// Producer's risk: largest probability of rejecting a lot at the AQL
+    #[arg(long, value_name = "A", default_value = "0.05")]
+    pub alpha: String,
+    /// Consumer's quality p2 (RQL, LTPD), as a fraction or a percent
+    #[arg(long, value_name = "P2", required_unless_present = "source")]
+    pub rql: Option<String>,
+    /// Consumer's risk: largest probability of accepting a lot at the RQL
+    #[arg(long, value_name = "B", default_value = "0.10")]
+    pub beta: String,
+    #[command(flatten)]
+    pub model: ModelFlags,
+    /// Sampling scheme
+    #[arg(long, value_enum, default_value = "single")]
+    pub scheme: SchemeArg,
+    /// Title recorded in the plan source written with --output
+    #[arg(long)]
+    pub title: Option<String>,
+    /// Output format on stdout
+    #[arg(long, value_enum, default_value = "table")]
+    pub format: DesignFormat,
+    /// Write the solved plan source to this file (atomically)
+    #[arg(long, value_name = "FILE.yaml")]
+    pub output: Option<PathBuf>,
+}
+
+#[derive(Debug, Args)]
+pub struct EvaluateArgs {
+    /// A plan source whose recorded plan to evaluate
+    #[arg(value_name = "FILE.yaml", conflicts_with_all = ["n", "c", "stage", "model", "lot_size"])]
+    pub source: Option<PathBuf>,
+    /// Sample size of a single plan
+    #[arg(long, requires = "c", conflicts_with = "stage")]
+    pub n: Option<String>,
+    /// Acceptance number of a single plan
+    #[arg(long, requires = "n")]
+    pub c: Option<String>,
+    /// A stage N:AC:RE on cumulative figures (AC may be '-' for no acceptance); repeat per stage
+    #[arg(long, value_name = "N:AC:RE")]
+    pub stage: Vec<String>,
+    #[command(flatten)]
+    pub model: ModelFlags,
+    /// Qualities to evaluate at, comma-separated (1%,2.5%,0.04)
+    #[arg(long, value_name = "P,P,..")]
+    pub at: Option<String>,
+    /// Evenly spaced qualities LO:HI:COUNT (0.5%:8%:50)
+    #[arg(long, value_name = "LO:HI:COUNT")]
+    pub range: Option<String>,
+    /// Output format
+    #[arg(long, value_enum, default_value = "table")]
+    pub format: EvaluateFormat,
+}
+
+#[derive(Debug, Args)]
+pub struct VerifyArgs {
+    /// Plan sources to verify
+    #[arg(value_name = "FILE.yaml", required = true)]
+    pub sources: Vec<PathBuf>,
+    /// Output format
+    #[arg(long, value_enum, default_value = "table")]
+    pub format: VerifyFormat,
+}
+
+#[derive(Debug, Args)]
+pub struct NewArgs {
+    /// Template kind: binomial, hypergeometric or poisson
+    #[arg(value_name = "KIND")]
+    pub kind: String,
+}
+
+#[derive(Debug, Args)]
+pub struct DemoArgs {
+    /// Folder for the demo's plan sources and OC tables
+    #[arg(long, value_name = "DIR", default_value = "lotsman-demo")]
+    pub output_dir: PathBuf,
+}

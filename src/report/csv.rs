@@ -1,0 +1,87 @@
+//! CSV reports: one header row, then one row per item (alternative,
+//! quality or source). Numbers are written in full precision; empty cells
+//! stand for values that do not apply.
+
+use std::io::{self, Write};
+
+use super::{DesignReport, EvaluationReport, ReportFormat, VerificationReport};
+
+/// Comma-separated values, for spreadsheets.
+#[derive(Clone, Copy, Debug, Default)]
+pub struct Csv;
+
+fn cell<T: ToString>(v: Option<T>) -> String {
+    v.map_or(String::new(), |x| x.to_string())
+}
+
+/// Quotes a text cell when it holds a comma, a quote or a line break.
+fn text(s: &str) -> String {
+    if s.contains([',', '"', '\n', '\r']) {
+        format!("\"{}\"", s.replace('"', "\"\""))
+    } else {
+        s.to_string()
+    }
+}
+
+impl ReportFormat for Csv {
+    fn design(&self, out: &mut dyn Write, report: &DesignReport) -> io::Result<()> {
+        writeln!(out, "c,n_min,n_max,feasible,reason")?;
+        for a in &report.alternatives {
+            writeln!(
+                out,
+                "{},{},{},{},{}",
+                a.c,
+                cell(a.n_min),
+                cell(a.n_max),
+                a.feasible,
+                text(a.reason.as_deref().unwrap_or(""))
+            )?;
+        }
+        Ok(())
+    }
+
+    fn evaluation(&self, out: &mut dyn Write, report: &EvaluationReport) -> io::Result<()> {
+        writeln!(out, "quality,pa,aoq,ati,asn,asn_curtailed")?;
+        for p in &report.points {
+            writeln!(
+                out,
+                "{},{},{},{},{},{}",
+                p.quality,
+                p.pa,
+                p.aoq,
+                cell(p.ati),
+                p.asn,
+                cell(p.asn_curtailed)
+            )?;
+        }
+        Ok(())
+    }
+
+    fn verification(&self, out: &mut dyn Write, report: &VerificationReport) -> io::Result<()> {
+        writeln!(out, "path,status,field,recorded,resolved,message")?;
+        for e in &report.results {
+            let status = e.status.name();
+            if e.differences.is_empty() {
+                writeln!(
+                    out,
+                    "{},{},,,,{}",
+                    text(&e.path),
+                    status,
+                    text(e.message.as_deref().unwrap_or(""))
+                )?;
+            }
+            for d in &e.differences {
+                writeln!(
+                    out,
+                    "{},{},{},{},{},",
+                    text(&e.path),
+                    status,
+                    text(&d.field),
+                    text(&d.recorded),
+                    text(&d.resolved)
+                )?;
+            }
+        }
+        Ok(())
+    }
+}

@@ -1,0 +1,257 @@
+//! Reports: what the commands print, in one of three formats behind one
+//! trait that writes into any writer.
+//!
+//! The report structs here are the contract with scripts: their JSON keys
+//! (snake_case) are documented in README.md. Each format lives in its own
+//! file and turns a report into text; choosing the writer (stdout, a file)
+//! is the caller's business.
+
+mod csv;
+mod json;
+mod table;
+
+use std::io::{self, Write};
+
+use serde::Serialize;
+
+pub use self::csv::Csv;
+pub use self::json::Json;
+pub use self::table::Table;
+use crate::design::{Alternative, Solution};
+use crate::plan::{Aoql, Evaluation, Measures, Stage};
+use crate::source::{Difference, tool_version};
+
+/// One output format.
+pub trait ReportFormat {
+    /// Writes a design report.
+    fn design(&self, out: &mut dyn Write, report: &DesignReport) -> io::Result<()>;
+    /// Writes an evaluation report.
+    fn evaluation(&self, out: &mut dyn Write, report: &EvaluationReport) -> io::Result<()>;
+    /// Writes the results of verifying one or more sources.
+    fn verification(&self, out: &mut dyn Write, report: &VerificationReport) -> io::Result<()>;
+}
+
+/// A risk point with the risk the plan achieves there.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct PointReport {
+    /// The agreed quality.
+    pub quality: f64,
+    /// The agreed largest risk.
+    pub risk: f64,
+    /// The risk the plan really has at that quality.
+    pub achieved_risk: f64,
+}
+
+/// One row of the alternatives.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct AlternativeReport {
+    /// Acceptance number.
+    pub c: u64,
+    /// Smallest `n` meeting the consumer's point.
+    pub n_min: Option<u64>,
+    /// Largest `n` meeting the producer's point.
+    pub n_max: Option<u64>,
+    /// Whether some `n` meets both.
+    pub feasible: bool,
+    /// Why not, when not.
+    pub reason: Option<String>,
+}
+
+impl From<&Alternative> for AlternativeReport {
+    fn from(a: &Alternative) -> Self {
+        AlternativeReport {
+            c: a.c,
+            n_min: a.n_min,
+            n_max: a.n_max,
+            feasible: a.feasible(),
+            reason: a.reason(),
+        }
+    }
+}
+
+/// What `design` reports.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct DesignReport {
+    /// Plan title.
+    pub title: String,
+    /// Scheme name.
+    pub scheme: &'static str,
+    /// Model name.
+    pub model: &'static str,
+    /// Lot size, `null` when absent.
+    pub lot_size: Option<u64>,
+    /// The plan's stages.
+    pub stages: Vec<Stage>,
+    /// The producer's point and achieved risk.
+    pub producer: PointReport,
+    /// The consumer's point and achieved risk.
+    pub consumer: PointReport,
+    /// All acceptance numbers that meet both points at the chosen `n`.
+    pub fitting_acceptance_numbers: Vec<u64>,
+    /// Nearby plans, `c = 0` to a little past the chosen one.
+    pub alternatives: Vec<AlternativeReport>,
+    /// Remarks a reader should see (100% inspection, ties).
+    pub notes: Vec<String>,
+    /// Tool and version.
+    pub solved_by: String,
+}
+
+impl DesignReport {
+    /// The report of `solution`, under `title`.
+    pub fn new(title: &str, solution: &Solution) -> Self {
+        let r = &solution.request;
+        let d = &solution.design;
+        let mut notes = Vec::new();
+        if r.model.lot_size() == Some(d.n) {
+            notes.push("the sample is the whole lot: this is 100% inspection".to_string());
+        }
+        if d.fitting_c.len() > 1 {
+            notes.push(format!(
+                "acceptance numbers {} all meet both points at n = {}; c = {} balances the two risks best (tie rule: smallest max(alpha achieved/alpha, beta achieved/beta))",
+                d.fitting_c.iter().map(u64::to_string).collect::<Vec<_>>().join(", "),
+                d.n,
+                d.c
+            ));
+        }
+        DesignReport {
+            title: title.to_string(),
+            scheme: r.scheme.name(),
+            model: r.model.kind().name(),
+            lot_size: r.model.lot_size(),
+            stages: d.plan.stages().to_vec(),
+            producer: PointReport {
+                quality: r.risks.producer().quality,
+                risk: r.risks.producer().risk,
+                achieved_risk: d.producer_risk,
+            },
+            consumer: PointReport {
+                quality: r.risks.consumer().quality,
+                risk: r.risks.consumer().risk,
+                achieved_risk: d.consumer_risk,
+            },
+            fitting_acceptance_numbers: d.fitting_c.clone(),
+            alternatives: solution
+                .alternatives
+                .iter()
+                .map(AlternativeReport::from)
+                .collect(),
+            notes,
+            solved_by: tool_version(),
+        }
+    }
+}
+
+/// What `evaluate` reports.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct EvaluationReport {
+    /// Model name.
+    pub model: &'static str,
+    /// Lot size, `null` when absent.
+    pub lot_size: Option<u64>,
+    /// The plan's stages.
+    pub stages: Vec<Stage>,
+    /// The measures at each quality.
+    pub points: Vec<Measures>,
+    /// The AOQL and where it occurs.
+    pub aoql: Aoql,
+    /// The quality where `Pa = 0.5`.
+    pub indifference_quality: f64,
+}
+
+impl From<&Evaluation> for EvaluationReport {
+    fn from(e: &Evaluation) -> Self {
+        EvaluationReport {
+            model: e.model.kind().name(),
+            lot_size: e.model.lot_size(),
+            stages: e.plan.stages().to_vec(),
+            points: e.points.clone(),
+            aoql: e.aoql,
+            indifference_quality: e.indifference_quality,
+        }
+    }
+}
+
+/// How one source fared under `verify`.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "lowercase")]
+pub enum VerifyStatus {
+    /// Recorded plan equals the re-solved one.
+    Match,
+    /// They differ.
+    Mismatch,
+    /// The source could not be read, parsed or solved.
+    Invalid,
+}
+
+impl VerifyStatus {
+    /// The status as printed and in JSON.
+    pub fn name(self) -> &'static str {
+        match self {
+            VerifyStatus::Match => "match",
+            VerifyStatus::Mismatch => "mismatch",
+            VerifyStatus::Invalid => "invalid",
+        }
+    }
+}
+
+/// One source's verification.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct VerifyEntry {
+    /// The source's path as given.
+    pub path: String,
+    /// Outcome.
+    pub status: VerifyStatus,
+    /// The differing fields, for a mismatch.
+    pub differences: Vec<Difference>,
+    /// The error, for an invalid source.
+    pub message: Option<String>,
+}
+
+/// What `verify` reports.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct VerificationReport {
+    /// One entry per source, in the order given.
+    pub results: Vec<VerifyEntry>,
+}
+
+impl VerificationReport {
+    /// The worst status: invalid over mismatch over match.
+    pub fn worst(&self) -> VerifyStatus {
+        let has = |s| self.results.iter().any(|e| e.status == s);
+        if has(VerifyStatus::Invalid) {
+            VerifyStatus::Invalid
+        } else if has(VerifyStatus::Mismatch) {
+            VerifyStatus::Mismatch
+        } else {
+            VerifyStatus::Match
+        }
+    }
+
+    /// How many sources had `status`.
+    pub fn count(&self, status: VerifyStatus) -> usize {
+        self.results.iter().filter(|e| e.status == status).count()
+    }
+}
+
+/// A quality in percent with four significant digits, as reports print it
+/// (`1.000%`, `0.06500%`); nonconformities per unit print as a plain number.
+pub fn format_quality(q: f64, per_unit: bool) -> String {
+    if per_unit {
+        return format_significant(q, 4);
+    }
+    format!("{}%", format_significant(q * 100.0, 4))
+}
+
+/// `x` with `digits` significant digits, without exponent for the sizes
+/// reports meet.
+pub fn format_significant(x: f64, digits: usize) -> String {
+    if x == 0.0 || !x.is_finite() {
+        return format!("{x}");
+    }
+    let magnitude = x.abs().log10().floor() as i64;
+    let decimals = (digits as i64 - 1 - magnitude).max(0) as usize;
+    if magnitude < -6 {
+        return format!("{:.*e}", digits - 1, x);
+    }
+    format!("{x:.decimals$}")
+}

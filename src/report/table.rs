@@ -1,0 +1,200 @@
+//! Terminal tables (comfy-table), for people.
+
+use std::io::{self, Write};
+
+use comfy_table::{CellAlignment, ContentArrangement, LineStyle, Table as Grid, TableStyle};
+
+use super::{
+    DesignReport, EvaluationReport, ReportFormat, VerificationReport, format_quality,
+    format_significant,
+};
+use crate::plan::Stage;
+
+/// Aligned text tables for a terminal.
+#[derive(Clone, Copy, Debug, Default)]
+pub struct Table;
+
+/// Rules above and below the table and under its header, none between rows.
+const RULED: TableStyle = TableStyle::new()
+    .top_border(LineStyle::none().fill('─').junction('─'))
+    .header_separator(LineStyle::none().fill('─').junction('─'))
+    .bottom_border(LineStyle::none().fill('─').junction('─'));
+
+/// How many rows of alternatives a terminal table shows.
+const ALTERNATIVE_ROWS: usize = 12;
+
+fn grid(header: &[&str]) -> Grid {
+    let mut g = Grid::new();
+    g.load_style(RULED)
+        .set_content_arrangement(ContentArrangement::Dynamic);
+    g.set_header(header.iter().copied());
+    for i in 1..header.len() {
+        if let Some(col) = g.column_mut(i) {
+            col.set_cell_alignment(CellAlignment::Right);
+        }
+    }
+    g
+}
+
+/// The inspector's procedure for a single-stage plan, in words.
+pub(crate) fn single_procedure(stage: &Stage, per_unit: bool) -> String {
+    let (n, c) = (stage.n, stage.accept.unwrap_or(0));
+    let what = if per_unit {
+        "nonconformities"
+    } else {
+        "nonconforming units"
+    };
+    format!(
+        "Draw {n} units at random from the lot and inspect them. Accept the lot when {what} number at most {c}; reject it when they number {} or more.",
+        c + 1
+    )
+}
+
+fn optional(v: Option<u64>, prefix: &str) -> String {
+    v.map_or("none".to_string(), |x| format!("{prefix}{x}"))
+}
+
+impl ReportFormat for Table {
+    fn design(&self, out: &mut dyn Write, r: &DesignReport) -> io::Result<()> {
+        let per_unit = r.model == "poisson";
+        writeln!(out, "{}", r.title)?;
+        let lot = r
+            .lot_size
+            .map_or("no lot size".to_string(), |n| format!("lot of {n} units"));
+        writeln!(out, "{} plan, {} model, {lot}", r.scheme, r.model)?;
+        writeln!(out)?;
+        let s = &r.stages[0];
+        writeln!(
+            out,
+            "  PLAN  n = {}, c = {} (reject at {})",
+            s.n,
+            s.accept.unwrap_or(0),
+            s.reject
+        )?;
+        writeln!(out, "  {}", single_procedure(s, per_unit))?;
+        writeln!(out)?;
+        let mut g = grid(&["Risk point", "Quality", "Agreed risk", "Achieved risk"]);
+        for (name, greek, p) in [
+            ("Producer (AQL)", "alpha", &r.producer),
+            ("Consumer (RQL)", "beta", &r.consumer),
+        ] {
+            g.add_row(vec![
+                name.to_string(),
+                format_quality(p.quality, per_unit),
+                format!("{greek} {}", p.risk),
+                format_significant(p.achieved_risk, 4),
+            ]);
+        }
+        writeln!(out, "{g}")?;
+        for note in &r.notes {
+            writeln!(out, "Note: {note}")?;
+        }
+        writeln!(out)?;
+        writeln!(
+            out,
+            "Nearby plans (sample sizes meeting each point, by acceptance number)"
+        )?;
+        let chosen = s.accept.unwrap_or(0) as usize;
+        let last = r.alternatives.len();
+        let first = (chosen + 1 + 3).saturating_sub(ALTERNATIVE_ROWS).min(last);
+        let mut g = grid(&["c", "meets RQL from n", "meets AQL up to n", "both"]);
+        for a in &r.alternatives[first..] {
+            let both = if a.feasible {
+                format!("n = {} to {}", a.n_min.unwrap_or(0), a.n_max.unwrap_or(0))
+            } else {
+                "no".to_string()
+            };
+            let mark = if a.c as usize == chosen { " *" } else { "" };
+            g.add_row(vec![
+                format!("{}{mark}", a.c),
+                optional(a.n_min, ""),
+                optional(a.n_max, ""),
+                both,
+            ]);
+        }
+        writeln!(out, "{g}")?;
+        if first > 0 {
+            writeln!(
+                out,
+                "({first} smaller acceptance numbers meet no n; --format json lists them all)"
+            )?;
+        }
+        writeln!(
+            out,
+            "* the chosen plan. Sampling does not guarantee the quality of a lot."
+        )
+    }
+
+    fn evaluation(&self, out: &mut dyn Write, r: &EvaluationReport) -> io::Result<()> {
+        let per_unit = r.model == "poisson";
+        let plan: Vec<String> = r.stages.iter().map(Stage::to_string).collect();
+        let lot = r
+            .lot_size
+            .map_or("no lot size".to_string(), |n| format!("lot of {n} units"));
+        writeln!(
+            out,
+            "Plan {} (N:AC:RE), {} model, {lot}",
+            plan.join(" "),
+            r.model
+        )?;
+        let mut g = grid(&["Quality", "Pa", "AOQ", "ATI", "ASN", "ASN curtailed"]);
+        for p in &r.points {
+            g.add_row(vec![
+                format_quality(p.quality, per_unit),
+                format!("{:.4}", p.pa),
+                format_quality(p.aoq, per_unit),
+                p.ati.map_or("-".to_string(), |v| format!("{v:.1}")),
+                format!("{:.1}", p.asn),
+                p.asn_curtailed
+                    .map_or("-".to_string(), |v| format!("{v:.1}")),
+            ]);
+        }
+        writeln!(out, "{g}")?;
+        writeln!(
+            out,
+            "AOQL {} at quality {}; indifference quality (Pa = 0.5) {}",
+            format_quality(r.aoql.value, per_unit),
+            format_quality(r.aoql.quality, per_unit),
+            format_quality(r.indifference_quality, per_unit)
+        )?;
+        if r.lot_size.is_none() {
+            writeln!(
+                out,
+                "AOQ without a lot size is Pa x p; give --lot-size for ATI and the (N - n)/N factor."
+            )?;
+        }
+        Ok(())
+    }
+
+    fn verification(&self, out: &mut dyn Write, r: &VerificationReport) -> io::Result<()> {
+        let mut g = grid(&["Source", "Result", "Details"]);
+        if let Some(col) = g.column_mut(2) {
+            col.set_cell_alignment(CellAlignment::Left);
+        }
+        for e in &r.results {
+            let details = if let Some(m) = &e.message {
+                m.clone()
+            } else {
+                e.differences
+                    .iter()
+                    .map(|d| {
+                        format!(
+                            "{}: recorded {}, re-solved {}",
+                            d.field, d.recorded, d.resolved
+                        )
+                    })
+                    .collect::<Vec<_>>()
+                    .join("; ")
+            };
+            g.add_row(vec![e.path.clone(), e.status.name().to_string(), details]);
+        }
+        writeln!(out, "{g}")?;
+        writeln!(
+            out,
+            "{} match, {} mismatch, {} invalid",
+            r.count(super::VerifyStatus::Match),
+            r.count(super::VerifyStatus::Mismatch),
+            r.count(super::VerifyStatus::Invalid)
+        )
+    }
+}

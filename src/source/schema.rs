@@ -1,0 +1,109 @@
+//! The plan source, schema version 1.
+//!
+//! A plan source is the YAML file from which anyone can re-solve and
+//! re-print a plan. It holds what was agreed (the two risk points, the model
+//! and lot size), what the plan is for (title, item, characteristic, notes,
+//! identifier, revision, date, names) and, once solved, the plan with the
+//! risks it achieves and the tool version that solved it.
+//!
+//! Unknown fields are refused with their name, line and column: a typing
+//! mistake must not silently drop an agreed value.
+
+use serde::{Deserialize, Deserializer, Serialize};
+
+use crate::design::Scheme;
+use crate::model::ModelKind;
+use crate::plan::Stage;
+
+/// The schema version this tool reads and writes.
+pub const SCHEMA_VERSION: u32 = 1;
+
+/// A plan source as stored.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct PlanSource {
+    /// Schema version; must be [`SCHEMA_VERSION`].
+    pub schema: u32,
+    /// Plan title.
+    pub title: String,
+    /// Plan identifier (document number).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub id: Option<String>,
+    /// Revision of the plan document.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub revision: Option<String>,
+    /// Date of the revision, `YYYY-MM-DD`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub date: Option<String>,
+    /// The item inspected (part name and number).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub item: Option<String>,
+    /// The characteristic inspected and what counts as nonconforming.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub characteristic: Option<String>,
+    /// Who prepared the plan.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub prepared_by: Option<String>,
+    /// Who approved it.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub approved_by: Option<String>,
+    /// Free notes on the scenario and the agreement.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub notes: Option<String>,
+    /// Sampling scheme.
+    pub scheme: Scheme,
+    /// Likelihood model.
+    pub model: ModelKind,
+    /// Lot size `N`, required by the hypergeometric model.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub lot_size: Option<u64>,
+    /// The producer's point: AQL and alpha.
+    pub producer: PointSource,
+    /// The consumer's point: RQL and beta.
+    pub consumer: PointSource,
+    /// The solved plan, written by the tool.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub plan: Option<RecordedPlan>,
+}
+
+/// A risk point as stored: numbers as fractions (`0.01`) or percent strings
+/// (`"1%"`); the tool writes fractions.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct PointSource {
+    /// Quality (fraction nonconforming, or nonconformities per unit).
+    #[serde(deserialize_with = "fraction")]
+    pub quality: f64,
+    /// Risk (alpha for the producer, beta for the consumer).
+    #[serde(deserialize_with = "fraction")]
+    pub risk: f64,
+}
+
+/// The solved plan as recorded in a source.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RecordedPlan {
+    /// The stages, cumulative.
+    pub stages: Vec<Stage>,
+    /// Achieved producer's risk `1 - Pa(p1)`.
+    pub producer_risk: f64,
+    /// Achieved consumer's risk `Pa(p2)`.
+    pub consumer_risk: f64,
+    /// Tool and version that solved it, e.g. `lotsman 0.1.0`.
+    pub solved_by: String,
+}
+
+fn fraction<'de, D: Deserializer<'de>>(d: D) -> Result<f64, D::Error> {
+    #[derive(Deserialize)]
+    #[serde(untagged)]
+    enum Raw {
+        Number(f64),
+        Text(String),
+    }
+    match Raw::deserialize(d)? {
+        Raw::Number(x) => Ok(x),
+        Raw::Text(t) => {
+            crate::quantity::parse_fraction("value", &t).map_err(serde::de::Error::custom)
+        }
+    }
+}
