@@ -72,7 +72,7 @@ pub enum DesignError {
     },
     /// The points are so close that the plan would exceed the search caps.
     #[error(
-        "the risk points are too close: a plan would need {what}, beyond the cap of {cap}; widen the points (raise the RQL or lower the AQL) or relax alpha or beta"
+        "the risk points are too close: a plan would need {what} beyond the designer's limit of {cap}; widen the points (raise the RQL or lower the AQL) or relax alpha or beta"
     )]
     BeyondCap {
         /// The quantity that would exceed its cap.

@@ -239,7 +239,7 @@ pub fn design_single(model: &Model, risks: &RiskPair) -> Result<SingleDesign, De
         _ => (-s.p2).ln_1p() / (-s.p1).ln_1p(),
     };
     let beyond = || DesignError::BeyondCap {
-        what: format!("an acceptance number above {MAX_ACCEPTANCE_NUMBER}"),
+        what: "an acceptance number".to_string(),
         cap: MAX_ACCEPTANCE_NUMBER.to_string(),
     };
     let c0 = acceptance_number_for_ratio(ratio, s.z_alpha, s.z_beta, MAX_ACCEPTANCE_NUMBER)
@@ -257,8 +257,8 @@ pub fn design_single(model: &Model, risks: &RiskPair) -> Result<SingleDesign, De
             Some(_) => c += 1,
             None => {
                 return Err(DesignError::BeyondCap {
-                    what: format!("a sample above {} units", s.limit),
-                    cap: s.limit.to_string(),
+                    what: "a sample".to_string(),
+                    cap: format!("{} units", s.limit),
                 });
             }
         }

@@ -1,0 +1,378 @@
+//! The command-line contract: flags, JSON keys, exit codes and messages.
+
+use assert_cmd::Command;
+use predicates::prelude::*;
+use serde_json::Value;
+
+fn lotsman() -> Command {
+    Command::cargo_bin("lotsman").unwrap()
+}
+
+fn json_of(args: &[&str]) -> Value {
+    let out = lotsman()
+        .args(args)
+        .assert()
+        .success()
+        .get_output()
+        .stdout
+        .clone();
+    serde_json::from_slice(&out).unwrap()
+}
+
+#[test]
+fn design_json_has_the_documented_keys() {
+    let v = json_of(&[
+        "design", "--aql", "1%", "--alpha", "0.05", "--rql", "6%", "--beta", "0.10", "--format",
+        "json",
+    ]);
+    for key in [
+        "scheme",
+        "model",
+        "lot_size",
+        "stages",
+        "producer",
+        "consumer",
+        "alternatives",
+    ] {
+        assert!(v.get(key).is_some(), "missing {key}");
+    }
+    assert_eq!(v["scheme"], "single");
+    assert_eq!(v["model"], "binomial");
+    assert_eq!(v["lot_size"], Value::Null);
+    assert_eq!(v["stages"][0]["n"], 110);
+    assert_eq!(v["stages"][0]["accept"], 3);
+    assert_eq!(v["stages"][0]["reject"], 4);
+    for side in ["producer", "consumer"] {
+        for key in ["quality", "risk", "achieved_risk"] {
+            assert!(v[side][key].is_number(), "{side}.{key}");
+        }
+    }
+    assert_eq!(v["producer"]["quality"], 0.01);
+    let alternatives = v["alternatives"].as_array().unwrap();
+    assert_eq!(alternatives.len(), 3 + 1 + 3, "c = 0 .. chosen + 3");
+    assert_eq!(alternatives[3]["feasible"], true);
+    assert_eq!(alternatives[2]["feasible"], false);
+}
+
+#[test]
+fn fractions_and_percents_give_the_same_plan() {
+    let a = json_of(&[
+        "design", "--aql", "0.01", "--rql", "0.06", "--format", "json",
+    ]);
+    let b = json_of(&["design", "--aql", "1%", "--rql", "6%", "--format", "json"]);
+    assert_eq!(a["stages"], b["stages"]);
+}
+
+#[test]
+fn a_lot_size_without_a_model_means_the_hypergeometric_model() {
+    let v = json_of(&[
+        "design",
+        "--aql",
+        "1%",
+        "--rql",
+        "8%",
+        "--lot-size",
+        "400",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(v["model"], "hypergeometric");
+    assert_eq!(v["lot_size"], 400);
+    assert_eq!(v["stages"][0]["n"], 62);
+}
+
+#[test]
+fn evaluate_json_has_the_documented_keys() {
+    let v = json_of(&[
+        "evaluate",
+        "--n",
+        "89",
+        "--c",
+        "2",
+        "--lot-size",
+        "10000",
+        "--model",
+        "binomial",
+        "--at",
+        "1%,2%",
+        "--format",
+        "json",
+    ]);
+    let points = v["points"].as_array().unwrap();
+    assert_eq!(points.len(), 2);
+    for key in ["quality", "pa", "aoq", "ati", "asn"] {
+        assert!(points[0][key].is_number(), "points[0].{key}");
+    }
+    assert!(v["aoql"]["value"].is_number() && v["aoql"]["quality"].is_number());
+    assert!(v["indifference_quality"].is_number());
+    // Montgomery's n = 89, c = 2 at p = 0.02: Pa 0.7366 (from memory).
+    assert!((points[1]["pa"].as_f64().unwrap() - 0.7366).abs() < 5e-5);
+}
+
+#[test]
+fn evaluate_accepts_a_staged_plan_and_a_range() {
+    let v = json_of(&[
+        "evaluate",
+        "--stage",
+        "50:1:4",
+        "--stage",
+        "100:4:5",
+        "--range",
+        "1%:10%:10",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(v["stages"].as_array().unwrap().len(), 2);
+    assert_eq!(v["points"].as_array().unwrap().len(), 10);
+    let asn = v["points"][0]["asn"].as_f64().unwrap();
+    assert!(
+        asn > 50.0 && asn < 100.0,
+        "ASN of a double plan lies between the stage sizes: {asn}"
+    );
+}
+
+#[test]
+fn evaluate_csv_has_a_header_and_one_row_per_quality() {
+    lotsman()
+        .args([
+            "evaluate", "--n", "50", "--c", "1", "--at", "1%,2%,3%", "--format", "csv",
+        ])
+        .assert()
+        .success()
+        .stdout(predicate::str::starts_with(
+            "quality,pa,aoq,ati,asn,asn_curtailed\n",
+        ))
+        .stdout(predicate::function(|s: &str| s.lines().count() == 4));
+}
+
+#[test]
+fn bad_inputs_exit_2_with_a_message_naming_the_value() {
+    let cases: &[(&[&str], &str)] = &[
+        (
+            &["design", "--aql", "6%", "--rql", "1%"],
+            "must be below the consumer's quality",
+        ),
+        (
+            &["design", "--aql", "0", "--rql", "1%"],
+            "producer's quality (AQL) = 0 is out of range",
+        ),
+        (
+            &["design", "--aql", "1%%", "--rql", "6%"],
+            "--aql = '1%%' is not a fraction",
+        ),
+        (
+            &["design", "--aql", "1%", "--rql", "6%", "--alpha", "1.5"],
+            "alpha (producer's risk) = 1.5",
+        ),
+        (
+            &[
+                "design", "--aql", "1%", "--rql", "6%", "--alpha", "0.6", "--beta", "0.5",
+            ],
+            "alpha + beta",
+        ),
+        (
+            &["design", "--aql", "1%", "--rql", "6%", "--lot-size", "0"],
+            "lot size = 0 is out of range",
+        ),
+        (
+            &["design", "--aql", "1%", "--rql", "6%", "--lot-size", "12.5"],
+            "--lot-size = '12.5' is not a whole number",
+        ),
+        (
+            &[
+                "design",
+                "--aql",
+                "1%",
+                "--rql",
+                "6%",
+                "--model",
+                "hypergeometric",
+            ],
+            "needs a lot size",
+        ),
+        (
+            &["evaluate", "--n", "5", "--c", "5"],
+            "acceptance number 5 must be below the cumulative sample size 5",
+        ),
+        (
+            &["evaluate", "--stage", "50:1:3", "--stage", "40:2:3"],
+            "must exceed stage 1's 50",
+        ),
+        (
+            &["evaluate", "--stage", "50:1:4"],
+            "the last stage must decide every count",
+        ),
+        (
+            &["evaluate", "--n", "50", "--c", "1", "--at", "1.5"],
+            "quality = 1.5 is out of range",
+        ),
+        (
+            &["new", "double-helix"],
+            "one of: binomial, hypergeometric, poisson",
+        ),
+    ];
+    for (args, message) in cases {
+        lotsman()
+            .args(*args)
+            .assert()
+            .code(2)
+            .stderr(predicate::str::contains(*message))
+            .stderr(predicate::str::contains("panicked").not());
+    }
+}
+
+#[test]
+fn a_lot_too_small_to_separate_the_points_has_no_plan() {
+    lotsman()
+        .args(["design", "--aql", "1%", "--rql", "2%", "--lot-size", "20"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("no sample can tell them apart"))
+        .stderr(predicate::str::contains(
+            "inspect 100% of the lot, or widen the pair of points",
+        ));
+}
+
+#[test]
+fn risk_points_too_close_are_refused_quickly() {
+    let started = std::time::Instant::now();
+    lotsman()
+        .args(["design", "--aql", "0.0000001", "--rql", "0.00000010001"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("too close"));
+    assert!(started.elapsed().as_secs_f64() < 5.0);
+}
+
+#[test]
+fn design_writes_a_source_that_verifies_and_will_not_overwrite_its_input() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("p.yaml");
+    let p = path.to_str().unwrap();
+    lotsman()
+        .args([
+            "design",
+            "--aql",
+            "0.5%",
+            "--rql",
+            "3%",
+            "--title",
+            "Test plan",
+            "--output",
+            p,
+        ])
+        .assert()
+        .success();
+    lotsman()
+        .args(["verify", p])
+        .assert()
+        .success()
+        .stdout(predicate::str::contains("1 match"));
+    lotsman()
+        .args(["design", p, "--output", p])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("is the plan source being read"));
+    // design FILE re-solves the source and prints the same plan as YAML.
+    let again = lotsman()
+        .args(["design", p, "--format", "yaml"])
+        .assert()
+        .success()
+        .get_output()
+        .stdout
+        .clone();
+    assert_eq!(
+        again,
+        std::fs::read(&path).unwrap(),
+        "a tool-written source round-trips byte for byte"
+    );
+}
+
+#[test]
+fn verify_reports_a_hand_edited_plan_with_exit_1() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("edited.yaml");
+    let original = std::fs::read_to_string("plans/tpw-seal-visual.yaml").unwrap();
+    std::fs::write(&path, original.replace("n: 166", "n: 150")).unwrap();
+    lotsman()
+        .args(["verify", path.to_str().unwrap(), "plans/tpw-cover-fit.yaml"])
+        .assert()
+        .code(1)
+        .stdout(predicate::str::contains(
+            "plan.stages[0].n: recorded 150, re-solved 166",
+        ))
+        .stdout(predicate::str::contains("1 match, 1 mismatch, 0 invalid"));
+}
+
+#[test]
+fn verify_of_an_invalid_source_exits_2_and_still_checks_the_others() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("typo.yaml");
+    let original = std::fs::read_to_string("plans/tpw-cover-fit.yaml").unwrap();
+    std::fs::write(&path, original.replace("lot_size: 400", "lotsize: 400")).unwrap();
+    lotsman()
+        .args([
+            "verify",
+            path.to_str().unwrap(),
+            "plans/tpw-seal-visual.yaml",
+            "--format",
+            "json",
+        ])
+        .assert()
+        .code(2)
+        .stdout(predicate::str::contains("unknown field `lotsize`"))
+        .stdout(predicate::str::contains("line 15"))
+        .stdout(predicate::str::contains("\"status\": \"match\""));
+}
+
+#[test]
+fn every_template_is_a_source_that_solves() {
+    let dir = tempfile::tempdir().unwrap();
+    for kind in ["binomial", "hypergeometric", "poisson"] {
+        let text = lotsman()
+            .args(["new", kind])
+            .assert()
+            .success()
+            .get_output()
+            .stdout
+            .clone();
+        let path = dir.path().join(format!("{kind}.yaml"));
+        std::fs::write(&path, text).unwrap();
+        let v = json_of(&["design", path.to_str().unwrap(), "--format", "json"]);
+        assert_eq!(v["model"], kind);
+    }
+}
+
+#[test]
+fn the_demo_plans_verify_and_the_demo_writes_its_files() {
+    lotsman()
+        .args([
+            "verify",
+            "plans/tpw-seal-visual.yaml",
+            "plans/tpw-cover-fit.yaml",
+            "plans/tpw-housing-finish.yaml",
+        ])
+        .assert()
+        .success();
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("demo");
+    lotsman()
+        .args(["demo", "--output-dir", out.to_str().unwrap()])
+        .assert()
+        .success()
+        .stdout(predicate::str::contains(
+            "the recorded plan matches a fresh solve",
+        ))
+        .stdout(predicate::str::contains("Sampling does not guarantee"));
+    for name in [
+        "tpw-seal-visual.yaml",
+        "tpw-cover-fit-oc.csv",
+        "tpw-housing-finish.yaml",
+    ] {
+        assert!(out.join(name).is_file(), "{name}");
+    }
+    assert_eq!(
+        std::fs::read(out.join("tpw-cover-fit.yaml")).unwrap(),
+        std::fs::read("plans/tpw-cover-fit.yaml").unwrap()
+    );
+}

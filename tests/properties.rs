@@ -1,0 +1,109 @@
+//! Property tests of the invariants the designer and the models promise.
+
+use lotsman::{
+    Model, ModelKind, RiskPair, RiskPoint, StagedPlan, acceptance_probability, design_single,
+};
+use proptest::prelude::*;
+
+fn model_strategy() -> impl Strategy<Value = Model> {
+    prop_oneof![
+        Just(Model::new(ModelKind::Binomial, None).unwrap()),
+        Just(Model::new(ModelKind::Poisson, None).unwrap()),
+        (200u64..20_000).prop_map(|n| Model::new(ModelKind::Hypergeometric, Some(n)).unwrap()),
+    ]
+}
+
+/// Risk points with p1 from 0.2% to 10% and p2 / p1 from 1.5 to 12.
+fn risks_strategy() -> impl Strategy<Value = (f64, f64, f64, f64)> {
+    (
+        0.002f64..0.10,
+        1.5f64..12.0,
+        prop::sample::select(vec![0.01, 0.05, 0.10]),
+        prop::sample::select(vec![0.05, 0.10, 0.20]),
+    )
+        .prop_map(|(p1, ratio, a, b)| (p1, (p1 * ratio).min(0.6), a, b))
+}
+
+fn meets(model: &Model, n: u64, c: u64, r: &RiskPair) -> bool {
+    let producer = model.tails(n, c, r.producer().quality, 0, 0).sf <= r.producer().risk;
+    let consumer = model.tails(n, c, r.consumer().quality, 0, 0).cdf <= r.consumer().risk;
+    producer && consumer
+}
+
+/// The smallest n over all c, by scanning n upward and every c at each n
+/// (only for small answers; the reference fixture covers large ones).
+fn brute_force_min_n(model: &Model, r: &RiskPair, n_cap: u64) -> Option<(u64, u64)> {
+    for n in 1..=n_cap.min(model.max_sample()) {
+        let c_top = if model.kind() == ModelKind::Poisson {
+            4 * n + 20
+        } else {
+            n - 1
+        };
+        if let Some(c) = (0..=c_top).find(|&c| meets(model, n, c, r)) {
+            return Some((n, c));
+        }
+    }
+    None
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(256))]
+
+    #[test]
+    fn the_solved_plan_meets_both_points_and_one_unit_less_meets_none(
+        model in model_strategy(), (p1, p2, a, b) in risks_strategy()
+    ) {
+        let risks = RiskPair::new(RiskPoint { quality: p1, risk: a }, RiskPoint { quality: p2, risk: b }, &model).unwrap();
+        let Ok(d) = design_single(&model, &risks) else { return Ok(()) };
+        prop_assert!(meets(&model, d.n, d.c, &risks));
+        prop_assert!((d.producer_risk - model.tails(d.n, d.c, p1, 0, 0).sf).abs() < 1e-15);
+        let smaller = d.n - 1;
+        if smaller >= 1 {
+            let c_top = if model.kind() == ModelKind::Poisson { 4 * smaller + 40 } else { smaller - 1 };
+            for c in 0..=c_top {
+                prop_assert!(!meets(&model, smaller, c, &risks), "n - 1 = {} meets with c = {}", smaller, c);
+            }
+        }
+    }
+
+    #[test]
+    fn the_solver_finds_the_smallest_n_over_all_c(
+        model in model_strategy(), p1 in 0.01f64..0.12, ratio in 2.0f64..8.0
+    ) {
+        let p2 = (p1 * ratio).min(0.7);
+        let risks = RiskPair::new(RiskPoint { quality: p1, risk: 0.05 }, RiskPoint { quality: p2, risk: 0.10 }, &model).unwrap();
+        let solved = design_single(&model, &risks).ok().map(|d| d.n);
+        let brute = brute_force_min_n(&model, &risks, 400).map(|(n, _)| n);
+        if let (Some(s), Some(bf)) = (solved, brute) {
+            prop_assert_eq!(s, bf);
+        } else {
+            // The brute force stops at 400: the solver's answer must be above it.
+            prop_assert!(solved.is_none_or(|s| s > 400), "solver {:?}, brute force {:?}", solved, brute);
+        }
+    }
+
+    #[test]
+    fn oc_falls_as_quality_worsens(
+        model in model_strategy(), n in 2u64..400, c_frac in 0.0f64..0.3, p in 0.001f64..0.5, step in 1.0001f64..1.5
+    ) {
+        let c = ((n as f64 * c_frac) as u64).min(n - 1);
+        let n = n.min(model.max_sample());
+        let c = c.min(n - 1);
+        let plan = StagedPlan::single(n, c, &model).unwrap();
+        let worse = (p * step).min(0.999);
+        prop_assert!(acceptance_probability(&plan, &model, worse) <= acceptance_probability(&plan, &model, p) + 1e-14);
+    }
+
+    #[test]
+    fn probabilities_sum_to_one(model in model_strategy(), n in 1u64..3000, p in 0.0005f64..0.9) {
+        let n = n.min(model.max_sample());
+        let top = if model.kind() == ModelKind::Poisson { (n as f64 * p * 3.0 + 60.0) as u64 } else { n };
+        let total: f64 = (0..=top).map(|k| model.pmf(n, k, p, 0, 0)).sum();
+        prop_assert!((total - 1.0).abs() < 1e-12, "sum {}", total);
+        // And the tails agree with the pmf at every cut tested.
+        let c = top / 3;
+        let cdf: f64 = (0..=c).map(|k| model.pmf(n, k, p, 0, 0)).sum();
+        let t = model.tails(n, c, p, 0, 0);
+        prop_assert!((t.cdf - cdf).abs() < 1e-12 && (t.cdf + t.sf - 1.0).abs() < 1e-14);
+    }
+}
