@@ -62,12 +62,14 @@ impl Terms for Hypergeometric {
 
     fn ratio_up(&self, k: u64) -> f64 {
         let num = (self.bad - k) as f64 * (self.sample - k) as f64;
-        let den = (k + 1) as f64 * (self.lot - self.bad - self.sample + k + 1) as f64;
+        // Good units left out of the sample: N - D - (n - k), ordered so that
+        // no intermediate goes below zero inside the support.
+        let den = (k + 1) as f64 * (self.lot - self.bad + k + 1 - self.sample) as f64;
         num / den
     }
 
     fn ratio_down(&self, k: u64) -> f64 {
-        let num = k as f64 * (self.lot - self.bad - self.sample + k) as f64;
+        let num = k as f64 * (self.lot - self.bad + k - self.sample) as f64;
         let den = (self.bad - k + 1) as f64 * (self.sample - k + 1) as f64;
         num / den
     }
