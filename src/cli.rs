@@ -48,14 +48,7 @@ pub enum DesignFormat {
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
-pub enum EvaluateFormat {
-    Table,
-    Json,
-    Csv,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
-pub enum VerifyFormat {
+pub enum ReportFormatArg {
     Table,
     Json,
     Csv,
@@ -129,7 +122,7 @@ pub struct EvaluateArgs {
     pub range: Option<String>,
     /// Output format
     #[arg(long, value_enum, default_value = "table")]
-    pub format: EvaluateFormat,
+    pub format: ReportFormatArg,
 }
 
 #[derive(Debug, Args)]
@@ -139,7 +132,7 @@ pub struct VerifyArgs {
     pub sources: Vec<PathBuf>,
     /// Output format
     #[arg(long, value_enum, default_value = "table")]
-    pub format: VerifyFormat,
+    pub format: ReportFormatArg,
 }
 
 #[derive(Debug, Args)]

@@ -9,7 +9,7 @@ use std::path::Path;
 use std::process::ExitCode;
 
 use clap::Parser;
-use cli::{Cli, Command, DesignFormat, EvaluateFormat, ModelArg, ModelFlags, VerifyFormat};
+use cli::{Cli, Command, DesignFormat, ModelArg, ModelFlags, ReportFormatArg};
 use lotsman::{
     Csv, DesignReport, DesignRequest, Error, EvaluationReport, InputError, Json, MAX_LOT_SIZE,
     Model, ModelKind, PlanSource, QualityRange, ReportFormat, RiskPair, RiskPoint, Scheme,
@@ -47,6 +47,14 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             .into()),
         },
         Command::Demo(args) => demo(&args.output_dir),
+    }
+}
+
+fn formatter(format: ReportFormatArg) -> &'static dyn ReportFormat {
+    match format {
+        ReportFormatArg::Table => &Table,
+        ReportFormatArg::Json => &Json,
+        ReportFormatArg::Csv => &Csv,
     }
 }
 
@@ -210,11 +218,7 @@ fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
     let evaluation = evaluate(&plan, &model, &qualities)?;
     let report = EvaluationReport::from(&evaluation);
     let mut text = Vec::new();
-    match args.format {
-        EvaluateFormat::Table => Table.evaluation(&mut text, &report)?,
-        EvaluateFormat::Json => Json.evaluation(&mut text, &report)?,
-        EvaluateFormat::Csv => Csv.evaluation(&mut text, &report)?,
-    }
+    formatter(args.format).evaluation(&mut text, &report)?;
     print_out(&text)?;
     Ok(ExitCode::SUCCESS)
 }
@@ -242,11 +246,7 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
         results: args.sources.iter().map(|p| verify_one(p)).collect(),
     };
     let mut text = Vec::new();
-    match args.format {
-        VerifyFormat::Table => Table.verification(&mut text, &report)?,
-        VerifyFormat::Json => Json.verification(&mut text, &report)?,
-        VerifyFormat::Csv => Csv.verification(&mut text, &report)?,
-    }
+    formatter(args.format).verification(&mut text, &report)?;
     print_out(&text)?;
     Ok(match report.worst() {
         VerifyStatus::Match => ExitCode::SUCCESS,

@@ -67,31 +67,22 @@ pub(crate) fn tails<T: Terms>(d: &T, c: u64) -> Tails {
 
 /// `sum_{k = lo}^{start} P(X = k) / P(X = start)` for `start` below the mode.
 fn sum_down<T: Terms>(d: &T, start: u64, lo: u64) -> f64 {
-    let mut sum = 1.0;
-    let mut term = 1.0;
-    let mut k = start;
-    while k > lo {
-        let r = d.ratio_down(k);
-        term *= r;
-        sum += term;
-        k -= 1;
-        if r == 0.0 || (r < 1.0 && term * r / (1.0 - r) <= sum * NEGLIGIBLE) {
-            break;
-        }
-    }
-    sum
+    sum_outward(((lo + 1)..=start).rev().map(|k| d.ratio_down(k)))
 }
 
 /// `sum_{k = start}^{hi} P(X = k) / P(X = start)` for `start` above the mode.
 fn sum_up<T: Terms>(d: &T, start: u64, hi: u64) -> f64 {
+    sum_outward((start..hi).map(|k| d.ratio_up(k)))
+}
+
+/// `1 + r1 + r1 r2 + ...` over the ratios of successive terms, which fall
+/// monotonically; stops once the geometric bound on the rest is negligible.
+fn sum_outward(ratios: impl Iterator<Item = f64>) -> f64 {
     let mut sum = 1.0;
     let mut term = 1.0;
-    let mut k = start;
-    while k < hi {
-        let r = d.ratio_up(k);
+    for r in ratios {
         term *= r;
         sum += term;
-        k += 1;
         if r == 0.0 || (r < 1.0 && term * r / (1.0 - r) <= sum * NEGLIGIBLE) {
             break;
         }
