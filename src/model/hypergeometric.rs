@@ -29,20 +29,21 @@ impl Hypergeometric {
 }
 
 /// The number of nonconforming units in a lot of `lot` units at quality `p`:
-/// `D = round(p N)`, halves rounded up.
+/// `D = round(p N)`, halves rounded up, clamped to `0..=N`.
 ///
 /// A lot holds a whole number of nonconforming units, so the quality of a
-/// finite lot is always `D / N`. A product `p N` within `1e-9` (relative) of a
-/// whole number is taken as that number first, so that `0.07 * 100`, which is
-/// `7.000000000000001` in binary, means 7 and not a rounding accident.
+/// finite lot is always `D / N`. The product `p N` is formed in binary and
+/// may land a hair off the decimal the user meant (`0.07 * 100` is
+/// `7.000000000000001`, `0.29 * 50` is `14.499999999999998`), so a relative
+/// allowance of `1e-9` is added before rounding: the first means 7, the
+/// second 14.5, which rounds up to 15.
+///
+/// ```text
+/// D = floor(p N + 0.5 + 1e-9 max(1, p N))
+/// ```
 pub fn nonconforming_in_lot(p: f64, lot: u64) -> u64 {
     let x = p * lot as f64;
-    let nearest = x.round();
-    let d = if (x - nearest).abs() <= 1e-9 * nearest.max(1.0) {
-        nearest
-    } else {
-        (x + 0.5).floor()
-    };
+    let d = (x + 0.5 + 1e-9 * x.max(1.0)).floor();
     (d.max(0.0) as u64).min(lot)
 }
 
@@ -123,6 +124,7 @@ mod tests {
         assert_eq!(nonconforming_in_lot(0.004, 100), 0);
         assert_eq!(nonconforming_in_lot(0.005, 100), 1);
         assert_eq!(nonconforming_in_lot(0.999_999, 100), 100);
+        assert_eq!(nonconforming_in_lot(0.29, 50), 15); // 14.499999999999998 means 14.5
     }
 
     #[test]
