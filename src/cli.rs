@@ -22,6 +22,8 @@ pub enum Command {
     Evaluate(EvaluateArgs),
     /// Re-solve plan sources and compare with the plans they record.
     Verify(VerifyArgs),
+    /// Print the plan sheet (PDF) of each plan source.
+    Sheet(SheetArgs),
     /// Print a commented plan-source template.
     New(NewArgs),
     /// Run the whole job on the demo plans of the invented scenario.
@@ -130,9 +132,34 @@ pub struct VerifyArgs {
     /// Plan sources to verify
     #[arg(value_name = "FILE.yaml", required = true)]
     pub sources: Vec<PathBuf>,
+    /// A sheet to check against its source's hash; repeat once per source, in order
+    #[arg(long, value_name = "FILE.pdf")]
+    pub sheet: Vec<PathBuf>,
     /// Output format
     #[arg(long, value_enum, default_value = "table")]
     pub format: ReportFormatArg,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum PaperArg {
+    A4,
+    Letter,
+}
+
+#[derive(Debug, Args)]
+pub struct SheetArgs {
+    /// Plan sources to print
+    #[arg(value_name = "FILE.yaml", required = true)]
+    pub sources: Vec<PathBuf>,
+    /// The PDF to write (one source only) [default: the source's name with .pdf]
+    #[arg(long, value_name = "FILE.pdf", conflicts_with = "output_dir")]
+    pub output: Option<PathBuf>,
+    /// Folder for the PDFs, named after their sources
+    #[arg(long, value_name = "DIR")]
+    pub output_dir: Option<PathBuf>,
+    /// Paper size
+    #[arg(long, value_enum, default_value = "a4")]
+    pub paper: PaperArg,
 }
 
 #[derive(Debug, Args)]
@@ -144,7 +171,7 @@ pub struct NewArgs {
 
 #[derive(Debug, Args)]
 pub struct DemoArgs {
-    /// Folder for the demo's plan sources and OC tables
+    /// Folder for the demo's plan sources, OC tables and sheets
     #[arg(long, value_name = "DIR", default_value = "lotsman-demo")]
     pub output_dir: PathBuf,
 }

@@ -4,7 +4,8 @@
 //!
 //! For each embedded source in `plans/`: verify the recorded plan against a
 //! fresh solve, evaluate it at the qualities that bracket its risk points,
-//! and write the source and its OC table (CSV) into the output folder.
+//! and write the source, its OC table (CSV) and its plan sheet (PDF) into
+//! the output folder.
 
 use std::path::{Path, PathBuf};
 
@@ -73,9 +74,12 @@ pub fn run_demo(dir: &Path) -> Result<Vec<DemoRow>, Error> {
         let csv_path = dir.join(name.replace(".yaml", "-oc.csv"));
         let mut csv = Vec::new();
         Csv.evaluation(&mut csv, &EvaluationReport::from(&evaluation))?;
+        let sheet_path = dir.join(name.replace(".yaml", ".pdf"));
+        let sheet = crate::sheet::render_sheet(text, &source, name, crate::sheet::Paper::A4)?;
         for (path, bytes) in [
             (&source_path, source.to_yaml().into_bytes()),
             (&csv_path, csv),
+            (&sheet_path, sheet.pdf),
         ] {
             write_atomic(path, &bytes).map_err(|e| SourceError::Io {
                 path: path.clone(),
@@ -95,7 +99,7 @@ pub fn run_demo(dir: &Path) -> Result<Vec<DemoRow>, Error> {
             risks,
             aoql: (limit.value, limit.quality),
             verified,
-            written: vec![source_path, csv_path],
+            written: vec![source_path, csv_path, sheet_path],
         });
     }
     Ok(rows)

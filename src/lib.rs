@@ -39,6 +39,7 @@ mod plan;
 mod quantity;
 mod report;
 mod risk;
+mod sheet;
 mod source;
 mod templates;
 
@@ -63,6 +64,9 @@ pub use report::{
     VerificationReport, VerifyEntry, VerifyStatus, format_quality, format_significant,
 };
 pub use risk::{RiskPair, RiskPoint};
+pub use sheet::{
+    HASH_PREFIX, Paper, Sheet, render_sheet, sheet_source_hash, source_hash, write_sheet,
+};
 pub use source::{
     Difference, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan, SCHEMA_VERSION, Verdict,
     tool_version, verify,

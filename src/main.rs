@@ -5,17 +5,18 @@
 mod cli;
 
 use std::io::Write;
-use std::path::Path;
+use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
 use clap::Parser;
-use cli::{Cli, Command, DesignFormat, ModelArg, ModelFlags, ReportFormatArg};
+use cli::{Cli, Command, DesignFormat, ModelArg, ModelFlags, PaperArg, ReportFormatArg};
 use lotsman::{
     Csv, DesignReport, DesignRequest, Error, EvaluationReport, InputError, Json, MAX_LOT_SIZE,
-    Model, ModelKind, PlanSource, QualityRange, ReportFormat, RiskPair, RiskPoint, Scheme,
+    Model, ModelKind, Paper, PlanSource, QualityRange, ReportFormat, RiskPair, RiskPoint, Scheme,
     SourceError, StagedPlan, Table, Verdict, VerificationReport, VerifyEntry, VerifyStatus,
     default_qualities, evaluate, parse_count, parse_fraction, parse_fraction_list, parse_stage,
-    run_demo, solve, template, template_kinds, verify, write_atomic,
+    run_demo, sheet_source_hash, solve, source_hash, template, template_kinds, verify,
+    write_atomic, write_sheet,
 };
 
 fn main() -> ExitCode {
@@ -47,6 +48,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             .into()),
         },
         Command::Demo(args) => demo(&args.output_dir),
+        Command::Sheet(args) => sheet_cmd(args),
     }
 }
 
@@ -241,10 +243,51 @@ fn verify_one(path: &Path) -> VerifyEntry {
     }
 }
 
-fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
-    let report = VerificationReport {
-        results: args.sources.iter().map(|p| verify_one(p)).collect(),
+/// Checks that the sheet at `pdf` carries the hash of the source at `source`.
+fn check_sheet(entry: &mut VerifyEntry, source: &Path, pdf: &Path) {
+    let recorded = std::fs::read(pdf)
+        .map_err(|e| e.to_string())
+        .and_then(|b| sheet_source_hash(&b));
+    let actual = std::fs::read_to_string(source).map(|t| source_hash(&t));
+    let invalid = |entry: &mut VerifyEntry, message: String| {
+        entry.status = VerifyStatus::Invalid;
+        entry.message = Some(message);
     };
+    match (recorded, actual) {
+        (Ok(Some(r)), Ok(a)) if r == a => {}
+        (Ok(Some(r)), Ok(a)) => {
+            if entry.status == VerifyStatus::Match {
+                entry.status = VerifyStatus::Mismatch;
+            }
+            entry.differences.push(lotsman::Difference {
+                field: format!("sheet {} source SHA-256", pdf.display()),
+                recorded: r,
+                resolved: a,
+            });
+        }
+        (Ok(None), _) => invalid(
+            entry,
+            format!("{}: not a lotsman sheet (no source hash)", pdf.display()),
+        ),
+        (Err(e), _) => invalid(entry, format!("{}: {e}", pdf.display())),
+        (_, Err(e)) => invalid(entry, format!("{}: {e}", source.display())),
+    }
+}
+
+fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
+    if !args.sheet.is_empty() && args.sheet.len() != args.sources.len() {
+        return Err(InputError::Inconsistent(format!(
+            "--sheet was given {} times for {} sources; give one sheet per source, in the same order",
+            args.sheet.len(),
+            args.sources.len()
+        ))
+        .into());
+    }
+    let mut results: Vec<VerifyEntry> = args.sources.iter().map(|p| verify_one(p)).collect();
+    for ((entry, source), pdf) in results.iter_mut().zip(&args.sources).zip(&args.sheet) {
+        check_sheet(entry, source, pdf);
+    }
+    let report = VerificationReport { results };
     let mut text = Vec::new();
     formatter(args.format).verification(&mut text, &report)?;
     print_out(&text)?;
@@ -252,6 +295,56 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
         VerifyStatus::Match => ExitCode::SUCCESS,
         VerifyStatus::Mismatch => ExitCode::from(1),
         VerifyStatus::Invalid => ExitCode::from(2),
+    })
+}
+
+fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
+    use rayon::prelude::*;
+    if args.output.is_some() && args.sources.len() > 1 {
+        return Err(InputError::Inconsistent(
+            "--output names one PDF; for several sources use --output-dir DIR".to_string(),
+        )
+        .into());
+    }
+    let paper = match args.paper {
+        PaperArg::A4 => Paper::A4,
+        PaperArg::Letter => Paper::Letter,
+    };
+    let target = |source: &Path| -> PathBuf {
+        if let Some(out) = &args.output {
+            return out.clone();
+        }
+        let name = source.with_extension("pdf");
+        match &args.output_dir {
+            Some(dir) => dir.join(name.file_name().unwrap_or_default()),
+            None => name,
+        }
+    };
+    let outcomes: Vec<(PathBuf, Result<(), Error>)> = args
+        .sources
+        .par_iter()
+        .map(|source| {
+            let out = target(source);
+            let result = refuse_overwriting_input(&out, Some(source))
+                .map_err(Error::from)
+                .and_then(|()| write_sheet(source, &out, paper));
+            (out, result)
+        })
+        .collect();
+    let mut failed = 0;
+    for (out, result) in &outcomes {
+        match result {
+            Ok(()) => println!("wrote {}", out.display()),
+            Err(e) => {
+                failed += 1;
+                eprintln!("lotsman: error: {e}");
+            }
+        }
+    }
+    Ok(if failed == 0 {
+        ExitCode::SUCCESS
+    } else {
+        ExitCode::from(2)
     })
 }
 

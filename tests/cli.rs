@@ -368,6 +368,7 @@ fn the_demo_plans_verify_and_the_demo_writes_its_files() {
         "tpw-seal-visual.yaml",
         "tpw-cover-fit-oc.csv",
         "tpw-housing-finish.yaml",
+        "tpw-cover-fit.pdf",
     ] {
         assert!(out.join(name).is_file(), "{name}");
     }

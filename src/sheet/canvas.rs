@@ -1,0 +1,288 @@
+//! A page being drawn: text in the embedded DejaVu fonts with measured
+//! widths, lines, boxes and markers, in millimetres from the bottom-left
+//! corner. Layout code asks the canvas how wide a text is and records every
+//! box it fills, so a test can prove that nothing overlaps or overflows.
+
+use printpdf::{
+    Color, FontId, Line, LineDashPattern, LinePoint, Mm, Op, PaintMode, ParsedFont, PdfFontHandle,
+    Point, Polygon, PolygonRing, Pt, Rgb, TextItem, WindingOrder,
+};
+
+/// The two faces of the sheet.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Face {
+    Regular,
+    Bold,
+}
+
+/// A filled rectangle of the layout, for the overlap check.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Region {
+    pub name: String,
+    pub x: f64,
+    pub y: f64,
+    pub w: f64,
+    pub h: f64,
+}
+
+impl Region {
+    pub fn overlaps(&self, other: &Region) -> bool {
+        const EPS: f64 = 1e-6;
+        self.x + EPS < other.x + other.w
+            && other.x + EPS < self.x + self.w
+            && self.y + EPS < other.y + other.h
+            && other.y + EPS < self.y + self.h
+    }
+}
+
+pub struct Canvas<'f> {
+    pub ops: Vec<Op>,
+    pub regions: Vec<Region>,
+    /// Text that did not fit its box even at the smallest size (must stay empty).
+    pub overflows: Vec<String>,
+    regular: &'f ParsedFont,
+    bold: &'f ParsedFont,
+}
+
+pub const REGULAR_ID: &str = "SheetSans";
+pub const BOLD_ID: &str = "SheetSansBold";
+
+fn pt(v: f64) -> Pt {
+    Pt::from(Mm(v as f32))
+}
+
+fn point(x: f64, y: f64) -> LinePoint {
+    LinePoint {
+        p: Point { x: pt(x), y: pt(y) },
+        bezier: false,
+    }
+}
+
+pub fn grey(level: f32) -> Color {
+    Color::Rgb(Rgb {
+        r: level,
+        g: level,
+        b: level,
+        icc_profile: None,
+    })
+}
+
+pub fn rgb(r: f32, g: f32, b: f32) -> Color {
+    Color::Rgb(Rgb {
+        r,
+        g,
+        b,
+        icc_profile: None,
+    })
+}
+
+impl<'f> Canvas<'f> {
+    pub fn new(regular: &'f ParsedFont, bold: &'f ParsedFont) -> Self {
+        Canvas {
+            ops: Vec::new(),
+            regions: Vec::new(),
+            overflows: Vec::new(),
+            regular,
+            bold,
+        }
+    }
+
+    /// Width of `text` in mm at `size` points.
+    pub fn width(&self, text: &str, face: Face, size: f64) -> f64 {
+        let font = match face {
+            Face::Regular => self.regular,
+            Face::Bold => self.bold,
+        };
+        let units: f64 = text
+            .chars()
+            .map(|ch| {
+                font.lookup_glyph_index(ch as u32)
+                    .and_then(|g| font.get_glyph_width(g))
+                    .unwrap_or(font.units_per_em / 2) as f64
+            })
+            .sum();
+        units / font.units_per_em as f64 * size * 25.4 / 72.0
+    }
+
+    /// Writes one line of text with its baseline at `(x, y)`.
+    pub fn text(&mut self, x: f64, y: f64, text: &str, face: Face, size: f64, color: Color) {
+        let id = match face {
+            Face::Regular => REGULAR_ID,
+            Face::Bold => BOLD_ID,
+        };
+        let font = match face {
+            Face::Regular => self.regular,
+            Face::Bold => self.bold,
+        };
+        for ch in text
+            .chars()
+            .filter(|&ch| font.lookup_glyph_index(ch as u32).is_none())
+        {
+            self.overflows.push(format!(
+                "the character '{ch}' (U+{:04X}) has no glyph in the sheet font",
+                ch as u32
+            ));
+        }
+        self.ops.push(Op::SaveGraphicsState);
+        self.ops.push(Op::SetFillColor { col: color });
+        self.ops.push(Op::StartTextSection);
+        self.ops.push(Op::SetFont {
+            font: PdfFontHandle::External(FontId(id.to_string())),
+            size: Pt(size as f32),
+        });
+        self.ops.push(Op::SetTextCursor {
+            pos: Point { x: pt(x), y: pt(y) },
+        });
+        self.ops.push(Op::ShowText {
+            items: vec![TextItem::Text(text.to_string())],
+        });
+        self.ops.push(Op::EndTextSection);
+        self.ops.push(Op::RestoreGraphicsState);
+    }
+
+    /// Text right-aligned at `x_right`.
+    pub fn text_right(
+        &mut self,
+        x_right: f64,
+        y: f64,
+        text: &str,
+        face: Face,
+        size: f64,
+        color: Color,
+    ) {
+        let w = self.width(text, face, size);
+        self.text(x_right - w, y, text, face, size, color);
+    }
+
+    /// Breaks `text` into lines no wider than `w` mm at `size`.
+    pub fn wrap(&self, text: &str, face: Face, size: f64, w: f64) -> Vec<String> {
+        let mut lines = Vec::new();
+        let mut line = String::new();
+        for word in text.split_whitespace() {
+            let candidate = if line.is_empty() {
+                word.to_string()
+            } else {
+                format!("{line} {word}")
+            };
+            if self.width(&candidate, face, size) <= w || line.is_empty() {
+                line = candidate;
+            } else {
+                lines.push(std::mem::take(&mut line));
+                line = word.to_string();
+            }
+        }
+        if !line.is_empty() {
+            lines.push(line);
+        }
+        lines
+    }
+
+    /// Writes `text` wrapped into the box `(x, top, w, h)`, shrinking from
+    /// `size` down to `min_size` until it fits; records an overflow when it
+    /// never does. Returns the height used.
+    #[allow(clippy::too_many_arguments)]
+    pub fn paragraph(
+        &mut self,
+        name: &str,
+        x: f64,
+        top: f64,
+        w: f64,
+        h: f64,
+        text: &str,
+        face: Face,
+        size: f64,
+        min_size: f64,
+    ) -> f64 {
+        let mut s = size;
+        loop {
+            let lines = self.wrap(text, face, s, w);
+            let lead = s * 0.3528 * 1.25;
+            let need = lead * lines.len() as f64;
+            let widest = lines
+                .iter()
+                .map(|l| self.width(l, face, s))
+                .fold(0.0, f64::max);
+            if (need <= h && widest <= w + 1e-6) || s <= min_size {
+                if need > h + 1e-6 || widest > w + 1e-6 {
+                    self.overflows.push(format!("{name}: '{text}'"));
+                }
+                for (i, l) in lines.iter().enumerate() {
+                    let y = top - s * 0.3528 - lead * i as f64;
+                    self.text(x, y, l, face, s, grey(0.0));
+                }
+                return need;
+            }
+            s -= 0.5;
+        }
+    }
+
+    pub fn line(&mut self, pts: &[(f64, f64)], thickness: f64, color: Color, dash: Option<f32>) {
+        self.ops.push(Op::SaveGraphicsState);
+        self.ops.push(Op::SetOutlineColor { col: color });
+        self.ops.push(Op::SetOutlineThickness {
+            pt: Pt(thickness as f32),
+        });
+        if let Some(d) = dash {
+            self.ops.push(Op::SetLineDashPattern {
+                dash: LineDashPattern::new(0.0, &[d, d]),
+            });
+        }
+        self.ops.push(Op::DrawLine {
+            line: Line {
+                points: pts.iter().map(|&(x, y)| point(x, y)).collect(),
+                is_closed: false,
+            },
+        });
+        self.ops.push(Op::RestoreGraphicsState);
+    }
+
+    pub fn rect_stroke(&mut self, x: f64, y: f64, w: f64, h: f64, thickness: f64, color: Color) {
+        self.line(
+            &[(x, y), (x + w, y), (x + w, y + h), (x, y + h), (x, y)],
+            thickness,
+            color,
+            None,
+        );
+    }
+
+    pub fn rect_fill(&mut self, x: f64, y: f64, w: f64, h: f64, color: Color) {
+        self.fill(&[(x, y), (x + w, y), (x + w, y + h), (x, y + h)], color);
+    }
+
+    /// A filled diamond marker centred at `(x, y)`.
+    pub fn marker(&mut self, x: f64, y: f64, r: f64, color: Color) {
+        self.fill(&[(x, y - r), (x + r, y), (x, y + r), (x - r, y)], color);
+    }
+
+    /// A filled polygon through `pts`.
+    fn fill(&mut self, pts: &[(f64, f64)], color: Color) {
+        self.ops.push(Op::SaveGraphicsState);
+        self.ops.push(Op::SetFillColor { col: color });
+        self.ops.push(Op::DrawPolygon {
+            polygon: Polygon {
+                rings: vec![PolygonRing {
+                    points: pts.iter().map(|&(x, y)| point(x, y)).collect(),
+                }],
+                mode: PaintMode::Fill,
+                winding_order: WindingOrder::NonZero,
+            },
+        });
+        self.ops.push(Op::RestoreGraphicsState);
+    }
+
+    /// A section heading: small bold capitals in grey.
+    pub fn heading(&mut self, x: f64, y: f64, text: &str) {
+        self.text(x, y, text, Face::Bold, 7.0, grey(0.3));
+    }
+
+    /// Records that the block `name` occupies `(x, y, w, h)`.
+    pub fn claim(&mut self, name: &str, x: f64, y: f64, w: f64, h: f64) {
+        self.regions.push(Region {
+            name: name.to_string(),
+            x,
+            y,
+            w,
+            h,
+        });
+    }
+}
