@@ -132,20 +132,28 @@ pub fn draw(c: &mut Canvas, name: &str, x: f64, y: f64, w: f64, h: f64, chart: &
         let (mx, my) = (sx(m.x), sy(m.y));
         c.marker(mx, my, 1.3, rgb(0.75, 0.2, 0.1));
         let lw = c.width(&m.label, Face::Regular, 6.5);
-        // Label to the right unless it would leave the plot.
-        let lx = if mx + 2.0 + lw <= right {
-            mx + 2.0
-        } else {
-            mx - 2.0 - lw
+        // The first of right-above, left-above, right-below, left-below that
+        // stays inside the plot and clear of the dashed guide.
+        let guide_x = chart.guide.as_ref().map(|(g, _)| sx(*g));
+        let candidates = [
+            (mx + 2.0, my + 1.2),
+            (mx - 2.0 - lw, my + 1.2),
+            (mx + 2.0, my - 3.6),
+            (mx - 2.0 - lw, my - 3.6),
+        ];
+        let fits = |&(lx, ly): &(f64, f64)| {
+            lx >= left
+                && lx + lw <= right
+                && ly >= bottom + 0.5
+                && ly + 2.5 <= top
+                && guide_x.is_none_or(|g| g < lx - 0.5 || g > lx + lw + 0.5)
         };
-        c.text(
-            lx,
-            my + 1.2,
-            &m.label,
-            Face::Regular,
-            6.5,
-            rgb(0.55, 0.1, 0.05),
-        );
+        let (lx, ly) = candidates
+            .iter()
+            .copied()
+            .find(fits)
+            .unwrap_or(candidates[0]);
+        c.text(lx, ly, &m.label, Face::Regular, 6.5, rgb(0.55, 0.1, 0.05));
     }
 }
 
