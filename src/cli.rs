@@ -22,6 +22,8 @@ pub enum Command {
     Evaluate(EvaluateArgs),
     /// Re-solve plan sources and compare with the plans they record.
     Verify(VerifyArgs),
+    /// Decide a lot from the counts found: accept, reject, or go on.
+    Judge(JudgeArgs),
     /// Print the plan sheet (PDF) of each plan source.
     Sheet(SheetArgs),
     /// Print a commented plan-source template.
@@ -138,6 +140,25 @@ pub struct VerifyArgs {
     /// Output format
     #[arg(long, value_enum, default_value = "table")]
     pub format: ReportFormatArg,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum JudgeFormat {
+    Text,
+    Json,
+}
+
+#[derive(Debug, Args)]
+pub struct JudgeArgs {
+    /// The plan source whose recorded plan decides
+    #[arg(value_name = "FILE.yaml")]
+    pub source: PathBuf,
+    /// Count found in each stage's new units, in order (repeat per stage)
+    #[arg(long, value_name = "K", required = true)]
+    pub found: Vec<String>,
+    /// Output format
+    #[arg(long, value_enum, default_value = "text")]
+    pub format: JudgeFormat,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]

@@ -52,9 +52,9 @@ pub use design::{
 pub use error::{DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, Tails, nonconforming_in_lot};
 pub use plan::{
-    Aoql, Evaluation, MAX_STAGES, Measures, Stage, StageOutcomes, StagedPlan,
-    acceptance_probability, aoql, default_qualities, evaluate, indifference_quality, measures,
-    quality_at_pa, stage_outcomes,
+    Aoql, Decision, Evaluation, Judgement, MAX_STAGES, Measures, Stage, StageOutcomes, StagedPlan,
+    acceptance_probability, aoql, default_qualities, evaluate, indifference_quality, judge,
+    measures, quality_at_pa, stage_outcomes,
 };
 pub use quantity::{
     MAX_RANGE_POINTS, QualityRange, parse_count, parse_fraction, parse_fraction_list, parse_stage,

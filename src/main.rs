@@ -11,12 +11,12 @@ use std::process::ExitCode;
 use clap::Parser;
 use cli::{Cli, Command, DesignFormat, ModelArg, ModelFlags, PaperArg, ReportFormatArg};
 use lotsman::{
-    Csv, DesignReport, DesignRequest, Error, EvaluationReport, InputError, Json, MAX_LOT_SIZE,
-    Model, ModelKind, Paper, PlanSource, QualityRange, ReportFormat, RiskPair, RiskPoint, Scheme,
-    SourceError, StagedPlan, Table, Verdict, VerificationReport, VerifyEntry, VerifyStatus,
-    default_qualities, evaluate, parse_count, parse_fraction, parse_fraction_list, parse_stage,
-    run_demo, sheet_source_hash, solve, source_hash, template, template_kinds, verify,
-    write_atomic, write_sheet,
+    Csv, Decision, DesignReport, DesignRequest, Error, EvaluationReport, InputError, Json,
+    MAX_LOT_SIZE, Model, ModelKind, Paper, PlanSource, QualityRange, ReportFormat, RiskPair,
+    RiskPoint, Scheme, SourceError, StagedPlan, Table, Verdict, VerificationReport, VerifyEntry,
+    VerifyStatus, default_qualities, evaluate, judge, parse_count, parse_fraction,
+    parse_fraction_list, parse_stage, run_demo, sheet_source_hash, solve, source_hash, template,
+    template_kinds, verify, write_atomic, write_sheet,
 };
 
 fn main() -> ExitCode {
@@ -49,6 +49,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
         },
         Command::Demo(args) => demo(&args.output_dir),
         Command::Sheet(args) => sheet_cmd(args),
+        Command::Judge(args) => judge_cmd(args),
     }
 }
 
@@ -296,6 +297,58 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
         VerifyStatus::Mismatch => ExitCode::from(1),
         VerifyStatus::Invalid => ExitCode::from(2),
     })
+}
+
+fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
+    let source = PlanSource::load(&args.source)?;
+    let invalid = |e| SourceError::Invalid {
+        path: args.source.clone(),
+        source: e,
+    };
+    let request = source.request().map_err(invalid)?;
+    let plan = source.recorded_plan(&request.model).map_err(invalid)?;
+    let found = args
+        .found
+        .iter()
+        .map(|k| parse_count("--found", k, u64::MAX))
+        .collect::<Result<Vec<_>, _>>()?;
+    let j = judge(&plan, &request.model, &found)?;
+    let text = match args.format {
+        cli::JudgeFormat::Json => {
+            serde_json::to_string_pretty(&j).map_err(std::io::Error::other)? + "\n"
+        }
+        cli::JudgeFormat::Text => {
+            let rule = match j.decision {
+                Decision::Accept => format!(
+                    "{} <= acceptance number {}",
+                    j.cumulative_count,
+                    j.accept.unwrap_or(0)
+                ),
+                Decision::Reject => {
+                    format!("{} >= rejection number {}", j.cumulative_count, j.reject)
+                }
+                Decision::Continue => format!(
+                    "{} lies between the acceptance and rejection numbers; inspect {} more units",
+                    j.cumulative_count,
+                    j.next_units.unwrap_or(0)
+                ),
+            };
+            let verdict = match j.decision {
+                Decision::Accept => "ACCEPT the lot",
+                Decision::Reject => "REJECT the lot",
+                Decision::Continue => "GO ON to the next stage",
+            };
+            format!(
+                "{verdict}\n  stage {}: {} units inspected in all, cumulative count {rule}\n  plan {} from {}\n",
+                j.stage,
+                j.inspected,
+                plan,
+                args.source.display()
+            )
+        }
+    };
+    print_out(text.as_bytes())?;
+    Ok(ExitCode::SUCCESS)
 }
 
 fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {

@@ -377,3 +377,27 @@ fn the_demo_plans_verify_and_the_demo_writes_its_files() {
         std::fs::read("plans/tpw-cover-fit.yaml").unwrap()
     );
 }
+
+#[test]
+fn judge_gives_the_lot_decision_as_text_and_json() {
+    lotsman()
+        .args(["judge", "plans/tpw-seal-visual.yaml", "--found", "3"])
+        .assert()
+        .success()
+        .stdout(predicate::str::starts_with("ACCEPT the lot"));
+    let v = json_of(&[
+        "judge",
+        "plans/tpw-seal-visual.yaml",
+        "--found",
+        "4",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(v["decision"], "reject");
+    assert_eq!(v["cumulative_count"], 4);
+    lotsman()
+        .args(["judge", "plans/tpw-seal-visual.yaml", "--found", "167"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("0 to 166"));
+}
