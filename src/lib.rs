@@ -53,8 +53,8 @@ pub use error::{DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, Tails, nonconforming_in_lot};
 pub use plan::{
     Aoql, Decision, Evaluation, Judgement, MAX_STAGES, Measures, Stage, StageOutcomes, StagedPlan,
-    acceptance_probability, aoql, default_qualities, evaluate, indifference_quality, judge,
-    measures, quality_at_pa, stage_outcomes,
+    acceptance_probability, aoql, average_outgoing_quality, default_qualities, evaluate,
+    indifference_quality, judge, measures, quality_at_pa, stage_outcomes,
 };
 pub use quantity::{
     MAX_RANGE_POINTS, QualityRange, parse_count, parse_fraction, parse_fraction_list, parse_stage,

@@ -4,7 +4,7 @@
 use serde::Serialize;
 
 use crate::model::{Model, ModelKind, nonconforming_in_lot};
-use crate::plan::{StagedPlan, stage_outcomes};
+use crate::plan::{StageOutcomes, StagedPlan, stage_outcomes};
 
 /// The measures of a plan at one quality.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
@@ -44,40 +44,54 @@ pub struct Measures {
 pub fn measures(plan: &StagedPlan, model: &Model, p: f64) -> Measures {
     let outcomes = stage_outcomes(plan, model, p);
     let stages = plan.stages();
-    let pa = outcomes.pa();
     let asn = stages
         .iter()
         .zip(outcomes.accept.iter().zip(&outcomes.reject))
         .map(|(s, (a, r))| (a + r) * s.n as f64)
         .sum();
-    let (aoq, ati) = match model.lot_size() {
-        Some(lot) => {
-            let big_n = lot as f64;
-            let outgoing: f64 = stages
-                .iter()
-                .zip(&outcomes.accept)
-                .map(|(s, a)| a * (big_n - s.n as f64) / big_n)
-                .sum();
-            let inspected: f64 = stages
-                .iter()
-                .zip(&outcomes.accept)
-                .map(|(s, a)| a * s.n as f64)
-                .sum();
-            (outgoing * p, Some(inspected + (1.0 - pa) * big_n))
-        }
-        None => (pa * p, None),
-    };
+    let ati = model.lot_size().map(|lot| {
+        let inspected: f64 = stages
+            .iter()
+            .zip(&outcomes.accept)
+            .map(|(s, a)| a * s.n as f64)
+            .sum();
+        inspected + (1.0 - outcomes.pa()) * lot as f64
+    });
     let asn_curtailed = plan
         .as_single()
         .and_then(|(n, c)| model.curtailed_single_asn(n, c, p));
     Measures {
         quality: p,
-        pa,
-        aoq,
+        pa: outcomes.pa(),
+        aoq: aoq_from(&outcomes, plan, model, p),
         ati,
         asn,
         asn_curtailed,
     }
+}
+
+/// AOQ from the stage outcomes: `sum_j a_j p (N - n_j) / N`, or `Pa p`
+/// without a lot size.
+fn aoq_from(outcomes: &StageOutcomes, plan: &StagedPlan, model: &Model, p: f64) -> f64 {
+    match model.lot_size() {
+        Some(lot) => {
+            let big_n = lot as f64;
+            let outgoing: f64 = plan
+                .stages()
+                .iter()
+                .zip(&outcomes.accept)
+                .map(|(s, a)| a * (big_n - s.n as f64) / big_n)
+                .sum();
+            outgoing * p
+        }
+        None => outcomes.pa() * p,
+    }
+}
+
+/// The AOQ of `plan` at quality `p`, without the other measures (the AOQL
+/// search evaluates it a hundred times per curve).
+pub fn average_outgoing_quality(plan: &StagedPlan, model: &Model, p: f64) -> f64 {
+    aoq_from(&stage_outcomes(plan, model, p), plan, model, p)
 }
 
 /// The probability of acceptance of `plan` at quality `p`.
@@ -124,13 +138,14 @@ fn quality_ceiling(plan: &StagedPlan, model: &Model) -> f64 {
 /// coarse pass of 64 points up to where `Pa < 1e-12` brackets the maximum,
 /// then golden-section search narrows the bracket to a relative width of
 /// `1e-12` (about 60 evaluations). For the hypergeometric model a lot's
-/// quality can only be `D / N`: the same bracket-then-golden-section search
-/// runs over the whole numbers `D` and ends by checking the neighbours.
+/// quality can only be `D / N`: after the same coarse bracket, a ternary
+/// search over the whole numbers `D` narrows it to three candidates, and
+/// the best of them is taken.
 ///
 /// Source: the golden-section search, e.g. Press et al., *Numerical
 /// Recipes* (3rd ed.), section 10.2.
 pub fn aoql(plan: &StagedPlan, model: &Model) -> Aoql {
-    let aoq = |p: f64| measures(plan, model, p).aoq;
+    let aoq = |p: f64| average_outgoing_quality(plan, model, p);
     let ceiling = quality_ceiling(plan, model);
     const COARSE: usize = 64;
     if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {

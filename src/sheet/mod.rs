@@ -335,14 +335,15 @@ pub fn render_sheet(
         .map(|i| x_max * i as f64 / 240.0)
         .map(|v| v.max(x_max * 1e-6))
         .collect();
-    let oc: Vec<(f64, f64)> = curve_q
+    // One evaluation per point serves both curves.
+    type Curve = Vec<(f64, f64)>;
+    let (oc, aoq): (Curve, Curve) = curve_q
         .iter()
-        .map(|&p| (p, measures(&plan, &model, p).pa))
-        .collect();
-    let aoq: Vec<(f64, f64)> = curve_q
-        .iter()
-        .map(|&p| (p, measures(&plan, &model, p).aoq))
-        .collect();
+        .map(|&p| {
+            let m = measures(&plan, &model, p);
+            ((p, m.pa), (p, m.aoq))
+        })
+        .unzip();
     let limit = aoql(&plan, &model);
     let (scale, suffix) = if per_unit { (1.0, "") } else { (100.0, "%") };
     let axis = |v: f64, step: f64| chart::tick_label(v, step, scale, suffix);
