@@ -47,7 +47,7 @@ pub use atomic::write_atomic;
 pub use demo::{DEMO_PLANS, DemoRow, run_demo};
 pub use design::{
     Alternative, DesignRequest, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, Scheme, SingleDesign,
-    Solution, design_single, single_alternatives, solve,
+    Solution, design_for, design_single, single_alternatives, solve,
 };
 pub use error::{DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, Tails, nonconforming_in_lot};

@@ -172,13 +172,7 @@ fn refuse_overwriting_input(target: &Path, input: Option<&Path>) -> Result<(), I
 fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
     let (plan, model, risks) = match &args.source {
         Some(path) => {
-            let source = PlanSource::load(path)?;
-            let invalid = |e| SourceError::Invalid {
-                path: path.clone(),
-                source: e,
-            };
-            let request = source.request().map_err(invalid)?;
-            let plan = source.recorded_plan(&request.model).map_err(invalid)?;
+            let (_, request, plan) = PlanSource::load_with_plan(path)?;
             (plan, request.model, Some(request.risks))
         }
         None => {
@@ -300,13 +294,7 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
 }
 
 fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
-    let source = PlanSource::load(&args.source)?;
-    let invalid = |e| SourceError::Invalid {
-        path: args.source.clone(),
-        source: e,
-    };
-    let request = source.request().map_err(invalid)?;
-    let plan = source.recorded_plan(&request.model).map_err(invalid)?;
+    let (_, request, plan) = PlanSource::load_with_plan(&args.source)?;
     let found = args
         .found
         .iter()
@@ -387,7 +375,7 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
     let mut failed = 0;
     for (out, result) in &outcomes {
         match result {
-            Ok(()) => println!("wrote {}", out.display()),
+            Ok(()) => eprintln!("lotsman: wrote sheet {}", out.display()),
             Err(e) => {
                 failed += 1;
                 eprintln!("lotsman: error: {e}");

@@ -37,7 +37,7 @@ pub struct DesignRequest {
 }
 
 /// How many acceptance numbers past the chosen one the alternatives list.
-pub const ALTERNATIVES_PAST_OPTIMUM: u64 = 3;
+const ALTERNATIVES_PAST_OPTIMUM: u64 = 3;
 
 /// A solved request: the plan and the nearby alternatives.
 #[derive(Clone, Debug, PartialEq)]
@@ -50,24 +50,33 @@ pub struct Solution {
     pub alternatives: Vec<Alternative>,
 }
 
+/// The smallest plan of the request's scheme, without the alternatives (what
+/// `verify` needs).
+///
+/// # Errors
+/// As [`design_single`].
+pub fn design_for(request: &DesignRequest) -> Result<SingleDesign, DesignError> {
+    match request.scheme {
+        Scheme::Single => design_single(&request.model, &request.risks),
+    }
+}
+
 /// Solves a request: the smallest plan of its scheme and the alternatives.
 ///
 /// # Errors
 /// As [`design_single`].
 pub fn solve(request: &DesignRequest) -> Result<Solution, DesignError> {
-    match request.scheme {
-        Scheme::Single => {
-            let design = design_single(&request.model, &request.risks)?;
-            let alternatives = single_alternatives(
-                &request.model,
-                &request.risks,
-                design.c + ALTERNATIVES_PAST_OPTIMUM,
-            );
-            Ok(Solution {
-                request: *request,
-                design,
-                alternatives,
-            })
-        }
-    }
+    let design = design_for(request)?;
+    let alternatives = match request.scheme {
+        Scheme::Single => single_alternatives(
+            &request.model,
+            &request.risks,
+            design.c + ALTERNATIVES_PAST_OPTIMUM,
+        ),
+    };
+    Ok(Solution {
+        request: *request,
+        design,
+        alternatives,
+    })
 }

@@ -86,6 +86,23 @@ impl PlanSource {
         Self::from_yaml(&text, path)
     }
 
+    /// Loads a source that must record a plan, with its request and its
+    /// validated plan: what `evaluate FILE` and `judge FILE` start from.
+    ///
+    /// # Errors
+    /// As [`PlanSource::load`]; [`SourceError::Invalid`] when the source
+    /// records no plan or an invalid one.
+    pub fn load_with_plan(path: &Path) -> Result<(Self, DesignRequest, StagedPlan), SourceError> {
+        let source = Self::load(path)?;
+        let invalid = |e| SourceError::Invalid {
+            path: path.to_path_buf(),
+            source: e,
+        };
+        let request = source.request().map_err(invalid)?;
+        let plan = source.recorded_plan(&request.model).map_err(invalid)?;
+        Ok((source, request, plan))
+    }
+
     /// The validated design request the source describes.
     ///
     /// # Errors

@@ -4,8 +4,8 @@
 use serde::Serialize;
 
 use super::PlanSource;
-use crate::design::solve;
-use crate::error::DesignError;
+use crate::design::design_for;
+use crate::error::Error;
 
 /// Relative tolerance for recorded achieved risks. The plan numbers must
 /// match exactly; the risks are printed with 17 significant digits, so a
@@ -36,23 +36,19 @@ pub enum Verdict {
 /// Re-solves `source` and compares the result with its recorded plan.
 ///
 /// # Errors
-/// [`DesignError`] when the risk points have no plan (the source is then
-/// invalid, not a mismatch).
-pub fn verify(source: &PlanSource) -> Result<Verdict, DesignError> {
-    let request = source.request().map_err(|e| DesignError::NoPlan {
-        reason: e.to_string(),
-        suggestion: "correct the source".to_string(),
-    })?;
-    let solution = solve(&request)?;
+/// [`Error`] when the source's inputs are invalid or its risk points have
+/// no plan (the source is then invalid, not a mismatch).
+pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
+    let design = design_for(&source.request()?)?;
     let Some(recorded) = &source.plan else {
         return Ok(Verdict::Mismatch(vec![Difference {
             field: "plan".into(),
             recorded: "(none)".into(),
-            resolved: solution.design.plan.to_string(),
+            resolved: design.plan.to_string(),
         }]));
     };
     let mut diffs = Vec::new();
-    let resolved = solution.design.plan.stages();
+    let resolved = design.plan.stages();
     if recorded.stages.len() != resolved.len() {
         diffs.push(Difference {
             field: "plan.stages".into(),
@@ -80,12 +76,12 @@ pub fn verify(source: &PlanSource) -> Result<Verdict, DesignError> {
         (
             "plan.producer_risk",
             recorded.producer_risk,
-            solution.design.producer_risk,
+            design.producer_risk,
         ),
         (
             "plan.consumer_risk",
             recorded.consumer_risk,
-            solution.design.consumer_risk,
+            design.consumer_risk,
         ),
     ] {
         if (a - b).abs() > RISK_TOLERANCE * b.abs().max(f64::MIN_POSITIVE) {
