@@ -61,7 +61,7 @@ pub use quantity::{
 };
 pub use report::{
     AlternativeReport, Csv, DesignReport, EvaluationReport, Json, PointReport, ReportFormat, Table,
-    VerificationReport, VerifyEntry, VerifyStatus, format_quality, format_significant,
+    VerificationReport, VerifyEntry, VerifyStatus, format_quality, format_significant, words,
 };
 pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{

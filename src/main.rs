@@ -411,10 +411,8 @@ fn demo(dir: &Path) -> Result<ExitCode, Error> {
             r.written.iter().map(|p| p.display().to_string()).collect::<Vec<_>>().join(", "),
         ));
     }
-    out.push_str(
-        "Sampling does not guarantee the quality of any lot. Critical and safety characteristics\n\
-         need the inspection that the applicable contract, regulation or licensed practice requires.\n",
-    );
+    out.push_str(lotsman::words::CAUTION);
+    out.push('\n');
     print_out(out.as_bytes())?;
     Ok(if rows.iter().all(|r| r.verified) {
         ExitCode::SUCCESS

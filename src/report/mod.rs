@@ -9,6 +9,7 @@
 mod csv;
 mod json;
 mod table;
+pub mod words;
 
 use std::io::{self, Write};
 

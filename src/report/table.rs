@@ -4,6 +4,7 @@ use std::io::{self, Write};
 
 use comfy_table::{CellAlignment, ContentArrangement, LineStyle, Table as Grid, TableStyle};
 
+use super::words;
 use super::{
     DesignReport, EvaluationReport, ReportFormat, VerificationReport, format_quality,
     format_significant,
@@ -36,20 +37,6 @@ fn grid(header: &[&str]) -> Grid {
     g
 }
 
-/// The inspector's procedure for a single-stage plan, in words.
-pub(crate) fn single_procedure(stage: &Stage, per_unit: bool) -> String {
-    let (n, c) = (stage.n, stage.accept.unwrap_or(0));
-    let what = if per_unit {
-        "nonconformities"
-    } else {
-        "nonconforming units"
-    };
-    format!(
-        "Draw {n} units at random from the lot and inspect them. Accept the lot when {what} number at most {c}; reject it when they number {} or more.",
-        c + 1
-    )
-}
-
 fn optional(v: Option<u64>, prefix: &str) -> String {
     v.map_or("none".to_string(), |x| format!("{prefix}{x}"))
 }
@@ -71,7 +58,9 @@ impl ReportFormat for Table {
             s.accept.unwrap_or(0),
             s.reject
         )?;
-        writeln!(out, "  {}", single_procedure(s, per_unit))?;
+        for step in words::procedure(s.n, s.accept.unwrap_or(0), per_unit) {
+            writeln!(out, "  {step}")?;
+        }
         writeln!(out)?;
         let mut g = grid(&["Risk point", "Quality", "Agreed risk", "Achieved risk"]);
         for (name, greek, p) in [
@@ -119,10 +108,8 @@ impl ReportFormat for Table {
                 "({first} smaller acceptance numbers meet no n; --format json lists them all)"
             )?;
         }
-        writeln!(
-            out,
-            "* the chosen plan. Sampling does not guarantee the quality of a lot."
-        )
+        writeln!(out, "* the chosen plan.")?;
+        writeln!(out, "{}", words::CAUTION)
     }
 
     fn evaluation(&self, out: &mut dyn Write, r: &EvaluationReport) -> io::Result<()> {
