@@ -39,7 +39,7 @@ pub struct DemoRow {
     /// The source's title.
     pub title: String,
     /// The model name.
-    pub model: &'static str,
+    pub model: crate::model::ModelKind,
     /// The recorded plan, as text.
     pub plan: String,
     /// Achieved producer's and consumer's risks.
@@ -94,7 +94,7 @@ pub fn run_demo(dir: &Path) -> Result<Vec<DemoRow>, Error> {
         rows.push(DemoRow {
             file: name.to_string(),
             title: source.title.clone(),
-            model: request.model.kind().name(),
+            model: request.model.kind(),
             plan: recorded.to_string(),
             risks,
             aoql: (limit.value, limit.quality),

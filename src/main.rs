@@ -396,7 +396,7 @@ fn demo(dir: &Path) -> Result<ExitCode, Error> {
         "lotsman demo: Tarnwick Pump Works, receiving inspection (an invented scenario)\n\n",
     );
     for r in &rows {
-        let per_unit = r.model == "poisson";
+        let per_unit = r.model == ModelKind::Poisson;
         out.push_str(&format!(
             "{}\n  {}  [{} model]\n  plan {}; achieved alpha {:.4}, beta {:.4}; AOQL {} at {}\n  verify: {}\n  wrote {}\n\n",
             r.title,

@@ -19,6 +19,7 @@ pub use self::csv::Csv;
 pub use self::json::Json;
 pub use self::table::Table;
 use crate::design::{Alternative, Solution};
+use crate::model::ModelKind;
 use crate::plan::{Aoql, Evaluation, Measures, Stage};
 use crate::source::{Difference, tool_version};
 
@@ -78,7 +79,7 @@ pub struct DesignReport {
     /// Scheme name.
     pub scheme: &'static str,
     /// Model name.
-    pub model: &'static str,
+    pub model: ModelKind,
     /// Lot size, `null` when absent.
     pub lot_size: Option<u64>,
     /// The plan's stages.
@@ -117,7 +118,7 @@ impl DesignReport {
         DesignReport {
             title: title.to_string(),
             scheme: r.scheme.name(),
-            model: r.model.kind().name(),
+            model: r.model.kind(),
             lot_size: r.model.lot_size(),
             stages: d.plan.stages().to_vec(),
             producer: PointReport {
@@ -146,7 +147,7 @@ impl DesignReport {
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct EvaluationReport {
     /// Model name.
-    pub model: &'static str,
+    pub model: ModelKind,
     /// Lot size, `null` when absent.
     pub lot_size: Option<u64>,
     /// The plan's stages.
@@ -162,7 +163,7 @@ pub struct EvaluationReport {
 impl From<&Evaluation> for EvaluationReport {
     fn from(e: &Evaluation) -> Self {
         EvaluationReport {
-            model: e.model.kind().name(),
+            model: e.model.kind(),
             lot_size: e.model.lot_size(),
             stages: e.plan.stages().to_vec(),
             points: e.points.clone(),

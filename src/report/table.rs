@@ -9,6 +9,7 @@ use super::{
     DesignReport, EvaluationReport, ReportFormat, VerificationReport, format_quality,
     format_significant,
 };
+use crate::model::ModelKind;
 use crate::plan::Stage;
 
 /// Aligned text tables for a terminal.
@@ -43,7 +44,7 @@ fn optional(v: Option<u64>, prefix: &str) -> String {
 
 impl ReportFormat for Table {
     fn design(&self, out: &mut dyn Write, r: &DesignReport) -> io::Result<()> {
-        let per_unit = r.model == "poisson";
+        let per_unit = r.model == ModelKind::Poisson;
         writeln!(out, "{}", r.title)?;
         let lot = r
             .lot_size
@@ -113,7 +114,7 @@ impl ReportFormat for Table {
     }
 
     fn evaluation(&self, out: &mut dyn Write, r: &EvaluationReport) -> io::Result<()> {
-        let per_unit = r.model == "poisson";
+        let per_unit = r.model == ModelKind::Poisson;
         let plan: Vec<String> = r.stages.iter().map(Stage::to_string).collect();
         let lot = r
             .lot_size
