@@ -192,7 +192,7 @@ pub fn render_sheet(
     top -= block_h + 4.0;
 
     // The plan itself.
-    let plan_h = 36.0;
+    let plan_h = 42.0;
     c.claim("plan", left, top - plan_h, width, plan_h);
     c.rect_fill(left, top - plan_h, width, plan_h, rgb(0.93, 0.95, 0.98));
     c.rect_stroke(
@@ -238,19 +238,24 @@ pub fn render_sheet(
         }
         c.text(left + 4.0, y, &line, Face::Bold, 9.5, color);
     }
-    let procedure = words::procedure(n, ac, per_unit).join(" ");
     c.heading(left + col + 4.0, top - 7.0, "INSPECTOR'S PROCEDURE");
-    c.paragraph(
-        "procedure",
-        left + col + 4.0,
-        top - 9.0,
-        width - col - 8.0,
-        plan_h - 11.0,
-        &procedure,
-        Face::Regular,
-        8.5,
-        6.5,
-    );
+    // One paragraph per step, each in what the earlier steps left.
+    let mut step_top = top - 9.0;
+    let box_bottom = top - plan_h + 2.0;
+    for step in words::procedure(n, ac, per_unit) {
+        let used = c.paragraph(
+            "procedure",
+            left + col + 4.0,
+            step_top,
+            width - col - 8.0,
+            step_top - box_bottom,
+            &step,
+            Face::Regular,
+            8.0,
+            7.0,
+        );
+        step_top -= used + 0.8;
+    }
     c.line(
         &[(left + col, top - 3.0), (left + col, top - plan_h + 3.0)],
         0.4,
@@ -269,7 +274,17 @@ pub fn render_sheet(
         "AGREED RISK POINTS AND WHAT THIS PLAN ACHIEVES",
     );
     let cols = [left, left + 52.0, left + 84.0, left + 128.0, right];
-    let heads = ["Risk point", "Quality", "Agreed", "Achieved by this plan"];
+    let quality_head = if per_unit {
+        "Quality (per unit)"
+    } else {
+        "Quality"
+    };
+    let heads = [
+        "Risk point",
+        quality_head,
+        "Agreed",
+        "Achieved by this plan",
+    ];
     let row_y = |i: usize| top - 8.5 - 5.0 * i as f64;
     for (i, h) in heads.iter().enumerate() {
         c.text(cols[i] + 1.0, row_y(0), h, Face::Bold, 7.5, black());
