@@ -42,6 +42,22 @@ pub enum ModelArg {
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
 pub enum SchemeArg {
     Single,
+    Double,
+    Multiple,
+    Sequential,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum CriterionArg {
+    /// ASN at the AQL
+    #[value(name = "asn-aql")]
+    Aql,
+    /// ASN at the RQL
+    #[value(name = "asn-rql")]
+    Rql,
+    /// Largest ASN over all qualities (double plans)
+    #[value(name = "asn-max")]
+    Max,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
@@ -72,7 +88,7 @@ pub struct ModelFlags {
 #[derive(Debug, Args)]
 pub struct DesignArgs {
     /// A plan source to solve instead of the flags below
-    #[arg(value_name = "FILE.yaml", conflicts_with_all = ["aql", "rql", "alpha", "beta", "model", "lot_size", "title"])]
+    #[arg(value_name = "FILE.yaml", conflicts_with_all = ["aql", "rql", "alpha", "beta", "model", "lot_size", "title", "scheme", "criterion", "second_ratio", "stage_count"])]
     pub source: Option<PathBuf>,
     /// Producer's quality p1 (AQL), as a fraction (0.01) or a percent (1%)
     #[arg(long, value_name = "P1", required_unless_present = "source")]
@@ -91,6 +107,15 @@ pub struct DesignArgs {
     /// Sampling scheme
     #[arg(long, value_enum, default_value = "single")]
     pub scheme: SchemeArg,
+    /// What a double or multiple plan minimises [default: asn-aql]
+    #[arg(long, value_enum)]
+    pub criterion: Option<CriterionArg>,
+    /// Double plans: fix the second sample at R times the first (n2 = R n1)
+    #[arg(long, value_name = "R")]
+    pub second_ratio: Option<String>,
+    /// Multiple plans: number of equal stages, 2 to 7 [default: 7]
+    #[arg(long, value_name = "K")]
+    pub stage_count: Option<String>,
     /// Title recorded in the plan source written with --output
     #[arg(long)]
     pub title: Option<String>,
@@ -153,9 +178,13 @@ pub struct JudgeArgs {
     /// The plan source whose recorded plan decides
     #[arg(value_name = "FILE.yaml")]
     pub source: PathBuf,
-    /// Count found in each stage's new units, in order (repeat per stage)
+    /// Count found in each stage's new units, in order (repeat per stage); with
+    /// --inspected, the one cumulative count so far
     #[arg(long, value_name = "K", required = true)]
     pub found: Vec<String>,
+    /// Units inspected so far, for one cumulative --found count (item-by-item plans)
+    #[arg(long, value_name = "N")]
+    pub inspected: Option<String>,
     /// Output format
     #[arg(long, value_enum, default_value = "text")]
     pub format: JudgeFormat,

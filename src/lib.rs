@@ -46,18 +46,23 @@ mod templates;
 pub use atomic::write_atomic;
 pub use demo::{DEMO_PLANS, DemoRow, run_demo};
 pub use design::{
-    Alternative, DesignRequest, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, Scheme, SingleDesign,
-    Solution, design_for, design_single, single_alternatives, solve,
+    Alternative, AsnSummary, Criterion, Design, DesignRequest, MAX_ACCEPTANCE_NUMBER,
+    MAX_DESIGN_STAGES, MAX_SAMPLE_SIZE, Scheme, SchemeOptions, SingleDesign, Solution,
+    WaldApproximation, design_double, design_for, design_multiple, design_sequential,
+    design_single, single_alternatives, solve, wald_lines,
 };
 pub use error::{DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, Tails, nonconforming_in_lot};
 pub use plan::{
-    Aoql, Decision, Evaluation, Judgement, MAX_STAGES, Measures, Stage, StageOutcomes, StagedPlan,
-    acceptance_probability, aoql, average_outgoing_quality, default_qualities, evaluate,
-    indifference_quality, judge, measures, quality_at_pa, stage_outcomes,
+    Aoql, Decision, Evaluation, ItemRun, Judgement, MAX_ITEMS, MAX_STAGES, Measures,
+    SequentialLines, Stage, StageOutcomes, StagedPlan, acceptance_probability, aoql,
+    average_outgoing_quality, curtailed_outcomes, curve_maximum, default_qualities, evaluate,
+    indifference_quality, judge, judge_cumulative, largest_asn, measures, quality_at_pa,
+    stage_outcomes,
 };
 pub use quantity::{
-    MAX_RANGE_POINTS, QualityRange, parse_count, parse_fraction, parse_fraction_list, parse_stage,
+    MAX_RANGE_POINTS, QualityRange, parse_count, parse_fraction, parse_fraction_list, parse_number,
+    parse_stage,
 };
 pub use report::{
     AlternativeReport, Csv, DesignReport, EvaluationReport, Json, PointReport, ReportFormat, Table,

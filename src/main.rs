@@ -9,14 +9,17 @@ use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
 use clap::Parser;
-use cli::{Cli, Command, DesignFormat, ModelArg, ModelFlags, PaperArg, ReportFormatArg};
+use cli::{
+    Cli, Command, CriterionArg, DesignFormat, ModelArg, ModelFlags, PaperArg, ReportFormatArg,
+    SchemeArg,
+};
 use lotsman::{
-    Csv, Decision, DesignReport, DesignRequest, Error, EvaluationReport, InputError, Json,
-    MAX_LOT_SIZE, Model, ModelKind, Paper, PlanSource, QualityRange, ReportFormat, RiskPair,
-    RiskPoint, Scheme, SourceError, StagedPlan, Table, Verdict, VerificationReport, VerifyEntry,
-    VerifyStatus, default_qualities, evaluate, judge, parse_count, parse_fraction,
-    parse_fraction_list, parse_stage, run_demo, sheet_source_hash, solve, source_hash, template,
-    template_kinds, verify, write_atomic, write_sheet,
+    Criterion, Csv, Decision, DesignReport, DesignRequest, Error, EvaluationReport, InputError,
+    Json, MAX_LOT_SIZE, Model, ModelKind, Paper, PlanSource, QualityRange, ReportFormat, RiskPair,
+    RiskPoint, Scheme, SchemeOptions, SourceError, StagedPlan, Table, Verdict, VerificationReport,
+    VerifyEntry, VerifyStatus, default_qualities, evaluate, judge, judge_cumulative, parse_count,
+    parse_fraction, parse_fraction_list, parse_number, parse_stage, run_demo, sheet_source_hash,
+    solve, source_hash, template, template_kinds, verify, write_atomic, write_sheet,
 };
 
 fn main() -> ExitCode {
@@ -114,8 +117,46 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
                 point(&args.rql, "--rql", &args.beta, "--beta")?,
                 &model,
             )?;
+            let scheme = match args.scheme {
+                SchemeArg::Single => Scheme::Single,
+                SchemeArg::Double => Scheme::Double,
+                SchemeArg::Multiple => Scheme::Multiple,
+                SchemeArg::Sequential => Scheme::Sequential,
+            };
+            let defaults = SchemeOptions::default();
+            let options = SchemeOptions {
+                criterion: match args.criterion {
+                    None => defaults.criterion,
+                    Some(CriterionArg::Aql) => Criterion::AsnAql,
+                    Some(CriterionArg::Rql) => Criterion::AsnRql,
+                    Some(CriterionArg::Max) => Criterion::AsnMax,
+                },
+                second_ratio: args
+                    .second_ratio
+                    .as_deref()
+                    .map(|t| parse_number("--second-ratio", t))
+                    .transpose()?,
+                stages: match &args.stage_count {
+                    Some(t) => u32::try_from(parse_count("--stage-count", t, 7)?).unwrap_or(7),
+                    None => defaults.stages,
+                },
+            };
+            if args.criterion.is_some() && !matches!(scheme, Scheme::Double | Scheme::Multiple) {
+                return Err(InputError::Inconsistent(format!(
+                    "--criterion applies to double and multiple plans, not to a {scheme} plan"
+                ))
+                .into());
+            }
+            if args.stage_count.is_some() && scheme != Scheme::Multiple {
+                return Err(InputError::Inconsistent(format!(
+                    "--stage-count applies to multiple plans, not to a {scheme} plan"
+                ))
+                .into());
+            }
+            options.check(scheme)?;
             let request = DesignRequest {
-                scheme: Scheme::Single,
+                scheme,
+                options,
                 model,
                 risks,
             };
@@ -300,7 +341,24 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
         .iter()
         .map(|k| parse_count("--found", k, u64::MAX))
         .collect::<Result<Vec<_>, _>>()?;
-    let j = judge(&plan, &request.model, &found)?;
+    let j = match &args.inspected {
+        Some(n) => {
+            let [count] = found.as_slice() else {
+                return Err(InputError::Inconsistent(
+                    "with --inspected give one --found: the cumulative count so far".to_string(),
+                )
+                .into());
+            };
+            judge_cumulative(
+                &plan,
+                &request.model,
+                parse_count("--inspected", n, u64::MAX)?,
+                *count,
+            )?
+        }
+        None => judge(&plan, &request.model, &found)?,
+    };
+    let item_by_item = plan.sequential_lines().is_some();
     let text = match args.format {
         cli::JudgeFormat::Json => {
             serde_json::to_string_pretty(&j).map_err(std::io::Error::other)? + "\n"
@@ -316,18 +374,23 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
                     format!("{} >= rejection number {}", j.cumulative_count, j.reject)
                 }
                 Decision::Continue => format!(
-                    "{} lies between the acceptance and rejection numbers; inspect {} more units",
+                    "{} lies between the acceptance number {} and the rejection number {}; inspect {} more unit{}",
                     j.cumulative_count,
-                    j.next_units.unwrap_or(0)
+                    j.accept.map_or("(none yet)".to_string(), |a| a.to_string()),
+                    j.reject,
+                    j.next_units.unwrap_or(0),
+                    if j.next_units == Some(1) { "" } else { "s" }
                 ),
             };
-            let verdict = match j.decision {
-                Decision::Accept => "ACCEPT the lot",
-                Decision::Reject => "REJECT the lot",
-                Decision::Continue => "GO ON to the next stage",
+            let verdict = match (j.decision, item_by_item) {
+                (Decision::Accept, _) => "ACCEPT the lot",
+                (Decision::Reject, _) => "REJECT the lot",
+                (Decision::Continue, true) => "GO ON to the next item",
+                (Decision::Continue, false) => "GO ON to the next stage",
             };
+            let place = if item_by_item { "item" } else { "stage" };
             format!(
-                "{verdict}\n  stage {}: {} units inspected in all, cumulative count {rule}\n  plan {} from {}\n",
+                "{verdict}\n  {place} {}: {} units inspected in all, cumulative count {rule}\n  plan {} from {}\n",
                 j.stage,
                 j.inspected,
                 plan,

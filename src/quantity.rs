@@ -42,6 +42,22 @@ pub fn parse_fraction(parameter: &str, text: &str) -> Result<f64, InputError> {
     Ok(value)
 }
 
+/// Parses a plain finite number (`2`, `0.5`, `1e1`), for ratios.
+///
+/// # Errors
+/// [`InputError::Unparsable`] naming `parameter` for anything else.
+pub fn parse_number(parameter: &str, text: &str) -> Result<f64, InputError> {
+    let t = text.trim();
+    match t.parse::<f64>() {
+        Ok(v) if v.is_finite() && !t.is_empty() => Ok(v),
+        _ => Err(InputError::unparsable(
+            parameter,
+            text,
+            "a number, e.g. 2 or 0.5",
+        )),
+    }
+}
+
 /// `digits` (a decimal number) divided by 100, parsed from the shifted text so
 /// that the result is the double nearest to the decimal the user meant.
 fn shift_percent(digits: &str) -> Option<f64> {

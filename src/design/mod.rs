@@ -1,11 +1,20 @@
 //! Designers: from two risk points to the smallest plan that honours both.
 
 mod bracket;
+mod double;
+mod multiple;
 mod request;
 mod search;
+mod sequential;
 mod single;
 
-pub use request::{DesignRequest, Scheme, Solution, design_for, solve};
+pub use double::design_double;
+pub use multiple::design_multiple;
+pub use request::{
+    AsnSummary, Criterion, Design, DesignRequest, MAX_DESIGN_STAGES, Scheme, SchemeOptions,
+    Solution, design_for, solve,
+};
+pub use sequential::{WaldApproximation, design_sequential, wald_lines};
 pub use single::{
     Alternative, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, SingleDesign, design_single,
     single_alternatives,

@@ -99,8 +99,8 @@ impl Alternative {
 }
 
 /// The exact searches of one design request, shared by the solver and the
-/// list of alternatives.
-struct Solver<'a> {
+/// list of alternatives, and the single-stage bounds of the staged designers.
+pub(crate) struct Solver<'a> {
     model: &'a Model,
     p1: f64,
     alpha: f64,
@@ -108,11 +108,11 @@ struct Solver<'a> {
     beta: f64,
     z_alpha: f64,
     z_beta: f64,
-    limit: u64,
+    pub(crate) limit: u64,
 }
 
 impl<'a> Solver<'a> {
-    fn new(model: &'a Model, risks: &RiskPair) -> Self {
+    pub(crate) fn new(model: &'a Model, risks: &RiskPair) -> Self {
         let (producer, consumer) = (risks.producer(), risks.consumer());
         Solver {
             model,
@@ -152,7 +152,7 @@ impl<'a> Solver<'a> {
     }
 
     /// `n_min(c)`: smallest `n` with `Pa(n, c, p2) <= beta`.
-    fn n_min(&self, c: u64) -> Option<u64> {
+    pub(crate) fn n_min(&self, c: u64) -> Option<u64> {
         let guess = self.guess(poisson_mean_at(c, self.z_beta), self.p2);
         let ln_beta = self.beta.ln();
         first_true(self.smallest_n(c), self.limit, guess, |n| {
@@ -162,7 +162,7 @@ impl<'a> Solver<'a> {
     }
 
     /// `n_max(c)`: largest `n` with `1 - Pa(n, c, p1) <= alpha`.
-    fn n_max(&self, c: u64) -> Option<u64> {
+    pub(crate) fn n_max(&self, c: u64) -> Option<u64> {
         let guess = self.guess(poisson_mean_at(c, -self.z_alpha), self.p1);
         let ln_alpha = self.alpha.ln();
         let start = self.smallest_n(c);

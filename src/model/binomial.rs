@@ -54,24 +54,55 @@ impl Terms for Binomial {
     }
 }
 
-/// Expected number of units inspected by the single plan `(n, c)` under
-/// fully curtailed inspection: stop and reject at the `(c + 1)`-th
-/// nonconforming unit, stop and accept at the `(n - c)`-th conforming one.
+/// Expected number of units inspected in one stage of `m` units under fully
+/// curtailed inspection, for a lot that enters the stage needing
+/// `reject_left` more nonconforming units to be rejected and allowing
+/// `accept_left` more to be accepted at the stage's end (`None`: the stage
+/// cannot accept). Inspection stops at the `reject_left`-th nonconforming
+/// unit, or as soon as the conforming units reach `m - accept_left` (the
+/// count can no longer pass the acceptance number), or after `m` units.
+///
+/// With `X_j ~ Bin(j, p)`, `k = reject_left`, `a = accept_left`:
 ///
 /// ```text
-/// E = (c + 1)/p P(Bin(n + 1, p) >= c + 2) + (n - c)/q P(Bin(n + 1, p) <= c)
+/// E = k/p P(X_{m+1} >= k + 1) + (m - a)/q P(X_{m+1} <= a) + m P(a < X_m < k)
 /// ```
 ///
-/// Derivation: the stopping time of the rejection is negative binomial, and
-/// `k C(k - 1, c) = (c + 1) C(k, c + 1)` turns its truncated mean into a
-/// binomial tail with one more unit; the same for the conforming units. The
-/// rejection half is the textbook semi-curtailed formula (e.g. Montgomery,
-/// *Introduction to Statistical Quality Control*, the section on curtailed
-/// single sampling, from memory).
-pub(crate) fn curtailed_sample_mean(n: u64, c: u64, p: f64) -> f64 {
+/// (without acceptance the middle term is `m P(X_m < k)` and the second is
+/// absent). Derivation: the stopping time of the rejection is negative
+/// binomial, and `t C(t - 1, k - 1) = k C(t, k)` turns its truncated mean into
+/// a binomial tail with one more unit; the same for the conforming units;
+/// the two stops exclude each other because `a < k`, and a lot reaching
+/// neither inspects all `m`. For a single plan this is the textbook fully
+/// curtailed ASN, whose rejection half is the semi-curtailed formula (e.g.
+/// Montgomery, *Introduction to Statistical Quality Control*, the section on
+/// curtailed single sampling, from memory).
+pub(crate) fn curtailed_stage_mean(
+    m: u64,
+    accept_left: Option<u64>,
+    reject_left: u64,
+    p: f64,
+) -> f64 {
+    let k = reject_left;
+    if accept_left.is_some_and(|a| a >= m) {
+        // Acceptance is certain before the first unit of the stage.
+        return 0.0;
+    }
     let q = 1.0 - p;
-    let d = Binomial::new(n + 1, p);
-    let reject_part = (c + 1) as f64 / p * super::tail::tails(&d, c + 1).sf;
-    let accept_part = (n - c) as f64 / q * super::tail::tails(&d, c).cdf;
-    reject_part + accept_part
+    let one_more = Binomial::new(m + 1, p);
+    let reject_part = k as f64 / p * super::tail::tails(&one_more, k).sf;
+    let stage = Binomial::new(m, p);
+    match accept_left {
+        Some(a) => {
+            let accept_part = (m - a) as f64 / q * super::tail::tails(&one_more, a).cdf;
+            let between = if k > a + 1 {
+                let w = super::window::window(&stage, a + 1, k - 1);
+                (a + 1..k).map(|x| w.pmf(x)).sum::<f64>()
+            } else {
+                0.0
+            };
+            reject_part + accept_part + m as f64 * between
+        }
+        None => reject_part + m as f64 * super::tail::tails(&stage, k - 1).cdf,
+    }
 }

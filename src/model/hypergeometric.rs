@@ -87,28 +87,52 @@ impl Terms for Hypergeometric {
     }
 }
 
-/// Expected number of units inspected by the single plan `(n, c)` on a lot
-/// of `lot` units holding `bad` nonconforming ones, under fully curtailed
-/// inspection (stop at the `(c + 1)`-th nonconforming or the `(n - c)`-th
-/// conforming unit).
+/// Expected number of units inspected in one stage of `m` units drawn from
+/// what is left of the lot, `lot` units holding `bad` nonconforming ones,
+/// under fully curtailed inspection; `accept_left` and `reject_left` as for
+/// the binomial (`binomial::curtailed_stage_mean`).
+///
+/// With `H(L, B, j)` the count in `j` units drawn from `L` holding `B`:
 ///
 /// ```text
-/// E = (c + 1)(N + 1)/(D + 1) P(H(N + 1, D + 1, n + 1) >= c + 2)
-///   + (n - c)(N + 1)/(N - D + 1) P(H(N + 1, D, n + 1) <= c)
+/// E = k (L + 1)/(B + 1) P(H(L + 1, B + 1, m + 1) >= k + 1)
+///   + (m - a)(L + 1)/(L - B + 1) P(H(L + 1, B, m + 1) <= a)
+///   + m P(a < H(L, B, m) < k)
 /// ```
 ///
-/// where `H(N, D, n)` is the count in `n` units drawn from `N` holding `D`.
 /// Derivation as for the binomial: the stopping position is negative
-/// hypergeometric, and `k C(k - 1, c) = (c + 1) C(k, c + 1)` turns its
-/// truncated mean into a tail of a lot with one more unit of each kind.
-pub(crate) fn curtailed_sample_mean(lot: u64, bad: u64, n: u64, c: u64) -> f64 {
-    let reject = Hypergeometric::new(lot + 1, bad + 1, n + 1);
-    let accept = Hypergeometric::new(lot + 1, bad, n + 1);
-    let reject_part = (c + 1) as f64 * (lot + 1) as f64 / (bad + 1) as f64
-        * super::tail::tails(&reject, c + 1).sf;
-    let accept_part = (n - c) as f64 * (lot + 1) as f64 / (lot - bad + 1) as f64
-        * super::tail::tails(&accept, c).cdf;
-    reject_part + accept_part
+/// hypergeometric, and `t C(t - 1, k - 1) = k C(t, k)` turns its truncated
+/// mean into a tail of a lot with one more unit of each kind.
+pub(crate) fn curtailed_stage_mean(
+    lot: u64,
+    bad: u64,
+    m: u64,
+    accept_left: Option<u64>,
+    reject_left: u64,
+) -> f64 {
+    let k = reject_left;
+    if accept_left.is_some_and(|a| a >= m) {
+        return 0.0;
+    }
+    let stage = Hypergeometric::new(lot, bad, m);
+    let rejecting = Hypergeometric::new(lot + 1, bad + 1, m + 1);
+    let reject_part =
+        k as f64 * (lot + 1) as f64 / (bad + 1) as f64 * super::tail::tails(&rejecting, k).sf;
+    match accept_left {
+        Some(a) => {
+            let accepting = Hypergeometric::new(lot + 1, bad, m + 1);
+            let accept_part = (m - a) as f64 * (lot + 1) as f64 / (lot - bad + 1) as f64
+                * super::tail::tails(&accepting, a).cdf;
+            let between = if k > a + 1 {
+                let w = super::window::window(&stage, a + 1, k - 1);
+                (a + 1..k).map(|x| w.pmf(x)).sum::<f64>()
+            } else {
+                0.0
+            };
+            reject_part + accept_part + m as f64 * between
+        }
+        None => reject_part + m as f64 * super::tail::tails(&stage, k - 1).cdf,
+    }
 }
 
 #[cfg(test)]

@@ -19,6 +19,7 @@ mod hypergeometric;
 mod poisson;
 mod saddle;
 mod tail;
+mod window;
 
 use std::fmt;
 
@@ -31,6 +32,8 @@ pub use hypergeometric::nonconforming_in_lot;
 use poisson::Poisson;
 pub use tail::Tails;
 use tail::{Terms, tails};
+pub(crate) use window::Window;
+use window::window;
 
 /// Which likelihood model turns a quality into a count distribution.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
@@ -165,20 +168,75 @@ impl Model {
         }
     }
 
-    /// Expected number of units inspected by the single plan `(n, c)` at
-    /// quality `p` under fully curtailed inspection (stop as soon as the
-    /// decision is certain), for the unit-count models. `None` for the
-    /// Poisson model, where a unit may hold several nonconformities and
-    /// acceptance can never be certain before the last unit.
-    pub fn curtailed_single_asn(&self, n: u64, c: u64, p: f64) -> Option<f64> {
+    /// Whether the count in the next units is independent of what earlier
+    /// units held (binomial and Poisson: a process; hypergeometric: a lot
+    /// that the earlier draws depleted).
+    pub(crate) fn forgets_the_past(&self) -> bool {
+        self.kind != ModelKind::Hypergeometric
+    }
+
+    /// `P(X = k)` for `k` in `lo..=hi` and the tails on either side, for the
+    /// same count as [`Model::tails`].
+    pub(crate) fn window(
+        &self,
+        m: u64,
+        lo: u64,
+        hi: u64,
+        p: f64,
+        drawn: u64,
+        found: u64,
+    ) -> Window {
+        match self.count(m, p, drawn, found) {
+            Count::Binomial(d) => window(&d, lo, hi),
+            Count::Poisson(d) => window(&d, lo, hi),
+            Count::Hypergeometric(d) => window(&d, lo, hi),
+            Count::Impossible => Window::at_zero(),
+        }
+    }
+
+    /// Expected number of units inspected in a stage of `m` units under
+    /// fully curtailed inspection (stop as soon as the decision is
+    /// certain), for a lot entering it `reject_left` nonconforming units
+    /// short of rejection and `accept_left` above the count that still
+    /// accepts (`None`: the stage cannot accept); the earlier stages drew
+    /// `drawn` units holding `found`.
+    ///
+    /// Binomial and hypergeometric: closed forms in two tails
+    /// (`binomial::curtailed_stage_mean`,
+    /// `hypergeometric::curtailed_stage_mean`). Poisson: only rejection can
+    /// be certain early (`poisson::curtailed_stage_mean`). `None` only for
+    /// a hypergeometric state that the earlier draws cannot produce.
+    pub(crate) fn curtailed_stage_units(
+        &self,
+        m: u64,
+        accept_left: Option<u64>,
+        reject_left: u64,
+        p: f64,
+        drawn: u64,
+        found: u64,
+    ) -> Option<f64> {
         match self.kind {
-            ModelKind::Binomial => Some(binomial::curtailed_sample_mean(n, c, p)),
+            ModelKind::Binomial => Some(binomial::curtailed_stage_mean(
+                m,
+                accept_left,
+                reject_left,
+                p,
+            )),
+            ModelKind::Poisson => Some(poisson::curtailed_stage_mean(m, reject_left, p)),
             ModelKind::Hypergeometric => {
                 let lot = self.lot_size?;
                 let bad = nonconforming_in_lot(p, lot);
-                Some(hypergeometric::curtailed_sample_mean(lot, bad, n, c))
+                let (left, bad_left) = (lot.checked_sub(drawn)?, bad.checked_sub(found)?);
+                (bad_left <= left && m <= left).then(|| {
+                    hypergeometric::curtailed_stage_mean(
+                        left,
+                        bad_left,
+                        m,
+                        accept_left,
+                        reject_left,
+                    )
+                })
             }
-            ModelKind::Poisson => None,
         }
     }
 

@@ -121,6 +121,75 @@ pub fn judge(plan: &StagedPlan, model: &Model, found: &[u64]) -> Result<Judgemen
     outcome.ok_or_else(|| InputError::Inconsistent("no count was judged".into()))
 }
 
+/// Judges a lot from the cumulative count `count` after `inspected` units,
+/// for an inspector who followed the plan up to there (an item-by-item plan
+/// is judged after every unit this way): the numbers of the stage that ends
+/// at `inspected` units decide.
+///
+/// # Errors
+/// [`InputError`] when no stage ends at `inspected` units, or the count
+/// exceeds the units inspected under a unit-count model.
+///
+/// # Example
+/// ```
+/// use lotsman::{judge_cumulative, Decision, Model, ModelKind, Stage, StagedPlan};
+/// let m = Model::new(ModelKind::Binomial, None).unwrap();
+/// let stages = vec![
+///     Stage { n: 50, accept: Some(1), reject: 4 },
+///     Stage { n: 100, accept: Some(4), reject: 5 },
+/// ];
+/// let plan = StagedPlan::new(stages, &m).unwrap();
+/// assert_eq!(judge_cumulative(&plan, &m, 50, 2).unwrap().decision, Decision::Continue);
+/// assert_eq!(judge_cumulative(&plan, &m, 100, 4).unwrap().decision, Decision::Accept);
+/// ```
+pub fn judge_cumulative(
+    plan: &StagedPlan,
+    model: &Model,
+    inspected: u64,
+    count: u64,
+) -> Result<Judgement, InputError> {
+    let stages = plan.stages();
+    let Some(i) = stages.iter().position(|s| s.n == inspected) else {
+        let ends: Vec<String> = stages.iter().take(12).map(|s| s.n.to_string()).collect();
+        return Err(InputError::out_of_range(
+            "--inspected",
+            inspected,
+            &format!(
+                "a count of units at which a stage ends: {}{}",
+                ends.join(", "),
+                if stages.len() > 12 { ", ..." } else { "" }
+            ),
+        ));
+    };
+    if model.kind() != ModelKind::Poisson && count > inspected {
+        return Err(InputError::out_of_range(
+            "--found",
+            count,
+            &format!("0 to {inspected}, the units inspected"),
+        ));
+    }
+    let stage = stages[i];
+    let decision = if stage.accept.is_some_and(|a| count <= a) {
+        Decision::Accept
+    } else if count >= stage.reject {
+        Decision::Reject
+    } else {
+        Decision::Continue
+    };
+    Ok(Judgement {
+        decision,
+        stage: i + 1,
+        inspected,
+        cumulative_count: count,
+        accept: stage.accept,
+        reject: stage.reject,
+        next_units: match decision {
+            Decision::Continue => stages.get(i + 1).map(|s| s.n - stage.n),
+            _ => None,
+        },
+    })
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -4,7 +4,7 @@
 use serde::Serialize;
 
 use crate::model::{Model, ModelKind, nonconforming_in_lot};
-use crate::plan::{StageOutcomes, StagedPlan, stage_outcomes};
+use crate::plan::{StageOutcomes, StagedPlan, curtailed_outcomes, stage_outcomes};
 
 /// The measures of a plan at one quality.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
@@ -20,8 +20,9 @@ pub struct Measures {
     pub ati: Option<f64>,
     /// Average sample number without curtailment.
     pub asn: f64,
-    /// Average sample number with full curtailment (single plans of the
-    /// unit-count models only).
+    /// Average sample number with full curtailment: units inspected one at
+    /// a time, inspection stopping as soon as the decision is certain (for
+    /// the Poisson model only rejection can be certain early).
     pub asn_curtailed: Option<f64>,
 }
 
@@ -42,7 +43,7 @@ pub struct Measures {
 /// Quality Control*, the chapter on lot-by-lot acceptance sampling for
 /// attributes, from memory).
 pub fn measures(plan: &StagedPlan, model: &Model, p: f64) -> Measures {
-    let outcomes = stage_outcomes(plan, model, p);
+    let outcomes = curtailed_outcomes(plan, model, p);
     let stages = plan.stages();
     let asn = stages
         .iter()
@@ -57,16 +58,13 @@ pub fn measures(plan: &StagedPlan, model: &Model, p: f64) -> Measures {
             .sum();
         inspected + (1.0 - outcomes.pa()) * lot as f64
     });
-    let asn_curtailed = plan
-        .as_single()
-        .and_then(|(n, c)| model.curtailed_single_asn(n, c, p));
     Measures {
         quality: p,
         pa: outcomes.pa(),
         aoq: aoq_from(&outcomes, plan, model, p),
         ati,
         asn,
-        asn_curtailed,
+        asn_curtailed: outcomes.curtailed_units,
     }
 }
 
@@ -134,7 +132,30 @@ fn quality_ceiling(plan: &StagedPlan, model: &Model) -> f64 {
 
 /// The AOQL of `plan` and the quality where it occurs.
 ///
-/// For the binomial and Poisson models AOQ is a smooth function of `p`: a
+/// See [`curve_maximum`] for the search.
+pub fn aoql(plan: &StagedPlan, model: &Model) -> Aoql {
+    let (quality, value) = curve_maximum(plan, model, |p| average_outgoing_quality(plan, model, p));
+    Aoql { value, quality }
+}
+
+/// The largest average sample number of `plan` over all qualities, and the
+/// quality where it occurs (`(quality, asn)`), by [`curve_maximum`].
+pub fn largest_asn(plan: &StagedPlan, model: &Model) -> (f64, f64) {
+    let stages = plan.stages();
+    curve_maximum(plan, model, |p| {
+        let o = stage_outcomes(plan, model, p);
+        stages
+            .iter()
+            .zip(o.decided())
+            .map(|(s, share)| share * s.n as f64)
+            .sum()
+    })
+}
+
+/// The maximum over all qualities of a curve `f(p)` of `plan` that rises to
+/// one peak and falls (AOQ, ASN): `(quality, value)`.
+///
+/// For the binomial and Poisson models the curve is smooth in `p`: a
 /// coarse pass of 64 points up to where `Pa < 1e-12` brackets the maximum,
 /// then golden-section search narrows the bracket to a relative width of
 /// `1e-12` (about 60 evaluations). For the hypergeometric model a lot's
@@ -144,13 +165,12 @@ fn quality_ceiling(plan: &StagedPlan, model: &Model) -> f64 {
 ///
 /// Source: the golden-section search, e.g. Press et al., *Numerical
 /// Recipes* (3rd ed.), section 10.2.
-pub fn aoql(plan: &StagedPlan, model: &Model) -> Aoql {
-    let aoq = |p: f64| average_outgoing_quality(plan, model, p);
+pub fn curve_maximum(plan: &StagedPlan, model: &Model, f: impl Fn(f64) -> f64) -> (f64, f64) {
     let ceiling = quality_ceiling(plan, model);
     const COARSE: usize = 64;
     if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {
         let d_top = nonconforming_in_lot(ceiling, lot).max(1);
-        let at = |d: u64| aoq(d as f64 / lot as f64);
+        let at = |d: u64| f(d as f64 / lot as f64);
         let grid: Vec<u64> = (0..=COARSE as u64)
             .map(|i| d_top * i / COARSE as u64)
             .collect();
@@ -168,22 +188,16 @@ pub fn aoql(plan: &StagedPlan, model: &Model) -> Aoql {
         let candidates: Vec<u64> = (lo..=hi).collect();
         let d = candidates[argmax(&candidates, |&d| at(d))];
         let quality = d as f64 / lot as f64;
-        return Aoql {
-            value: aoq(quality),
-            quality,
-        };
+        return (quality, f(quality));
     }
     let grid: Vec<f64> = (1..=COARSE)
         .map(|i| ceiling * i as f64 / COARSE as f64)
         .collect();
-    let best = argmax(&grid, |&p| aoq(p));
+    let best = argmax(&grid, |&p| f(p));
     let lo = if best == 0 { 0.0 } else { grid[best - 1] };
     let hi = grid[(best + 1).min(COARSE - 1)];
-    let quality = golden_max(aoq, lo, hi);
-    Aoql {
-        value: aoq(quality),
-        quality,
-    }
+    let quality = golden_max(&f, lo, hi);
+    (quality, f(quality))
 }
 
 fn argmax<T>(xs: &[T], f: impl Fn(&T) -> f64) -> usize {
@@ -200,7 +214,7 @@ fn argmax<T>(xs: &[T], f: impl Fn(&T) -> f64) -> usize {
 }
 
 /// Maximiser of a unimodal `f` on `[lo, hi]` by golden-section search.
-fn golden_max(f: impl Fn(f64) -> f64, mut lo: f64, mut hi: f64) -> f64 {
+fn golden_max(f: &impl Fn(f64) -> f64, mut lo: f64, mut hi: f64) -> f64 {
     const INV_PHI: f64 = 0.618_033_988_749_894_8;
     let mut x1 = hi - INV_PHI * (hi - lo);
     let mut x2 = lo + INV_PHI * (hi - lo);

@@ -4,13 +4,16 @@ mod evaluation;
 mod judge;
 mod measures;
 mod oc;
+mod sequential;
 mod staged;
 
 pub use evaluation::{Evaluation, default_qualities, evaluate, quality_at_pa};
-pub use judge::{Decision, Judgement, judge};
+pub use judge::{Decision, Judgement, judge, judge_cumulative};
 pub use measures::{
-    Aoql, Measures, acceptance_probability, aoql, average_outgoing_quality, indifference_quality,
-    measures,
+    Aoql, Measures, acceptance_probability, aoql, average_outgoing_quality, curve_maximum,
+    indifference_quality, largest_asn, measures,
 };
-pub use oc::{StageOutcomes, stage_outcomes};
-pub use staged::{MAX_STAGES, Stage, StagedPlan};
+pub(crate) use oc::Walk;
+pub use oc::{StageOutcomes, curtailed_outcomes, stage_outcomes};
+pub use sequential::{ItemRun, SequentialLines};
+pub use staged::{MAX_ITEMS, MAX_STAGES, Stage, StagedPlan};

@@ -1,8 +1,8 @@
 //! Exact operating characteristic of a staged plan by dynamic programming
 //! over the cumulative count.
 
-use crate::model::Model;
-use crate::plan::StagedPlan;
+use crate::model::{Model, Window};
+use crate::plan::{Stage, StagedPlan};
 
 /// How lots of one quality end, stage by stage.
 #[derive(Clone, Debug, PartialEq)]
@@ -11,12 +11,27 @@ pub struct StageOutcomes {
     pub accept: Vec<f64>,
     /// `reject[j]`: probability that the lot is rejected at stage `j`.
     pub reject: Vec<f64>,
+    /// Expected number of units inspected under full curtailment (stop as
+    /// soon as the decision is certain); `None` where it was not asked for
+    /// or cannot be computed (see [`Walk::step`]).
+    pub curtailed_units: Option<f64>,
 }
 
 impl StageOutcomes {
     /// Probability of acceptance `Pa`, the OC at this quality.
     pub fn pa(&self) -> f64 {
         self.accept.iter().sum::<f64>().min(1.0)
+    }
+
+    /// Probability that the lot is decided at stage `j`: the distribution of
+    /// the number of units inspected without curtailment (`n_j` units with
+    /// probability `accept[j] + reject[j]`).
+    pub fn decided(&self) -> Vec<f64> {
+        self.accept
+            .iter()
+            .zip(&self.reject)
+            .map(|(a, r)| a + r)
+            .collect()
     }
 }
 
@@ -34,54 +49,170 @@ impl StageOutcomes {
 /// hypergeometric model drawn from what is left of the lot after the earlier
 /// stages took their units and `d` nonconforming ones). Both decisions come
 /// from the tails of the stage count, never as `1 -` something, so a small
-/// producer's risk keeps its relative accuracy. A single plan is one tail
-/// evaluation.
+/// producer's risk keeps its relative accuracy.
 ///
 /// Source: the convolution recursion for multi-stage OC, e.g. Schilling and
 /// Neubauer, *Acceptance Sampling in Quality Control* (2nd ed., 2009),
 /// ch. 8 (from memory).
 pub fn stage_outcomes(plan: &StagedPlan, model: &Model, p: f64) -> StageOutcomes {
+    outcomes(plan, model, p, false)
+}
+
+/// [`stage_outcomes`] together with the expected number of units inspected
+/// under full curtailment.
+pub fn curtailed_outcomes(plan: &StagedPlan, model: &Model, p: f64) -> StageOutcomes {
+    outcomes(plan, model, p, true)
+}
+
+fn outcomes(plan: &StagedPlan, model: &Model, p: f64, curtail: bool) -> StageOutcomes {
     let stages = plan.stages();
+    let mut walk = Walk::new(model, p, curtail);
     let mut accept = Vec::with_capacity(stages.len());
     let mut reject = Vec::with_capacity(stages.len());
-    // States still undecided: cumulative count and its probability.
-    let mut open: Vec<(u64, f64)> = vec![(0, 1.0)];
-    let mut drawn = 0;
     for stage in stages {
-        let m = stage.n - drawn;
-        let lowest_open = stage.accept.map_or(0, |a| a + 1);
-        let mut acc = 0.0;
-        let mut rej = 0.0;
-        let mut next: Vec<(u64, f64)> = Vec::new();
-        if stage.reject > lowest_open {
-            next = (lowest_open..stage.reject).map(|d| (d, 0.0)).collect();
+        let step = walk.step(stage);
+        accept.push(step.accept);
+        reject.push(step.reject);
+    }
+    StageOutcomes {
+        accept,
+        reject,
+        curtailed_units: walk.curtailed_units(),
+    }
+}
+
+/// What one stage did to the lots that reached it.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub(crate) struct Step {
+    /// Probability of acceptance at this stage.
+    pub(crate) accept: f64,
+    /// Probability of rejection at this stage.
+    pub(crate) reject: f64,
+}
+
+/// The recursion of [`stage_outcomes`], one stage at a time, so that a
+/// designer can try several ways of ending a plan from one shared prefix
+/// (clone the walk, step the candidate last stage).
+#[derive(Clone, Debug)]
+pub(crate) struct Walk<'a> {
+    model: &'a Model,
+    p: f64,
+    /// Count of `open[0]`.
+    lo: u64,
+    /// `open[i]`: probability that the lot is still undecided with a
+    /// cumulative count of `lo + i`.
+    open: Vec<f64>,
+    drawn: u64,
+    /// Expected units inspected so far under curtailment; `None` when not
+    /// asked for, or once a stage could not give it.
+    curtailed: Option<f64>,
+    /// The last stage count window, reused while the model forgets the past
+    /// and the stage size and run stay the same (item-by-item plans).
+    cache: Option<(u64, u64, u64, Window)>,
+}
+
+impl<'a> Walk<'a> {
+    /// A lot of quality `p` before its first unit.
+    pub(crate) fn new(model: &'a Model, p: f64, curtail: bool) -> Self {
+        Walk {
+            model,
+            p,
+            lo: 0,
+            open: vec![1.0],
+            drawn: 0,
+            curtailed: curtail.then_some(0.0),
+            cache: None,
         }
-        for &(d, w) in &open {
+    }
+
+    /// Expected units inspected under full curtailment by the stages
+    /// stepped so far.
+    pub(crate) fn curtailed_units(&self) -> Option<f64> {
+        self.curtailed
+    }
+
+    /// Inspects `stage` (whose cumulative size exceeds what was drawn) on
+    /// the lots still undecided.
+    ///
+    /// The count window of the stage spans every count a state can need:
+    /// from the acceptance cut of the highest open state to the rejection
+    /// cut of the lowest. For the binomial and Poisson models it is the same
+    /// for every state and is computed once per stage (and reused across
+    /// stages of the same size); the hypergeometric model needs one per
+    /// state, since each state left a different lot behind.
+    pub(crate) fn step(&mut self, stage: &Stage) -> Step {
+        let model = self.model;
+        let m = stage.n - self.drawn;
+        let lowest_open = stage.accept.map_or(0, |a| a + 1);
+        let r = stage.reject;
+        let d_lo = self.lo;
+        let d_hi = self.lo + self.open.len() as u64 - 1;
+        let mut next = vec![0.0; r.saturating_sub(lowest_open) as usize];
+        let (mut acc, mut rej) = (0.0, 0.0);
+        let win_lo = lowest_open.saturating_sub(d_hi);
+        let shared = if model.forgets_the_past() && r > d_lo {
+            let win_hi = r - 1 - d_lo;
+            match &self.cache {
+                Some((cm, cl, ch, _)) if (*cm, *cl, *ch) == (m, win_lo, win_hi) => {}
+                _ => {
+                    let w = model.window(m, win_lo, win_hi, self.p, 0, 0);
+                    self.cache = Some((m, win_lo, win_hi, w));
+                }
+            }
+            self.cache.as_ref().map(|c| &c.3)
+        } else {
+            None
+        };
+        let mut curtailed = self.curtailed;
+        for (i, &w) in self.open.iter().enumerate() {
+            let d = d_lo + i as u64;
             if w == 0.0 {
                 continue;
             }
-            let a_left = stage.accept.and_then(|a| a.checked_sub(d));
-            // Count that rejects from here: x >= reject - d.
-            let r_left = stage.reject.saturating_sub(d);
-            if r_left == 0 {
+            if d >= r {
+                // Already at the rejection number: rejected before the
+                // stage's first unit.
                 rej += w;
                 continue;
             }
-            let rej_tail = model.tails(m, r_left - 1, p, drawn, d);
-            rej += w * rej_tail.sf;
-            match a_left {
-                Some(a) if a + 1 == r_left => acc += w * rej_tail.cdf,
-                Some(a) => acc += w * model.tails(m, a, p, drawn, d).cdf,
-                None => {}
+            let own;
+            let win = match shared {
+                Some(win) => win,
+                None => {
+                    own = model.window(
+                        m,
+                        lowest_open.saturating_sub(d),
+                        r - 1 - d,
+                        self.p,
+                        self.drawn,
+                        d,
+                    );
+                    &own
+                }
+            };
+            rej += w * win.sf(r - 1 - d);
+            let accept_left = stage.accept.and_then(|a| a.checked_sub(d));
+            if let Some(a) = accept_left {
+                acc += w * win.cdf(a);
             }
-            for slot in next.iter_mut().filter(|slot| slot.0 >= d) {
-                slot.1 += w * model.pmf(m, slot.0 - d, p, drawn, d);
+            for (slot, d2) in next.iter_mut().zip(lowest_open..r) {
+                if d2 >= d {
+                    *slot += w * win.pmf(d2 - d);
+                }
+            }
+            if let Some(total) = curtailed {
+                curtailed = model
+                    .curtailed_stage_units(m, accept_left, r - d, self.p, self.drawn, d)
+                    .map(|units| total + w * units);
             }
         }
-        accept.push(acc);
-        reject.push(rej);
-        open = next;
-        drawn = stage.n;
+        self.curtailed = curtailed;
+        self.lo = lowest_open;
+        self.open = if next.is_empty() { vec![0.0] } else { next };
+        self.drawn = stage.n;
+        Step {
+            accept: acc,
+            reject: rej,
+        }
     }
-    StageOutcomes { accept, reject }
 }

@@ -7,9 +7,15 @@ use serde::{Deserialize, Serialize};
 
 use crate::error::InputError;
 use crate::model::{Model, ModelKind};
+use crate::plan::SequentialLines;
 
-/// The most stages a plan may have.
+/// The most stages a plan given as a list of stages may have.
 pub const MAX_STAGES: usize = 10;
+
+/// The most items an item-by-item (sequential) plan may inspect before its
+/// truncation: `10^5`, where the exact OC of one quality still costs well
+/// under a millisecond.
+pub const MAX_ITEMS: u64 = 100_000;
 
 /// One stage of a staged plan, on cumulative figures.
 ///
@@ -50,9 +56,11 @@ pub struct Stage {
 /// assert_eq!(plan.stages()[0].reject, 3);
 /// assert!(StagedPlan::single(2, 2, &m).is_err());
 /// ```
-#[derive(Clone, Debug, PartialEq, Eq)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct StagedPlan {
     stages: Vec<Stage>,
+    /// For an item-by-item plan, the lines its stages come from.
+    lines: Option<SequentialLines>,
 }
 
 impl StagedPlan {
@@ -82,6 +90,7 @@ impl StagedPlan {
                 accept: Some(c),
                 reject: c + 1,
             }],
+            lines: None,
         }
     }
 
@@ -97,6 +106,59 @@ impl StagedPlan {
                 "1 to 10",
             ));
         }
+        check_stages(&stages, model)?;
+        Ok(StagedPlan {
+            stages,
+            lines: None,
+        })
+    }
+
+    /// The item-by-item plan of `lines`: one stage per item up to the
+    /// truncation, each with the acceptance and rejection numbers of the
+    /// lines, the last closed by the final acceptance number.
+    ///
+    /// # Errors
+    /// [`InputError`] for lines that are not valid
+    /// ([`SequentialLines::check`]) or whose numbers leave no count open at
+    /// an item before the truncation (the later items would never be
+    /// reached).
+    pub fn sequential(lines: SequentialLines, model: &Model) -> Result<Self, InputError> {
+        lines.check(model)?;
+        let stages = lines.stages();
+        check_stages(&stages, model)?;
+        Ok(StagedPlan {
+            stages,
+            lines: Some(lines),
+        })
+    }
+
+    /// The lines of an item-by-item plan.
+    pub fn sequential_lines(&self) -> Option<&SequentialLines> {
+        self.lines.as_ref()
+    }
+
+    /// The stages, in order.
+    pub fn stages(&self) -> &[Stage] {
+        &self.stages
+    }
+
+    /// The largest number of units the plan can inspect.
+    pub fn max_sample(&self) -> u64 {
+        self.stages[self.stages.len() - 1].n
+    }
+
+    /// `Some((n, c))` when the plan is a single plan.
+    pub fn as_single(&self) -> Option<(u64, u64)> {
+        match self.stages.as_slice() {
+            [s] => s.accept.map(|c| (s.n, c)),
+            _ => None,
+        }
+    }
+}
+
+/// The rules of [`StagedPlan::new`] on a list of stages of any length.
+fn check_stages(stages: &[Stage], model: &Model) -> Result<(), InputError> {
+    {
         let last = stages.len() - 1;
         let mut previous_n = 0;
         for (i, s) in stages.iter().enumerate() {
@@ -162,26 +224,8 @@ impl StagedPlan {
                 )));
             }
         }
-        Ok(StagedPlan { stages })
     }
-
-    /// The stages, in order.
-    pub fn stages(&self) -> &[Stage] {
-        &self.stages
-    }
-
-    /// The largest number of units the plan can inspect.
-    pub fn max_sample(&self) -> u64 {
-        self.stages[self.stages.len() - 1].n
-    }
-
-    /// `Some((n, c))` when the plan is a single plan.
-    pub fn as_single(&self) -> Option<(u64, u64)> {
-        match self.stages.as_slice() {
-            [s] => s.accept.map(|c| (s.n, c)),
-            _ => None,
-        }
-    }
+    Ok(())
 }
 
 impl fmt::Display for Stage {
@@ -196,9 +240,16 @@ impl fmt::Display for Stage {
 }
 
 impl fmt::Display for StagedPlan {
-    /// `n = 80, c = 2` for a single plan, the stages in `N:AC:RE` notation
-    /// otherwise.
+    /// `n = 80, c = 2` for a single plan, the lines for an item-by-item
+    /// plan, the stages in `N:AC:RE` notation otherwise.
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        if let Some(l) = &self.lines {
+            return write!(
+                f,
+                "item by item: accept d <= {:.4} n - {:.4}, reject d >= {:.4} n + {:.4}, at item {} accept d <= {}",
+                l.slope, l.h_accept, l.slope, l.h_reject, l.truncation, l.final_acceptance
+            );
+        }
         if let Some((n, c)) = self.as_single() {
             return write!(f, "n = {n}, c = {c}");
         }

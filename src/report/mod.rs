@@ -18,9 +18,9 @@ use serde::Serialize;
 pub use self::csv::Csv;
 pub use self::json::Json;
 pub use self::table::Table;
-use crate::design::{Alternative, Solution};
+use crate::design::{Alternative, AsnSummary, Scheme, Solution, WaldApproximation};
 use crate::model::ModelKind;
-use crate::plan::{Aoql, Evaluation, Measures, Stage};
+use crate::plan::{Aoql, Evaluation, ItemRun, Measures, SequentialLines, Stage};
 use crate::source::{Difference, tool_version};
 
 /// One output format.
@@ -71,6 +71,49 @@ impl From<&Alternative> for AlternativeReport {
     }
 }
 
+/// The single plan beside a staged one.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct SinglePlanReport {
+    /// Sample size.
+    pub n: u64,
+    /// Acceptance number.
+    pub c: u64,
+}
+
+/// The sequential part of a design report.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct SequentialReport {
+    /// Intercept of the acceptance line.
+    pub h_accept: f64,
+    /// Intercept of the rejection line.
+    pub h_reject: f64,
+    /// Slope of both lines.
+    pub slope: f64,
+    /// Last item.
+    pub truncation: u64,
+    /// Acceptance number at the last item.
+    pub final_acceptance: u64,
+    /// The inspector's table: runs of items with the same numbers.
+    pub table: Vec<ItemRun>,
+    /// Wald's approximations of the untruncated test.
+    pub wald: Option<WaldApproximation>,
+}
+
+impl SequentialReport {
+    /// The report of `lines`, with Wald's figures where known.
+    pub fn new(lines: &SequentialLines, wald: Option<WaldApproximation>) -> Self {
+        SequentialReport {
+            h_accept: lines.h_accept,
+            h_reject: lines.h_reject,
+            slope: lines.slope,
+            truncation: lines.truncation,
+            final_acceptance: lines.final_acceptance,
+            table: lines.runs(),
+            wald,
+        }
+    }
+}
+
 /// What `design` reports.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct DesignReport {
@@ -88,7 +131,18 @@ pub struct DesignReport {
     pub producer: PointReport,
     /// The consumer's point and achieved risk.
     pub consumer: PointReport,
-    /// All acceptance numbers that meet both points at the chosen `n`.
+    /// Double and multiple plans: what the designer minimised.
+    pub criterion: Option<&'static str>,
+    /// Staged plans: ASN at the points and at its largest, against the
+    /// single plan.
+    pub asn: Option<AsnSummary>,
+    /// Sequential plans: the lines, the truncation, the inspector's table
+    /// and Wald's approximations.
+    pub sequential: Option<SequentialReport>,
+    /// The single plan for the same points, for comparison.
+    pub single_plan: SinglePlanReport,
+    /// All acceptance numbers that meet both points at the chosen `n`
+    /// (single plans; empty otherwise).
     pub fitting_acceptance_numbers: Vec<u64>,
     /// Nearby plans, `c = 0` to a little past the chosen one.
     pub alternatives: Vec<AlternativeReport>,
@@ -103,18 +157,32 @@ impl DesignReport {
     pub fn new(title: &str, solution: &Solution) -> Self {
         let r = &solution.request;
         let d = &solution.design;
+        let single = &solution.single;
+        let is_single = r.scheme == Scheme::Single;
         let mut notes = Vec::new();
-        if r.model.lot_size() == Some(d.n) {
-            notes.push("the sample is the whole lot: this is 100% inspection".to_string());
+        if r.model.lot_size() == Some(d.plan.max_sample()) {
+            notes.push(
+                "the largest sample is the whole lot: this can be 100% inspection".to_string(),
+            );
         }
-        if d.fitting_c.len() > 1 {
+        if is_single && single.fitting_c.len() > 1 {
             notes.push(format!(
                 "acceptance numbers {} all meet both points at n = {}; c = {} balances the two risks best (tie rule: smallest max(alpha achieved/alpha, beta achieved/beta))",
-                d.fitting_c.iter().map(u64::to_string).collect::<Vec<_>>().join(", "),
-                d.n,
-                d.c
+                single.fitting_c.iter().map(u64::to_string).collect::<Vec<_>>().join(", "),
+                single.n,
+                single.c
             ));
         }
+        if let Some(a) = &solution.asn {
+            notes.push(format!(
+                "ASN {:.1} at the AQL against n = {} for the single plan: {:.0}% less inspection while quality is at the AQL",
+                a.at_aql,
+                a.single_n,
+                100.0 * a.saving_at_aql
+            ));
+        }
+        let criterion = matches!(r.scheme, Scheme::Double | Scheme::Multiple)
+            .then(|| r.options.criterion.name());
         DesignReport {
             title: title.to_string(),
             scheme: r.scheme.name(),
@@ -131,7 +199,21 @@ impl DesignReport {
                 risk: r.risks.consumer().risk,
                 achieved_risk: d.consumer_risk,
             },
-            fitting_acceptance_numbers: d.fitting_c.clone(),
+            criterion,
+            asn: solution.asn,
+            sequential: d
+                .plan
+                .sequential_lines()
+                .map(|l| SequentialReport::new(l, solution.wald)),
+            single_plan: SinglePlanReport {
+                n: single.n,
+                c: single.c,
+            },
+            fitting_acceptance_numbers: if is_single {
+                single.fitting_c.clone()
+            } else {
+                Vec::new()
+            },
             alternatives: solution
                 .alternatives
                 .iter()
@@ -152,6 +234,8 @@ pub struct EvaluationReport {
     pub lot_size: Option<u64>,
     /// The plan's stages.
     pub stages: Vec<Stage>,
+    /// Sequential plans: the lines and the inspector's table.
+    pub sequential: Option<SequentialReport>,
     /// The measures at each quality.
     pub points: Vec<Measures>,
     /// The AOQL and where it occurs.
@@ -166,6 +250,10 @@ impl From<&Evaluation> for EvaluationReport {
             model: e.model.kind(),
             lot_size: e.model.lot_size(),
             stages: e.plan.stages().to_vec(),
+            sequential: e
+                .plan
+                .sequential_lines()
+                .map(|l| SequentialReport::new(l, None)),
             points: e.points.clone(),
             aoql: e.aoql,
             indifference_quality: e.indifference_quality,

@@ -10,7 +10,7 @@ use std::path::Path;
 pub use schema::{PlanSource, PointSource, RecordedPlan, SCHEMA_VERSION};
 pub use verify::{Difference, Verdict, verify};
 
-use crate::design::{DesignRequest, Solution};
+use crate::design::{DesignRequest, Scheme, SchemeOptions, Solution};
 use crate::error::{InputError, SourceError};
 use crate::model::Model;
 use crate::plan::StagedPlan;
@@ -126,11 +126,41 @@ impl PlanSource {
             },
             &model,
         )?;
+        let options = self.scheme_options()?;
         Ok(DesignRequest {
             scheme: self.scheme,
+            options,
             model,
             risks,
         })
+    }
+
+    /// The scheme settings the source gives, checked against its scheme.
+    ///
+    /// # Errors
+    /// [`InputError`] for a setting that does not belong to the scheme or
+    /// is out of range (see [`SchemeOptions::check`]).
+    pub fn scheme_options(&self) -> Result<SchemeOptions, InputError> {
+        let misplaced = |field: &str, schemes: &str| {
+            InputError::Inconsistent(format!(
+                "'{field}' applies to {schemes} plans only, and this source's scheme is {}",
+                self.scheme
+            ))
+        };
+        if self.criterion.is_some() && !matches!(self.scheme, Scheme::Double | Scheme::Multiple) {
+            return Err(misplaced("criterion", "double and multiple"));
+        }
+        if self.stage_count.is_some() && self.scheme != Scheme::Multiple {
+            return Err(misplaced("stage_count", "multiple"));
+        }
+        let defaults = SchemeOptions::default();
+        let options = SchemeOptions {
+            criterion: self.criterion.unwrap_or(defaults.criterion),
+            second_ratio: self.second_ratio,
+            stages: self.stage_count.unwrap_or(defaults.stages),
+        };
+        options.check(self.scheme)?;
+        Ok(options)
     }
 
     /// The recorded plan, validated for `model`.
@@ -145,7 +175,16 @@ impl PlanSource {
                 self.title
             ))
         })?;
-        StagedPlan::new(recorded.stages.clone(), model)
+        match (&recorded.sequential, recorded.stages.is_empty()) {
+            (Some(lines), true) => StagedPlan::sequential(*lines, model),
+            (None, false) => StagedPlan::new(recorded.stages.clone(), model),
+            (Some(_), false) => Err(InputError::Inconsistent(
+                "the recorded plan gives both stages and sequential lines; a sequential plan records only its lines".to_string(),
+            )),
+            (None, true) => Err(InputError::Inconsistent(
+                "the recorded plan has no stages".to_string(),
+            )),
+        }
     }
 
     /// A new source for `request`, with the given title and nothing else
@@ -164,6 +203,10 @@ impl PlanSource {
             approved_by: None,
             notes: None,
             scheme: request.scheme,
+            criterion: matches!(request.scheme, Scheme::Double | Scheme::Multiple)
+                .then_some(request.options.criterion),
+            second_ratio: request.options.second_ratio,
+            stage_count: (request.scheme == Scheme::Multiple).then_some(request.options.stages),
             model: request.model.kind(),
             lot_size: request.model.lot_size(),
             producer: PointSource {
@@ -180,8 +223,13 @@ impl PlanSource {
 
     /// Records `solution` as the source's plan, solved by this tool version.
     pub fn record(&mut self, solution: &Solution) {
+        let plan = &solution.design.plan;
         self.plan = Some(RecordedPlan {
-            stages: solution.design.plan.stages().to_vec(),
+            stages: match plan.sequential_lines() {
+                Some(_) => Vec::new(),
+                None => plan.stages().to_vec(),
+            },
+            sequential: plan.sequential_lines().copied(),
             producer_risk: solution.design.producer_risk,
             consumer_risk: solution.design.consumer_risk,
             solved_by: tool_version(),

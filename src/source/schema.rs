@@ -11,9 +11,9 @@
 
 use serde::{Deserialize, Deserializer, Serialize};
 
-use crate::design::Scheme;
+use crate::design::{Criterion, Scheme};
 use crate::model::ModelKind;
-use crate::plan::Stage;
+use crate::plan::{SequentialLines, Stage};
 
 /// The schema version this tool reads and writes.
 pub const SCHEMA_VERSION: u32 = 1;
@@ -52,6 +52,16 @@ pub struct PlanSource {
     pub notes: Option<String>,
     /// Sampling scheme.
     pub scheme: Scheme,
+    /// Double and multiple plans: what the designer minimises
+    /// (default `asn-aql`).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub criterion: Option<Criterion>,
+    /// Double plans: fix the second sample at this multiple of the first.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub second_ratio: Option<f64>,
+    /// Multiple plans: the number of equal stages, 2 to 7 (default 7).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub stage_count: Option<u32>,
     /// Likelihood model.
     pub model: ModelKind,
     /// Lot size `N`, required by the hypergeometric model.
@@ -79,12 +89,17 @@ pub struct PointSource {
     pub risk: f64,
 }
 
-/// The solved plan as recorded in a source.
+/// The solved plan as recorded in a source: its stages, or for a
+/// sequential plan its lines (the item stages follow from them).
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct RecordedPlan {
-    /// The stages, cumulative.
+    /// The stages, cumulative (empty for a sequential plan).
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub stages: Vec<Stage>,
+    /// The lines and truncation of a sequential plan.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub sequential: Option<SequentialLines>,
     /// Achieved producer's risk `1 - Pa(p1)`.
     pub producer_risk: f64,
     /// Achieved consumer's risk `Pa(p2)`.

@@ -6,6 +6,7 @@ use serde::Serialize;
 use super::PlanSource;
 use crate::design::design_for;
 use crate::error::Error;
+use crate::plan::{SequentialLines, Stage};
 
 /// Relative tolerance for recorded achieved risks. The plan numbers must
 /// match exactly; the risks are printed with 17 significant digits, so a
@@ -48,29 +49,24 @@ pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
         }]));
     };
     let mut diffs = Vec::new();
-    let resolved = design.plan.stages();
-    if recorded.stages.len() != resolved.len() {
-        diffs.push(Difference {
-            field: "plan.stages".into(),
-            recorded: format!("{} stages", recorded.stages.len()),
-            resolved: format!("{} stages", resolved.len()),
-        });
-    }
-    for (i, (r, s)) in recorded.stages.iter().zip(resolved).enumerate() {
-        let opt = |a: Option<u64>| a.map_or("none".to_string(), |v| v.to_string());
-        for (name, a, b) in [
-            ("n", r.n.to_string(), s.n.to_string()),
-            ("accept", opt(r.accept), opt(s.accept)),
-            ("reject", r.reject.to_string(), s.reject.to_string()),
-        ] {
-            if a != b {
-                diffs.push(Difference {
-                    field: format!("plan.stages[{i}].{name}"),
-                    recorded: a,
-                    resolved: b,
-                });
+    match (&recorded.sequential, design.plan.sequential_lines()) {
+        (Some(r), Some(s)) => compare_lines(r, s, &mut diffs),
+        (None, None) => compare_stages(&recorded.stages, design.plan.stages(), &mut diffs),
+        (r, s) => diffs.push(Difference {
+            field: "plan".into(),
+            recorded: if r.is_some() {
+                "sequential lines"
+            } else {
+                "stages"
             }
-        }
+            .into(),
+            resolved: if s.is_some() {
+                "sequential lines"
+            } else {
+                "stages"
+            }
+            .into(),
+        }),
     }
     for (name, a, b) in [
         (
@@ -97,4 +93,60 @@ pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
     } else {
         Verdict::Mismatch(diffs)
     })
+}
+
+fn compare_stages(recorded: &[Stage], resolved: &[Stage], diffs: &mut Vec<Difference>) {
+    if recorded.len() != resolved.len() {
+        diffs.push(Difference {
+            field: "plan.stages".into(),
+            recorded: format!("{} stages", recorded.len()),
+            resolved: format!("{} stages", resolved.len()),
+        });
+    }
+    for (i, (r, s)) in recorded.iter().zip(resolved).enumerate() {
+        let opt = |a: Option<u64>| a.map_or("none".to_string(), |v| v.to_string());
+        for (name, a, b) in [
+            ("n", r.n.to_string(), s.n.to_string()),
+            ("accept", opt(r.accept), opt(s.accept)),
+            ("reject", r.reject.to_string(), s.reject.to_string()),
+        ] {
+            if a != b {
+                diffs.push(Difference {
+                    field: format!("plan.stages[{i}].{name}"),
+                    recorded: a,
+                    resolved: b,
+                });
+            }
+        }
+    }
+}
+
+/// The lines are formed by the same operations on every machine, so they
+/// must agree to the last bit; the truncation and final number exactly.
+fn compare_lines(r: &SequentialLines, s: &SequentialLines, diffs: &mut Vec<Difference>) {
+    for (name, a, b) in [
+        ("h_accept", r.h_accept, s.h_accept),
+        ("h_reject", r.h_reject, s.h_reject),
+        ("slope", r.slope, s.slope),
+    ] {
+        if a != b {
+            diffs.push(Difference {
+                field: format!("plan.sequential.{name}"),
+                recorded: a.to_string(),
+                resolved: b.to_string(),
+            });
+        }
+    }
+    for (name, a, b) in [
+        ("truncation", r.truncation, s.truncation),
+        ("final_acceptance", r.final_acceptance, s.final_acceptance),
+    ] {
+        if a != b {
+            diffs.push(Difference {
+                field: format!("plan.sequential.{name}"),
+                recorded: a.to_string(),
+                resolved: b.to_string(),
+            });
+        }
+    }
 }

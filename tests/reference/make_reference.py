@@ -469,7 +469,7 @@ def mp_asn_curtailed(model, n, c, p, lot_size=None):
     """Expected units inspected under fully curtailed inspection.
 
     Inspection stops at the (c+1)-th nonconforming unit (reject) or at the
-    (n-c)-th conforming unit (accept).  Closed forms (negative-binomial /
+    (n-c)-th conforming unit (accept); for Poisson only at rejection.  Closed forms (negative-binomial /
     negative-hypergeometric stopping times, verified by enumeration in
     --self-test):
 
@@ -485,7 +485,15 @@ def mp_asn_curtailed(model, n, c, p, lot_size=None):
         N, D = lot_size, lot_defectives(p, lot_size)
         return mpf((c + 1) * (N + 1)) / (D + 1) * mp_hyper_tails(N + 1, D + 1, n + 1, c + 1)[1] \
             + mpf((n - c) * (N + 1)) / (N - D + 1) * mp_hyper_tails(N + 1, D, n + 1, c)[0]
-    return None
+    # Poisson: a unit may hold any number of nonconformities, so only the
+    # rejection can be certain early; the t-th unit is inspected when the
+    # first t units hold at most c: sum_{t<n} P(Poisson(t p) <= c).
+    # Long stages by mpmath's Euler-Maclaurin summation (numerical
+    # derivatives at the ends), short ones term by term.
+    p = mpf(p)
+    if n > 5000:
+        return mp.sumem(lambda t: mp.gammainc(c + 1, t * p, mp.inf, regularized=True), [0, n - 1])
+    return mp.fsum(mp_poisson_tails(t * p, c)[0] if t else mpf(1) for t in range(n))
 
 
 def measures_row(model, n, c, lot_size, p):

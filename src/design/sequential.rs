@@ -1,0 +1,214 @@
+//! The sequential designer: Wald's sequential probability ratio test for a
+//! proportion (binomial, and the hypergeometric lot read as one) or for a
+//! Poisson rate, item by item, truncated where the exact plan still meets
+//! both risk points.
+//!
+//! # The lines
+//!
+//! With `A = (1 - beta) / alpha` and `B = beta / (1 - alpha)`, the test
+//! goes on while `ln B < ln L_n < ln A`, where `L_n` is the likelihood
+//! ratio of `p2` against `p1` after `n` items. For `d` nonconforming in `n`
+//! items that is the band between two parallel lines:
+//!
+//! ```text
+//! proportion:  G = ln(p2 / p1) + ln((1 - p1) / (1 - p2)),  slope = ln((1 - p1) / (1 - p2)) / G
+//! rate:        G = ln(p2 / p1),                            slope = (p2 - p1) / G
+//! h_accept = ln((1 - alpha) / beta) / G,   h_reject = ln((1 - beta) / alpha) / G
+//! ```
+//!
+//! Source: A. Wald, *Sequential Analysis* (1947), ch. 5; by the
+//! Neyman-Pearson lemma the likelihood-ratio band is the test to build the
+//! plan from.
+//!
+//! # The truncation
+//!
+//! Wald's test ends with probability one but has no largest sample, and an
+//! inspector needs one. The designer closes the plan at the first item
+//! `n_t` at which some final acceptance number `a_t` (accept `d <= a_t`,
+//! reject above; `a_t` between the two lines' numbers at `n_t`) makes the
+//! exact truncated plan meet both risk points; among those `a_t` it takes
+//! the one with the smaller `max(alpha_achieved / alpha, beta_achieved /
+//! beta)`, then the smaller. A plan that inspects at most `n` items is a
+//! test on `n` items, and the single plan `(n_s, c)` is the most powerful
+//! such test (Neyman-Pearson), so `n_t >= n_s`: the search starts there.
+//! The exact risks come from the staged-plan recursion carried item by item
+//! (one walk per risk point, cloned to try each closing), so every candidate
+//! costs one item step.
+
+use serde::Serialize;
+
+use super::request::Design;
+use super::single::design_single;
+use crate::error::DesignError;
+use crate::model::{Model, ModelKind};
+use crate::plan::{MAX_ITEMS, SequentialLines, Stage, StagedPlan, Walk, stage_outcomes};
+use crate::risk::RiskPair;
+
+/// Wald's approximations to the average sample number of the untruncated
+/// test, for comparison with the exact figures of the truncated plan.
+///
+/// ```text
+/// ASN(p1) ~ ((1 - alpha) ln B + alpha ln A) / E_p1[z]
+/// ASN(p2) ~ (beta ln B + (1 - beta) ln A) / E_p2[z]
+/// largest ~ h_accept h_reject / (slope (1 - slope))   (rate: / slope), at p = slope
+/// ```
+///
+/// where `z` is one item's log-likelihood ratio (Wald 1947, ch. 3 and 5).
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct WaldApproximation {
+    /// Approximate ASN at the AQL.
+    pub asn_aql: f64,
+    /// Approximate ASN at the RQL.
+    pub asn_rql: f64,
+    /// Approximate largest ASN (at the quality equal to the slope).
+    pub asn_max: f64,
+}
+
+/// Wald's lines for the two risk points: `(h_accept, h_reject, slope)`.
+pub fn wald_lines(model: &Model, risks: &RiskPair) -> (f64, f64, f64) {
+    let (pr, co) = (risks.producer(), risks.consumer());
+    let (p1, alpha, p2, beta) = (pr.quality, pr.risk, co.quality, co.risk);
+    let (g, slope) = match model.kind() {
+        ModelKind::Poisson => {
+            let g = (p2 / p1).ln();
+            (g, (p2 - p1) / g)
+        }
+        _ => {
+            let g1 = (p2 / p1).ln();
+            let g2 = ((1.0 - p1) / (1.0 - p2)).ln();
+            let g = g1 + g2;
+            (g, g2 / g)
+        }
+    };
+    (
+        ((1.0 - alpha) / beta).ln() / g,
+        ((1.0 - beta) / alpha).ln() / g,
+        slope,
+    )
+}
+
+fn wald_approximation(model: &Model, risks: &RiskPair) -> WaldApproximation {
+    let (pr, co) = (risks.producer(), risks.consumer());
+    let (p1, alpha, p2, beta) = (pr.quality, pr.risk, co.quality, co.risk);
+    let (h_accept, h_reject, slope) = wald_lines(model, risks);
+    let (ln_a, ln_b) = (((1.0 - beta) / alpha).ln(), (beta / (1.0 - alpha)).ln());
+    let drift = |p: f64| match model.kind() {
+        ModelKind::Poisson => p * (p2 / p1).ln() - (p2 - p1),
+        _ => p * (p2 / p1).ln() + (1.0 - p) * ((1.0 - p2) / (1.0 - p1)).ln(),
+    };
+    let asn_max = match model.kind() {
+        ModelKind::Poisson => h_accept * h_reject / slope,
+        _ => h_accept * h_reject / (slope * (1.0 - slope)),
+    };
+    WaldApproximation {
+        asn_aql: ((1.0 - alpha) * ln_b + alpha * ln_a) / drift(p1),
+        asn_rql: (beta * ln_b + (1.0 - beta) * ln_a) / drift(p2),
+        asn_max,
+    }
+}
+
+/// Designs the truncated sequential plan for the two risk points (see the
+/// module documentation), with Wald's approximations beside it.
+///
+/// # Errors
+/// As [`design_single`] for points without a single plan;
+/// [`DesignError::BeyondCap`] when the truncation would pass [`MAX_ITEMS`]
+/// items; [`DesignError::NoPlan`] when the lines close before the exact
+/// plan meets both points.
+///
+/// # Example
+/// ```
+/// use lotsman::{design_sequential, Model, ModelKind, RiskPair, RiskPoint};
+/// let model = Model::new(ModelKind::Binomial, None).unwrap();
+/// let risks = RiskPair::new(
+///     RiskPoint { quality: 0.01, risk: 0.05 },
+///     RiskPoint { quality: 0.06, risk: 0.10 },
+///     &model,
+/// ).unwrap();
+/// let (d, wald) = design_sequential(&model, &risks).unwrap();
+/// assert!(d.producer_risk <= 0.05 && d.consumer_risk <= 0.10);
+/// assert!(d.plan.sequential_lines().unwrap().truncation >= 110); // the single plan's n
+/// assert!(wald.asn_aql < 110.0);
+/// ```
+pub fn design_sequential(
+    model: &Model,
+    risks: &RiskPair,
+) -> Result<(Design, WaldApproximation), DesignError> {
+    let single = design_single(model, risks)?;
+    let (h_accept, h_reject, slope) = wald_lines(model, risks);
+    let open_lines = SequentialLines {
+        h_accept,
+        h_reject,
+        slope,
+        truncation: 1,
+        final_acceptance: 0,
+    };
+    let (pr, co) = (risks.producer(), risks.consumer());
+    let (alpha, beta) = (pr.risk, co.risk);
+    let mut at_p1 = Walk::new(model, pr.quality, false);
+    let mut at_p2 = Walk::new(model, co.quality, false);
+    let (mut rejected_p1, mut accepted_p2) = (0.0, 0.0);
+    let last = MAX_ITEMS.min(model.max_sample());
+    let unit = model.kind() != ModelKind::Poisson;
+    for n in 1..=last {
+        let accept = open_lines.acceptance_number(n);
+        let reject = open_lines.rejection_number(n);
+        if n >= single.n {
+            let mut best: Option<(f64, u64)> = None;
+            for a_t in accept.unwrap_or(0)..reject {
+                if unit && a_t >= n {
+                    break;
+                }
+                let close = Stage {
+                    n,
+                    accept: Some(a_t),
+                    reject: a_t + 1,
+                };
+                let producer = rejected_p1 + at_p1.clone().step(&close).reject;
+                let consumer = accepted_p2 + at_p2.clone().step(&close).accept;
+                if producer <= alpha && consumer <= beta {
+                    let margin = (producer / alpha).max(consumer / beta);
+                    if best.is_none_or(|(m, _)| margin < m) {
+                        best = Some((margin, a_t));
+                    }
+                }
+            }
+            if let Some((_, a_t)) = best {
+                let lines = SequentialLines {
+                    truncation: n,
+                    final_acceptance: a_t,
+                    ..open_lines
+                };
+                let plan =
+                    StagedPlan::sequential(lines, model).map_err(|e| DesignError::NoPlan {
+                        reason: e.to_string(),
+                        suggestion: "use a single or double plan".to_string(),
+                    })?;
+                let o = stage_outcomes(&plan, model, pr.quality);
+                let producer_risk = o.reject.iter().sum();
+                let consumer_risk = stage_outcomes(&plan, model, co.quality).accept.iter().sum();
+                let design = Design {
+                    plan,
+                    producer_risk,
+                    consumer_risk,
+                };
+                return Ok((design, wald_approximation(model, risks)));
+            }
+        }
+        if accept.map_or(0, |a| a + 1) + 1 > reject {
+            return Err(DesignError::NoPlan {
+                reason: format!(
+                    "the sequential lines leave no count open at item {n} and the plan does not yet meet both points"
+                ),
+                suggestion: "use a single or double plan".to_string(),
+            });
+        }
+        let stage = Stage { n, accept, reject };
+        rejected_p1 += at_p1.step(&stage).reject;
+        accepted_p2 += at_p2.step(&stage).accept;
+    }
+    Err(DesignError::BeyondCap {
+        what: "a truncation".to_string(),
+        cap: format!("{last} items"),
+    })
+}

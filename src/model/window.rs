@@ -1,0 +1,144 @@
+//! A run of consecutive probabilities of one count distribution, with the
+//! masses on either side of it, from which every tail inside the run follows
+//! by addition.
+//!
+//! The staged-plan recursion asks, at each stage, for `P(X <= k)`,
+//! `P(X > k)` and `P(X = k)` at a few neighbouring `k`. Two tail sums (one
+//! below the run, one above it) and one saddle-point log-probability fix
+//! them all: the terms inside the run come from the ratios of consecutive
+//! probabilities, walking outward from the term nearest the mode so that no
+//! term underflows before a larger one, and every tail is a sum of positive
+//! terms. Neither `P(X <= k)` nor `P(X > k)` is ever formed as `1 -` the
+//! other, so a small producer's risk keeps its relative accuracy.
+
+use super::tail::{Terms, tails};
+
+/// `P(X = k)` for `k` in `lo..=hi`, with `below = P(X < lo)` and
+/// `above = P(X > hi)`; terms outside the distribution's support are left
+/// out of the run (the run is clamped to the support).
+#[derive(Clone, Debug, PartialEq)]
+pub(crate) struct Window {
+    lo: u64,
+    pmf: Vec<f64>,
+    /// `cdf[i] = P(X <= lo + i - 1)`, `i = 0..=len`.
+    cdf: Vec<f64>,
+    /// `sf[i] = P(X > lo + i - 1)`, `i = 0..=len`.
+    sf: Vec<f64>,
+}
+
+impl Window {
+    /// A point mass at zero (a count that cannot grow).
+    pub(crate) fn at_zero() -> Self {
+        Self::from_terms(0, vec![1.0], 0.0, 0.0)
+    }
+
+    fn from_terms(lo: u64, pmf: Vec<f64>, below: f64, above: f64) -> Self {
+        let mut cdf = Vec::with_capacity(pmf.len() + 1);
+        let mut acc = below;
+        cdf.push(acc);
+        for &t in &pmf {
+            acc += t;
+            cdf.push(acc.min(1.0));
+        }
+        let mut sf = vec![0.0; pmf.len() + 1];
+        let mut acc = above;
+        sf[pmf.len()] = acc;
+        for (i, &t) in pmf.iter().enumerate().rev() {
+            acc += t;
+            sf[i] = acc.min(1.0);
+        }
+        Window { lo, pmf, cdf, sf }
+    }
+
+    /// Index into `cdf`/`sf` for the cut `k`, clamped to the run.
+    fn cut(&self, k: u64) -> usize {
+        // k < lo - 1 is never asked except where the run was clamped to the
+        // support, and there the clamped value is the right one.
+        (k + 1).saturating_sub(self.lo).min(self.pmf.len() as u64) as usize
+    }
+
+    /// `P(X <= k)`.
+    pub(crate) fn cdf(&self, k: u64) -> f64 {
+        self.cdf[self.cut(k)]
+    }
+
+    /// `P(X > k)`.
+    pub(crate) fn sf(&self, k: u64) -> f64 {
+        self.sf[self.cut(k)]
+    }
+
+    /// `P(X = k)`.
+    pub(crate) fn pmf(&self, k: u64) -> f64 {
+        k.checked_sub(self.lo)
+            .and_then(|i| self.pmf.get(i as usize))
+            .copied()
+            .unwrap_or(0.0)
+    }
+}
+
+/// The window `lo..=hi` of `d` (clamped to its support); `lo = hi + 1`
+/// gives the bare cut at `hi`.
+pub(crate) fn window<T: Terms>(d: &T, lo: u64, hi: u64) -> Window {
+    let (s_lo, s_hi) = d.support();
+    let (a, b) = (lo.max(s_lo), hi.min(s_hi));
+    if a > b {
+        // No term of the support in the run: it is empty (`lo = hi + 1`, a
+        // bare cut at `hi`) or lies wholly on one side of the support.
+        let (below, above) = if lo > s_hi {
+            (1.0, 0.0)
+        } else if hi < s_lo {
+            (0.0, 1.0)
+        } else {
+            let t = tails(d, hi);
+            (t.cdf, t.sf)
+        };
+        return Window::from_terms(lo, Vec::new(), below, above);
+    }
+    let below = if a > s_lo { tails(d, a - 1).cdf } else { 0.0 };
+    let above = if b < s_hi { tails(d, b).sf } else { 0.0 };
+    let len = (b - a + 1) as usize;
+    let mut pmf = vec![0.0; len];
+    let k0 = d.mode().clamp(a, b);
+    let i0 = (k0 - a) as usize;
+    pmf[i0] = d.ln_pmf(k0).exp();
+    for k in k0..b {
+        let i = (k - a) as usize;
+        pmf[i + 1] = pmf[i] * d.ratio_up(k);
+    }
+    for k in ((a + 1)..=k0).rev() {
+        let i = (k - a) as usize;
+        pmf[i - 1] = pmf[i] * d.ratio_down(k);
+    }
+    Window::from_terms(a, pmf, below, above)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::super::binomial::Binomial;
+    use super::super::poisson::Poisson;
+    use super::*;
+
+    #[test]
+    fn window_tails_agree_with_direct_tails() {
+        let d = Binomial::new(200, 0.03);
+        let w = window(&d, 2, 11);
+        for k in 1..=11 {
+            let t = tails(&d, k);
+            assert!((w.cdf(k) - t.cdf).abs() <= 1e-14 * t.cdf, "cdf {k}");
+            assert!((w.sf(k) - t.sf).abs() <= 1e-14 * t.sf, "sf {k}");
+        }
+        let p = Poisson::new(0.4);
+        let w = window(&p, 0, 3);
+        let total: f64 = (0..=3).map(|k| w.pmf(k)).sum::<f64>() + w.sf(3);
+        assert!((total - 1.0).abs() < 1e-15);
+    }
+
+    #[test]
+    fn a_run_beyond_the_support_is_all_on_one_side() {
+        let d = Binomial::new(1, 0.2);
+        let w = window(&d, 3, 6);
+        assert_eq!((w.cdf(4), w.sf(4), w.pmf(3)), (1.0, 0.0, 0.0));
+        let w = window(&d, 0, 6);
+        assert!((w.pmf(1) - 0.2).abs() < 1e-16 && w.sf(1) == 0.0 && w.cdf(6) == 1.0);
+    }
+}
