@@ -115,7 +115,7 @@ fn euler_maclaurin(m: u64, k: u64, p: f64) -> f64 {
     let derivative = |s: u64, pmf: &dyn Fn(u64) -> f64| -> f64 {
         (0..=s.min(k - 1))
             .map(|i| {
-                let sign = if (s - i) % 2 == 0 { 1.0 } else { -1.0 };
+                let sign = if (s - i).is_multiple_of(2) { 1.0 } else { -1.0 };
                 sign * choose(s, i) * pmf(k - 1 - i)
             })
             .sum()
