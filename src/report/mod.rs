@@ -20,7 +20,7 @@ pub use self::json::Json;
 pub use self::table::Table;
 use crate::design::{Alternative, AsnSummary, Scheme, Solution, WaldApproximation};
 use crate::model::ModelKind;
-use crate::plan::{Aoql, Evaluation, ItemRun, Measures, SequentialLines, Stage};
+use crate::plan::{Aoql, Evaluation, ItemRun, Measures, SequentialLines, Stage, StagedPlan};
 use crate::source::{Difference, tool_version};
 
 /// One output format.
@@ -125,6 +125,9 @@ pub struct DesignReport {
     pub model: ModelKind,
     /// Lot size, `null` when absent.
     pub lot_size: Option<u64>,
+    /// The plan (for the formats; JSON carries its stages).
+    #[serde(skip)]
+    pub plan: StagedPlan,
     /// The plan's stages.
     pub stages: Vec<Stage>,
     /// The producer's point and achieved risk.
@@ -188,6 +191,7 @@ impl DesignReport {
             scheme: r.scheme.name(),
             model: r.model.kind(),
             lot_size: r.model.lot_size(),
+            plan: d.plan.clone(),
             stages: d.plan.stages().to_vec(),
             producer: PointReport {
                 quality: r.risks.producer().quality,

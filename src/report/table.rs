@@ -6,8 +6,8 @@ use comfy_table::{CellAlignment, ContentArrangement, LineStyle, Table as Grid, T
 
 use super::words;
 use super::{
-    DesignReport, EvaluationReport, ReportFormat, VerificationReport, format_quality,
-    format_significant,
+    DesignReport, EvaluationReport, ReportFormat, SequentialReport, VerificationReport,
+    format_quality, format_significant,
 };
 use crate::model::ModelKind;
 use crate::plan::Stage;
@@ -38,6 +38,61 @@ fn grid(header: &[&str]) -> Grid {
     g
 }
 
+/// How many rows of an item table a terminal shows.
+const ITEM_ROWS: usize = 24;
+
+fn write_stage_table(out: &mut dyn Write, stages: &[Stage]) -> io::Result<()> {
+    let mut g = grid(&[
+        "Stage",
+        "New units",
+        "Units in all",
+        "Accept if count <=",
+        "Reject if count >=",
+    ]);
+    let mut drawn = 0;
+    for (i, s) in stages.iter().enumerate() {
+        g.add_row(vec![
+            (i + 1).to_string(),
+            (s.n - drawn).to_string(),
+            s.n.to_string(),
+            s.accept.map_or("-".to_string(), |a| a.to_string()),
+            s.reject.to_string(),
+        ]);
+        drawn = s.n;
+    }
+    writeln!(out, "{g}")
+}
+
+fn write_item_table(out: &mut dyn Write, seq: &SequentialReport) -> io::Result<()> {
+    let mut g = grid(&[
+        "Units inspected",
+        "Accept if count <=",
+        "Reject if count >=",
+    ]);
+    for run in seq.table.iter().take(ITEM_ROWS) {
+        let items = if run.first == run.last {
+            run.first.to_string()
+        } else {
+            format!("{} to {}", run.first, run.last)
+        };
+        g.add_row(vec![
+            items,
+            run.accept.map_or("-".to_string(), |a| a.to_string()),
+            run.reject.to_string(),
+        ]);
+    }
+    writeln!(out, "{g}")?;
+    if seq.table.len() > ITEM_ROWS {
+        writeln!(
+            out,
+            "({} more rows up to unit {}; --format json lists them all)",
+            seq.table.len() - ITEM_ROWS,
+            seq.truncation
+        )?;
+    }
+    Ok(())
+}
+
 fn optional(v: Option<u64>, prefix: &str) -> String {
     v.map_or("none".to_string(), |x| format!("{prefix}{x}"))
 }
@@ -51,16 +106,32 @@ impl ReportFormat for Table {
             .map_or("no lot size".to_string(), |n| format!("lot of {n} units"));
         writeln!(out, "{} plan, {} model, {lot}", r.scheme, r.model)?;
         writeln!(out)?;
-        let s = &r.stages[0];
-        writeln!(
-            out,
-            "  PLAN  n = {}, c = {} (reject at {})",
-            s.n,
-            s.accept.unwrap_or(0),
-            s.reject
-        )?;
-        for step in words::procedure(s.n, s.accept.unwrap_or(0), per_unit) {
+        let plan = &r.plan;
+        if let Some((n, c)) = plan.as_single() {
+            writeln!(out, "  PLAN  n = {n}, c = {c} (reject at {})", c + 1)?;
+        } else if let Some(seq) = &r.sequential {
+            writeln!(
+                out,
+                "  PLAN  item by item: accept when d <= {:.5} n - {:.5}, reject when d >= {:.5} n + {:.5}; at item {} accept d <= {}",
+                seq.slope,
+                seq.h_accept,
+                seq.slope,
+                seq.h_reject,
+                seq.truncation,
+                seq.final_acceptance
+            )?;
+        } else {
+            writeln!(out, "  PLAN  {} stages (cumulative counts)", r.stages.len())?;
+        }
+        for step in words::plan_procedure(plan, per_unit) {
             writeln!(out, "  {step}")?;
+        }
+        if let Some(seq) = &r.sequential {
+            writeln!(out)?;
+            write_item_table(out, seq)?;
+        } else if plan.as_single().is_none() {
+            writeln!(out)?;
+            write_stage_table(out, &r.stages)?;
         }
         writeln!(out)?;
         let mut g = grid(&["Risk point", "Quality", "Agreed risk", "Achieved risk"]);
@@ -79,12 +150,42 @@ impl ReportFormat for Table {
         for note in &r.notes {
             writeln!(out, "Note: {note}")?;
         }
+        if let Some(a) = &r.asn {
+            writeln!(out)?;
+            let mut g = grid(&["Average sample number", "Units"]);
+            g.add_row(vec!["at the AQL".to_string(), format!("{:.1}", a.at_aql)]);
+            g.add_row(vec!["at the RQL".to_string(), format!("{:.1}", a.at_rql)]);
+            g.add_row(vec![
+                format!("largest (at {})", format_quality(a.max_quality, per_unit)),
+                format!("{:.1}", a.max),
+            ]);
+            g.add_row(vec!["largest sample".to_string(), a.max_sample.to_string()]);
+            g.add_row(vec![
+                format!(
+                    "single plan n = {}, c = {}",
+                    r.single_plan.n, r.single_plan.c
+                ),
+                r.single_plan.n.to_string(),
+            ]);
+            writeln!(out, "{g}")?;
+            if let Some(w) = r.sequential.as_ref().and_then(|s| s.wald) {
+                writeln!(
+                    out,
+                    "Wald's approximations (untruncated test): ASN {:.1} at the AQL, {:.1} at the RQL, {:.1} at most",
+                    w.asn_aql, w.asn_rql, w.asn_max
+                )?;
+            }
+            if let Some(c) = r.criterion {
+                writeln!(out, "The designer minimised {c}.")?;
+            }
+            return writeln!(out, "{}", words::CAUTION);
+        }
         writeln!(out)?;
         writeln!(
             out,
             "Nearby plans (sample sizes meeting each point, by acceptance number)"
         )?;
-        let chosen = s.accept.unwrap_or(0) as usize;
+        let chosen = r.stages[0].accept.unwrap_or(0) as usize;
         let last = r.alternatives.len();
         let first = (chosen + 1 + 3).saturating_sub(ALTERNATIVE_ROWS).min(last);
         let mut g = grid(&["c", "meets RQL from n", "meets AQL up to n", "both"]);
@@ -115,16 +216,31 @@ impl ReportFormat for Table {
 
     fn evaluation(&self, out: &mut dyn Write, r: &EvaluationReport) -> io::Result<()> {
         let per_unit = r.model == ModelKind::Poisson;
-        let plan: Vec<String> = r.stages.iter().map(Stage::to_string).collect();
         let lot = r
             .lot_size
             .map_or("no lot size".to_string(), |n| format!("lot of {n} units"));
-        writeln!(
-            out,
-            "Plan {} (N:AC:RE), {} model, {lot}",
-            plan.join(" "),
-            r.model
-        )?;
+        match &r.sequential {
+            Some(seq) => writeln!(
+                out,
+                "Plan item by item: accept d <= {:.5} n - {:.5}, reject d >= {:.5} n + {:.5}, at item {} accept d <= {}; {} model, {lot}",
+                seq.slope,
+                seq.h_accept,
+                seq.slope,
+                seq.h_reject,
+                seq.truncation,
+                seq.final_acceptance,
+                r.model
+            )?,
+            None => {
+                let plan: Vec<String> = r.stages.iter().map(Stage::to_string).collect();
+                writeln!(
+                    out,
+                    "Plan {} (N:AC:RE), {} model, {lot}",
+                    plan.join(" "),
+                    r.model
+                )?
+            }
+        }
         let mut g = grid(&["Quality", "Pa", "AOQ", "ATI", "ASN", "ASN curtailed"]);
         for p in &r.points {
             g.add_row(vec![

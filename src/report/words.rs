@@ -2,6 +2,8 @@
 //! procedure and the cautions. One text, so that the terminal, the demo and
 //! the sheet can never tell an inspector two different things.
 
+use crate::plan::StagedPlan;
+
 /// What the count is of: nonconforming units, or nonconformities for the
 /// Poisson model.
 pub fn counted(per_unit: bool) -> &'static str {
@@ -25,9 +27,62 @@ pub fn procedure(n: u64, c: u64, per_unit: bool) -> [String; 4] {
             "3. If the count is {c} or fewer, accept the lot. If it is {} or more, reject the lot.",
             c + 1
         ),
-        "4. A rejected lot is returned or screened 100%, as the supply agreement says; \
-         record the count and the decision."
+        format!("4. {DISPOSITION}"),
+    ]
+}
+
+/// The last step of every procedure: what happens to a rejected lot.
+const DISPOSITION: &str = "A rejected lot is returned or screened 100%, as the supply agreement says; \
+     record the counts and the decision.";
+
+/// The inspector's procedure for any staged plan, one step per item: the
+/// single plan's four steps, or the steps of a staged or an item-by-item
+/// plan (whose numbers are in the stage table or the item table beside
+/// them).
+pub fn plan_procedure(plan: &StagedPlan, per_unit: bool) -> Vec<String> {
+    let what = counted(per_unit);
+    if let Some((n, c)) = plan.as_single() {
+        return procedure(n, c, per_unit).to_vec();
+    }
+    let stages = plan.stages();
+    let last = stages[stages.len() - 1];
+    let close = format!(
+        "accept if the count is {} or fewer, reject it otherwise.",
+        last.accept.unwrap_or(0)
+    );
+    if plan.sequential_lines().is_some() {
+        return vec![
+            format!(
+                "1. Draw units at random from the whole lot, one at a time (every unit equally likely), up to {} units.",
+                last.n
+            ),
+            format!("2. Inspect each unit as it is drawn and keep a running count of the {what}."),
+            "3. After each unit, find the number of units inspected in the table: accept the lot as soon as \
+             the count is at or below the acceptance number, reject it as soon as the count reaches the \
+             rejection number; otherwise inspect the next unit."
+                .to_string(),
+            format!("4. At unit {} the lot is decided: {close}", last.n),
+            format!("5. {DISPOSITION}"),
+        ];
+    }
+    vec![
+        format!(
+            "1. Draw {} units at random from the whole lot for stage 1; at each later stage draw that stage's new units at random from the rest of the lot.",
+            stages[0].n
+        ),
+        format!(
+            "2. Inspect every unit drawn and keep the cumulative count of the {what} over all stages so far."
+        ),
+        "3. After each stage, compare the cumulative count with that stage's numbers in the table: accept \
+         the lot at or below the acceptance number, reject it at or above the rejection number, otherwise \
+         go on to the next stage."
             .to_string(),
+        format!(
+            "4. At stage {} ({} units in all) the lot is decided: {close}",
+            stages.len(),
+            last.n
+        ),
+        format!("5. {DISPOSITION}"),
     ]
 }
 
