@@ -401,3 +401,186 @@ fn judge_gives_the_lot_decision_as_text_and_json() {
         .code(2)
         .stderr(predicate::str::contains("0 to 166"));
 }
+
+#[test]
+fn double_design_json_has_stages_asn_and_the_criterion() {
+    let v = json_of(&[
+        "design", "--aql", "1%", "--rql", "6%", "--scheme", "double", "--format", "json",
+    ]);
+    assert_eq!(v["scheme"], "double");
+    assert_eq!(v["criterion"], "asn-aql");
+    let stages = v["stages"].as_array().unwrap();
+    assert_eq!(stages.len(), 2);
+    assert_eq!(
+        stages[1]["reject"],
+        stages[1]["accept"].as_u64().unwrap() + 1
+    );
+    assert_eq!(v["single_plan"]["n"], 110);
+    let asn = &v["asn"];
+    assert!(asn["at_aql"].as_f64().unwrap() < 110.0);
+    for key in [
+        "at_rql",
+        "max",
+        "max_quality",
+        "max_sample",
+        "saving_at_aql",
+    ] {
+        assert!(asn[key].is_number(), "asn.{key}");
+    }
+    assert!(v["producer"]["achieved_risk"].as_f64().unwrap() <= 0.05);
+    assert!(v["alternatives"].as_array().unwrap().is_empty());
+}
+
+#[test]
+fn second_ratio_fixes_the_second_sample() {
+    let v = json_of(&[
+        "design",
+        "--aql",
+        "1%",
+        "--rql",
+        "6%",
+        "--scheme",
+        "double",
+        "--second-ratio",
+        "2",
+        "--format",
+        "json",
+    ]);
+    let s = v["stages"].as_array().unwrap();
+    let (n1, n) = (s[0]["n"].as_u64().unwrap(), s[1]["n"].as_u64().unwrap());
+    assert_eq!(n - n1, 2 * n1);
+}
+
+#[test]
+fn sequential_design_json_has_the_lines_and_the_item_table() {
+    let v = json_of(&[
+        "design",
+        "--aql",
+        "1%",
+        "--rql",
+        "6%",
+        "--scheme",
+        "sequential",
+        "--format",
+        "json",
+    ]);
+    let seq = &v["sequential"];
+    for key in ["h_accept", "h_reject", "slope"] {
+        assert!(seq[key].as_f64().unwrap() > 0.0, "sequential.{key}");
+    }
+    let truncation = seq["truncation"].as_u64().unwrap();
+    assert!(truncation >= 110);
+    assert_eq!(v["stages"].as_array().unwrap().len() as u64, truncation);
+    let table = seq["table"].as_array().unwrap();
+    assert_eq!(table[0]["first"], 1);
+    assert_eq!(table[table.len() - 1]["last"], truncation);
+    assert!(seq["wald"]["asn_aql"].is_number());
+}
+
+#[test]
+fn multiple_design_has_the_stage_count_asked_for() {
+    let v = json_of(&[
+        "design",
+        "--aql",
+        "2%",
+        "--rql",
+        "10%",
+        "--scheme",
+        "multiple",
+        "--stage-count",
+        "4",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(v["stages"].as_array().unwrap().len(), 4);
+}
+
+#[test]
+fn scheme_options_on_the_wrong_scheme_are_refused() {
+    for args in [
+        &["--criterion", "asn-rql"][..],
+        &["--scheme", "sequential", "--second-ratio", "2"][..],
+        &["--scheme", "double", "--stage-count", "3"][..],
+        &["--scheme", "multiple", "--criterion", "asn-max"][..],
+        &["--scheme", "multiple", "--stage-count", "9"][..],
+    ] {
+        lotsman()
+            .args(["design", "--aql", "1%", "--rql", "6%"])
+            .args(args)
+            .assert()
+            .code(2)
+            .stderr(predicate::str::contains("lotsman: error"));
+    }
+}
+
+#[test]
+fn judge_follows_a_double_and_a_sequential_plan() {
+    let v = json_of(&[
+        "judge",
+        "plans/tpw-impeller-porosity.yaml",
+        "--found",
+        "1",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(v["decision"], "continue");
+    assert!(v["next_units"].as_u64().unwrap() > 0);
+    lotsman()
+        .args([
+            "judge",
+            "plans/tpw-sleeve-hardness.yaml",
+            "--inspected",
+            "1",
+            "--found",
+            "0",
+        ])
+        .assert()
+        .success()
+        .stdout(predicate::str::contains("GO ON to the next item"));
+    lotsman()
+        .args([
+            "judge",
+            "plans/tpw-sleeve-hardness.yaml",
+            "--inspected",
+            "2",
+            "--found",
+            "2",
+        ])
+        .assert()
+        .success()
+        .stdout(predicate::str::contains("REJECT"));
+    lotsman()
+        .args([
+            "judge",
+            "plans/tpw-sleeve-hardness.yaml",
+            "--inspected",
+            "9999",
+            "--found",
+            "0",
+        ])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("--inspected"));
+}
+
+#[test]
+fn evaluate_reads_staged_and_sequential_sources() {
+    for source in [
+        "plans/tpw-impeller-porosity.yaml",
+        "plans/tpw-sleeve-hardness.yaml",
+    ] {
+        let v = json_of(&["evaluate", source, "--format", "json"]);
+        let points = v["points"].as_array().unwrap();
+        assert!(!points.is_empty());
+        for p in points {
+            assert!(p["asn_curtailed"].as_f64().unwrap() <= p["asn"].as_f64().unwrap() + 1e-9);
+        }
+    }
+    let v = json_of(&[
+        "evaluate",
+        "plans/tpw-sleeve-hardness.yaml",
+        "--format",
+        "json",
+    ]);
+    assert!(v["sequential"]["truncation"].as_u64().unwrap() > 0);
+}

@@ -425,9 +425,5 @@ pub fn design_double(
         reason: e.to_string(),
         suggestion: "report this as a bug".to_string(),
     })?;
-    Ok(Design {
-        plan,
-        producer_risk: b.producer_risk,
-        consumer_risk: b.consumer_risk,
-    })
+    Ok(Design::exact(plan, model, risks))
 }

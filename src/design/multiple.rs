@@ -90,8 +90,6 @@ fn run(stages: &[Stage], model: &Model, p: f64) -> (f64, f64, f64) {
 struct Candidate {
     stages: Vec<Stage>,
     value: f64,
-    producer_risk: f64,
-    consumer_risk: f64,
     margin: f64,
     key: (u64, usize, usize),
 }
@@ -194,8 +192,6 @@ pub fn design_multiple(
                     let candidate = Candidate {
                         stages: st,
                         value,
-                        producer_risk: rej1,
-                        consumer_risk: acc2,
                         margin: (rej1 / alpha).max(acc2 / beta),
                         key: (c, iu, iv),
                     };
@@ -218,9 +214,5 @@ pub fn design_multiple(
         reason: e.to_string(),
         suggestion: "use the single or the double plan".to_string(),
     })?;
-    Ok(Design {
-        plan,
-        producer_risk: b.producer_risk,
-        consumer_risk: b.consumer_risk,
-    })
+    Ok(Design::exact(plan, model, risks))
 }

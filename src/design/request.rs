@@ -11,7 +11,7 @@ use super::sequential::{WaldApproximation, design_sequential};
 use super::single::{Alternative, SingleDesign, design_single, single_alternatives};
 use crate::error::{DesignError, InputError};
 use crate::model::Model;
-use crate::plan::{StagedPlan, measures};
+use crate::plan::{StagedPlan, measures, stage_outcomes};
 use crate::risk::RiskPair;
 
 /// The sampling scheme of a plan.
@@ -159,6 +159,29 @@ pub struct Design {
     pub producer_risk: f64,
     /// Achieved consumer's risk `Pa(p2)`.
     pub consumer_risk: f64,
+}
+
+impl Design {
+    /// `plan` with its achieved risks from the exact recursion
+    /// ([`stage_outcomes`]): the producer's risk as the sum of the
+    /// rejection probabilities at `p1`, the consumer's as the acceptance
+    /// probability at `p2`. Every staged designer reports its choice this
+    /// way, whatever shortcut its search took.
+    pub fn exact(plan: StagedPlan, model: &Model, risks: &RiskPair) -> Self {
+        let producer_risk = stage_outcomes(&plan, model, risks.producer().quality)
+            .reject
+            .iter()
+            .sum();
+        let consumer_risk = stage_outcomes(&plan, model, risks.consumer().quality)
+            .accept
+            .iter()
+            .sum();
+        Design {
+            plan,
+            producer_risk,
+            consumer_risk,
+        }
+    }
 }
 
 /// How many acceptance numbers past the chosen one the alternatives list.

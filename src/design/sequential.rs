@@ -26,11 +26,21 @@
 //! inspector needs one. The designer closes the plan at the first item
 //! `n_t` at which some final acceptance number `a_t` (accept `d <= a_t`,
 //! reject above; `a_t` between the two lines' numbers at `n_t`) makes the
-//! exact truncated plan meet both risk points; among those `a_t` it takes
-//! the one with the smaller `max(alpha_achieved / alpha, beta_achieved /
-//! beta)`, then the smaller. A plan that inspects at most `n` items is a
-//! test on `n` items, and the single plan `(n_s, c)` is the most powerful
-//! such test (Neyman-Pearson), so `n_t >= n_s`: the search starts there.
+//! exact truncated plan meet both agreed risk points; among those `a_t` it
+//! takes the one with the smaller `max(alpha_achieved / alpha,
+//! beta_achieved / beta)`, then the smaller. A plan that inspects at most
+//! `n` items is a test on `n` items, and the single plan `(n_s, c)` is the
+//! most powerful such test (Neyman-Pearson), so `n_t >= n_s`: the search
+//! starts there. It ends at `4 n_s` (truncating a sequential plan at three
+//! to four times the single sample is common practice).
+//!
+//! Wald's bounds allow the untruncated test risks up to `alpha / (1 -
+//! beta)` and `beta / (1 - alpha)`, so for close points no truncation of
+//! the lines meets the agreed risks. The designer then builds the lines
+//! from smaller nominal risks, `s alpha` and `s beta` for
+//! `s = 0.95, 0.90, ..., 0.50`, and takes the first `s` that has a
+//! truncation in the window; the report gives the nominal risks used.
+//!
 //! The exact risks come from the staged-plan recursion carried item by item
 //! (one walk per risk point, cloned to try each closing), so every candidate
 //! costs one item step.
@@ -41,7 +51,7 @@ use super::request::Design;
 use super::single::design_single;
 use crate::error::DesignError;
 use crate::model::{Model, ModelKind};
-use crate::plan::{MAX_ITEMS, SequentialLines, Stage, StagedPlan, Walk, stage_outcomes};
+use crate::plan::{MAX_ITEMS, SequentialLines, Stage, StagedPlan, Walk};
 use crate::risk::RiskPair;
 
 /// Wald's approximations to the average sample number of the untruncated
@@ -56,6 +66,10 @@ use crate::risk::RiskPair;
 /// where `z` is one item's log-likelihood ratio (Wald 1947, ch. 3 and 5).
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct WaldApproximation {
+    /// The producer's risk the lines were built from.
+    pub nominal_alpha: f64,
+    /// The consumer's risk the lines were built from.
+    pub nominal_beta: f64,
     /// Approximate ASN at the AQL.
     pub asn_aql: f64,
     /// Approximate ASN at the RQL.
@@ -67,7 +81,11 @@ pub struct WaldApproximation {
 /// Wald's lines for the two risk points: `(h_accept, h_reject, slope)`.
 pub fn wald_lines(model: &Model, risks: &RiskPair) -> (f64, f64, f64) {
     let (pr, co) = (risks.producer(), risks.consumer());
-    let (p1, alpha, p2, beta) = (pr.quality, pr.risk, co.quality, co.risk);
+    lines_for(model, pr.quality, pr.risk, co.quality, co.risk)
+}
+
+/// Wald's lines for `p1`, `p2` built from the nominal risks `alpha`, `beta`.
+fn lines_for(model: &Model, p1: f64, alpha: f64, p2: f64, beta: f64) -> (f64, f64, f64) {
     let (g, slope) = match model.kind() {
         ModelKind::Poisson => {
             let g = (p2 / p1).ln();
@@ -87,10 +105,8 @@ pub fn wald_lines(model: &Model, risks: &RiskPair) -> (f64, f64, f64) {
     )
 }
 
-fn wald_approximation(model: &Model, risks: &RiskPair) -> WaldApproximation {
-    let (pr, co) = (risks.producer(), risks.consumer());
-    let (p1, alpha, p2, beta) = (pr.quality, pr.risk, co.quality, co.risk);
-    let (h_accept, h_reject, slope) = wald_lines(model, risks);
+fn wald_approximation(model: &Model, p1: f64, alpha: f64, p2: f64, beta: f64) -> WaldApproximation {
+    let (h_accept, h_reject, slope) = lines_for(model, p1, alpha, p2, beta);
     let (ln_a, ln_b) = (((1.0 - beta) / alpha).ln(), (beta / (1.0 - alpha)).ln());
     let drift = |p: f64| match model.kind() {
         ModelKind::Poisson => p * (p2 / p1).ln() - (p2 - p1),
@@ -101,11 +117,20 @@ fn wald_approximation(model: &Model, risks: &RiskPair) -> WaldApproximation {
         _ => h_accept * h_reject / (slope * (1.0 - slope)),
     };
     WaldApproximation {
+        nominal_alpha: alpha,
+        nominal_beta: beta,
         asn_aql: ((1.0 - alpha) * ln_b + alpha * ln_a) / drift(p1),
         asn_rql: (beta * ln_b + (1.0 - beta) * ln_a) / drift(p2),
         asn_max,
     }
 }
+
+/// The scales tried on the nominal risks, in order (see the module
+/// documentation).
+const NOMINAL_SCALES: [f64; 11] = [1.0, 0.95, 0.9, 0.85, 0.8, 0.75, 0.7, 0.65, 0.6, 0.55, 0.5];
+
+/// The truncation window, in multiples of the single plan's sample size.
+const TRUNCATION_WINDOW: u64 = 4;
 
 /// Designs the truncated sequential plan for the two risk points (see the
 /// module documentation), with Wald's approximations beside it.
@@ -135,25 +160,58 @@ pub fn design_sequential(
     risks: &RiskPair,
 ) -> Result<(Design, WaldApproximation), DesignError> {
     let single = design_single(model, risks)?;
-    let (h_accept, h_reject, slope) = wald_lines(model, risks);
-    let open_lines = SequentialLines {
-        h_accept,
-        h_reject,
-        slope,
-        truncation: 1,
-        final_acceptance: 0,
-    };
+    let (pr, co) = (risks.producer(), risks.consumer());
+    let limit = MAX_ITEMS.min(model.max_sample());
+    if single.n > limit {
+        return Err(DesignError::BeyondCap {
+            what: "a truncation".to_string(),
+            cap: format!("{limit} items"),
+        });
+    }
+    let last = (TRUNCATION_WINDOW * single.n).min(limit);
+    for scale in NOMINAL_SCALES {
+        let (alpha, beta) = (scale * pr.risk, scale * co.risk);
+        let (h_accept, h_reject, slope) = lines_for(model, pr.quality, alpha, co.quality, beta);
+        let lines = SequentialLines {
+            h_accept,
+            h_reject,
+            slope,
+            truncation: 1,
+            final_acceptance: 0,
+        };
+        if let Some(plan) = truncate(model, risks, lines, single.n, last)? {
+            let design = Design::exact(plan, model, risks);
+            let wald = wald_approximation(model, pr.quality, alpha, co.quality, beta);
+            return Ok((design, wald));
+        }
+    }
+    Err(DesignError::NoPlan {
+        reason: format!(
+            "no truncation up to {last} items of Wald's lines, even from half the agreed risks, meets both points"
+        ),
+        suggestion: "use a single or double plan".to_string(),
+    })
+}
+
+/// The first item in `first..=last` at which closing `lines` meets both
+/// risk points, as the plan closed there; `None` when there is none.
+fn truncate(
+    model: &Model,
+    risks: &RiskPair,
+    lines: SequentialLines,
+    first: u64,
+    last: u64,
+) -> Result<Option<StagedPlan>, DesignError> {
     let (pr, co) = (risks.producer(), risks.consumer());
     let (alpha, beta) = (pr.risk, co.risk);
     let mut at_p1 = Walk::new(model, pr.quality, false);
     let mut at_p2 = Walk::new(model, co.quality, false);
     let (mut rejected_p1, mut accepted_p2) = (0.0, 0.0);
-    let last = MAX_ITEMS.min(model.max_sample());
     let unit = model.kind() != ModelKind::Poisson;
     for n in 1..=last {
-        let accept = open_lines.acceptance_number(n);
-        let reject = open_lines.rejection_number(n);
-        if n >= single.n {
+        let accept = lines.acceptance_number(n);
+        let reject = lines.rejection_number(n);
+        if n >= first {
             let mut best: Option<(f64, u64)> = None;
             for a_t in accept.unwrap_or(0)..reject {
                 if unit && a_t >= n {
@@ -174,41 +232,26 @@ pub fn design_sequential(
                 }
             }
             if let Some((_, a_t)) = best {
-                let lines = SequentialLines {
+                let closed = SequentialLines {
                     truncation: n,
                     final_acceptance: a_t,
-                    ..open_lines
+                    ..lines
                 };
-                let plan =
-                    StagedPlan::sequential(lines, model).map_err(|e| DesignError::NoPlan {
+                return StagedPlan::sequential(closed, model)
+                    .map(Some)
+                    .map_err(|e| DesignError::NoPlan {
                         reason: e.to_string(),
                         suggestion: "use a single or double plan".to_string(),
-                    })?;
-                let o = stage_outcomes(&plan, model, pr.quality);
-                let producer_risk = o.reject.iter().sum();
-                let consumer_risk = stage_outcomes(&plan, model, co.quality).accept.iter().sum();
-                let design = Design {
-                    plan,
-                    producer_risk,
-                    consumer_risk,
-                };
-                return Ok((design, wald_approximation(model, risks)));
+                    });
             }
         }
         if accept.map_or(0, |a| a + 1) + 1 > reject {
-            return Err(DesignError::NoPlan {
-                reason: format!(
-                    "the sequential lines leave no count open at item {n} and the plan does not yet meet both points"
-                ),
-                suggestion: "use a single or double plan".to_string(),
-            });
+            // The lines leave no count open: the plan cannot go on.
+            return Ok(None);
         }
         let stage = Stage { n, accept, reject };
         rejected_p1 += at_p1.step(&stage).reject;
         accepted_p2 += at_p2.step(&stage).accept;
     }
-    Err(DesignError::BeyondCap {
-        what: "a truncation".to_string(),
-        cap: format!("{last} items"),
-    })
+    Ok(None)
 }
