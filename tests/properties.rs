@@ -1,7 +1,8 @@
 //! Property tests of the invariants the designer and the models promise.
 
 use lotsman::{
-    Model, ModelKind, RiskPair, RiskPoint, StagedPlan, acceptance_probability, design_single,
+    Criterion, Model, ModelKind, RiskPair, RiskPoint, Stage, StagedPlan, acceptance_probability,
+    curtailed_outcomes, design_double, design_sequential, design_single, measures, stage_outcomes,
 };
 use proptest::prelude::*;
 
@@ -105,5 +106,68 @@ proptest! {
         let cdf: f64 = (0..=c).map(|k| model.pmf(n, k, p, 0, 0)).sum();
         let t = model.tails(n, c, p, 0, 0);
         prop_assert!((t.cdf - cdf).abs() < 1e-12 && (t.cdf + t.sf - 1.0).abs() < 1e-14);
+    }
+}
+
+/// A random valid plan of 2 to 5 stages on small numbers.
+fn staged_strategy() -> impl Strategy<Value = Vec<Stage>> {
+    prop::collection::vec((1u64..40, 0u64..3, 2u64..4), 1..5).prop_map(|parts| {
+        let mut stages = Vec::new();
+        let (mut n, mut floor) = (0u64, 0u64);
+        for (units, gain, width) in parts {
+            n += units;
+            // Acceptance numbers grow slowly and stay below n; the open band
+            // is at least one count wide.
+            let accept = floor.min(n - 1);
+            stages.push(Stage {
+                n,
+                accept: Some(accept),
+                reject: accept + width,
+            });
+            floor += gain;
+        }
+        let last = stages.len() - 1;
+        let a = stages[last].accept;
+        stages[last].reject = a.map_or(1, |a| a + 1);
+        stages
+    })
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(128))]
+
+    #[test]
+    fn a_staged_plan_decides_every_lot_and_curtailment_only_saves(
+        model in model_strategy(), stages in staged_strategy(), p in 0.001f64..0.6
+    ) {
+        let Ok(plan) = StagedPlan::new(stages, &model) else { return Ok(()) };
+        let o = curtailed_outcomes(&plan, &model, p);
+        let total: f64 = o.decided().iter().sum();
+        prop_assert!((total - 1.0).abs() < 1e-12, "decided {}", total);
+        let m = measures(&plan, &model, p);
+        prop_assert!(m.asn_curtailed.unwrap() <= m.asn * (1.0 + 1e-12) + 1e-12);
+        let worse = (p * 1.3).min(0.99);
+        prop_assert!(acceptance_probability(&plan, &model, worse) <= m.pa + 1e-12);
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(24))]
+
+    #[test]
+    fn staged_designs_meet_both_points(
+        model in model_strategy(), p1 in 0.005f64..0.05, ratio in 3.0f64..8.0
+    ) {
+        let p2 = (p1 * ratio).min(0.5);
+        let risks = RiskPair::new(RiskPoint { quality: p1, risk: 0.05 }, RiskPoint { quality: p2, risk: 0.10 }, &model).unwrap();
+        let designs = [
+            design_double(&model, &risks, Criterion::AsnAql, None),
+            design_sequential(&model, &risks).map(|(d, _)| d),
+        ];
+        for d in designs.into_iter().flatten() {
+            let alpha: f64 = stage_outcomes(&d.plan, &model, p1).reject.iter().sum();
+            let beta = stage_outcomes(&d.plan, &model, p2).pa();
+            prop_assert!(alpha <= 0.05 && beta <= 0.10, "{}: {} {}", d.plan, alpha, beta);
+        }
     }
 }
