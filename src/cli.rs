@@ -214,7 +214,7 @@ pub struct SheetArgs {
 
 #[derive(Debug, Args)]
 pub struct NewArgs {
-    /// Template kind: binomial, hypergeometric or poisson
+    /// Template kind: binomial, hypergeometric, poisson, double, multiple or sequential
     #[arg(value_name = "KIND")]
     pub kind: String,
 }

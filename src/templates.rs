@@ -9,6 +9,9 @@ pub const TEMPLATES: &[(&str, &str)] = &[
         include_str!("../templates/hypergeometric.yaml"),
     ),
     ("poisson", include_str!("../templates/poisson.yaml")),
+    ("double", include_str!("../templates/double.yaml")),
+    ("multiple", include_str!("../templates/multiple.yaml")),
+    ("sequential", include_str!("../templates/sequential.yaml")),
 ];
 
 /// The template of `kind`, or `None` for an unknown kind.

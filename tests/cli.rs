@@ -328,7 +328,14 @@ fn verify_of_an_invalid_source_exits_2_and_still_checks_the_others() {
 #[test]
 fn every_template_is_a_source_that_solves() {
     let dir = tempfile::tempdir().unwrap();
-    for kind in ["binomial", "hypergeometric", "poisson"] {
+    for kind in [
+        "binomial",
+        "hypergeometric",
+        "poisson",
+        "double",
+        "multiple",
+        "sequential",
+    ] {
         let text = lotsman()
             .args(["new", kind])
             .assert()
@@ -339,7 +346,10 @@ fn every_template_is_a_source_that_solves() {
         let path = dir.path().join(format!("{kind}.yaml"));
         std::fs::write(&path, text).unwrap();
         let v = json_of(&["design", path.to_str().unwrap(), "--format", "json"]);
-        assert_eq!(v["model"], kind);
+        match kind {
+            "double" | "multiple" | "sequential" => assert_eq!(v["scheme"], kind),
+            _ => assert_eq!(v["model"], kind),
+        }
     }
 }
 
