@@ -4,25 +4,10 @@
 
 use std::hint::black_box;
 
+mod common;
+use common::pair;
 use criterion::{Criterion, criterion_group, criterion_main};
-use lotsman::{
-    Model, ModelKind, RiskPair, RiskPoint, StagedPlan, acceptance_probability, design_single,
-};
-
-fn pair(model: &Model, p1: f64, p2: f64) -> RiskPair {
-    RiskPair::new(
-        RiskPoint {
-            quality: p1,
-            risk: 0.05,
-        },
-        RiskPoint {
-            quality: p2,
-            risk: 0.10,
-        },
-        model,
-    )
-    .unwrap()
-}
+use lotsman::{Model, ModelKind, RiskPair, StagedPlan, acceptance_probability, design_single};
 
 /// Typical requests: p1 from 0.1% to 5%, p2 / p1 from 2 to 15, binomial.
 fn typical_requests(model: &Model) -> Vec<RiskPair> {

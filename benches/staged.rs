@@ -5,26 +5,13 @@
 
 use std::hint::black_box;
 
+mod common;
+use common::pair;
 use criterion::{Criterion, criterion_group, criterion_main};
 use lotsman::{
-    Criterion as Minimise, Model, ModelKind, RiskPair, RiskPoint, Stage, StagedPlan, design_double,
-    design_sequential, stage_outcomes,
+    Criterion as Minimise, Model, ModelKind, Stage, StagedPlan, design_double, design_sequential,
+    stage_outcomes,
 };
-
-fn pair(model: &Model, p1: f64, p2: f64) -> RiskPair {
-    RiskPair::new(
-        RiskPoint {
-            quality: p1,
-            risk: 0.05,
-        },
-        RiskPoint {
-            quality: p2,
-            risk: 0.10,
-        },
-        model,
-    )
-    .unwrap()
-}
 
 /// OC and ASN of `plan` at 1,001 qualities from 0.01% to 20%.
 fn curve(plan: &StagedPlan, model: &Model) -> f64 {

@@ -17,46 +17,11 @@ use lotsman::{
 };
 use serde_json::Value;
 
+mod common;
+use common::{close, f, model, rows, u};
+
 fn fixture() -> Value {
-    let text = std::fs::read_to_string("tests/data/reference.json").expect("fixture present");
-    serde_json::from_str(&text).expect("fixture is JSON")
-}
-
-fn rows<'a>(v: &'a Value, key: &str) -> &'a Vec<Value> {
-    v[key]
-        .as_array()
-        .unwrap_or_else(|| panic!("fixture has {key}"))
-}
-
-fn model(row: &Value) -> Model {
-    let kind = match row["model"].as_str().unwrap() {
-        "binomial" => ModelKind::Binomial,
-        "hypergeometric" => ModelKind::Hypergeometric,
-        "poisson" => ModelKind::Poisson,
-        other => panic!("model {other}"),
-    };
-    Model::new(kind, row["lot_size"].as_u64()).unwrap()
-}
-
-fn u(row: &Value, key: &str) -> u64 {
-    row[key]
-        .as_u64()
-        .unwrap_or_else(|| panic!("{key} in {row}"))
-}
-
-fn f(row: &Value, key: &str) -> f64 {
-    row[key]
-        .as_f64()
-        .unwrap_or_else(|| panic!("{key} in {row}"))
-}
-
-/// Relative closeness; values below 1e-300 (where f64 turns subnormal) are
-/// compared absolutely.
-fn close(got: f64, want: f64, rel: f64) -> bool {
-    if want.abs() < 1e-300 {
-        return (got - want).abs() < 1e-300;
-    }
-    ((got - want) / want).abs() <= rel
+    common::fixture("tests/data/reference.json")
 }
 
 #[test]

@@ -48,7 +48,7 @@ use super::request::{Criterion, Design};
 use super::single::{MAX_ACCEPTANCE_NUMBER, Solver};
 use crate::error::DesignError;
 use crate::model::{Model, ModelKind};
-use crate::plan::{Stage, StagedPlan};
+use crate::plan::{Stage, StagedPlan, whole_argmax};
 use crate::risk::RiskPair;
 
 /// How many final acceptance numbers past the last improving one the
@@ -168,17 +168,7 @@ impl DoubleSearch<'_> {
             (ModelKind::Hypergeometric, Some(lot)) => {
                 // P(c1 < d1 < r1) rises and falls in D: ternary search on D.
                 let at_d = |d: u64| at(d as f64 / lot as f64);
-                let (mut lo, mut hi) = (0u64, lot);
-                while hi - lo > 2 {
-                    let m1 = lo + (hi - lo) / 3;
-                    let m2 = hi - (hi - lo) / 3;
-                    if at_d(m1) < at_d(m2) {
-                        lo = m1;
-                    } else {
-                        hi = m2;
-                    }
-                }
-                (lo..=hi).map(at_d).fold(0.0, f64::max)
+                at_d(whole_argmax(0, lot, at_d))
             }
             (ModelKind::Poisson, _) => {
                 // d/dlambda P(c1 < X < r1) = f(c1) - f(r1 - 1) = 0 at

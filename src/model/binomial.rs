@@ -92,17 +92,7 @@ pub(crate) fn curtailed_stage_mean(
     let one_more = Binomial::new(m + 1, p);
     let reject_part = k as f64 / p * super::tail::tails(&one_more, k).sf;
     let stage = Binomial::new(m, p);
-    match accept_left {
-        Some(a) => {
-            let accept_part = (m - a) as f64 / q * super::tail::tails(&one_more, a).cdf;
-            let between = if k > a + 1 {
-                let w = super::window::window(&stage, a + 1, k - 1);
-                (a + 1..k).map(|x| w.pmf(x)).sum::<f64>()
-            } else {
-                0.0
-            };
-            reject_part + accept_part + m as f64 * between
-        }
-        None => reject_part + m as f64 * super::tail::tails(&stage, k - 1).cdf,
-    }
+    super::window::curtailed_units(&stage, m, accept_left, k, reject_part, |a| {
+        (m - a) as f64 / q * super::tail::tails(&one_more, a).cdf
+    })
 }

@@ -118,21 +118,11 @@ pub(crate) fn curtailed_stage_mean(
     let rejecting = Hypergeometric::new(lot + 1, bad + 1, m + 1);
     let reject_part =
         k as f64 * (lot + 1) as f64 / (bad + 1) as f64 * super::tail::tails(&rejecting, k).sf;
-    match accept_left {
-        Some(a) => {
-            let accepting = Hypergeometric::new(lot + 1, bad, m + 1);
-            let accept_part = (m - a) as f64 * (lot + 1) as f64 / (lot - bad + 1) as f64
-                * super::tail::tails(&accepting, a).cdf;
-            let between = if k > a + 1 {
-                let w = super::window::window(&stage, a + 1, k - 1);
-                (a + 1..k).map(|x| w.pmf(x)).sum::<f64>()
-            } else {
-                0.0
-            };
-            reject_part + accept_part + m as f64 * between
-        }
-        None => reject_part + m as f64 * super::tail::tails(&stage, k - 1).cdf,
-    }
+    super::window::curtailed_units(&stage, m, accept_left, k, reject_part, |a| {
+        let accepting = Hypergeometric::new(lot + 1, bad, m + 1);
+        (m - a) as f64 * (lot + 1) as f64 / (lot - bad + 1) as f64
+            * super::tail::tails(&accepting, a).cdf
+    })
 }
 
 #[cfg(test)]

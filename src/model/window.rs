@@ -112,6 +112,34 @@ pub(crate) fn window<T: Terms>(d: &T, lo: u64, hi: u64) -> Window {
     Window::from_terms(a, pmf, below, above)
 }
 
+/// The expected units of a curtailed stage from its two stopping parts:
+/// `reject_part + accept_part(a) + m P(a < X < k)` with the acceptance
+/// number left `a`, or `reject_part + m P(X < k)` for a stage that cannot
+/// accept, where `X` is the stage count (`stage`). The parts are the
+/// truncated means of the two stopping times (see the binomial and
+/// hypergeometric `curtailed_stage_mean`).
+pub(crate) fn curtailed_units<T: Terms>(
+    stage: &T,
+    m: u64,
+    accept_left: Option<u64>,
+    k: u64,
+    reject_part: f64,
+    accept_part: impl FnOnce(u64) -> f64,
+) -> f64 {
+    match accept_left {
+        Some(a) => {
+            let between = if k > a + 1 {
+                let w = window(stage, a + 1, k - 1);
+                (a + 1..k).map(|x| w.pmf(x)).sum::<f64>()
+            } else {
+                0.0
+            };
+            reject_part + accept_part(a) + m as f64 * between
+        }
+        None => reject_part + m as f64 * tails(stage, k - 1).cdf,
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::super::binomial::Binomial;

@@ -94,26 +94,8 @@ pub fn judge(plan: &StagedPlan, model: &Model, found: &[u64]) -> Result<Judgemen
         }
         cumulative = cumulative.saturating_add(k);
         drawn = stage.n;
-        let decision = if stage.accept.is_some_and(|a| cumulative <= a) {
-            Decision::Accept
-        } else if cumulative >= stage.reject {
-            Decision::Reject
-        } else {
-            Decision::Continue
-        };
-        let judgement = Judgement {
-            decision,
-            stage: i + 1,
-            inspected: stage.n,
-            cumulative_count: cumulative,
-            accept: stage.accept,
-            reject: stage.reject,
-            next_units: match decision {
-                Decision::Continue => stages.get(i + 1).map(|s| s.n - stage.n),
-                _ => None,
-            },
-        };
-        if decision == Decision::Continue && i + 1 < found.len() {
+        let judgement = at_stage(stages, i, cumulative);
+        if judgement.decision == Decision::Continue && i + 1 < found.len() {
             continue;
         }
         outcome = Some(judgement);
@@ -168,6 +150,11 @@ pub fn judge_cumulative(
             &format!("0 to {inspected}, the units inspected"),
         ));
     }
+    Ok(at_stage(stages, i, count))
+}
+
+/// The judgement at stage `i` (0-based) on the cumulative count `count`.
+fn at_stage(stages: &[crate::plan::Stage], i: usize, count: u64) -> Judgement {
     let stage = stages[i];
     let decision = if stage.accept.is_some_and(|a| count <= a) {
         Decision::Accept
@@ -176,10 +163,10 @@ pub fn judge_cumulative(
     } else {
         Decision::Continue
     };
-    Ok(Judgement {
+    Judgement {
         decision,
         stage: i + 1,
-        inspected,
+        inspected: stage.n,
         cumulative_count: count,
         accept: stage.accept,
         reject: stage.reject,
@@ -187,7 +174,7 @@ pub fn judge_cumulative(
             Decision::Continue => stages.get(i + 1).map(|s| s.n - stage.n),
             _ => None,
         },
-    })
+    }
 }
 
 #[cfg(test)]

@@ -175,18 +175,8 @@ pub fn curve_maximum(plan: &StagedPlan, model: &Model, f: impl Fn(f64) -> f64) -
             .map(|i| d_top * i / COARSE as u64)
             .collect();
         let best = argmax(&grid, |&d| at(d));
-        let (mut lo, mut hi) = (grid[best.saturating_sub(1)], grid[(best + 1).min(COARSE)]);
-        while hi - lo > 2 {
-            let m1 = lo + (hi - lo) / 3;
-            let m2 = hi - (hi - lo) / 3;
-            if at(m1) < at(m2) {
-                lo = m1;
-            } else {
-                hi = m2;
-            }
-        }
-        let candidates: Vec<u64> = (lo..=hi).collect();
-        let d = candidates[argmax(&candidates, |&d| at(d))];
+        let (lo, hi) = (grid[best.saturating_sub(1)], grid[(best + 1).min(COARSE)]);
+        let d = whole_argmax(lo, hi, at);
         let quality = d as f64 / lot as f64;
         return (quality, f(quality));
     }
@@ -198,6 +188,23 @@ pub fn curve_maximum(plan: &StagedPlan, model: &Model, f: impl Fn(f64) -> f64) -
     let hi = grid[(best + 1).min(COARSE - 1)];
     let quality = golden_max(&f, lo, hi);
     (quality, f(quality))
+}
+
+/// The maximiser over the whole numbers `lo..=hi` of `f`, which rises to
+/// one peak and falls: ternary search down to three candidates, then the
+/// best of them.
+pub(crate) fn whole_argmax(mut lo: u64, mut hi: u64, f: impl Fn(u64) -> f64) -> u64 {
+    while hi - lo > 2 {
+        let m1 = lo + (hi - lo) / 3;
+        let m2 = hi - (hi - lo) / 3;
+        if f(m1) < f(m2) {
+            lo = m1;
+        } else {
+            hi = m2;
+        }
+    }
+    let candidates: Vec<u64> = (lo..=hi).collect();
+    candidates[argmax(&candidates, |&d| f(d))]
 }
 
 fn argmax<T>(xs: &[T], f: impl Fn(&T) -> f64) -> usize {

@@ -9,6 +9,7 @@ mod staged;
 
 pub use evaluation::{Evaluation, default_qualities, evaluate, quality_at_pa};
 pub use judge::{Decision, Judgement, judge, judge_cumulative};
+pub(crate) use measures::whole_argmax;
 pub use measures::{
     Aoql, Measures, acceptance_probability, aoql, average_outgoing_quality, curve_maximum,
     indifference_quality, largest_asn, measures,
