@@ -113,7 +113,7 @@ fn staged_designers_meet_both_points_and_inspect_less_than_the_single_plan() {
             assert!(asn < single.n as f64, "{kind:?} {}: {asn}", d.plan);
         }
         let seq = designs[4].plan.sequential_lines().unwrap();
-        assert!(seq.truncation >= single.n, "Neyman-Pearson bound");
+        assert!(seq.truncation >= single.n && seq.truncation <= 4 * single.n);
     }
 }
 
@@ -164,4 +164,19 @@ fn judging_an_item_by_item_plan() {
         (Decision::Continue, Some(1))
     );
     assert!(judge_cumulative(&d.plan, &m, lines.truncation + 1, 0).is_err());
+}
+
+/// For close points Wald's lines from the agreed risks have no truncation
+/// within four single samples that meets them; the designer then builds the
+/// lines from scaled-down nominal risks and says so.
+#[test]
+fn close_points_get_lines_from_smaller_nominal_risks() {
+    let m = binomial();
+    let r = pair(&m, 0.001, 0.05, 0.003, 0.10);
+    let (d, wald) = design_sequential(&m, &r).unwrap();
+    assert!(wald.nominal_alpha < 0.05 && wald.nominal_beta < 0.10);
+    assert!((wald.nominal_alpha / 0.05 - wald.nominal_beta / 0.10).abs() < 1e-12);
+    assert!(d.producer_risk <= 0.05 && d.consumer_risk <= 0.10);
+    let single = design_single(&m, &r).unwrap();
+    assert!(d.plan.max_sample() <= 4 * single.n);
 }
