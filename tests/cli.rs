@@ -564,8 +564,15 @@ fn evaluate_reads_staged_and_sequential_sources() {
         let v = json_of(&["evaluate", source, "--format", "json"]);
         let points = v["points"].as_array().unwrap();
         assert!(!points.is_empty());
-        for p in points {
+        for (p, decided) in points.iter().zip(v["decided_at"].as_array().unwrap()) {
             assert!(p["asn_curtailed"].as_f64().unwrap() <= p["asn"].as_f64().unwrap() + 1e-9);
+            let total: f64 = decided
+                .as_array()
+                .unwrap()
+                .iter()
+                .map(|x| x.as_f64().unwrap())
+                .sum();
+            assert!((total - 1.0).abs() < 1e-12, "{source}: {total}");
         }
     }
     let v = json_of(&[

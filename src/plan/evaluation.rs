@@ -3,7 +3,9 @@
 
 use crate::error::InputError;
 use crate::model::{Model, ModelKind};
-use crate::plan::{Aoql, Measures, StagedPlan, acceptance_probability, aoql, measures};
+use crate::plan::{
+    Aoql, Measures, StagedPlan, acceptance_probability, aoql, measures, stage_outcomes,
+};
 use crate::risk::RiskPair;
 
 /// A plan evaluated at a list of qualities.
@@ -15,6 +17,10 @@ pub struct Evaluation {
     pub model: Model,
     /// The measures at each quality, in the order asked.
     pub points: Vec<Measures>,
+    /// `decided[i][j]`: the probability that a lot of quality `points[i]`
+    /// is decided at stage `j`, after `stages[j].n` units. This is the
+    /// distribution of the number of units inspected without curtailment.
+    pub decided: Vec<Vec<f64>>,
     /// The AOQL and where it occurs.
     pub aoql: Aoql,
     /// The quality at which `Pa = 0.5`.
@@ -45,6 +51,10 @@ pub fn evaluate(
         points: qualities
             .iter()
             .map(|&q| measures(plan, model, q))
+            .collect(),
+        decided: qualities
+            .iter()
+            .map(|&q| stage_outcomes(plan, model, q).decided())
             .collect(),
         aoql: aoql(plan, model),
         indifference_quality: quality_at_pa(plan, model, 0.5),

@@ -242,6 +242,9 @@ pub struct EvaluationReport {
     pub sequential: Option<SequentialReport>,
     /// The measures at each quality.
     pub points: Vec<Measures>,
+    /// `decided_at[i][j]`: probability that a lot of quality `points[i]` is
+    /// decided at stage `j` (the distribution of units inspected).
+    pub decided_at: Vec<Vec<f64>>,
     /// The AOQL and where it occurs.
     pub aoql: Aoql,
     /// The quality where `Pa = 0.5`.
@@ -259,6 +262,7 @@ impl From<&Evaluation> for EvaluationReport {
                 .sequential_lines()
                 .map(|l| SequentialReport::new(l, None)),
             points: e.points.clone(),
+            decided_at: e.decided.clone(),
             aoql: e.aoql,
             indifference_quality: e.indifference_quality,
         }
