@@ -583,3 +583,21 @@ fn evaluate_reads_staged_and_sequential_sources() {
     ]);
     assert!(v["sequential"]["truncation"].as_u64().unwrap() > 0);
 }
+
+#[test]
+fn verify_names_the_sequential_field_that_was_edited() {
+    let dir = tempfile::tempdir().unwrap();
+    let text = std::fs::read_to_string("plans/tpw-sleeve-hardness.yaml").unwrap();
+    let line = text
+        .lines()
+        .find(|l| l.trim_start().starts_with("h_accept:"))
+        .unwrap();
+    let edited = text.replace(line, "    h_accept: 1.41");
+    let path = dir.path().join("edited.yaml");
+    std::fs::write(&path, edited).unwrap();
+    lotsman()
+        .args(["verify", path.to_str().unwrap()])
+        .assert()
+        .code(1)
+        .stdout(predicate::str::contains("plan.sequential.h_accept"));
+}
