@@ -47,8 +47,8 @@ pub use atomic::write_atomic;
 pub use demo::{DEMO_PLANS, DemoRow, run_demo};
 pub use design::{
     Alternative, AsnSummary, Criterion, Design, DesignRequest, MAX_ACCEPTANCE_NUMBER,
-    MAX_DESIGN_STAGES, MAX_SAMPLE_SIZE, Scheme, SchemeOptions, SingleDesign, Solution,
-    WaldApproximation, design_double, design_for, design_multiple, design_sequential,
+    MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_SAMPLE_SIZE, Scheme, SchemeOptions, SingleDesign,
+    Solution, WaldApproximation, design_double, design_for, design_multiple, design_sequential,
     design_single, single_alternatives, solve, wald_lines,
 };
 pub use error::{DesignError, Error, InputError, SourceError};

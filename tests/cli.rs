@@ -601,3 +601,16 @@ fn verify_names_the_sequential_field_that_was_edited() {
         .code(1)
         .stdout(predicate::str::contains("plan.sequential.h_accept"));
 }
+
+#[test]
+fn close_points_are_refused_by_the_double_designer_at_once() {
+    let start = std::time::Instant::now();
+    lotsman()
+        .args([
+            "design", "--aql", "1%", "--rql", "1.6%", "--scheme", "double",
+        ])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("limit of 25"));
+    assert!(start.elapsed().as_secs() < 5);
+}

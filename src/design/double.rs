@@ -35,7 +35,9 @@
 //! after the last one that improved the best plan, and not before the
 //! single plan's acceptance number plus three. That stopping rule is the
 //! search's one limit: tests/reference checks it against an exhaustive
-//! search over a box twice as wide.
+//! search over a box twice as wide. The search grows with the cube of the
+//! acceptance numbers, so it serves points whose single plan has
+//! `c <= 25` ([`MAX_DOUBLE_SINGLE_C`]; about 3 s there on two cores).
 //!
 //! # Tie rule
 //!
@@ -44,8 +46,10 @@
 //! `max(alpha_achieved / alpha, beta_achieved / beta)`, then by the smaller
 //! `(c2, c1, r1, n1)`.
 
+use rayon::prelude::*;
+
 use super::request::{Criterion, Design};
-use super::single::{MAX_ACCEPTANCE_NUMBER, Solver};
+use super::single::Solver;
 use crate::error::DesignError;
 use crate::model::{Model, ModelKind};
 use crate::plan::{Stage, StagedPlan, whole_argmax};
@@ -54,6 +58,11 @@ use crate::risk::RiskPair;
 /// How many final acceptance numbers past the last improving one the
 /// search tries.
 const C2_PATIENCE: u64 = 3;
+
+/// The largest single-plan acceptance number for which the double designer
+/// searches: the search grows with the cube of the acceptance numbers, and
+/// at 25 it takes about 3 s on two cores.
+pub const MAX_DOUBLE_SINGLE_C: u64 = 25;
 
 /// Criterion values this close (relative) are ties.
 const TIE: f64 = 1e-12;
@@ -124,7 +133,6 @@ struct DoubleSearch<'a> {
     criterion: Criterion,
     second_ratio: Option<f64>,
     single_n: u64,
-    best: Option<Candidate>,
 }
 
 impl DoubleSearch<'_> {
@@ -204,9 +212,8 @@ impl DoubleSearch<'_> {
 
     /// Criterion values above this cannot win: the best so far, or before
     /// any, the single plan's sample size.
-    fn bound(&self) -> f64 {
-        self.best
-            .map_or(self.single_n as f64, |b| b.value * (1.0 + TIE))
+    fn bound(&self, best: &Option<Candidate>) -> f64 {
+        best.map_or(self.single_n as f64, |b| b.value * (1.0 + TIE))
     }
 
     /// Smallest `n2 >= lo` in `lo..=hi` meeting the consumer's point.
@@ -244,8 +251,8 @@ impl DoubleSearch<'_> {
         Some(good)
     }
 
-    /// Every `n1` for the numbers `(c1, r1, c2)`.
-    fn sweep(&mut self, c1: u64, r1: u64, c2: u64) {
+    /// Every `n1` for the numbers `(c1, r1, c2)`, improving on `best`.
+    fn sweep(&self, c1: u64, r1: u64, c2: u64, best: &mut Option<Candidate>) {
         let unit = self.model.kind() != ModelKind::Poisson;
         let limit = self.single.limit;
         let Some(lo1) = self.single.n_min(c1) else {
@@ -257,7 +264,7 @@ impl DoubleSearch<'_> {
         };
         let mut pointer: Option<u64> = None;
         for n1 in lo1.max(if unit { c1 + 1 } else { 1 })..=hi1 {
-            if n1 as f64 >= self.bound() {
+            if n1 as f64 >= self.bound(best) {
                 break;
             }
             let f2 = FirstStage::new(self.model, n1, c1, r1, self.p2);
@@ -294,7 +301,7 @@ impl DoubleSearch<'_> {
             let f1 = FirstStage::new(self.model, n1, c1, r1, self.p1);
             // Every criterion is at least n1 + n2 * P(second sample at p1 or p2).
             let floor = n1 as f64 + n2 as f64 * f1.second_sample().min(f2.second_sample());
-            if floor > self.bound() {
+            if floor > self.bound(best) {
                 continue;
             }
             let producer_risk = self.outcome(&f1, n1, c1, n2, c2, self.p1).1;
@@ -313,8 +320,8 @@ impl DoubleSearch<'_> {
                 consumer_risk,
                 margin: (producer_risk / self.alpha).max(consumer_risk / self.beta),
             };
-            if self.best.is_none_or(|b| candidate.beats(&b)) {
-                self.best = Some(candidate);
+            if best.is_none_or(|b| candidate.beats(&b)) {
+                *best = Some(candidate);
             }
         }
     }
@@ -335,8 +342,8 @@ fn ln_choose(n: u64, k: u64) -> f64 {
 /// As [`design_single`](super::single::design_single) for points that have
 /// no single plan; [`DesignError::NoPlan`] when no double plan meets both
 /// points with a criterion below the single plan's sample size;
-/// [`DesignError::BeyondCap`] when the acceptance numbers would pass
-/// [`MAX_ACCEPTANCE_NUMBER`].
+/// [`DesignError::BeyondCap`] when the single plan's acceptance number
+/// passes [`MAX_DOUBLE_SINGLE_C`].
 ///
 /// # Example
 /// ```
@@ -358,8 +365,17 @@ pub fn design_double(
     second_ratio: Option<f64>,
 ) -> Result<Design, DesignError> {
     let single = super::single::design_single(model, risks)?;
+    if single.c > MAX_DOUBLE_SINGLE_C {
+        return Err(DesignError::BeyondCap {
+            what: format!(
+                "a double plan around the single plan's acceptance number {}",
+                single.c
+            ),
+            cap: format!("{MAX_DOUBLE_SINGLE_C} (use the single or the sequential plan)"),
+        });
+    }
     let (producer, consumer) = (risks.producer(), risks.consumer());
-    let mut search = DoubleSearch {
+    let search = DoubleSearch {
         model,
         single: Solver::new(model, risks),
         p1: producer.quality,
@@ -369,29 +385,37 @@ pub fn design_double(
         criterion,
         second_ratio,
         single_n: single.n,
-        best: None,
     };
+    let mut best: Option<Candidate> = None;
     let mut last_improved = single.c;
     let mut c2 = 1;
     while c2 <= last_improved + C2_PATIENCE {
-        if c2 > MAX_ACCEPTANCE_NUMBER {
-            return Err(DesignError::BeyondCap {
-                what: "an acceptance number".to_string(),
-                cap: MAX_ACCEPTANCE_NUMBER.to_string(),
-            });
-        }
-        let before = search.best;
-        for c1 in 0..c2 {
-            for r1 in c1 + 2..=c2 + 1 {
-                search.sweep(c1, r1, c2);
+        // The numbers (c1, r1) of one c2 are swept in parallel, each from
+        // the best plan of the smaller c2; the merge keeps the tie rule's
+        // winner, so the answer does not depend on the order.
+        let before = best;
+        let pairs: Vec<(u64, u64)> = (0..c2)
+            .flat_map(|c1| (c1 + 2..=c2 + 1).map(move |r1| (c1, r1)))
+            .collect();
+        let found: Vec<Option<Candidate>> = pairs
+            .par_iter()
+            .map(|&(c1, r1)| {
+                let mut local = before;
+                search.sweep(c1, r1, c2, &mut local);
+                local
+            })
+            .collect();
+        for candidate in found.into_iter().flatten() {
+            if best.is_none_or(|b| candidate.beats(&b)) {
+                best = Some(candidate);
             }
         }
-        if search.best != before {
+        if best != before {
             last_improved = last_improved.max(c2);
         }
         c2 += 1;
     }
-    let b = search.best.ok_or_else(|| DesignError::NoPlan {
+    let b = best.ok_or_else(|| DesignError::NoPlan {
         reason: format!(
             "no double plan meets both points with a {} below the single plan's n = {}",
             criterion.name(),

@@ -8,7 +8,7 @@ mod search;
 mod sequential;
 mod single;
 
-pub use double::design_double;
+pub use double::{MAX_DOUBLE_SINGLE_C, design_double};
 pub use multiple::design_multiple;
 pub use request::{
     AsnSummary, Criterion, Design, DesignRequest, MAX_DESIGN_STAGES, Scheme, SchemeOptions,
