@@ -12,13 +12,13 @@
 //!   argmax by about sqrt(e)).
 
 use lotsman::{
-    Model, ModelKind, RiskPair, RiskPoint, StagedPlan, aoql, design_single, indifference_quality,
-    measures, quality_at_pa, single_alternatives,
+    Model, ModelKind, StagedPlan, aoql, design_single, indifference_quality, measures,
+    quality_at_pa, single_alternatives,
 };
 use serde_json::Value;
 
 mod common;
-use common::{close, f, model, rows, u};
+use common::{close, f, model, risks, rows, u};
 
 fn fixture() -> Value {
     common::fixture("tests/data/reference.json")
@@ -50,21 +50,6 @@ fn tails_match_mpmath() {
     );
 }
 
-fn pair(row: &Value, m: &Model) -> RiskPair {
-    RiskPair::new(
-        RiskPoint {
-            quality: f(row, "p1"),
-            risk: f(row, "alpha"),
-        },
-        RiskPoint {
-            quality: f(row, "p2"),
-            risk: f(row, "beta"),
-        },
-        m,
-    )
-    .unwrap()
-}
-
 #[test]
 fn designs_match_the_exhaustive_reference_search() {
     let v = fixture();
@@ -76,7 +61,7 @@ fn designs_match_the_exhaustive_reference_search() {
     }
     for row in designs {
         let m = model(row);
-        let risks = pair(row, &m);
+        let risks = risks(row, &m);
         let solved = design_single(&m, &risks);
         if row["n"].is_null() {
             assert!(

@@ -10,13 +10,13 @@
 //! (both sides form them with the same binary64 operations).
 
 use lotsman::{
-    Criterion, Model, RiskPair, RiskPoint, Stage, StagedPlan, curtailed_outcomes, design_double,
-    design_multiple, design_sequential, measures, stage_outcomes,
+    Criterion, Stage, StagedPlan, curtailed_outcomes, design_double, design_multiple,
+    design_sequential, measures, stage_outcomes,
 };
 use serde_json::Value;
 
 mod common;
-use common::{close, f, model, rows, u};
+use common::{close, f, model, risks, rows, u};
 
 fn fixture() -> Value {
     common::fixture("tests/data/staged_reference.json")
@@ -33,21 +33,6 @@ fn stages(row: &Value) -> Vec<Stage> {
             reject: s[2].as_u64().unwrap(),
         })
         .collect()
-}
-
-fn risks(row: &Value, m: &Model) -> RiskPair {
-    RiskPair::new(
-        RiskPoint {
-            quality: f(row, "p1"),
-            risk: f(row, "alpha"),
-        },
-        RiskPoint {
-            quality: f(row, "p2"),
-            risk: f(row, "beta"),
-        },
-        m,
-    )
-    .unwrap()
 }
 
 #[test]

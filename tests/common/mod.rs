@@ -1,7 +1,7 @@
 //! What the fixture comparisons share: loading a fixture, reading its rows
 //! and the tolerance test.
 
-use lotsman::{Model, ModelKind};
+use lotsman::{Model, ModelKind, RiskPair, RiskPoint};
 use serde_json::Value;
 
 /// The fixture at `path` (relative to the repository root).
@@ -46,4 +46,20 @@ pub fn close(got: f64, want: f64, rel: f64) -> bool {
         return (got - want).abs() < 1e-300;
     }
     ((got - want) / want).abs() <= rel
+}
+
+/// The risk points `(p1, alpha)` and `(p2, beta)` of a row.
+pub fn risks(row: &Value, m: &Model) -> RiskPair {
+    RiskPair::new(
+        RiskPoint {
+            quality: f(row, "p1"),
+            risk: f(row, "alpha"),
+        },
+        RiskPoint {
+            quality: f(row, "p2"),
+            risk: f(row, "beta"),
+        },
+        m,
+    )
+    .unwrap()
 }

@@ -1171,15 +1171,36 @@ def bench():
 # --------------------------------------------------------------------------
 
 
-def main(argv=None):
-    ap = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
+def parse_args(argv, doc):
+    """The command line shared by the fixture scripts."""
+    ap = argparse.ArgumentParser(description=doc.split("\n\n")[0])
     g = ap.add_mutually_exclusive_group()
     g.add_argument("--check", action="store_true",
                    help="exit 1 if the fixture on disk differs from what would be written")
     g.add_argument("--bench", action="store_true", help="print timings, write nothing")
     g.add_argument("--self-test", action="store_true", help="run brute-force cross-checks")
     ap.add_argument("--verbose", action="store_true", help="print build notes")
-    args = ap.parse_args(argv)
+    return ap.parse_args(argv)
+
+
+def write_or_check(fixture, text, script, check):
+    """Write the fixture, or with ``check`` exit status 1 if it would change."""
+    if check:
+        old = fixture.read_bytes() if fixture.exists() else b""
+        if old != text.encode():
+            print(f"{fixture.relative_to(REPO)} is out of date; rerun {script}",
+                  file=sys.stderr)
+            return 1
+        print(f"{fixture.relative_to(REPO)} is up to date")
+        return 0
+    fixture.parent.mkdir(parents=True, exist_ok=True)
+    fixture.write_text(text)
+    print(f"wrote {fixture.relative_to(REPO)}")
+    return 0
+
+
+def main(argv=None):
+    args = parse_args(argv, __doc__)
 
     if args.bench:
         bench()
@@ -1205,18 +1226,7 @@ def main(argv=None):
                   mp.nstr(m[0], 3), m[1:])
         print(f"built in {time.time() - t0:.1f} s with scipy {scipy.__version__}, "
               f"numpy {np.__version__}, mpmath {mpmath.__version__}")
-    if args.check:
-        old = FIXTURE.read_bytes() if FIXTURE.exists() else b""
-        if old != text.encode():
-            print(f"{FIXTURE.relative_to(REPO)} is out of date; rerun make_reference.py",
-                  file=sys.stderr)
-            return 1
-        print(f"{FIXTURE.relative_to(REPO)} is up to date")
-        return 0
-    FIXTURE.parent.mkdir(parents=True, exist_ok=True)
-    FIXTURE.write_text(text)
-    print(f"wrote {FIXTURE.relative_to(REPO)}")
-    return 0
+    return write_or_check(FIXTURE, text, "make_reference.py", args.check)
 
 
 if __name__ == "__main__":

@@ -43,7 +43,6 @@ timestamps or versions in the data.
 
 from __future__ import annotations
 
-import argparse
 import itertools
 import math
 import statistics
@@ -1565,14 +1564,7 @@ def bench():
 
 
 def main(argv=None):
-    ap = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
-    g = ap.add_mutually_exclusive_group()
-    g.add_argument("--check", action="store_true",
-                   help="exit 1 if the fixture on disk differs from what would be written")
-    g.add_argument("--bench", action="store_true", help="print timings, write nothing")
-    g.add_argument("--self-test", action="store_true", help="run brute-force cross-checks")
-    ap.add_argument("--verbose", action="store_true", help="print build notes")
-    args = ap.parse_args(argv)
+    args = ref.parse_args(argv, __doc__)
 
     if args.bench:
         bench()
@@ -1589,18 +1581,7 @@ def main(argv=None):
             print("note:", line)
         print(f"built in {time.time() - t0:.1f} s with scipy {scipy.__version__}, "
               f"numpy {np.__version__}, mpmath {mpmath.__version__}")
-    if args.check:
-        old = FIXTURE.read_bytes() if FIXTURE.exists() else b""
-        if old != text.encode():
-            print(f"{FIXTURE.relative_to(REPO)} is out of date; rerun make_staged_reference.py",
-                  file=sys.stderr)
-            return 1
-        print(f"{FIXTURE.relative_to(REPO)} is up to date")
-        return 0
-    FIXTURE.parent.mkdir(parents=True, exist_ok=True)
-    FIXTURE.write_text(text)
-    print(f"wrote {FIXTURE.relative_to(REPO)}")
-    return 0
+    return ref.write_or_check(FIXTURE, text, "make_staged_reference.py", args.check)
 
 
 if __name__ == "__main__":
