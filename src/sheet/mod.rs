@@ -14,14 +14,16 @@
 
 mod canvas;
 mod chart;
+mod text;
 
 use sha2::{Digest, Sha256};
 
+use crate::design::DesignRequest;
 use crate::error::{Error, InputError};
-use crate::model::ModelKind;
-use crate::plan::{aoql, evaluate, measures, quality_at_pa};
+use crate::model::{Model, ModelKind};
+use crate::plan::{Evaluation, StagedPlan, aoql, evaluate, measures, quality_at_pa};
 use crate::report::{format_quality, format_significant, words};
-use crate::source::{PlanSource, tool_version};
+use crate::source::{PlanSource, RecordedPlan, tool_version};
 use canvas::{BOLD_ID, Canvas, Face, REGULAR_ID, Region, grey, rgb};
 use chart::{Chart, Mark, nice_ceiling};
 
@@ -69,14 +71,89 @@ pub fn source_hash(text: &str) -> String {
 /// document subject), for `verify --sheet`.
 pub const HASH_PREFIX: &str = "lotsman-source-sha256:";
 
+/// What every block of the sheet prints from, gathered once.
+struct Facts<'a> {
+    source: &'a PlanSource,
+    recorded: &'a RecordedPlan,
+    request: DesignRequest,
+    model: Model,
+    plan: StagedPlan,
+    per_unit: bool,
+    hash: String,
+    file_name: &'a str,
+}
+
+impl Facts<'_> {
+    /// A quality as the sheet prints it (percent, or per unit for Poisson).
+    fn q(&self, v: f64) -> String {
+        format_quality(v, self.per_unit)
+    }
+
+    /// Pa at the producer's point, as the source records it.
+    fn pa_at_p1(&self) -> f64 {
+        1.0 - self.recorded.producer_risk
+    }
+}
+
+/// A field of the source, or a dash.
+fn given(v: &Option<String>) -> String {
+    v.clone().unwrap_or_else(|| text::NOT_GIVEN.to_string())
+}
+
+/// The printable part of the page.
+#[derive(Clone, Copy)]
+struct Frame {
+    left: f64,
+    right: f64,
+    width: f64,
+    /// The page margin, which is also the bottom of the footer.
+    margin: f64,
+}
+
+/// Height of the footer (cautions and provenance).
+const FOOT_H: f64 = 25.0;
+
+/// The chart height below which a sheet is not printed: the curves and
+/// their labels would no longer read.
+const MIN_CHART_H: f64 = 50.0;
+
+/// One point of the curves against quality, from one evaluation.
+#[derive(Clone, Copy)]
+struct CurvePoint {
+    p: f64,
+    pa: f64,
+    aoq: f64,
+}
+
+/// The quality axis and the curve points of a plan: 241 even steps up to
+/// where Pa has fallen to 0.02 (or 1.2 p2 if that is further).
+fn curve_points(f: &Facts) -> (f64, Vec<CurvePoint>) {
+    let consumer = f.request.risks.consumer();
+    let x_max = nice_ceiling(quality_at_pa(&f.plan, &f.model, 0.02).max(consumer.quality * 1.2));
+    let points = (0..=240)
+        .map(|i| x_max * i as f64 / 240.0)
+        .map(|v| v.max(x_max * 1e-6))
+        // One evaluation per point serves every curve.
+        .map(|p| {
+            let m = measures(&f.plan, &f.model, p);
+            CurvePoint {
+                p,
+                pa: m.pa,
+                aoq: m.aoq,
+            }
+        })
+        .collect();
+    (x_max, points)
+}
+
 /// Renders the sheet of `source` (parsed from `text`, which is hashed);
 /// `file_name` is printed in the provenance line.
 ///
 /// # Errors
 /// [`Error`] when the source records no plan or the plan is invalid, or
-/// when a text does not fit its box even at the smallest size or holds a
-/// character the sheet font cannot draw (a sheet is never printed with
-/// overflowing or missing text).
+/// when a text does not fit its box even at the smallest size, holds a
+/// character the sheet font cannot draw, or two blocks would overlap (a
+/// sheet is never printed with overflowing, overlapping or missing text).
 pub fn render_sheet(
     text: &str,
     source: &PlanSource,
@@ -90,8 +167,16 @@ pub fn render_sheet(
         .plan
         .as_ref()
         .ok_or_else(|| InputError::Inconsistent("no plan".into()))?;
-    let hash = source_hash(text);
-    let mut warnings = Vec::new();
+    let facts = Facts {
+        source,
+        recorded,
+        per_unit: model.kind() == ModelKind::Poisson,
+        request,
+        model,
+        plan,
+        hash: source_hash(text),
+        file_name,
+    };
     let regular = printpdf::ParsedFont::from_bytes(REGULAR_TTF, 0, &mut Vec::new());
     let bold = printpdf::ParsedFont::from_bytes(BOLD_TTF, 0, &mut Vec::new());
     let (Some(regular), Some(bold)) = (regular, bold) else {
@@ -101,16 +186,166 @@ pub fn render_sheet(
     };
     let (pw, ph) = paper.size();
     let mut c = Canvas::new(&regular, &bold);
-    let per_unit = model.kind() == ModelKind::Poisson;
-    let q = |v: f64| format_quality(v, per_unit);
     let margin = 14.0;
-    let (left, right) = (margin, pw - margin);
-    let width = right - left;
-    let black = || grey(0.0);
-    let mut top = ph - margin;
+    let frame = Frame {
+        left: margin,
+        right: pw - margin,
+        width: pw - 2.0 * margin,
+        margin,
+    };
+    match facts.plan.as_single() {
+        Some((n, ac)) => single_layout(&mut c, &facts, frame, ph - margin, n, ac)?,
+        None => {
+            return Err(InputError::Inconsistent(
+                "the sheet prints single plans; this source records a staged plan".to_string(),
+            )
+            .into());
+        }
+    }
+    let Canvas {
+        ops,
+        regions,
+        mut overflows,
+        ..
+    } = c;
+    overflows.extend(placement_faults(&regions, pw, ph));
+    if !overflows.is_empty() {
+        return Err(InputError::Inconsistent(format!(
+            "the sheet cannot be laid out: {}; shorten the text in the source",
+            overflows.join("; ")
+        ))
+        .into());
+    }
+    let pdf = save(&facts, &regular, &bold, pw, ph, ops)?;
+    Ok(Sheet {
+        pdf,
+        source_sha256: facts.hash,
+        regions,
+    })
+}
 
-    // Title block.
-    let block_h = 40.0;
+/// Blocks that leave the page or overlap another block.
+fn placement_faults(regions: &[Region], pw: f64, ph: f64) -> Vec<String> {
+    let mut faults = Vec::new();
+    for (i, a) in regions.iter().enumerate() {
+        if a.x < 0.0 || a.y < 0.0 || a.x + a.w > pw || a.y + a.h > ph {
+            faults.push(format!("the {} leaves the page", a.name));
+        }
+        for b in &regions[i + 1..] {
+            if a.overlaps(b) {
+                faults.push(format!("the {} overlaps the {}", a.name, b.name));
+            }
+        }
+    }
+    faults
+}
+
+/// The PDF of one page of `ops`, with the fonts, the source hash in the
+/// subject and the document ID set from it.
+fn save(
+    f: &Facts,
+    regular: &printpdf::ParsedFont,
+    bold: &printpdf::ParsedFont,
+    pw: f64,
+    ph: f64,
+    ops: Vec<printpdf::Op>,
+) -> Result<Vec<u8>, Error> {
+    let mut warnings = Vec::new();
+    let mut doc = printpdf::PdfDocument::new(&f.source.title);
+    doc.metadata.info.subject = format!("{HASH_PREFIX}{}", f.hash);
+    doc.resources.fonts.map.insert(
+        printpdf::FontId(REGULAR_ID.to_string()),
+        printpdf::PdfFont::new(regular.clone()),
+    );
+    doc.resources.fonts.map.insert(
+        printpdf::FontId(BOLD_ID.to_string()),
+        printpdf::PdfFont::new(bold.clone()),
+    );
+    doc.with_pages(vec![printpdf::PdfPage::new(
+        printpdf::Mm(pw as f32),
+        printpdf::Mm(ph as f32),
+        ops,
+    )]);
+    let mut lo = doc.to_lopdf_document(&printpdf::PdfSaveOptions::default(), &mut warnings);
+    let id = lopdf::Object::String(
+        f.hash.as_bytes()[..32].to_vec(),
+        lopdf::StringFormat::Literal,
+    );
+    lo.trailer
+        .set("ID", lopdf::Object::Array(vec![id.clone(), id]));
+    lo.compress();
+    let mut pdf = Vec::new();
+    lo.save_to(&mut pdf)
+        .map_err(|e| Error::Output(std::io::Error::other(e.to_string())))?;
+    Ok(pdf)
+}
+
+/// The single plan's page: title block, plan box, risk table, OC and AOQ
+/// charts side by side, measures table beside the signatures, footer.
+fn single_layout(
+    c: &mut Canvas,
+    f: &Facts,
+    frame: Frame,
+    mut top: f64,
+    n: u64,
+    ac: u64,
+) -> Result<(), Error> {
+    let Frame {
+        left,
+        right,
+        width,
+        margin,
+    } = frame;
+    let title_h = 40.0;
+    title_block(c, f, left, top, width, title_h);
+    top -= title_h + 4.0;
+    let plan_h = 42.0;
+    single_plan_box(c, f, left, top, width, plan_h, n, ac);
+    top -= plan_h + 4.0;
+    let risk_h = 20.0;
+    risk_table(c, f, left, top, width, risk_h);
+    top -= risk_h + 3.0;
+
+    // Charts take the height that the table and footer leave.
+    let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
+    let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
+    let table_h = measures_height(&evaluation);
+    let foot_top = margin + FOOT_H;
+    let chart_h = (top - 4.0 - table_h - 3.0 - foot_top).min(85.0);
+    let chart_w = (width - 6.0) / 2.0;
+    let (x_max, points) = curve_points(f);
+    let chart_top = top - chart_h;
+    oc_chart(c, f, &points, x_max, left, chart_top, chart_w, chart_h);
+    aoq_chart(
+        c,
+        f,
+        &points,
+        x_max,
+        left + chart_w + 6.0,
+        chart_top,
+        chart_w,
+        chart_h,
+    );
+    top = chart_top - 4.0;
+
+    let table_w = 112.0;
+    measures_table(c, f, &evaluation, left, top, table_w, table_h);
+    let sig_x = left + table_w + 4.0;
+    signatures(c, f, sig_x, top, right - sig_x, table_h);
+    footer(c, f, frame);
+    if chart_h < MIN_CHART_H || top - table_h < foot_top + 2.0 {
+        c.overflows
+            .push("the page is too short for its blocks".to_string());
+    }
+    Ok(())
+}
+
+/// The title block: title, item and characteristic on the left; plan ID,
+/// revision, date, lot size and scheme on the right.
+fn title_block(c: &mut Canvas, f: &Facts, left: f64, top: f64, width: f64, block_h: f64) {
+    let source = f.source;
+    let right = left + width;
+    let black = || grey(0.0);
     c.claim("title block", left, top - block_h, width, block_h);
     c.rect_stroke(left, top - block_h, width, block_h, 0.8, black());
     let meta_w = 52.0;
@@ -118,7 +353,7 @@ pub fn render_sheet(
     c.text(
         left + 3.0,
         top - 4.5,
-        "INCOMING INSPECTION PLAN",
+        text::KICKER,
         Face::Bold,
         6.5,
         grey(0.35),
@@ -134,13 +369,9 @@ pub fn render_sheet(
         14.0,
         8.0,
     );
-    let opt = |v: &Option<String>| v.clone().unwrap_or_else(|| "—".to_string());
-    let lot = model
-        .lot_size()
-        .map_or("not stated".to_string(), |n| format!("{n} units"));
     let fields = [
-        ("Item", opt(&source.item)),
-        ("Characteristic", opt(&source.characteristic)),
+        (text::ITEM, given(&source.item)),
+        (text::CHARACTERISTIC, given(&source.characteristic)),
     ];
     let mut fy = top - 8.5 - title_used;
     for (label, value) in fields {
@@ -166,16 +397,22 @@ pub fn render_sheet(
         black(),
         None,
     );
-    let scheme_model = format!("{}, {}", source.scheme.name(), model.kind().name());
+    let lot = f
+        .model
+        .lot_size()
+        .map_or(text::NO_LOT_SIZE.to_string(), |n| format!("{n} units"));
+    let scheme_model = format!("{}, {}", source.scheme.name(), f.model.kind().name());
     let meta = [
-        ("Plan ID", opt(&source.id)),
-        ("Revision", opt(&source.revision)),
-        ("Date", opt(&source.date)),
-        ("Lot size", lot),
-        ("Scheme", scheme_model),
+        (text::PLAN_ID, given(&source.id)),
+        (text::REVISION, given(&source.revision)),
+        (text::DATE, given(&source.date)),
+        (text::LOT_SIZE, lot),
+        (text::SCHEME, scheme_model),
     ];
+    // Five rows spread over the block's height.
+    let pitch = (block_h - 5.0) / 5.0;
     for (i, (label, value)) in meta.iter().enumerate() {
-        let y = top - 6.0 - 7.0 * i as f64;
+        let y = top - 6.0 - pitch * i as f64;
         c.text(meta_x, y, label, Face::Bold, 6.5, grey(0.35));
         c.paragraph(
             label,
@@ -189,10 +426,10 @@ pub fn render_sheet(
             5.5,
         );
     }
-    top -= block_h + 4.0;
+}
 
-    // The plan itself.
-    let plan_h = 42.0;
+/// The plan box's frame: a tinted box with a blue rule.
+fn plan_frame(c: &mut Canvas, left: f64, top: f64, width: f64, plan_h: f64) {
     c.claim("plan", left, top - plan_h, width, plan_h);
     c.rect_fill(left, top - plan_h, width, plan_h, rgb(0.93, 0.95, 0.98));
     c.rect_stroke(
@@ -203,33 +440,52 @@ pub fn render_sheet(
         1.2,
         rgb(0.05, 0.25, 0.55),
     );
-    let Some((n, ac)) = plan.as_single() else {
-        return Err(InputError::Inconsistent(
-            "the sheet prints single plans; this source records a staged plan".to_string(),
-        )
-        .into());
-    };
+}
+
+/// Green for accepting, red for rejecting.
+fn accept_colour() -> printpdf::Color {
+    rgb(0.0, 0.4, 0.1)
+}
+
+fn reject_colour() -> printpdf::Color {
+    rgb(0.6, 0.1, 0.05)
+}
+
+/// The single plan's box: the sample size and the two decisions on the
+/// left, the procedure on the right.
+#[allow(clippy::too_many_arguments)]
+fn single_plan_box(
+    c: &mut Canvas,
+    f: &Facts,
+    left: f64,
+    top: f64,
+    width: f64,
+    plan_h: f64,
+    n: u64,
+    ac: u64,
+) {
+    plan_frame(c, left, top, width, plan_h);
     let col = 76.0;
-    c.heading(left + 4.0, top - 7.0, "SAMPLE SIZE");
+    c.heading(left + 4.0, top - 7.0, text::SAMPLE_SIZE);
     c.text(
         left + 4.0,
         top - 19.0,
         &format!("n = {n}"),
         Face::Bold,
         24.0,
-        black(),
+        grey(0.0),
     );
-    let what = words::counted(per_unit);
+    let what = words::counted(f.per_unit);
     let decisions = [
         (
             format!("Accept if ≤ {ac} {what}"),
             top - 27.0,
-            rgb(0.0, 0.4, 0.1),
+            accept_colour(),
         ),
         (
             format!("Reject if ≥ {} {what}", ac + 1),
             top - 32.5,
-            rgb(0.6, 0.1, 0.05),
+            reject_colour(),
         ),
     ];
     for (line, y, color) in decisions {
@@ -238,56 +494,65 @@ pub fn render_sheet(
         }
         c.text(left + 4.0, y, &line, Face::Bold, 9.5, color);
     }
-    c.heading(left + col + 4.0, top - 7.0, "INSPECTOR'S PROCEDURE");
-    // One paragraph per step, each in what the earlier steps left.
-    let mut step_top = top - 9.0;
-    let box_bottom = top - plan_h + 2.0;
-    for step in words::procedure(n, ac, per_unit) {
-        let used = c.paragraph(
-            "procedure",
-            left + col + 4.0,
-            step_top,
-            width - col - 8.0,
-            step_top - box_bottom,
-            &step,
-            Face::Regular,
-            8.0,
-            7.0,
-        );
-        step_top -= used + 0.8;
-    }
+    procedure(
+        c,
+        f,
+        left + col + 4.0,
+        top,
+        width - col - 8.0,
+        top - plan_h + 2.0,
+        8.0,
+    );
     c.line(
         &[(left + col, top - 3.0), (left + col, top - plan_h + 3.0)],
         0.4,
         grey(0.6),
         None,
     );
-    top -= plan_h + 4.0;
+}
 
-    // Risk points.
-    let (producer, consumer) = (request.risks.producer(), request.risks.consumer());
-    let risk_h = 20.0;
+/// The inspector's procedure under its heading at `(x, top)`, one
+/// paragraph per step, each in what the earlier steps left above `bottom`.
+fn procedure(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, bottom: f64, size: f64) {
+    c.heading(x, top - 7.0, text::PROCEDURE);
+    let mut step_top = top - 9.0;
+    for step in words::plan_procedure(&f.plan, f.per_unit) {
+        let used = c.paragraph(
+            "procedure",
+            x,
+            step_top,
+            w,
+            step_top - bottom,
+            &step,
+            Face::Regular,
+            size,
+            7.0,
+        );
+        step_top -= used + 0.8;
+    }
+}
+
+/// The risk table: each agreed point against what the plan achieves.
+fn risk_table(c: &mut Canvas, f: &Facts, left: f64, top: f64, width: f64, risk_h: f64) {
+    let right = left + width;
+    let black = || grey(0.0);
+    let (producer, consumer) = (f.request.risks.producer(), f.request.risks.consumer());
     c.claim("risks", left, top - risk_h, width, risk_h);
-    c.heading(
-        left,
-        top - 3.5,
-        "AGREED RISK POINTS AND WHAT THIS PLAN ACHIEVES",
-    );
+    c.heading(left, top - 3.5, text::RISKS);
     let cols = [left, left + 52.0, left + 84.0, left + 128.0, right];
-    let quality_head = if per_unit {
-        "Quality (per unit)"
-    } else {
-        "Quality"
-    };
-    let heads = [
-        "Risk point",
-        quality_head,
-        "Agreed",
-        "Achieved by this plan",
-    ];
     let row_y = |i: usize| top - 8.5 - 5.0 * i as f64;
-    for (i, h) in heads.iter().enumerate() {
-        c.text(cols[i] + 1.0, row_y(0), h, Face::Bold, 7.5, black());
+    for (i, h) in text::risk_heads(f.per_unit).iter().enumerate() {
+        let w = cols[i + 1] - cols[i] - 2.0;
+        c.cell(
+            "risk table",
+            cols[i] + 1.0,
+            w,
+            row_y(0),
+            h,
+            Face::Bold,
+            7.5,
+            black(),
+        );
     }
     c.line(
         &[(left, row_y(0) - 1.5), (right, row_y(0) - 1.5)],
@@ -295,10 +560,11 @@ pub fn render_sheet(
         black(),
         None,
     );
+    let recorded = f.recorded;
     let rows = [
         (
-            "Producer's point (AQL, p₁)",
-            q(producer.quality),
+            text::PRODUCER_POINT,
+            f.q(producer.quality),
             format!("α ≤ {}", producer.risk),
             format!(
                 "α = {}  (Pa = {:.4})",
@@ -307,8 +573,8 @@ pub fn render_sheet(
             ),
         ),
         (
-            "Consumer's point (RQL, p₂)",
-            q(consumer.quality),
+            text::CONSUMER_POINT,
+            f.q(consumer.quality),
             format!("β ≤ {}", consumer.risk),
             format!(
                 "β = {}  (Pa = {:.4})",
@@ -320,115 +586,142 @@ pub fn render_sheet(
     for (i, r) in rows.iter().enumerate() {
         let y = row_y(i + 1);
         for (j, cell) in [&r.0.to_string(), &r.1, &r.2, &r.3].iter().enumerate() {
-            c.text(cols[j] + 1.0, y, cell, Face::Regular, 7.5, black());
+            let w = cols[j + 1] - cols[j] - 2.0;
+            c.cell(
+                "risk table",
+                cols[j] + 1.0,
+                w,
+                y,
+                cell,
+                Face::Regular,
+                7.5,
+                black(),
+            );
         }
     }
-    top -= risk_h + 3.0;
+}
 
-    // Charts take the height that the table and footer leave.
-    let qualities = crate::plan::default_qualities(&plan, &model, Some(&request.risks));
-    let evaluation = evaluate(&plan, &model, &qualities)?;
-    let table_h = 8.0 + 4.2 * (evaluation.points.len() as f64 + 1.0);
-    let foot_h = 25.0;
-    let foot_top = margin + foot_h;
-    let chart_h = (top - 4.0 - table_h - 3.0 - foot_top).min(85.0);
-    let chart_w = (width - 6.0) / 2.0;
-    let indifference = quality_at_pa(&plan, &model, 0.5);
-    let x_max = nice_ceiling(quality_at_pa(&plan, &model, 0.02).max(consumer.quality * 1.2));
-    let curve_q: Vec<f64> = (0..=240)
-        .map(|i| x_max * i as f64 / 240.0)
-        .map(|v| v.max(x_max * 1e-6))
-        .collect();
-    // One evaluation per point serves both curves.
-    type Curve = Vec<(f64, f64)>;
-    let (oc, aoq): (Curve, Curve) = curve_q
-        .iter()
-        .map(|&p| {
-            let m = measures(&plan, &model, p);
-            ((p, m.pa), (p, m.aoq))
-        })
-        .unzip();
-    let limit = aoql(&plan, &model);
+/// Quality tick labels: percent, or plain numbers per unit.
+fn quality_tick(per_unit: bool) -> impl Fn(f64, f64) -> String {
     let (scale, suffix) = if per_unit { (1.0, "") } else { (100.0, "%") };
-    let axis = |v: f64, step: f64| chart::tick_label(v, step, scale, suffix);
+    move |v: f64, step: f64| chart::tick_label(v, step, scale, suffix)
+}
+
+/// The OC curve with both risk points marked and the indifference quality.
+#[allow(clippy::too_many_arguments)]
+fn oc_chart(
+    c: &mut Canvas,
+    f: &Facts,
+    points: &[CurvePoint],
+    x_max: f64,
+    x: f64,
+    y: f64,
+    w: f64,
+    h: f64,
+) {
+    let (producer, consumer) = (f.request.risks.producer(), f.request.risks.consumer());
+    let indifference = quality_at_pa(&f.plan, &f.model, 0.5);
+    let oc: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.pa)).collect();
+    let axis = quality_tick(f.per_unit);
     let prob = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
-    let pa1 = 1.0 - recorded.producer_risk;
-    let oc_marks = [
+    let pa1 = f.pa_at_p1();
+    let beta = f.recorded.consumer_risk;
+    let marks = [
         Mark {
             x: producer.quality,
             y: pa1,
-            label: format!("p₁ = {}, Pa = {:.3}", q(producer.quality), pa1),
+            label: format!("p₁ = {}, Pa = {:.3}", f.q(producer.quality), pa1),
         },
         Mark {
             x: consumer.quality,
-            y: recorded.consumer_risk,
-            label: format!(
-                "p₂ = {}, Pa = {:.3}",
-                q(consumer.quality),
-                recorded.consumer_risk
-            ),
+            y: beta,
+            label: format!("p₂ = {}, Pa = {:.3}", f.q(consumer.quality), beta),
         },
     ];
-    let x_label = if per_unit {
-        "Lot quality (nonconformities per unit)"
-    } else {
-        "Lot quality (% nonconforming)"
-    };
-    let chart_top = top - chart_h;
     chart::draw(
-        &mut c,
+        c,
         "OC chart",
-        left,
-        chart_top,
-        chart_w,
-        chart_h,
+        x,
+        y,
+        w,
+        h,
         &Chart {
-            title: "Operating characteristic (OC) curve",
-            x_label,
-            y_label: "Probability of acceptance Pa",
+            title: text::OC_TITLE,
+            x_label: text::quality_axis(f.per_unit),
+            y_label: text::OC_AXIS,
             x_max,
             y_max: 1.0,
             x_tick: &axis,
             y_tick: &prob,
             curve: &oc,
-            marks: &oc_marks,
-            guide: Some((indifference, format!("Pa = 0.5 at {}", q(indifference)))),
+            marks: &marks,
+            guide: Some((indifference, format!("Pa = 0.5 at {}", f.q(indifference)))),
         },
     );
-    let aoq_max = nice_ceiling(limit.value * 1.25);
-    let aoq_marks = [Mark {
+}
+
+/// The AOQ curve with the AOQL marked.
+#[allow(clippy::too_many_arguments)]
+fn aoq_chart(
+    c: &mut Canvas,
+    f: &Facts,
+    points: &[CurvePoint],
+    x_max: f64,
+    x: f64,
+    y: f64,
+    w: f64,
+    h: f64,
+) {
+    let limit = aoql(&f.plan, &f.model);
+    let aoq: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.aoq)).collect();
+    let axis = quality_tick(f.per_unit);
+    let marks = [Mark {
         x: limit.quality,
         y: limit.value,
-        label: format!("AOQL = {}", q(limit.value)),
+        label: format!("AOQL = {}", f.q(limit.value)),
     }];
     chart::draw(
-        &mut c,
+        c,
         "AOQ chart",
-        left + chart_w + 6.0,
-        chart_top,
-        chart_w,
-        chart_h,
+        x,
+        y,
+        w,
+        h,
         &Chart {
-            title: "Average outgoing quality (AOQ), rectifying inspection",
-            x_label,
-            y_label: "AOQ",
+            title: text::AOQ_TITLE,
+            x_label: text::quality_axis(f.per_unit),
+            y_label: text::AOQ_AXIS,
             x_max,
-            y_max: aoq_max,
+            y_max: nice_ceiling(limit.value * 1.25),
             x_tick: &axis,
             y_tick: &axis,
             curve: &aoq,
-            marks: &aoq_marks,
+            marks: &marks,
             guide: None,
         },
     );
-    top = chart_top - 4.0;
+}
 
-    // Table of measures and the signature block.
-    let table_w = 112.0;
+/// Height of the measures table of `evaluation`.
+fn measures_height(evaluation: &Evaluation) -> f64 {
+    8.0 + 4.2 * (evaluation.points.len() as f64 + 1.0)
+}
+
+/// The measures table: Pa, AOQ, ATI and ASN at the default qualities.
+fn measures_table(
+    c: &mut Canvas,
+    f: &Facts,
+    evaluation: &Evaluation,
+    left: f64,
+    top: f64,
+    table_w: f64,
+    table_h: f64,
+) {
+    let black = || grey(0.0);
     c.claim("measures", left, top - table_h, table_w, table_h);
-    c.heading(left, top - 3.5, "WHAT THE PLAN DOES AT OTHER QUALITIES");
+    c.heading(left, top - 3.5, text::MEASURES);
     let tcols = [left + 24.0, left + 46.0, left + 72.0, left + 96.0];
-    let heads = ["Quality", "Pa", "AOQ", "ATI", "ASN"];
+    let heads = text::MEASURE_HEADS;
     let ty = |i: usize| top - 8.0 - 4.2 * i as f64;
     c.text(left + 1.0, ty(0), heads[0], Face::Bold, 7.0, black());
     for (j, h) in heads[1..].iter().enumerate() {
@@ -442,28 +735,51 @@ pub fn render_sheet(
     );
     for (i, m) in evaluation.points.iter().enumerate() {
         let y = ty(i + 1);
-        c.text(left + 1.0, y, &q(m.quality), Face::Regular, 7.0, black());
+        c.cell(
+            "measures table",
+            left + 1.0,
+            22.0,
+            y,
+            &f.q(m.quality),
+            Face::Regular,
+            7.0,
+            black(),
+        );
         let cells = [
             format!("{:.4}", m.pa),
-            if per_unit {
+            if f.per_unit {
                 format!("{:.5}", m.aoq)
             } else {
                 format!("{:.4}%", m.aoq * 100.0)
             },
-            m.ati.map_or("—".to_string(), |v| format!("{v:.0}")),
+            m.ati
+                .map_or(text::NOT_GIVEN.to_string(), |v| format!("{v:.0}")),
             format!("{:.0}", m.asn),
         ];
         for (j, cell) in cells.iter().enumerate() {
-            c.text_right(tcols[j], y, cell, Face::Regular, 7.0, black());
+            c.cell_right(
+                "measures table",
+                tcols[j],
+                20.0,
+                y,
+                cell,
+                Face::Regular,
+                7.0,
+                black(),
+            );
         }
     }
-    let sig_x = left + table_w + 4.0;
-    let sig_w = right - sig_x;
+}
+
+/// The signature block: who prepared and who approved the plan, with lines
+/// for the signature and the date.
+fn signatures(c: &mut Canvas, f: &Facts, sig_x: f64, top: f64, sig_w: f64, table_h: f64) {
+    let black = || grey(0.0);
     c.claim("signatures", sig_x, top - table_h, sig_w, table_h);
     c.rect_stroke(sig_x, top - table_h, sig_w, table_h, 0.5, black());
     for (i, (label, name)) in [
-        ("Prepared by", opt(&source.prepared_by)),
-        ("Approved by", opt(&source.approved_by)),
+        (text::PREPARED_BY, given(&f.source.prepared_by)),
+        (text::APPROVED_BY, given(&f.source.approved_by)),
     ]
     .iter()
     .enumerate()
@@ -490,7 +806,7 @@ pub fn render_sheet(
         c.text(
             sig_x + 2.0,
             y - 14.5,
-            "Signature",
+            text::SIGNATURE,
             Face::Regular,
             6.0,
             grey(0.4),
@@ -507,33 +823,43 @@ pub fn render_sheet(
         c.text(
             sig_x + sig_w - 23.0,
             y - 14.5,
-            "Date",
+            text::SIGNED_ON,
             Face::Regular,
             6.0,
             grey(0.4),
         );
     }
+}
 
-    // Footer: cautions and provenance.
-    c.claim("footer", left, margin, width, foot_h);
-    c.line(&[(left, foot_top), (right, foot_top)], 0.6, black(), None);
-    let caution = words::CAUTION;
+/// The footer at the bottom margin: the cautions and the provenance line.
+fn footer(c: &mut Canvas, f: &Facts, frame: Frame) {
+    let Frame {
+        left,
+        right,
+        width,
+        margin,
+    } = frame;
+    let foot_top = margin + FOOT_H;
+    c.claim("footer", left, margin, width, FOOT_H);
+    c.line(&[(left, foot_top), (right, foot_top)], 0.6, grey(0.0), None);
     let used = c.paragraph(
         "caution",
         left,
         foot_top - 1.5,
         width,
         10.0,
-        caution,
+        words::CAUTION,
         Face::Regular,
         7.0,
         5.5,
     );
     let provenance = format!(
-        "Generated by {} from {file_name} (SHA-256 {hash}). Plan solved by {}. \
-         Regenerate with: lotsman sheet {file_name}",
+        "Generated by {} from {name} (SHA-256 {hash}). Plan solved by {}. \
+         Regenerate with: lotsman sheet {name}",
         tool_version(),
-        recorded.solved_by
+        f.recorded.solved_by,
+        name = f.file_name,
+        hash = f.hash,
     );
     c.paragraph(
         "provenance",
@@ -546,52 +872,6 @@ pub fn render_sheet(
         6.0,
         5.0,
     );
-    if chart_h < 50.0 || top - table_h < foot_top + 2.0 {
-        c.overflows
-            .push("the page is too short for its blocks".to_string());
-    }
-
-    let Canvas {
-        ops,
-        regions,
-        overflows,
-        ..
-    } = c;
-    if !overflows.is_empty() {
-        return Err(InputError::Inconsistent(format!(
-            "the sheet cannot be laid out: {}; shorten the text in the source",
-            overflows.join("; ")
-        ))
-        .into());
-    }
-    let mut doc = printpdf::PdfDocument::new(&source.title);
-    doc.metadata.info.subject = format!("{HASH_PREFIX}{hash}");
-    doc.resources.fonts.map.insert(
-        printpdf::FontId(REGULAR_ID.to_string()),
-        printpdf::PdfFont::new(regular.clone()),
-    );
-    doc.resources.fonts.map.insert(
-        printpdf::FontId(BOLD_ID.to_string()),
-        printpdf::PdfFont::new(bold.clone()),
-    );
-    doc.with_pages(vec![printpdf::PdfPage::new(
-        printpdf::Mm(pw as f32),
-        printpdf::Mm(ph as f32),
-        ops,
-    )]);
-    let mut lo = doc.to_lopdf_document(&printpdf::PdfSaveOptions::default(), &mut warnings);
-    let id = lopdf::Object::String(hash.as_bytes()[..32].to_vec(), lopdf::StringFormat::Literal);
-    lo.trailer
-        .set("ID", lopdf::Object::Array(vec![id.clone(), id]));
-    lo.compress();
-    let mut pdf = Vec::new();
-    lo.save_to(&mut pdf)
-        .map_err(|e| Error::Output(std::io::Error::other(e.to_string())))?;
-    Ok(Sheet {
-        pdf,
-        source_sha256: hash,
-        regions,
-    })
 }
 
 /// Reads the source at `source_path`, renders its sheet and writes it
