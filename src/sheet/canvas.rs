@@ -54,6 +54,9 @@ pub struct Canvas<'f> {
     pub regions: Vec<Region>,
     /// Text that did not fit its box even at the smallest size (must stay empty).
     pub overflows: Vec<String>,
+    /// Blocks, tables, charts or labels that do not fit the page, whatever
+    /// the source's text (must stay empty).
+    pub faults: Vec<String>,
     regular: &'f ParsedFont,
     bold: &'f ParsedFont,
 }
@@ -96,6 +99,7 @@ impl<'f> Canvas<'f> {
             ops: Vec::new(),
             regions: Vec::new(),
             overflows: Vec::new(),
+            faults: Vec::new(),
             regular,
             bold,
         }

@@ -19,13 +19,16 @@ mod text;
 use sha2::{Digest, Sha256};
 
 use crate::design::DesignRequest;
+use crate::design::design_single;
 use crate::error::{Error, InputError};
 use crate::model::{Model, ModelKind};
-use crate::plan::{Evaluation, StagedPlan, aoql, evaluate, measures, quality_at_pa};
+use crate::plan::{
+    Evaluation, SequentialLines, StagedPlan, aoql, evaluate, largest_asn, measures, quality_at_pa,
+};
 use crate::report::{format_quality, format_significant, words};
 use crate::source::{PlanSource, RecordedPlan, tool_version};
 use canvas::{BOLD_ID, Canvas, Face, REGULAR_ID, Region, grey, rgb};
-use chart::{Chart, Mark, nice_ceiling};
+use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
 
 const REGULAR_TTF: &[u8] = include_bytes!("fonts/DejaVuSans.ttf");
 const BOLD_TTF: &[u8] = include_bytes!("fonts/DejaVuSans-Bold.ttf");
@@ -123,6 +126,7 @@ struct CurvePoint {
     p: f64,
     pa: f64,
     aoq: f64,
+    asn: f64,
 }
 
 /// The quality axis and the curve points of a plan: 241 even steps up to
@@ -140,6 +144,7 @@ fn curve_points(f: &Facts) -> (f64, Vec<CurvePoint>) {
                 p,
                 pa: m.pa,
                 aoq: m.aoq,
+                asn: m.asn,
             }
         })
         .collect();
@@ -195,24 +200,37 @@ pub fn render_sheet(
     };
     match facts.plan.as_single() {
         Some((n, ac)) => single_layout(&mut c, &facts, frame, ph - margin, n, ac)?,
-        None => {
-            return Err(InputError::Inconsistent(
-                "the sheet prints single plans; this source records a staged plan".to_string(),
-            )
-            .into());
-        }
+        None => staged_layout(&mut c, &facts, frame, ph - margin)?,
     }
     let Canvas {
         ops,
         regions,
-        mut overflows,
+        overflows,
+        mut faults,
         ..
     } = c;
-    overflows.extend(placement_faults(&regions, pw, ph));
-    if !overflows.is_empty() {
+    faults.extend(placement_faults(&regions, pw, ph));
+    if !overflows.is_empty() || !faults.is_empty() {
+        let mut parts = Vec::new();
+        if !overflows.is_empty() {
+            parts.push(format!(
+                "{}; shorten the text in the source",
+                overflows.join("; ")
+            ));
+        }
+        if !faults.is_empty() {
+            let paper_hint = match paper {
+                Paper::Letter => " (A4 is taller: try --paper a4)",
+                Paper::A4 => "",
+            };
+            parts.push(format!(
+                "{}; the plan is too long for one page{paper_hint}, and the terminal and JSON reports give its tables in full",
+                faults.join("; ")
+            ));
+        }
         return Err(InputError::Inconsistent(format!(
-            "the sheet cannot be laid out: {}; shorten the text in the source",
-            overflows.join("; ")
+            "the sheet cannot be laid out: {}",
+            parts.join("; ")
         ))
         .into());
     }
@@ -309,7 +327,7 @@ fn single_layout(
     // Charts take the height that the table and footer leave.
     let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
     let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
-    let table_h = measures_height(&evaluation);
+    let table_h = measures_height(&evaluation, 4.2);
     let foot_top = margin + FOOT_H;
     let chart_h = (top - 4.0 - table_h - 3.0 - foot_top).min(85.0);
     let chart_w = (width - 6.0) / 2.0;
@@ -332,9 +350,9 @@ fn single_layout(
     measures_table(c, f, &evaluation, left, top, table_w, table_h);
     let sig_x = left + table_w + 4.0;
     signatures(c, f, sig_x, top, right - sig_x, table_h);
-    footer(c, f, frame);
+    footer(c, f, frame, FOOT_H);
     if chart_h < MIN_CHART_H || top - table_h < foot_top + 2.0 {
-        c.overflows
+        c.faults
             .push("the page is too short for its blocks".to_string());
     }
     Ok(())
@@ -532,6 +550,810 @@ fn procedure(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, bottom: f64, s
     }
 }
 
+/// Height the procedure takes in a column `w` mm wide at `size`, heading
+/// and bottom padding included (see [`procedure`]).
+fn procedure_height(c: &Canvas, f: &Facts, w: f64, size: f64) -> f64 {
+    let steps = words::plan_procedure(&f.plan, f.per_unit);
+    let text: f64 = steps
+        .iter()
+        .map(|s| c.fit(s, Face::Regular, w, f64::INFINITY, size, size).height)
+        .sum();
+    11.0 + text + 0.8 * (steps.len() as f64 - 1.0)
+}
+
+/// Sizes of the procedure text, largest first, that a staged plan box
+/// tries.
+const PROCEDURE_SIZES: [f64; 3] = [8.0, 7.5, 7.0];
+
+/// Gap between the blocks of a staged sheet.
+const GAP: f64 = 3.0;
+
+/// The staged sheets' title block and footer: a little lower than the
+/// single sheet's, for the room the stage or item table needs.
+const STAGED_TITLE_H: f64 = 34.0;
+const STAGED_FOOT_H: f64 = 17.0;
+
+/// The page of a double, multiple or item-by-item plan: title block; plan
+/// box with the stage or item table beside the procedure; risk table; the
+/// charts (OC and ASN, and first the decision chart for an item-by-item
+/// plan); measures table beside the signatures; footer.
+fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Result<(), Error> {
+    let Frame {
+        left,
+        right,
+        width,
+        margin,
+    } = frame;
+    title_block(c, f, left, top, width, STAGED_TITLE_H);
+    top -= STAGED_TITLE_H + GAP;
+    let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
+    let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
+    let table_h = measures_height(&evaluation, 3.9);
+    let foot_top = margin + STAGED_FOOT_H;
+    let risk_h = 20.0;
+    // The plan box may take what the other blocks leave at the smallest
+    // chart height.
+    let below_plan = GAP + risk_h + GAP + MIN_CHART_H + GAP + table_h + GAP;
+    let plan_max = top - below_plan - foot_top;
+    let faults = c.overflows.len() + c.faults.len();
+    let plan_h = match f.plan.sequential_lines() {
+        Some(lines) => item_plan_box(c, f, lines, left, top, width, plan_max),
+        None => stage_plan_box(c, f, left, top, width, plan_max),
+    };
+    if c.overflows.len() + c.faults.len() > faults {
+        // The rest would be laid out in what is not there; the plan box's
+        // own message says why.
+        return Ok(());
+    }
+    top -= plan_h + GAP;
+    risk_table(c, f, left, top, width, risk_h);
+    top -= risk_h + GAP;
+
+    let chart_h = (top - GAP - table_h - GAP - foot_top).min(85.0);
+    let chart_top = top - chart_h;
+    let (x_max, points) = curve_points(f);
+    match f.plan.sequential_lines() {
+        Some(lines) => {
+            // Three in a row, the decision chart widest.
+            let gap = 4.0;
+            let small = (width - 2.0 * gap) * 0.3;
+            let wide = width - 2.0 * gap - 2.0 * small;
+            decision_chart(c, f, lines, left, chart_top, wide, chart_h);
+            let x2 = left + wide + gap;
+            oc_chart(c, f, &points, x_max, x2, chart_top, small, chart_h);
+            asn_chart(
+                c,
+                f,
+                &points,
+                x_max,
+                x2 + small + gap,
+                chart_top,
+                small,
+                chart_h,
+            );
+        }
+        None => {
+            let chart_w = (width - 6.0) / 2.0;
+            oc_chart(c, f, &points, x_max, left, chart_top, chart_w, chart_h);
+            asn_chart(
+                c,
+                f,
+                &points,
+                x_max,
+                left + chart_w + 6.0,
+                chart_top,
+                chart_w,
+                chart_h,
+            );
+        }
+    }
+    top = chart_top - GAP;
+
+    let table_w = 112.0;
+    measures_table(c, f, &evaluation, left, top, table_w, table_h);
+    let sig_x = left + table_w + 4.0;
+    signatures(c, f, sig_x, top, right - sig_x, table_h);
+    footer(c, f, frame, STAGED_FOOT_H);
+    if chart_h < MIN_CHART_H - 1e-9 || top - table_h < foot_top + 2.0 {
+        c.faults
+            .push("the page is too short for its blocks".to_string());
+    }
+    Ok(())
+}
+
+/// One cell of a plan table.
+struct Cell {
+    text: String,
+    face: Face,
+    color: printpdf::Color,
+}
+
+impl Cell {
+    fn plain(text: String) -> Self {
+        Cell {
+            text,
+            face: Face::Regular,
+            color: grey(0.0),
+        }
+    }
+
+    fn accept(number: Option<u64>) -> Self {
+        Cell {
+            text: number.map_or(text::CANNOT_ACCEPT.to_string(), |a| a.to_string()),
+            face: Face::Bold,
+            color: accept_colour(),
+        }
+    }
+
+    fn reject(number: u64) -> Self {
+        Cell {
+            text: number.to_string(),
+            face: Face::Bold,
+            color: reject_colour(),
+        }
+    }
+}
+
+/// Size of the two-line heads of a plan table.
+const HEAD_SIZE: f64 = 6.5;
+
+/// The type of a plan table's rows: the size of the numbers and the row
+/// pitch (mm).
+#[derive(Clone, Copy)]
+struct RowType {
+    size: f64,
+    pitch: f64,
+}
+
+/// Row types from the largest, which a short stage table takes when the
+/// procedure beside it makes the box tall anyway, to the smallest.
+const ROW_TYPES: [RowType; 3] = [
+    RowType {
+        size: 9.5,
+        pitch: 5.4,
+    },
+    RowType {
+        size: 8.5,
+        pitch: 4.6,
+    },
+    RowType {
+        size: 7.5,
+        pitch: 3.9,
+    },
+];
+
+/// The row types of item tables, which are long: the smallest stage
+/// table type, then a tighter one for a table that would not fit.
+const ITEM_ROWS: [RowType; 2] = [
+    ROW_TYPES[2],
+    RowType {
+        size: 7.0,
+        pitch: 3.5,
+    },
+];
+
+/// Top of a plan table's first row below its top edge: two head lines and
+/// the rule under them.
+const TABLE_HEAD_H: f64 = 7.0;
+
+/// Column widths of a plan table: the widest head line or cell, plus room.
+fn column_widths<const K: usize>(
+    c: &Canvas,
+    heads: &[[&str; 2]; K],
+    rows: &[[Cell; K]],
+    size: f64,
+) -> [f64; K] {
+    let mut widths = [0.0; K];
+    for (j, w) in widths.iter_mut().enumerate() {
+        let head = heads[j]
+            .iter()
+            .map(|h| c.width(h, Face::Bold, HEAD_SIZE))
+            .fold(0.0, f64::max);
+        let cells = rows
+            .iter()
+            .map(|r| c.width(&r[j].text, r[j].face, size))
+            .fold(0.0, f64::max);
+        *w = head.max(cells) + 3.5;
+    }
+    widths
+}
+
+/// A plan table at `(x, top)`: two-line heads, a rule, then one row per
+/// entry in the type `rows_in`, every other row tinted; each cell centred
+/// in its column. Returns the height used.
+#[allow(clippy::too_many_arguments)]
+fn plan_table<const K: usize>(
+    c: &mut Canvas,
+    name: &str,
+    x: f64,
+    top: f64,
+    heads: &[[&str; 2]; K],
+    widths: &[f64; K],
+    rows: &[[Cell; K]],
+    rows_in: RowType,
+) -> f64 {
+    let RowType { size, pitch } = rows_in;
+    let total: f64 = widths.iter().sum();
+    let mut cx = x;
+    for (head, w) in heads.iter().zip(widths) {
+        for (k, line) in head.iter().enumerate() {
+            let lw = c.width(line, Face::Bold, HEAD_SIZE);
+            let y = top - 2.6 - 2.7 * k as f64;
+            c.text(
+                cx + (w - lw) / 2.0,
+                y,
+                line,
+                Face::Bold,
+                HEAD_SIZE,
+                grey(0.25),
+            );
+        }
+        cx += w;
+    }
+    let rule = top - TABLE_HEAD_H + 0.6;
+    c.line(&[(x, rule), (x + total, rule)], 0.5, grey(0.2), None);
+    let first = top - TABLE_HEAD_H;
+    for (i, row) in rows.iter().enumerate() {
+        let row_top = first - pitch * i as f64;
+        if i % 2 == 1 {
+            c.rect_fill(x, row_top - pitch, total, pitch, rgb(0.85, 0.89, 0.95));
+        }
+        let y = row_top - pitch * 0.5 - size * 0.3528 * 0.36;
+        let mut cx = x;
+        for (cell, w) in row.iter().zip(widths) {
+            let tw = c.width(&cell.text, cell.face, size);
+            if tw > w - 1.0 {
+                c.faults
+                    .push(format!("{name}: '{}' is wider than its column", cell.text));
+            }
+            c.text(
+                cx + (w - tw) / 2.0,
+                y,
+                &cell.text,
+                cell.face,
+                size,
+                cell.color.clone(),
+            );
+            cx += w;
+        }
+    }
+    TABLE_HEAD_H + pitch * rows.len() as f64
+}
+
+/// Room above a plan table for the box's heading, and below it for the
+/// note and the box's edge.
+const TABLE_TOP: f64 = 9.5;
+const TABLE_BOTTOM: f64 = 7.0;
+
+/// A stage table's row type and column widths, the width of the box's left
+/// column and of the procedure beside it.
+type StageColumns = (RowType, [f64; 5], f64, f64);
+
+/// The double or multiple plan's box: the stage table on the left, the
+/// procedure on the right; the procedure size by [`choose_box`], then the
+/// largest row type that keeps that size and the box height. Returns the
+/// box height.
+fn stage_plan_box(
+    c: &mut Canvas,
+    f: &Facts,
+    left: f64,
+    top: f64,
+    width: f64,
+    plan_max: f64,
+) -> f64 {
+    let stages = f.plan.stages();
+    let mut drawn = 0;
+    let rows: Vec<[Cell; 5]> = stages
+        .iter()
+        .enumerate()
+        .map(|(i, s)| {
+            let row = [
+                Cell::plain((i + 1).to_string()),
+                Cell::plain((s.n - drawn).to_string()),
+                Cell::plain(s.n.to_string()),
+                Cell::accept(s.accept),
+                Cell::reject(s.reject),
+            ];
+            drawn = s.n;
+            row
+        })
+        .collect();
+    let heads = &text::STAGE_HEADS;
+    let heading = text::stages_heading(f.source.scheme.name(), stages.len(), f.plan.max_sample());
+    // The box for each row type: (procedure size, height, (type, widths,
+    // left column, procedure width)).
+    let layout = |c: &mut Canvas, rows_in: RowType| {
+        let widths = column_widths(c, heads, &rows, rows_in.size);
+        let table_w: f64 = widths
+            .iter()
+            .sum::<f64>()
+            .max(c.width(&heading, Face::Bold, 7.0));
+        let col = table_w + 8.0;
+        let proc_w = width - col - 8.0;
+        let table_need =
+            TABLE_TOP + TABLE_HEAD_H + rows_in.pitch * rows.len() as f64 + TABLE_BOTTOM;
+        let options: Vec<(f64, f64, StageColumns)> = PROCEDURE_SIZES
+            .iter()
+            .map(|&size| {
+                let h = procedure_height(c, f, proc_w, size).max(table_need);
+                (size, h, (rows_in, widths, col, proc_w))
+            })
+            .collect();
+        options
+    };
+    let smallest = layout(c, ROW_TYPES[ROW_TYPES.len() - 1]);
+    let what = format!(
+        "the stage table ({} stages) and the procedure",
+        stages.len()
+    );
+    let Some(plain) = choose_box(c, &what, &smallest, plan_max) else {
+        return 0.0;
+    };
+    // A larger type where it costs the procedure no size and the box no
+    // height.
+    let chosen = ROW_TYPES
+        .iter()
+        .find_map(|&t| {
+            layout(c, t)
+                .into_iter()
+                .find(|o| o.0 == plain.0 && o.1 <= plain.1 + 1e-9)
+        })
+        .unwrap_or(plain);
+    let (size, plan_h, (rows_in, widths, col, proc_w)) = chosen;
+    plan_frame(c, left, top, width, plan_h);
+    c.heading(left + 4.0, top - 7.0, &heading);
+    let used = plan_table(
+        c,
+        "stage table",
+        left + 4.0,
+        top - TABLE_TOP,
+        heads,
+        &widths,
+        &rows,
+        rows_in,
+    );
+    let note = text::stage_note(stages.iter().any(|s| s.accept.is_none()));
+    c.paragraph(
+        "stage table note",
+        left + 4.0,
+        top - TABLE_TOP - used - 1.0,
+        col - 6.0,
+        plan_h - TABLE_TOP - used - 2.0,
+        note,
+        Face::Regular,
+        6.5,
+        5.5,
+    );
+    procedure(
+        c,
+        f,
+        left + col + 4.0,
+        top,
+        proc_w,
+        top - plan_h + 2.0,
+        size,
+    );
+    c.line(
+        &[(left + col, top - 3.0), (left + col, top - plan_h + 3.0)],
+        0.4,
+        grey(0.6),
+        None,
+    );
+    plan_h
+}
+
+/// Extra chart height a plan box leaves when it can: below it, the
+/// procedure goes down a size rather than squeeze the charts.
+const CHART_COMFORT: f64 = 12.0;
+
+/// Of the candidate boxes `(size, height, layout)`, the one that leaves
+/// the charts [`CHART_COMFORT`] above their least height, else the one
+/// that stays within `plan_max`; among those the largest procedure size,
+/// then the lowest box. When none stays within `plan_max`, the lowest box
+/// and an overflow.
+fn choose_box<T: Copy>(
+    c: &mut Canvas,
+    what: &str,
+    options: &[(f64, f64, T)],
+    plan_max: f64,
+) -> Option<(f64, f64, T)> {
+    for budget in [plan_max - CHART_COMFORT, plan_max] {
+        let best = options
+            .iter()
+            .filter(|o| o.1 <= budget)
+            .max_by(|a, b| a.0.total_cmp(&b.0).then(b.1.total_cmp(&a.1)));
+        if let Some(&o) = best {
+            return Some(o);
+        }
+    }
+    let lowest = options.iter().min_by(|a, b| a.1.total_cmp(&b.1)).copied();
+    if let Some((_, h, _)) = lowest {
+        c.faults.push(format!(
+            "{what} need {h:.0} mm and the page leaves {plan_max:.0} mm"
+        ));
+    }
+    lowest
+}
+
+/// The most columns an item table is split into.
+const MAX_ITEM_COLUMNS: usize = 3;
+
+/// The narrowest the procedure may be beside an item table.
+const MIN_PROCEDURE_W: f64 = 58.0;
+
+/// The item-by-item plan's box: the item table (in one to three columns)
+/// and the lines it comes from on the left, the procedure on the right;
+/// the split and the procedure size by [`choose_box`]. When no split fits,
+/// an overflow: the table is never cut short. Returns the box height.
+#[allow(clippy::too_many_arguments)]
+fn item_plan_box(
+    c: &mut Canvas,
+    f: &Facts,
+    lines: &SequentialLines,
+    left: f64,
+    top: f64,
+    width: f64,
+    plan_max: f64,
+) -> f64 {
+    let runs = lines.runs();
+    let rows: Vec<[Cell; 3]> = runs
+        .iter()
+        .map(|r| {
+            [
+                Cell::plain(text::units(r.first, r.last)),
+                Cell::accept(r.accept),
+                Cell::reject(r.reject),
+            ]
+        })
+        .collect();
+    let heads = &text::ITEM_HEADS;
+    let heading = text::items_heading(lines.truncation);
+    let gutter = 4.0;
+    let note = text::item_note(lines.h_accept, lines.h_reject, lines.slope);
+    // Every split that leaves the procedure its width, at every procedure
+    // size; the tighter row type only when the first fits nowhere.
+    let splits = |c: &mut Canvas, rows_in: RowType| {
+        let widths = column_widths(c, heads, &rows, rows_in.size);
+        let one: f64 = widths.iter().sum();
+        let mut options = Vec::new();
+        for k in 1..=MAX_ITEM_COLUMNS.min(runs.len()) {
+            let per = runs.len().div_ceil(k);
+            let table_w = (one * k as f64 + gutter * (k as f64 - 1.0)).max(c.width(
+                &heading,
+                Face::Bold,
+                7.0,
+            ));
+            let col = table_w + 8.0;
+            let proc_w = width - col - 8.0;
+            if proc_w < MIN_PROCEDURE_W {
+                continue;
+            }
+            let note_h = c
+                .fit(&note, Face::Regular, col - 6.0, f64::INFINITY, 6.5, 6.5)
+                .height;
+            let table_need =
+                TABLE_TOP + TABLE_HEAD_H + rows_in.pitch * per as f64 + 2.0 + note_h + 2.0;
+            for size in PROCEDURE_SIZES {
+                let h = procedure_height(c, f, proc_w, size).max(table_need);
+                options.push((size, h, (col, proc_w, per, rows_in, widths)));
+            }
+        }
+        options
+    };
+    let mut options = splits(c, ITEM_ROWS[0]);
+    if options.iter().all(|o| o.1 > plan_max) {
+        options.extend(splits(c, ITEM_ROWS[1]));
+    }
+    let what = format!(
+        "the item table ({} rows, in up to {MAX_ITEM_COLUMNS} columns) and the procedure",
+        runs.len()
+    );
+    let Some((size, plan_h, (col, proc_w, per, rows_in, widths))) =
+        choose_box(c, &what, &options, plan_max)
+    else {
+        c.faults.push(format!(
+            "the item table ({} rows) leaves the procedure no room",
+            runs.len()
+        ));
+        return 0.0;
+    };
+    let one: f64 = widths.iter().sum();
+    plan_frame(c, left, top, width, plan_h);
+    c.heading(left + 4.0, top - 7.0, &heading);
+    let mut used: f64 = 0.0;
+    for (j, chunk) in rows.chunks(per).enumerate() {
+        let x = left + 4.0 + (one + gutter) * j as f64;
+        used = used.max(plan_table(
+            c,
+            "item table",
+            x,
+            top - TABLE_TOP,
+            heads,
+            &widths,
+            chunk,
+            rows_in,
+        ));
+    }
+    c.paragraph(
+        "item table note",
+        left + 4.0,
+        top - TABLE_TOP - used - 1.0,
+        col - 6.0,
+        plan_h - TABLE_TOP - used - 2.0,
+        &note,
+        Face::Regular,
+        6.5,
+        5.5,
+    );
+    procedure(
+        c,
+        f,
+        left + col + 4.0,
+        top,
+        proc_w,
+        top - plan_h + 2.0,
+        size,
+    );
+    c.line(
+        &[(left + col, top - 3.0), (left + col, top - plan_h + 3.0)],
+        0.4,
+        grey(0.6),
+        None,
+    );
+    plan_h
+}
+
+/// The ASN curve against quality, with the single plan's sample size as a
+/// dashed reference and the ASN at the producer's point and the largest
+/// ASN marked.
+#[allow(clippy::too_many_arguments)]
+fn asn_chart(
+    c: &mut Canvas,
+    f: &Facts,
+    points: &[CurvePoint],
+    x_max: f64,
+    x: f64,
+    y: f64,
+    w: f64,
+    h: f64,
+) {
+    let asn: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.asn)).collect();
+    let p1 = f.request.risks.producer().quality;
+    let at_p1 = measures(&f.plan, &f.model, p1).asn;
+    let (q_max, asn_max) = largest_asn(&f.plan, &f.model);
+    let single_n = design_single(&f.model, &f.request.risks).ok().map(|d| d.n);
+    let top_value = single_n.map_or(asn_max, |n| asn_max.max(n as f64));
+    let y_max = nice_ceiling(top_value * 1.15);
+    let axis = quality_tick(f.per_unit);
+    let count = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
+    let plot = Plot::new(x, y, w, h, x_max, y_max);
+    chart::frame(
+        c,
+        "ASN chart",
+        &plot,
+        &Axes {
+            title: text::ASN_TITLE,
+            x_label: text::quality_axis(f.per_unit),
+            y_label: text::ASN_AXIS,
+            x_max,
+            y_max,
+            x_tick: &axis,
+            y_tick: &count,
+            x_step: None,
+            y_step: None,
+        },
+    );
+    let avoid: Vec<chart::LabelBox> = single_n
+        .iter()
+        .map(|&n| chart::horizontal_guide(c, &plot, n as f64, &text::single_reference(n)))
+        .collect();
+    chart::curve(c, &plot, &asn, 1.3, chart::curve_colour(), None);
+    let marks = [
+        Mark {
+            x: p1,
+            y: at_p1,
+            label: text::asn_at_p1(at_p1).join(" "),
+            stacked: Some(text::asn_at_p1(at_p1)),
+        },
+        Mark {
+            x: q_max,
+            y: asn_max,
+            label: text::largest_asn(asn_max, &f.q(q_max)).join(" "),
+            stacked: Some(text::largest_asn(asn_max, &f.q(q_max))),
+        },
+    ];
+    let guide_y = single_n.map(|n| plot.sy(n as f64));
+    chart::marks(c, &plot, &marks, None, guide_y, &[&asn], &avoid);
+}
+
+/// The decision chart of an item-by-item plan: units inspected across,
+/// running count up; the accept, continue and reject zones shaded and
+/// bounded by the stepped acceptance and rejection numbers; the two lines
+/// dashed; the truncation marked.
+///
+/// A number applies after `n` units, so each run of units `first..=last`
+/// is drawn from `first - 1` to `last`.
+fn decision_chart(
+    c: &mut Canvas,
+    f: &Facts,
+    lines: &SequentialLines,
+    x: f64,
+    y: f64,
+    w: f64,
+    h: f64,
+) {
+    let runs = lines.runs();
+    let t = lines.truncation as f64;
+    let top_reject = runs.iter().map(|r| r.reject).max().unwrap_or(1);
+    let y_max = (top_reject + 1) as f64;
+    let plot = Plot::new(x, y, w, h, t, y_max);
+    // The stepped numbers as page polylines in data units.
+    let mut reject_steps = Vec::new();
+    let mut accept_steps = Vec::new();
+    for r in &runs {
+        let (a, b) = ((r.first - 1) as f64, r.last as f64);
+        reject_steps.push((a, r.reject as f64));
+        reject_steps.push((b, r.reject as f64));
+        if let Some(acc) = r.accept {
+            accept_steps.push((a, acc as f64));
+            accept_steps.push((b, acc as f64));
+        }
+    }
+    // Zones first, so that the gridlines stay visible over them.
+    chart::zone(
+        c,
+        &plot,
+        &[(0.0, 0.0), (t, 0.0), (t, y_max), (0.0, y_max)],
+        rgb(1.0, 0.97, 0.86),
+    );
+    let mut reject_zone = reject_steps.clone();
+    reject_zone.extend([(t, y_max), (0.0, y_max)]);
+    chart::zone(c, &plot, &reject_zone, rgb(0.98, 0.86, 0.84));
+    if let (Some(&(a0, _)), Some(&(b1, _))) = (accept_steps.first(), accept_steps.last()) {
+        let mut accept_zone = vec![(a0, 0.0)];
+        accept_zone.extend(accept_steps.iter().copied());
+        accept_zone.push((b1, 0.0));
+        chart::zone(c, &plot, &accept_zone, rgb(0.84, 0.94, 0.85));
+    }
+    let count = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
+    let y_label = text::decision_y(f.per_unit);
+    chart::frame(
+        c,
+        "decision chart",
+        &plot,
+        &Axes {
+            title: text::DECISION_TITLE,
+            x_label: text::DECISION_X,
+            y_label: &y_label,
+            x_max: t,
+            y_max,
+            x_tick: &count,
+            y_tick: &count,
+            x_step: None,
+            y_step: Some(if y_max <= 12.0 { 1.0 } else { nice_step(y_max) }),
+        },
+    );
+    // The lines, where they lie inside the chart.
+    let line_at = |n: f64, intercept: f64| lines.slope * n + intercept;
+    let dash = Some(1.5);
+    chart::curve(
+        c,
+        &plot,
+        &[
+            (0.0, line_at(0.0, lines.h_reject)),
+            (t, line_at(t, lines.h_reject)),
+        ],
+        0.6,
+        grey(0.25),
+        dash,
+    );
+    let n0 = lines.h_accept / lines.slope;
+    if n0 < t {
+        chart::curve(
+            c,
+            &plot,
+            &[(n0, 0.0), (t, line_at(t, -lines.h_accept))],
+            0.6,
+            grey(0.25),
+            dash,
+        );
+    }
+    chart::curve(c, &plot, &reject_steps, 1.2, reject_colour(), None);
+    if !accept_steps.is_empty() {
+        chart::curve(c, &plot, &accept_steps, 1.2, accept_colour(), None);
+    }
+    // The truncation: the last unit decides every count.
+    let tx = plot.sx(t);
+    let fa = plot.sy(lines.final_acceptance as f64);
+    c.line(&[(tx, plot.bottom), (tx, fa)], 2.0, accept_colour(), None);
+    c.line(
+        &[
+            (tx, plot.sy((lines.final_acceptance + 1) as f64)),
+            (tx, plot.top),
+        ],
+        2.0,
+        reject_colour(),
+        None,
+    );
+    // Zone labels, each where it fits inside its zone. The numbers never
+    // fall as n grows (before the truncation item), so over a span of
+    // units the zone between them is narrowest at its ends: one test per
+    // position. A label without room is left out; the colours say the same.
+    let size = 6.5;
+    let label_h = size * 0.3528 * 0.75;
+    let pad = 0.8;
+    let per_unit_mm = (plot.right - plot.left) / t;
+    // The unit whose step the page x `px` lies on (units n - 1 to n).
+    let unit_at = |px: f64| {
+        (((px - plot.left) / per_unit_mm).floor() as u64 + 1)
+            .min(lines.truncation - 1)
+            .max(1)
+    };
+    let accept_at = |n: u64| lines.acceptance_number(n).map_or(0.0, |a| a as f64);
+    let reject_at = |n: u64| lines.rejection_number(n) as f64;
+    let last_open = (t - 1.0).max(0.0);
+    let zone_label = |c: &mut Canvas, lx: f64, ly: f64, label: &str, color: printpdf::Color| {
+        c.text(lx, ly, label, Face::Bold, size, color);
+    };
+    // Reject: top left, above the rejection numbers.
+    let rw = c.width(text::REJECT_ZONE, Face::Bold, size);
+    let (rx, ry) = (plot.left + 1.5, plot.top - 1.0 - label_h);
+    if plot.sy(reject_at(unit_at(rx + rw))) + pad <= ry - 0.3 {
+        zone_label(c, rx, ry, text::REJECT_ZONE, reject_colour());
+    }
+    // Accept: bottom right, below the acceptance numbers, clear of the
+    // truncation item.
+    let aw = c.width(text::ACCEPT_ZONE, Face::Bold, size);
+    let (ax, ay) = (plot.sx(last_open) - 1.5 - aw, plot.bottom + 1.0);
+    if ax > plot.left && plot.sy(accept_at(unit_at(ax))) >= ay + label_h + pad {
+        zone_label(c, ax, ay, text::ACCEPT_ZONE, accept_colour());
+    }
+    // Go on: where the open counts leave the most room, away from the
+    // other two labels.
+    let cw = c.width(text::CONTINUE_ZONE, Face::Bold, size);
+    let room = |lx: f64| {
+        let (n0, n1) = (unit_at(lx), unit_at(lx + cw));
+        (plot.sy(reject_at(n0)), plot.sy(accept_at(n1)))
+    };
+    let span = plot.sx(last_open) - plot.left - cw - 2.0;
+    let best = (0..=40)
+        .map(|i| plot.left + 1.0 + span * i as f64 / 40.0)
+        // Left of the accept label, which sits at the bottom right.
+        .filter(|&lx| lx + cw < ax - 1.0)
+        .map(|lx| {
+            let (top_y, bottom_y) = room(lx);
+            (lx, top_y - bottom_y, 0.5 * (top_y + bottom_y))
+        })
+        .max_by(|p, q| p.1.total_cmp(&q.1));
+    if let Some((lx, gap, mid_y)) = best
+        && gap >= label_h + 2.0 * pad
+    {
+        zone_label(
+            c,
+            lx,
+            mid_y - label_h / 2.0,
+            text::CONTINUE_ZONE,
+            rgb(0.45, 0.35, 0.05),
+        );
+    }
+    // The truncation, on the title's line at the right, above its bar.
+    let trunc = text::truncation(lines.truncation, lines.final_acceptance);
+    let tw = c.width(&trunc, Face::Regular, size);
+    c.text(
+        tx - tw,
+        y + h - 3.5,
+        &trunc,
+        Face::Regular,
+        size,
+        grey(0.15),
+    );
+    let title_w = c.width(text::DECISION_TITLE, Face::Bold, 8.0);
+    if title_w + 2.0 + tw > tx - x {
+        c.faults
+            .push(format!("decision chart: '{trunc}' has no room"));
+    }
+}
+
 /// The risk table: each agreed point against what the plan achieves.
 fn risk_table(c: &mut Canvas, f: &Facts, left: f64, top: f64, width: f64, risk_h: f64) {
     let right = left + width;
@@ -631,11 +1453,19 @@ fn oc_chart(
             x: producer.quality,
             y: pa1,
             label: format!("p₁ = {}, Pa = {:.3}", f.q(producer.quality), pa1),
+            stacked: Some([
+                format!("p₁ = {}", f.q(producer.quality)),
+                format!("Pa = {pa1:.3}"),
+            ]),
         },
         Mark {
             x: consumer.quality,
             y: beta,
             label: format!("p₂ = {}, Pa = {:.3}", f.q(consumer.quality), beta),
+            stacked: Some([
+                format!("p₂ = {}", f.q(consumer.quality)),
+                format!("Pa = {beta:.3}"),
+            ]),
         },
     ];
     chart::draw(
@@ -646,7 +1476,7 @@ fn oc_chart(
         w,
         h,
         &Chart {
-            title: text::OC_TITLE,
+            title: text::oc_title(c, w),
             x_label: text::quality_axis(f.per_unit),
             y_label: text::OC_AXIS,
             x_max,
@@ -679,6 +1509,7 @@ fn aoq_chart(
         x: limit.quality,
         y: limit.value,
         label: format!("AOQL = {}", f.q(limit.value)),
+        stacked: None,
     }];
     chart::draw(
         c,
@@ -703,8 +1534,8 @@ fn aoq_chart(
 }
 
 /// Height of the measures table of `evaluation`.
-fn measures_height(evaluation: &Evaluation) -> f64 {
-    8.0 + 4.2 * (evaluation.points.len() as f64 + 1.0)
+fn measures_height(evaluation: &Evaluation, pitch: f64) -> f64 {
+    8.0 + pitch * (evaluation.points.len() as f64 + 1.0)
 }
 
 /// The measures table: Pa, AOQ, ATI and ASN at the default qualities.
@@ -722,7 +1553,8 @@ fn measures_table(
     c.heading(left, top - 3.5, text::MEASURES);
     let tcols = [left + 24.0, left + 46.0, left + 72.0, left + 96.0];
     let heads = text::MEASURE_HEADS;
-    let ty = |i: usize| top - 8.0 - 4.2 * i as f64;
+    let pitch = (table_h - 8.0) / (evaluation.points.len() as f64 + 1.0);
+    let ty = |i: usize| top - 8.0 - pitch * i as f64;
     c.text(left + 1.0, ty(0), heads[0], Face::Bold, 7.0, black());
     for (j, h) in heads[1..].iter().enumerate() {
         c.text_right(tcols[j], ty(0), h, Face::Bold, 7.0, black());
@@ -754,7 +1586,11 @@ fn measures_table(
             },
             m.ati
                 .map_or(text::NOT_GIVEN.to_string(), |v| format!("{v:.0}")),
-            format!("{:.0}", m.asn),
+            if f.plan.as_single().is_some() {
+                format!("{:.0}", m.asn)
+            } else {
+                format!("{:.1}", m.asn)
+            },
         ];
         for (j, cell) in cells.iter().enumerate() {
             c.cell_right(
@@ -832,15 +1668,15 @@ fn signatures(c: &mut Canvas, f: &Facts, sig_x: f64, top: f64, sig_w: f64, table
 }
 
 /// The footer at the bottom margin: the cautions and the provenance line.
-fn footer(c: &mut Canvas, f: &Facts, frame: Frame) {
+fn footer(c: &mut Canvas, f: &Facts, frame: Frame, foot_h: f64) {
     let Frame {
         left,
         right,
         width,
         margin,
     } = frame;
-    let foot_top = margin + FOOT_H;
-    c.claim("footer", left, margin, width, FOOT_H);
+    let foot_top = margin + foot_h;
+    c.claim("footer", left, margin, width, foot_h);
     c.line(&[(left, foot_top), (right, foot_top)], 0.6, grey(0.0), None);
     let used = c.paragraph(
         "caution",
