@@ -975,13 +975,16 @@ fn choose_box<T: Copy>(
     lowest
 }
 
-/// The most columns an item table is split into.
-const MAX_ITEM_COLUMNS: usize = 3;
+/// The most columns an item table is split into. Three columns of about
+/// 47 mm would leave the procedure beside them under its least width on
+/// either paper, and a procedure below them would cost more height than
+/// the third column saves, for any table the page can hold.
+const MAX_ITEM_COLUMNS: usize = 2;
 
 /// The narrowest the procedure may be beside an item table.
 const MIN_PROCEDURE_W: f64 = 58.0;
 
-/// The item-by-item plan's box: the item table (in one to three columns)
+/// The item-by-item plan's box: the item table (in one or two columns)
 /// and the lines it comes from on the left, the procedure on the right;
 /// the split and the procedure size by [`choose_box`]. When no split fits,
 /// an overflow: the table is never cut short. Returns the box height.
