@@ -35,11 +35,28 @@ impl Region {
     }
 }
 
+/// How a paragraph wraps at the size where it fits (see [`Canvas::fit`]).
+pub struct Fit {
+    /// The font size, points.
+    pub size: f64,
+    /// Baseline to baseline, mm.
+    pub lead: f64,
+    /// Height of all lines, mm.
+    pub height: f64,
+    /// Whether the lines fit the box at this size.
+    pub fits: bool,
+    /// The lines.
+    pub lines: Vec<String>,
+}
+
 pub struct Canvas<'f> {
     pub ops: Vec<Op>,
     pub regions: Vec<Region>,
     /// Text that did not fit its box even at the smallest size (must stay empty).
     pub overflows: Vec<String>,
+    /// Blocks, tables, charts or labels that do not fit the page, whatever
+    /// the source's text (must stay empty).
+    pub faults: Vec<String>,
     regular: &'f ParsedFont,
     bold: &'f ParsedFont,
 }
@@ -82,6 +99,7 @@ impl<'f> Canvas<'f> {
             ops: Vec::new(),
             regions: Vec::new(),
             overflows: Vec::new(),
+            faults: Vec::new(),
             regular,
             bold,
         }
@@ -177,6 +195,33 @@ impl<'f> Canvas<'f> {
         lines
     }
 
+    /// How `text` wraps into a box `w` mm wide and `h` mm tall: the size
+    /// from `size` down to `min_size` (in half points) at which it first
+    /// fits, or `min_size` when it never does.
+    #[allow(clippy::too_many_arguments)]
+    pub fn fit(&self, text: &str, face: Face, w: f64, h: f64, size: f64, min_size: f64) -> Fit {
+        let mut s = size;
+        loop {
+            let lines = self.wrap(text, face, s, w);
+            let lead = s * 0.3528 * 1.25;
+            let need = lead * lines.len() as f64;
+            let widest = lines
+                .iter()
+                .map(|l| self.width(l, face, s))
+                .fold(0.0, f64::max);
+            if (need <= h && widest <= w + 1e-6) || s <= min_size {
+                return Fit {
+                    size: s,
+                    lead,
+                    height: need,
+                    fits: need <= h + 1e-6 && widest <= w + 1e-6,
+                    lines,
+                };
+            }
+            s -= 0.5;
+        }
+    }
+
     /// Writes `text` wrapped into the box `(x, top, w, h)`, shrinking from
     /// `size` down to `min_size` until it fits; records an overflow when it
     /// never does. Returns the height used.
@@ -193,27 +238,55 @@ impl<'f> Canvas<'f> {
         size: f64,
         min_size: f64,
     ) -> f64 {
-        let mut s = size;
-        loop {
-            let lines = self.wrap(text, face, s, w);
-            let lead = s * 0.3528 * 1.25;
-            let need = lead * lines.len() as f64;
-            let widest = lines
-                .iter()
-                .map(|l| self.width(l, face, s))
-                .fold(0.0, f64::max);
-            if (need <= h && widest <= w + 1e-6) || s <= min_size {
-                if need > h + 1e-6 || widest > w + 1e-6 {
-                    self.overflows.push(format!("{name}: '{text}'"));
-                }
-                for (i, l) in lines.iter().enumerate() {
-                    let y = top - s * 0.3528 - lead * i as f64;
-                    self.text(x, y, l, face, s, grey(0.0));
-                }
-                return need;
-            }
-            s -= 0.5;
+        let fit = self.fit(text, face, w, h, size, min_size);
+        if !fit.fits {
+            self.overflows.push(format!("{name}: '{text}'"));
         }
+        for (i, l) in fit.lines.iter().enumerate() {
+            let y = top - fit.size * 0.3528 - fit.lead * i as f64;
+            self.text(x, y, l, face, fit.size, grey(0.0));
+        }
+        fit.height
+    }
+
+    /// Writes one table cell right-aligned at `x_right`, recording an
+    /// overflow when it is wider than the `w` mm of its column.
+    #[allow(clippy::too_many_arguments)]
+    pub fn cell_right(
+        &mut self,
+        name: &str,
+        x_right: f64,
+        w: f64,
+        y: f64,
+        text: &str,
+        face: Face,
+        size: f64,
+        color: Color,
+    ) {
+        if self.width(text, face, size) > w + 1e-6 {
+            self.overflows.push(format!("{name}: '{text}'"));
+        }
+        self.text_right(x_right, y, text, face, size, color);
+    }
+
+    /// Writes one table cell left-aligned at `x`, recording an overflow
+    /// when it is wider than the `w` mm of its column.
+    #[allow(clippy::too_many_arguments)]
+    pub fn cell(
+        &mut self,
+        name: &str,
+        x: f64,
+        w: f64,
+        y: f64,
+        text: &str,
+        face: Face,
+        size: f64,
+        color: Color,
+    ) {
+        if self.width(text, face, size) > w + 1e-6 {
+            self.overflows.push(format!("{name}: '{text}'"));
+        }
+        self.text(x, y, text, face, size, color);
     }
 
     pub fn line(&mut self, pts: &[(f64, f64)], thickness: f64, color: Color, dash: Option<f32>) {
@@ -255,7 +328,7 @@ impl<'f> Canvas<'f> {
     }
 
     /// A filled polygon through `pts`.
-    fn fill(&mut self, pts: &[(f64, f64)], color: Color) {
+    pub fn fill(&mut self, pts: &[(f64, f64)], color: Color) {
         self.ops.push(Op::SaveGraphicsState);
         self.ops.push(Op::SetFillColor { col: color });
         self.ops.push(Op::DrawPolygon {

@@ -14,16 +14,21 @@
 
 mod canvas;
 mod chart;
+mod text;
 
 use sha2::{Digest, Sha256};
 
+use crate::design::DesignRequest;
+use crate::design::design_single;
 use crate::error::{Error, InputError};
-use crate::model::ModelKind;
-use crate::plan::{aoql, evaluate, measures, quality_at_pa};
+use crate::model::{Model, ModelKind};
+use crate::plan::{
+    Evaluation, SequentialLines, StagedPlan, aoql, evaluate, largest_asn, measures, quality_at_pa,
+};
 use crate::report::{format_quality, format_significant, words};
-use crate::source::{PlanSource, tool_version};
+use crate::source::{PlanSource, RecordedPlan, tool_version};
 use canvas::{BOLD_ID, Canvas, Face, REGULAR_ID, Region, grey, rgb};
-use chart::{Chart, Mark, nice_ceiling};
+use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
 
 const REGULAR_TTF: &[u8] = include_bytes!("fonts/DejaVuSans.ttf");
 const BOLD_TTF: &[u8] = include_bytes!("fonts/DejaVuSans-Bold.ttf");
@@ -69,14 +74,91 @@ pub fn source_hash(text: &str) -> String {
 /// document subject), for `verify --sheet`.
 pub const HASH_PREFIX: &str = "lotsman-source-sha256:";
 
+/// What every block of the sheet prints from, gathered once.
+struct Facts<'a> {
+    source: &'a PlanSource,
+    recorded: &'a RecordedPlan,
+    request: DesignRequest,
+    model: Model,
+    plan: StagedPlan,
+    per_unit: bool,
+    hash: String,
+    file_name: &'a str,
+}
+
+impl Facts<'_> {
+    /// A quality as the sheet prints it (percent, or per unit for Poisson).
+    fn q(&self, v: f64) -> String {
+        format_quality(v, self.per_unit)
+    }
+
+    /// Pa at the producer's point, as the source records it.
+    fn pa_at_p1(&self) -> f64 {
+        1.0 - self.recorded.producer_risk
+    }
+}
+
+/// A field of the source, or a dash.
+fn given(v: &Option<String>) -> String {
+    v.clone().unwrap_or_else(|| text::NOT_GIVEN.to_string())
+}
+
+/// The printable part of the page.
+#[derive(Clone, Copy)]
+struct Frame {
+    left: f64,
+    right: f64,
+    width: f64,
+    /// The page margin, which is also the bottom of the footer.
+    margin: f64,
+}
+
+/// Height of the footer (cautions and provenance).
+const FOOT_H: f64 = 25.0;
+
+/// The chart height below which a sheet is not printed: the curves and
+/// their labels would no longer read.
+const MIN_CHART_H: f64 = 50.0;
+
+/// One point of the curves against quality, from one evaluation.
+#[derive(Clone, Copy)]
+struct CurvePoint {
+    p: f64,
+    pa: f64,
+    aoq: f64,
+    asn: f64,
+}
+
+/// The quality axis and the curve points of a plan: 241 even steps up to
+/// where Pa has fallen to 0.02 (or 1.2 p2 if that is further).
+fn curve_points(f: &Facts) -> (f64, Vec<CurvePoint>) {
+    let consumer = f.request.risks.consumer();
+    let x_max = nice_ceiling(quality_at_pa(&f.plan, &f.model, 0.02).max(consumer.quality * 1.2));
+    let points = (0..=240)
+        .map(|i| x_max * i as f64 / 240.0)
+        .map(|v| v.max(x_max * 1e-6))
+        // One evaluation per point serves every curve.
+        .map(|p| {
+            let m = measures(&f.plan, &f.model, p);
+            CurvePoint {
+                p,
+                pa: m.pa,
+                aoq: m.aoq,
+                asn: m.asn,
+            }
+        })
+        .collect();
+    (x_max, points)
+}
+
 /// Renders the sheet of `source` (parsed from `text`, which is hashed);
 /// `file_name` is printed in the provenance line.
 ///
 /// # Errors
 /// [`Error`] when the source records no plan or the plan is invalid, or
-/// when a text does not fit its box even at the smallest size or holds a
-/// character the sheet font cannot draw (a sheet is never printed with
-/// overflowing or missing text).
+/// when a text does not fit its box even at the smallest size, holds a
+/// character the sheet font cannot draw, or two blocks would overlap (a
+/// sheet is never printed with overflowing, overlapping or missing text).
 pub fn render_sheet(
     text: &str,
     source: &PlanSource,
@@ -90,8 +172,16 @@ pub fn render_sheet(
         .plan
         .as_ref()
         .ok_or_else(|| InputError::Inconsistent("no plan".into()))?;
-    let hash = source_hash(text);
-    let mut warnings = Vec::new();
+    let facts = Facts {
+        source,
+        recorded,
+        per_unit: model.kind() == ModelKind::Poisson,
+        request,
+        model,
+        plan,
+        hash: source_hash(text),
+        file_name,
+    };
     let regular = printpdf::ParsedFont::from_bytes(REGULAR_TTF, 0, &mut Vec::new());
     let bold = printpdf::ParsedFont::from_bytes(BOLD_TTF, 0, &mut Vec::new());
     let (Some(regular), Some(bold)) = (regular, bold) else {
@@ -101,16 +191,179 @@ pub fn render_sheet(
     };
     let (pw, ph) = paper.size();
     let mut c = Canvas::new(&regular, &bold);
-    let per_unit = model.kind() == ModelKind::Poisson;
-    let q = |v: f64| format_quality(v, per_unit);
     let margin = 14.0;
-    let (left, right) = (margin, pw - margin);
-    let width = right - left;
-    let black = || grey(0.0);
-    let mut top = ph - margin;
+    let frame = Frame {
+        left: margin,
+        right: pw - margin,
+        width: pw - 2.0 * margin,
+        margin,
+    };
+    match facts.plan.as_single() {
+        Some((n, ac)) => single_layout(&mut c, &facts, frame, ph - margin, n, ac)?,
+        None => staged_layout(&mut c, &facts, frame, ph - margin)?,
+    }
+    let Canvas {
+        ops,
+        regions,
+        overflows,
+        mut faults,
+        ..
+    } = c;
+    faults.extend(placement_faults(&regions, pw, ph));
+    if !overflows.is_empty() || !faults.is_empty() {
+        let mut parts = Vec::new();
+        if !overflows.is_empty() {
+            parts.push(format!(
+                "{}; shorten the text in the source",
+                overflows.join("; ")
+            ));
+        }
+        if !faults.is_empty() {
+            let paper_hint = match paper {
+                Paper::Letter => " (A4 is taller: try --paper a4)",
+                Paper::A4 => "",
+            };
+            parts.push(format!(
+                "{}; the plan is too long for one page{paper_hint}, and the terminal and JSON reports give its tables in full",
+                faults.join("; ")
+            ));
+        }
+        return Err(InputError::Inconsistent(format!(
+            "the sheet cannot be laid out: {}",
+            parts.join("; ")
+        ))
+        .into());
+    }
+    let pdf = save(&facts, &regular, &bold, pw, ph, ops)?;
+    Ok(Sheet {
+        pdf,
+        source_sha256: facts.hash,
+        regions,
+    })
+}
 
-    // Title block.
-    let block_h = 40.0;
+/// Blocks that leave the page or overlap another block.
+fn placement_faults(regions: &[Region], pw: f64, ph: f64) -> Vec<String> {
+    let mut faults = Vec::new();
+    for (i, a) in regions.iter().enumerate() {
+        if a.x < 0.0 || a.y < 0.0 || a.x + a.w > pw || a.y + a.h > ph {
+            faults.push(format!("the {} leaves the page", a.name));
+        }
+        for b in &regions[i + 1..] {
+            if a.overlaps(b) {
+                faults.push(format!("the {} overlaps the {}", a.name, b.name));
+            }
+        }
+    }
+    faults
+}
+
+/// The PDF of one page of `ops`, with the fonts, the source hash in the
+/// subject and the document ID set from it.
+fn save(
+    f: &Facts,
+    regular: &printpdf::ParsedFont,
+    bold: &printpdf::ParsedFont,
+    pw: f64,
+    ph: f64,
+    ops: Vec<printpdf::Op>,
+) -> Result<Vec<u8>, Error> {
+    let mut warnings = Vec::new();
+    let mut doc = printpdf::PdfDocument::new(&f.source.title);
+    doc.metadata.info.subject = format!("{HASH_PREFIX}{}", f.hash);
+    doc.resources.fonts.map.insert(
+        printpdf::FontId(REGULAR_ID.to_string()),
+        printpdf::PdfFont::new(regular.clone()),
+    );
+    doc.resources.fonts.map.insert(
+        printpdf::FontId(BOLD_ID.to_string()),
+        printpdf::PdfFont::new(bold.clone()),
+    );
+    doc.with_pages(vec![printpdf::PdfPage::new(
+        printpdf::Mm(pw as f32),
+        printpdf::Mm(ph as f32),
+        ops,
+    )]);
+    let mut lo = doc.to_lopdf_document(&printpdf::PdfSaveOptions::default(), &mut warnings);
+    let id = lopdf::Object::String(
+        f.hash.as_bytes()[..32].to_vec(),
+        lopdf::StringFormat::Literal,
+    );
+    lo.trailer
+        .set("ID", lopdf::Object::Array(vec![id.clone(), id]));
+    lo.compress();
+    let mut pdf = Vec::new();
+    lo.save_to(&mut pdf)
+        .map_err(|e| Error::Output(std::io::Error::other(e.to_string())))?;
+    Ok(pdf)
+}
+
+/// The single plan's page: title block, plan box, risk table, OC and AOQ
+/// charts side by side, measures table beside the signatures, footer.
+fn single_layout(
+    c: &mut Canvas,
+    f: &Facts,
+    frame: Frame,
+    mut top: f64,
+    n: u64,
+    ac: u64,
+) -> Result<(), Error> {
+    let Frame {
+        left,
+        right,
+        width,
+        margin,
+    } = frame;
+    let title_h = 40.0;
+    title_block(c, f, left, top, width, title_h);
+    top -= title_h + 4.0;
+    let plan_h = 42.0;
+    single_plan_box(c, f, left, top, width, plan_h, n, ac);
+    top -= plan_h + 4.0;
+    let risk_h = 20.0;
+    risk_table(c, f, left, top, width, risk_h);
+    top -= risk_h + 3.0;
+
+    // Charts take the height that the table and footer leave.
+    let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
+    let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
+    let table_h = measures_height(&evaluation, 4.2);
+    let foot_top = margin + FOOT_H;
+    let chart_h = (top - 4.0 - table_h - 3.0 - foot_top).min(85.0);
+    let chart_w = (width - 6.0) / 2.0;
+    let (x_max, points) = curve_points(f);
+    let chart_top = top - chart_h;
+    oc_chart(c, f, &points, x_max, left, chart_top, chart_w, chart_h);
+    aoq_chart(
+        c,
+        f,
+        &points,
+        x_max,
+        left + chart_w + 6.0,
+        chart_top,
+        chart_w,
+        chart_h,
+    );
+    top = chart_top - 4.0;
+
+    let table_w = 112.0;
+    measures_table(c, f, &evaluation, left, top, table_w, table_h);
+    let sig_x = left + table_w + 4.0;
+    signatures(c, f, sig_x, top, right - sig_x, table_h);
+    footer(c, f, frame, FOOT_H);
+    if chart_h < MIN_CHART_H || top - table_h < foot_top + 2.0 {
+        c.faults
+            .push("the page is too short for its blocks".to_string());
+    }
+    Ok(())
+}
+
+/// The title block: title, item and characteristic on the left; plan ID,
+/// revision, date, lot size and scheme on the right.
+fn title_block(c: &mut Canvas, f: &Facts, left: f64, top: f64, width: f64, block_h: f64) {
+    let source = f.source;
+    let right = left + width;
+    let black = || grey(0.0);
     c.claim("title block", left, top - block_h, width, block_h);
     c.rect_stroke(left, top - block_h, width, block_h, 0.8, black());
     let meta_w = 52.0;
@@ -118,7 +371,7 @@ pub fn render_sheet(
     c.text(
         left + 3.0,
         top - 4.5,
-        "INCOMING INSPECTION PLAN",
+        text::KICKER,
         Face::Bold,
         6.5,
         grey(0.35),
@@ -134,13 +387,9 @@ pub fn render_sheet(
         14.0,
         8.0,
     );
-    let opt = |v: &Option<String>| v.clone().unwrap_or_else(|| "—".to_string());
-    let lot = model
-        .lot_size()
-        .map_or("not stated".to_string(), |n| format!("{n} units"));
     let fields = [
-        ("Item", opt(&source.item)),
-        ("Characteristic", opt(&source.characteristic)),
+        (text::ITEM, given(&source.item)),
+        (text::CHARACTERISTIC, given(&source.characteristic)),
     ];
     let mut fy = top - 8.5 - title_used;
     for (label, value) in fields {
@@ -166,16 +415,22 @@ pub fn render_sheet(
         black(),
         None,
     );
-    let scheme_model = format!("{}, {}", source.scheme.name(), model.kind().name());
+    let lot = f
+        .model
+        .lot_size()
+        .map_or(text::NO_LOT_SIZE.to_string(), |n| format!("{n} units"));
+    let scheme_model = format!("{}, {}", source.scheme.name(), f.model.kind().name());
     let meta = [
-        ("Plan ID", opt(&source.id)),
-        ("Revision", opt(&source.revision)),
-        ("Date", opt(&source.date)),
-        ("Lot size", lot),
-        ("Scheme", scheme_model),
+        (text::PLAN_ID, given(&source.id)),
+        (text::REVISION, given(&source.revision)),
+        (text::DATE, given(&source.date)),
+        (text::LOT_SIZE, lot),
+        (text::SCHEME, scheme_model),
     ];
+    // Five rows spread over the block's height.
+    let pitch = (block_h - 5.0) / 5.0;
     for (i, (label, value)) in meta.iter().enumerate() {
-        let y = top - 6.0 - 7.0 * i as f64;
+        let y = top - 6.0 - pitch * i as f64;
         c.text(meta_x, y, label, Face::Bold, 6.5, grey(0.35));
         c.paragraph(
             label,
@@ -189,10 +444,10 @@ pub fn render_sheet(
             5.5,
         );
     }
-    top -= block_h + 4.0;
+}
 
-    // The plan itself.
-    let plan_h = 42.0;
+/// The plan box's frame: a tinted box with a blue rule.
+fn plan_frame(c: &mut Canvas, left: f64, top: f64, width: f64, plan_h: f64) {
     c.claim("plan", left, top - plan_h, width, plan_h);
     c.rect_fill(left, top - plan_h, width, plan_h, rgb(0.93, 0.95, 0.98));
     c.rect_stroke(
@@ -203,33 +458,52 @@ pub fn render_sheet(
         1.2,
         rgb(0.05, 0.25, 0.55),
     );
-    let Some((n, ac)) = plan.as_single() else {
-        return Err(InputError::Inconsistent(
-            "the sheet prints single plans; this source records a staged plan".to_string(),
-        )
-        .into());
-    };
+}
+
+/// Green for accepting, red for rejecting.
+fn accept_colour() -> printpdf::Color {
+    rgb(0.0, 0.4, 0.1)
+}
+
+fn reject_colour() -> printpdf::Color {
+    rgb(0.6, 0.1, 0.05)
+}
+
+/// The single plan's box: the sample size and the two decisions on the
+/// left, the procedure on the right.
+#[allow(clippy::too_many_arguments)]
+fn single_plan_box(
+    c: &mut Canvas,
+    f: &Facts,
+    left: f64,
+    top: f64,
+    width: f64,
+    plan_h: f64,
+    n: u64,
+    ac: u64,
+) {
+    plan_frame(c, left, top, width, plan_h);
     let col = 76.0;
-    c.heading(left + 4.0, top - 7.0, "SAMPLE SIZE");
+    c.heading(left + 4.0, top - 7.0, text::SAMPLE_SIZE);
     c.text(
         left + 4.0,
         top - 19.0,
         &format!("n = {n}"),
         Face::Bold,
         24.0,
-        black(),
+        grey(0.0),
     );
-    let what = words::counted(per_unit);
+    let what = words::counted(f.per_unit);
     let decisions = [
         (
             format!("Accept if ≤ {ac} {what}"),
             top - 27.0,
-            rgb(0.0, 0.4, 0.1),
+            accept_colour(),
         ),
         (
             format!("Reject if ≥ {} {what}", ac + 1),
             top - 32.5,
-            rgb(0.6, 0.1, 0.05),
+            reject_colour(),
         ),
     ];
     for (line, y, color) in decisions {
@@ -238,56 +512,872 @@ pub fn render_sheet(
         }
         c.text(left + 4.0, y, &line, Face::Bold, 9.5, color);
     }
-    c.heading(left + col + 4.0, top - 7.0, "INSPECTOR'S PROCEDURE");
-    // One paragraph per step, each in what the earlier steps left.
-    let mut step_top = top - 9.0;
-    let box_bottom = top - plan_h + 2.0;
-    for step in words::procedure(n, ac, per_unit) {
-        let used = c.paragraph(
-            "procedure",
-            left + col + 4.0,
-            step_top,
-            width - col - 8.0,
-            step_top - box_bottom,
-            &step,
-            Face::Regular,
-            8.0,
-            7.0,
-        );
-        step_top -= used + 0.8;
-    }
+    procedure(
+        c,
+        f,
+        left + col + 4.0,
+        top,
+        width - col - 8.0,
+        top - plan_h + 2.0,
+        8.0,
+    );
     c.line(
         &[(left + col, top - 3.0), (left + col, top - plan_h + 3.0)],
         0.4,
         grey(0.6),
         None,
     );
-    top -= plan_h + 4.0;
+}
 
-    // Risk points.
-    let (producer, consumer) = (request.risks.producer(), request.risks.consumer());
-    let risk_h = 20.0;
-    c.claim("risks", left, top - risk_h, width, risk_h);
-    c.heading(
+/// The inspector's procedure under its heading at `(x, top)`, one
+/// paragraph per step, each in what the earlier steps left above `bottom`.
+fn procedure(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, bottom: f64, size: f64) {
+    c.heading(x, top - 7.0, text::PROCEDURE);
+    let mut step_top = top - 9.0;
+    for step in words::plan_procedure(&f.plan, f.per_unit) {
+        let used = c.paragraph(
+            "procedure",
+            x,
+            step_top,
+            w,
+            step_top - bottom,
+            &step,
+            Face::Regular,
+            size,
+            7.0,
+        );
+        step_top -= used + 0.8;
+    }
+}
+
+/// Height the procedure takes in a column `w` mm wide at `size`, heading
+/// and bottom padding included (see [`procedure`]).
+fn procedure_height(c: &Canvas, f: &Facts, w: f64, size: f64) -> f64 {
+    let steps = words::plan_procedure(&f.plan, f.per_unit);
+    let text: f64 = steps
+        .iter()
+        .map(|s| c.fit(s, Face::Regular, w, f64::INFINITY, size, size).height)
+        .sum();
+    11.0 + text + 0.8 * (steps.len() as f64 - 1.0)
+}
+
+/// Sizes of the procedure text, largest first, that a staged plan box
+/// tries.
+const PROCEDURE_SIZES: [f64; 3] = [8.0, 7.5, 7.0];
+
+/// Gap between the blocks of a staged sheet.
+const GAP: f64 = 3.0;
+
+/// The staged sheets' title block and footer: a little lower than the
+/// single sheet's, for the room the stage or item table needs.
+const STAGED_TITLE_H: f64 = 34.0;
+const STAGED_FOOT_H: f64 = 17.0;
+
+/// The page of a double, multiple or item-by-item plan: title block; plan
+/// box with the stage or item table beside the procedure; risk table; the
+/// charts (OC and ASN, and first the decision chart for an item-by-item
+/// plan); measures table beside the signatures; footer.
+fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Result<(), Error> {
+    let Frame {
         left,
-        top - 3.5,
-        "AGREED RISK POINTS AND WHAT THIS PLAN ACHIEVES",
-    );
-    let cols = [left, left + 52.0, left + 84.0, left + 128.0, right];
-    let quality_head = if per_unit {
-        "Quality (per unit)"
-    } else {
-        "Quality"
+        right,
+        width,
+        margin,
+    } = frame;
+    title_block(c, f, left, top, width, STAGED_TITLE_H);
+    top -= STAGED_TITLE_H + GAP;
+    let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
+    let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
+    let table_h = measures_height(&evaluation, 3.9);
+    let foot_top = margin + STAGED_FOOT_H;
+    let risk_h = 20.0;
+    // The plan box may take what the other blocks leave at the smallest
+    // chart height.
+    let below_plan = GAP + risk_h + GAP + MIN_CHART_H + GAP + table_h + GAP;
+    let plan_max = top - below_plan - foot_top;
+    let faults = c.overflows.len() + c.faults.len();
+    let plan_h = match f.plan.sequential_lines() {
+        Some(lines) => item_plan_box(c, f, lines, left, top, width, plan_max),
+        None => stage_plan_box(c, f, left, top, width, plan_max),
     };
-    let heads = [
-        "Risk point",
-        quality_head,
-        "Agreed",
-        "Achieved by this plan",
+    if c.overflows.len() + c.faults.len() > faults {
+        // The rest would be laid out in what is not there; the plan box's
+        // own message says why.
+        return Ok(());
+    }
+    top -= plan_h + GAP;
+    risk_table(c, f, left, top, width, risk_h);
+    top -= risk_h + GAP;
+
+    let chart_h = (top - GAP - table_h - GAP - foot_top).min(85.0);
+    let chart_top = top - chart_h;
+    let (x_max, points) = curve_points(f);
+    match f.plan.sequential_lines() {
+        Some(lines) => {
+            // Three in a row, the decision chart widest.
+            let gap = 4.0;
+            let small = (width - 2.0 * gap) * 0.3;
+            let wide = width - 2.0 * gap - 2.0 * small;
+            decision_chart(c, f, lines, left, chart_top, wide, chart_h);
+            let x2 = left + wide + gap;
+            oc_chart(c, f, &points, x_max, x2, chart_top, small, chart_h);
+            asn_chart(
+                c,
+                f,
+                &points,
+                x_max,
+                x2 + small + gap,
+                chart_top,
+                small,
+                chart_h,
+            );
+        }
+        None => {
+            let chart_w = (width - 6.0) / 2.0;
+            oc_chart(c, f, &points, x_max, left, chart_top, chart_w, chart_h);
+            asn_chart(
+                c,
+                f,
+                &points,
+                x_max,
+                left + chart_w + 6.0,
+                chart_top,
+                chart_w,
+                chart_h,
+            );
+        }
+    }
+    top = chart_top - GAP;
+
+    let table_w = 112.0;
+    measures_table(c, f, &evaluation, left, top, table_w, table_h);
+    let sig_x = left + table_w + 4.0;
+    signatures(c, f, sig_x, top, right - sig_x, table_h);
+    footer(c, f, frame, STAGED_FOOT_H);
+    if chart_h < MIN_CHART_H - 1e-9 || top - table_h < foot_top + 2.0 {
+        c.faults
+            .push("the page is too short for its blocks".to_string());
+    }
+    Ok(())
+}
+
+/// One cell of a plan table.
+struct Cell {
+    text: String,
+    face: Face,
+    color: printpdf::Color,
+}
+
+impl Cell {
+    fn plain(text: String) -> Self {
+        Cell {
+            text,
+            face: Face::Regular,
+            color: grey(0.0),
+        }
+    }
+
+    fn accept(number: Option<u64>) -> Self {
+        Cell {
+            text: number.map_or(text::CANNOT_ACCEPT.to_string(), |a| a.to_string()),
+            face: Face::Bold,
+            color: accept_colour(),
+        }
+    }
+
+    fn reject(number: u64) -> Self {
+        Cell {
+            text: number.to_string(),
+            face: Face::Bold,
+            color: reject_colour(),
+        }
+    }
+}
+
+/// Size of the two-line heads of a plan table.
+const HEAD_SIZE: f64 = 6.5;
+
+/// The type of a plan table's rows: the size of the numbers and the row
+/// pitch (mm).
+#[derive(Clone, Copy)]
+struct RowType {
+    size: f64,
+    pitch: f64,
+}
+
+/// Row types from the largest, which a short stage table takes when the
+/// procedure beside it makes the box tall anyway, to the smallest.
+const ROW_TYPES: [RowType; 3] = [
+    RowType {
+        size: 9.5,
+        pitch: 5.4,
+    },
+    RowType {
+        size: 8.5,
+        pitch: 4.6,
+    },
+    RowType {
+        size: 7.5,
+        pitch: 3.9,
+    },
+];
+
+/// The row types of item tables, which are long: the smallest stage
+/// table type, then a tighter one for a table that would not fit.
+const ITEM_ROWS: [RowType; 2] = [
+    ROW_TYPES[2],
+    RowType {
+        size: 7.0,
+        pitch: 3.5,
+    },
+];
+
+/// Top of a plan table's first row below its top edge: two head lines and
+/// the rule under them.
+const TABLE_HEAD_H: f64 = 7.0;
+
+/// Column widths of a plan table: the widest head line or cell, plus room.
+fn column_widths<const K: usize>(
+    c: &Canvas,
+    heads: &[[&str; 2]; K],
+    rows: &[[Cell; K]],
+    size: f64,
+) -> [f64; K] {
+    let mut widths = [0.0; K];
+    for (j, w) in widths.iter_mut().enumerate() {
+        let head = heads[j]
+            .iter()
+            .map(|h| c.width(h, Face::Bold, HEAD_SIZE))
+            .fold(0.0, f64::max);
+        let cells = rows
+            .iter()
+            .map(|r| c.width(&r[j].text, r[j].face, size))
+            .fold(0.0, f64::max);
+        *w = head.max(cells) + 3.5;
+    }
+    widths
+}
+
+/// A plan table at `(x, top)`: two-line heads, a rule, then one row per
+/// entry in the type `rows_in`, every other row tinted; each cell centred
+/// in its column. Returns the height used.
+#[allow(clippy::too_many_arguments)]
+fn plan_table<const K: usize>(
+    c: &mut Canvas,
+    name: &str,
+    x: f64,
+    top: f64,
+    heads: &[[&str; 2]; K],
+    widths: &[f64; K],
+    rows: &[[Cell; K]],
+    rows_in: RowType,
+) -> f64 {
+    let RowType { size, pitch } = rows_in;
+    let total: f64 = widths.iter().sum();
+    let mut cx = x;
+    for (head, w) in heads.iter().zip(widths) {
+        for (k, line) in head.iter().enumerate() {
+            let lw = c.width(line, Face::Bold, HEAD_SIZE);
+            let y = top - 2.6 - 2.7 * k as f64;
+            c.text(
+                cx + (w - lw) / 2.0,
+                y,
+                line,
+                Face::Bold,
+                HEAD_SIZE,
+                grey(0.25),
+            );
+        }
+        cx += w;
+    }
+    let rule = top - TABLE_HEAD_H + 0.6;
+    c.line(&[(x, rule), (x + total, rule)], 0.5, grey(0.2), None);
+    let first = top - TABLE_HEAD_H;
+    for (i, row) in rows.iter().enumerate() {
+        let row_top = first - pitch * i as f64;
+        if i % 2 == 1 {
+            c.rect_fill(x, row_top - pitch, total, pitch, rgb(0.85, 0.89, 0.95));
+        }
+        let y = row_top - pitch * 0.5 - size * 0.3528 * 0.36;
+        let mut cx = x;
+        for (cell, w) in row.iter().zip(widths) {
+            let tw = c.width(&cell.text, cell.face, size);
+            if tw > w - 1.0 {
+                c.faults
+                    .push(format!("{name}: '{}' is wider than its column", cell.text));
+            }
+            c.text(
+                cx + (w - tw) / 2.0,
+                y,
+                &cell.text,
+                cell.face,
+                size,
+                cell.color.clone(),
+            );
+            cx += w;
+        }
+    }
+    TABLE_HEAD_H + pitch * rows.len() as f64
+}
+
+/// Room above a plan table for the box's heading, and below it for the
+/// note and the box's edge.
+const TABLE_TOP: f64 = 9.5;
+const TABLE_BOTTOM: f64 = 7.0;
+
+/// A stage table's row type and column widths, the width of the box's left
+/// column and of the procedure beside it.
+type StageColumns = (RowType, [f64; 5], f64, f64);
+
+/// The double or multiple plan's box: the stage table on the left, the
+/// procedure on the right; the procedure size by [`choose_box`], then the
+/// largest row type that keeps that size and the box height. Returns the
+/// box height.
+fn stage_plan_box(
+    c: &mut Canvas,
+    f: &Facts,
+    left: f64,
+    top: f64,
+    width: f64,
+    plan_max: f64,
+) -> f64 {
+    let stages = f.plan.stages();
+    let mut drawn = 0;
+    let rows: Vec<[Cell; 5]> = stages
+        .iter()
+        .enumerate()
+        .map(|(i, s)| {
+            let row = [
+                Cell::plain((i + 1).to_string()),
+                Cell::plain((s.n - drawn).to_string()),
+                Cell::plain(s.n.to_string()),
+                Cell::accept(s.accept),
+                Cell::reject(s.reject),
+            ];
+            drawn = s.n;
+            row
+        })
+        .collect();
+    let heads = &text::STAGE_HEADS;
+    let heading = text::stages_heading(f.source.scheme.name(), stages.len(), f.plan.max_sample());
+    // The box for each row type: (procedure size, height, (type, widths,
+    // left column, procedure width)).
+    let layout = |c: &mut Canvas, rows_in: RowType| {
+        let widths = column_widths(c, heads, &rows, rows_in.size);
+        let table_w: f64 = widths
+            .iter()
+            .sum::<f64>()
+            .max(c.width(&heading, Face::Bold, 7.0));
+        let col = table_w + 8.0;
+        let proc_w = width - col - 8.0;
+        let table_need =
+            TABLE_TOP + TABLE_HEAD_H + rows_in.pitch * rows.len() as f64 + TABLE_BOTTOM;
+        let options: Vec<(f64, f64, StageColumns)> = PROCEDURE_SIZES
+            .iter()
+            .map(|&size| {
+                let h = procedure_height(c, f, proc_w, size).max(table_need);
+                (size, h, (rows_in, widths, col, proc_w))
+            })
+            .collect();
+        options
+    };
+    let smallest = layout(c, ROW_TYPES[ROW_TYPES.len() - 1]);
+    let what = format!(
+        "the stage table ({} stages) and the procedure",
+        stages.len()
+    );
+    let Some(plain) = choose_box(c, &what, &smallest, plan_max) else {
+        return 0.0;
+    };
+    // A larger type where it costs the procedure no size and the box no
+    // height.
+    let chosen = ROW_TYPES
+        .iter()
+        .find_map(|&t| {
+            layout(c, t)
+                .into_iter()
+                .find(|o| o.0 == plain.0 && o.1 <= plain.1 + 1e-9)
+        })
+        .unwrap_or(plain);
+    let (size, plan_h, (rows_in, widths, col, proc_w)) = chosen;
+    plan_frame(c, left, top, width, plan_h);
+    c.heading(left + 4.0, top - 7.0, &heading);
+    let used = plan_table(
+        c,
+        "stage table",
+        left + 4.0,
+        top - TABLE_TOP,
+        heads,
+        &widths,
+        &rows,
+        rows_in,
+    );
+    let note = text::stage_note(stages.iter().any(|s| s.accept.is_none()));
+    c.paragraph(
+        "stage table note",
+        left + 4.0,
+        top - TABLE_TOP - used - 1.0,
+        col - 6.0,
+        plan_h - TABLE_TOP - used - 2.0,
+        note,
+        Face::Regular,
+        6.5,
+        5.5,
+    );
+    procedure(
+        c,
+        f,
+        left + col + 4.0,
+        top,
+        proc_w,
+        top - plan_h + 2.0,
+        size,
+    );
+    c.line(
+        &[(left + col, top - 3.0), (left + col, top - plan_h + 3.0)],
+        0.4,
+        grey(0.6),
+        None,
+    );
+    plan_h
+}
+
+/// Extra chart height a plan box leaves when it can: below it, the
+/// procedure goes down a size rather than squeeze the charts.
+const CHART_COMFORT: f64 = 12.0;
+
+/// Of the candidate boxes `(size, height, layout)`, the one that leaves
+/// the charts [`CHART_COMFORT`] above their least height, else the one
+/// that stays within `plan_max`; among those the largest procedure size,
+/// then the lowest box. When none stays within `plan_max`, the lowest box
+/// and an overflow.
+fn choose_box<T: Copy>(
+    c: &mut Canvas,
+    what: &str,
+    options: &[(f64, f64, T)],
+    plan_max: f64,
+) -> Option<(f64, f64, T)> {
+    for budget in [plan_max - CHART_COMFORT, plan_max] {
+        let best = options
+            .iter()
+            .filter(|o| o.1 <= budget)
+            .max_by(|a, b| a.0.total_cmp(&b.0).then(b.1.total_cmp(&a.1)));
+        if let Some(&o) = best {
+            return Some(o);
+        }
+    }
+    let lowest = options.iter().min_by(|a, b| a.1.total_cmp(&b.1)).copied();
+    if let Some((_, h, _)) = lowest {
+        c.faults.push(format!(
+            "{what} need {h:.0} mm and the page leaves {plan_max:.0} mm"
+        ));
+    }
+    lowest
+}
+
+/// The most columns an item table is split into. Three columns of about
+/// 47 mm would leave the procedure beside them under its least width on
+/// either paper, and a procedure below them would cost more height than
+/// the third column saves, for any table the page can hold.
+const MAX_ITEM_COLUMNS: usize = 2;
+
+/// The narrowest the procedure may be beside an item table.
+const MIN_PROCEDURE_W: f64 = 58.0;
+
+/// The item-by-item plan's box: the item table (in one or two columns)
+/// and the lines it comes from on the left, the procedure on the right;
+/// the split and the procedure size by [`choose_box`]. When no split fits,
+/// an overflow: the table is never cut short. Returns the box height.
+#[allow(clippy::too_many_arguments)]
+fn item_plan_box(
+    c: &mut Canvas,
+    f: &Facts,
+    lines: &SequentialLines,
+    left: f64,
+    top: f64,
+    width: f64,
+    plan_max: f64,
+) -> f64 {
+    let runs = lines.runs();
+    let rows: Vec<[Cell; 3]> = runs
+        .iter()
+        .map(|r| {
+            [
+                Cell::plain(text::units(r.first, r.last)),
+                Cell::accept(r.accept),
+                Cell::reject(r.reject),
+            ]
+        })
+        .collect();
+    let heads = &text::ITEM_HEADS;
+    let heading = text::items_heading(lines.truncation);
+    let gutter = 4.0;
+    let note = text::item_note(lines.h_accept, lines.h_reject, lines.slope);
+    // Every split that leaves the procedure its width, at every procedure
+    // size; the tighter row type only when the first fits nowhere.
+    let splits = |c: &mut Canvas, rows_in: RowType| {
+        let widths = column_widths(c, heads, &rows, rows_in.size);
+        let one: f64 = widths.iter().sum();
+        let mut options = Vec::new();
+        for k in 1..=MAX_ITEM_COLUMNS.min(runs.len()) {
+            let per = runs.len().div_ceil(k);
+            let table_w = (one * k as f64 + gutter * (k as f64 - 1.0)).max(c.width(
+                &heading,
+                Face::Bold,
+                7.0,
+            ));
+            let col = table_w + 8.0;
+            let proc_w = width - col - 8.0;
+            if proc_w < MIN_PROCEDURE_W {
+                continue;
+            }
+            let note_h = c
+                .fit(&note, Face::Regular, col - 6.0, f64::INFINITY, 6.5, 6.5)
+                .height;
+            let table_need =
+                TABLE_TOP + TABLE_HEAD_H + rows_in.pitch * per as f64 + 2.0 + note_h + 2.0;
+            for size in PROCEDURE_SIZES {
+                let h = procedure_height(c, f, proc_w, size).max(table_need);
+                options.push((size, h, (col, proc_w, per, rows_in, widths)));
+            }
+        }
+        options
+    };
+    let mut options = splits(c, ITEM_ROWS[0]);
+    if options.iter().all(|o| o.1 > plan_max) {
+        options.extend(splits(c, ITEM_ROWS[1]));
+    }
+    let what = format!(
+        "the item table ({} rows, in up to {MAX_ITEM_COLUMNS} columns) and the procedure",
+        runs.len()
+    );
+    let Some((size, plan_h, (col, proc_w, per, rows_in, widths))) =
+        choose_box(c, &what, &options, plan_max)
+    else {
+        c.faults.push(format!(
+            "the item table ({} rows) leaves the procedure no room",
+            runs.len()
+        ));
+        return 0.0;
+    };
+    let one: f64 = widths.iter().sum();
+    plan_frame(c, left, top, width, plan_h);
+    c.heading(left + 4.0, top - 7.0, &heading);
+    let mut used: f64 = 0.0;
+    for (j, chunk) in rows.chunks(per).enumerate() {
+        let x = left + 4.0 + (one + gutter) * j as f64;
+        used = used.max(plan_table(
+            c,
+            "item table",
+            x,
+            top - TABLE_TOP,
+            heads,
+            &widths,
+            chunk,
+            rows_in,
+        ));
+    }
+    c.paragraph(
+        "item table note",
+        left + 4.0,
+        top - TABLE_TOP - used - 1.0,
+        col - 6.0,
+        plan_h - TABLE_TOP - used - 2.0,
+        &note,
+        Face::Regular,
+        6.5,
+        5.5,
+    );
+    procedure(
+        c,
+        f,
+        left + col + 4.0,
+        top,
+        proc_w,
+        top - plan_h + 2.0,
+        size,
+    );
+    c.line(
+        &[(left + col, top - 3.0), (left + col, top - plan_h + 3.0)],
+        0.4,
+        grey(0.6),
+        None,
+    );
+    plan_h
+}
+
+/// The ASN curve against quality, with the single plan's sample size as a
+/// dashed reference and the ASN at the producer's point and the largest
+/// ASN marked.
+#[allow(clippy::too_many_arguments)]
+fn asn_chart(
+    c: &mut Canvas,
+    f: &Facts,
+    points: &[CurvePoint],
+    x_max: f64,
+    x: f64,
+    y: f64,
+    w: f64,
+    h: f64,
+) {
+    let asn: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.asn)).collect();
+    let p1 = f.request.risks.producer().quality;
+    let at_p1 = measures(&f.plan, &f.model, p1).asn;
+    let (q_max, asn_max) = largest_asn(&f.plan, &f.model);
+    let single_n = design_single(&f.model, &f.request.risks).ok().map(|d| d.n);
+    let top_value = single_n.map_or(asn_max, |n| asn_max.max(n as f64));
+    let y_max = nice_ceiling(top_value * 1.15);
+    let axis = quality_tick(f.per_unit);
+    let count = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
+    let plot = Plot::new(x, y, w, h, x_max, y_max);
+    chart::frame(
+        c,
+        "ASN chart",
+        &plot,
+        &Axes {
+            title: text::ASN_TITLE,
+            x_label: text::quality_axis(f.per_unit),
+            y_label: text::ASN_AXIS,
+            x_max,
+            y_max,
+            x_tick: &axis,
+            y_tick: &count,
+            x_step: None,
+            y_step: None,
+        },
+    );
+    let avoid: Vec<chart::LabelBox> = single_n
+        .iter()
+        .map(|&n| chart::horizontal_guide(c, &plot, n as f64, &text::single_reference(n)))
+        .collect();
+    chart::curve(c, &plot, &asn, 1.3, chart::curve_colour(), None);
+    let marks = [
+        Mark {
+            x: p1,
+            y: at_p1,
+            label: text::asn_at_p1(at_p1).join(" "),
+            stacked: Some(text::asn_at_p1(at_p1)),
+        },
+        Mark {
+            x: q_max,
+            y: asn_max,
+            label: text::largest_asn(asn_max, &f.q(q_max)).join(" "),
+            stacked: Some(text::largest_asn(asn_max, &f.q(q_max))),
+        },
     ];
+    let guide_y = single_n.map(|n| plot.sy(n as f64));
+    chart::marks(c, &plot, &marks, None, guide_y, &[&asn], &avoid);
+}
+
+/// The decision chart of an item-by-item plan: units inspected across,
+/// running count up; the accept, continue and reject zones shaded and
+/// bounded by the stepped acceptance and rejection numbers; the two lines
+/// dashed; the truncation marked.
+///
+/// A number applies after `n` units, so each run of units `first..=last`
+/// is drawn from `first - 1` to `last`.
+fn decision_chart(
+    c: &mut Canvas,
+    f: &Facts,
+    lines: &SequentialLines,
+    x: f64,
+    y: f64,
+    w: f64,
+    h: f64,
+) {
+    let runs = lines.runs();
+    let t = lines.truncation as f64;
+    let top_reject = runs.iter().map(|r| r.reject).max().unwrap_or(1);
+    let y_max = (top_reject + 1) as f64;
+    let plot = Plot::new(x, y, w, h, t, y_max);
+    // The stepped numbers as page polylines in data units.
+    let mut reject_steps = Vec::new();
+    let mut accept_steps = Vec::new();
+    for r in &runs {
+        let (a, b) = ((r.first - 1) as f64, r.last as f64);
+        reject_steps.push((a, r.reject as f64));
+        reject_steps.push((b, r.reject as f64));
+        if let Some(acc) = r.accept {
+            accept_steps.push((a, acc as f64));
+            accept_steps.push((b, acc as f64));
+        }
+    }
+    // Zones first, so that the gridlines stay visible over them.
+    chart::zone(
+        c,
+        &plot,
+        &[(0.0, 0.0), (t, 0.0), (t, y_max), (0.0, y_max)],
+        rgb(1.0, 0.97, 0.86),
+    );
+    let mut reject_zone = reject_steps.clone();
+    reject_zone.extend([(t, y_max), (0.0, y_max)]);
+    chart::zone(c, &plot, &reject_zone, rgb(0.98, 0.86, 0.84));
+    if let (Some(&(a0, _)), Some(&(b1, _))) = (accept_steps.first(), accept_steps.last()) {
+        let mut accept_zone = vec![(a0, 0.0)];
+        accept_zone.extend(accept_steps.iter().copied());
+        accept_zone.push((b1, 0.0));
+        chart::zone(c, &plot, &accept_zone, rgb(0.84, 0.94, 0.85));
+    }
+    let count = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
+    let y_label = text::decision_y(f.per_unit);
+    chart::frame(
+        c,
+        "decision chart",
+        &plot,
+        &Axes {
+            title: text::DECISION_TITLE,
+            x_label: text::DECISION_X,
+            y_label: &y_label,
+            x_max: t,
+            y_max,
+            x_tick: &count,
+            y_tick: &count,
+            x_step: None,
+            y_step: Some(if y_max <= 12.0 { 1.0 } else { nice_step(y_max) }),
+        },
+    );
+    // The lines, where they lie inside the chart.
+    let line_at = |n: f64, intercept: f64| lines.slope * n + intercept;
+    let dash = Some(1.5);
+    chart::curve(
+        c,
+        &plot,
+        &[
+            (0.0, line_at(0.0, lines.h_reject)),
+            (t, line_at(t, lines.h_reject)),
+        ],
+        0.6,
+        grey(0.25),
+        dash,
+    );
+    let n0 = lines.h_accept / lines.slope;
+    if n0 < t {
+        chart::curve(
+            c,
+            &plot,
+            &[(n0, 0.0), (t, line_at(t, -lines.h_accept))],
+            0.6,
+            grey(0.25),
+            dash,
+        );
+    }
+    chart::curve(c, &plot, &reject_steps, 1.2, reject_colour(), None);
+    if !accept_steps.is_empty() {
+        chart::curve(c, &plot, &accept_steps, 1.2, accept_colour(), None);
+    }
+    // The truncation: the last unit decides every count.
+    let tx = plot.sx(t);
+    let fa = plot.sy(lines.final_acceptance as f64);
+    c.line(&[(tx, plot.bottom), (tx, fa)], 2.0, accept_colour(), None);
+    c.line(
+        &[
+            (tx, plot.sy((lines.final_acceptance + 1) as f64)),
+            (tx, plot.top),
+        ],
+        2.0,
+        reject_colour(),
+        None,
+    );
+    // Zone labels, each where it fits inside its zone. The numbers never
+    // fall as n grows (before the truncation item), so over a span of
+    // units the zone between them is narrowest at its ends: one test per
+    // position. A label without room is left out; the colours say the same.
+    let size = 6.5;
+    let label_h = size * 0.3528 * 0.75;
+    let pad = 0.8;
+    let per_unit_mm = (plot.right - plot.left) / t;
+    // The unit whose step the page x `px` lies on (units n - 1 to n).
+    let unit_at = |px: f64| {
+        (((px - plot.left) / per_unit_mm).floor() as u64 + 1)
+            .min(lines.truncation - 1)
+            .max(1)
+    };
+    let accept_at = |n: u64| lines.acceptance_number(n).map_or(0.0, |a| a as f64);
+    let reject_at = |n: u64| lines.rejection_number(n) as f64;
+    let last_open = (t - 1.0).max(0.0);
+    let zone_label = |c: &mut Canvas, lx: f64, ly: f64, label: &str, color: printpdf::Color| {
+        c.text(lx, ly, label, Face::Bold, size, color);
+    };
+    // Reject: top left, above the rejection numbers.
+    let rw = c.width(text::REJECT_ZONE, Face::Bold, size);
+    let (rx, ry) = (plot.left + 1.5, plot.top - 1.0 - label_h);
+    if plot.sy(reject_at(unit_at(rx + rw))) + pad <= ry - 0.3 {
+        zone_label(c, rx, ry, text::REJECT_ZONE, reject_colour());
+    }
+    // Accept: bottom right, below the acceptance numbers, clear of the
+    // truncation item.
+    let aw = c.width(text::ACCEPT_ZONE, Face::Bold, size);
+    let (ax, ay) = (plot.sx(last_open) - 1.5 - aw, plot.bottom + 1.0);
+    if ax > plot.left && plot.sy(accept_at(unit_at(ax))) >= ay + label_h + pad {
+        zone_label(c, ax, ay, text::ACCEPT_ZONE, accept_colour());
+    }
+    // Go on: where the open counts leave the most room, away from the
+    // other two labels.
+    let cw = c.width(text::CONTINUE_ZONE, Face::Bold, size);
+    let room = |lx: f64| {
+        let (n0, n1) = (unit_at(lx), unit_at(lx + cw));
+        (plot.sy(reject_at(n0)), plot.sy(accept_at(n1)))
+    };
+    let span = plot.sx(last_open) - plot.left - cw - 2.0;
+    let best = (0..=40)
+        .map(|i| plot.left + 1.0 + span * i as f64 / 40.0)
+        // Left of the accept label, which sits at the bottom right.
+        .filter(|&lx| lx + cw < ax - 1.0)
+        .map(|lx| {
+            let (top_y, bottom_y) = room(lx);
+            (lx, top_y - bottom_y, 0.5 * (top_y + bottom_y))
+        })
+        .max_by(|p, q| p.1.total_cmp(&q.1));
+    if let Some((lx, gap, mid_y)) = best
+        && gap >= label_h + 2.0 * pad
+    {
+        zone_label(
+            c,
+            lx,
+            mid_y - label_h / 2.0,
+            text::CONTINUE_ZONE,
+            rgb(0.45, 0.35, 0.05),
+        );
+    }
+    // The truncation, on the title's line at the right, above its bar.
+    let trunc = text::truncation(lines.truncation, lines.final_acceptance);
+    let tw = c.width(&trunc, Face::Regular, size);
+    c.text(
+        tx - tw,
+        y + h - 3.5,
+        &trunc,
+        Face::Regular,
+        size,
+        grey(0.15),
+    );
+    let title_w = c.width(text::DECISION_TITLE, Face::Bold, 8.0);
+    if title_w + 2.0 + tw > tx - x {
+        c.faults
+            .push(format!("decision chart: '{trunc}' has no room"));
+    }
+}
+
+/// The risk table: each agreed point against what the plan achieves.
+fn risk_table(c: &mut Canvas, f: &Facts, left: f64, top: f64, width: f64, risk_h: f64) {
+    let right = left + width;
+    let black = || grey(0.0);
+    let (producer, consumer) = (f.request.risks.producer(), f.request.risks.consumer());
+    c.claim("risks", left, top - risk_h, width, risk_h);
+    c.heading(left, top - 3.5, text::RISKS);
+    let cols = [left, left + 52.0, left + 84.0, left + 128.0, right];
     let row_y = |i: usize| top - 8.5 - 5.0 * i as f64;
-    for (i, h) in heads.iter().enumerate() {
-        c.text(cols[i] + 1.0, row_y(0), h, Face::Bold, 7.5, black());
+    for (i, h) in text::risk_heads(f.per_unit).iter().enumerate() {
+        let w = cols[i + 1] - cols[i] - 2.0;
+        c.cell(
+            "risk table",
+            cols[i] + 1.0,
+            w,
+            row_y(0),
+            h,
+            Face::Bold,
+            7.5,
+            black(),
+        );
     }
     c.line(
         &[(left, row_y(0) - 1.5), (right, row_y(0) - 1.5)],
@@ -295,10 +1385,11 @@ pub fn render_sheet(
         black(),
         None,
     );
+    let recorded = f.recorded;
     let rows = [
         (
-            "Producer's point (AQL, p₁)",
-            q(producer.quality),
+            text::PRODUCER_POINT,
+            f.q(producer.quality),
             format!("α ≤ {}", producer.risk),
             format!(
                 "α = {}  (Pa = {:.4})",
@@ -307,8 +1398,8 @@ pub fn render_sheet(
             ),
         ),
         (
-            "Consumer's point (RQL, p₂)",
-            q(consumer.quality),
+            text::CONSUMER_POINT,
+            f.q(consumer.quality),
             format!("β ≤ {}", consumer.risk),
             format!(
                 "β = {}  (Pa = {:.4})",
@@ -320,116 +1411,153 @@ pub fn render_sheet(
     for (i, r) in rows.iter().enumerate() {
         let y = row_y(i + 1);
         for (j, cell) in [&r.0.to_string(), &r.1, &r.2, &r.3].iter().enumerate() {
-            c.text(cols[j] + 1.0, y, cell, Face::Regular, 7.5, black());
+            let w = cols[j + 1] - cols[j] - 2.0;
+            c.cell(
+                "risk table",
+                cols[j] + 1.0,
+                w,
+                y,
+                cell,
+                Face::Regular,
+                7.5,
+                black(),
+            );
         }
     }
-    top -= risk_h + 3.0;
+}
 
-    // Charts take the height that the table and footer leave.
-    let qualities = crate::plan::default_qualities(&plan, &model, Some(&request.risks));
-    let evaluation = evaluate(&plan, &model, &qualities)?;
-    let table_h = 8.0 + 4.2 * (evaluation.points.len() as f64 + 1.0);
-    let foot_h = 25.0;
-    let foot_top = margin + foot_h;
-    let chart_h = (top - 4.0 - table_h - 3.0 - foot_top).min(85.0);
-    let chart_w = (width - 6.0) / 2.0;
-    let indifference = quality_at_pa(&plan, &model, 0.5);
-    let x_max = nice_ceiling(quality_at_pa(&plan, &model, 0.02).max(consumer.quality * 1.2));
-    let curve_q: Vec<f64> = (0..=240)
-        .map(|i| x_max * i as f64 / 240.0)
-        .map(|v| v.max(x_max * 1e-6))
-        .collect();
-    // One evaluation per point serves both curves.
-    type Curve = Vec<(f64, f64)>;
-    let (oc, aoq): (Curve, Curve) = curve_q
-        .iter()
-        .map(|&p| {
-            let m = measures(&plan, &model, p);
-            ((p, m.pa), (p, m.aoq))
-        })
-        .unzip();
-    let limit = aoql(&plan, &model);
+/// Quality tick labels: percent, or plain numbers per unit.
+fn quality_tick(per_unit: bool) -> impl Fn(f64, f64) -> String {
     let (scale, suffix) = if per_unit { (1.0, "") } else { (100.0, "%") };
-    let axis = |v: f64, step: f64| chart::tick_label(v, step, scale, suffix);
+    move |v: f64, step: f64| chart::tick_label(v, step, scale, suffix)
+}
+
+/// The OC curve with both risk points marked and the indifference quality.
+#[allow(clippy::too_many_arguments)]
+fn oc_chart(
+    c: &mut Canvas,
+    f: &Facts,
+    points: &[CurvePoint],
+    x_max: f64,
+    x: f64,
+    y: f64,
+    w: f64,
+    h: f64,
+) {
+    let (producer, consumer) = (f.request.risks.producer(), f.request.risks.consumer());
+    let indifference = quality_at_pa(&f.plan, &f.model, 0.5);
+    let oc: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.pa)).collect();
+    let axis = quality_tick(f.per_unit);
     let prob = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
-    let pa1 = 1.0 - recorded.producer_risk;
-    let oc_marks = [
+    let pa1 = f.pa_at_p1();
+    let beta = f.recorded.consumer_risk;
+    let marks = [
         Mark {
             x: producer.quality,
             y: pa1,
-            label: format!("p₁ = {}, Pa = {:.3}", q(producer.quality), pa1),
+            label: format!("p₁ = {}, Pa = {:.3}", f.q(producer.quality), pa1),
+            stacked: Some([
+                format!("p₁ = {}", f.q(producer.quality)),
+                format!("Pa = {pa1:.3}"),
+            ]),
         },
         Mark {
             x: consumer.quality,
-            y: recorded.consumer_risk,
-            label: format!(
-                "p₂ = {}, Pa = {:.3}",
-                q(consumer.quality),
-                recorded.consumer_risk
-            ),
+            y: beta,
+            label: format!("p₂ = {}, Pa = {:.3}", f.q(consumer.quality), beta),
+            stacked: Some([
+                format!("p₂ = {}", f.q(consumer.quality)),
+                format!("Pa = {beta:.3}"),
+            ]),
         },
     ];
-    let x_label = if per_unit {
-        "Lot quality (nonconformities per unit)"
-    } else {
-        "Lot quality (% nonconforming)"
-    };
-    let chart_top = top - chart_h;
     chart::draw(
-        &mut c,
+        c,
         "OC chart",
-        left,
-        chart_top,
-        chart_w,
-        chart_h,
+        x,
+        y,
+        w,
+        h,
         &Chart {
-            title: "Operating characteristic (OC) curve",
-            x_label,
-            y_label: "Probability of acceptance Pa",
+            title: text::oc_title(c, w),
+            x_label: text::quality_axis(f.per_unit),
+            y_label: text::OC_AXIS,
             x_max,
             y_max: 1.0,
             x_tick: &axis,
             y_tick: &prob,
             curve: &oc,
-            marks: &oc_marks,
-            guide: Some((indifference, format!("Pa = 0.5 at {}", q(indifference)))),
+            marks: &marks,
+            guide: Some((indifference, format!("Pa = 0.5 at {}", f.q(indifference)))),
         },
     );
-    let aoq_max = nice_ceiling(limit.value * 1.25);
-    let aoq_marks = [Mark {
+}
+
+/// The AOQ curve with the AOQL marked.
+#[allow(clippy::too_many_arguments)]
+fn aoq_chart(
+    c: &mut Canvas,
+    f: &Facts,
+    points: &[CurvePoint],
+    x_max: f64,
+    x: f64,
+    y: f64,
+    w: f64,
+    h: f64,
+) {
+    let limit = aoql(&f.plan, &f.model);
+    let aoq: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.aoq)).collect();
+    let axis = quality_tick(f.per_unit);
+    let marks = [Mark {
         x: limit.quality,
         y: limit.value,
-        label: format!("AOQL = {}", q(limit.value)),
+        label: format!("AOQL = {}", f.q(limit.value)),
+        stacked: None,
     }];
     chart::draw(
-        &mut c,
+        c,
         "AOQ chart",
-        left + chart_w + 6.0,
-        chart_top,
-        chart_w,
-        chart_h,
+        x,
+        y,
+        w,
+        h,
         &Chart {
-            title: "Average outgoing quality (AOQ), rectifying inspection",
-            x_label,
-            y_label: "AOQ",
+            title: text::AOQ_TITLE,
+            x_label: text::quality_axis(f.per_unit),
+            y_label: text::AOQ_AXIS,
             x_max,
-            y_max: aoq_max,
+            y_max: nice_ceiling(limit.value * 1.25),
             x_tick: &axis,
             y_tick: &axis,
             curve: &aoq,
-            marks: &aoq_marks,
+            marks: &marks,
             guide: None,
         },
     );
-    top = chart_top - 4.0;
+}
 
-    // Table of measures and the signature block.
-    let table_w = 112.0;
+/// Height of the measures table of `evaluation`.
+fn measures_height(evaluation: &Evaluation, pitch: f64) -> f64 {
+    8.0 + pitch * (evaluation.points.len() as f64 + 1.0)
+}
+
+/// The measures table: Pa, AOQ, ATI and ASN at the default qualities.
+fn measures_table(
+    c: &mut Canvas,
+    f: &Facts,
+    evaluation: &Evaluation,
+    left: f64,
+    top: f64,
+    table_w: f64,
+    table_h: f64,
+) {
+    let black = || grey(0.0);
     c.claim("measures", left, top - table_h, table_w, table_h);
-    c.heading(left, top - 3.5, "WHAT THE PLAN DOES AT OTHER QUALITIES");
+    c.heading(left, top - 3.5, text::MEASURES);
     let tcols = [left + 24.0, left + 46.0, left + 72.0, left + 96.0];
-    let heads = ["Quality", "Pa", "AOQ", "ATI", "ASN"];
-    let ty = |i: usize| top - 8.0 - 4.2 * i as f64;
+    let heads = text::MEASURE_HEADS;
+    let pitch = (table_h - 8.0) / (evaluation.points.len() as f64 + 1.0);
+    let ty = |i: usize| top - 8.0 - pitch * i as f64;
     c.text(left + 1.0, ty(0), heads[0], Face::Bold, 7.0, black());
     for (j, h) in heads[1..].iter().enumerate() {
         c.text_right(tcols[j], ty(0), h, Face::Bold, 7.0, black());
@@ -442,28 +1570,55 @@ pub fn render_sheet(
     );
     for (i, m) in evaluation.points.iter().enumerate() {
         let y = ty(i + 1);
-        c.text(left + 1.0, y, &q(m.quality), Face::Regular, 7.0, black());
+        c.cell(
+            "measures table",
+            left + 1.0,
+            22.0,
+            y,
+            &f.q(m.quality),
+            Face::Regular,
+            7.0,
+            black(),
+        );
         let cells = [
             format!("{:.4}", m.pa),
-            if per_unit {
+            if f.per_unit {
                 format!("{:.5}", m.aoq)
             } else {
                 format!("{:.4}%", m.aoq * 100.0)
             },
-            m.ati.map_or("—".to_string(), |v| format!("{v:.0}")),
-            format!("{:.0}", m.asn),
+            m.ati
+                .map_or(text::NOT_GIVEN.to_string(), |v| format!("{v:.0}")),
+            if f.plan.as_single().is_some() {
+                format!("{:.0}", m.asn)
+            } else {
+                format!("{:.1}", m.asn)
+            },
         ];
         for (j, cell) in cells.iter().enumerate() {
-            c.text_right(tcols[j], y, cell, Face::Regular, 7.0, black());
+            c.cell_right(
+                "measures table",
+                tcols[j],
+                20.0,
+                y,
+                cell,
+                Face::Regular,
+                7.0,
+                black(),
+            );
         }
     }
-    let sig_x = left + table_w + 4.0;
-    let sig_w = right - sig_x;
+}
+
+/// The signature block: who prepared and who approved the plan, with lines
+/// for the signature and the date.
+fn signatures(c: &mut Canvas, f: &Facts, sig_x: f64, top: f64, sig_w: f64, table_h: f64) {
+    let black = || grey(0.0);
     c.claim("signatures", sig_x, top - table_h, sig_w, table_h);
     c.rect_stroke(sig_x, top - table_h, sig_w, table_h, 0.5, black());
     for (i, (label, name)) in [
-        ("Prepared by", opt(&source.prepared_by)),
-        ("Approved by", opt(&source.approved_by)),
+        (text::PREPARED_BY, given(&f.source.prepared_by)),
+        (text::APPROVED_BY, given(&f.source.approved_by)),
     ]
     .iter()
     .enumerate()
@@ -490,7 +1645,7 @@ pub fn render_sheet(
         c.text(
             sig_x + 2.0,
             y - 14.5,
-            "Signature",
+            text::SIGNATURE,
             Face::Regular,
             6.0,
             grey(0.4),
@@ -507,33 +1662,43 @@ pub fn render_sheet(
         c.text(
             sig_x + sig_w - 23.0,
             y - 14.5,
-            "Date",
+            text::SIGNED_ON,
             Face::Regular,
             6.0,
             grey(0.4),
         );
     }
+}
 
-    // Footer: cautions and provenance.
+/// The footer at the bottom margin: the cautions and the provenance line.
+fn footer(c: &mut Canvas, f: &Facts, frame: Frame, foot_h: f64) {
+    let Frame {
+        left,
+        right,
+        width,
+        margin,
+    } = frame;
+    let foot_top = margin + foot_h;
     c.claim("footer", left, margin, width, foot_h);
-    c.line(&[(left, foot_top), (right, foot_top)], 0.6, black(), None);
-    let caution = words::CAUTION;
+    c.line(&[(left, foot_top), (right, foot_top)], 0.6, grey(0.0), None);
     let used = c.paragraph(
         "caution",
         left,
         foot_top - 1.5,
         width,
         10.0,
-        caution,
+        words::CAUTION,
         Face::Regular,
         7.0,
         5.5,
     );
     let provenance = format!(
-        "Generated by {} from {file_name} (SHA-256 {hash}). Plan solved by {}. \
-         Regenerate with: lotsman sheet {file_name}",
+        "Generated by {} from {name} (SHA-256 {hash}). Plan solved by {}. \
+         Regenerate with: lotsman sheet {name}",
         tool_version(),
-        recorded.solved_by
+        f.recorded.solved_by,
+        name = f.file_name,
+        hash = f.hash,
     );
     c.paragraph(
         "provenance",
@@ -546,52 +1711,6 @@ pub fn render_sheet(
         6.0,
         5.0,
     );
-    if chart_h < 50.0 || top - table_h < foot_top + 2.0 {
-        c.overflows
-            .push("the page is too short for its blocks".to_string());
-    }
-
-    let Canvas {
-        ops,
-        regions,
-        overflows,
-        ..
-    } = c;
-    if !overflows.is_empty() {
-        return Err(InputError::Inconsistent(format!(
-            "the sheet cannot be laid out: {}; shorten the text in the source",
-            overflows.join("; ")
-        ))
-        .into());
-    }
-    let mut doc = printpdf::PdfDocument::new(&source.title);
-    doc.metadata.info.subject = format!("{HASH_PREFIX}{hash}");
-    doc.resources.fonts.map.insert(
-        printpdf::FontId(REGULAR_ID.to_string()),
-        printpdf::PdfFont::new(regular.clone()),
-    );
-    doc.resources.fonts.map.insert(
-        printpdf::FontId(BOLD_ID.to_string()),
-        printpdf::PdfFont::new(bold.clone()),
-    );
-    doc.with_pages(vec![printpdf::PdfPage::new(
-        printpdf::Mm(pw as f32),
-        printpdf::Mm(ph as f32),
-        ops,
-    )]);
-    let mut lo = doc.to_lopdf_document(&printpdf::PdfSaveOptions::default(), &mut warnings);
-    let id = lopdf::Object::String(hash.as_bytes()[..32].to_vec(), lopdf::StringFormat::Literal);
-    lo.trailer
-        .set("ID", lopdf::Object::Array(vec![id.clone(), id]));
-    lo.compress();
-    let mut pdf = Vec::new();
-    lo.save_to(&mut pdf)
-        .map_err(|e| Error::Output(std::io::Error::other(e.to_string())))?;
-    Ok(Sheet {
-        pdf,
-        source_sha256: hash,
-        regions,
-    })
 }
 
 /// Reads the source at `source_path`, renders its sheet and writes it
