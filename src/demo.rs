@@ -29,6 +29,14 @@ pub const DEMO_PLANS: &[(&str, &str)] = &[
         "tpw-housing-finish.yaml",
         include_str!("../plans/tpw-housing-finish.yaml"),
     ),
+    (
+        "tpw-impeller-porosity.yaml",
+        include_str!("../plans/tpw-impeller-porosity.yaml"),
+    ),
+    (
+        "tpw-sleeve-hardness.yaml",
+        include_str!("../plans/tpw-sleeve-hardness.yaml"),
+    ),
 ];
 
 /// What the demo did with one plan.

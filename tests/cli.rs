@@ -361,6 +361,8 @@ fn the_demo_plans_verify_and_the_demo_writes_its_files() {
             "plans/tpw-seal-visual.yaml",
             "plans/tpw-cover-fit.yaml",
             "plans/tpw-housing-finish.yaml",
+            "plans/tpw-impeller-porosity.yaml",
+            "plans/tpw-sleeve-hardness.yaml",
         ])
         .assert()
         .success();
@@ -379,6 +381,9 @@ fn the_demo_plans_verify_and_the_demo_writes_its_files() {
         "tpw-cover-fit-oc.csv",
         "tpw-housing-finish.yaml",
         "tpw-cover-fit.pdf",
+        "tpw-impeller-porosity.pdf",
+        "tpw-sleeve-hardness-oc.csv",
+        "tpw-sleeve-hardness.pdf",
     ] {
         assert!(out.join(name).is_file(), "{name}");
     }
