@@ -913,8 +913,50 @@ fn stage_plan_box(
         rows_in,
     );
     let note = text::stage_note(stages.iter().any(|s| s.accept.is_none()));
-    c.paragraph(
+    table_box_rest(
+        c,
+        f,
+        TableBox {
+            left,
+            top,
+            col,
+            proc_w,
+            plan_h,
+            used,
+            size,
+        },
         "stage table note",
+        note,
+    )
+}
+
+/// Where a table plan box stands: its corner and column widths, its
+/// height, the height its table used and the procedure's type size.
+struct TableBox {
+    left: f64,
+    top: f64,
+    col: f64,
+    proc_w: f64,
+    plan_h: f64,
+    used: f64,
+    size: f64,
+}
+
+/// The rest of a plan box with a table on the left: the note under the
+/// table, the procedure on the right and the rule between them; returns the
+/// box height.
+fn table_box_rest(c: &mut Canvas, f: &Facts, b: TableBox, region: &str, note: &str) -> f64 {
+    let TableBox {
+        left,
+        top,
+        col,
+        proc_w,
+        plan_h,
+        used,
+        size,
+    } = b;
+    c.paragraph(
+        region,
         left + 4.0,
         top - TABLE_TOP - used - 1.0,
         col - 6.0,
@@ -1077,33 +1119,21 @@ fn item_plan_box(
             rows_in,
         ));
     }
-    c.paragraph(
-        "item table note",
-        left + 4.0,
-        top - TABLE_TOP - used - 1.0,
-        col - 6.0,
-        plan_h - TABLE_TOP - used - 2.0,
-        &note,
-        Face::Regular,
-        6.5,
-        5.5,
-    );
-    procedure(
+    table_box_rest(
         c,
         f,
-        left + col + 4.0,
-        top,
-        proc_w,
-        top - plan_h + 2.0,
-        size,
-    );
-    c.line(
-        &[(left + col, top - 3.0), (left + col, top - plan_h + 3.0)],
-        0.4,
-        grey(0.6),
-        None,
-    );
-    plan_h
+        TableBox {
+            left,
+            top,
+            col,
+            proc_w,
+            plan_h,
+            used,
+            size,
+        },
+        "item table note",
+        &note,
+    )
 }
 
 /// The ASN curve against quality, with the single plan's sample size as a
