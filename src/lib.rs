@@ -35,6 +35,7 @@ mod demo;
 mod design;
 mod error;
 mod model;
+mod numeric;
 mod plan;
 mod quantity;
 mod report;
@@ -48,17 +49,19 @@ pub use demo::{DEMO_PLANS, DemoRow, run_demo};
 pub use design::{
     Alternative, AsnSummary, Criterion, Design, DesignRequest, MAX_ACCEPTANCE_NUMBER,
     MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_SAMPLE_SIZE, Scheme, SchemeOptions, SingleDesign,
-    Solution, WaldApproximation, design_double, design_for, design_multiple, design_sequential,
-    design_single, single_alternatives, solve, wald_lines,
+    Solution, VariablesDesign, VariablesRequest, VariablesSolution, WaldApproximation,
+    design_double, design_for, design_multiple, design_sequential, design_single, design_variables,
+    single_alternatives, solve, solve_variables, wald_lines,
 };
 pub use error::{DesignError, Error, InputError, SourceError};
-pub use model::{MAX_LOT_SIZE, Model, ModelKind, Tails, nonconforming_in_lot};
+pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
 pub use plan::{
-    Aoql, Decision, Evaluation, ItemRun, Judgement, MAX_ITEMS, MAX_STAGES, Measures,
-    SequentialLines, Stage, StageOutcomes, StagedPlan, acceptance_probability, aoql,
+    Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS, MAX_STAGES,
+    MAX_VARIABLES_SAMPLE, Measures, SequentialLines, SigmaKind, Specification, Stage,
+    StageOutcomes, StagedPlan, VariablesPlan, acceptance_probability, aoql,
     average_outgoing_quality, curtailed_outcomes, curve_maximum, default_qualities, evaluate,
-    indifference_quality, judge, judge_cumulative, largest_asn, measures, quality_at_pa,
-    stage_outcomes,
+    fraction_beyond_known, fraction_beyond_unknown, indifference_quality, judge, judge_cumulative,
+    largest_asn, measures, quality_at_pa, stage_outcomes, statistic_for_fraction,
 };
 pub use quantity::{
     MAX_RANGE_POINTS, QualityRange, parse_count, parse_fraction, parse_fraction_list, parse_number,

@@ -9,9 +9,10 @@ use super::double::design_double;
 use super::multiple::design_multiple;
 use super::sequential::{WaldApproximation, design_sequential};
 use super::single::{Alternative, SingleDesign, design_single, single_alternatives};
+use super::variables::{VariablesDesign, design_variables};
 use crate::error::{DesignError, InputError};
-use crate::model::Model;
-use crate::plan::{StagedPlan, measures, stage_outcomes};
+use crate::model::{Model, ModelKind};
+use crate::plan::{Specification, StagedPlan, measures, stage_outcomes};
 use crate::risk::RiskPair;
 
 /// The sampling scheme of a plan.
@@ -26,6 +27,9 @@ pub enum Scheme {
     Multiple,
     /// Item by item, Wald's sequential probability ratio test, truncated.
     Sequential,
+    /// Measurements of a normal characteristic against its limits
+    /// ([`VariablesRequest`]).
+    Variables,
 }
 
 impl Scheme {
@@ -36,6 +40,7 @@ impl Scheme {
             Scheme::Double => "double",
             Scheme::Multiple => "multiple",
             Scheme::Sequential => "sequential",
+            Scheme::Variables => "variables",
         }
     }
 }
@@ -101,9 +106,15 @@ impl SchemeOptions {
     ///
     /// # Errors
     /// [`InputError`] for a second-sample ratio outside `0.05..=20` or on a
-    /// scheme other than double, a stage count outside `2..=7`, or a
-    /// criterion other than `asn-aql` and `asn-rql` for a multiple plan.
+    /// scheme other than double, a stage count outside `2..=7`, a
+    /// criterion other than `asn-aql` and `asn-rql` for a multiple plan, or
+    /// the variables scheme (its settings are a [`VariablesRequest`]).
     pub fn check(&self, scheme: Scheme) -> Result<(), InputError> {
+        if scheme == Scheme::Variables {
+            return Err(InputError::Inconsistent(
+                "a variables plan is designed from its specification (sigma and limits), not from attribute settings".to_string(),
+            ));
+        }
         if let Some(r) = self.second_ratio {
             if scheme != Scheme::Double {
                 return Err(InputError::Inconsistent(format!(
@@ -231,7 +242,8 @@ pub struct Solution {
 ///
 /// # Errors
 /// As the scheme's designer: [`design_single`], [`design_double`],
-/// [`design_multiple`], [`design_sequential`].
+/// [`design_multiple`], [`design_sequential`]; [`DesignError::NoPlan`] for
+/// the variables scheme, which [`solve_variables`] designs.
 pub fn design_for(request: &DesignRequest) -> Result<Design, DesignError> {
     let (model, risks, o) = (&request.model, &request.risks, &request.options);
     Ok(match request.scheme {
@@ -239,6 +251,14 @@ pub fn design_for(request: &DesignRequest) -> Result<Design, DesignError> {
         Scheme::Double => design_double(model, risks, o.criterion, o.second_ratio)?,
         Scheme::Multiple => design_multiple(model, risks, o.stages, o.criterion)?,
         Scheme::Sequential => design_sequential(model, risks)?.0,
+        Scheme::Variables => {
+            return Err(DesignError::NoPlan {
+                reason: "an attributes request cannot describe a variables plan".to_string(),
+                suggestion:
+                    "build a VariablesRequest with its specification and call solve_variables"
+                        .to_string(),
+            });
+        }
     })
 }
 
@@ -300,4 +320,72 @@ impl From<SingleDesign> for Design {
             consumer_risk: d.consumer_risk,
         }
     }
+}
+
+/// What to design for a variables plan: the characteristic's
+/// specification, the two risk points (fractions beyond the limits), and
+/// the attributes model (with the lot size where known) for the comparison
+/// plan, AOQ and ATI.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct VariablesRequest {
+    spec: Specification,
+    risks: RiskPair,
+    model: Model,
+}
+
+impl VariablesRequest {
+    /// Validates the request.
+    ///
+    /// # Errors
+    /// [`InputError::Inconsistent`] for the Poisson model: a variables plan
+    /// estimates a fraction nonconforming, not nonconformities per unit.
+    pub fn new(spec: Specification, risks: RiskPair, model: Model) -> Result<Self, InputError> {
+        if model.kind() == ModelKind::Poisson {
+            return Err(InputError::Inconsistent(
+                "a variables plan estimates a fraction nonconforming; compare it with the binomial or hypergeometric model, not poisson".to_string(),
+            ));
+        }
+        Ok(VariablesRequest { spec, risks, model })
+    }
+
+    /// The specification.
+    pub fn spec(&self) -> &Specification {
+        &self.spec
+    }
+
+    /// The risk points.
+    pub fn risks(&self) -> &RiskPair {
+        &self.risks
+    }
+
+    /// The attributes model of the comparison plan, with the lot size.
+    pub fn model(&self) -> &Model {
+        &self.model
+    }
+}
+
+/// A solved variables request, with the attributes single plan for the
+/// same points.
+#[derive(Clone, Debug, PartialEq)]
+pub struct VariablesSolution {
+    /// The request it answers.
+    pub request: VariablesRequest,
+    /// The variables plan.
+    pub design: VariablesDesign,
+    /// The attributes single plan for the same points, or why there is
+    /// none within the caps.
+    pub attributes: Result<SingleDesign, DesignError>,
+}
+
+/// Solves a variables request and designs the attributes plan beside it.
+///
+/// # Errors
+/// As [`design_variables`].
+pub fn solve_variables(request: &VariablesRequest) -> Result<VariablesSolution, DesignError> {
+    let design = design_variables(&request.spec, &request.risks)?;
+    Ok(VariablesSolution {
+        request: *request,
+        design,
+        attributes: design_single(&request.model, &request.risks),
+    })
 }

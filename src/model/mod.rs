@@ -16,6 +16,8 @@
 
 mod binomial;
 mod hypergeometric;
+pub(crate) mod noncentral_t;
+pub(crate) mod normal;
 mod poisson;
 mod saddle;
 mod tail;
@@ -29,6 +31,7 @@ use crate::error::InputError;
 use binomial::Binomial;
 use hypergeometric::Hypergeometric;
 pub use hypergeometric::nonconforming_in_lot;
+pub use noncentral_t::NoncentralT;
 use poisson::Poisson;
 pub use tail::Tails;
 use tail::{Terms, tails};

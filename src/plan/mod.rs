@@ -1,12 +1,15 @@
-//! Attribute plans and their exact measures.
+//! Attribute plans and variables plans, with their exact measures.
 
+mod estimate;
 mod evaluation;
 mod judge;
 mod measures;
 mod oc;
 mod sequential;
 mod staged;
+mod variables;
 
+pub use estimate::{fraction_beyond_known, fraction_beyond_unknown, statistic_for_fraction};
 pub use evaluation::{Evaluation, default_qualities, evaluate, quality_at_pa};
 pub use judge::{Decision, Judgement, judge, judge_cumulative};
 pub(crate) use measures::whole_argmax;
@@ -18,3 +21,4 @@ pub(crate) use oc::Walk;
 pub use oc::{StageOutcomes, curtailed_outcomes, stage_outcomes};
 pub use sequential::{ItemRun, SequentialLines};
 pub use staged::{MAX_ITEMS, MAX_STAGES, Stage, StagedPlan};
+pub use variables::{LimitKind, MAX_VARIABLES_SAMPLE, SigmaKind, Specification, VariablesPlan};

@@ -1,0 +1,298 @@
+//! The variables designer: the smallest sample `n`, and the interval of
+//! the acceptance constant (`k` for one limit, `M` for two) at that `n`,
+//! that honour both risk points under the normal model.
+//!
+//! # Method
+//!
+//! For each `n` the producer's point bounds the constant on one side and
+//! the consumer's on the other; `n` is feasible when the bounds cross in
+//! the right order. Feasibility holds from some `n` on (checked against an
+//! exhaustive upward scan, tests/reference/make_variables_reference.py), so
+//! the smallest feasible `n` is found by the threshold search of
+//! [`search`](super::search), started from the closed-form or large-sample
+//! guess.
+//!
+//! - Sigma known, one limit: `Pa(p) = Phi(sqrt(n)(z_p - k))` gives the
+//!   closed form `k in [z_p2 + z_beta / sqrt(n), z_p1 - z_alpha / sqrt(n)]`,
+//!   non-empty from `n >= ((z_alpha + z_beta) / (z_p1 - z_p2))^2` on.
+//! - Sigma unknown, one limit: `k sqrt(n)` between the noncentral t
+//!   quantiles `t_{1-beta}(n - 1, z_p2 sqrt n)` and
+//!   `t_alpha(n - 1, z_p1 sqrt n)`. By the Neyman–Pearson lemma no test can
+//!   beat the sigma-known one at the same `n`, so the sigma-known `n` is a
+//!   lower bound. Beside the exact answer the report gives the usual
+//!   large-sample approximation
+//!   `n ~ (1 + k^2/2) ((z_alpha + z_beta) / (z_p1 - z_p2))^2`,
+//!   `k = (z_p1 z_beta + z_p2 z_alpha) / (z_alpha + z_beta)` (W. A.
+//!   Wallis's approximation, as given in textbooks on acceptance sampling,
+//!   e.g. Montgomery, from memory).
+//! - Two limits: `M` between the smallest value with `Pa(p1) >= 1 - alpha`
+//!   and the largest with `Pa(p2) <= beta`, each a root of the exact (sigma
+//!   known) or numerical (sigma unknown, both configurations of
+//!   [`VariablesPlan`]) OC in `M`, which rises with `M`.
+//!
+//! # Choice of the constant
+//!
+//! The interval's middle: `k = (k_lo + k_hi) / 2`, and for `M` the middle
+//! on the normal-quantile scale, `M = Phi(-(z_{M_lo} + z_{M_hi}) / 2)`, the
+//! scale on which `k` lives. With sigma known this leaves the producer and
+//! the consumer the same margin, in standard-normal units, between their
+//! agreed risk and the achieved one; a constant at either end would spend
+//! one party's whole allowance. The value is then rounded to the fewest
+//! decimals (from 3 for `k`, 4 significant digits for `M`) that stay
+//! strictly inside the interval, so that the printed constant is the one
+//! the plan uses.
+
+use super::search::first_true;
+use crate::error::DesignError;
+use crate::model::{NoncentralT, normal};
+use crate::numeric::brent;
+use crate::plan::{
+    LimitKind, MAX_VARIABLES_SAMPLE, Specification, VariablesPlan, fraction_beyond_unknown,
+};
+use crate::risk::RiskPair;
+
+/// A designed variables plan with the risks it achieves.
+#[derive(Clone, Debug, PartialEq)]
+pub struct VariablesDesign {
+    /// The plan.
+    pub plan: VariablesPlan,
+    /// Achieved producer's risk `1 - Pa(p1)` (the larger over the
+    /// configurations the plan is held to).
+    pub producer_risk: f64,
+    /// Achieved consumer's risk `Pa(p2)` (likewise the larger).
+    pub consumer_risk: f64,
+    /// Every constant in `[lo, hi]` meets both points at this `n`.
+    pub range: (f64, f64),
+    /// The sample size the same points need with sigma known (one limit).
+    pub known_sigma_n: u64,
+    /// Sigma unknown, one limit: the large-sample approximation of `n`.
+    pub approximate_n: Option<f64>,
+}
+
+/// The four normal quantiles of a risk pair.
+#[derive(Clone, Copy)]
+struct Quantiles {
+    p1: f64,
+    p2: f64,
+    alpha: f64,
+    beta: f64,
+}
+
+impl Quantiles {
+    fn of(risks: &RiskPair) -> Self {
+        Quantiles {
+            p1: normal::upper_quantile(risks.producer().quality),
+            p2: normal::upper_quantile(risks.consumer().quality),
+            alpha: normal::upper_quantile(risks.producer().risk),
+            beta: normal::upper_quantile(risks.consumer().risk),
+        }
+    }
+
+    /// `((z_alpha + z_beta) / (z_p1 - z_p2))^2`: the real-valued sigma-known
+    /// sample size.
+    fn known_n(&self) -> f64 {
+        let r = (self.alpha + self.beta) / (self.p1 - self.p2);
+        r * r
+    }
+}
+
+/// The interval of the constant at `n`, `None` when empty.
+type Interval = Option<(f64, f64)>;
+
+/// Designs the smallest variables plan for `spec` that meets `risks`
+/// (qualities are fractions beyond the limits).
+///
+/// # Errors
+/// [`DesignError::NoPlan`] when two limits are so close for the known sigma
+/// that a centred process already exceeds the AQL (or the RQL);
+/// [`DesignError::BeyondCap`] when `n` would exceed 10^4.
+pub fn design_variables(
+    spec: &Specification,
+    risks: &RiskPair,
+) -> Result<VariablesDesign, DesignError> {
+    let z = Quantiles::of(risks);
+    let lowest = spec.lowest_quality();
+    for (name, q) in [
+        ("AQL", risks.producer().quality),
+        ("RQL", risks.consumer().quality),
+    ] {
+        if lowest >= q {
+            return Err(DesignError::NoPlan {
+                reason: format!(
+                    "the limits are too close for sigma: even with its mean centred the process has {:.4}% beyond them (2 Phi(-(U - L) / (2 sigma))), not below the {name} {:.4}%",
+                    100.0 * lowest,
+                    100.0 * q
+                ),
+                suggestion:
+                    "reduce the process spread, widen the limits, or agree the risk points again"
+                        .to_string(),
+            });
+        }
+    }
+    let known_sigma_n = (z.known_n().ceil() as u64).max(1);
+    let least = spec.smallest_sample();
+    let interval = |n: u64| -> Interval { constant_interval(spec, risks, &z, n) };
+    let score = |i: &Interval| match i {
+        Some((lo, hi)) => lo - hi,
+        None => 1.0,
+    };
+    let guess = match (spec.limit(), spec.sigma()) {
+        (LimitKind::Both, _) | (_, None) => large_sample_n(&z).ceil() as u64,
+        (_, Some(_)) => known_sigma_n,
+    };
+    let start = match spec.sigma() {
+        // No test beats the sigma-known one at the same n.
+        None if spec.limit() != LimitKind::Both => known_sigma_n.max(least),
+        _ => least,
+    };
+    let mut n = first_true(start, MAX_VARIABLES_SAMPLE, guess, |n| {
+        let i = interval(n);
+        (i.is_some(), score(&i))
+    })
+    .ok_or_else(|| DesignError::BeyondCap {
+        what: "a sample".to_string(),
+        cap: format!("{MAX_VARIABLES_SAMPLE} measurements"),
+    })?;
+    // The interval's ends are roots to about 1e-13; a plan whose rounded
+    // constant does not meet both points exactly (an interval narrower than
+    // that) moves on to the next n.
+    loop {
+        if let Some(range) = interval(n)
+            && let Some(design) = choose(spec, risks, n, range)
+        {
+            return Ok(VariablesDesign {
+                known_sigma_n,
+                approximate_n: (spec.limit() != LimitKind::Both && spec.sigma().is_none())
+                    .then(|| large_sample_n(&z)),
+                ..design
+            });
+        }
+        n += 1;
+        if n > MAX_VARIABLES_SAMPLE {
+            return Err(DesignError::BeyondCap {
+                what: "a sample".to_string(),
+                cap: format!("{MAX_VARIABLES_SAMPLE} measurements"),
+            });
+        }
+    }
+}
+
+/// `(1 + k^2/2) ((z_alpha + z_beta) / (z_p1 - z_p2))^2` with
+/// `k = (z_p1 z_beta + z_p2 z_alpha) / (z_alpha + z_beta)`.
+fn large_sample_n(z: &Quantiles) -> f64 {
+    let k = (z.p1 * z.beta + z.p2 * z.alpha) / (z.alpha + z.beta);
+    (1.0 + 0.5 * k * k) * z.known_n()
+}
+
+/// The interval of `k` (one limit) or `M` (two limits) meeting both
+/// points at `n`.
+fn constant_interval(spec: &Specification, risks: &RiskPair, z: &Quantiles, n: u64) -> Interval {
+    if n < spec.smallest_sample() {
+        return None;
+    }
+    let (alpha, beta) = (risks.producer().risk, risks.consumer().risk);
+    let root_n = (n as f64).sqrt();
+    let ordered = |lo: f64, hi: f64| (lo <= hi).then_some((lo, hi));
+    match (spec.limit(), spec.sigma()) {
+        (LimitKind::Both, Some(_)) => {
+            let pa =
+                |m: f64, p: f64| VariablesPlan::new(*spec, n, m).map_or(0.0, |plan| plan.pa(p));
+            let lo = fraction_where(|m| pa(m, risks.producer().quality) - (1.0 - alpha))?;
+            let hi = fraction_where(|m| pa(m, risks.consumer().quality) - beta)?;
+            ordered(lo, hi)
+        }
+        (LimitKind::Both, None) => {
+            // One-sided configuration: the k interval of the s method,
+            // turned into M by the estimator (which falls as k rises).
+            let (k_lo, k_hi) = unknown_k_interval(z, alpha, beta, n)?;
+            let one_lo = fraction_beyond_unknown(k_hi, n);
+            let one_hi = fraction_beyond_unknown(k_lo, n);
+            if one_lo > one_hi {
+                return None;
+            }
+            let centred = |m: f64, p: f64| {
+                VariablesPlan::new(*spec, n, m)
+                    .ok()
+                    .and_then(|plan| plan.pa_centred(p))
+                    .unwrap_or(0.0)
+            };
+            let lo = fraction_where(|m| centred(m, risks.producer().quality) - (1.0 - alpha))?;
+            let hi = fraction_where(|m| centred(m, risks.consumer().quality) - beta)?;
+            ordered(lo.max(one_lo), hi.min(one_hi))
+        }
+        (_, Some(_)) => ordered(z.p2 + z.beta / root_n, z.p1 - z.alpha / root_n),
+        (_, None) => {
+            let (lo, hi) = unknown_k_interval(z, alpha, beta, n)?;
+            ordered(lo, hi)
+        }
+    }
+}
+
+/// Sigma unknown, one limit: `[t_{1-beta}(n-1, z_p2 sqrt n), t_alpha(n-1,
+/// z_p1 sqrt n)] / sqrt(n)`, whether or not it is empty (`None` for `n <
+/// 2`).
+fn unknown_k_interval(z: &Quantiles, alpha: f64, beta: f64, n: u64) -> Option<(f64, f64)> {
+    if n < 2 {
+        return None;
+    }
+    let root_n = (n as f64).sqrt();
+    let hi = NoncentralT::new(n - 1, z.p1 * root_n).quantile(alpha) / root_n;
+    let lo = NoncentralT::new(n - 1, z.p2 * root_n).quantile(1.0 - beta) / root_n;
+    Some((lo, hi))
+}
+
+/// The smallest and largest allowed fractions `M`.
+const M_FLOOR: f64 = 1e-12;
+const M_CEILING: f64 = 0.5 - 1e-12;
+
+/// The `M` in `(0, 1/2)` where `g`, rising with `M`, changes sign, found
+/// on `ln M` to 1e-13; `None` when `g` has one sign over the whole range.
+fn fraction_where(g: impl Fn(f64) -> f64) -> Option<f64> {
+    brent(|x| g(x.exp()), M_FLOOR.ln(), M_CEILING.ln(), 1e-13).map(f64::exp)
+}
+
+/// The plan at `n` with the constant in the middle of `range`, rounded,
+/// if it meets both points.
+fn choose(
+    spec: &Specification,
+    risks: &RiskPair,
+    n: u64,
+    range: (f64, f64),
+) -> Option<VariablesDesign> {
+    let two = spec.limit() == LimitKind::Both;
+    let constant = if two {
+        let middle =
+            normal::sf(0.5 * (normal::upper_quantile(range.0) + normal::upper_quantile(range.1)));
+        round_inside(middle, range, |x, d| {
+            let scale = 10f64.powi(d - 1 - x.log10().floor() as i32);
+            (x * scale).round() / scale
+        })
+    } else {
+        round_inside(0.5 * (range.0 + range.1), range, |x, d| {
+            let scale = 10f64.powi(d - 1);
+            (x * scale).round() / scale
+        })
+    };
+    let plan = VariablesPlan::new(*spec, n, constant).ok()?;
+    let (at_aql, _) = plan.pa_bounds(risks.producer().quality);
+    let (_, at_rql) = plan.pa_bounds(risks.consumer().quality);
+    let design = VariablesDesign {
+        plan,
+        producer_risk: 1.0 - at_aql,
+        consumer_risk: at_rql,
+        range,
+        known_sigma_n: 0,
+        approximate_n: None,
+    };
+    (design.producer_risk <= risks.producer().risk && design.consumer_risk <= risks.consumer().risk)
+        .then_some(design)
+}
+
+/// `x` rounded by `round(x, digits)` with the fewest digits from 4 up to
+/// 12 that keep it strictly inside `range`; `x` itself when none does.
+fn round_inside(x: f64, range: (f64, f64), round: impl Fn(f64, i32) -> f64) -> f64 {
+    (4..=12)
+        .map(|d| round(x, d))
+        .find(|&r| r > range.0 && r < range.1)
+        .unwrap_or(x)
+}
