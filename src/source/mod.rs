@@ -7,13 +7,17 @@ mod verify;
 
 use std::path::Path;
 
-pub use schema::{PlanSource, PointSource, RecordedPlan, SCHEMA_VERSION};
+pub use schema::{
+    PlanSource, PointSource, RecordedPlan, RecordedVariables, SCHEMA_VERSION, VariablesSource,
+};
 pub use verify::{Difference, Verdict, verify};
 
-use crate::design::{DesignRequest, Scheme, SchemeOptions, Solution};
+use crate::design::{
+    DesignRequest, Scheme, SchemeOptions, Solution, VariablesRequest, VariablesSolution,
+};
 use crate::error::{InputError, SourceError};
 use crate::model::Model;
-use crate::plan::StagedPlan;
+use crate::plan::{Specification, StagedPlan, VariablesPlan};
 use crate::risk::{RiskPair, RiskPoint};
 
 /// The largest plan source read: 1 MiB, refused by size before parsing.
@@ -58,7 +62,12 @@ impl PlanSource {
                 ),
             });
         }
-        source.request().map_err(|e| SourceError::Invalid {
+        let checked = if source.is_variables() {
+            source.variables_request().map(drop)
+        } else {
+            source.request().map(drop)
+        };
+        checked.map_err(|e| SourceError::Invalid {
             path: path.to_path_buf(),
             source: e,
         })?;
@@ -103,11 +112,70 @@ impl PlanSource {
         Ok((source, request, plan))
     }
 
-    /// The validated design request the source describes.
+    /// Whether the source describes a variables plan.
+    pub fn is_variables(&self) -> bool {
+        self.scheme == Scheme::Variables
+    }
+
+    /// The validated design request of an attributes source.
     ///
     /// # Errors
-    /// [`InputError`] for an invalid model, lot size, risk point or date.
+    /// [`InputError`] for an invalid model, lot size, risk point or date,
+    /// or a variables source (see [`PlanSource::variables_request`]).
     pub fn request(&self) -> Result<DesignRequest, InputError> {
+        if self.is_variables() {
+            return Err(InputError::Inconsistent(format!(
+                "the source '{}' is a variables plan; it has no attributes request",
+                self.title
+            )));
+        }
+        if self.variables.is_some() {
+            return Err(InputError::Inconsistent(format!(
+                "'variables' applies to variables plans only, and this source's scheme is {}",
+                self.scheme
+            )));
+        }
+        let (model, risks) = self.model_and_risks()?;
+        let options = self.scheme_options()?;
+        Ok(DesignRequest {
+            scheme: self.scheme,
+            options,
+            model,
+            risks,
+        })
+    }
+
+    /// The validated request of a variables source.
+    ///
+    /// # Errors
+    /// [`InputError`] for an invalid specification, model, risk point or
+    /// date, attribute settings on a variables plan, or an attributes
+    /// source.
+    pub fn variables_request(&self) -> Result<VariablesRequest, InputError> {
+        let Some(v) = self.variables.as_ref().filter(|_| self.is_variables()) else {
+            return Err(InputError::Inconsistent(format!(
+                "the source '{}' needs scheme: variables and a 'variables' section (sigma, limit, lower/upper)",
+                self.title
+            )));
+        };
+        for (field, given) in [
+            ("criterion", self.criterion.is_some()),
+            ("second_ratio", self.second_ratio.is_some()),
+            ("stage_count", self.stage_count.is_some()),
+        ] {
+            if given {
+                return Err(InputError::Inconsistent(format!(
+                    "'{field}' is an attributes setting; a variables plan does not take it"
+                )));
+            }
+        }
+        let spec = Specification::new(v.sigma, v.sigma_value, v.limit, v.lower, v.upper)?;
+        let (model, risks) = self.model_and_risks()?;
+        VariablesRequest::new(spec, risks, model)
+    }
+
+    /// The checked date, title, model and risk points every source has.
+    fn model_and_risks(&self) -> Result<(Model, RiskPair), InputError> {
         if let Some(date) = &self.date {
             check_date(date)?;
         }
@@ -126,13 +194,7 @@ impl PlanSource {
             },
             &model,
         )?;
-        let options = self.scheme_options()?;
-        Ok(DesignRequest {
-            scheme: self.scheme,
-            options,
-            model,
-            risks,
-        })
+        Ok((model, risks))
     }
 
     /// The scheme settings the source gives, checked against its scheme.
@@ -175,6 +237,11 @@ impl PlanSource {
                 self.title
             ))
         })?;
+        if recorded.variables.is_some() {
+            return Err(InputError::Inconsistent(
+                "the recorded plan is a variables plan (n and k or m), not stages".to_string(),
+            ));
+        }
         match (&recorded.sequential, recorded.stages.is_empty()) {
             (Some(lines), true) => StagedPlan::sequential(*lines, model),
             (None, false) => StagedPlan::new(recorded.stages.clone(), model),
@@ -187,10 +254,113 @@ impl PlanSource {
         }
     }
 
+    /// Loads a variables source that must record a plan, with its request
+    /// and validated plan: what `evaluate FILE` and `judge FILE` start from.
+    ///
+    /// # Errors
+    /// As [`PlanSource::load`]; [`SourceError::Invalid`] when the source
+    /// records no plan or an invalid one.
+    pub fn load_with_variables_plan(
+        path: &Path,
+    ) -> Result<(Self, VariablesRequest, VariablesPlan), SourceError> {
+        let source = Self::load(path)?;
+        let invalid = |e| SourceError::Invalid {
+            path: path.to_path_buf(),
+            source: e,
+        };
+        let request = source.variables_request().map_err(invalid)?;
+        let plan = source
+            .recorded_variables_plan(request.spec())
+            .map_err(invalid)?;
+        Ok((source, request, plan))
+    }
+
+    /// The recorded variables plan, validated for `spec`.
+    ///
+    /// # Errors
+    /// [`InputError`] when the source records no variables plan, gives `k`
+    /// where `m` belongs (or the reverse), or an invalid `n` or constant.
+    pub fn recorded_variables_plan(
+        &self,
+        spec: &Specification,
+    ) -> Result<VariablesPlan, InputError> {
+        let recorded = self
+            .plan
+            .as_ref()
+            .and_then(|p| p.variables.filter(|_| p.stages.is_empty() && p.sequential.is_none()))
+            .ok_or_else(|| {
+                InputError::Inconsistent(format!(
+                    "the source '{}' records no variables plan (plan: variables: n, k or m) yet; solve it first with: lotsman design FILE --output FILE",
+                    self.title
+                ))
+            })?;
+        let two = spec.limit() == crate::plan::LimitKind::Both;
+        let constant = match (recorded.k, recorded.m, two) {
+            (Some(k), None, false) => k,
+            (None, Some(m), true) => m,
+            _ => {
+                return Err(InputError::Inconsistent(format!(
+                    "a plan for {} limit{} records {}",
+                    spec.limit().name(),
+                    if two { "s" } else { "" },
+                    if two {
+                        "m (the maximum allowable fraction), not k"
+                    } else {
+                        "k (the acceptance constant), not m"
+                    }
+                )));
+            }
+        };
+        VariablesPlan::new(*spec, recorded.n, constant)
+    }
+
+    /// A new variables source for `request`, with the given title and the
+    /// measurement unit.
+    pub fn new_variables(title: &str, request: &VariablesRequest, unit: Option<String>) -> Self {
+        let spec = request.spec();
+        let mut source = Self::blank(title, Scheme::Variables, request.model(), request.risks());
+        source.variables = Some(VariablesSource {
+            sigma: spec.sigma_kind(),
+            sigma_value: spec.sigma(),
+            limit: spec.limit(),
+            lower: spec.lower(),
+            upper: spec.upper(),
+            unit,
+        });
+        source
+    }
+
+    /// Records `solution` as the source's variables plan.
+    pub fn record_variables(&mut self, solution: &VariablesSolution) {
+        let plan = &solution.design.plan;
+        self.plan = Some(RecordedPlan {
+            stages: Vec::new(),
+            sequential: None,
+            variables: Some(RecordedVariables {
+                n: plan.n(),
+                k: plan.k(),
+                m: plan.m(),
+            }),
+            producer_risk: solution.design.producer_risk,
+            consumer_risk: solution.design.consumer_risk,
+            solved_by: tool_version(),
+        });
+    }
+
     /// A new source for `request`, with the given title and nothing else
     /// filled in.
     pub fn new(title: &str, request: &DesignRequest) -> Self {
-        let (producer, consumer) = (request.risks.producer(), request.risks.consumer());
+        let mut source = Self::blank(title, request.scheme, &request.model, &request.risks);
+        source.criterion = matches!(request.scheme, Scheme::Double | Scheme::Multiple)
+            .then_some(request.options.criterion);
+        source.second_ratio = request.options.second_ratio;
+        source.stage_count = (request.scheme == Scheme::Multiple).then_some(request.options.stages);
+        source
+    }
+
+    /// A source with the title, scheme, model and points, nothing else.
+    fn blank(title: &str, scheme: Scheme, model: &Model, risks: &RiskPair) -> Self {
+        let (producer, consumer) = (risks.producer(), risks.consumer());
         PlanSource {
             schema: SCHEMA_VERSION,
             title: title.to_string(),
@@ -202,13 +372,13 @@ impl PlanSource {
             prepared_by: None,
             approved_by: None,
             notes: None,
-            scheme: request.scheme,
-            criterion: matches!(request.scheme, Scheme::Double | Scheme::Multiple)
-                .then_some(request.options.criterion),
-            second_ratio: request.options.second_ratio,
-            stage_count: (request.scheme == Scheme::Multiple).then_some(request.options.stages),
-            model: request.model.kind(),
-            lot_size: request.model.lot_size(),
+            scheme,
+            criterion: None,
+            second_ratio: None,
+            stage_count: None,
+            variables: None,
+            model: model.kind(),
+            lot_size: model.lot_size(),
             producer: PointSource {
                 quality: producer.quality,
                 risk: producer.risk,
@@ -230,6 +400,7 @@ impl PlanSource {
                 None => plan.stages().to_vec(),
             },
             sequential: plan.sequential_lines().copied(),
+            variables: None,
             producer_risk: solution.design.producer_risk,
             consumer_risk: solution.design.consumer_risk,
             solved_by: tool_version(),

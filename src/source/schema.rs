@@ -13,7 +13,7 @@ use serde::{Deserialize, Deserializer, Serialize};
 
 use crate::design::{Criterion, Scheme};
 use crate::model::ModelKind;
-use crate::plan::{SequentialLines, Stage};
+use crate::plan::{LimitKind, SequentialLines, SigmaKind, Stage};
 
 /// The schema version this tool reads and writes.
 pub const SCHEMA_VERSION: u32 = 1;
@@ -62,7 +62,11 @@ pub struct PlanSource {
     /// Multiple plans: the number of equal stages, 2 to 7 (default 7).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub stage_count: Option<u32>,
-    /// Likelihood model.
+    /// Variables plans: the measured characteristic's specification.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub variables: Option<VariablesSource>,
+    /// Likelihood model (for a variables plan: the attributes model of the
+    /// comparison plan).
     pub model: ModelKind,
     /// Lot size `N`, required by the hypergeometric model.
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -100,12 +104,52 @@ pub struct RecordedPlan {
     /// The lines and truncation of a sequential plan.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub sequential: Option<SequentialLines>,
+    /// The sample size and acceptance constant of a variables plan.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub variables: Option<RecordedVariables>,
     /// Achieved producer's risk `1 - Pa(p1)`.
     pub producer_risk: f64,
     /// Achieved consumer's risk `Pa(p2)`.
     pub consumer_risk: f64,
     /// Tool and version that solved it, e.g. `lotsman 0.1.0`.
     pub solved_by: String,
+}
+
+/// The specification of a variables plan as stored.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct VariablesSource {
+    /// Whether sigma is known or estimated by `s`.
+    pub sigma: SigmaKind,
+    /// The known sigma, in the unit of the measurements.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub sigma_value: Option<f64>,
+    /// Which specification limits.
+    pub limit: LimitKind,
+    /// The lower limit `L`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub lower: Option<f64>,
+    /// The upper limit `U`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub upper: Option<f64>,
+    /// The unit of the measurements, e.g. `mm`, for the sheet.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub unit: Option<String>,
+}
+
+/// A solved variables plan as recorded: `n` with `k` (one limit) or `m`
+/// (two limits).
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RecordedVariables {
+    /// Sample size.
+    pub n: u64,
+    /// One limit: the acceptance constant.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub k: Option<f64>,
+    /// Two limits: the maximum allowable fraction nonconforming.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub m: Option<f64>,
 }
 
 fn fraction<'de, D: Deserializer<'de>>(d: D) -> Result<f64, D::Error> {

@@ -3,8 +3,8 @@
 
 use serde::Serialize;
 
-use super::PlanSource;
-use crate::design::design_for;
+use super::{PlanSource, RecordedPlan, RecordedVariables};
+use crate::design::{design_for, design_variables};
 use crate::error::Error;
 use crate::plan::{SequentialLines, Stage};
 
@@ -40,6 +40,9 @@ pub enum Verdict {
 /// [`Error`] when the source's inputs are invalid or its risk points have
 /// no plan (the source is then invalid, not a mismatch).
 pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
+    if source.is_variables() {
+        return verify_variables(source);
+    }
     let design = design_for(&source.request()?)?;
     let Some(recorded) = &source.plan else {
         return Ok(Verdict::Mismatch(vec![Difference {
@@ -68,17 +71,72 @@ pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
             .into(),
         }),
     }
+    compare_risks(
+        recorded,
+        (design.producer_risk, design.consumer_risk),
+        &mut diffs,
+    );
+    Ok(verdict(diffs))
+}
+
+/// A variables source: `n` and the constant must match exactly (they are
+/// rounded decimals chosen by the same rule), the risks within
+/// [`RISK_TOLERANCE`].
+fn verify_variables(source: &PlanSource) -> Result<Verdict, Error> {
+    let request = source.variables_request()?;
+    let design = design_variables(request.spec(), request.risks())?;
+    let plan = &design.plan;
+    let resolved = RecordedVariables {
+        n: plan.n(),
+        k: plan.k(),
+        m: plan.m(),
+    };
+    let Some((recorded, numbers)) = source
+        .plan
+        .as_ref()
+        .and_then(|p| p.variables.map(|v| (p, v)))
+    else {
+        return Ok(Verdict::Mismatch(vec![Difference {
+            field: "plan.variables".into(),
+            recorded: "(none)".into(),
+            resolved: plan.to_string(),
+        }]));
+    };
+    let mut diffs = Vec::new();
+    let opt = |a: Option<f64>| a.map_or("none".to_string(), |v| v.to_string());
     for (name, a, b) in [
-        (
-            "plan.producer_risk",
-            recorded.producer_risk,
-            design.producer_risk,
-        ),
-        (
-            "plan.consumer_risk",
-            recorded.consumer_risk,
-            design.consumer_risk,
-        ),
+        ("n", numbers.n.to_string(), resolved.n.to_string()),
+        ("k", opt(numbers.k), opt(resolved.k)),
+        ("m", opt(numbers.m), opt(resolved.m)),
+    ] {
+        if a != b {
+            diffs.push(Difference {
+                field: format!("plan.variables.{name}"),
+                recorded: a,
+                resolved: b,
+            });
+        }
+    }
+    compare_risks(
+        recorded,
+        (design.producer_risk, design.consumer_risk),
+        &mut diffs,
+    );
+    Ok(verdict(diffs))
+}
+
+fn verdict(diffs: Vec<Difference>) -> Verdict {
+    if diffs.is_empty() {
+        Verdict::Match
+    } else {
+        Verdict::Mismatch(diffs)
+    }
+}
+
+fn compare_risks(recorded: &RecordedPlan, resolved: (f64, f64), diffs: &mut Vec<Difference>) {
+    for (name, a, b) in [
+        ("plan.producer_risk", recorded.producer_risk, resolved.0),
+        ("plan.consumer_risk", recorded.consumer_risk, resolved.1),
     ] {
         if (a - b).abs() > RISK_TOLERANCE * b.abs().max(f64::MIN_POSITIVE) {
             diffs.push(Difference {
@@ -88,11 +146,6 @@ pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
             });
         }
     }
-    Ok(if diffs.is_empty() {
-        Verdict::Match
-    } else {
-        Verdict::Mismatch(diffs)
-    })
 }
 
 fn compare_stages(recorded: &[Stage], resolved: &[Stage], diffs: &mut Vec<Difference>) {
