@@ -45,6 +45,23 @@ pub enum SchemeArg {
     Double,
     Multiple,
     Sequential,
+    /// Measurements against specification limits (normal model)
+    Variables,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum SigmaArg {
+    /// Sigma known from the process record (give --sigma-value)
+    Known,
+    /// Sigma estimated from each sample by s
+    Unknown,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum LimitArg {
+    Lower,
+    Upper,
+    Both,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
@@ -88,7 +105,7 @@ pub struct ModelFlags {
 #[derive(Debug, Args)]
 pub struct DesignArgs {
     /// A plan source to solve instead of the flags below
-    #[arg(value_name = "FILE.yaml", conflicts_with_all = ["aql", "rql", "alpha", "beta", "model", "lot_size", "title", "scheme", "criterion", "second_ratio", "stage_count"])]
+    #[arg(value_name = "FILE.yaml", conflicts_with_all = ["aql", "rql", "alpha", "beta", "model", "lot_size", "title", "scheme", "criterion", "second_ratio", "stage_count", "sigma", "limit", "sigma_value", "lower", "upper", "unit"])]
     pub source: Option<PathBuf>,
     /// Producer's quality p1 (AQL), as a fraction (0.01) or a percent (1%)
     #[arg(long, value_name = "P1", required_unless_present = "source")]
@@ -116,6 +133,24 @@ pub struct DesignArgs {
     /// Multiple plans: number of equal stages, 2 to 7 [default: 7]
     #[arg(long, value_name = "K")]
     pub stage_count: Option<String>,
+    /// Variables plans: is the process sigma known or estimated by s
+    #[arg(long, value_enum)]
+    pub sigma: Option<SigmaArg>,
+    /// Variables plans: which specification limits
+    #[arg(long, value_enum)]
+    pub limit: Option<LimitArg>,
+    /// Variables plans, sigma known: its value, in the unit of the measurements
+    #[arg(long, value_name = "S")]
+    pub sigma_value: Option<String>,
+    /// Variables plans: lower specification limit L
+    #[arg(long, value_name = "L", allow_hyphen_values = true)]
+    pub lower: Option<String>,
+    /// Variables plans: upper specification limit U
+    #[arg(long, value_name = "U", allow_hyphen_values = true)]
+    pub upper: Option<String>,
+    /// Variables plans: unit of the measurements, for the sheet (mm, ohm, g)
+    #[arg(long)]
+    pub unit: Option<String>,
     /// Title recorded in the plan source written with --output
     #[arg(long)]
     pub title: Option<String>,
@@ -180,8 +215,20 @@ pub struct JudgeArgs {
     pub source: PathBuf,
     /// Count found in each stage's new units, in order (repeat per stage); with
     /// --inspected, the one cumulative count so far
-    #[arg(long, value_name = "K", required = true)]
+    #[arg(
+        long,
+        value_name = "K",
+        required_unless_present = "measurements",
+        conflicts_with = "measurements"
+    )]
     pub found: Vec<String>,
+    /// Variables plans: the sample's measurements, a CSV file with one value per row
+    /// (or a header row and --column)
+    #[arg(long, value_name = "FILE.csv")]
+    pub measurements: Option<PathBuf>,
+    /// The CSV column that holds the measurements, by its header name
+    #[arg(long, value_name = "NAME", requires = "measurements")]
+    pub column: Option<String>,
     /// Units inspected so far, for one cumulative --found count (item-by-item plans)
     #[arg(long, value_name = "N")]
     pub inspected: Option<String>,

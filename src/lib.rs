@@ -58,10 +58,11 @@ pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconformin
 pub use plan::{
     Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS, MAX_STAGES,
     MAX_VARIABLES_SAMPLE, Measures, SequentialLines, SigmaKind, Specification, Stage,
-    StageOutcomes, StagedPlan, VariablesPlan, acceptance_probability, aoql,
-    average_outgoing_quality, curtailed_outcomes, curve_maximum, default_qualities, evaluate,
-    fraction_beyond_known, fraction_beyond_unknown, indifference_quality, judge, judge_cumulative,
-    largest_asn, measures, quality_at_pa, stage_outcomes, statistic_for_fraction,
+    StageOutcomes, StagedPlan, VariablesEvaluation, VariablesPlan, VariablesPoint,
+    acceptance_probability, aoql, average_outgoing_quality, curtailed_outcomes, curve_maximum,
+    default_qualities, evaluate, evaluate_variables, fraction_beyond_known,
+    fraction_beyond_unknown, indifference_quality, judge, judge_cumulative, largest_asn, measures,
+    quality_at_pa, stage_outcomes, statistic_for_fraction, variables_point, variables_qualities,
 };
 pub use quantity::{
     MAX_RANGE_POINTS, QualityRange, parse_count, parse_fraction, parse_fraction_list, parse_number,
@@ -69,14 +70,15 @@ pub use quantity::{
 };
 pub use report::{
     AlternativeReport, Csv, DesignReport, EvaluationReport, Json, PointReport, ReportFormat, Table,
-    VerificationReport, VerifyEntry, VerifyStatus, format_quality, format_significant, words,
+    VariablesDesignReport, VariablesEvaluationReport, VariablesReport, VerificationReport,
+    VerifyEntry, VerifyStatus, format_quality, format_significant, variables_rule, words,
 };
 pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{
     HASH_PREFIX, Paper, Sheet, render_sheet, sheet_source_hash, source_hash, write_sheet,
 };
 pub use source::{
-    Difference, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan, SCHEMA_VERSION, Verdict,
-    tool_version, verify,
+    Difference, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan, RecordedVariables,
+    SCHEMA_VERSION, VariablesSource, Verdict, tool_version, verify,
 };
 pub use templates::{TEMPLATES, template, template_kinds};

@@ -10,16 +10,18 @@ use std::process::ExitCode;
 
 use clap::Parser;
 use cli::{
-    Cli, Command, CriterionArg, DesignFormat, ModelArg, ModelFlags, PaperArg, ReportFormatArg,
-    SchemeArg,
+    Cli, Command, CriterionArg, DesignFormat, LimitArg, ModelArg, ModelFlags, PaperArg,
+    ReportFormatArg, SchemeArg, SigmaArg,
 };
 use lotsman::{
     Criterion, Csv, Decision, DesignReport, DesignRequest, Error, EvaluationReport, InputError,
-    Json, MAX_LOT_SIZE, Model, ModelKind, Paper, PlanSource, QualityRange, ReportFormat, RiskPair,
-    RiskPoint, Scheme, SchemeOptions, SourceError, StagedPlan, Table, Verdict, VerificationReport,
-    VerifyEntry, VerifyStatus, default_qualities, evaluate, judge, judge_cumulative, parse_count,
-    parse_fraction, parse_fraction_list, parse_number, parse_stage, run_demo, sheet_source_hash,
-    solve, source_hash, template, template_kinds, verify, write_atomic, write_sheet,
+    Json, LimitKind, MAX_LOT_SIZE, Model, ModelKind, Paper, PlanSource, QualityRange, ReportFormat,
+    RiskPair, RiskPoint, Scheme, SchemeOptions, SigmaKind, SourceError, Specification, StagedPlan,
+    Table, VariablesDesignReport, VariablesEvaluationReport, VariablesRequest, Verdict,
+    VerificationReport, VerifyEntry, VerifyStatus, default_qualities, evaluate, evaluate_variables,
+    judge, judge_cumulative, parse_count, parse_fraction, parse_fraction_list, parse_number,
+    parse_stage, run_demo, sheet_source_hash, solve, solve_variables, source_hash, template,
+    template_kinds, variables_qualities, verify, write_atomic, write_sheet,
 };
 
 fn main() -> ExitCode {
@@ -90,6 +92,40 @@ fn model_from(flags: &ModelFlags) -> Result<Model, InputError> {
 }
 
 fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
+    let variables = match &args.source {
+        Some(path) => {
+            let source = PlanSource::load(path)?;
+            if source.is_variables() {
+                let request = source
+                    .variables_request()
+                    .map_err(|e| SourceError::Invalid {
+                        path: path.clone(),
+                        source: e,
+                    })?;
+                Some((source, request))
+            } else {
+                None
+            }
+        }
+        None if args.scheme == SchemeArg::Variables => {
+            let request = variables_request_from(&args)?;
+            let title = args
+                .title
+                .clone()
+                .unwrap_or_else(|| "Untitled plan".to_string());
+            Some((
+                PlanSource::new_variables(&title, &request, args.unit.clone()),
+                request,
+            ))
+        }
+        None => {
+            refuse_variables_flags(&args)?;
+            None
+        }
+    };
+    if let Some((source, request)) = variables {
+        return design_variables_cmd(&args, source, &request);
+    }
     let (mut source, request) = match &args.source {
         Some(path) => {
             let source = PlanSource::load(path)?;
@@ -101,27 +137,13 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
         }
         None => {
             let model = model_from(&args.model)?;
-            let point = |q: &Option<String>,
-                         q_name: &str,
-                         r: &str,
-                         r_name: &str|
-             -> Result<RiskPoint, InputError> {
-                let quality = parse_fraction(q_name, q.as_deref().unwrap_or(""))?;
-                Ok(RiskPoint {
-                    quality,
-                    risk: parse_fraction(r_name, r)?,
-                })
-            };
-            let risks = RiskPair::new(
-                point(&args.aql, "--aql", &args.alpha, "--alpha")?,
-                point(&args.rql, "--rql", &args.beta, "--beta")?,
-                &model,
-            )?;
+            let risks = risks_from(&args, &model)?;
             let scheme = match args.scheme {
                 SchemeArg::Single => Scheme::Single,
                 SchemeArg::Double => Scheme::Double,
                 SchemeArg::Multiple => Scheme::Multiple,
                 SchemeArg::Sequential => Scheme::Sequential,
+                SchemeArg::Variables => Scheme::Variables,
             };
             let defaults = SchemeOptions::default();
             let options = SchemeOptions {
@@ -167,22 +189,9 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
             (PlanSource::new(&title, &request), request)
         }
     };
-    let solution = solve(&request).map_err(|e| match &args.source {
-        Some(path) => Error::Source(SourceError::Design {
-            path: path.clone(),
-            source: e,
-        }),
-        None => Error::Design(e),
-    })?;
+    let solution = solve(&request).map_err(|e| design_error(&args, e))?;
     source.record(&solution);
-    if let Some(target) = &args.output {
-        refuse_overwriting_input(target, args.source.as_deref())?;
-        write_atomic(target, source.to_yaml().as_bytes()).map_err(|e| SourceError::Io {
-            path: target.clone(),
-            source: e,
-        })?;
-        eprintln!("lotsman: wrote plan source {}", target.display());
-    }
+    write_source(&args, &source)?;
     let report = DesignReport::new(&source.title, &solution);
     let mut text = Vec::new();
     match args.format {
@@ -192,6 +201,135 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     }
     print_out(&text)?;
     Ok(ExitCode::SUCCESS)
+}
+
+/// A designer's refusal, naming the source it came from.
+fn design_error(args: &cli::DesignArgs, e: lotsman::DesignError) -> Error {
+    match &args.source {
+        Some(path) => Error::Source(SourceError::Design {
+            path: path.clone(),
+            source: e,
+        }),
+        None => Error::Design(e),
+    }
+}
+
+/// Writes the solved source to `--output`, if given.
+fn write_source(args: &cli::DesignArgs, source: &PlanSource) -> Result<(), Error> {
+    if let Some(target) = &args.output {
+        refuse_overwriting_input(target, args.source.as_deref())?;
+        write_atomic(target, source.to_yaml().as_bytes()).map_err(|e| SourceError::Io {
+            path: target.clone(),
+            source: e,
+        })?;
+        eprintln!("lotsman: wrote plan source {}", target.display());
+    }
+    Ok(())
+}
+
+fn design_variables_cmd(
+    args: &cli::DesignArgs,
+    mut source: PlanSource,
+    request: &VariablesRequest,
+) -> Result<ExitCode, Error> {
+    let solution = solve_variables(request).map_err(|e| design_error(args, e))?;
+    source.record_variables(&solution);
+    write_source(args, &source)?;
+    let report = VariablesDesignReport::new(&source.title, &solution);
+    let mut text = Vec::new();
+    match args.format {
+        DesignFormat::Table => Table.variables_design(&mut text, &report)?,
+        DesignFormat::Json => Json.variables_design(&mut text, &report)?,
+        DesignFormat::Yaml => text = source.to_yaml().into_bytes(),
+    }
+    print_out(&text)?;
+    Ok(ExitCode::SUCCESS)
+}
+
+/// The risk points of `--aql`, `--alpha`, `--rql`, `--beta` for `model`.
+fn risks_from(args: &cli::DesignArgs, model: &Model) -> Result<RiskPair, InputError> {
+    let point = |q: &Option<String>,
+                 q_name: &str,
+                 r: &str,
+                 r_name: &str|
+     -> Result<RiskPoint, InputError> {
+        Ok(RiskPoint {
+            quality: parse_fraction(q_name, q.as_deref().unwrap_or(""))?,
+            risk: parse_fraction(r_name, r)?,
+        })
+    };
+    RiskPair::new(
+        point(&args.aql, "--aql", &args.alpha, "--alpha")?,
+        point(&args.rql, "--rql", &args.beta, "--beta")?,
+        model,
+    )
+}
+
+/// A variables request from the flags: `--sigma` and `--limit` are
+/// required, the attribute settings refused.
+fn variables_request_from(args: &cli::DesignArgs) -> Result<VariablesRequest, InputError> {
+    for (flag, given) in [
+        ("--criterion", args.criterion.is_some()),
+        ("--second-ratio", args.second_ratio.is_some()),
+        ("--stage-count", args.stage_count.is_some()),
+    ] {
+        if given {
+            return Err(InputError::Inconsistent(format!(
+                "{flag} is an attributes setting; a variables plan does not take it"
+            )));
+        }
+    }
+    let sigma = match args.sigma {
+        Some(SigmaArg::Known) => SigmaKind::Known,
+        Some(SigmaArg::Unknown) => SigmaKind::Unknown,
+        None => {
+            return Err(InputError::Inconsistent(
+                "--scheme variables needs --sigma known (with --sigma-value S) or --sigma unknown"
+                    .to_string(),
+            ));
+        }
+    };
+    let limit = match args.limit {
+        Some(LimitArg::Lower) => LimitKind::Lower,
+        Some(LimitArg::Upper) => LimitKind::Upper,
+        Some(LimitArg::Both) => LimitKind::Both,
+        None => {
+            return Err(InputError::Inconsistent(
+                "--scheme variables needs --limit lower (with --lower L), upper (with --upper U) or both".to_string(),
+            ));
+        }
+    };
+    let number =
+        |flag: &str, v: &Option<String>| v.as_deref().map(|t| parse_number(flag, t)).transpose();
+    let spec = Specification::new(
+        sigma,
+        number("--sigma-value", &args.sigma_value)?,
+        limit,
+        number("--lower", &args.lower)?,
+        number("--upper", &args.upper)?,
+    )?;
+    let model = model_from(&args.model)?;
+    let risks = risks_from(args, &model)?;
+    VariablesRequest::new(spec, risks, model)
+}
+
+/// The variables flags on an attributes scheme are a mistake to report.
+fn refuse_variables_flags(args: &cli::DesignArgs) -> Result<(), InputError> {
+    for (flag, given) in [
+        ("--sigma", args.sigma.is_some()),
+        ("--limit", args.limit.is_some()),
+        ("--sigma-value", args.sigma_value.is_some()),
+        ("--lower", args.lower.is_some()),
+        ("--upper", args.upper.is_some()),
+        ("--unit", args.unit.is_some()),
+    ] {
+        if given {
+            return Err(InputError::Inconsistent(format!(
+                "{flag} applies to variables plans (--scheme variables)"
+            )));
+        }
+    }
+    Ok(())
 }
 
 /// `--output` never replaces the source that was read.
@@ -210,7 +348,38 @@ fn refuse_overwriting_input(target: &Path, input: Option<&Path>) -> Result<(), I
     Ok(())
 }
 
+/// The qualities of `--at` and `--range`, in that order.
+fn asked_qualities(args: &cli::EvaluateArgs) -> Result<Vec<f64>, InputError> {
+    let mut qualities = Vec::new();
+    if let Some(list) = &args.at {
+        qualities.extend(parse_fraction_list("--at", list)?);
+    }
+    if let Some(range) = &args.range {
+        qualities.extend(QualityRange::parse("--range", range)?.points());
+    }
+    Ok(qualities)
+}
+
+fn evaluate_variables_cmd(args: &cli::EvaluateArgs, path: &Path) -> Result<ExitCode, Error> {
+    let (_, request, plan) = PlanSource::load_with_variables_plan(path)?;
+    let mut qualities = asked_qualities(args)?;
+    if qualities.is_empty() {
+        qualities = variables_qualities(&plan, request.risks());
+    }
+    let evaluation = evaluate_variables(&plan, request.model().lot_size(), &qualities)?;
+    let report = VariablesEvaluationReport::from(&evaluation);
+    let mut text = Vec::new();
+    formatter(args.format).variables_evaluation(&mut text, &report)?;
+    print_out(&text)?;
+    Ok(ExitCode::SUCCESS)
+}
+
 fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
+    if let Some(path) = &args.source
+        && PlanSource::load(path)?.is_variables()
+    {
+        return evaluate_variables_cmd(&args, path);
+    }
     let (plan, model, risks) = match &args.source {
         Some(path) => {
             let (_, request, plan) = PlanSource::load_with_plan(path)?;
@@ -243,13 +412,7 @@ fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
             (plan, model, None)
         }
     };
-    let mut qualities = Vec::new();
-    if let Some(list) = &args.at {
-        qualities.extend(parse_fraction_list("--at", list)?);
-    }
-    if let Some(range) = &args.range {
-        qualities.extend(QualityRange::parse("--range", range)?.points());
-    }
+    let mut qualities = asked_qualities(&args)?;
     if qualities.is_empty() {
         qualities = default_qualities(&plan, &model, risks.as_ref());
     }

@@ -80,19 +80,7 @@ pub fn quality_at_pa(plan: &StagedPlan, model: &Model, target: f64) -> f64 {
 /// hypergeometric model each is moved to the nearest lot quality `D / N`.
 pub fn default_qualities(plan: &StagedPlan, model: &Model, risks: Option<&RiskPair>) -> Vec<f64> {
     let mut qs: Vec<f64> = match risks {
-        Some(r) => {
-            let (p1, p2) = (r.producer().quality, r.consumer().quality);
-            vec![
-                p1 / 4.0,
-                p1 / 2.0,
-                p1,
-                (p1 * p2).sqrt(),
-                p2,
-                1.5 * p2,
-                2.0 * p2,
-                3.0 * p2,
-            ]
-        }
+        Some(r) => bracketing_qualities(r),
         None => {
             let top = quality_at_pa(plan, model, 0.05);
             (1..=10).map(|i| top * i as f64 / 10.0).collect()
@@ -108,4 +96,20 @@ pub fn default_qualities(plan: &StagedPlan, model: &Model, risks: Option<&RiskPa
     qs.retain(|&q| model.accepts_quality(q));
     qs.dedup();
     qs
+}
+
+/// The eight qualities that bracket a pair of risk points:
+/// `p1/4, p1/2, p1, sqrt(p1 p2), p2, 1.5 p2, 2 p2, 3 p2`.
+pub(crate) fn bracketing_qualities(risks: &RiskPair) -> Vec<f64> {
+    let (p1, p2) = (risks.producer().quality, risks.consumer().quality);
+    vec![
+        p1 / 4.0,
+        p1 / 2.0,
+        p1,
+        (p1 * p2).sqrt(),
+        p2,
+        1.5 * p2,
+        2.0 * p2,
+        3.0 * p2,
+    ]
 }

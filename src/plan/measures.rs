@@ -221,7 +221,7 @@ fn argmax<T>(xs: &[T], f: impl Fn(&T) -> f64) -> usize {
 }
 
 /// Maximiser of a unimodal `f` on `[lo, hi]` by golden-section search.
-fn golden_max(f: &impl Fn(f64) -> f64, mut lo: f64, mut hi: f64) -> f64 {
+pub(crate) fn golden_max(f: &impl Fn(f64) -> f64, mut lo: f64, mut hi: f64) -> f64 {
     const INV_PHI: f64 = 0.618_033_988_749_894_8;
     let mut x1 = hi - INV_PHI * (hi - lo);
     let mut x2 = lo + INV_PHI * (hi - lo);

@@ -8,6 +8,7 @@ mod oc;
 mod sequential;
 mod staged;
 mod variables;
+mod variables_evaluation;
 
 pub use estimate::{fraction_beyond_known, fraction_beyond_unknown, statistic_for_fraction};
 pub use evaluation::{Evaluation, default_qualities, evaluate, quality_at_pa};
@@ -22,3 +23,6 @@ pub use oc::{StageOutcomes, curtailed_outcomes, stage_outcomes};
 pub use sequential::{ItemRun, SequentialLines};
 pub use staged::{MAX_ITEMS, MAX_STAGES, Stage, StagedPlan};
 pub use variables::{LimitKind, MAX_VARIABLES_SAMPLE, SigmaKind, Specification, VariablesPlan};
+pub use variables_evaluation::{
+    VariablesEvaluation, VariablesPoint, evaluate_variables, variables_point, variables_qualities,
+};

@@ -4,7 +4,10 @@
 
 use std::io::{self, Write};
 
-use super::{DesignReport, EvaluationReport, ReportFormat, VerificationReport};
+use super::{
+    DesignReport, EvaluationReport, ReportFormat, VariablesDesignReport, VariablesEvaluationReport,
+    VerificationReport,
+};
 
 /// Comma-separated values, for spreadsheets.
 #[derive(Clone, Copy, Debug, Default)]
@@ -81,6 +84,48 @@ impl ReportFormat for Csv {
                     text(&d.resolved)
                 )?;
             }
+        }
+        Ok(())
+    }
+
+    fn variables_design(&self, out: &mut dyn Write, r: &VariablesDesignReport) -> io::Result<()> {
+        writeln!(
+            out,
+            "n,k,m,range_min,range_max,producer_risk,consumer_risk,attributes_n,attributes_c"
+        )?;
+        let v = &r.variables;
+        let range = v.k_range.or(v.m_range);
+        writeln!(
+            out,
+            "{},{},{},{},{},{},{},{},{}",
+            v.n,
+            cell(v.k),
+            cell(v.m),
+            cell(range.map(|x| x[0])),
+            cell(range.map(|x| x[1])),
+            r.producer.achieved_risk,
+            r.consumer.achieved_risk,
+            cell(r.attributes_plan.map(|a| a.n)),
+            cell(r.attributes_plan.map(|a| a.c))
+        )
+    }
+
+    fn variables_evaluation(
+        &self,
+        out: &mut dyn Write,
+        r: &VariablesEvaluationReport,
+    ) -> io::Result<()> {
+        writeln!(out, "quality,pa,pa_centred,aoq,ati")?;
+        for p in &r.points {
+            writeln!(
+                out,
+                "{},{},{},{},{}",
+                p.quality,
+                p.pa,
+                cell(p.pa_centred),
+                p.aoq,
+                cell(p.ati)
+            )?;
         }
         Ok(())
     }

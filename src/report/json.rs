@@ -4,7 +4,10 @@ use std::io::{self, Write};
 
 use serde::Serialize;
 
-use super::{DesignReport, EvaluationReport, ReportFormat, VerificationReport};
+use super::{
+    DesignReport, EvaluationReport, ReportFormat, VariablesDesignReport, VariablesEvaluationReport,
+    VerificationReport,
+};
 
 /// Pretty-printed JSON, one object per report, keys in snake_case.
 #[derive(Clone, Copy, Debug, Default)]
@@ -25,6 +28,22 @@ impl ReportFormat for Json {
     }
 
     fn verification(&self, out: &mut dyn Write, report: &VerificationReport) -> io::Result<()> {
+        write_json(out, report)
+    }
+
+    fn variables_design(
+        &self,
+        out: &mut dyn Write,
+        report: &VariablesDesignReport,
+    ) -> io::Result<()> {
+        write_json(out, report)
+    }
+
+    fn variables_evaluation(
+        &self,
+        out: &mut dyn Write,
+        report: &VariablesEvaluationReport,
+    ) -> io::Result<()> {
         write_json(out, report)
     }
 }

@@ -9,6 +9,7 @@
 mod csv;
 mod json;
 mod table;
+mod variables;
 pub mod words;
 
 use std::io::{self, Write};
@@ -18,6 +19,9 @@ use serde::Serialize;
 pub use self::csv::Csv;
 pub use self::json::Json;
 pub use self::table::Table;
+pub use self::variables::{
+    VariablesDesignReport, VariablesEvaluationReport, VariablesReport, variables_rule,
+};
 use crate::design::{Alternative, AsnSummary, Scheme, Solution, WaldApproximation};
 use crate::model::ModelKind;
 use crate::plan::{Aoql, Evaluation, ItemRun, Measures, SequentialLines, Stage, StagedPlan};
@@ -31,6 +35,18 @@ pub trait ReportFormat {
     fn evaluation(&self, out: &mut dyn Write, report: &EvaluationReport) -> io::Result<()>;
     /// Writes the results of verifying one or more sources.
     fn verification(&self, out: &mut dyn Write, report: &VerificationReport) -> io::Result<()>;
+    /// Writes a variables design report.
+    fn variables_design(
+        &self,
+        out: &mut dyn Write,
+        report: &VariablesDesignReport,
+    ) -> io::Result<()>;
+    /// Writes a variables evaluation report.
+    fn variables_evaluation(
+        &self,
+        out: &mut dyn Write,
+        report: &VariablesEvaluationReport,
+    ) -> io::Result<()>;
 }
 
 /// A risk point with the risk the plan achieves there.

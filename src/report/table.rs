@@ -6,8 +6,9 @@ use comfy_table::{CellAlignment, ContentArrangement, LineStyle, Table as Grid, T
 
 use super::words;
 use super::{
-    DesignReport, EvaluationReport, ReportFormat, SequentialReport, VerificationReport,
-    format_quality, format_significant,
+    DesignReport, EvaluationReport, ReportFormat, SequentialReport, VariablesDesignReport,
+    VariablesEvaluationReport, VariablesReport, VerificationReport, format_quality,
+    format_significant, variables_rule,
 };
 use crate::model::ModelKind;
 use crate::plan::Stage;
@@ -301,4 +302,135 @@ impl ReportFormat for Table {
             r.count(super::VerifyStatus::Invalid)
         )
     }
+
+    fn variables_design(&self, out: &mut dyn Write, r: &VariablesDesignReport) -> io::Result<()> {
+        writeln!(out, "{}", r.title)?;
+        writeln!(out, "{}", specification_line(&r.variables))?;
+        writeln!(out)?;
+        writeln!(out, "  PLAN  {}", r.plan)?;
+        for line in variables_rule(&r.plan) {
+            writeln!(out, "  {line}")?;
+        }
+        writeln!(out)?;
+        let mut g = grid(&["Risk point", "Quality", "Agreed risk", "Achieved risk"]);
+        for (name, greek, p) in [
+            ("Producer (AQL)", "alpha", &r.producer),
+            ("Consumer (RQL)", "beta", &r.consumer),
+        ] {
+            g.add_row(vec![
+                name.to_string(),
+                format_quality(p.quality, false),
+                format!("{greek} {}", p.risk),
+                format_significant(p.achieved_risk, 4),
+            ]);
+        }
+        writeln!(out, "{g}")?;
+        writeln!(out)?;
+        let mut g = grid(&["Plan for the same points", "Sample size"]);
+        g.add_row(vec![
+            format!("variables, sigma {}", r.variables.sigma.name()),
+            r.variables.n.to_string(),
+        ]);
+        if r.variables.sigma == crate::plan::SigmaKind::Unknown {
+            g.add_row(vec![
+                "variables, sigma known".to_string(),
+                r.known_sigma_n.to_string(),
+            ]);
+        }
+        if let Some(a) = r.large_sample_n {
+            g.add_row(vec![
+                "large-sample approximation".to_string(),
+                format!("{a:.1}"),
+            ]);
+        }
+        if let Some(a) = r.attributes_plan {
+            g.add_row(vec![
+                format!("attributes single, c = {} ({} model)", a.c, r.model),
+                a.n.to_string(),
+            ]);
+        }
+        writeln!(out, "{g}")?;
+        if let Some(saved) = r.sample_saved {
+            writeln!(
+                out,
+                "The variables plan measures {} units {} than the attributes plan inspects.",
+                saved.abs(),
+                if saved >= 0 { "fewer" } else { "more" }
+            )?;
+        }
+        for note in &r.notes {
+            writeln!(out, "Note: {note}")?;
+        }
+        writeln!(out, "{}", words::CAUTION)
+    }
+
+    fn variables_evaluation(
+        &self,
+        out: &mut dyn Write,
+        r: &VariablesEvaluationReport,
+    ) -> io::Result<()> {
+        let lot = r
+            .lot_size
+            .map_or("no lot size".to_string(), |n| format!("lot of {n} units"));
+        writeln!(out, "Plan {}; {lot}", r.plan)?;
+        writeln!(out, "{}", specification_line(&r.variables))?;
+        let centred = r.points.iter().any(|p| p.pa_centred.is_some());
+        let mut header = vec!["Quality", "Pa"];
+        if centred {
+            header[1] = "Pa one-sided";
+            header.push("Pa centred");
+        }
+        header.extend(["AOQ", "ATI"]);
+        let mut g = grid(&header);
+        for p in &r.points {
+            let mut row = vec![format_quality(p.quality, false), format!("{:.4}", p.pa)];
+            if centred {
+                row.push(p.pa_centred.map_or("-".to_string(), |v| format!("{v:.4}")));
+            }
+            row.push(format_quality(p.aoq, false));
+            row.push(p.ati.map_or("-".to_string(), |v| format!("{v:.1}")));
+            g.add_row(row);
+        }
+        writeln!(out, "{g}")?;
+        writeln!(
+            out,
+            "AOQL {} at quality {}; indifference quality (Pa = 0.5) {}; every lot inspects n = {} (ASN)",
+            format_quality(r.aoql.value, false),
+            format_quality(r.aoql.quality, false),
+            format_quality(r.indifference_quality, false),
+            r.variables.n
+        )?;
+        if r.lot_size.is_none() {
+            writeln!(
+                out,
+                "AOQ without a lot size is Pa x p; give lot_size for ATI and the (N - n)/N factor."
+            )?;
+        }
+        Ok(())
+    }
+}
+
+/// `variables plan, sigma unknown, upper limit U = 12.05`.
+fn specification_line(v: &VariablesReport) -> String {
+    let mut limits = Vec::new();
+    if let Some(l) = v.lower {
+        limits.push(format!("L = {l}"));
+    }
+    if let Some(u) = v.upper {
+        limits.push(format!("U = {u}"));
+    }
+    let sigma = match v.sigma_value {
+        Some(s) => format!("sigma known = {s}"),
+        None => "sigma unknown (estimated by s)".to_string(),
+    };
+    format!(
+        "variables plan, {sigma}, {} limit{} {}",
+        v.limit.name(),
+        if v.lower.is_some() && v.upper.is_some() {
+            "s"
+        } else {
+            ""
+        },
+        limits.join(", ")
+    )
 }
