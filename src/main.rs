@@ -15,13 +15,14 @@ use cli::{
 };
 use lotsman::{
     Criterion, Csv, Decision, DesignReport, DesignRequest, Error, EvaluationReport, InputError,
-    Json, LimitKind, MAX_LOT_SIZE, Model, ModelKind, Paper, PlanSource, QualityRange, ReportFormat,
-    RiskPair, RiskPoint, Scheme, SchemeOptions, SigmaKind, SourceError, Specification, StagedPlan,
-    Table, VariablesDesignReport, VariablesEvaluationReport, VariablesRequest, Verdict,
-    VerificationReport, VerifyEntry, VerifyStatus, default_qualities, evaluate, evaluate_variables,
-    judge, judge_cumulative, parse_count, parse_fraction, parse_fraction_list, parse_number,
-    parse_stage, run_demo, sheet_source_hash, solve, solve_variables, source_hash, template,
-    template_kinds, variables_qualities, verify, write_atomic, write_sheet,
+    Json, LimitKind, MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Paper, PlanSource,
+    QualityRange, ReportFormat, RiskPair, RiskPoint, Scheme, SchemeOptions, SigmaKind, SourceError,
+    Specification, StagedPlan, Table, VariablesDesignReport, VariablesEvaluationReport,
+    VariablesRequest, Verdict, VerificationReport, VerifyEntry, VerifyStatus, default_qualities,
+    evaluate, evaluate_variables, judge, judge_cumulative, judge_measurements, parse_count,
+    parse_fraction, parse_fraction_list, parse_measurements, parse_number, parse_stage, run_demo,
+    sheet_source_hash, solve, solve_variables, source_hash, template, template_kinds,
+    variables_qualities, verify, write_atomic, write_sheet,
 };
 
 fn main() -> ExitCode {
@@ -497,7 +498,110 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
     })
 }
 
+/// The largest measurements file read (10 MiB), refused by size first.
+const MAX_MEASUREMENTS_BYTES: u64 = 10 << 20;
+
+fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode, Error> {
+    let (_, request, plan) = PlanSource::load_with_variables_plan(&args.source)?;
+    let io = |e: std::io::Error| SourceError::Io {
+        path: csv.to_path_buf(),
+        source: e,
+    };
+    let size = std::fs::metadata(csv).map_err(io)?.len();
+    if size > MAX_MEASUREMENTS_BYTES {
+        return Err(io(std::io::Error::other(format!(
+            "the file has {size} bytes; a measurements file may have at most {MAX_MEASUREMENTS_BYTES}"
+        )))
+        .into());
+    }
+    let bytes = std::fs::read(csv).map_err(io)?;
+    let text = String::from_utf8(bytes).map_err(|_| {
+        InputError::Inconsistent(format!(
+            "{}: the measurements file is not UTF-8 text",
+            csv.display()
+        ))
+    })?;
+    let values = parse_measurements(&text, args.column.as_deref())?;
+    let j = judge_measurements(&plan, &values, request.risks().producer().quality)?;
+    let text = match args.format {
+        cli::JudgeFormat::Json => {
+            serde_json::to_string_pretty(&j).map_err(std::io::Error::other)? + "\n"
+        }
+        cli::JudgeFormat::Text => {
+            let mut t = String::new();
+            for w in &j.warnings {
+                t.push_str(&format!("WARNING: {w}\n"));
+            }
+            let verdict = match (j.decision, j.warnings.is_empty()) {
+                (Decision::Accept, true) => "ACCEPT the lot",
+                (Decision::Accept, false) => {
+                    "ACCEPT the lot by the variables rule, but read the warnings above before releasing it"
+                }
+                _ => "REJECT the lot",
+            };
+            t.push_str(&format!("{verdict}: {}\n", j.rule));
+            t.push_str(&format!(
+                "  n = {}, mean = {:.6}, s = {:.6}{}\n",
+                j.n,
+                j.mean,
+                j.s,
+                plan.spec().sigma().map_or(String::new(), |s| format!(
+                    " (statistics use the known sigma {s})"
+                ))
+            ));
+            let by = if plan.spec().sigma().is_some() {
+                "sigma"
+            } else {
+                "s"
+            };
+            for (name, side) in [("Q_L = (xbar - L)", j.lower), ("Q_U = (U - xbar)", j.upper)] {
+                if let Some(sd) = side {
+                    t.push_str(&format!(
+                        "  {name} / {by} = {:.4} (limit {}){}\n",
+                        sd.q,
+                        sd.limit,
+                        sd.estimate.map_or(String::new(), |e| format!(
+                            ", estimated {:.4}% beyond",
+                            100.0 * e
+                        ))
+                    ));
+                }
+            }
+            if let Some(e) = j.estimate {
+                t.push_str(&format!(
+                    "  estimated fraction nonconforming {:.4}%\n",
+                    100.0 * e
+                ));
+            }
+            if let Some(ad) = j.normality {
+                t.push_str(&format!(
+                    "  normality: Anderson-Darling A*^2 = {:.3}, p = {:.4}{}\n",
+                    ad.a2_star,
+                    ad.p_value,
+                    if ad.p_value < NORMALITY_LEVEL {
+                        " (contradicts the normal model)"
+                    } else {
+                        " (no evidence against the normal model)"
+                    }
+                ));
+            }
+            if let Some(p) = j.sigma_p_value {
+                t.push_str(&format!(
+                    "  spread against the known sigma: chi-square p = {p:.4}\n"
+                ));
+            }
+            t.push_str(&format!("  plan {} from {}\n", plan, args.source.display()));
+            t
+        }
+    };
+    print_out(text.as_bytes())?;
+    Ok(ExitCode::SUCCESS)
+}
+
 fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
+    if let Some(csv) = &args.measurements {
+        return judge_measurements_cmd(&args, csv);
+    }
     let (_, request, plan) = PlanSource::load_with_plan(&args.source)?;
     let found = args
         .found

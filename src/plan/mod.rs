@@ -3,6 +3,7 @@
 mod estimate;
 mod evaluation;
 mod judge;
+mod measurements;
 mod measures;
 mod oc;
 mod sequential;
@@ -13,6 +14,10 @@ mod variables_evaluation;
 pub use estimate::{fraction_beyond_known, fraction_beyond_unknown, statistic_for_fraction};
 pub use evaluation::{Evaluation, default_qualities, evaluate, quality_at_pa};
 pub use judge::{Decision, Judgement, judge, judge_cumulative};
+pub use measurements::{
+    AndersonDarling, MeasurementJudgement, NORMALITY_LEVEL, SIGMA_LEVEL, SideStatistic,
+    anderson_darling, judge_measurements, mean_and_sd, parse_measurements,
+};
 pub(crate) use measures::whole_argmax;
 pub use measures::{
     Aoql, Measures, acceptance_probability, aoql, average_outgoing_quality, curve_maximum,
