@@ -261,7 +261,7 @@ pub struct SheetArgs {
 
 #[derive(Debug, Args)]
 pub struct NewArgs {
-    /// Template kind: binomial, hypergeometric, poisson, double, multiple or sequential
+    /// Template kind: binomial, hypergeometric, poisson, double, multiple, sequential or variables
     #[arg(value_name = "KIND")]
     pub kind: String,
 }

@@ -12,6 +12,7 @@ pub const TEMPLATES: &[(&str, &str)] = &[
     ("double", include_str!("../templates/double.yaml")),
     ("multiple", include_str!("../templates/multiple.yaml")),
     ("sequential", include_str!("../templates/sequential.yaml")),
+    ("variables", include_str!("../templates/variables.yaml")),
 ];
 
 /// The template of `kind`, or `None` for an unknown kind.
