@@ -1,5 +1,6 @@
 //! What the fixture comparisons share: loading a fixture, reading its rows
-//! and the tolerance test.
+//! and the tolerance test. Each test binary uses a subset of them.
+#![allow(dead_code)]
 
 use lotsman::{Model, ModelKind, RiskPair, RiskPoint};
 use serde_json::Value;
