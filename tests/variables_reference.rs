@@ -51,6 +51,16 @@ fn spec(row: &Value) -> Specification {
     .unwrap()
 }
 
+/// The fixed sample of a row.
+fn sample(row: &Value) -> Vec<f64> {
+    row["x"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|a| a.as_f64().unwrap())
+        .collect()
+}
+
 /// Noncentral t tails, each compared directly: relative 1e-9, the
 /// accuracy promised for nu <= 10^4 and |delta| <= 40, at |t| <= 1000
 /// (plans need k sqrt(n) well inside that). Farther out, with 1 to 4
@@ -168,12 +178,7 @@ fn operating_characteristics() {
 fn mvu_estimates() {
     let v = data();
     for row in rows(&v, "mvu") {
-        let x: Vec<f64> = row["x"]
-            .as_array()
-            .unwrap()
-            .iter()
-            .map(|a| a.as_f64().unwrap())
-            .collect();
+        let x = sample(row);
         let n = x.len() as u64;
         let (mean, s) = mean_and_sd(&x);
         assert!(
@@ -209,12 +214,7 @@ fn mvu_estimates() {
 fn anderson_darling_statistics() {
     let v = data();
     for row in rows(&v, "anderson") {
-        let x: Vec<f64> = row["x"]
-            .as_array()
-            .unwrap()
-            .iter()
-            .map(|a| a.as_f64().unwrap())
-            .collect();
+        let x = sample(row);
         let ad = anderson_darling(&x);
         assert!(close(ad.a2, f(row, "a2"), 1e-9), "{row}: {}", ad.a2);
         assert!(close(ad.a2_star, f(row, "a2_star"), 1e-9), "{row}");

@@ -149,10 +149,7 @@ pub fn design_variables(
         let i = interval(n);
         (i.is_some(), score(&i))
     })
-    .ok_or_else(|| DesignError::BeyondCap {
-        what: "a sample".to_string(),
-        cap: format!("{MAX_VARIABLES_SAMPLE} measurements"),
-    })?;
+    .ok_or_else(beyond_cap)?;
     // The interval's ends are roots to about 1e-13; a plan whose rounded
     // constant does not meet both points exactly (an interval narrower than
     // that) moves on to the next n.
@@ -169,11 +166,15 @@ pub fn design_variables(
         }
         n += 1;
         if n > MAX_VARIABLES_SAMPLE {
-            return Err(DesignError::BeyondCap {
-                what: "a sample".to_string(),
-                cap: format!("{MAX_VARIABLES_SAMPLE} measurements"),
-            });
+            return Err(beyond_cap());
         }
+    }
+}
+
+fn beyond_cap() -> DesignError {
+    DesignError::BeyondCap {
+        what: "a sample".to_string(),
+        cap: format!("{MAX_VARIABLES_SAMPLE} measurements"),
     }
 }
 

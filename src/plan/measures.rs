@@ -180,14 +180,36 @@ pub fn curve_maximum(plan: &StagedPlan, model: &Model, f: impl Fn(f64) -> f64) -
         let quality = d as f64 / lot as f64;
         return (quality, f(quality));
     }
+    let quality = smooth_maximum(&f, 0.0, ceiling);
+    (quality, f(quality))
+}
+
+/// The maximiser on `(lo, hi]` of a smooth curve that rises to one peak
+/// and falls: a 64-point grid finds the peak's neighbourhood, golden
+/// section the peak.
+pub(crate) fn smooth_maximum(f: &impl Fn(f64) -> f64, lo: f64, hi: f64) -> f64 {
+    const COARSE: usize = 64;
     let grid: Vec<f64> = (1..=COARSE)
-        .map(|i| ceiling * i as f64 / COARSE as f64)
+        .map(|i| lo + (hi - lo) * i as f64 / COARSE as f64)
         .collect();
     let best = argmax(&grid, |&p| f(p));
-    let lo = if best == 0 { 0.0 } else { grid[best - 1] };
-    let hi = grid[(best + 1).min(COARSE - 1)];
-    let quality = golden_max(&f, lo, hi);
-    (quality, f(quality))
+    let a = if best == 0 { lo } else { grid[best - 1] };
+    let b = grid[(best + 1).min(COARSE - 1)];
+    golden_max(f, a, b)
+}
+
+/// The point in `[lo, hi]` where a condition that holds from some quality
+/// on starts to hold, by bisection to a relative width of `1e-13`.
+pub(crate) fn bisect_quality(reached: impl Fn(f64) -> bool, mut lo: f64, mut hi: f64) -> f64 {
+    while hi - lo > 1e-13 * hi {
+        let mid = 0.5 * (lo + hi);
+        if reached(mid) {
+            hi = mid;
+        } else {
+            lo = mid;
+        }
+    }
+    0.5 * (lo + hi)
 }
 
 /// The maximiser over the whole numbers `lo..=hi` of `f`, which rises to
@@ -221,7 +243,7 @@ fn argmax<T>(xs: &[T], f: impl Fn(&T) -> f64) -> usize {
 }
 
 /// Maximiser of a unimodal `f` on `[lo, hi]` by golden-section search.
-pub(crate) fn golden_max(f: &impl Fn(f64) -> f64, mut lo: f64, mut hi: f64) -> f64 {
+fn golden_max(f: &impl Fn(f64) -> f64, mut lo: f64, mut hi: f64) -> f64 {
     const INV_PHI: f64 = 0.618_033_988_749_894_8;
     let mut x1 = hi - INV_PHI * (hi - lo);
     let mut x2 = lo + INV_PHI * (hi - lo);
@@ -276,14 +298,5 @@ pub(crate) fn quality_where(
         }
         return hi as f64 / lot as f64;
     }
-    let (mut lo, mut hi) = (0.0, ceiling);
-    while hi - lo > 1e-13 * hi {
-        let mid = 0.5 * (lo + hi);
-        if reached(mid) {
-            hi = mid;
-        } else {
-            lo = mid;
-        }
-    }
-    0.5 * (lo + hi)
+    bisect_quality(reached, 0.0, ceiling)
 }

@@ -17,7 +17,7 @@
 use serde::Serialize;
 
 use super::evaluation::bracketing_qualities;
-use super::measures::{Aoql, golden_max};
+use super::measures::{Aoql, bisect_quality, smooth_maximum};
 use super::variables::VariablesPlan;
 use crate::error::InputError;
 use crate::risk::RiskPair;
@@ -99,26 +99,8 @@ pub fn evaluate_variables(
     }
     let ceiling = quality_ceiling(plan);
     let aoq = |p: f64| variables_point(plan, lot_size, p).aoq;
-    // A coarse grid finds the peak's neighbourhood, golden section the peak.
-    const COARSE: usize = 64;
-    let grid: Vec<f64> = (1..=COARSE)
-        .map(|i| lowest + (ceiling - lowest) * i as f64 / COARSE as f64)
-        .collect();
-    let best = (0..COARSE)
-        .max_by(|&a, &b| aoq(grid[a]).total_cmp(&aoq(grid[b])))
-        .unwrap_or(0);
-    let lo = if best == 0 { lowest } else { grid[best - 1] };
-    let hi = grid[(best + 1).min(COARSE - 1)];
-    let quality = golden_max(&aoq, lo.max(f64::MIN_POSITIVE), hi);
-    let (mut a, mut b) = (lowest, ceiling);
-    while b - a > 1e-13 * b {
-        let mid = 0.5 * (a + b);
-        if plan.pa(mid) <= 0.5 {
-            b = mid;
-        } else {
-            a = mid;
-        }
-    }
+    let quality = smooth_maximum(&aoq, lowest, ceiling);
+    let indifference = bisect_quality(|p| plan.pa(p) <= 0.5, lowest, ceiling);
     Ok(VariablesEvaluation {
         plan: *plan,
         lot_size,
@@ -130,7 +112,7 @@ pub fn evaluate_variables(
             value: aoq(quality),
             quality,
         },
-        indifference_quality: 0.5 * (a + b),
+        indifference_quality: indifference,
     })
 }
 

@@ -6,9 +6,9 @@ use comfy_table::{CellAlignment, ContentArrangement, LineStyle, Table as Grid, T
 
 use super::words;
 use super::{
-    DesignReport, EvaluationReport, ReportFormat, SequentialReport, VariablesDesignReport,
-    VariablesEvaluationReport, VariablesReport, VerificationReport, format_quality,
-    format_significant, variables_rule,
+    DesignReport, EvaluationReport, PointReport, ReportFormat, SequentialReport,
+    VariablesDesignReport, VariablesEvaluationReport, VariablesReport, VerificationReport,
+    format_quality, format_significant, variables_rule,
 };
 use crate::model::ModelKind;
 use crate::plan::Stage;
@@ -94,6 +94,28 @@ fn write_item_table(out: &mut dyn Write, seq: &SequentialReport) -> io::Result<(
     Ok(())
 }
 
+/// The two risk points with their agreed and achieved risks.
+fn write_risk_points(
+    out: &mut dyn Write,
+    producer: &PointReport,
+    consumer: &PointReport,
+    per_unit: bool,
+) -> io::Result<()> {
+    let mut g = grid(&["Risk point", "Quality", "Agreed risk", "Achieved risk"]);
+    for (name, greek, p) in [
+        ("Producer (AQL)", "alpha", producer),
+        ("Consumer (RQL)", "beta", consumer),
+    ] {
+        g.add_row(vec![
+            name.to_string(),
+            format_quality(p.quality, per_unit),
+            format!("{greek} {}", p.risk),
+            format_significant(p.achieved_risk, 4),
+        ]);
+    }
+    writeln!(out, "{g}")
+}
+
 fn optional(v: Option<u64>, prefix: &str) -> String {
     v.map_or("none".to_string(), |x| format!("{prefix}{x}"))
 }
@@ -135,19 +157,7 @@ impl ReportFormat for Table {
             write_stage_table(out, &r.stages)?;
         }
         writeln!(out)?;
-        let mut g = grid(&["Risk point", "Quality", "Agreed risk", "Achieved risk"]);
-        for (name, greek, p) in [
-            ("Producer (AQL)", "alpha", &r.producer),
-            ("Consumer (RQL)", "beta", &r.consumer),
-        ] {
-            g.add_row(vec![
-                name.to_string(),
-                format_quality(p.quality, per_unit),
-                format!("{greek} {}", p.risk),
-                format_significant(p.achieved_risk, 4),
-            ]);
-        }
-        writeln!(out, "{g}")?;
+        write_risk_points(out, &r.producer, &r.consumer, per_unit)?;
         for note in &r.notes {
             writeln!(out, "Note: {note}")?;
         }
@@ -312,19 +322,7 @@ impl ReportFormat for Table {
             writeln!(out, "  {line}")?;
         }
         writeln!(out)?;
-        let mut g = grid(&["Risk point", "Quality", "Agreed risk", "Achieved risk"]);
-        for (name, greek, p) in [
-            ("Producer (AQL)", "alpha", &r.producer),
-            ("Consumer (RQL)", "beta", &r.consumer),
-        ] {
-            g.add_row(vec![
-                name.to_string(),
-                format_quality(p.quality, false),
-                format!("{greek} {}", p.risk),
-                format_significant(p.achieved_risk, 4),
-            ]);
-        }
-        writeln!(out, "{g}")?;
+        write_risk_points(out, &r.producer, &r.consumer, false)?;
         writeln!(out)?;
         let mut g = grid(&["Plan for the same points", "Sample size"]);
         g.add_row(vec![
