@@ -1,9 +1,10 @@
 //! The printable plan sheet: one A4 or Letter page that an inspector follows
 //! at the receiving bench and an auditor files.
 //!
-//! Layout (this file), drawing primitives ([`canvas`]) and charts
-//! ([`chart`]) are kept apart from the numbers, which come from the library
-//! (`evaluate`, `aoql`, `quality_at_pa`). The fonts are DejaVu Sans and
+//! Layout (this file for attribute plans, [`variables`] for variables
+//! plans), drawing primitives ([`canvas`]) and charts ([`chart`]) are kept
+//! apart from the numbers, which come from the library (`evaluate`,
+//! `aoql`, `quality_at_pa`, `VariablesPlan::pa`). The fonts are DejaVu Sans and
 //! DejaVu Sans Bold (libre; licence in `src/sheet/fonts/`), embedded so that
 //! alpha, beta, <= and subscripts print as themselves.
 //!
@@ -15,6 +16,8 @@
 mod canvas;
 mod chart;
 mod text;
+mod variables;
+mod variables_text;
 
 use sha2::{Digest, Sha256};
 
@@ -219,7 +222,12 @@ pub fn render_sheet(
         margin,
     };
     let attributes;
-    let common = {
+    let measured;
+    let common = if source.is_variables() {
+        measured = variables::Facts::gather(source, text, file_name)?;
+        variables::layout(&mut c, &measured, frame, ph - margin);
+        &measured.common
+    } else {
         let request = source.request()?;
         let model = request.model;
         let plan = source.recorded_plan(&model)?;
@@ -385,7 +393,7 @@ fn single_layout(
     measures_table(c, f, &evaluation, left, top, table_w, table_h);
     let sig_x = left + table_w + 4.0;
     signatures(c, &f.common, sig_x, top, right - sig_x, table_h);
-    footer(c, &f.common, frame, FOOT_H);
+    footer(c, &f.common, frame, FOOT_H, words::CAUTION, "");
     if chart_h < MIN_CHART_H || top - table_h < foot_top + 2.0 {
         c.faults
             .push("the page is too short for its blocks".to_string());
@@ -565,16 +573,23 @@ fn single_plan_box(
 /// The inspector's procedure under its heading at `(x, top)`, one
 /// paragraph per step, each in what the earlier steps left above `bottom`.
 fn procedure(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, bottom: f64, size: f64) {
+    let steps = words::plan_procedure(&f.plan, f.common.per_unit);
+    steps_block(c, &steps, x, top, w, bottom, size);
+}
+
+/// Numbered steps under the procedure heading at `(x, top)`, one paragraph
+/// per step, each in what the earlier steps left above `bottom`.
+fn steps_block(c: &mut Canvas, steps: &[String], x: f64, top: f64, w: f64, bottom: f64, size: f64) {
     c.heading(x, top - 7.0, text::PROCEDURE);
     let mut step_top = top - 9.0;
-    for step in words::plan_procedure(&f.plan, f.common.per_unit) {
+    for step in steps {
         let used = c.paragraph(
             "procedure",
             x,
             step_top,
             w,
             step_top - bottom,
-            &step,
+            step,
             Face::Regular,
             size,
             7.0,
@@ -586,7 +601,16 @@ fn procedure(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, bottom: f64, s
 /// Height the procedure takes in a column `w` mm wide at `size`, heading
 /// and bottom padding included (see [`procedure`]).
 fn procedure_height(c: &Canvas, f: &Facts, w: f64, size: f64) -> f64 {
-    let steps = words::plan_procedure(&f.plan, f.common.per_unit);
+    steps_height(
+        c,
+        &words::plan_procedure(&f.plan, f.common.per_unit),
+        w,
+        size,
+    )
+}
+
+/// Height of [`steps_block`] in a column `w` mm wide at `size`.
+fn steps_height(c: &Canvas, steps: &[String], w: f64, size: f64) -> f64 {
     let text: f64 = steps
         .iter()
         .map(|s| c.fit(s, Face::Regular, w, f64::INFINITY, size, size).height)
@@ -686,7 +710,7 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
     measures_table(c, f, &evaluation, left, top, table_w, table_h);
     let sig_x = left + table_w + 4.0;
     signatures(c, &f.common, sig_x, top, right - sig_x, table_h);
-    footer(c, &f.common, frame, STAGED_FOOT_H);
+    footer(c, &f.common, frame, STAGED_FOOT_H, words::CAUTION, "");
     if chart_h < MIN_CHART_H - 1e-9 || top - table_h < foot_top + 2.0 {
         c.faults
             .push("the page is too short for its blocks".to_string());
@@ -1499,6 +1523,34 @@ fn quality_tick(per_unit: bool) -> impl Fn(f64, f64) -> String {
     move |v: f64, step: f64| chart::tick_label(v, step, scale, suffix)
 }
 
+/// The two risk points as marks on an OC chart, at the Pa the source
+/// records.
+fn risk_marks(f: &Common) -> [Mark; 2] {
+    let (producer, consumer) = (f.risks.producer(), f.risks.consumer());
+    let pa1 = f.pa_at_p1();
+    let beta = f.recorded.consumer_risk;
+    [
+        Mark {
+            x: producer.quality,
+            y: pa1,
+            label: format!("p₁ = {}, Pa = {:.3}", f.q(producer.quality), pa1),
+            stacked: Some([
+                format!("p₁ = {}", f.q(producer.quality)),
+                format!("Pa = {pa1:.3}"),
+            ]),
+        },
+        Mark {
+            x: consumer.quality,
+            y: beta,
+            label: format!("p₂ = {}, Pa = {:.3}", f.q(consumer.quality), beta),
+            stacked: Some([
+                format!("p₂ = {}", f.q(consumer.quality)),
+                format!("Pa = {beta:.3}"),
+            ]),
+        },
+    ]
+}
+
 /// The OC curve with both risk points marked and the indifference quality.
 #[allow(clippy::too_many_arguments)]
 fn oc_chart(
@@ -1511,33 +1563,11 @@ fn oc_chart(
     w: f64,
     h: f64,
 ) {
-    let (producer, consumer) = (f.request.risks.producer(), f.request.risks.consumer());
     let indifference = quality_at_pa(&f.plan, &f.model, 0.5);
     let oc: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.pa)).collect();
     let axis = quality_tick(f.common.per_unit);
     let prob = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
-    let pa1 = f.common.pa_at_p1();
-    let beta = f.common.recorded.consumer_risk;
-    let marks = [
-        Mark {
-            x: producer.quality,
-            y: pa1,
-            label: format!("p₁ = {}, Pa = {:.3}", f.common.q(producer.quality), pa1),
-            stacked: Some([
-                format!("p₁ = {}", f.common.q(producer.quality)),
-                format!("Pa = {pa1:.3}"),
-            ]),
-        },
-        Mark {
-            x: consumer.quality,
-            y: beta,
-            label: format!("p₂ = {}, Pa = {:.3}", f.common.q(consumer.quality), beta),
-            stacked: Some([
-                format!("p₂ = {}", f.common.q(consumer.quality)),
-                format!("Pa = {beta:.3}"),
-            ]),
-        },
-    ];
+    let marks = risk_marks(&f.common);
     chart::draw(
         c,
         "OC chart",
@@ -1740,8 +1770,9 @@ fn signatures(c: &mut Canvas, f: &Common, sig_x: f64, top: f64, sig_w: f64, tabl
     }
 }
 
-/// The footer at the bottom margin: the cautions and the provenance line.
-fn footer(c: &mut Canvas, f: &Common, frame: Frame, foot_h: f64) {
+/// The footer at the bottom margin: the `caution` and the provenance line,
+/// which `more` continues.
+fn footer(c: &mut Canvas, f: &Common, frame: Frame, foot_h: f64, caution: &str, more: &str) {
     let Frame {
         left,
         right,
@@ -1757,14 +1788,14 @@ fn footer(c: &mut Canvas, f: &Common, frame: Frame, foot_h: f64) {
         foot_top - 1.5,
         width,
         10.0,
-        words::CAUTION,
+        caution,
         Face::Regular,
         7.0,
         5.5,
     );
     let provenance = format!(
         "Generated by {} from {name} (SHA-256 {hash}). Plan solved by {}. \
-         Regenerate with: lotsman sheet {name}",
+         Regenerate with: lotsman sheet {name}{more}",
         tool_version(),
         f.recorded.solved_by,
         name = f.file_name,
