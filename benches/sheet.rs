@@ -1,13 +1,41 @@
 //! Speed of the plan sheet (issue figures: one sheet <= 50 ms; 1,000
-//! sheets from 1,000 sources <= 20 s, in parallel over the cores), and of
-//! one sequential sheet, whose curves walk 165 item stages per point.
+//! sheets from 1,000 sources <= 20 s, in parallel over the cores), of one
+//! sequential sheet, whose curves walk 165 item stages per point, and of
+//! one variables sheet (sigma estimated, one limit), whose OC takes a
+//! noncentral t tail per point.
 
 use std::hint::black_box;
 use std::path::Path;
 
 use criterion::{Criterion, criterion_group, criterion_main};
-use lotsman::{Paper, PlanSource, render_sheet};
+use lotsman::{
+    LimitKind, Model, ModelKind, Paper, PlanSource, SigmaKind, Specification, VariablesRequest,
+    render_sheet, solve_variables,
+};
 use rayon::prelude::*;
+
+mod common;
+
+/// The variables source of the bench: sigma estimated, upper limit 12.05
+/// mm, points 1% and 6% (n = 42, k = 1.901), as its YAML text.
+fn variables_source() -> (String, PlanSource) {
+    let model = Model::new(ModelKind::Binomial, None).unwrap();
+    let spec = Specification::new(
+        SigmaKind::Unknown,
+        None,
+        LimitKind::Upper,
+        None,
+        Some(12.05),
+    )
+    .unwrap();
+    let request = VariablesRequest::new(spec, common::pair(&model, 0.01, 0.06), model).unwrap();
+    let mut source =
+        PlanSource::new_variables("Bearing seat diameter", &request, Some("mm".into()));
+    source.record_variables(&solve_variables(&request).unwrap());
+    let text = source.to_yaml();
+    let source = PlanSource::from_yaml(&text, Path::new("v.yaml")).unwrap();
+    (text, source)
+}
 
 fn benches(c: &mut Criterion) {
     let text = std::fs::read_to_string("plans/tpw-seal-visual.yaml").unwrap();
@@ -19,6 +47,10 @@ fn benches(c: &mut Criterion) {
     let seq = PlanSource::from_yaml(&seq_text, Path::new("s.yaml")).unwrap();
     c.bench_function("one sequential sheet (A4)", |b| {
         b.iter(|| black_box(render_sheet(&seq_text, &seq, "s.yaml", Paper::A4).unwrap()))
+    });
+    let (var_text, var) = variables_source();
+    c.bench_function("one variables sheet (A4)", |b| {
+        b.iter(|| black_box(render_sheet(&var_text, &var, "v.yaml", Paper::A4).unwrap()))
     });
     // 1,000 distinct sources: the title differs, so each is hashed and laid
     // out anew.

@@ -523,3 +523,415 @@ fn the_single_sheet_keeps_its_own_layout() {
         ]
     );
 }
+
+// Variables plans: n measurements judged by k (one limit) or M (two).
+
+use lotsman::{
+    LimitKind, Model, ModelKind, RiskPair, RiskPoint, SigmaKind, Specification, VariablesRequest,
+    design_single, solve_variables,
+};
+use std::sync::OnceLock;
+
+/// The most readings the sheet's table holds (src/sheet/variables.rs).
+const SHEET_READINGS: u64 = 48;
+
+/// One variables source of the tests: its file name, YAML text and the
+/// source read back from it.
+struct Variables {
+    name: &'static str,
+    text: String,
+    source: PlanSource,
+}
+
+/// A variables source for the specification, at p1 = 1% (alpha 0.05) and
+/// `p2` (beta 0.10), binomial comparison plan, unit mm, designed and read
+/// back from its YAML.
+fn variables_source(
+    name: &'static str,
+    spec: (SigmaKind, Option<f64>, LimitKind, Option<f64>, Option<f64>),
+    p2: f64,
+) -> Variables {
+    let model = Model::new(ModelKind::Binomial, None).unwrap();
+    let risks = RiskPair::new(
+        RiskPoint {
+            quality: 0.01,
+            risk: 0.05,
+        },
+        RiskPoint {
+            quality: p2,
+            risk: 0.10,
+        },
+        &model,
+    )
+    .unwrap();
+    let spec = Specification::new(spec.0, spec.1, spec.2, spec.3, spec.4).unwrap();
+    let request = VariablesRequest::new(spec, risks, model).unwrap();
+    let solution = solve_variables(&request).unwrap();
+    let mut source =
+        PlanSource::new_variables("Bearing seat diameter", &request, Some("mm".into()));
+    source.id = Some("TPW-RI-0520".into());
+    source.item = Some("Pump shaft 4410-07".into());
+    source.prepared_by = Some("J. Okafor".into());
+    source.record_variables(&solution);
+    let text = source.to_yaml();
+    let source = PlanSource::from_yaml(&text, Path::new(name)).unwrap();
+    Variables { name, text, source }
+}
+
+/// The five variables sources, designed once for all the tests (the
+/// two-limit plan with s takes a while in a debug build).
+fn variables() -> &'static [Variables] {
+    static SOURCES: OnceLock<Vec<Variables>> = OnceLock::new();
+    SOURCES.get_or_init(|| {
+        use LimitKind::{Both, Lower, Upper};
+        use SigmaKind::{Known, Unknown};
+        vec![
+            variables_source(
+                "upper-s.yaml",
+                (Unknown, None, Upper, None, Some(12.05)),
+                0.06,
+            ),
+            variables_source(
+                "lower-sigma.yaml",
+                (Known, Some(0.02), Lower, Some(11.95), None),
+                0.06,
+            ),
+            variables_source(
+                "both-sigma.yaml",
+                (Known, Some(0.012), Both, Some(11.95), Some(12.05)),
+                0.06,
+            ),
+            variables_source(
+                "both-s.yaml",
+                (Unknown, None, Both, Some(11.95), Some(12.05)),
+                0.06,
+            ),
+            // Tight points: a sample too large for the readings table.
+            variables_source(
+                "large-s.yaml",
+                (Unknown, None, Upper, None, Some(12.05)),
+                0.025,
+            ),
+        ]
+    })
+}
+
+fn variables_named(name: &str) -> &'static Variables {
+    variables().iter().find(|v| v.name == name).unwrap()
+}
+
+/// The recorded plan's n and constant.
+fn recorded(v: &Variables) -> (u64, Option<f64>, Option<f64>) {
+    let r = v.source.plan.as_ref().unwrap().variables.unwrap();
+    (r.n, r.k, r.m)
+}
+
+/// The readings table's row numbers: on each line of `pdftotext -layout`,
+/// the run of whole numbers it starts with (a row of the table, one number
+/// per column), 0 left out (the chart's axis).
+fn reading_rows(lines: &[String]) -> Vec<Vec<u64>> {
+    lines
+        .iter()
+        .map(|l| {
+            l.split(' ')
+                .map_while(|t| t.parse::<u64>().ok())
+                .filter(|&v| v > 0)
+                .collect::<Vec<u64>>()
+        })
+        .filter(|run| !run.is_empty())
+        .collect()
+}
+
+/// Every reading 1..=n has its numbered row, once, and the rows run down
+/// `columns` columns.
+fn assert_readings_table(lines: &[String], n: u64, columns: usize) {
+    let rows = reading_rows(lines);
+    let mut numbers: Vec<u64> = rows.iter().flatten().copied().collect();
+    numbers.sort_unstable();
+    assert_eq!(
+        numbers,
+        (1..=n).collect::<Vec<u64>>(),
+        "row numbers of the readings table in:\n{}",
+        lines.join("\n")
+    );
+    let per_column = n.div_ceil(columns as u64);
+    assert_eq!(rows[0].len(), columns, "{rows:?}");
+    let want: Vec<u64> = (0..columns as u64).map(|j| 1 + j * per_column).collect();
+    assert_eq!(rows[0], want, "the first row reads across the columns");
+}
+
+#[test]
+fn variables_sheets_fit_one_page_of_either_size_without_overlaps() {
+    for v in variables() {
+        for paper in [Paper::A4, Paper::Letter] {
+            let sheet = render_sheet(&v.text, &v.source, v.name, paper)
+                .unwrap_or_else(|e| panic!("{} {paper:?}: {e}", v.name));
+            assert_eq!(page_sizes(&sheet.pdf).len(), 1, "{}", v.name);
+            assert_laid_out(&sheet, paper);
+            let names: Vec<&str> = sheet.regions.iter().map(|r| r.name.as_str()).collect();
+            assert_eq!(
+                names,
+                [
+                    "title block",
+                    "plan",
+                    "risks",
+                    "decision rule",
+                    "results",
+                    "signatures",
+                    "readings",
+                    "OC chart",
+                    "footer"
+                ],
+                "{}",
+                v.name
+            );
+            let words = pdf_text(&sheet.pdf);
+            assert!(!words.contains('?'), "a '?' reached the page:\n{words}");
+            assert_eq!(
+                sheet_source_hash(&sheet.pdf).unwrap(),
+                Some(source_hash(&v.text)),
+                "{}",
+                v.name
+            );
+        }
+    }
+}
+
+#[test]
+fn the_one_limit_sheet_with_s_holds_the_plan_the_rule_and_every_reading_row() {
+    let v = variables_named("upper-s.yaml");
+    // The plan the brief's example gives for these points.
+    assert_eq!(recorded(v), (42, Some(1.901), None));
+    let model = Model::new(ModelKind::Binomial, None).unwrap();
+    let risks = v.source.variables_request().unwrap();
+    let counting = design_single(&model, risks.risks()).unwrap();
+    for paper in [Paper::A4, Paper::Letter] {
+        let sheet = render_sheet(&v.text, &v.source, v.name, paper).unwrap();
+        let words = pdf_text(&sheet.pdf);
+        let page = folded(&words);
+        for needle in [
+            "n = 42",
+            "k = 1.901",
+            "σ estimated from each sample by s",
+            "Upper limit U = 12.05 mm",
+            &format!("n = {}, c = {} for the same points", counting.n, counting.c),
+            &format!("measuring saves {} units", counting.n - 42),
+            "QU = (U − x̄) / s = (12.05 − x̄) / s",
+            "Accept the lot when QU ≥ k = 1.901",
+            "Reject the lot when QU < 1.901",
+            "1. Draw 42 units at random from the whole lot",
+            "x̄ = Σx / 42 and the standard deviation s (divisor 41)",
+            "accept the lot if it is 1.901 or more, otherwise reject it",
+            "READINGS (mm)",
+            "Lot no.",
+            "Gauge",
+            "Σx =",
+            "x̄ =",
+            "s =",
+            "QU =",
+            "accept",
+            "reject",
+            "Inspected by",
+            "lotsman judge upper-s.yaml --measurements READINGS.csv",
+            "Operating characteristic (OC) curve",
+            "this plan (n = 42, k = 1.901)",
+            &format!("counting instead: n = {}, c = {}", counting.n, counting.c),
+            "p₁ = 1.000%",
+            "p₂ = 6.000%",
+            "α ≤ 0.05",
+            "β ≤ 0.1",
+            "variables, σ unknown",
+            "Sampling does not guarantee the quality of a lot",
+            "Critical and safety characteristics follow the applicable contract, regulation and licensed practice",
+            "The rule assumes that a lot's measurements are normally distributed",
+            "Prepared by",
+            "Approved by",
+            "J. Okafor",
+            &source_hash(&v.text),
+        ] {
+            assert!(
+                page.contains(needle),
+                "{paper:?}: missing {needle:?} in:\n{words}"
+            );
+        }
+        assert_readings_table(&pdf_lines(&sheet.pdf), 42, 4);
+    }
+}
+
+#[test]
+fn the_one_limit_sheet_with_sigma_known_divides_by_sigma() {
+    let v = variables_named("lower-sigma.yaml");
+    let (n, k, _) = recorded(v);
+    let k = k.unwrap().to_string();
+    let sheet = render_sheet(&v.text, &v.source, v.name, Paper::A4).unwrap();
+    let words = pdf_text(&sheet.pdf);
+    let page = folded(&words);
+    for needle in [
+        format!("n = {n}"),
+        format!("k = {k}"),
+        "σ = 0.02 mm, known".to_string(),
+        "Lower limit L = 11.95 mm".to_string(),
+        "QL = (x̄ − L) / σ = (x̄ − 11.95) / 0.02".to_string(),
+        format!("Accept the lot when QL ≥ k = {k}"),
+        "compare it with σ = 0.02 mm".to_string(),
+        "variables, σ known".to_string(),
+        "normally distributed with the stated σ".to_string(),
+    ] {
+        assert!(page.contains(&needle), "missing {needle:?} in:\n{words}");
+    }
+    assert!(
+        !page.contains("QU"),
+        "an upper statistic on a lower-limit sheet"
+    );
+    assert_readings_table(
+        &pdf_lines(&sheet.pdf),
+        n,
+        reading_rows(&pdf_lines(&sheet.pdf))[0].len(),
+    );
+}
+
+#[test]
+fn the_two_limit_sheets_give_the_estimators_with_their_numbers() {
+    let known = variables_named("both-sigma.yaml");
+    let (n, _, m) = recorded(known);
+    let factor = format!("{:.4}", (n as f64 / (n as f64 - 1.0)).sqrt());
+    let m = lotsman::format_quality(m.unwrap(), false);
+    let sheet = render_sheet(&known.text, &known.source, known.name, Paper::Letter).unwrap();
+    let words = pdf_text(&sheet.pdf);
+    let page = folded(&words);
+    for needle in [
+        format!("M = {m}"),
+        "Limits L = 11.95 mm, U = 12.05 mm".to_string(),
+        "QU = (12.05 − x̄) / 0.012".to_string(),
+        "QL = (x̄ − 11.95) / 0.012".to_string(),
+        format!("p̂U = 1 − Φ({factor}·QU)"),
+        format!("p̂L = 1 − Φ({factor}·QL)"),
+        format!("Accept the lot when p̂L + p̂U ≤ M = {m}"),
+        "NORM.S.DIST".to_string(),
+        "p̂ = p̂L + p̂U =".to_string(),
+    ] {
+        assert!(page.contains(&needle), "missing {needle:?} in:\n{words}");
+    }
+    assert_readings_table(
+        &pdf_lines(&sheet.pdf),
+        n,
+        reading_rows(&pdf_lines(&sheet.pdf))[0].len(),
+    );
+
+    let estimated = variables_named("both-s.yaml");
+    assert_eq!(recorded(estimated), (43, None, Some(0.02648)));
+    for paper in [Paper::A4, Paper::Letter] {
+        let sheet =
+            render_sheet(&estimated.text, &estimated.source, estimated.name, paper).unwrap();
+        let words = pdf_text(&sheet.pdf);
+        let page = folded(&words);
+        for needle in [
+            "n = 43",
+            "M = 2.648%",
+            "QU = (12.05 − x̄) / s",
+            "QL = (x̄ − 11.95) / s",
+            // a = n/2 - 1 = 20.5; sqrt(43) / (2 * 42) = 0.078065
+            "p̂U = Ix(20.5, 20.5), x = 0.5 − 0.078065·QU",
+            "p̂L = Ix(20.5, 20.5), x = 0.5 − 0.078065·QL",
+            "BETA.DIST(x, 20.5, 20.5, TRUE)",
+            "Accept the lot when p̂L + p̂U ≤ M = 2.648%",
+            "Reject the lot when p̂L + p̂U > 2.648%",
+            "accept the lot if their sum is 2.648% or less",
+            "this plan, all beyond one limit",
+            "this plan, mean centred",
+        ] {
+            assert!(
+                page.contains(needle),
+                "{paper:?}: missing {needle:?} in:\n{words}"
+            );
+        }
+        assert_readings_table(&pdf_lines(&sheet.pdf), 43, 4);
+    }
+}
+
+#[test]
+fn a_sample_beyond_the_table_goes_on_a_readings_log_and_keeps_the_result_lines() {
+    let v = variables_named("large-s.yaml");
+    let (n, _, _) = recorded(v);
+    assert!(
+        n > SHEET_READINGS,
+        "n = {n} fits the table; tighten the points"
+    );
+    for paper in [Paper::A4, Paper::Letter] {
+        let sheet = render_sheet(&v.text, &v.source, v.name, paper).unwrap();
+        let words = pdf_text(&sheet.pdf);
+        let page = folded(&words);
+        for needle in [
+            format!(
+                "This plan takes {n} readings, more than the {SHEET_READINGS} this sheet has rows for"
+            ),
+            format!("readings log numbered 1 to {n}"),
+            "the results and the decision are still entered on this sheet".to_string(),
+            "Σx =".to_string(),
+            "QU =".to_string(),
+            "Inspected by".to_string(),
+            format!("n = {n}"),
+        ] {
+            assert!(
+                page.contains(&needle),
+                "{paper:?}: missing {needle:?} in:\n{words}"
+            );
+        }
+        assert!(
+            reading_rows(&pdf_lines(&sheet.pdf)).is_empty(),
+            "{paper:?}: a readings table was printed"
+        );
+    }
+}
+
+#[test]
+fn the_table_holds_48_readings_on_either_paper_and_no_more() {
+    for name in [
+        "upper-s.yaml",
+        "lower-sigma.yaml",
+        "both-sigma.yaml",
+        "both-s.yaml",
+    ] {
+        let v = variables_named(name);
+        for (n, table) in [(SHEET_READINGS, true), (SHEET_READINGS + 1, false)] {
+            let mut source = v.source.clone();
+            source.plan.as_mut().unwrap().variables.as_mut().unwrap().n = n;
+            let text = source.to_yaml();
+            for paper in [Paper::A4, Paper::Letter] {
+                let sheet = render_sheet(&text, &source, name, paper)
+                    .unwrap_or_else(|e| panic!("{name} n = {n} {paper:?}: {e}"));
+                assert_laid_out(&sheet, paper);
+                let lines = pdf_lines(&sheet.pdf);
+                if table {
+                    assert_readings_table(&lines, n, 4);
+                } else {
+                    assert!(reading_rows(&lines).is_empty(), "{name} n = {n} {paper:?}");
+                    assert!(folded(&pdf_text(&sheet.pdf)).contains("separate readings log"));
+                }
+            }
+        }
+    }
+}
+
+#[test]
+fn variables_sheets_are_deterministic_and_the_cli_writes_them() {
+    let v = variables_named("upper-s.yaml");
+    let a = render_sheet(&v.text, &v.source, v.name, Paper::A4).unwrap();
+    let b = render_sheet(&v.text, &v.source, v.name, Paper::A4).unwrap();
+    assert_eq!(a.pdf, b.pdf);
+    let dir = tempfile::tempdir().unwrap();
+    let yaml = dir.path().join(v.name);
+    std::fs::write(&yaml, &v.text).unwrap();
+    let pdf = dir.path().join("upper-s.pdf");
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .args([
+            "sheet",
+            yaml.to_str().unwrap(),
+            "--output",
+            pdf.to_str().unwrap(),
+        ])
+        .assert()
+        .success();
+    assert_eq!(std::fs::read(&pdf).unwrap(), a.pdf);
+}

@@ -172,6 +172,31 @@ impl<'f> Canvas<'f> {
         self.text(x_right - w, y, text, face, size, color);
     }
 
+    /// Width of a formula written with [`Canvas::formula`].
+    pub fn formula_width(&self, text: &str, face: Face, size: f64) -> f64 {
+        formula_runs(text)
+            .iter()
+            .map(|(run, sub)| self.width(run, face, if *sub { sub_size(size) } else { size }))
+            .sum()
+    }
+
+    /// Writes one line of a formula with its baseline at `(x, y)`: an
+    /// underscore makes the letters and digits after it a subscript
+    /// (`Q_U`, `p̂_L`, `I_x`), lowered and smaller, since the font's
+    /// subscript characters stop at digits and a few small letters.
+    pub fn formula(&mut self, x: f64, y: f64, text: &str, face: Face, size: f64, color: Color) {
+        let mut at = x;
+        for (run, sub) in formula_runs(text) {
+            let (s, dy) = if sub {
+                (sub_size(size), -0.22 * size * 0.3528)
+            } else {
+                (size, 0.0)
+            };
+            self.text(at, y + dy, &run, face, s, color.clone());
+            at += self.width(&run, face, s);
+        }
+    }
+
     /// Breaks `text` into lines no wider than `w` mm at `size`.
     pub fn wrap(&self, text: &str, face: Face, size: f64, w: f64) -> Vec<String> {
         let mut lines = Vec::new();
@@ -357,5 +382,54 @@ impl<'f> Canvas<'f> {
             w,
             h,
         });
+    }
+}
+
+/// The size of a formula's subscripts.
+fn sub_size(size: f64) -> f64 {
+    size * 0.72
+}
+
+/// A formula's runs of plain text and of subscript (`true`): each `_`
+/// starts a subscript that runs over the ASCII letters and digits after it.
+fn formula_runs(text: &str) -> Vec<(String, bool)> {
+    let mut runs: Vec<(String, bool)> = Vec::new();
+    let mut sub = false;
+    for ch in text.chars() {
+        if ch == '_' {
+            sub = true;
+            runs.push((String::new(), true));
+            continue;
+        }
+        if sub && !ch.is_ascii_alphanumeric() {
+            sub = false;
+        }
+        match runs.last_mut() {
+            Some((run, s)) if *s == sub => run.push(ch),
+            _ => runs.push((ch.to_string(), sub)),
+        }
+    }
+    runs.retain(|(run, _)| !run.is_empty());
+    runs
+}
+
+#[cfg(test)]
+mod tests {
+    use super::formula_runs;
+
+    #[test]
+    fn an_underscore_starts_a_subscript_of_letters_and_digits() {
+        let runs = formula_runs("p̂_U = I_x(20.5, 20.5), Q_L ≥ 1");
+        let want = [
+            ("p̂", false),
+            ("U", true),
+            (" = I", false),
+            ("x", true),
+            ("(20.5, 20.5), Q", false),
+            ("L", true),
+            (" ≥ 1", false),
+        ];
+        let got: Vec<(&str, bool)> = runs.iter().map(|(r, s)| (r.as_str(), *s)).collect();
+        assert_eq!(got, want);
     }
 }

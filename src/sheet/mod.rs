@@ -1,9 +1,10 @@
 //! The printable plan sheet: one A4 or Letter page that an inspector follows
 //! at the receiving bench and an auditor files.
 //!
-//! Layout (this file), drawing primitives ([`canvas`]) and charts
-//! ([`chart`]) are kept apart from the numbers, which come from the library
-//! (`evaluate`, `aoql`, `quality_at_pa`). The fonts are DejaVu Sans and
+//! Layout (this file for attribute plans, [`variables`] for variables
+//! plans), drawing primitives ([`canvas`]) and charts ([`chart`]) are kept
+//! apart from the numbers, which come from the library (`evaluate`,
+//! `aoql`, `quality_at_pa`, `VariablesPlan::pa`). The fonts are DejaVu Sans and
 //! DejaVu Sans Bold (libre; licence in `src/sheet/fonts/`), embedded so that
 //! alpha, beta, <= and subscripts print as themselves.
 //!
@@ -15,6 +16,8 @@
 mod canvas;
 mod chart;
 mod text;
+mod variables;
+mod variables_text;
 
 use sha2::{Digest, Sha256};
 
@@ -26,6 +29,7 @@ use crate::plan::{
     Evaluation, SequentialLines, StagedPlan, aoql, evaluate, largest_asn, measures, quality_at_pa,
 };
 use crate::report::{format_quality, format_significant, words};
+use crate::risk::RiskPair;
 use crate::source::{PlanSource, RecordedPlan, tool_version};
 use canvas::{BOLD_ID, Canvas, Face, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
@@ -74,19 +78,47 @@ pub fn source_hash(text: &str) -> String {
 /// document subject), for `verify --sheet`.
 pub const HASH_PREFIX: &str = "lotsman-source-sha256:";
 
-/// What every block of the sheet prints from, gathered once.
-struct Facts<'a> {
+/// What the blocks every sheet shares (title block, risk table,
+/// signatures, footer) print from, whatever the plan.
+struct Common<'a> {
     source: &'a PlanSource,
     recorded: &'a RecordedPlan,
-    request: DesignRequest,
-    model: Model,
-    plan: StagedPlan,
+    risks: RiskPair,
+    lot_size: Option<u64>,
+    /// The title block's scheme field.
+    scheme: String,
     per_unit: bool,
     hash: String,
     file_name: &'a str,
 }
 
-impl Facts<'_> {
+impl<'a> Common<'a> {
+    /// The shared facts of `source`, whose plan the caller has validated
+    /// (so that a missing plan is reported in the plan's own words).
+    fn new(
+        source: &'a PlanSource,
+        text: &str,
+        file_name: &'a str,
+        risks: RiskPair,
+        model: &Model,
+        scheme: String,
+    ) -> Result<Self, InputError> {
+        let recorded = source
+            .plan
+            .as_ref()
+            .ok_or_else(|| InputError::Inconsistent("no plan".into()))?;
+        Ok(Common {
+            source,
+            recorded,
+            risks,
+            lot_size: model.lot_size(),
+            scheme,
+            per_unit: model.kind() == ModelKind::Poisson,
+            hash: source_hash(text),
+            file_name,
+        })
+    }
+
     /// A quality as the sheet prints it (percent, or per unit for Poisson).
     fn q(&self, v: f64) -> String {
         format_quality(v, self.per_unit)
@@ -96,6 +128,14 @@ impl Facts<'_> {
     fn pa_at_p1(&self) -> f64 {
         1.0 - self.recorded.producer_risk
     }
+}
+
+/// What the blocks of an attributes sheet print from, gathered once.
+struct Facts<'a> {
+    common: Common<'a>,
+    request: DesignRequest,
+    model: Model,
+    plan: StagedPlan,
 }
 
 /// A field of the source, or a dash.
@@ -165,23 +205,6 @@ pub fn render_sheet(
     file_name: &str,
     paper: Paper,
 ) -> Result<Sheet, Error> {
-    let request = source.request()?;
-    let model = request.model;
-    let plan = source.recorded_plan(&model)?;
-    let recorded = source
-        .plan
-        .as_ref()
-        .ok_or_else(|| InputError::Inconsistent("no plan".into()))?;
-    let facts = Facts {
-        source,
-        recorded,
-        per_unit: model.kind() == ModelKind::Poisson,
-        request,
-        model,
-        plan,
-        hash: source_hash(text),
-        file_name,
-    };
     let regular = printpdf::ParsedFont::from_bytes(REGULAR_TTF, 0, &mut Vec::new());
     let bold = printpdf::ParsedFont::from_bytes(BOLD_TTF, 0, &mut Vec::new());
     let (Some(regular), Some(bold)) = (regular, bold) else {
@@ -198,10 +221,30 @@ pub fn render_sheet(
         width: pw - 2.0 * margin,
         margin,
     };
-    match facts.plan.as_single() {
-        Some((n, ac)) => single_layout(&mut c, &facts, frame, ph - margin, n, ac)?,
-        None => staged_layout(&mut c, &facts, frame, ph - margin)?,
-    }
+    let attributes;
+    let measured;
+    let common = if source.is_variables() {
+        measured = variables::Facts::gather(source, text, file_name)?;
+        variables::layout(&mut c, &measured, frame, ph - margin);
+        &measured.common
+    } else {
+        let request = source.request()?;
+        let model = request.model;
+        let plan = source.recorded_plan(&model)?;
+        let scheme = format!("{}, {}", source.scheme.name(), model.kind().name());
+        attributes = Facts {
+            common: Common::new(source, text, file_name, request.risks, &model, scheme)?,
+            request,
+            model,
+            plan,
+        };
+        let f = &attributes;
+        match f.plan.as_single() {
+            Some((n, ac)) => single_layout(&mut c, f, frame, ph - margin, n, ac)?,
+            None => staged_layout(&mut c, f, frame, ph - margin)?,
+        }
+        &attributes.common
+    };
     let Canvas {
         ops,
         regions,
@@ -234,10 +277,10 @@ pub fn render_sheet(
         ))
         .into());
     }
-    let pdf = save(&facts, &regular, &bold, pw, ph, ops)?;
+    let pdf = save(common, &regular, &bold, pw, ph, ops)?;
     Ok(Sheet {
         pdf,
-        source_sha256: facts.hash,
+        source_sha256: common.hash.clone(),
         regions,
     })
 }
@@ -261,7 +304,7 @@ fn placement_faults(regions: &[Region], pw: f64, ph: f64) -> Vec<String> {
 /// The PDF of one page of `ops`, with the fonts, the source hash in the
 /// subject and the document ID set from it.
 fn save(
-    f: &Facts,
+    f: &Common,
     regular: &printpdf::ParsedFont,
     bold: &printpdf::ParsedFont,
     pw: f64,
@@ -315,13 +358,13 @@ fn single_layout(
         margin,
     } = frame;
     let title_h = 40.0;
-    title_block(c, f, left, top, width, title_h);
+    title_block(c, &f.common, left, top, width, title_h);
     top -= title_h + 4.0;
     let plan_h = 42.0;
     single_plan_box(c, f, left, top, width, plan_h, n, ac);
     top -= plan_h + 4.0;
     let risk_h = 20.0;
-    risk_table(c, f, left, top, width, risk_h);
+    risk_table(c, &f.common, left, top, width, risk_h);
     top -= risk_h + 3.0;
 
     // Charts take the height that the table and footer leave.
@@ -349,8 +392,8 @@ fn single_layout(
     let table_w = 112.0;
     measures_table(c, f, &evaluation, left, top, table_w, table_h);
     let sig_x = left + table_w + 4.0;
-    signatures(c, f, sig_x, top, right - sig_x, table_h);
-    footer(c, f, frame, FOOT_H);
+    signatures(c, &f.common, sig_x, top, right - sig_x, table_h);
+    footer(c, &f.common, frame, FOOT_H, words::CAUTION, "");
     if chart_h < MIN_CHART_H || top - table_h < foot_top + 2.0 {
         c.faults
             .push("the page is too short for its blocks".to_string());
@@ -360,7 +403,7 @@ fn single_layout(
 
 /// The title block: title, item and characteristic on the left; plan ID,
 /// revision, date, lot size and scheme on the right.
-fn title_block(c: &mut Canvas, f: &Facts, left: f64, top: f64, width: f64, block_h: f64) {
+fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, block_h: f64) {
     let source = f.source;
     let right = left + width;
     let black = || grey(0.0);
@@ -416,16 +459,14 @@ fn title_block(c: &mut Canvas, f: &Facts, left: f64, top: f64, width: f64, block
         None,
     );
     let lot = f
-        .model
-        .lot_size()
+        .lot_size
         .map_or(text::NO_LOT_SIZE.to_string(), |n| format!("{n} units"));
-    let scheme_model = format!("{}, {}", source.scheme.name(), f.model.kind().name());
     let meta = [
         (text::PLAN_ID, given(&source.id)),
         (text::REVISION, given(&source.revision)),
         (text::DATE, given(&source.date)),
         (text::LOT_SIZE, lot),
-        (text::SCHEME, scheme_model),
+        (text::SCHEME, f.scheme.clone()),
     ];
     // Five rows spread over the block's height.
     let pitch = (block_h - 5.0) / 5.0;
@@ -493,7 +534,7 @@ fn single_plan_box(
         24.0,
         grey(0.0),
     );
-    let what = words::counted(f.per_unit);
+    let what = words::counted(f.common.per_unit);
     let decisions = [
         (
             format!("Accept if ≤ {ac} {what}"),
@@ -532,16 +573,23 @@ fn single_plan_box(
 /// The inspector's procedure under its heading at `(x, top)`, one
 /// paragraph per step, each in what the earlier steps left above `bottom`.
 fn procedure(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, bottom: f64, size: f64) {
+    let steps = words::plan_procedure(&f.plan, f.common.per_unit);
+    steps_block(c, &steps, x, top, w, bottom, size);
+}
+
+/// Numbered steps under the procedure heading at `(x, top)`, one paragraph
+/// per step, each in what the earlier steps left above `bottom`.
+fn steps_block(c: &mut Canvas, steps: &[String], x: f64, top: f64, w: f64, bottom: f64, size: f64) {
     c.heading(x, top - 7.0, text::PROCEDURE);
     let mut step_top = top - 9.0;
-    for step in words::plan_procedure(&f.plan, f.per_unit) {
+    for step in steps {
         let used = c.paragraph(
             "procedure",
             x,
             step_top,
             w,
             step_top - bottom,
-            &step,
+            step,
             Face::Regular,
             size,
             7.0,
@@ -553,7 +601,16 @@ fn procedure(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, bottom: f64, s
 /// Height the procedure takes in a column `w` mm wide at `size`, heading
 /// and bottom padding included (see [`procedure`]).
 fn procedure_height(c: &Canvas, f: &Facts, w: f64, size: f64) -> f64 {
-    let steps = words::plan_procedure(&f.plan, f.per_unit);
+    steps_height(
+        c,
+        &words::plan_procedure(&f.plan, f.common.per_unit),
+        w,
+        size,
+    )
+}
+
+/// Height of [`steps_block`] in a column `w` mm wide at `size`.
+fn steps_height(c: &Canvas, steps: &[String], w: f64, size: f64) -> f64 {
     let text: f64 = steps
         .iter()
         .map(|s| c.fit(s, Face::Regular, w, f64::INFINITY, size, size).height)
@@ -584,7 +641,7 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
         width,
         margin,
     } = frame;
-    title_block(c, f, left, top, width, STAGED_TITLE_H);
+    title_block(c, &f.common, left, top, width, STAGED_TITLE_H);
     top -= STAGED_TITLE_H + GAP;
     let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
     let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
@@ -606,7 +663,7 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
         return Ok(());
     }
     top -= plan_h + GAP;
-    risk_table(c, f, left, top, width, risk_h);
+    risk_table(c, &f.common, left, top, width, risk_h);
     top -= risk_h + GAP;
 
     let chart_h = (top - GAP - table_h - GAP - foot_top).min(85.0);
@@ -652,8 +709,8 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
     let table_w = 112.0;
     measures_table(c, f, &evaluation, left, top, table_w, table_h);
     let sig_x = left + table_w + 4.0;
-    signatures(c, f, sig_x, top, right - sig_x, table_h);
-    footer(c, f, frame, STAGED_FOOT_H);
+    signatures(c, &f.common, sig_x, top, right - sig_x, table_h);
+    footer(c, &f.common, frame, STAGED_FOOT_H, words::CAUTION, "");
     if chart_h < MIN_CHART_H - 1e-9 || top - table_h < foot_top + 2.0 {
         c.faults
             .push("the page is too short for its blocks".to_string());
@@ -859,7 +916,11 @@ fn stage_plan_box(
         })
         .collect();
     let heads = &text::STAGE_HEADS;
-    let heading = text::stages_heading(f.source.scheme.name(), stages.len(), f.plan.max_sample());
+    let heading = text::stages_heading(
+        f.common.source.scheme.name(),
+        stages.len(),
+        f.plan.max_sample(),
+    );
     // The box for each row type: (procedure size, height, (type, widths,
     // left column, procedure width)).
     let layout = |c: &mut Canvas, rows_in: RowType| {
@@ -1157,7 +1218,7 @@ fn asn_chart(
     let single_n = design_single(&f.model, &f.request.risks).ok().map(|d| d.n);
     let top_value = single_n.map_or(asn_max, |n| asn_max.max(n as f64));
     let y_max = nice_ceiling(top_value * 1.15);
-    let axis = quality_tick(f.per_unit);
+    let axis = quality_tick(f.common.per_unit);
     let count = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
     let plot = Plot::new(x, y, w, h, x_max, y_max);
     chart::frame(
@@ -1166,7 +1227,7 @@ fn asn_chart(
         &plot,
         &Axes {
             title: text::ASN_TITLE,
-            x_label: text::quality_axis(f.per_unit),
+            x_label: text::quality_axis(f.common.per_unit),
             y_label: text::ASN_AXIS,
             x_max,
             y_max,
@@ -1191,8 +1252,8 @@ fn asn_chart(
         Mark {
             x: q_max,
             y: asn_max,
-            label: text::largest_asn(asn_max, &f.q(q_max)).join(" "),
-            stacked: Some(text::largest_asn(asn_max, &f.q(q_max))),
+            label: text::largest_asn(asn_max, &f.common.q(q_max)).join(" "),
+            stacked: Some(text::largest_asn(asn_max, &f.common.q(q_max))),
         },
     ];
     let guide_y = single_n.map(|n| plot.sy(n as f64));
@@ -1249,7 +1310,7 @@ fn decision_chart(
         chart::zone(c, &plot, &accept_zone, rgb(0.84, 0.94, 0.85));
     }
     let count = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
-    let y_label = text::decision_y(f.per_unit);
+    let y_label = text::decision_y(f.common.per_unit);
     chart::frame(
         c,
         "decision chart",
@@ -1388,10 +1449,10 @@ fn decision_chart(
 }
 
 /// The risk table: each agreed point against what the plan achieves.
-fn risk_table(c: &mut Canvas, f: &Facts, left: f64, top: f64, width: f64, risk_h: f64) {
+fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_h: f64) {
     let right = left + width;
     let black = || grey(0.0);
-    let (producer, consumer) = (f.request.risks.producer(), f.request.risks.consumer());
+    let (producer, consumer) = (f.risks.producer(), f.risks.consumer());
     c.claim("risks", left, top - risk_h, width, risk_h);
     c.heading(left, top - 3.5, text::RISKS);
     let cols = [left, left + 52.0, left + 84.0, left + 128.0, right];
@@ -1462,26 +1523,13 @@ fn quality_tick(per_unit: bool) -> impl Fn(f64, f64) -> String {
     move |v: f64, step: f64| chart::tick_label(v, step, scale, suffix)
 }
 
-/// The OC curve with both risk points marked and the indifference quality.
-#[allow(clippy::too_many_arguments)]
-fn oc_chart(
-    c: &mut Canvas,
-    f: &Facts,
-    points: &[CurvePoint],
-    x_max: f64,
-    x: f64,
-    y: f64,
-    w: f64,
-    h: f64,
-) {
-    let (producer, consumer) = (f.request.risks.producer(), f.request.risks.consumer());
-    let indifference = quality_at_pa(&f.plan, &f.model, 0.5);
-    let oc: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.pa)).collect();
-    let axis = quality_tick(f.per_unit);
-    let prob = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
+/// The two risk points as marks on an OC chart, at the Pa the source
+/// records.
+fn risk_marks(f: &Common) -> [Mark; 2] {
+    let (producer, consumer) = (f.risks.producer(), f.risks.consumer());
     let pa1 = f.pa_at_p1();
     let beta = f.recorded.consumer_risk;
-    let marks = [
+    [
         Mark {
             x: producer.quality,
             y: pa1,
@@ -1500,7 +1548,26 @@ fn oc_chart(
                 format!("Pa = {beta:.3}"),
             ]),
         },
-    ];
+    ]
+}
+
+/// The OC curve with both risk points marked and the indifference quality.
+#[allow(clippy::too_many_arguments)]
+fn oc_chart(
+    c: &mut Canvas,
+    f: &Facts,
+    points: &[CurvePoint],
+    x_max: f64,
+    x: f64,
+    y: f64,
+    w: f64,
+    h: f64,
+) {
+    let indifference = quality_at_pa(&f.plan, &f.model, 0.5);
+    let oc: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.pa)).collect();
+    let axis = quality_tick(f.common.per_unit);
+    let prob = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
+    let marks = risk_marks(&f.common);
     chart::draw(
         c,
         "OC chart",
@@ -1510,7 +1577,7 @@ fn oc_chart(
         h,
         &Chart {
             title: text::oc_title(c, w),
-            x_label: text::quality_axis(f.per_unit),
+            x_label: text::quality_axis(f.common.per_unit),
             y_label: text::OC_AXIS,
             x_max,
             y_max: 1.0,
@@ -1518,7 +1585,10 @@ fn oc_chart(
             y_tick: &prob,
             curve: &oc,
             marks: &marks,
-            guide: Some((indifference, format!("Pa = 0.5 at {}", f.q(indifference)))),
+            guide: Some((
+                indifference,
+                format!("Pa = 0.5 at {}", f.common.q(indifference)),
+            )),
         },
     );
 }
@@ -1537,11 +1607,11 @@ fn aoq_chart(
 ) {
     let limit = aoql(&f.plan, &f.model);
     let aoq: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.aoq)).collect();
-    let axis = quality_tick(f.per_unit);
+    let axis = quality_tick(f.common.per_unit);
     let marks = [Mark {
         x: limit.quality,
         y: limit.value,
-        label: format!("AOQL = {}", f.q(limit.value)),
+        label: format!("AOQL = {}", f.common.q(limit.value)),
         stacked: None,
     }];
     chart::draw(
@@ -1553,7 +1623,7 @@ fn aoq_chart(
         h,
         &Chart {
             title: text::AOQ_TITLE,
-            x_label: text::quality_axis(f.per_unit),
+            x_label: text::quality_axis(f.common.per_unit),
             y_label: text::AOQ_AXIS,
             x_max,
             y_max: nice_ceiling(limit.value * 1.25),
@@ -1605,14 +1675,14 @@ fn measures_table(
             left + 1.0,
             22.0,
             y,
-            &f.q(m.quality),
+            &f.common.q(m.quality),
             Face::Regular,
             7.0,
             black(),
         );
         let cells = [
             format!("{:.4}", m.pa),
-            if f.per_unit {
+            if f.common.per_unit {
                 format!("{:.5}", m.aoq)
             } else {
                 format!("{:.4}%", m.aoq * 100.0)
@@ -1642,7 +1712,7 @@ fn measures_table(
 
 /// The signature block: who prepared and who approved the plan, with lines
 /// for the signature and the date.
-fn signatures(c: &mut Canvas, f: &Facts, sig_x: f64, top: f64, sig_w: f64, table_h: f64) {
+fn signatures(c: &mut Canvas, f: &Common, sig_x: f64, top: f64, sig_w: f64, table_h: f64) {
     let black = || grey(0.0);
     c.claim("signatures", sig_x, top - table_h, sig_w, table_h);
     c.rect_stroke(sig_x, top - table_h, sig_w, table_h, 0.5, black());
@@ -1700,8 +1770,9 @@ fn signatures(c: &mut Canvas, f: &Facts, sig_x: f64, top: f64, sig_w: f64, table
     }
 }
 
-/// The footer at the bottom margin: the cautions and the provenance line.
-fn footer(c: &mut Canvas, f: &Facts, frame: Frame, foot_h: f64) {
+/// The footer at the bottom margin: the `caution` and the provenance line,
+/// which `more` continues.
+fn footer(c: &mut Canvas, f: &Common, frame: Frame, foot_h: f64, caution: &str, more: &str) {
     let Frame {
         left,
         right,
@@ -1717,14 +1788,14 @@ fn footer(c: &mut Canvas, f: &Facts, frame: Frame, foot_h: f64) {
         foot_top - 1.5,
         width,
         10.0,
-        words::CAUTION,
+        caution,
         Face::Regular,
         7.0,
         5.5,
     );
     let provenance = format!(
         "Generated by {} from {name} (SHA-256 {hash}). Plan solved by {}. \
-         Regenerate with: lotsman sheet {name}",
+         Regenerate with: lotsman sheet {name}{more}",
         tool_version(),
         f.recorded.solved_by,
         name = f.file_name,
