@@ -11,8 +11,11 @@ use std::path::{Path, PathBuf};
 
 use crate::atomic::write_atomic;
 use crate::error::{Error, SourceError};
-use crate::plan::{aoql, default_qualities, evaluate};
-use crate::report::{Csv, EvaluationReport, ReportFormat};
+use crate::plan::{
+    Decision, aoql, default_qualities, evaluate, evaluate_variables, judge_measurements,
+    parse_measurements, variables_qualities,
+};
+use crate::report::{Csv, EvaluationReport, ReportFormat, VariablesEvaluationReport};
 use crate::source::{PlanSource, Verdict, verify};
 
 /// `(file name, text)` of every demo plan source.
@@ -37,7 +40,19 @@ pub const DEMO_PLANS: &[(&str, &str)] = &[
         "tpw-sleeve-hardness.yaml",
         include_str!("../plans/tpw-sleeve-hardness.yaml"),
     ),
+    (
+        "tpw-cover-thickness.yaml",
+        include_str!("../plans/tpw-cover-thickness.yaml"),
+    ),
 ];
+
+/// The readings of one lot of cover plates (invented), judged by the
+/// demo against `tpw-cover-thickness.yaml`: `(file name, text, column)`.
+pub const DEMO_READINGS: (&str, &str, &str) = (
+    "tpw-cover-thickness-readings.csv",
+    include_str!("../plans/tpw-cover-thickness-readings.csv"),
+    "thickness_mm",
+);
 
 /// What the demo did with one plan.
 #[derive(Clone, Debug, PartialEq)]
@@ -58,6 +73,9 @@ pub struct DemoRow {
     pub verified: bool,
     /// The files written.
     pub written: Vec<PathBuf>,
+    /// Variables plans: the decision on the demo lot's readings, with
+    /// its rule and any warnings.
+    pub judged: Option<String>,
 }
 
 /// Runs the demo into `dir` (created if missing).
@@ -73,15 +91,14 @@ pub fn run_demo(dir: &Path) -> Result<Vec<DemoRow>, Error> {
     let mut rows = Vec::new();
     for (name, text) in DEMO_PLANS {
         let source = PlanSource::from_yaml(text, Path::new(name))?;
-        let request = source.request()?;
         let verified = verify(&source)? == Verdict::Match;
-        let recorded = source.recorded_plan(&request.model)?;
-        let qualities = default_qualities(&recorded, &request.model, Some(&request.risks));
-        let evaluation = evaluate(&recorded, &request.model, &qualities)?;
+        let (mut row, csv) = if source.is_variables() {
+            variables_row(&source, name, dir)?
+        } else {
+            attributes_row(&source, name)?
+        };
         let source_path = dir.join(name);
         let csv_path = dir.join(name.replace(".yaml", "-oc.csv"));
-        let mut csv = Vec::new();
-        Csv.evaluation(&mut csv, &EvaluationReport::from(&evaluation))?;
         let sheet_path = dir.join(name.replace(".yaml", ".pdf"));
         let sheet = crate::sheet::render_sheet(text, &source, name, crate::sheet::Paper::A4)?;
         for (path, bytes) in [
@@ -89,26 +106,104 @@ pub fn run_demo(dir: &Path) -> Result<Vec<DemoRow>, Error> {
             (&csv_path, csv),
             (&sheet_path, sheet.pdf),
         ] {
-            write_atomic(path, &bytes).map_err(|e| SourceError::Io {
-                path: path.clone(),
-                source: e,
-            })?;
+            write(path, &bytes)?;
         }
-        let limit = aoql(&recorded, &request.model);
-        let risks = source
-            .plan
-            .as_ref()
-            .map_or((f64::NAN, f64::NAN), |p| (p.producer_risk, p.consumer_risk));
-        rows.push(DemoRow {
+        row.verified = verified;
+        row.written
+            .splice(0..0, [source_path, csv_path, sheet_path]);
+        rows.push(row);
+    }
+    Ok(rows)
+}
+
+fn write(path: &Path, bytes: &[u8]) -> Result<(), Error> {
+    write_atomic(path, bytes).map_err(|e| {
+        SourceError::Io {
+            path: path.to_path_buf(),
+            source: e,
+        }
+        .into()
+    })
+}
+
+/// The row and OC table of an attributes plan.
+fn attributes_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>), Error> {
+    let request = source.request()?;
+    let recorded = source.recorded_plan(&request.model)?;
+    let qualities = default_qualities(&recorded, &request.model, Some(&request.risks));
+    let evaluation = evaluate(&recorded, &request.model, &qualities)?;
+    let mut csv = Vec::new();
+    Csv.evaluation(&mut csv, &EvaluationReport::from(&evaluation))?;
+    let limit = aoql(&recorded, &request.model);
+    Ok((
+        DemoRow {
             file: name.to_string(),
             title: source.title.clone(),
             model: request.model.kind(),
             plan: recorded.to_string(),
-            risks,
+            risks: recorded_risks(source),
             aoql: (limit.value, limit.quality),
-            verified,
-            written: vec![source_path, csv_path, sheet_path],
-        });
+            verified: false,
+            written: Vec::new(),
+            judged: None,
+        },
+        csv,
+    ))
+}
+
+/// The row and OC table of a variables plan, with its demo lot judged
+/// (the readings are written beside the source).
+fn variables_row(source: &PlanSource, name: &str, dir: &Path) -> Result<(DemoRow, Vec<u8>), Error> {
+    let request = source.variables_request()?;
+    let plan = source.recorded_variables_plan(request.spec())?;
+    let qualities = variables_qualities(&plan, request.risks());
+    let evaluation = evaluate_variables(&plan, request.model().lot_size(), &qualities)?;
+    let mut csv = Vec::new();
+    Csv.variables_evaluation(&mut csv, &VariablesEvaluationReport::from(&evaluation))?;
+    let (readings_name, readings, column) = DEMO_READINGS;
+    let mut written = Vec::new();
+    let mut judged = None;
+    if readings_name.starts_with(&name.replace(".yaml", "")) {
+        let path = dir.join(readings_name);
+        write(&path, readings.as_bytes())?;
+        written.push(path);
+        let values = parse_measurements(readings, Some(column))?;
+        let j = judge_measurements(&plan, &values, request.risks().producer().quality)?;
+        let mut verdict = format!(
+            "{} ({}; n = {}, mean {:.4}, s {:.4})",
+            match j.decision {
+                Decision::Accept => "ACCEPT",
+                _ => "REJECT",
+            },
+            j.rule,
+            j.n,
+            j.mean,
+            j.s
+        );
+        for w in &j.warnings {
+            verdict.push_str(&format!("; WARNING: {w}"));
+        }
+        judged = Some(verdict);
     }
-    Ok(rows)
+    Ok((
+        DemoRow {
+            file: name.to_string(),
+            title: source.title.clone(),
+            model: request.model().kind(),
+            plan: plan.to_string(),
+            risks: recorded_risks(source),
+            aoql: (evaluation.aoql.value, evaluation.aoql.quality),
+            verified: false,
+            written,
+            judged,
+        },
+        csv,
+    ))
+}
+
+fn recorded_risks(source: &PlanSource) -> (f64, f64) {
+    source
+        .plan
+        .as_ref()
+        .map_or((f64::NAN, f64::NAN), |p| (p.producer_risk, p.consumer_risk))
 }

@@ -45,7 +45,7 @@ mod source;
 mod templates;
 
 pub use atomic::write_atomic;
-pub use demo::{DEMO_PLANS, DemoRow, run_demo};
+pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
 pub use design::{
     Alternative, AsnSummary, Criterion, Design, DesignRequest, MAX_ACCEPTANCE_NUMBER,
     MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_SAMPLE_SIZE, Scheme, SchemeOptions, SingleDesign,
