@@ -363,6 +363,7 @@ fn the_demo_plans_verify_and_the_demo_writes_its_files() {
             "plans/tpw-housing-finish.yaml",
             "plans/tpw-impeller-porosity.yaml",
             "plans/tpw-sleeve-hardness.yaml",
+            "plans/tpw-cover-thickness.yaml",
         ])
         .assert()
         .success();
@@ -375,7 +376,10 @@ fn the_demo_plans_verify_and_the_demo_writes_its_files() {
         .stdout(predicate::str::contains(
             "the recorded plan matches a fresh solve",
         ))
-        .stdout(predicate::str::contains("Sampling does not guarantee"));
+        .stdout(predicate::str::contains("Sampling does not guarantee"))
+        .stdout(predicate::str::contains(
+            "judged the demo lot's readings: ACCEPT",
+        ));
     for name in [
         "tpw-seal-visual.yaml",
         "tpw-cover-fit-oc.csv",
@@ -384,6 +388,9 @@ fn the_demo_plans_verify_and_the_demo_writes_its_files() {
         "tpw-impeller-porosity.pdf",
         "tpw-sleeve-hardness-oc.csv",
         "tpw-sleeve-hardness.pdf",
+        "tpw-cover-thickness.pdf",
+        "tpw-cover-thickness-oc.csv",
+        "tpw-cover-thickness-readings.csv",
     ] {
         assert!(out.join(name).is_file(), "{name}");
     }
