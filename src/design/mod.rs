@@ -7,6 +7,7 @@ mod request;
 mod search;
 mod sequential;
 mod single;
+mod tradeoff;
 mod variables;
 
 pub use double::{MAX_DOUBLE_SINGLE_C, design_double};
@@ -19,5 +20,9 @@ pub use sequential::{WaldApproximation, design_sequential, wald_lines};
 pub use single::{
     Alternative, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, SingleDesign, design_single,
     single_alternatives,
+};
+pub use tradeoff::{
+    CellCost, CellPlan, InspectionCost, MAX_GRID_CELLS, TradeoffCell, TradeoffGrid,
+    TradeoffRequest, tradeoff,
 };
 pub use variables::{VariablesDesign, design_variables};
