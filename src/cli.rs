@@ -26,6 +26,9 @@ pub enum Command {
     Judge(JudgeArgs),
     /// Print the plan sheet (PDF) of each plan source.
     Sheet(SheetArgs),
+    /// Solve a grid of risk points: the plan, and its inspection cost, for
+    /// each AQL and RQL.
+    Tradeoff(TradeoffArgs),
     /// Print a commented plan-source template.
     New(NewArgs),
     /// Run the whole job on the demo plans of the invented scenario.
@@ -235,6 +238,63 @@ pub struct JudgeArgs {
     /// Output format
     #[arg(long, value_enum, default_value = "text")]
     pub format: JudgeFormat,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum TradeoffSchemeArg {
+    Single,
+    Double,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum TradeoffFormat {
+    Table,
+    Json,
+    Csv,
+}
+
+#[derive(Debug, Args)]
+pub struct TradeoffArgs {
+    /// Producer's qualities, one row each: LO:HI:COUNT (0.2%:2%:10) or a list (0.5%,1%,1.5%)
+    #[arg(long, value_name = "LO:HI:COUNT")]
+    pub aql: String,
+    /// Producer's risk in every cell
+    #[arg(long, value_name = "A", default_value = "0.05")]
+    pub alpha: String,
+    /// Consumer's qualities, one column each: LO:HI:COUNT (3%:12%:10) or a list
+    #[arg(long, value_name = "LO:HI:COUNT")]
+    pub rql: String,
+    /// Consumer's risk in every cell
+    #[arg(long, value_name = "B", default_value = "0.10")]
+    pub beta: String,
+    #[command(flatten)]
+    pub model: ModelFlags,
+    /// Sampling scheme of every cell
+    #[arg(long, value_enum, default_value = "single")]
+    pub scheme: TradeoffSchemeArg,
+    /// What the double designer minimises [default: asn-aql]
+    #[arg(long, value_enum)]
+    pub criterion: Option<CriterionArg>,
+    /// Cost of inspecting one unit: adds the expected inspection cost per lot (needs --lot-size)
+    #[arg(
+        long,
+        value_name = "X",
+        requires = "process_quality",
+        allow_hyphen_values = true
+    )]
+    pub cost_per_unit: Option<String>,
+    /// Expected process quality at which the cost is taken (ATI at this quality)
+    #[arg(long, value_name = "P", requires = "cost_per_unit")]
+    pub process_quality: Option<String>,
+    /// Title printed above the grid
+    #[arg(long)]
+    pub title: Option<String>,
+    /// Output format
+    #[arg(long, value_enum, default_value = "table")]
+    pub format: TradeoffFormat,
+    /// Write the output to this file (atomically) instead of stdout
+    #[arg(long, value_name = "FILE")]
+    pub output: Option<PathBuf>,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]

@@ -72,9 +72,10 @@ pub use quantity::{
     parse_stage,
 };
 pub use report::{
-    AlternativeReport, Csv, DesignReport, EvaluationReport, Json, PointReport, ReportFormat, Table,
-    VariablesDesignReport, VariablesEvaluationReport, VariablesReport, VerificationReport,
-    VerifyEntry, VerifyStatus, format_quality, format_significant, variables_rule, words,
+    AlternativeReport, CostReport, Csv, DesignReport, EvaluationReport, Json, PointReport,
+    ReportFormat, Table, TradeoffCellReport, TradeoffReport, VariablesDesignReport,
+    VariablesEvaluationReport, VariablesReport, VerificationReport, VerifyEntry, VerifyStatus,
+    format_quality, format_significant, variables_rule, words,
 };
 pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{

@@ -11,18 +11,18 @@ use std::process::ExitCode;
 use clap::Parser;
 use cli::{
     Cli, Command, CriterionArg, DesignFormat, LimitArg, ModelArg, ModelFlags, PaperArg,
-    ReportFormatArg, SchemeArg, SigmaArg,
+    ReportFormatArg, SchemeArg, SigmaArg, TradeoffFormat, TradeoffSchemeArg,
 };
 use lotsman::{
     Criterion, Csv, Decision, DesignReport, DesignRequest, Error, EvaluationReport, InputError,
     Json, LimitKind, MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Paper, PlanSource,
     QualityRange, ReportFormat, RiskPair, RiskPoint, Scheme, SchemeOptions, SigmaKind, SourceError,
-    Specification, StagedPlan, Table, VariablesDesignReport, VariablesEvaluationReport,
-    VariablesRequest, Verdict, VerificationReport, VerifyEntry, VerifyStatus, default_qualities,
-    evaluate, evaluate_variables, judge, judge_cumulative, judge_measurements, parse_count,
-    parse_fraction, parse_fraction_list, parse_measurements, parse_number, parse_stage, run_demo,
-    sheet_source_hash, solve, solve_variables, source_hash, template, template_kinds,
-    variables_qualities, verify, write_atomic, write_sheet,
+    Specification, StagedPlan, Table, TradeoffReport, TradeoffRequest, VariablesDesignReport,
+    VariablesEvaluationReport, VariablesRequest, Verdict, VerificationReport, VerifyEntry,
+    VerifyStatus, default_qualities, evaluate, evaluate_variables, judge, judge_cumulative,
+    judge_measurements, parse_count, parse_fraction, parse_fraction_list, parse_measurements,
+    parse_number, parse_stage, run_demo, sheet_source_hash, solve, solve_variables, source_hash,
+    template, template_kinds, tradeoff, variables_qualities, verify, write_atomic, write_sheet,
 };
 
 fn main() -> ExitCode {
@@ -54,6 +54,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             .into()),
         },
         Command::Demo(args) => demo(&args.output_dir),
+        Command::Tradeoff(args) => tradeoff_cmd(args),
         Command::Sheet(args) => sheet_cmd(args),
         Command::Judge(args) => judge_cmd(args),
     }
@@ -148,12 +149,7 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
             };
             let defaults = SchemeOptions::default();
             let options = SchemeOptions {
-                criterion: match args.criterion {
-                    None => defaults.criterion,
-                    Some(CriterionArg::Aql) => Criterion::AsnAql,
-                    Some(CriterionArg::Rql) => Criterion::AsnRql,
-                    Some(CriterionArg::Max) => Criterion::AsnMax,
-                },
+                criterion: criterion_from(args.criterion),
                 second_ratio: args
                     .second_ratio
                     .as_deref()
@@ -201,6 +197,76 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
         DesignFormat::Yaml => text = source.to_yaml().into_bytes(),
     }
     print_out(&text)?;
+    Ok(ExitCode::SUCCESS)
+}
+
+/// The criterion of `--criterion`, or the default.
+fn criterion_from(arg: Option<CriterionArg>) -> Criterion {
+    match arg {
+        None => SchemeOptions::default().criterion,
+        Some(CriterionArg::Aql) => Criterion::AsnAql,
+        Some(CriterionArg::Rql) => Criterion::AsnRql,
+        Some(CriterionArg::Max) => Criterion::AsnMax,
+    }
+}
+
+/// The qualities of one grid axis: `LO:HI:COUNT` or a list `p,p,..`.
+fn axis_from(flag: &str, text: &str) -> Result<Vec<f64>, InputError> {
+    if text.contains(':') {
+        Ok(QualityRange::parse(flag, text)?.points())
+    } else {
+        parse_fraction_list(flag, text)
+    }
+}
+
+fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
+    let model = model_from(&args.model)?;
+    let scheme = match args.scheme {
+        TradeoffSchemeArg::Single => Scheme::Single,
+        TradeoffSchemeArg::Double => Scheme::Double,
+    };
+    if args.criterion.is_some() && scheme != Scheme::Double {
+        return Err(InputError::Inconsistent(
+            "--criterion applies to double plans (--scheme double)".to_string(),
+        )
+        .into());
+    }
+    let cost = match (&args.cost_per_unit, &args.process_quality) {
+        (Some(k), Some(p)) => Some((
+            parse_number("--cost-per-unit", k)?,
+            parse_fraction("--process-quality", p)?,
+        )),
+        _ => None,
+    };
+    let request = TradeoffRequest::new(
+        axis_from("--aql", &args.aql)?,
+        axis_from("--rql", &args.rql)?,
+        parse_fraction("--alpha", &args.alpha)?,
+        parse_fraction("--beta", &args.beta)?,
+        model,
+        scheme,
+        criterion_from(args.criterion),
+        cost,
+    )?;
+    let grid = tradeoff(&request, &|| {});
+    let report = TradeoffReport::new(args.title.as_deref(), &grid);
+    let mut text = Vec::new();
+    let format: &dyn ReportFormat = match args.format {
+        TradeoffFormat::Table => &Table,
+        TradeoffFormat::Json => &Json,
+        TradeoffFormat::Csv => &Csv,
+    };
+    format.tradeoff(&mut text, &report)?;
+    match &args.output {
+        Some(path) => {
+            write_atomic(path, &text).map_err(|e| SourceError::Io {
+                path: path.clone(),
+                source: e,
+            })?;
+            eprintln!("lotsman: wrote {}", path.display());
+        }
+        None => print_out(&text)?,
+    }
     Ok(ExitCode::SUCCESS)
 }
 

@@ -9,6 +9,7 @@
 mod csv;
 mod json;
 mod table;
+mod tradeoff;
 mod variables;
 pub mod words;
 
@@ -19,6 +20,7 @@ use serde::Serialize;
 pub use self::csv::Csv;
 pub use self::json::Json;
 pub use self::table::Table;
+pub use self::tradeoff::{CostReport, TradeoffCellReport, TradeoffReport};
 pub use self::variables::{
     VariablesDesignReport, VariablesEvaluationReport, VariablesReport, variables_rule,
 };
@@ -47,6 +49,8 @@ pub trait ReportFormat {
         out: &mut dyn Write,
         report: &VariablesEvaluationReport,
     ) -> io::Result<()>;
+    /// Writes a trade-off grid.
+    fn tradeoff(&self, out: &mut dyn Write, report: &TradeoffReport) -> io::Result<()>;
 }
 
 /// A risk point with the risk the plan achieves there.
