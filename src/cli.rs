@@ -17,7 +17,7 @@ pub struct Cli {
 #[derive(Debug, Subcommand)]
 pub enum Command {
     /// Design the smallest plan that meets both risk points.
-    Design(DesignArgs),
+    Design(Box<DesignArgs>),
     /// Evaluate a plan: OC, AOQ, ATI and ASN at chosen qualities, AOQL.
     Evaluate(EvaluateArgs),
     /// Re-solve plan sources and compare with the plans they record.
@@ -157,6 +157,18 @@ pub struct DesignArgs {
     /// Title recorded in the plan source written with --output
     #[arg(long)]
     pub title: Option<String>,
+    /// Sensitivity: the step by which the AQL moves [default: 1-2-5 step near a fifth of it]
+    #[arg(long, value_name = "P", allow_hyphen_values = true)]
+    pub step_aql: Option<String>,
+    /// Sensitivity: the step by which alpha moves [default: as --step-aql]
+    #[arg(long, value_name = "A", allow_hyphen_values = true)]
+    pub step_alpha: Option<String>,
+    /// Sensitivity: the step by which the RQL moves [default: as --step-aql]
+    #[arg(long, value_name = "P", allow_hyphen_values = true)]
+    pub step_rql: Option<String>,
+    /// Sensitivity: the step by which beta moves [default: as --step-aql]
+    #[arg(long, value_name = "B", allow_hyphen_values = true)]
+    pub step_beta: Option<String>,
     /// Output format on stdout
     #[arg(long, value_enum, default_value = "table")]
     pub format: DesignFormat,

@@ -47,12 +47,13 @@ mod templates;
 pub use atomic::write_atomic;
 pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
 pub use design::{
-    Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design, DesignRequest, InspectionCost,
-    MAX_ACCEPTANCE_NUMBER, MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, MAX_SAMPLE_SIZE,
-    Scheme, SchemeOptions, SingleDesign, Solution, TradeoffCell, TradeoffGrid, TradeoffRequest,
-    VariablesDesign, VariablesRequest, VariablesSolution, WaldApproximation, design_double,
-    design_for, design_multiple, design_sequential, design_single, design_variables,
-    single_alternatives, solve, solve_variables, tradeoff, wald_lines,
+    Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design, DesignRequest, Input,
+    InspectionCost, MAX_ACCEPTANCE_NUMBER, MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS,
+    MAX_SAMPLE_SIZE, Moved, Scheme, SchemeOptions, Sensitivity, SingleDesign, Solution, Steps,
+    TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign, VariablesRequest,
+    VariablesSolution, WaldApproximation, design_double, design_for, design_multiple,
+    design_sequential, design_single, design_variables, sensitivity, single_alternatives, solve,
+    solve_variables, tradeoff, wald_lines,
 };
 pub use error::{DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};

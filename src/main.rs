@@ -17,12 +17,13 @@ use lotsman::{
     Criterion, Csv, Decision, DesignReport, DesignRequest, Error, EvaluationReport, InputError,
     Json, LimitKind, MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Paper, PlanSource,
     QualityRange, ReportFormat, RiskPair, RiskPoint, Scheme, SchemeOptions, SigmaKind, SourceError,
-    Specification, StagedPlan, Table, TradeoffReport, TradeoffRequest, VariablesDesignReport,
-    VariablesEvaluationReport, VariablesRequest, Verdict, VerificationReport, VerifyEntry,
-    VerifyStatus, default_qualities, evaluate, evaluate_variables, judge, judge_cumulative,
-    judge_measurements, parse_count, parse_fraction, parse_fraction_list, parse_measurements,
-    parse_number, parse_stage, run_demo, sheet_source_hash, solve, solve_variables, source_hash,
-    template, template_kinds, tradeoff, variables_qualities, verify, write_atomic, write_sheet,
+    Specification, StagedPlan, Steps, Table, TradeoffReport, TradeoffRequest,
+    VariablesDesignReport, VariablesEvaluationReport, VariablesRequest, Verdict,
+    VerificationReport, VerifyEntry, VerifyStatus, default_qualities, evaluate, evaluate_variables,
+    judge, judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_fraction_list,
+    parse_measurements, parse_number, parse_stage, run_demo, sensitivity, sheet_source_hash, solve,
+    solve_variables, source_hash, template, template_kinds, tradeoff, variables_qualities, verify,
+    write_atomic, write_sheet,
 };
 
 fn main() -> ExitCode {
@@ -38,7 +39,7 @@ fn main() -> ExitCode {
 
 fn run(cli: Cli) -> Result<ExitCode, Error> {
     match cli.command {
-        Command::Design(args) => design(args),
+        Command::Design(args) => design(*args),
         Command::Evaluate(args) => evaluate_cmd(args),
         Command::Verify(args) => verify_cmd(args),
         Command::New(args) => match template(&args.kind) {
@@ -189,7 +190,22 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     let solution = solve(&request).map_err(|e| design_error(&args, e))?;
     source.record(&solution);
     write_source(&args, &source)?;
-    let report = DesignReport::new(&source.title, &solution);
+    let steps = Steps::new(
+        &request.risks,
+        [
+            (&args.step_aql, "--step-aql"),
+            (&args.step_alpha, "--step-alpha"),
+            (&args.step_rql, "--step-rql"),
+            (&args.step_beta, "--step-beta"),
+        ]
+        .map(|(v, flag)| v.as_deref().map(|t| parse_fraction(flag, t)).transpose())
+        .into_iter()
+        .collect::<Result<Vec<_>, _>>()?
+        .try_into()
+        .unwrap_or([None; 4]),
+    )?;
+    let rows = sensitivity(&request.model, &request.risks, solution.single.n, &steps);
+    let report = DesignReport::new(&source.title, &solution).with_sensitivity(rows);
     let mut text = Vec::new();
     match args.format {
         DesignFormat::Table => Table.design(&mut text, &report)?,

@@ -2,12 +2,13 @@
 //! tests/reference/make_tradeoff_reference.py): every cell solved on its own
 //! by the reference script's exhaustive design (scipy.stats, each plan
 //! re-checked at 50 digits with mpmath), and ATI at the process quality at
-//! 50 digits.
+//! 50 digits; and the sensitivity of the sample size, each moved point
+//! designed on its own by the same reference design.
 
 mod common;
 
-use common::{close, fixture, model, rows};
-use lotsman::{Criterion, Scheme, TradeoffRequest, tradeoff};
+use common::{close, fixture, model, risks, rows};
+use lotsman::{Criterion, Scheme, Steps, TradeoffRequest, design_single, sensitivity, tradeoff};
 use serde_json::Value;
 
 fn floats(v: &Value) -> Vec<f64> {
@@ -75,4 +76,34 @@ fn every_cell_is_the_reference_design() {
         }
     }
     assert_eq!(compared, 239, "all cells of the fixture");
+}
+
+#[test]
+fn each_move_of_the_sensitivity_is_the_reference_design_at_the_moved_point() {
+    let reference = fixture("tests/data/tradeoff_reference.json");
+    let mut compared = 0;
+    for case in rows(&reference, "sensitivity") {
+        let base = &case["base"];
+        let m = model(base);
+        let pair = risks(base, &m);
+        let n = design_single(&m, &pair).unwrap().n;
+        let steps: Vec<Option<f64>> = floats(&case["steps"]).into_iter().map(Some).collect();
+        let steps = Steps::new(&pair, steps.try_into().unwrap()).unwrap();
+        let got: Vec<_> = sensitivity(&m, &pair, n, &steps)
+            .into_iter()
+            .flat_map(|s| [s.conceded, s.tightened])
+            .collect();
+        let moves = case["moves"].as_array().unwrap();
+        assert_eq!(got.len(), moves.len());
+        for (g, want) in got.iter().zip(moves) {
+            let at = format!("{base} {} {}", want["input"], want["way"]);
+            assert_eq!(g.value, want["value"].as_f64().unwrap(), "{at}");
+            assert_eq!(g.n, want["n"].as_u64(), "{at}");
+            assert_eq!(g.c, want["c"].as_u64(), "{at}");
+            assert_eq!(g.reason.is_some(), want["n"].is_null(), "{at}");
+            assert_eq!(g.change, g.n.map(|x| x as i64 - n as i64), "{at}");
+            compared += 1;
+        }
+    }
+    assert_eq!(compared, 32);
 }

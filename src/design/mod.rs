@@ -5,6 +5,7 @@ mod double;
 mod multiple;
 mod request;
 mod search;
+mod sensitivity;
 mod sequential;
 mod single;
 mod tradeoff;
@@ -16,6 +17,7 @@ pub use request::{
     AsnSummary, Criterion, Design, DesignRequest, MAX_DESIGN_STAGES, Scheme, SchemeOptions,
     Solution, VariablesRequest, VariablesSolution, design_for, solve, solve_variables,
 };
+pub use sensitivity::{Input, Moved, Sensitivity, Steps, sensitivity};
 pub use sequential::{WaldApproximation, design_sequential, wald_lines};
 pub use single::{
     Alternative, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, SingleDesign, design_single,

@@ -24,7 +24,7 @@ pub use self::tradeoff::{CostReport, TradeoffCellReport, TradeoffReport};
 pub use self::variables::{
     VariablesDesignReport, VariablesEvaluationReport, VariablesReport, variables_rule,
 };
-use crate::design::{Alternative, AsnSummary, Scheme, Solution, WaldApproximation};
+use crate::design::{Alternative, AsnSummary, Scheme, Sensitivity, Solution, WaldApproximation};
 use crate::model::ModelKind;
 use crate::plan::{Aoql, Evaluation, ItemRun, Measures, SequentialLines, Stage, StagedPlan};
 use crate::source::{Difference, tool_version};
@@ -171,11 +171,20 @@ pub struct DesignReport {
     pub alternatives: Vec<AlternativeReport>,
     /// Remarks a reader should see (100% inspection, ties).
     pub notes: Vec<String>,
+    /// How the single plan's sample size answers a move of each input
+    /// (empty until [`DesignReport::with_sensitivity`]).
+    pub sensitivity: Vec<Sensitivity>,
     /// Tool and version.
     pub solved_by: String,
 }
 
 impl DesignReport {
+    /// The report with the sensitivity of the sample size to each input.
+    pub fn with_sensitivity(mut self, rows: Vec<Sensitivity>) -> Self {
+        self.sensitivity = rows;
+        self
+    }
+
     /// The report of `solution`, under `title`.
     pub fn new(title: &str, solution: &Solution) -> Self {
         let r = &solution.request;
@@ -244,6 +253,7 @@ impl DesignReport {
                 .map(AlternativeReport::from)
                 .collect(),
             notes,
+            sensitivity: Vec::new(),
             solved_by: tool_version(),
         }
     }

@@ -10,6 +10,7 @@ use super::{
     TradeoffCellReport, TradeoffReport, VariablesDesignReport, VariablesEvaluationReport,
     VariablesReport, VerificationReport, format_quality, format_significant, variables_rule,
 };
+use crate::design::{Input, Moved};
 use crate::model::ModelKind;
 use crate::plan::Stage;
 
@@ -189,6 +190,7 @@ impl ReportFormat for Table {
             if let Some(c) = r.criterion {
                 writeln!(out, "The designer minimised {c}.")?;
             }
+            write_sensitivity(out, r, per_unit)?;
             return writeln!(out, "{}", words::CAUTION);
         }
         writeln!(out)?;
@@ -222,6 +224,7 @@ impl ReportFormat for Table {
             )?;
         }
         writeln!(out, "* the chosen plan.")?;
+        write_sensitivity(out, r, per_unit)?;
         writeln!(out, "{}", words::CAUTION)
     }
 
@@ -474,6 +477,69 @@ impl ReportFormat for Table {
         )?;
         writeln!(out, "{}", words::CAUTION)
     }
+}
+
+/// What each concession saves and each tightening costs, one row per input.
+fn write_sensitivity(out: &mut dyn Write, r: &DesignReport, per_unit: bool) -> io::Result<()> {
+    if r.sensitivity.is_empty() {
+        return Ok(());
+    }
+    writeln!(out)?;
+    writeln!(
+        out,
+        "What one step of each input does to the single plan (n = {}, c = {}), the other three as agreed",
+        r.single_plan.n, r.single_plan.c
+    )?;
+    let mut g = grid(&[
+        "Input",
+        "Agreed",
+        "Step",
+        "Conceded to",
+        "n",
+        "Tightened to",
+        "n",
+    ]);
+    // The inputs and steps are decimals a person chose: print them as
+    // written, with no padding digits.
+    let decimal = |v: f64| format!("{}", format!("{v:.11e}").parse::<f64>().unwrap_or(v));
+    let value = |input: Input, v: f64| match input {
+        Input::Aql | Input::Rql if !per_unit => format!("{}%", decimal(100.0 * v)),
+        _ => decimal(v),
+    };
+    let n = |m: &Moved| match (m.n, m.change) {
+        (Some(n), Some(d)) if d != 0 => format!("{n} ({d:+})"),
+        (Some(n), _) => format!("{n} (same)"),
+        _ => "no plan".to_string(),
+    };
+    let mut reasons = Vec::new();
+    for s in &r.sensitivity {
+        for m in [&s.conceded, &s.tightened] {
+            if let Some(why) = &m.reason {
+                reasons.push(format!(
+                    "{} = {}: {why}",
+                    s.input.label(),
+                    value(s.input, m.value)
+                ));
+            }
+        }
+        g.add_row(vec![
+            s.input.label().to_string(),
+            value(s.input, s.value),
+            value(s.input, s.step),
+            value(s.input, s.conceded.value),
+            n(&s.conceded),
+            value(s.input, s.tightened.value),
+            n(&s.tightened),
+        ]);
+    }
+    writeln!(out, "{g}")?;
+    for why in reasons {
+        writeln!(out, "  no plan at {why}")?;
+    }
+    writeln!(
+        out,
+        "A concession is a lower AQL or a larger alpha (producer), a higher RQL or a larger beta (consumer); --step-aql, --step-alpha, --step-rql, --step-beta set the steps."
+    )
 }
 
 /// How many RQL columns one block of a grid shows.

@@ -87,6 +87,42 @@ GRIDS = [
 ]
 
 
+#: Sensitivity cases: (model, lot size, p1, alpha, p2, beta) and the steps
+#: of p1, alpha, p2, beta. Each input moves one step each way, the others
+#: stay, and each moved point is designed on its own.
+SENSITIVITY = [
+    ((BIN, None, 0.01, 0.05, 0.06, 0.10), (0.002, 0.01, 0.01, 0.02)),
+    ((HYP, 500, 0.005, 0.05, 0.04, 0.10), (0.001, 0.01, 0.01, 0.02)),
+    ((POI, None, 0.05, 0.05, 0.4, 0.10), (0.01, 0.01, 0.2, 0.02)),
+    # Steps that push p1 onto p2 and alpha to 0: no plan there.
+    ((BIN, None, 0.05, 0.02, 0.06, 0.10), (0.01, 0.02, 0.01, 0.05)),
+]
+
+
+def decimal(x: float) -> float:
+    """``x`` rounded to 12 significant digits, as lotsman moves an input."""
+    return float(f"{x:.11e}")
+
+
+def build_sensitivity():
+    rows = []
+    for (model, lot, p1, alpha, p2, beta), steps in SENSITIVITY:
+        base = dict(model=model, lot_size=lot, p1=p1, alpha=alpha, p2=p2, beta=beta)
+        moves = []
+        for i, (name, sign) in enumerate((("aql", -1), ("alpha", 1), ("rql", 1), ("beta", 1))):
+            for way, direction in (("conceded", sign), ("tightened", -sign)):
+                point = [p1, alpha, p2, beta]
+                point[i] = decimal(point[i] + direction * steps[i])
+                q1, a, q2, b = point
+                valid = q1 < q2 and 0 < a < 1 and 0 < b < 1 and a + b < 1 and \
+                    (model == POI or q2 < 1)
+                res = DesignProblem(model, q1, a, q2, b, lot).solve() if valid else dict(n=None)
+                moves.append(dict(input=name, way=way, value=point[i], n=res["n"],
+                                  c=res.get("c")))
+        rows.append(dict(base=base, steps=list(steps), moves=moves))
+    return rows
+
+
 def build_fixture():
     grids = []
     for name, model, lot, alpha, beta, aqls, rqls, process in GRIDS:
@@ -100,7 +136,7 @@ def build_fixture():
                 cells.append(cell)
         grids.append(dict(name=name, model=model, lot_size=lot, alpha=alpha, beta=beta,
                           aql=aqls, rql=rqls, process_quality=process, cells=cells))
-    return {"grids": grids}
+    return {"grids": grids, "sensitivity": build_sensitivity()}
 
 
 def bench():
