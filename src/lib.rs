@@ -80,7 +80,8 @@ pub use report::{
 };
 pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{
-    HASH_PREFIX, Paper, Sheet, render_sheet, sheet_source_hash, source_hash, write_sheet,
+    ContourLabel, HASH_PREFIX, MapContour, MapPanel, MapQuantity, Paper, Sheet, TradeoffMap,
+    render_sheet, render_tradeoff_map, sheet_source_hash, source_hash, write_sheet,
 };
 pub use source::{
     Difference, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan, RecordedVariables,
