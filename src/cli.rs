@@ -263,6 +263,8 @@ pub enum TradeoffFormat {
     Table,
     Json,
     Csv,
+    /// A heat map of the grid with labelled contours (needs --output FILE.pdf)
+    Pdf,
 }
 
 #[derive(Debug, Args)]
@@ -304,9 +306,12 @@ pub struct TradeoffArgs {
     /// Output format
     #[arg(long, value_enum, default_value = "table")]
     pub format: TradeoffFormat,
-    /// Write the output to this file (atomically) instead of stdout
+    /// Write the output to this file (atomically) instead of stdout; required for pdf
     #[arg(long, value_name = "FILE")]
     pub output: Option<PathBuf>,
+    /// Paper size of the pdf heat map (printed landscape)
+    #[arg(long, value_enum, default_value = "a4")]
+    pub paper: PaperArg,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]

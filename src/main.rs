@@ -21,9 +21,9 @@ use lotsman::{
     VariablesDesignReport, VariablesEvaluationReport, VariablesRequest, Verdict,
     VerificationReport, VerifyEntry, VerifyStatus, default_qualities, evaluate, evaluate_variables,
     judge, judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_fraction_list,
-    parse_measurements, parse_number, parse_stage, run_demo, sensitivity, sheet_source_hash, solve,
-    solve_variables, source_hash, template, template_kinds, tradeoff, variables_qualities, verify,
-    write_atomic, write_sheet,
+    parse_measurements, parse_number, parse_stage, render_tradeoff_map, run_demo, sensitivity,
+    sheet_source_hash, solve, solve_variables, source_hash, template, template_kinds, tradeoff,
+    variables_qualities, verify, write_atomic, write_sheet,
 };
 
 fn main() -> ExitCode {
@@ -264,15 +264,33 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
         criterion_from(args.criterion),
         cost,
     )?;
+    if args.format == TradeoffFormat::Pdf && args.output.is_none() {
+        return Err(InputError::Inconsistent(
+            "--format pdf writes a file: give --output FILE.pdf".to_string(),
+        )
+        .into());
+    }
     let grid = tradeoff(&request, &|| {});
-    let report = TradeoffReport::new(args.title.as_deref(), &grid);
-    let mut text = Vec::new();
-    let format: &dyn ReportFormat = match args.format {
-        TradeoffFormat::Table => &Table,
-        TradeoffFormat::Json => &Json,
-        TradeoffFormat::Csv => &Csv,
+    let text = match args.format {
+        TradeoffFormat::Pdf => {
+            let title = args
+                .title
+                .as_deref()
+                .unwrap_or("Trade-off of the risk points");
+            render_tradeoff_map(&grid, title, Some(&command_line()), paper_from(args.paper))?.pdf
+        }
+        format => {
+            let report = TradeoffReport::new(args.title.as_deref(), &grid);
+            let mut text = Vec::new();
+            let format: &dyn ReportFormat = match format {
+                TradeoffFormat::Json => &Json,
+                TradeoffFormat::Csv => &Csv,
+                _ => &Table,
+            };
+            format.tradeoff(&mut text, &report)?;
+            text
+        }
     };
-    format.tradeoff(&mut text, &report)?;
     match &args.output {
         Some(path) => {
             write_atomic(path, &text).map_err(|e| SourceError::Io {
@@ -284,6 +302,33 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
         None => print_out(&text)?,
     }
     Ok(ExitCode::SUCCESS)
+}
+
+/// This run's command line, as a shell would take it back: every argument
+/// that holds anything but plain characters is single-quoted.
+fn command_line() -> String {
+    let plain = |a: &str| {
+        !a.is_empty()
+            && a.chars()
+                .all(|ch| ch.is_ascii_alphanumeric() || "%-_.,:/=+".contains(ch))
+    };
+    std::iter::once("lotsman".to_string())
+        .chain(std::env::args().skip(1).map(|a| {
+            if plain(&a) {
+                a
+            } else {
+                format!("'{}'", a.replace('\'', "'\\''"))
+            }
+        }))
+        .collect::<Vec<_>>()
+        .join(" ")
+}
+
+fn paper_from(arg: PaperArg) -> Paper {
+    match arg {
+        PaperArg::A4 => Paper::A4,
+        PaperArg::Letter => Paper::Letter,
+    }
 }
 
 /// A designer's refusal, naming the source it came from.
@@ -759,10 +804,7 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
         )
         .into());
     }
-    let paper = match args.paper {
-        PaperArg::A4 => Paper::A4,
-        PaperArg::Letter => Paper::Letter,
-    };
+    let paper = paper_from(args.paper);
     let target = |source: &Path| -> PathBuf {
         if let Some(out) = &args.output {
             return out.clone();

@@ -284,3 +284,40 @@ fn bad_requests_exit_2_with_a_message_naming_the_problem() {
             .stderr(predicate::str::contains(message));
     }
 }
+
+#[test]
+fn pdf_writes_the_heat_map_and_needs_an_output_file() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("map.pdf");
+    lotsman()
+        .args([
+            "tradeoff",
+            "--aql",
+            "0.5%:1.5%:5",
+            "--rql",
+            "3%:7%:5",
+            "--title",
+            "Packing rings",
+            "--format",
+            "pdf",
+            "--paper",
+            "letter",
+        ])
+        .arg("--output")
+        .arg(&path)
+        .assert()
+        .success();
+    let text = std::process::Command::new("pdftotext")
+        .arg(&path)
+        .arg("-")
+        .output()
+        .expect("pdftotext (poppler-utils) is installed");
+    let text = String::from_utf8(text.stdout).unwrap();
+    assert!(text.contains("Packing rings"), "{text}");
+    assert!(text.contains("lotsman tradeoff --aql 0.5%:1.5%:5"), "{text}");
+    lotsman()
+        .args(["tradeoff", "--aql", "1%,2%", "--rql", "6%,8%", "--format", "pdf"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("--output FILE.pdf"));
+}
