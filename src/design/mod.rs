@@ -2,6 +2,7 @@
 
 mod bracket;
 mod double;
+mod double_sweep;
 mod multiple;
 mod request;
 mod search;
