@@ -53,6 +53,11 @@ pub use design::{
     design_double, design_for, design_multiple, design_sequential, design_single, design_variables,
     single_alternatives, solve, solve_variables, wald_lines,
 };
+// Minimum-inspection plans for rectifying inspection (Dodge and Romig).
+pub use design::{
+    AOQL_PLAN_LTPD_RISK, Protection, RectifyingDesign, RectifyingPlan, RectifyingRequest,
+    RectifyingRow, design_rectifying,
+};
 pub use error::{DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
 pub use plan::{
@@ -75,6 +80,8 @@ pub use report::{
     VariablesDesignReport, VariablesEvaluationReport, VariablesReport, VerificationReport,
     VerifyEntry, VerifyStatus, format_quality, format_significant, variables_rule, words,
 };
+// The minimum-inspection report (`rectify`).
+pub use report::{ProtectionReport, RECTIFYING_STEP, RectifyingPlanReport, RectifyingReport};
 pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{
     HASH_PREFIX, Paper, Sheet, render_sheet, sheet_source_hash, source_hash, write_sheet,

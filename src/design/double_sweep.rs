@@ -35,6 +35,8 @@
 //! one limit, and each designer's reference search checks it over a wider
 //! box.
 
+use std::ops::RangeInclusive;
+
 use rayon::prelude::*;
 
 use crate::model::{Model, ModelKind};
@@ -180,11 +182,18 @@ pub(super) trait DoubleProblem: Sync {
         None
     }
 
-    /// A lower bound on the criterion of every plan `(n1, k, n2)` with
-    /// `n2 >= lo2`; an `n1` whose bound reaches the best value is skipped
-    /// without searching its `n2`.
-    fn floor(&self, _k: Numbers, _n1: u64, _lo2: u64) -> f64 {
-        0.0
+    /// The first rejection numbers `r1` searched with `c1` and `c2`: every
+    /// one from `c1 + 2` (one count open after the first sample) to
+    /// `c2 + 1`.
+    fn first_rejections(&self, c1: u64, c2: u64) -> RangeInclusive<u64> {
+        c1 + 2..=c2 + 1
+    }
+
+    /// Whether every plan `(n1, k, n2)` with `n2 >= lo2` certainly scores
+    /// above `bound`; such an `n1` is passed over without searching its
+    /// `n2`.
+    fn beyond(&self, _k: Numbers, _n1: u64, _lo2: u64, _bound: f64) -> bool {
+        false
     }
 
     /// The plan `(n1, k, n2)`, which meets the requirement, scored; `None`
@@ -227,24 +236,6 @@ fn first_from_below(lo: u64, hi: u64, mut holds: impl FnMut(u64) -> bool) -> Opt
     Some(bisect(bad, good, holds))
 }
 
-/// The smallest `n2` in `lo..=top` for which `holds` is true, given that
-/// it is true at `top`: galloping down (one unit, two, four, ...), then
-/// bisection.
-fn first_from_above(lo: u64, top: u64, mut holds: impl FnMut(u64) -> bool) -> u64 {
-    let mut good = top;
-    let mut step = 1;
-    while good > lo {
-        let probe = good.saturating_sub(step).max(lo);
-        if holds(probe) {
-            good = probe;
-            step = step.saturating_mul(2);
-        } else {
-            return bisect(probe, good, holds);
-        }
-    }
-    good
-}
-
 /// The first true point in `(bad, good]`, false at `bad`, true at `good`.
 fn bisect(mut bad: u64, mut good: u64, mut holds: impl FnMut(u64) -> bool) -> u64 {
     while good - bad > 1 {
@@ -258,21 +249,31 @@ fn bisect(mut bad: u64, mut good: u64, mut holds: impl FnMut(u64) -> bool) -> u6
     good
 }
 
-/// Every `n1` for the numbers `k`, improving on `best`.
+/// Every `n1` for the numbers `k`, improving on `best`, from the largest
+/// `n1` that could win down to the smallest.
+///
+/// Going down, the smallest `n2` of each `n1` is at least the one found
+/// for a larger `n1` (the pointer), so the search of `n2` starts there, and
+/// the problem's floor at the pointer bounds the criterion of every plan
+/// with this `n1` before any `n2` is tested.
 fn sweep<P: DoubleProblem>(problem: &P, k: Numbers, best: &mut Option<Candidate>) {
     let unit = problem.model().kind() != ModelKind::Poisson;
     let limit = problem.limit();
     let Some((lo1, hi1)) = problem.first_sample_range(k.c1, k.r1) else {
         return;
     };
+    let lo1 = lo1.max(if unit { k.c1 + 1 } else { 1 });
+    // Every criterion is at least n1.
+    let below_bound = (bound(problem, best).ceil() as u64).saturating_sub(1);
+    let hi1 = hi1.min(limit - 1).min(below_bound);
     let mut memo = P::Memo::default();
-    // The smallest n2 found at the last n1 searched: an upper bound on the
-    // smallest n2 of every later n1.
+    // The smallest n2 found at the last n1 searched: a lower bound on the
+    // smallest n2 of every smaller n1.
     let mut pointer: Option<u64> = None;
-    for n1 in lo1.max(if unit { k.c1 + 1 } else { 1 })..=hi1.min(limit - 1) {
+    for n1 in (lo1..=hi1).rev() {
         let bound = bound(problem, best);
         if n1 as f64 >= bound {
-            break;
+            continue;
         }
         let lo2 = if unit {
             (k.c2 + 1).saturating_sub(n1).max(1)
@@ -280,7 +281,8 @@ fn sweep<P: DoubleProblem>(problem: &P, k: Numbers, best: &mut Option<Candidate>
             1
         };
         let hi2 = limit - n1;
-        if problem.floor(k, n1, lo2) > bound {
+        let from = pointer.map_or(lo2, |p| p.max(lo2));
+        if from > hi2 || problem.beyond(k, n1, from, bound) {
             continue;
         }
         let first = problem.first(n1, k);
@@ -292,22 +294,14 @@ fn sweep<P: DoubleProblem>(problem: &P, k: Numbers, best: &mut Option<Candidate>
                 }
                 n2
             }
-            None => match pointer {
-                Some(top) => {
-                    // The last smallest n2 holds at this n1 too, unless
-                    // the lot leaves fewer units than that.
-                    if top > hi2 && !holds(hi2) {
-                        continue;
-                    }
-                    first_from_above(lo2, top.clamp(lo2, hi2), &mut holds)
+            None => match first_from_below(from, hi2, &mut holds) {
+                Some(n2) => {
+                    pointer = Some(n2);
+                    n2
                 }
-                None => match first_from_below(lo2, hi2, &mut holds) {
-                    Some(n2) => n2,
-                    None => continue,
-                },
+                None => continue,
             },
         };
-        pointer = Some(n2);
         if let Some(candidate) = problem.score(&first, k, n1, n2, bound)
             && best.is_none_or(|b| candidate.beats(&b))
         {
@@ -320,8 +314,9 @@ fn sweep<P: DoubleProblem>(problem: &P, k: Numbers, best: &mut Option<Candidate>
 /// [`C2_PATIENCE`] values after the last one that improved the best plan,
 /// and not before `start + C2_PATIENCE`. The numbers `(c1, r1)` of one
 /// `c2`, with `c1 < c2` and `c1 + 2 <= r1 <= c2 + 1`, are swept in
-/// parallel, each from the best plan of the smaller `c2`; the merge keeps
-/// the tie rule's winner, so the answer does not depend on the order.
+/// parallel (with the problem's [`first_rejections`](DoubleProblem::first_rejections)),
+/// each from the best plan of the smaller `c2`; the merge keeps the tie
+/// rule's winner, so the answer does not depend on the order.
 pub(super) fn search<P: DoubleProblem>(problem: &P, start: u64) -> Option<Candidate> {
     let mut best: Option<Candidate> = None;
     let mut last_improved = start;
@@ -329,7 +324,11 @@ pub(super) fn search<P: DoubleProblem>(problem: &P, start: u64) -> Option<Candid
     while c2 <= last_improved + C2_PATIENCE {
         let before = best;
         let sets: Vec<Numbers> = (0..c2)
-            .flat_map(|c1| (c1 + 2..=c2 + 1).map(move |r1| Numbers { c1, r1, c2 }))
+            .flat_map(|c1| {
+                problem
+                    .first_rejections(c1, c2)
+                    .map(move |r1| Numbers { c1, r1, c2 })
+            })
             .collect();
         let found: Vec<Option<Candidate>> = sets
             .par_iter()

@@ -3,6 +3,8 @@
 mod bracket;
 mod double;
 mod double_sweep;
+mod minimum;
+mod minimum_double;
 mod multiple;
 mod request;
 mod search;
@@ -11,6 +13,10 @@ mod single;
 mod variables;
 
 pub use double::{MAX_DOUBLE_SINGLE_C, design_double};
+pub use minimum::{
+    AOQL_PLAN_LTPD_RISK, Protection, RectifyingDesign, RectifyingPlan, RectifyingRequest,
+    RectifyingRow, design_rectifying,
+};
 pub use multiple::design_multiple;
 pub use request::{
     AsnSummary, Criterion, Design, DesignRequest, MAX_DESIGN_STAGES, Scheme, SchemeOptions,

@@ -5,8 +5,8 @@ use std::io::{self, Write};
 use serde::Serialize;
 
 use super::{
-    DesignReport, EvaluationReport, ReportFormat, VariablesDesignReport, VariablesEvaluationReport,
-    VerificationReport,
+    DesignReport, EvaluationReport, RectifyingReport, ReportFormat, VariablesDesignReport,
+    VariablesEvaluationReport, VerificationReport,
 };
 
 /// Pretty-printed JSON, one object per report, keys in snake_case.
@@ -44,6 +44,10 @@ impl ReportFormat for Json {
         out: &mut dyn Write,
         report: &VariablesEvaluationReport,
     ) -> io::Result<()> {
+        write_json(out, report)
+    }
+
+    fn rectifying(&self, out: &mut dyn Write, report: &RectifyingReport) -> io::Result<()> {
         write_json(out, report)
     }
 }

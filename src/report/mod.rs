@@ -8,6 +8,7 @@
 
 mod csv;
 mod json;
+mod rectifying;
 mod table;
 mod variables;
 pub mod words;
@@ -18,6 +19,9 @@ use serde::Serialize;
 
 pub use self::csv::Csv;
 pub use self::json::Json;
+pub use self::rectifying::{
+    ProtectionReport, RECTIFYING_STEP, RectifyingPlanReport, RectifyingReport,
+};
 pub use self::table::Table;
 pub use self::variables::{
     VariablesDesignReport, VariablesEvaluationReport, VariablesReport, variables_rule,
@@ -47,6 +51,8 @@ pub trait ReportFormat {
         out: &mut dyn Write,
         report: &VariablesEvaluationReport,
     ) -> io::Result<()>;
+    /// Writes a minimum-inspection design report (`rectify`).
+    fn rectifying(&self, out: &mut dyn Write, report: &RectifyingReport) -> io::Result<()>;
 }
 
 /// A risk point with the risk the plan achieves there.

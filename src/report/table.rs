@@ -4,6 +4,7 @@ use std::io::{self, Write};
 
 use comfy_table::{CellAlignment, ContentArrangement, LineStyle, Table as Grid, TableStyle};
 
+use super::RectifyingReport;
 use super::words;
 use super::{
     DesignReport, EvaluationReport, PointReport, ReportFormat, SequentialReport,
@@ -26,7 +27,7 @@ const RULED: TableStyle = TableStyle::new()
 /// How many rows of alternatives a terminal table shows.
 const ALTERNATIVE_ROWS: usize = 12;
 
-fn grid(header: &[&str]) -> Grid {
+pub(super) fn grid(header: &[&str]) -> Grid {
     let mut g = Grid::new();
     g.load_style(RULED)
         .set_content_arrangement(ContentArrangement::Dynamic);
@@ -42,7 +43,7 @@ fn grid(header: &[&str]) -> Grid {
 /// How many rows of an item table a terminal shows.
 const ITEM_ROWS: usize = 24;
 
-fn write_stage_table(out: &mut dyn Write, stages: &[Stage]) -> io::Result<()> {
+pub(super) fn write_stage_table(out: &mut dyn Write, stages: &[Stage]) -> io::Result<()> {
     let mut g = grid(&[
         "Stage",
         "New units",
@@ -405,6 +406,10 @@ impl ReportFormat for Table {
             )?;
         }
         Ok(())
+    }
+
+    fn rectifying(&self, out: &mut dyn Write, report: &RectifyingReport) -> io::Result<()> {
+        super::rectifying::write_table(out, report)
     }
 }
 
