@@ -296,7 +296,7 @@ pub struct RectifyArgs {
     #[arg(long, value_name = "P")]
     pub ltpd: Option<String>,
     /// Consumer's risk at the LTPD [default: 0.10]
-    #[arg(long, value_name = "B", requires = "ltpd")]
+    #[arg(long, value_name = "B", conflicts_with = "aoql")]
     pub beta: Option<String>,
     /// Protect by the AOQL: the average outgoing quality never exceeds this
     #[arg(long, value_name = "L")]

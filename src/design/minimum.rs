@@ -460,6 +460,7 @@ impl<'a> SingleSearch<'a> {
 /// let request = RectifyingRequest::new(model, 0.0025, ltpd, Scheme::Single).unwrap();
 /// let d = design_rectifying(&request).unwrap();
 /// let chosen = d.plan.unwrap();
+/// // an exhaustive scipy search agrees (tests/data/minimum_reference.json)
 /// assert_eq!(chosen.plan.as_single(), Some((766, 4)));
 /// assert!(chosen.pa_at_ltpd.unwrap() <= 0.10);
 /// assert!(chosen.ati < 930.0);

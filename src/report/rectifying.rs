@@ -11,7 +11,7 @@ use serde::Serialize;
 use super::table::{grid, write_stage_table};
 use super::{format_quality, format_significant, words};
 use crate::design::{Protection, RectifyingDesign, RectifyingPlan, RectifyingRow};
-use crate::model::ModelKind;
+use crate::model::{ModelKind, nonconforming_in_lot};
 use crate::plan::{Aoql, Stage, StagedPlan};
 use crate::source::tool_version;
 
@@ -154,6 +154,24 @@ impl RectifyingReport {
         }
         if per_unit {
             notes.push("qualities are nonconformities per unit (Poisson model)".to_string());
+        }
+        if r.model().kind() == ModelKind::Hypergeometric {
+            let mut given = vec![("process average", r.process_average())];
+            if let Protection::Ltpd(point) = r.protection() {
+                given.push(("LTPD", point.quality));
+            }
+            for (name, p) in given {
+                let d = nonconforming_in_lot(p, lot);
+                let quality = d as f64 / lot as f64;
+                if (quality - p).abs() > 1e-9 * p {
+                    notes.push(format!(
+                        "in a lot of {lot} units the {name} {} means {d} nonconforming unit{} (D = round(p N)), a lot quality of {}",
+                        format_quality(p, false),
+                        if d == 1 { "" } else { "s" },
+                        format_quality(quality, false)
+                    ));
+                }
+            }
         }
         RectifyingReport {
             title: title.to_string(),
