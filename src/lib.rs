@@ -23,6 +23,10 @@
 //! assert!(at_aql.pa >= 0.95);
 //! ```
 //!
+//! For rectifying inspection, [`design_rectifying`] finds the plan with the
+//! least average total inspection at the process average that holds an LTPD
+//! or an AOQL (Dodge and Romig's minimum-inspection plans).
+//!
 //! Sampling never guarantees the quality of a lot; critical and safety
 //! characteristics need the inspection that the applicable contract,
 //! regulation or licensed practice requires.

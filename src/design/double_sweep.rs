@@ -23,17 +23,19 @@
 //!
 //! # The sweep
 //!
-//! For the first `n1` the smallest `n2` comes from doubling and bisection;
-//! for each later `n1` it lies at or below the previous one, so a walk down
-//! from there finds it (galloping: one more unit, then two, four, ...; then
-//! bisection), and over the whole sweep the walk costs little more than one
-//! test per `n1`. The sweep stops once `n1` reaches the best criterion found
-//! (every criterion is at least `n1`). The numbers `(c1, r1)` of each `c2`
-//! are swept in parallel; `c2` runs up from 1 and stops [`C2_PATIENCE`]
-//! values after the last one that improved the best plan, and not before a
-//! starting value the designer gives. That stopping rule is the search's
-//! one limit, and each designer's reference search checks it over a wider
-//! box.
+//! The sweep runs down from the largest `n1` that could win (every
+//! criterion is at least `n1`, so `n1` stays below the best value found).
+//! Going down, the smallest `n2` of each `n1` is at least the one found for
+//! a larger `n1`, so its search starts there and gallops up (one more unit,
+//! then two, four, ...; then bisection): over the whole sweep that costs
+//! little more than one test per `n1`. The same lower bound lets the
+//! problem pass over an `n1` whose plans all score too much
+//! ([`DoubleProblem::beyond`]) without testing any `n2`. The numbers
+//! `(c1, r1)` of each `c2` are swept in parallel; `c2` runs up from 1 and
+//! stops [`C2_PATIENCE`] values after the last one that improved the best
+//! plan, and not before a starting value the designer gives. That stopping
+//! rule is the search's one limit, and each designer's reference search
+//! checks it over a wider box.
 
 use std::ops::RangeInclusive;
 
@@ -254,8 +256,8 @@ fn bisect(mut bad: u64, mut good: u64, mut holds: impl FnMut(u64) -> bool) -> u6
 ///
 /// Going down, the smallest `n2` of each `n1` is at least the one found
 /// for a larger `n1` (the pointer), so the search of `n2` starts there, and
-/// the problem's floor at the pointer bounds the criterion of every plan
-/// with this `n1` before any `n2` is tested.
+/// the problem's [`beyond`](DoubleProblem::beyond) test at the pointer can
+/// pass over the `n1` before any `n2` is tested.
 fn sweep<P: DoubleProblem>(problem: &P, k: Numbers, best: &mut Option<Candidate>) {
     let unit = problem.model().kind() != ModelKind::Poisson;
     let limit = problem.limit();

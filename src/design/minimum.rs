@@ -59,8 +59,8 @@
 //!
 //! # Ties and 100% inspection
 //!
-//! ATIs within `1e-12` (relative) are ties, won by the smaller sample and
-//! then the smaller acceptance number. A plan is chosen over 100%
+//! ATIs within `1e-12` (relative) are ties, won by the smaller acceptance
+//! number (whose sample is no larger). A plan is chosen over 100%
 //! inspection only when it saves more than `1e-12 N` units per lot;
 //! otherwise, or when no plan gives the protection within the lot, the
 //! answer is to inspect every unit, and the design says so.
@@ -147,12 +147,11 @@ impl RectifyingRequest {
     /// Validates the request.
     ///
     /// # Errors
-    /// [`InputError::LotSizeMissing`] without a lot size;
     /// [`InputError::OutOfRange`] naming the lot size, process average,
     /// LTPD, beta or AOQL that is out of range, or the scheme;
-    /// [`InputError::Inconsistent`] for a process average at or above the
-    /// protection's quality, or an LTPD that means no nonconforming unit in
-    /// the lot.
+    /// [`InputError::Inconsistent`] for a model without a lot size, a
+    /// process average at or above the protection's quality, or an LTPD that
+    /// means no nonconforming unit in the lot.
     pub fn new(
         model: Model,
         process_average: f64,
@@ -173,13 +172,14 @@ impl RectifyingRequest {
             ModelKind::Poisson => "above 0 (nonconformities per unit)",
             _ => "between 0 and 1 (exclusive), e.g. 0.01 or 1%",
         };
-        let (name, quality) = match protection {
-            Protection::Ltpd(point) => ("LTPD (--ltpd)", point.quality),
-            Protection::Aoql(limit) => ("AOQL (--aoql)", limit),
+        let quality = protection.quality();
+        let (label, flag) = match protection {
+            Protection::Ltpd(_) => ("LTPD", "LTPD (--ltpd)"),
+            Protection::Aoql(_) => ("AOQL", "AOQL (--aoql)"),
         };
         for (name, q) in [
             ("process average (--process-average)", process_average),
-            (name, quality),
+            (flag, quality),
         ] {
             if !model.accepts_quality(q) {
                 return Err(InputError::out_of_range(name, q, range));
@@ -205,12 +205,7 @@ impl RectifyingRequest {
         }
         if process_average >= quality {
             return Err(InputError::Inconsistent(format!(
-                "the process average {process_average} must be below the {} {quality}: a process that runs at or above it needs improving or 100% inspection, not a sampling plan",
-                if protection.name() == "ltpd" {
-                    "LTPD"
-                } else {
-                    "AOQL"
-                }
+                "the process average {process_average} must be below the {label} {quality}: a process that runs at or above it needs improving or 100% inspection, not a sampling plan"
             )));
         }
         if !matches!(scheme, Scheme::Single | Scheme::Double) {
@@ -305,6 +300,7 @@ impl RectifyingPlan {
         let at = measures(&plan, model, request.process_average);
         RectifyingPlan {
             pa: at.pa,
+            // The request always has a lot size, so the ATI is always there.
             ati: at.ati.unwrap_or(f64::NAN),
             asn: at.asn,
             aoql: aoql(&plan, model),

@@ -111,16 +111,12 @@ impl RectifyingReport {
         let lot = r.lot_size();
         let per_unit = r.model().kind() == ModelKind::Poisson;
         let risk = r.ltpd_risk();
-        let protection = match r.protection() {
-            Protection::Ltpd(point) => ProtectionReport {
-                kind: "ltpd",
-                quality: point.quality,
-                beta: Some(point.risk),
-            },
-            Protection::Aoql(limit) => ProtectionReport {
-                kind: "aoql",
-                quality: limit,
-                beta: None,
+        let protection = ProtectionReport {
+            kind: r.protection().name(),
+            quality: r.protection().quality(),
+            beta: match r.protection() {
+                Protection::Ltpd(point) => Some(point.risk),
+                Protection::Aoql(_) => None,
             },
         };
         let mut notes = Vec::new();
