@@ -33,6 +33,9 @@ pub enum Command {
     New(NewArgs),
     /// Run the whole job on the demo plans of the invented scenario.
     Demo(DemoArgs),
+    /// Design the plan with the least average total inspection at the process
+    /// average (rectifying inspection, Dodge and Romig's method).
+    Rectify(RectifyArgs),
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
@@ -348,4 +351,43 @@ pub struct DemoArgs {
     /// Folder for the demo's plan sources, OC tables and sheets
     #[arg(long, value_name = "DIR", default_value = "lotsman-demo")]
     pub output_dir: PathBuf,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum RectifySchemeArg {
+    Single,
+    Double,
+}
+
+/// `rectify`: minimum-inspection plans for rectifying inspection.
+#[derive(Debug, Args)]
+#[command(group(clap::ArgGroup::new("protection").required(true).args(["ltpd", "aoql"])))]
+pub struct RectifyArgs {
+    /// Lot size N: rejected lots are screened, so the design needs it
+    #[arg(long, value_name = "N")]
+    pub lot_size: String,
+    /// Process average: the supplier's usual quality, as a fraction or a percent
+    #[arg(long, value_name = "P")]
+    pub process_average: String,
+    /// Protect by the LTPD: a lot this bad is accepted with probability at most --beta
+    #[arg(long, value_name = "P")]
+    pub ltpd: Option<String>,
+    /// Consumer's risk at the LTPD [default: 0.10]
+    #[arg(long, value_name = "B", conflicts_with = "aoql")]
+    pub beta: Option<String>,
+    /// Protect by the AOQL: the average outgoing quality never exceeds this
+    #[arg(long, value_name = "L")]
+    pub aoql: Option<String>,
+    /// Sampling scheme
+    #[arg(long, value_enum, default_value = "single")]
+    pub scheme: RectifySchemeArg,
+    /// Likelihood model [default: hypergeometric, since the lot size is known]
+    #[arg(long, value_enum)]
+    pub model: Option<ModelArg>,
+    /// Title printed above the plan
+    #[arg(long)]
+    pub title: Option<String>,
+    /// Output format
+    #[arg(long, value_enum, default_value = "table")]
+    pub format: ReportFormatArg,
 }

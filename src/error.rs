@@ -80,6 +80,15 @@ pub enum DesignError {
         /// The cap.
         cap: String,
     },
+    /// A minimum-inspection request (rectifying inspection) with no answer
+    /// of the scheme asked for within the designer's limits.
+    #[error("no minimum-inspection plan: {reason}; {suggestion}")]
+    NoRectifyingPlan {
+        /// Why, in terms of the inputs.
+        reason: String,
+        /// What the user can do.
+        suggestion: String,
+    },
 }
 
 /// A plan source that cannot be read, parsed or written.

@@ -23,6 +23,10 @@
 //! assert!(at_aql.pa >= 0.95);
 //! ```
 //!
+//! For rectifying inspection, [`design_rectifying`] finds the plan with the
+//! least average total inspection at the process average that holds an LTPD
+//! or an AOQL (Dodge and Romig's minimum-inspection plans).
+//!
 //! Sampling never guarantees the quality of a lot; critical and safety
 //! characteristics need the inspection that the applicable contract,
 //! regulation or licensed practice requires.
@@ -55,6 +59,11 @@ pub use design::{
     design_sequential, design_single, design_variables, sensitivity, single_alternatives, solve,
     solve_variables, tradeoff, wald_lines,
 };
+// Minimum-inspection plans for rectifying inspection (Dodge and Romig).
+pub use design::{
+    AOQL_PLAN_LTPD_RISK, Protection, RectifyingDesign, RectifyingPlan, RectifyingRequest,
+    RectifyingRow, design_rectifying,
+};
 pub use error::{DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
 pub use plan::{
@@ -78,6 +87,8 @@ pub use report::{
     VariablesEvaluationReport, VariablesReport, VerificationReport, VerifyEntry, VerifyStatus,
     format_quality, format_significant, variables_rule, words,
 };
+// The minimum-inspection report (`rectify`).
+pub use report::{ProtectionReport, RECTIFYING_STEP, RectifyingPlanReport, RectifyingReport};
 pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{
     ContourLabel, HASH_PREFIX, MapContour, MapPanel, MapQuantity, Paper, Sheet, TradeoffMap,

@@ -25,6 +25,8 @@ use lotsman::{
     sheet_source_hash, solve, solve_variables, source_hash, template, template_kinds, tradeoff,
     variables_qualities, verify, write_atomic, write_sheet,
 };
+// rectify
+use lotsman::{Protection, RectifyingReport, RectifyingRequest, design_rectifying};
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
@@ -58,6 +60,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
         Command::Tradeoff(args) => tradeoff_cmd(args),
         Command::Sheet(args) => sheet_cmd(args),
         Command::Judge(args) => judge_cmd(args),
+        Command::Rectify(args) => rectify_cmd(args),
     }
 }
 
@@ -875,4 +878,44 @@ fn demo(dir: &Path) -> Result<ExitCode, Error> {
     } else {
         ExitCode::from(1)
     })
+}
+
+/// `rectify`: the flags as a validated minimum-inspection request, the
+/// design, and its report.
+fn rectify_cmd(args: cli::RectifyArgs) -> Result<ExitCode, Error> {
+    let lot = parse_count("--lot-size", &args.lot_size, MAX_LOT_SIZE)?;
+    let kind = match args.model {
+        Some(ModelArg::Binomial) => ModelKind::Binomial,
+        Some(ModelArg::Poisson) => ModelKind::Poisson,
+        Some(ModelArg::Hypergeometric) | None => ModelKind::Hypergeometric,
+    };
+    let model = Model::new(kind, Some(lot))?;
+    let process_average = parse_fraction("--process-average", &args.process_average)?;
+    let protection = match (&args.ltpd, &args.aoql) {
+        (Some(ltpd), _) => Protection::Ltpd(RiskPoint {
+            quality: parse_fraction("--ltpd", ltpd)?,
+            risk: parse_fraction("--beta", args.beta.as_deref().unwrap_or("0.10"))?,
+        }),
+        (None, Some(aoql)) => Protection::Aoql(parse_fraction("--aoql", aoql)?),
+        (None, None) => {
+            return Err(InputError::Inconsistent(
+                "give the protection: --ltpd P (with --beta B) or --aoql L".to_string(),
+            )
+            .into());
+        }
+    };
+    let scheme = match args.scheme {
+        cli::RectifySchemeArg::Single => Scheme::Single,
+        cli::RectifySchemeArg::Double => Scheme::Double,
+    };
+    let request = RectifyingRequest::new(model, process_average, protection, scheme)?;
+    let design = design_rectifying(&request)?;
+    let title = args
+        .title
+        .unwrap_or_else(|| "Minimum-inspection plan".to_string());
+    let report = RectifyingReport::new(&title, &design);
+    let mut text = Vec::new();
+    formatter(args.format).rectifying(&mut text, &report)?;
+    print_out(&text)?;
+    Ok(ExitCode::SUCCESS)
 }

@@ -314,9 +314,14 @@ fn pdf_writes_the_heat_map_and_needs_an_output_file() {
         .expect("pdftotext (poppler-utils) is installed");
     let text = String::from_utf8(text.stdout).unwrap();
     assert!(text.contains("Packing rings"), "{text}");
-    assert!(text.contains("lotsman tradeoff --aql 0.5%:1.5%:5"), "{text}");
+    assert!(
+        text.contains("lotsman tradeoff --aql 0.5%:1.5%:5"),
+        "{text}"
+    );
     lotsman()
-        .args(["tradeoff", "--aql", "1%,2%", "--rql", "6%,8%", "--format", "pdf"])
+        .args([
+            "tradeoff", "--aql", "1%,2%", "--rql", "6%,8%", "--format", "pdf",
+        ])
         .assert()
         .code(2)
         .stderr(predicate::str::contains("--output FILE.pdf"));

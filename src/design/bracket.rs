@@ -77,3 +77,15 @@ pub(crate) fn acceptance_number_for_ratio(
     }
     Some(hi)
 }
+
+/// Dodge and Romig's AOQL factor `y_c = max_x x P(Poisson(x) <= c)`, the
+/// `y` of `AOQL ≈ y / n (1 - n / N)`, approximately: the largest
+/// `q lambda_q(c)` over `q = 0.05, 0.10, ..., 0.95`.
+pub(crate) fn aoql_factor(c: u64) -> f64 {
+    (1..20)
+        .map(|i| {
+            let q = f64::from(i) / 20.0;
+            q * poisson_mean_at(c, z(1.0 - q))
+        })
+        .fold(0.0, f64::max)
+}

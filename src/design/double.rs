@@ -18,8 +18,8 @@
 //!
 //! * `Pa(p2) <= beta` holds from some `n2_min(n1)` on, and `n2_min` does not
 //!   grow with `n1`: one walk down over `n2` serves the whole sweep of `n1`
-//!   (two pointers), with a doubling-and-bisection search only for the
-//!   first `n1`;
+//!   (the sweep of [`double_sweep`](super::double_sweep), which the
+//!   minimum-inspection designer shares);
 //! * the ASN `n1 + n2 P(c1 < d1 < r1)` grows with `n2`, and the producer's
 //!   point holds up to some `n2_max`, so at each `n1` only `n2_min` can be
 //!   best;
@@ -46,8 +46,7 @@
 //! `max(alpha_achieved / alpha, beta_achieved / beta)`, then by the smaller
 //! `(c2, c1, r1, n1)`.
 
-use rayon::prelude::*;
-
+use super::double_sweep::{Candidate, DoubleProblem, FirstStage, Numbers, search};
 use super::request::{Criterion, Design};
 use super::single::Solver;
 use crate::error::DesignError;
@@ -55,73 +54,10 @@ use crate::model::{Model, ModelKind};
 use crate::plan::{Stage, StagedPlan, whole_argmax};
 use crate::risk::RiskPair;
 
-/// How many final acceptance numbers past the last improving one the
-/// search tries.
-const C2_PATIENCE: u64 = 3;
-
 /// The largest single-plan acceptance number for which the double designer
 /// searches: the search grows with the cube of the acceptance numbers, and
 /// at 25 it takes about 3 s on two cores.
 pub const MAX_DOUBLE_SINGLE_C: u64 = 25;
-
-/// Criterion values this close (relative) are ties.
-const TIE: f64 = 1e-12;
-
-/// The first stage of a double plan at one quality.
-struct FirstStage {
-    /// `P(d1 <= c1)`.
-    accept: f64,
-    /// `P(d1 >= r1)`.
-    reject: f64,
-    /// `P(d1 = d)` for `d = c1 + 1 .. r1 - 1`.
-    open: Vec<f64>,
-}
-
-impl FirstStage {
-    fn new(model: &Model, n1: u64, c1: u64, r1: u64, p: f64) -> Self {
-        let w = model.window(n1, c1 + 1, r1 - 1, p, 0, 0);
-        FirstStage {
-            accept: w.cdf(c1),
-            reject: w.sf(r1 - 1),
-            open: (c1 + 1..r1).map(|d| w.pmf(d)).collect(),
-        }
-    }
-
-    /// `P(c1 < d1 < r1)`: the chance of a second sample.
-    fn second_sample(&self) -> f64 {
-        self.open.iter().sum()
-    }
-}
-
-/// One candidate plan and what it scored.
-#[derive(Clone, Copy, Debug, PartialEq)]
-struct Candidate {
-    n1: u64,
-    c1: u64,
-    r1: u64,
-    n2: u64,
-    c2: u64,
-    value: f64,
-    producer_risk: f64,
-    consumer_risk: f64,
-    margin: f64,
-}
-
-impl Candidate {
-    /// Whether `self` beats `other` under the tie rule.
-    fn beats(&self, other: &Candidate) -> bool {
-        let scale = self.value.abs().max(other.value.abs());
-        if (self.value - other.value).abs() > TIE * scale {
-            return self.value < other.value;
-        }
-        let numbers = |c: &Candidate| (c.c2, c.c1, c.r1, c.n1);
-        (self.n1 + self.n2)
-            .cmp(&(other.n1 + other.n2))
-            .then(self.margin.total_cmp(&other.margin))
-            .then(numbers(self).cmp(&numbers(other)))
-            .is_lt()
-    }
-}
 
 struct DoubleSearch<'a> {
     model: &'a Model,
@@ -136,39 +72,6 @@ struct DoubleSearch<'a> {
 }
 
 impl DoubleSearch<'_> {
-    /// Cumulative acceptance and rejection probabilities of the plan at
-    /// quality `p`, given its first stage there.
-    fn outcome(
-        &self,
-        first: &FirstStage,
-        n1: u64,
-        c1: u64,
-        n2: u64,
-        c2: u64,
-        p: f64,
-    ) -> (f64, f64) {
-        let r1 = c1 + 1 + first.open.len() as u64;
-        let (mut acc, mut rej) = (first.accept, first.reject);
-        if self.model.forgets_the_past() {
-            let w = self.model.window(n2, c2 + 2 - r1, c2 - c1 - 1, p, 0, 0);
-            for (d, f) in (c1 + 1..r1).zip(&first.open) {
-                acc += f * w.cdf(c2 - d);
-                rej += f * w.sf(c2 - d);
-            }
-        } else {
-            for (d, f) in (c1 + 1..r1).zip(&first.open) {
-                let w = self.model.window(n2, c2 - d + 1, c2 - d, p, n1, d);
-                acc += f * w.cdf(c2 - d);
-                rej += f * w.sf(c2 - d);
-            }
-        }
-        (acc, rej)
-    }
-
-    fn consumer_holds(&self, first: &FirstStage, n1: u64, c1: u64, n2: u64, c2: u64) -> bool {
-        self.outcome(first, n1, c1, n2, c2, self.p2).0 <= self.beta
-    }
-
     /// Largest chance of a second sample over all qualities.
     fn peak_second_sample(&self, n1: u64, c1: u64, r1: u64) -> f64 {
         let at = |p: f64| FirstStage::new(self.model, n1, c1, r1, p).second_sample();
@@ -201,129 +104,84 @@ impl DoubleSearch<'_> {
         }
     }
 
-    fn value(&self, n1: u64, c1: u64, r1: u64, n2: u64, f1: &FirstStage, f2: &FirstStage) -> f64 {
+    fn value(&self, n1: u64, k: Numbers, n2: u64, f1: &FirstStage, f2: &FirstStage) -> f64 {
         let share = match self.criterion {
             Criterion::AsnAql => f1.second_sample(),
             Criterion::AsnRql => f2.second_sample(),
-            Criterion::AsnMax => self.peak_second_sample(n1, c1, r1),
+            Criterion::AsnMax => self.peak_second_sample(n1, k.c1, k.r1),
         };
         n1 as f64 + n2 as f64 * share
     }
+}
 
-    /// Criterion values above this cannot win: the best so far, or before
-    /// any, the single plan's sample size.
-    fn bound(&self, best: &Option<Candidate>) -> f64 {
-        best.map_or(self.single_n as f64, |b| b.value * (1.0 + TIE))
+/// The two-point problem: meet the consumer's point (the requirement of
+/// the sweep) and the producer's point (checked on each candidate), and
+/// minimise the chosen average sample number.
+impl DoubleProblem for DoubleSearch<'_> {
+    /// The first stage at the consumer's quality.
+    type First = FirstStage;
+    type Memo = ();
+
+    fn model(&self) -> &Model {
+        self.model
     }
 
-    /// Smallest `n2 >= lo` in `lo..=hi` meeting the consumer's point.
-    fn first_n2(
+    fn limit(&self) -> u64 {
+        self.single.limit
+    }
+
+    /// `Pa >= P(d1 <= c1)` bounds `n1` below by the single plan `(n1, c1)`
+    /// at the consumer's point, and `Pa <= P(d1 < r1)` bounds it above by
+    /// the single plan `(n1, r1 - 1)` at the producer's point.
+    fn first_sample_range(&self, c1: u64, r1: u64) -> Option<(u64, u64)> {
+        Some((self.single.n_min(c1)?, self.single.n_max(r1 - 1)?))
+    }
+
+    fn first(&self, n1: u64, k: Numbers) -> FirstStage {
+        FirstStage::new(self.model, n1, k.c1, k.r1, self.p2)
+    }
+
+    fn holds(&self, f2: &FirstStage, _: &mut (), k: Numbers, n1: u64, n2: u64) -> bool {
+        f2.outcome(self.model, n1, n2, k.c2, self.p2).0 <= self.beta
+    }
+
+    fn fixed_second(&self, n1: u64) -> Option<u64> {
+        self.second_ratio
+            .map(|ratio| ((ratio * n1 as f64).round() as u64).max(1))
+    }
+
+    fn score(
         &self,
         f2: &FirstStage,
+        k: Numbers,
         n1: u64,
-        c1: u64,
-        c2: u64,
-        lo: u64,
-        hi: u64,
-    ) -> Option<u64> {
-        let holds = |n2| self.consumer_holds(f2, n1, c1, n2, c2);
-        if lo > hi {
+        n2: u64,
+        bound: f64,
+    ) -> Option<Candidate> {
+        let f1 = FirstStage::new(self.model, n1, k.c1, k.r1, self.p1);
+        // Every criterion is at least n1 + n2 * P(second sample at p1 or p2).
+        let floor = n1 as f64 + n2 as f64 * f1.second_sample().min(f2.second_sample());
+        if floor > bound {
             return None;
         }
-        let (mut bad, mut good) = (lo - 1, lo);
-        let mut step = 1;
-        while !holds(good) {
-            if good == hi {
-                return None;
-            }
-            bad = good;
-            good = good.saturating_add(step).min(hi);
-            step = step.saturating_mul(2);
+        let producer_risk = f1.outcome(self.model, n1, n2, k.c2, self.p1).1;
+        if producer_risk > self.alpha {
+            return None;
         }
-        while good - bad > 1 {
-            let mid = bad + (good - bad) / 2;
-            if mid >= lo && holds(mid) {
-                good = mid;
-            } else {
-                bad = mid;
-            }
-        }
-        Some(good)
+        let consumer_risk = f2.outcome(self.model, n1, n2, k.c2, self.p2).0;
+        Some(Candidate {
+            n1,
+            n2,
+            numbers: k,
+            value: self.value(n1, k, n2, &f1, f2),
+            margin: (producer_risk / self.alpha).max(consumer_risk / self.beta),
+        })
     }
 
-    /// Every `n1` for the numbers `(c1, r1, c2)`, improving on `best`.
-    fn sweep(&self, c1: u64, r1: u64, c2: u64, best: &mut Option<Candidate>) {
-        let unit = self.model.kind() != ModelKind::Poisson;
-        let limit = self.single.limit;
-        let Some(lo1) = self.single.n_min(c1) else {
-            return;
-        };
-        let hi1 = match self.single.n_max(r1 - 1) {
-            Some(n) => n.min(limit - 1),
-            None => return,
-        };
-        let mut pointer: Option<u64> = None;
-        for n1 in lo1.max(if unit { c1 + 1 } else { 1 })..=hi1 {
-            if n1 as f64 >= self.bound(best) {
-                break;
-            }
-            let f2 = FirstStage::new(self.model, n1, c1, r1, self.p2);
-            let lo2 = if unit {
-                (c2 + 1).saturating_sub(n1).max(1)
-            } else {
-                1
-            };
-            let hi2 = limit - n1;
-            let n2 = match self.second_ratio {
-                Some(ratio) => {
-                    let n2 = ((ratio * n1 as f64).round() as u64).max(1);
-                    if n2 < lo2 || n2 > hi2 || !self.consumer_holds(&f2, n1, c1, n2, c2) {
-                        continue;
-                    }
-                    n2
-                }
-                None => match pointer {
-                    Some(mut n2) => {
-                        // n2_min(n1) <= n2_min(n1 - 1): walk down.
-                        n2 = n2.clamp(lo2, hi2);
-                        while n2 > lo2 && self.consumer_holds(&f2, n1, c1, n2 - 1, c2) {
-                            n2 -= 1;
-                        }
-                        n2
-                    }
-                    None => match self.first_n2(&f2, n1, c1, c2, lo2, hi2) {
-                        Some(n2) => n2,
-                        None => continue,
-                    },
-                },
-            };
-            pointer = Some(n2);
-            let f1 = FirstStage::new(self.model, n1, c1, r1, self.p1);
-            // Every criterion is at least n1 + n2 * P(second sample at p1 or p2).
-            let floor = n1 as f64 + n2 as f64 * f1.second_sample().min(f2.second_sample());
-            if floor > self.bound(best) {
-                continue;
-            }
-            let producer_risk = self.outcome(&f1, n1, c1, n2, c2, self.p1).1;
-            if producer_risk > self.alpha {
-                continue;
-            }
-            let consumer_risk = self.outcome(&f2, n1, c1, n2, c2, self.p2).0;
-            let candidate = Candidate {
-                n1,
-                c1,
-                r1,
-                n2,
-                c2,
-                value: self.value(n1, c1, r1, n2, &f1, &f2),
-                producer_risk,
-                consumer_risk,
-                margin: (producer_risk / self.alpha).max(consumer_risk / self.beta),
-            };
-            if best.is_none_or(|b| candidate.beats(&b)) {
-                *best = Some(candidate);
-            }
-        }
+    /// The single plan's sample size: a double plan that inspects more on
+    /// average is not worth its second sample.
+    fn initial_bound(&self) -> f64 {
+        self.single_n as f64
     }
 }
 
@@ -375,7 +233,7 @@ pub fn design_double(
         });
     }
     let (producer, consumer) = (risks.producer(), risks.consumer());
-    let search = DoubleSearch {
+    let problem = DoubleSearch {
         model,
         single: Solver::new(model, risks),
         p1: producer.quality,
@@ -386,35 +244,7 @@ pub fn design_double(
         second_ratio,
         single_n: single.n,
     };
-    let mut best: Option<Candidate> = None;
-    let mut last_improved = single.c;
-    let mut c2 = 1;
-    while c2 <= last_improved + C2_PATIENCE {
-        // The numbers (c1, r1) of one c2 are swept in parallel, each from
-        // the best plan of the smaller c2; the merge keeps the tie rule's
-        // winner, so the answer does not depend on the order.
-        let before = best;
-        let pairs: Vec<(u64, u64)> = (0..c2)
-            .flat_map(|c1| (c1 + 2..=c2 + 1).map(move |r1| (c1, r1)))
-            .collect();
-        let found: Vec<Option<Candidate>> = pairs
-            .par_iter()
-            .map(|&(c1, r1)| {
-                let mut local = before;
-                search.sweep(c1, r1, c2, &mut local);
-                local
-            })
-            .collect();
-        for candidate in found.into_iter().flatten() {
-            if best.is_none_or(|b| candidate.beats(&b)) {
-                best = Some(candidate);
-            }
-        }
-        if best != before {
-            last_improved = last_improved.max(c2);
-        }
-        c2 += 1;
-    }
+    let best = search(&problem, single.c);
     let b = best.ok_or_else(|| DesignError::NoPlan {
         reason: format!(
             "no double plan meets both points with a {} below the single plan's n = {}",
@@ -426,13 +256,13 @@ pub fn design_double(
     let stages = vec![
         Stage {
             n: b.n1,
-            accept: Some(b.c1),
-            reject: b.r1,
+            accept: Some(b.numbers.c1),
+            reject: b.numbers.r1,
         },
         Stage {
             n: b.n1 + b.n2,
-            accept: Some(b.c2),
-            reject: b.c2 + 1,
+            accept: Some(b.numbers.c2),
+            reject: b.numbers.c2 + 1,
         },
     ];
     let plan = StagedPlan::new(stages, model).map_err(|e| DesignError::NoPlan {

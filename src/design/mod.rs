@@ -2,6 +2,9 @@
 
 mod bracket;
 mod double;
+mod double_sweep;
+mod minimum;
+mod minimum_double;
 mod multiple;
 mod request;
 mod search;
@@ -12,6 +15,10 @@ mod tradeoff;
 mod variables;
 
 pub use double::{MAX_DOUBLE_SINGLE_C, design_double};
+pub use minimum::{
+    AOQL_PLAN_LTPD_RISK, Protection, RectifyingDesign, RectifyingPlan, RectifyingRequest,
+    RectifyingRow, design_rectifying,
+};
 pub use multiple::design_multiple;
 pub use request::{
     AsnSummary, Criterion, Design, DesignRequest, MAX_DESIGN_STAGES, Scheme, SchemeOptions,

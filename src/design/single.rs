@@ -128,23 +128,6 @@ impl<'a> Solver<'a> {
         }
     }
 
-    /// Smallest sample that can hold a count above `c`.
-    fn smallest_n(&self, c: u64) -> u64 {
-        match self.model.kind() {
-            ModelKind::Poisson => 1,
-            _ => c + 1,
-        }
-    }
-
-    fn guess(&self, lambda: f64, p: f64) -> u64 {
-        let n = sample_for_mean(lambda, p, self.model.kind(), self.model.lot_size());
-        if n.is_finite() {
-            n.round().clamp(1.0, self.limit as f64) as u64
-        } else {
-            self.limit
-        }
-    }
-
     fn consumer_risk(&self, n: u64, c: u64) -> f64 {
         self.model.tails(n, c, self.p2, 0, 0).cdf
     }
@@ -161,19 +144,19 @@ impl<'a> Solver<'a> {
     /// `n_min(c)`, the search started at `guess` when one is known (a
     /// neighbouring design's answer) and at the approximation otherwise.
     fn n_min_near(&self, c: u64, guess: Option<u64>) -> Option<u64> {
-        let guess = guess.unwrap_or_else(|| self.guess(poisson_mean_at(c, self.z_beta), self.p2));
-        let ln_beta = self.beta.ln();
-        first_true(self.smallest_n(c), self.limit, guess, |n| {
-            let pa = self.consumer_risk(n, c);
-            (pa <= self.beta, pa.max(f64::MIN_POSITIVE).ln() - ln_beta)
-        })
+        smallest_sample_with_pa_at_most(self.model, c, self.p2, self.beta, self.limit, guess)
     }
 
     /// `n_max(c)`: largest `n` with `1 - Pa(n, c, p1) <= alpha`.
     pub(crate) fn n_max(&self, c: u64) -> Option<u64> {
-        let guess = self.guess(poisson_mean_at(c, -self.z_alpha), self.p1);
+        let guess = sample_guess(
+            self.model,
+            poisson_mean_at(c, -self.z_alpha),
+            self.p1,
+            self.limit,
+        );
         let ln_alpha = self.alpha.ln();
-        let start = self.smallest_n(c);
+        let start = smallest_sample(self.model.kind(), c);
         match first_true(start, self.limit, guess, |n| {
             let risk = self.producer_risk(n, c);
             (
@@ -256,6 +239,54 @@ impl Memo {
             (None, _) => false,
         }
     }
+}
+
+/// The smallest sample that can hold a count above `c`: `c + 1` units for
+/// the unit-count models, one unit for the Poisson model (a unit can hold
+/// several nonconformities).
+pub(crate) fn smallest_sample(kind: ModelKind, c: u64) -> u64 {
+    match kind {
+        ModelKind::Poisson => 1,
+        _ => c + 1,
+    }
+}
+
+/// The sample at which the expected count is about `lambda` at quality
+/// `p`, as a start for the threshold searches (within `1..=limit`).
+fn sample_guess(model: &Model, lambda: f64, p: f64, limit: u64) -> u64 {
+    let n = sample_for_mean(lambda, p, model.kind(), model.lot_size());
+    if n.is_finite() {
+        n.round().clamp(1.0, limit as f64) as u64
+    } else {
+        limit
+    }
+}
+
+/// The smallest `n` in `smallest_sample(c)..=limit` with
+/// `Pa(n, c, p) <= target`, or `None` when not even `limit` units do it.
+///
+/// `Pa` falls as `n` grows (a lot accepted on `n + 1` units is accepted on
+/// the first `n` of them), so this is a threshold: an exact search
+/// ([`first_true`]) started from the Poisson quantile's guess, scored by
+/// `ln Pa - ln target`, or from `guess` when a neighbouring answer is
+/// known (the search is exact from any start). The consumer's point of the
+/// two-point designers and the LTPD of the minimum-inspection designer both
+/// use it.
+pub(crate) fn smallest_sample_with_pa_at_most(
+    model: &Model,
+    c: u64,
+    p: f64,
+    target: f64,
+    limit: u64,
+    guess: Option<u64>,
+) -> Option<u64> {
+    let guess =
+        guess.unwrap_or_else(|| sample_guess(model, poisson_mean_at(c, z(1.0 - target)), p, limit));
+    let ln_target = target.ln();
+    first_true(smallest_sample(model.kind(), c), limit, guess, |n| {
+        let pa = model.tails(n, c, p, 0, 0).cdf;
+        (pa <= target, pa.max(f64::MIN_POSITIVE).ln() - ln_target)
+    })
 }
 
 /// Designs the single plan with the smallest sample that meets both risk

@@ -5,8 +5,8 @@
 use std::io::{self, Write};
 
 use super::{
-    DesignReport, EvaluationReport, ReportFormat, TradeoffReport, VariablesDesignReport,
-    VariablesEvaluationReport, VerificationReport,
+    DesignReport, EvaluationReport, RectifyingReport, ReportFormat, TradeoffReport,
+    VariablesDesignReport, VariablesEvaluationReport, VerificationReport,
 };
 
 /// Comma-separated values, for spreadsheets.
@@ -160,5 +160,11 @@ impl ReportFormat for Csv {
             )?;
         }
         Ok(())
+    }
+
+    /// The single plans by acceptance number:
+    /// `c, n_min, ati, best_single`.
+    fn rectifying(&self, out: &mut dyn Write, report: &RectifyingReport) -> io::Result<()> {
+        super::rectifying::write_csv(out, report)
     }
 }

@@ -8,6 +8,7 @@
 
 mod csv;
 mod json;
+mod rectifying;
 mod table;
 mod tradeoff;
 mod variables;
@@ -19,6 +20,9 @@ use serde::Serialize;
 
 pub use self::csv::Csv;
 pub use self::json::Json;
+pub use self::rectifying::{
+    ProtectionReport, RECTIFYING_STEP, RectifyingPlanReport, RectifyingReport,
+};
 pub use self::table::Table;
 pub use self::tradeoff::{CostReport, TradeoffCellReport, TradeoffReport};
 pub use self::variables::{
@@ -51,6 +55,8 @@ pub trait ReportFormat {
     ) -> io::Result<()>;
     /// Writes a trade-off grid.
     fn tradeoff(&self, out: &mut dyn Write, report: &TradeoffReport) -> io::Result<()>;
+    /// Writes a minimum-inspection design report (`rectify`).
+    fn rectifying(&self, out: &mut dyn Write, report: &RectifyingReport) -> io::Result<()>;
 }
 
 /// A risk point with the risk the plan achieves there.

@@ -4,6 +4,7 @@ use std::io::{self, Write};
 
 use comfy_table::{CellAlignment, ContentArrangement, LineStyle, Table as Grid, TableStyle};
 
+use super::RectifyingReport;
 use super::words;
 use super::{
     DesignReport, EvaluationReport, PointReport, ReportFormat, SequentialReport,
@@ -27,7 +28,7 @@ const RULED: TableStyle = TableStyle::new()
 /// How many rows of alternatives a terminal table shows.
 const ALTERNATIVE_ROWS: usize = 12;
 
-fn grid(header: &[&str]) -> Grid {
+pub(super) fn grid(header: &[&str]) -> Grid {
     let mut g = Grid::new();
     g.load_style(RULED)
         .set_content_arrangement(ContentArrangement::Dynamic);
@@ -43,7 +44,7 @@ fn grid(header: &[&str]) -> Grid {
 /// How many rows of an item table a terminal shows.
 const ITEM_ROWS: usize = 24;
 
-fn write_stage_table(out: &mut dyn Write, stages: &[Stage]) -> io::Result<()> {
+pub(super) fn write_stage_table(out: &mut dyn Write, stages: &[Stage]) -> io::Result<()> {
     let mut g = grid(&[
         "Stage",
         "New units",
@@ -476,6 +477,10 @@ impl ReportFormat for Table {
             "The grid is a negotiation aid: record the agreed plan with `lotsman design ... --output FILE.yaml`."
         )?;
         writeln!(out, "{}", words::CAUTION)
+    }
+
+    fn rectifying(&self, out: &mut dyn Write, report: &RectifyingReport) -> io::Result<()> {
+        super::rectifying::write_table(out, report)
     }
 }
 

@@ -60,7 +60,9 @@ impl Field {
                 }
                 Err(_) if cell.aql >= cell.rql => Err(Gap::NotBelow),
                 Err(DesignError::BeyondCap { .. }) => Err(Gap::BeyondCap),
-                Err(DesignError::NoPlan { .. }) => Err(Gap::NoPlan),
+                Err(DesignError::NoPlan { .. } | DesignError::NoRectifyingPlan { .. }) => {
+                    Err(Gap::NoPlan)
+                }
             })
             .collect();
         Field { cells }
