@@ -31,6 +31,7 @@
 #![warn(missing_docs)]
 
 mod atomic;
+mod batch;
 mod demo;
 mod design;
 mod error;
@@ -45,6 +46,10 @@ mod source;
 mod templates;
 
 pub use atomic::write_atomic;
+pub use batch::{
+    SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target, sheet_targets,
+    verify_file,
+};
 pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
 pub use design::{
     Alternative, AsnSummary, Criterion, Design, DesignRequest, MAX_ACCEPTANCE_NUMBER,
@@ -53,7 +58,7 @@ pub use design::{
     design_double, design_for, design_multiple, design_sequential, design_single, design_variables,
     single_alternatives, solve, solve_variables, wald_lines,
 };
-pub use error::{DesignError, Error, InputError, SourceError};
+pub use error::{BatchError, DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
 pub use plan::{
     AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS,
@@ -71,7 +76,8 @@ pub use quantity::{
     parse_stage,
 };
 pub use report::{
-    AlternativeReport, Csv, DesignReport, EvaluationReport, Json, PointReport, ReportFormat, Table,
+    AlternativeReport, BatchSummary, Csv, DesignReport, EvaluationBatchReport, EvaluationEntry,
+    EvaluationReport, Failure, Json, Outcome, PointReport, ReportFormat, SourceEvaluation, Table,
     VariablesDesignReport, VariablesEvaluationReport, VariablesReport, VerificationReport,
     VerifyEntry, VerifyStatus, format_quality, format_significant, variables_rule, words,
 };
