@@ -10,7 +10,7 @@ use super::{EvaluationReport, VariablesEvaluationReport, VerificationReport, Ver
 
 /// How one source of a batch ended, from best to worst; the worst of a run
 /// sets the exit status (0, 1, 2).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash, Serialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Serialize)]
 #[serde(rename_all = "lowercase")]
 pub enum Outcome {
     /// Done: verified equal, written, or evaluated.
