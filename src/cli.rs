@@ -17,7 +17,7 @@ pub struct Cli {
 #[derive(Debug, Subcommand)]
 pub enum Command {
     /// Design the smallest plan that meets both risk points.
-    Design(DesignArgs),
+    Design(Box<DesignArgs>),
     /// Evaluate a plan: OC, AOQ, ATI and ASN at chosen qualities, AOQL.
     Evaluate(EvaluateArgs),
     /// Re-solve plan sources and compare with the plans they record.
@@ -26,6 +26,9 @@ pub enum Command {
     Judge(JudgeArgs),
     /// Print the plan sheet (PDF) of each plan source.
     Sheet(SheetArgs),
+    /// Solve a grid of risk points: the plan, and its inspection cost, for
+    /// each AQL and RQL.
+    Tradeoff(TradeoffArgs),
     /// Print a commented plan-source template.
     New(NewArgs),
     /// Run the whole job on the demo plans of the invented scenario.
@@ -154,6 +157,18 @@ pub struct DesignArgs {
     /// Title recorded in the plan source written with --output
     #[arg(long)]
     pub title: Option<String>,
+    /// Sensitivity: the step by which the AQL moves [default: 1-2-5 step near a fifth of it]
+    #[arg(long, value_name = "P", allow_hyphen_values = true)]
+    pub step_aql: Option<String>,
+    /// Sensitivity: the step by which alpha moves [default: as --step-aql]
+    #[arg(long, value_name = "A", allow_hyphen_values = true)]
+    pub step_alpha: Option<String>,
+    /// Sensitivity: the step by which the RQL moves [default: as --step-aql]
+    #[arg(long, value_name = "P", allow_hyphen_values = true)]
+    pub step_rql: Option<String>,
+    /// Sensitivity: the step by which beta moves [default: as --step-aql]
+    #[arg(long, value_name = "B", allow_hyphen_values = true)]
+    pub step_beta: Option<String>,
     /// Output format on stdout
     #[arg(long, value_enum, default_value = "table")]
     pub format: DesignFormat,
@@ -241,6 +256,68 @@ pub struct JudgeArgs {
     /// Output format
     #[arg(long, value_enum, default_value = "text")]
     pub format: JudgeFormat,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum TradeoffSchemeArg {
+    Single,
+    Double,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum TradeoffFormat {
+    Table,
+    Json,
+    Csv,
+    /// A heat map of the grid with labelled contours (needs --output FILE.pdf)
+    Pdf,
+}
+
+#[derive(Debug, Args)]
+pub struct TradeoffArgs {
+    /// Producer's qualities, one row each: LO:HI:COUNT (0.2%:2%:10) or a list (0.5%,1%,1.5%)
+    #[arg(long, value_name = "LO:HI:COUNT")]
+    pub aql: String,
+    /// Producer's risk in every cell
+    #[arg(long, value_name = "A", default_value = "0.05")]
+    pub alpha: String,
+    /// Consumer's qualities, one column each: LO:HI:COUNT (3%:12%:10) or a list
+    #[arg(long, value_name = "LO:HI:COUNT")]
+    pub rql: String,
+    /// Consumer's risk in every cell
+    #[arg(long, value_name = "B", default_value = "0.10")]
+    pub beta: String,
+    #[command(flatten)]
+    pub model: ModelFlags,
+    /// Sampling scheme of every cell
+    #[arg(long, value_enum, default_value = "single")]
+    pub scheme: TradeoffSchemeArg,
+    /// What the double designer minimises [default: asn-aql]
+    #[arg(long, value_enum)]
+    pub criterion: Option<CriterionArg>,
+    /// Cost of inspecting one unit: adds the expected inspection cost per lot (needs --lot-size)
+    #[arg(
+        long,
+        value_name = "X",
+        requires = "process_quality",
+        allow_hyphen_values = true
+    )]
+    pub cost_per_unit: Option<String>,
+    /// Expected process quality at which the cost is taken (ATI at this quality)
+    #[arg(long, value_name = "P", requires = "cost_per_unit")]
+    pub process_quality: Option<String>,
+    /// Title printed above the grid
+    #[arg(long)]
+    pub title: Option<String>,
+    /// Output format
+    #[arg(long, value_enum, default_value = "table")]
+    pub format: TradeoffFormat,
+    /// Write the output to this file (atomically) instead of stdout; required for pdf
+    #[arg(long, value_name = "FILE")]
+    pub output: Option<PathBuf>,
+    /// Paper size of the pdf heat map (printed landscape)
+    #[arg(long, value_enum, default_value = "a4")]
+    pub paper: PaperArg,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]

@@ -52,11 +52,13 @@ pub use batch::{
 };
 pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
 pub use design::{
-    Alternative, AsnSummary, Criterion, Design, DesignRequest, MAX_ACCEPTANCE_NUMBER,
-    MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_SAMPLE_SIZE, Scheme, SchemeOptions, SingleDesign,
-    Solution, VariablesDesign, VariablesRequest, VariablesSolution, WaldApproximation,
-    design_double, design_for, design_multiple, design_sequential, design_single, design_variables,
-    single_alternatives, solve, solve_variables, wald_lines,
+    Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design, DesignRequest, Input,
+    InspectionCost, MAX_ACCEPTANCE_NUMBER, MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS,
+    MAX_SAMPLE_SIZE, Moved, Scheme, SchemeOptions, Sensitivity, SingleDesign, Solution, Steps,
+    TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign, VariablesRequest,
+    VariablesSolution, WaldApproximation, design_double, design_for, design_multiple,
+    design_sequential, design_single, design_variables, sensitivity, single_alternatives, solve,
+    solve_variables, tradeoff, wald_lines,
 };
 pub use error::{BatchError, DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
@@ -76,14 +78,16 @@ pub use quantity::{
     parse_stage,
 };
 pub use report::{
-    AlternativeReport, BatchSummary, Csv, DesignReport, EvaluationBatchReport, EvaluationEntry,
-    EvaluationReport, Failure, Json, Outcome, PointReport, ReportFormat, SourceEvaluation, Table,
-    VariablesDesignReport, VariablesEvaluationReport, VariablesReport, VerificationReport,
-    VerifyEntry, VerifyStatus, format_quality, format_significant, variables_rule, words,
+    AlternativeReport, BatchSummary, CostReport, Csv, DesignReport, EvaluationBatchReport,
+    EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ReportFormat,
+    SourceEvaluation, Table, TradeoffCellReport, TradeoffReport, VariablesDesignReport,
+    VariablesEvaluationReport, VariablesReport, VerificationReport, VerifyEntry, VerifyStatus,
+    format_quality, format_significant, variables_rule, words,
 };
 pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{
-    HASH_PREFIX, Paper, Sheet, render_sheet, sheet_source_hash, source_hash, write_sheet,
+    ContourLabel, HASH_PREFIX, MapContour, MapPanel, MapQuantity, Paper, Sheet, TradeoffMap,
+    render_sheet, render_tradeoff_map, sheet_source_hash, source_hash, write_sheet,
 };
 pub use source::{
     Difference, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan, RecordedVariables,

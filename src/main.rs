@@ -12,19 +12,20 @@ use std::process::ExitCode;
 use clap::Parser;
 use cli::{
     Cli, Command, CriterionArg, DesignFormat, LimitArg, ModelArg, ModelFlags, PaperArg,
-    ReportFormatArg, SchemeArg, SigmaArg,
+    ReportFormatArg, SchemeArg, SigmaArg, TradeoffFormat, TradeoffSchemeArg,
 };
 use lotsman::{
     BatchSummary, Criterion, Csv, Decision, DesignReport, DesignRequest, Error,
     EvaluationBatchReport, EvaluationEntry, EvaluationReport, InputError, Json, LimitKind,
     MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Paper, PlanSource, QualityRange,
     ReportFormat, RiskPair, RiskPoint, Scheme, SchemeOptions, SigmaKind, SourceError,
-    SourceEvaluation, SourceFile, Specification, StagedPlan, Table, VariablesDesignReport,
-    VariablesRequest, VerificationReport, VerifyEntry, VerifyStatus, default_qualities, evaluate,
-    evaluate_source, expand_paths, judge, judge_cumulative, judge_measurements, parse_count,
-    parse_fraction, parse_fraction_list, parse_measurements, parse_number, parse_stage, run_demo,
-    run_in_parallel, sheet_source_hash, sheet_target, sheet_targets, solve, solve_variables,
-    source_hash, template, template_kinds, verify_file, write_atomic, write_sheet,
+    SourceEvaluation, SourceFile, Specification, StagedPlan, Steps, Table, TradeoffReport,
+    TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry,
+    VerifyStatus, default_qualities, evaluate, evaluate_source, expand_paths, judge,
+    judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_fraction_list,
+    parse_measurements, parse_number, parse_stage, render_tradeoff_map, run_demo, run_in_parallel,
+    sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve, solve_variables,
+    source_hash, template, template_kinds, tradeoff, verify_file, write_atomic, write_sheet,
 };
 use progress::Progress;
 
@@ -41,7 +42,7 @@ fn main() -> ExitCode {
 
 fn run(cli: Cli) -> Result<ExitCode, Error> {
     match cli.command {
-        Command::Design(args) => design(args),
+        Command::Design(args) => design(*args),
         Command::Evaluate(args) => evaluate_cmd(args),
         Command::Verify(args) => verify_cmd(args),
         Command::New(args) => match template(&args.kind) {
@@ -57,6 +58,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             .into()),
         },
         Command::Demo(args) => demo(&args.output_dir),
+        Command::Tradeoff(args) => tradeoff_cmd(args),
         Command::Sheet(args) => sheet_cmd(args),
         Command::Judge(args) => judge_cmd(args),
     }
@@ -151,12 +153,7 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
             };
             let defaults = SchemeOptions::default();
             let options = SchemeOptions {
-                criterion: match args.criterion {
-                    None => defaults.criterion,
-                    Some(CriterionArg::Aql) => Criterion::AsnAql,
-                    Some(CriterionArg::Rql) => Criterion::AsnRql,
-                    Some(CriterionArg::Max) => Criterion::AsnMax,
-                },
+                criterion: criterion_from(args.criterion),
                 second_ratio: args
                     .second_ratio
                     .as_deref()
@@ -196,7 +193,22 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     let solution = solve(&request).map_err(|e| design_error(&args, e))?;
     source.record(&solution);
     write_source(&args, &source)?;
-    let report = DesignReport::new(&source.title, &solution);
+    let steps = Steps::new(
+        &request.risks,
+        [
+            (&args.step_aql, "--step-aql"),
+            (&args.step_alpha, "--step-alpha"),
+            (&args.step_rql, "--step-rql"),
+            (&args.step_beta, "--step-beta"),
+        ]
+        .map(|(v, flag)| v.as_deref().map(|t| parse_fraction(flag, t)).transpose())
+        .into_iter()
+        .collect::<Result<Vec<_>, _>>()?
+        .try_into()
+        .unwrap_or([None; 4]),
+    )?;
+    let rows = sensitivity(&request.model, &request.risks, solution.single.n, &steps);
+    let report = DesignReport::new(&source.title, &solution).with_sensitivity(rows);
     let mut text = Vec::new();
     match args.format {
         DesignFormat::Table => Table.design(&mut text, &report)?,
@@ -205,6 +217,121 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     }
     print_out(&text)?;
     Ok(ExitCode::SUCCESS)
+}
+
+/// The criterion of `--criterion`, or the default.
+fn criterion_from(arg: Option<CriterionArg>) -> Criterion {
+    match arg {
+        None => SchemeOptions::default().criterion,
+        Some(CriterionArg::Aql) => Criterion::AsnAql,
+        Some(CriterionArg::Rql) => Criterion::AsnRql,
+        Some(CriterionArg::Max) => Criterion::AsnMax,
+    }
+}
+
+/// The qualities of one grid axis: `LO:HI:COUNT` or a list `p,p,..`.
+fn axis_from(flag: &str, text: &str) -> Result<Vec<f64>, InputError> {
+    if text.contains(':') {
+        Ok(QualityRange::parse(flag, text)?.points())
+    } else {
+        parse_fraction_list(flag, text)
+    }
+}
+
+fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
+    let model = model_from(&args.model)?;
+    let scheme = match args.scheme {
+        TradeoffSchemeArg::Single => Scheme::Single,
+        TradeoffSchemeArg::Double => Scheme::Double,
+    };
+    if args.criterion.is_some() && scheme != Scheme::Double {
+        return Err(InputError::Inconsistent(
+            "--criterion applies to double plans (--scheme double)".to_string(),
+        )
+        .into());
+    }
+    let cost = match (&args.cost_per_unit, &args.process_quality) {
+        (Some(k), Some(p)) => Some((
+            parse_number("--cost-per-unit", k)?,
+            parse_fraction("--process-quality", p)?,
+        )),
+        _ => None,
+    };
+    let request = TradeoffRequest::new(
+        axis_from("--aql", &args.aql)?,
+        axis_from("--rql", &args.rql)?,
+        parse_fraction("--alpha", &args.alpha)?,
+        parse_fraction("--beta", &args.beta)?,
+        model,
+        scheme,
+        criterion_from(args.criterion),
+        cost,
+    )?;
+    if args.format == TradeoffFormat::Pdf && args.output.is_none() {
+        return Err(InputError::Inconsistent(
+            "--format pdf writes a file: give --output FILE.pdf".to_string(),
+        )
+        .into());
+    }
+    let grid = tradeoff(&request, &|| {});
+    let text = match args.format {
+        TradeoffFormat::Pdf => {
+            let title = args
+                .title
+                .as_deref()
+                .unwrap_or("Trade-off of the risk points");
+            render_tradeoff_map(&grid, title, Some(&command_line()), paper_from(args.paper))?.pdf
+        }
+        format => {
+            let report = TradeoffReport::new(args.title.as_deref(), &grid);
+            let mut text = Vec::new();
+            let format: &dyn ReportFormat = match format {
+                TradeoffFormat::Json => &Json,
+                TradeoffFormat::Csv => &Csv,
+                _ => &Table,
+            };
+            format.tradeoff(&mut text, &report)?;
+            text
+        }
+    };
+    match &args.output {
+        Some(path) => {
+            write_atomic(path, &text).map_err(|e| SourceError::Io {
+                path: path.clone(),
+                source: e,
+            })?;
+            eprintln!("lotsman: wrote {}", path.display());
+        }
+        None => print_out(&text)?,
+    }
+    Ok(ExitCode::SUCCESS)
+}
+
+/// This run's command line, as a shell would take it back: every argument
+/// that holds anything but plain characters is single-quoted.
+fn command_line() -> String {
+    let plain = |a: &str| {
+        !a.is_empty()
+            && a.chars()
+                .all(|ch| ch.is_ascii_alphanumeric() || "%-_.,:/=+".contains(ch))
+    };
+    std::iter::once("lotsman".to_string())
+        .chain(std::env::args().skip(1).map(|a| {
+            if plain(&a) {
+                a
+            } else {
+                format!("'{}'", a.replace('\'', "'\\''"))
+            }
+        }))
+        .collect::<Vec<_>>()
+        .join(" ")
+}
+
+fn paper_from(arg: PaperArg) -> Paper {
+    match arg {
+        PaperArg::A4 => Paper::A4,
+        PaperArg::Letter => Paper::Letter,
+    }
 }
 
 /// A designer's refusal, naming the source it came from.
@@ -721,10 +848,7 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
 }
 
 fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
-    let paper = match args.paper {
-        PaperArg::A4 => Paper::A4,
-        PaperArg::Letter => Paper::Letter,
-    };
+    let paper = paper_from(args.paper);
     let output_dir = args.output_dir.as_deref();
     let batch = args.sources.len() > 1 || args.sources.iter().any(|p| p.is_dir());
     if !batch {

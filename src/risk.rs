@@ -61,40 +61,13 @@ impl RiskPair {
         consumer: RiskPoint,
         model: &Model,
     ) -> Result<Self, InputError> {
-        let range = match model.kind() {
-            crate::ModelKind::Poisson => "above 0 (nonconformities per unit)",
-            _ => "between 0 and 1 (exclusive), e.g. 0.01 or 1%",
-        };
-        for (name, q) in [
-            ("producer's quality (AQL)", producer.quality),
-            ("consumer's quality (RQL)", consumer.quality),
-        ] {
-            if !model.accepts_quality(q) {
-                return Err(InputError::out_of_range(name, q, range));
-            }
-        }
-        for (name, r) in [
-            ("alpha (producer's risk)", producer.risk),
-            ("beta (consumer's risk)", consumer.risk),
-        ] {
-            if !(r > 0.0 && r < 1.0) {
-                return Err(InputError::out_of_range(
-                    name,
-                    r,
-                    "between 0 and 1 (exclusive), e.g. 0.05 or 5%",
-                ));
-            }
-        }
+        check_quality(model, "producer's quality (AQL)", producer.quality)?;
+        check_quality(model, "consumer's quality (RQL)", consumer.quality)?;
+        check_risks(producer.risk, consumer.risk)?;
         if producer.quality >= consumer.quality {
             return Err(InputError::Inconsistent(format!(
                 "the producer's quality (AQL) {} must be below the consumer's quality (RQL) {}",
                 producer.quality, consumer.quality
-            )));
-        }
-        if producer.risk + consumer.risk >= 1.0 {
-            return Err(InputError::Inconsistent(format!(
-                "alpha + beta = {} + {} must be below 1, or any plan (even accepting every lot with probability 1 - alpha) meets both points",
-                producer.risk, consumer.risk
             )));
         }
         Ok(RiskPair { producer, consumer })
@@ -109,4 +82,46 @@ impl RiskPair {
     pub fn consumer(&self) -> RiskPoint {
         self.consumer
     }
+}
+
+/// Checks that `q` is a quality of `model` (see [`Model::accepts_quality`]).
+///
+/// # Errors
+/// [`InputError::OutOfRange`] naming the quality as `name`.
+pub(crate) fn check_quality(model: &Model, name: &str, q: f64) -> Result<(), InputError> {
+    if model.accepts_quality(q) {
+        return Ok(());
+    }
+    let range = match model.kind() {
+        crate::ModelKind::Poisson => "above 0 (nonconformities per unit)",
+        _ => "between 0 and 1 (exclusive), e.g. 0.01 or 1%",
+    };
+    Err(InputError::out_of_range(name, q, range))
+}
+
+/// Checks a pair of risks on their own: each in `(0, 1)` and
+/// `alpha + beta < 1` (see [`RiskPair`]).
+///
+/// # Errors
+/// [`InputError::OutOfRange`] naming the risk; [`InputError::Inconsistent`]
+/// when `alpha + beta >= 1`.
+pub(crate) fn check_risks(alpha: f64, beta: f64) -> Result<(), InputError> {
+    for (name, r) in [
+        ("alpha (producer's risk)", alpha),
+        ("beta (consumer's risk)", beta),
+    ] {
+        if !(r > 0.0 && r < 1.0) {
+            return Err(InputError::out_of_range(
+                name,
+                r,
+                "between 0 and 1 (exclusive), e.g. 0.05 or 5%",
+            ));
+        }
+    }
+    if alpha + beta >= 1.0 {
+        return Err(InputError::Inconsistent(format!(
+            "alpha + beta = {alpha} + {beta} must be below 1, or any plan (even accepting every lot with probability 1 - alpha) meets both points"
+        )));
+    }
+    Ok(())
 }

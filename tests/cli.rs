@@ -626,3 +626,69 @@ fn close_points_are_refused_by_the_double_designer_at_once() {
         .stderr(predicate::str::contains("limit of 25"));
     assert!(start.elapsed().as_secs() < 5);
 }
+
+#[test]
+fn design_reports_what_one_step_of_each_input_does_to_n() {
+    let v = json_of(&[
+        "design",
+        "--aql",
+        "1%",
+        "--rql",
+        "6%",
+        "--step-rql",
+        "1%",
+        "--format",
+        "json",
+    ]);
+    let rows = v["sensitivity"].as_array().unwrap();
+    let inputs: Vec<&str> = rows.iter().map(|r| r["input"].as_str().unwrap()).collect();
+    assert_eq!(inputs, ["aql", "alpha", "rql", "beta"]);
+    let rql = &rows[2];
+    assert_eq!(rql["step"], 0.01);
+    // The consumer asking for 5% instead of 6%: the exhaustive reference
+    // design (tests/data/tradeoff_reference.json) gives n = 132, c = 3.
+    assert_eq!(rql["tightened"]["value"], 0.05);
+    assert_eq!(rql["tightened"]["n"], 132);
+    assert_eq!(rql["tightened"]["change"], 22);
+    for key in ["value", "n", "c", "change", "reason"] {
+        assert!(rql["conceded"].get(key).is_some(), "missing {key}");
+    }
+    lotsman()
+        .args(["design", "--aql", "1%", "--rql", "6%"])
+        .assert()
+        .success()
+        .stdout(predicate::str::contains("What one step of each input does"))
+        .stdout(predicate::str::contains("132 (+22)"));
+}
+
+#[test]
+fn a_step_that_leaves_no_plan_says_why_and_a_bad_step_is_refused() {
+    lotsman()
+        .args([
+            "design",
+            "--aql",
+            "5%",
+            "--alpha",
+            "0.02",
+            "--rql",
+            "6%",
+            "--step-aql",
+            "1%",
+        ])
+        .assert()
+        .success()
+        .stdout(predicate::str::contains("no plan at AQL (p1) = 6%"));
+    lotsman()
+        .args([
+            "design",
+            "--aql",
+            "1%",
+            "--rql",
+            "6%",
+            "--step-beta",
+            "-0.1",
+        ])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("--step-beta"));
+}

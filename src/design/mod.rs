@@ -5,8 +5,10 @@ mod double;
 mod multiple;
 mod request;
 mod search;
+mod sensitivity;
 mod sequential;
 mod single;
+mod tradeoff;
 mod variables;
 
 pub use double::{MAX_DOUBLE_SINGLE_C, design_double};
@@ -15,9 +17,14 @@ pub use request::{
     AsnSummary, Criterion, Design, DesignRequest, MAX_DESIGN_STAGES, Scheme, SchemeOptions,
     Solution, VariablesRequest, VariablesSolution, design_for, solve, solve_variables,
 };
+pub use sensitivity::{Input, Moved, Sensitivity, Steps, sensitivity};
 pub use sequential::{WaldApproximation, design_sequential, wald_lines};
 pub use single::{
     Alternative, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, SingleDesign, design_single,
     single_alternatives,
+};
+pub use tradeoff::{
+    CellCost, CellPlan, InspectionCost, MAX_GRID_CELLS, TradeoffCell, TradeoffGrid,
+    TradeoffRequest, tradeoff,
 };
 pub use variables::{VariablesDesign, design_variables};

@@ -32,6 +32,8 @@
 //! smallest `c` among exact ties: neither party is favoured, and the margin
 //! left is as even as the whole numbers allow.
 
+use std::collections::HashMap;
+
 use serde::Serialize;
 
 use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z};
@@ -153,7 +155,13 @@ impl<'a> Solver<'a> {
 
     /// `n_min(c)`: smallest `n` with `Pa(n, c, p2) <= beta`.
     pub(crate) fn n_min(&self, c: u64) -> Option<u64> {
-        let guess = self.guess(poisson_mean_at(c, self.z_beta), self.p2);
+        self.n_min_near(c, None)
+    }
+
+    /// `n_min(c)`, the search started at `guess` when one is known (a
+    /// neighbouring design's answer) and at the approximation otherwise.
+    fn n_min_near(&self, c: u64, guess: Option<u64>) -> Option<u64> {
+        let guess = guess.unwrap_or_else(|| self.guess(poisson_mean_at(c, self.z_beta), self.p2));
         let ln_beta = self.beta.ln();
         first_true(self.smallest_n(c), self.limit, guess, |n| {
             let pa = self.consumer_risk(n, c);
@@ -186,10 +194,63 @@ impl<'a> Solver<'a> {
             n_max: self.n_max(c),
         }
     }
+}
+
+/// What one design leaves for the next on a row of a trade-off grid, where
+/// the producer's point stays and the consumer's point moves a little.
+///
+/// `n_max(c)` depends only on the model and the producer's point, so the
+/// values found for one cell are exact for every cell of its row; they are
+/// kept only while that point is the same ([`Memo::prepare`]). The last
+/// `n_min(c)` and the chosen acceptance number are starting guesses for the
+/// next searches: the searches are exact from any start, so a guess only
+/// saves evaluations and never changes an answer.
+#[derive(Clone, Debug, Default)]
+pub(crate) struct Memo {
+    producer: Option<(Model, u64, u64)>,
+    n_max: HashMap<u64, Option<u64>>,
+    n_min: HashMap<u64, (u64, f64)>,
+    c: Option<u64>,
+}
+
+impl Memo {
+    /// Drops what does not hold for `model` and `risks`.
+    fn prepare(&mut self, model: &Model, risks: &RiskPair) {
+        let p = risks.producer();
+        let key = Some((*model, p.quality.to_bits(), p.risk.to_bits()));
+        if self.producer != key {
+            self.producer = key;
+            self.n_max.clear();
+        }
+    }
+
+    fn n_max(&mut self, s: &Solver, c: u64) -> Option<u64> {
+        *self.n_max.entry(c).or_insert_with(|| s.n_max(c))
+    }
+
+    fn n_min(&mut self, s: &Solver, c: u64) -> Option<u64> {
+        // The neighbour's n_min(c) at its quality q, rescaled to this
+        // quality: the expected count n (-ln(1 - p)) (n p for Poisson) at
+        // the threshold moves little from one cell to the next.
+        let scale = |q: f64| match s.model.kind() {
+            ModelKind::Poisson => q,
+            _ => -(-q).ln_1p(),
+        };
+        let guess = self
+            .n_min
+            .get(&c)
+            .map(|&(n, q)| (n as f64 * scale(q) / scale(s.p2)).round().max(1.0) as u64);
+        let found = s.n_min_near(c, guess);
+        match found {
+            Some(n) => self.n_min.insert(c, (n, s.p2)),
+            None => self.n_min.remove(&c),
+        };
+        found
+    }
 
     /// No `c' <= c` can be feasible (see the module documentation).
-    fn hopeless_at_and_below(&self, c: u64) -> bool {
-        match (self.n_min(c), self.n_max(c)) {
+    fn hopeless_at_and_below(&mut self, s: &Solver, c: u64) -> bool {
+        match (self.n_min(s, c), self.n_max(s, c)) {
             (Some(lo), Some(hi)) => lo >= hi + 2,
             (Some(_), None) => true,
             (None, _) => false,
@@ -220,7 +281,18 @@ impl<'a> Solver<'a> {
 /// assert!(d.producer_risk <= 0.05 && d.consumer_risk <= 0.10);
 /// ```
 pub fn design_single(model: &Model, risks: &RiskPair) -> Result<SingleDesign, DesignError> {
+    design_single_with(model, risks, &mut Memo::default())
+}
+
+/// [`design_single`], reusing and updating what earlier designs on the same
+/// row of a grid left in `memo`. The answer is the same as without it.
+pub(crate) fn design_single_with(
+    model: &Model,
+    risks: &RiskPair,
+    memo: &mut Memo,
+) -> Result<SingleDesign, DesignError> {
     let s = Solver::new(model, risks);
+    memo.prepare(model, risks);
     if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {
         let d1 = nonconforming_in_lot(s.p1, lot);
         let d2 = nonconforming_in_lot(s.p2, lot);
@@ -242,19 +314,26 @@ pub fn design_single(model: &Model, risks: &RiskPair) -> Result<SingleDesign, De
         what: "an acceptance number".to_string(),
         cap: MAX_ACCEPTANCE_NUMBER.to_string(),
     };
+    // The approximation refuses points beyond the cap at once, whatever the
+    // memo suggests; otherwise the neighbour's c is the closer start.
     let c0 = acceptance_number_for_ratio(ratio, s.z_alpha, s.z_beta, MAX_ACCEPTANCE_NUMBER)
         .ok_or_else(beyond)?;
-    let mut c = c0;
-    while c > 0 && !s.hopeless_at_and_below(c - 1) {
+    let mut c = memo.c.unwrap_or(c0);
+    while c > 0 && !memo.hopeless_at_and_below(&s, c - 1) {
         c -= 1;
     }
-    let (n, c) = loop {
+    let (n, c, producer_risk) = loop {
         if c > MAX_ACCEPTANCE_NUMBER {
             return Err(beyond());
         }
-        match s.n_min(c) {
-            Some(n) if s.producer_risk(n, c) <= s.alpha => break (n, c),
-            Some(_) => c += 1,
+        match memo.n_min(&s, c) {
+            Some(n) => {
+                let risk = s.producer_risk(n, c);
+                if risk <= s.alpha {
+                    break (n, c, risk);
+                }
+                c += 1;
+            }
             None => {
                 return Err(DesignError::BeyondCap {
                     what: "a sample".to_string(),
@@ -265,26 +344,32 @@ pub fn design_single(model: &Model, risks: &RiskPair) -> Result<SingleDesign, De
     };
     // Larger acceptance numbers only lower the producer's risk, so those that
     // fit at n are the run from c up while the consumer's point still holds.
-    let mut fitting_c = vec![c];
+    // Each fitting c is kept with its two risks: (c, producer's, consumer's).
+    let mut fitting = vec![(c, producer_risk, s.consumer_risk(n, c))];
     let mut next = c + 1;
-    while (model.kind() == ModelKind::Poisson || next < n) && s.consumer_risk(n, next) <= s.beta {
-        fitting_c.push(next);
+    while model.kind() == ModelKind::Poisson || next < n {
+        let consumer_risk = s.consumer_risk(n, next);
+        if consumer_risk > s.beta {
+            break;
+        }
+        fitting.push((next, s.producer_risk(n, next), consumer_risk));
         next += 1;
     }
-    let score = |c: u64| (s.producer_risk(n, c) / s.alpha).max(s.consumer_risk(n, c) / s.beta);
-    let chosen = fitting_c
+    let score = |&(_, pr, cr): &(u64, f64, f64)| (pr / s.alpha).max(cr / s.beta);
+    let (chosen, producer_risk, consumer_risk) = fitting
         .iter()
         .copied()
-        .min_by(|&a, &b| score(a).total_cmp(&score(b)).then(a.cmp(&b)))
-        .unwrap_or(c);
+        .min_by(|a, b| score(a).total_cmp(&score(b)).then(a.0.cmp(&b.0)))
+        .unwrap_or(fitting[0]);
+    memo.c = Some(chosen);
     let plan = StagedPlan::single_checked_by_designer(n, chosen);
     Ok(SingleDesign {
         plan,
         n,
         c: chosen,
-        producer_risk: s.producer_risk(n, chosen),
-        consumer_risk: s.consumer_risk(n, chosen),
-        fitting_c,
+        producer_risk,
+        consumer_risk,
+        fitting_c: fitting.iter().map(|f| f.0).collect(),
     })
 }
 

@@ -6,7 +6,7 @@ use std::io::{self, Write};
 
 use super::{
     DesignReport, EvaluationBatchReport, EvaluationReport, ReportFormat, SourceEvaluation,
-    VariablesDesignReport, VariablesEvaluationReport, VerificationReport,
+    TradeoffReport, VariablesDesignReport, VariablesEvaluationReport, VerificationReport,
 };
 
 /// Comma-separated values, for spreadsheets.
@@ -175,6 +175,38 @@ impl ReportFormat for Csv {
                 cell(p.pa_centred),
                 p.aoq,
                 cell(p.ati)
+            )?;
+        }
+        Ok(())
+    }
+
+    fn tradeoff(&self, out: &mut dyn Write, r: &TradeoffReport) -> io::Result<()> {
+        writeln!(
+            out,
+            "aql,rql,n,c,asn_at_aql,producer_risk,consumer_risk,stages,pa_at_process,ati,cost,reason"
+        )?;
+        for c in &r.cells {
+            let stages = c.stages.as_ref().map(|s| {
+                s.iter()
+                    .map(ToString::to_string)
+                    .collect::<Vec<_>>()
+                    .join(" ")
+            });
+            writeln!(
+                out,
+                "{},{},{},{},{},{},{},{},{},{},{},{}",
+                c.aql,
+                c.rql,
+                cell(c.n),
+                cell(c.c),
+                cell(c.asn_at_aql),
+                cell(c.producer_risk),
+                cell(c.consumer_risk),
+                cell(stages),
+                cell(c.pa_at_process.flatten()),
+                cell(c.ati.flatten()),
+                cell(c.cost.flatten()),
+                text(c.reason.as_deref().unwrap_or(""))
             )?;
         }
         Ok(())

@@ -5,8 +5,8 @@ use std::io::{self, Write};
 use serde::Serialize;
 
 use super::{
-    DesignReport, EvaluationBatchReport, EvaluationReport, ReportFormat, VariablesDesignReport,
-    VariablesEvaluationReport, VerificationReport,
+    DesignReport, EvaluationBatchReport, EvaluationReport, ReportFormat, TradeoffReport,
+    VariablesDesignReport, VariablesEvaluationReport, VerificationReport,
 };
 
 /// Pretty-printed JSON, one object per report, keys in snake_case.
@@ -48,6 +48,10 @@ impl ReportFormat for Json {
         out: &mut dyn Write,
         report: &VariablesEvaluationReport,
     ) -> io::Result<()> {
+        write_json(out, report)
+    }
+
+    fn tradeoff(&self, out: &mut dyn Write, report: &TradeoffReport) -> io::Result<()> {
         write_json(out, report)
     }
 }

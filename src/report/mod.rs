@@ -10,6 +10,7 @@ mod batch;
 mod csv;
 mod json;
 mod table;
+mod tradeoff;
 mod variables;
 pub mod words;
 
@@ -23,10 +24,11 @@ pub use self::batch::{
 pub use self::csv::Csv;
 pub use self::json::Json;
 pub use self::table::Table;
+pub use self::tradeoff::{CostReport, TradeoffCellReport, TradeoffReport};
 pub use self::variables::{
     VariablesDesignReport, VariablesEvaluationReport, VariablesReport, variables_rule,
 };
-use crate::design::{Alternative, AsnSummary, Scheme, Solution, WaldApproximation};
+use crate::design::{Alternative, AsnSummary, Scheme, Sensitivity, Solution, WaldApproximation};
 use crate::model::ModelKind;
 use crate::plan::{Aoql, Evaluation, ItemRun, Measures, SequentialLines, Stage, StagedPlan};
 use crate::source::{Difference, tool_version};
@@ -54,6 +56,8 @@ pub trait ReportFormat {
         out: &mut dyn Write,
         report: &VariablesEvaluationReport,
     ) -> io::Result<()>;
+    /// Writes a trade-off grid.
+    fn tradeoff(&self, out: &mut dyn Write, report: &TradeoffReport) -> io::Result<()>;
 }
 
 /// A risk point with the risk the plan achieves there.
@@ -174,11 +178,20 @@ pub struct DesignReport {
     pub alternatives: Vec<AlternativeReport>,
     /// Remarks a reader should see (100% inspection, ties).
     pub notes: Vec<String>,
+    /// How the single plan's sample size answers a move of each input
+    /// (empty until [`DesignReport::with_sensitivity`]).
+    pub sensitivity: Vec<Sensitivity>,
     /// Tool and version.
     pub solved_by: String,
 }
 
 impl DesignReport {
+    /// The report with the sensitivity of the sample size to each input.
+    pub fn with_sensitivity(mut self, rows: Vec<Sensitivity>) -> Self {
+        self.sensitivity = rows;
+        self
+    }
+
     /// The report of `solution`, under `title`.
     pub fn new(title: &str, solution: &Solution) -> Self {
         let r = &solution.request;
@@ -247,6 +260,7 @@ impl DesignReport {
                 .map(AlternativeReport::from)
                 .collect(),
             notes,
+            sensitivity: Vec::new(),
             solved_by: tool_version(),
         }
     }

@@ -7,9 +7,11 @@ use comfy_table::{CellAlignment, ContentArrangement, LineStyle, Table as Grid, T
 use super::words;
 use super::{
     DesignReport, EvaluationBatchReport, EvaluationReport, PointReport, ReportFormat,
-    SequentialReport, SourceEvaluation, VariablesDesignReport, VariablesEvaluationReport,
-    VariablesReport, VerificationReport, format_quality, format_significant, variables_rule,
+    SequentialReport, SourceEvaluation, TradeoffCellReport, TradeoffReport, VariablesDesignReport,
+    VariablesEvaluationReport, VariablesReport, VerificationReport, format_quality,
+    format_significant, variables_rule,
 };
+use crate::design::{Input, Moved};
 use crate::model::ModelKind;
 use crate::plan::Stage;
 
@@ -189,6 +191,7 @@ impl ReportFormat for Table {
             if let Some(c) = r.criterion {
                 writeln!(out, "The designer minimised {c}.")?;
             }
+            write_sensitivity(out, r, per_unit)?;
             return writeln!(out, "{}", words::CAUTION);
         }
         writeln!(out)?;
@@ -222,6 +225,7 @@ impl ReportFormat for Table {
             )?;
         }
         writeln!(out, "* the chosen plan.")?;
+        write_sensitivity(out, r, per_unit)?;
         writeln!(out, "{}", words::CAUTION)
     }
 
@@ -419,6 +423,175 @@ impl ReportFormat for Table {
         }
         Ok(())
     }
+
+    fn tradeoff(&self, out: &mut dyn Write, r: &TradeoffReport) -> io::Result<()> {
+        let per_unit = r.model == ModelKind::Poisson;
+        if let Some(title) = &r.title {
+            writeln!(out, "{title}")?;
+        }
+        let lot = r
+            .lot_size
+            .map_or("no lot size".to_string(), |n| format!("lot of {n} units"));
+        writeln!(
+            out,
+            "{} plans, {} model, {lot}; alpha {} and beta {} in every cell",
+            r.scheme, r.model, r.alpha, r.beta
+        )?;
+        writeln!(out)?;
+        let double = r.criterion.is_some();
+        if double {
+            writeln!(
+                out,
+                "ASN at the AQL (largest sample n1 + n2) of the double plan minimising {} for each AQL (row) and RQL (column)",
+                r.criterion.unwrap_or_default()
+            )?;
+        } else {
+            writeln!(
+                out,
+                "Sample size and acceptance number n/c of the smallest single plan for each AQL (row) and RQL (column)"
+            )?;
+        }
+        write_matrix(out, r, per_unit, |c| match (c.n, c.c) {
+            (Some(n), Some(_)) if double => {
+                format!("{:.1} ({n})", c.asn_at_aql.unwrap_or(f64::NAN))
+            }
+            (Some(n), Some(acc)) => format!("{n}/{acc}"),
+            _ => "-".to_string(),
+        })?;
+        if let Some(k) = &r.cost {
+            writeln!(out)?;
+            writeln!(
+                out,
+                "Expected inspection cost per lot at process quality {} ({} per unit inspected; ATI: sample, plus the whole lot when rejected)",
+                format_quality(k.process_quality, per_unit),
+                k.per_unit
+            )?;
+            write_matrix(out, r, per_unit, |c| {
+                c.cost
+                    .flatten()
+                    .map_or("-".to_string(), |v| format!("{v:.2}"))
+            })?;
+        }
+        let failed: Vec<&TradeoffCellReport> =
+            r.cells.iter().filter(|c| c.reason.is_some()).collect();
+        if let Some(first) = failed.first() {
+            writeln!(
+                out,
+                "- no plan in {} of {} cells (--format json gives each reason), e.g. at AQL {}, RQL {}: {}",
+                failed.len(),
+                r.cells.len(),
+                format_quality(first.aql, per_unit),
+                format_quality(first.rql, per_unit),
+                first.reason.as_deref().unwrap_or_default()
+            )?;
+        }
+        writeln!(
+            out,
+            "The grid is a negotiation aid: record the agreed plan with `lotsman design ... --output FILE.yaml`."
+        )?;
+        writeln!(out, "{}", words::CAUTION)
+    }
+}
+
+/// What each concession saves and each tightening costs, one row per input.
+fn write_sensitivity(out: &mut dyn Write, r: &DesignReport, per_unit: bool) -> io::Result<()> {
+    if r.sensitivity.is_empty() {
+        return Ok(());
+    }
+    writeln!(out)?;
+    writeln!(
+        out,
+        "What one step of each input does to the single plan (n = {}, c = {}), the other three as agreed",
+        r.single_plan.n, r.single_plan.c
+    )?;
+    let mut g = grid(&[
+        "Input",
+        "Agreed",
+        "Step",
+        "Conceded to",
+        "n",
+        "Tightened to",
+        "n",
+    ]);
+    // The inputs and steps are decimals a person chose: print them as
+    // written, with no padding digits.
+    let decimal = |v: f64| format!("{}", format!("{v:.11e}").parse::<f64>().unwrap_or(v));
+    let value = |input: Input, v: f64| match input {
+        Input::Aql | Input::Rql if !per_unit => format!("{}%", decimal(100.0 * v)),
+        _ => decimal(v),
+    };
+    let n = |m: &Moved| match (m.n, m.change) {
+        (Some(n), Some(d)) if d != 0 => format!("{n} ({d:+})"),
+        (Some(n), _) => format!("{n} (same)"),
+        _ => "no plan".to_string(),
+    };
+    let mut reasons = Vec::new();
+    for s in &r.sensitivity {
+        for m in [&s.conceded, &s.tightened] {
+            if let Some(why) = &m.reason {
+                reasons.push(format!(
+                    "{} = {}: {why}",
+                    s.input.label(),
+                    value(s.input, m.value)
+                ));
+            }
+        }
+        g.add_row(vec![
+            s.input.label().to_string(),
+            value(s.input, s.value),
+            value(s.input, s.step),
+            value(s.input, s.conceded.value),
+            n(&s.conceded),
+            value(s.input, s.tightened.value),
+            n(&s.tightened),
+        ]);
+    }
+    writeln!(out, "{g}")?;
+    for why in reasons {
+        writeln!(out, "  no plan at {why}")?;
+    }
+    writeln!(
+        out,
+        "A concession is a lower AQL or a larger alpha (producer), a higher RQL or a larger beta (consumer); --step-aql, --step-alpha, --step-rql, --step-beta set the steps."
+    )
+}
+
+/// How many RQL columns one block of a grid shows.
+const GRID_COLUMNS: usize = 8;
+
+/// The grid as blocks of at most [`GRID_COLUMNS`] RQL columns, one row per
+/// AQL, each cell as `text` writes it.
+fn write_matrix(
+    out: &mut dyn Write,
+    r: &TradeoffReport,
+    per_unit: bool,
+    text: impl Fn(&TradeoffCellReport) -> String,
+) -> io::Result<()> {
+    for first in (0..r.rql.len()).step_by(GRID_COLUMNS) {
+        let last = (first + GRID_COLUMNS).min(r.rql.len());
+        let mut header = vec!["AQL \\ RQL".to_string()];
+        header.extend(
+            r.rql[first..last]
+                .iter()
+                .map(|&q| format_quality(q, per_unit)),
+        );
+        let mut g = Grid::new();
+        g.load_style(RULED)
+            .set_content_arrangement(ContentArrangement::Disabled);
+        g.set_header(header);
+        for i in 1..=last - first {
+            if let Some(col) = g.column_mut(i) {
+                col.set_cell_alignment(CellAlignment::Right);
+            }
+        }
+        for (i, &aql) in r.aql.iter().enumerate() {
+            let mut row = vec![format_quality(aql, per_unit)];
+            row.extend((first..last).map(|j| text(r.cell(i, j))));
+            g.add_row(row);
+        }
+        writeln!(out, "{g}")?;
+    }
+    Ok(())
 }
 
 /// `variables plan, sigma unknown, upper limit U = 12.05`.

@@ -340,7 +340,7 @@ pub fn curve_colour() -> Color {
 
 /// Whether the segment `a`-`b` passes through the rectangle
 /// `(x0, y0)`-`(x1, y1)` (Liang-Barsky clipping).
-fn segment_hits(a: (f64, f64), b: (f64, f64), (x0, y0, x1, y1): (f64, f64, f64, f64)) -> bool {
+pub fn segment_hits(a: (f64, f64), b: (f64, f64), (x0, y0, x1, y1): (f64, f64, f64, f64)) -> bool {
     let (dx, dy) = (b.0 - a.0, b.1 - a.1);
     let (mut t0, mut t1) = (0.0_f64, 1.0_f64);
     for (p, q) in [

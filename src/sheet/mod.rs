@@ -8,6 +8,9 @@
 //! DejaVu Sans Bold (libre; licence in `src/sheet/fonts/`), embedded so that
 //! alpha, beta, <= and subscripts print as themselves.
 //!
+//! The trade-off map ([`heatmap`]) is drawn with the same canvas, fonts and
+//! page checks.
+//!
 //! Determinism: the date comes from the source, never the clock; fonts are
 //! registered under fixed resource names; the document `/ID` is set from the
 //! SHA-256 of the source text. The same source and tool version therefore
@@ -15,6 +18,7 @@
 
 mod canvas;
 mod chart;
+mod heatmap;
 mod text;
 mod variables;
 mod variables_text;
@@ -33,6 +37,9 @@ use crate::risk::RiskPair;
 use crate::source::{PlanSource, RecordedPlan, tool_version};
 use canvas::{BOLD_ID, Canvas, Face, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
+pub use heatmap::{
+    ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map,
+};
 
 const REGULAR_TTF: &[u8] = include_bytes!("fonts/DejaVuSans.ttf");
 const BOLD_TTF: &[u8] = include_bytes!("fonts/DejaVuSans-Bold.ttf");
@@ -311,9 +318,36 @@ fn save(
     ph: f64,
     ops: Vec<printpdf::Op>,
 ) -> Result<Vec<u8>, Error> {
+    let subject = format!("{HASH_PREFIX}{}", f.hash);
+    save_page(
+        &f.source.title,
+        &subject,
+        &f.hash,
+        regular,
+        bold,
+        pw,
+        ph,
+        ops,
+    )
+}
+
+/// The PDF of one page of `ops` titled `title`, with the fonts, `subject`
+/// in the metadata and the document ID made from the hex `hash`, so that
+/// the same inputs give the same bytes in any process.
+#[allow(clippy::too_many_arguments)]
+fn save_page(
+    title: &str,
+    subject: &str,
+    hash: &str,
+    regular: &printpdf::ParsedFont,
+    bold: &printpdf::ParsedFont,
+    pw: f64,
+    ph: f64,
+    ops: Vec<printpdf::Op>,
+) -> Result<Vec<u8>, Error> {
     let mut warnings = Vec::new();
-    let mut doc = printpdf::PdfDocument::new(&f.source.title);
-    doc.metadata.info.subject = format!("{HASH_PREFIX}{}", f.hash);
+    let mut doc = printpdf::PdfDocument::new(title);
+    doc.metadata.info.subject = subject.to_string();
     doc.resources.fonts.map.insert(
         printpdf::FontId(REGULAR_ID.to_string()),
         printpdf::PdfFont::new(regular.clone()),
@@ -328,10 +362,7 @@ fn save(
         ops,
     )]);
     let mut lo = doc.to_lopdf_document(&printpdf::PdfSaveOptions::default(), &mut warnings);
-    let id = lopdf::Object::String(
-        f.hash.as_bytes()[..32].to_vec(),
-        lopdf::StringFormat::Literal,
-    );
+    let id = lopdf::Object::String(hash.as_bytes()[..32].to_vec(), lopdf::StringFormat::Literal);
     lo.trailer
         .set("ID", lopdf::Object::Array(vec![id.clone(), id]));
     lo.compress();

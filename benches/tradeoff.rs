@@ -1,0 +1,44 @@
+//! Speed of the trade-off grid (issue figure: a 100 x 100 single-plan grid,
+//! p1 0.2% to 2% and p2 3% to 12%, in <= 0.2 s including the JSON output).
+
+use std::hint::black_box;
+
+use criterion::{Criterion, criterion_group, criterion_main};
+use lotsman::{
+    Criterion as Minimised, Json, Model, ModelKind, QualityRange, ReportFormat, Scheme,
+    TradeoffReport, TradeoffRequest, tradeoff,
+};
+
+fn benches(c: &mut Criterion) {
+    let axis = |text: &str| QualityRange::parse("axis", text).unwrap().points();
+    let model = Model::new(ModelKind::Binomial, None).unwrap();
+    let request = TradeoffRequest::new(
+        axis("0.2%:2%:100"),
+        axis("3%:12%:100"),
+        0.05,
+        0.10,
+        model,
+        Scheme::Single,
+        Minimised::AsnAql,
+        None,
+    )
+    .unwrap();
+    let mut group = c.benchmark_group("tradeoff");
+    group.sample_size(30);
+    group.bench_function("100 x 100 single grid, solved", |b| {
+        b.iter(|| black_box(tradeoff(&request, &|| {})))
+    });
+    group.bench_function("100 x 100 single grid, solved and written as JSON", |b| {
+        b.iter(|| {
+            let grid = tradeoff(&request, &|| {});
+            let mut out = Vec::with_capacity(3 << 20);
+            Json.tradeoff(&mut out, &TradeoffReport::new(None, &grid))
+                .unwrap();
+            black_box(out)
+        })
+    });
+    group.finish();
+}
+
+criterion_group!(tradeoff_benches, benches);
+criterion_main!(tradeoff_benches);
