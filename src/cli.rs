@@ -182,9 +182,10 @@ pub struct DesignArgs {
 
 #[derive(Debug, Args)]
 pub struct EvaluateArgs {
-    /// A plan source whose recorded plan to evaluate
-    #[arg(value_name = "FILE.yaml", conflicts_with_all = ["n", "c", "stage", "model", "lot_size"])]
-    pub source: Option<PathBuf>,
+    /// Plan sources whose recorded plans to evaluate, or folders of them
+    /// (searched through subfolders for *.yaml and *.yml)
+    #[arg(value_name = "FILE.yaml|DIR", conflicts_with_all = ["n", "c", "stage", "model", "lot_size"])]
+    pub sources: Vec<PathBuf>,
     /// Sample size of a single plan
     #[arg(long, requires = "c", conflicts_with = "stage")]
     pub n: Option<String>,
@@ -209,12 +210,17 @@ pub struct EvaluateArgs {
 
 #[derive(Debug, Args)]
 pub struct VerifyArgs {
-    /// Plan sources to verify
-    #[arg(value_name = "FILE.yaml", required = true)]
+    /// Plan sources to verify, or folders of them (searched through subfolders
+    /// for *.yaml and *.yml)
+    #[arg(value_name = "FILE.yaml|DIR", required = true)]
     pub sources: Vec<PathBuf>,
     /// A sheet to check against its source's hash; repeat once per source, in order
+    /// (sources named one by one, not folders)
     #[arg(long, value_name = "FILE.pdf")]
     pub sheet: Vec<PathBuf>,
+    /// Table format: list every source, not only the failures
+    #[arg(long)]
+    pub list: bool,
     /// Output format
     #[arg(long, value_enum, default_value = "table")]
     pub format: ReportFormatArg,
@@ -325,13 +331,15 @@ pub enum PaperArg {
 
 #[derive(Debug, Args)]
 pub struct SheetArgs {
-    /// Plan sources to print
-    #[arg(value_name = "FILE.yaml", required = true)]
+    /// Plan sources to print, or folders of them (searched through subfolders
+    /// for *.yaml and *.yml)
+    #[arg(value_name = "FILE.yaml|DIR", required = true)]
     pub sources: Vec<PathBuf>,
     /// The PDF to write (one source only) [default: the source's name with .pdf]
     #[arg(long, value_name = "FILE.pdf", conflicts_with = "output_dir")]
     pub output: Option<PathBuf>,
-    /// Folder for the PDFs, named after their sources
+    /// Folder for the PDFs, named after their sources; a source found in a folder keeps
+    /// its subfolders below it (created as needed)
     #[arg(long, value_name = "DIR")]
     pub output_dir: Option<PathBuf>,
     /// Paper size

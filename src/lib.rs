@@ -35,6 +35,7 @@
 #![warn(missing_docs)]
 
 mod atomic;
+mod batch;
 mod demo;
 mod design;
 mod error;
@@ -49,6 +50,10 @@ mod source;
 mod templates;
 
 pub use atomic::write_atomic;
+pub use batch::{
+    SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target, sheet_targets,
+    verify_file,
+};
 pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
 pub use design::{
     Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design, DesignRequest, Input,
@@ -64,7 +69,7 @@ pub use design::{
     AOQL_PLAN_LTPD_RISK, Protection, RectifyingDesign, RectifyingPlan, RectifyingRequest,
     RectifyingRow, design_rectifying,
 };
-pub use error::{DesignError, Error, InputError, SourceError};
+pub use error::{BatchError, DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
 pub use plan::{
     AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS,
@@ -82,8 +87,9 @@ pub use quantity::{
     parse_stage,
 };
 pub use report::{
-    AlternativeReport, CostReport, Csv, DesignReport, EvaluationReport, Json, PointReport,
-    ReportFormat, Table, TradeoffCellReport, TradeoffReport, VariablesDesignReport,
+    AlternativeReport, BatchSummary, CostReport, Csv, DesignReport, EvaluationBatchReport,
+    EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ReportFormat,
+    SourceEvaluation, Table, TradeoffCellReport, TradeoffReport, VariablesDesignReport,
     VariablesEvaluationReport, VariablesReport, VerificationReport, VerifyEntry, VerifyStatus,
     format_quality, format_significant, variables_rule, words,
 };

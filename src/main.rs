@@ -3,9 +3,10 @@
 //! code (0 ok, 1 verify mismatch, 2 invalid input or no plan).
 
 mod cli;
+mod progress;
 
 use std::io::Write;
-use std::path::{Path, PathBuf};
+use std::path::Path;
 use std::process::ExitCode;
 
 use clap::Parser;
@@ -14,19 +15,21 @@ use cli::{
     ReportFormatArg, SchemeArg, SigmaArg, TradeoffFormat, TradeoffSchemeArg,
 };
 use lotsman::{
-    Criterion, Csv, Decision, DesignReport, DesignRequest, Error, EvaluationReport, InputError,
-    Json, LimitKind, MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Paper, PlanSource,
-    QualityRange, ReportFormat, RiskPair, RiskPoint, Scheme, SchemeOptions, SigmaKind, SourceError,
-    Specification, StagedPlan, Steps, Table, TradeoffReport, TradeoffRequest,
-    VariablesDesignReport, VariablesEvaluationReport, VariablesRequest, Verdict,
-    VerificationReport, VerifyEntry, VerifyStatus, default_qualities, evaluate, evaluate_variables,
-    judge, judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_fraction_list,
-    parse_measurements, parse_number, parse_stage, render_tradeoff_map, run_demo, sensitivity,
-    sheet_source_hash, solve, solve_variables, source_hash, template, template_kinds, tradeoff,
-    variables_qualities, verify, write_atomic, write_sheet,
+    BatchSummary, Criterion, Csv, Decision, DesignReport, DesignRequest, Error,
+    EvaluationBatchReport, EvaluationEntry, EvaluationReport, InputError, Json, LimitKind,
+    MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Paper, PlanSource, QualityRange,
+    ReportFormat, RiskPair, RiskPoint, Scheme, SchemeOptions, SigmaKind, SourceError,
+    SourceEvaluation, SourceFile, Specification, StagedPlan, Steps, Table, TradeoffReport,
+    TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry,
+    VerifyStatus, default_qualities, evaluate, evaluate_source, expand_paths, judge,
+    judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_fraction_list,
+    parse_measurements, parse_number, parse_stage, render_tradeoff_map, run_demo, run_in_parallel,
+    sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve, solve_variables,
+    source_hash, template, template_kinds, tradeoff, verify_file, write_atomic, write_sheet,
 };
 // rectify
 use lotsman::{Protection, RectifyingReport, RectifyingRequest, design_rectifying};
+use progress::Progress;
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
@@ -491,61 +494,54 @@ fn asked_qualities(args: &cli::EvaluateArgs) -> Result<Vec<f64>, InputError> {
     Ok(qualities)
 }
 
-fn evaluate_variables_cmd(args: &cli::EvaluateArgs, path: &Path) -> Result<ExitCode, Error> {
-    let (_, request, plan) = PlanSource::load_with_variables_plan(path)?;
-    let mut qualities = asked_qualities(args)?;
-    if qualities.is_empty() {
-        qualities = variables_qualities(&plan, request.risks());
+fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
+    match args.sources.as_slice() {
+        [] => evaluate_plan_cmd(&args),
+        [one] if !one.is_dir() => {
+            let qualities = asked_qualities(&args)?;
+            let mut text = Vec::new();
+            match evaluate_source(one, &qualities)? {
+                SourceEvaluation::Attributes(r) => {
+                    formatter(args.format).evaluation(&mut text, &r)?
+                }
+                SourceEvaluation::Variables(r) => {
+                    formatter(args.format).variables_evaluation(&mut text, &r)?
+                }
+            }
+            print_out(&text)?;
+            Ok(ExitCode::SUCCESS)
+        }
+        _ => evaluate_batch_cmd(&args),
     }
-    let evaluation = evaluate_variables(&plan, request.model().lot_size(), &qualities)?;
-    let report = VariablesEvaluationReport::from(&evaluation);
-    let mut text = Vec::new();
-    formatter(args.format).variables_evaluation(&mut text, &report)?;
-    print_out(&text)?;
-    Ok(ExitCode::SUCCESS)
 }
 
-fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
-    if let Some(path) = &args.source
-        && PlanSource::load(path)?.is_variables()
-    {
-        return evaluate_variables_cmd(&args, path);
-    }
-    let (plan, model, risks) = match &args.source {
-        Some(path) => {
-            let (_, request, plan) = PlanSource::load_with_plan(path)?;
-            (plan, request.model, Some(request.risks))
+/// `evaluate --n --c` or `--stage`: a plan given by its numbers.
+fn evaluate_plan_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
+    let model = model_from(&args.model)?;
+    let plan = match (&args.n, &args.c) {
+        (Some(n), Some(c)) => StagedPlan::single(
+            parse_count("--n", n, u64::MAX)?,
+            parse_count("--c", c, u64::MAX)?,
+            &model,
+        )?,
+        _ if !args.stage.is_empty() => {
+            let stages = args
+                .stage
+                .iter()
+                .map(|s| parse_stage(s))
+                .collect::<Result<Vec<_>, _>>()?;
+            StagedPlan::new(stages, &model)?
         }
-        None => {
-            let model = model_from(&args.model)?;
-            let plan = match (&args.n, &args.c) {
-                (Some(n), Some(c)) => StagedPlan::single(
-                    parse_count("--n", n, u64::MAX)?,
-                    parse_count("--c", c, u64::MAX)?,
-                    &model,
-                )?,
-                _ if !args.stage.is_empty() => {
-                    let stages = args
-                        .stage
-                        .iter()
-                        .map(|s| parse_stage(s))
-                        .collect::<Result<Vec<_>, _>>()?;
-                    StagedPlan::new(stages, &model)?
-                }
-                _ => {
-                    return Err(InputError::Inconsistent(
-                        "give a plan: FILE.yaml, or --n N --c C, or --stage N:AC:RE (repeated)"
-                            .to_string(),
-                    )
-                    .into());
-                }
-            };
-            (plan, model, None)
+        _ => {
+            return Err(InputError::Inconsistent(
+                "give a plan: FILE.yaml, or --n N --c C, or --stage N:AC:RE (repeated)".to_string(),
+            )
+            .into());
         }
     };
-    let mut qualities = asked_qualities(&args)?;
+    let mut qualities = asked_qualities(args)?;
     if qualities.is_empty() {
-        qualities = default_qualities(&plan, &model, risks.as_ref());
+        qualities = default_qualities(&plan, &model, None);
     }
     let evaluation = evaluate(&plan, &model, &qualities)?;
     let report = EvaluationReport::from(&evaluation);
@@ -555,21 +551,53 @@ fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
     Ok(ExitCode::SUCCESS)
 }
 
-fn verify_one(path: &Path) -> VerifyEntry {
-    let entry = |status, differences, message| VerifyEntry {
-        path: path.display().to_string(),
-        status,
-        differences,
-        message,
-    };
-    let source = match PlanSource::load(path) {
-        Ok(s) => s,
-        Err(e) => return entry(VerifyStatus::Invalid, Vec::new(), Some(e.to_string())),
-    };
-    match verify(&source) {
-        Ok(Verdict::Match) => entry(VerifyStatus::Match, Vec::new(), None),
-        Ok(Verdict::Mismatch(diffs)) => entry(VerifyStatus::Mismatch, diffs, None),
-        Err(e) => entry(VerifyStatus::Invalid, Vec::new(), Some(e.to_string())),
+/// `evaluate` over several sources or folders: every source evaluated,
+/// the summary after the table, or on stderr beside JSON and CSV.
+fn evaluate_batch_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
+    let qualities = asked_qualities(args)?;
+    let found = expand_paths(&args.sources);
+    let results = run_batch(&found, "sources evaluated", |entry| match entry {
+        Ok(s) => EvaluationEntry::new(
+            s.path.display().to_string(),
+            evaluate_source(&s.path, &qualities).map_err(|e| e.to_string()),
+        ),
+        Err(e) => EvaluationEntry::new(e.path().display().to_string(), Err(e.to_string())),
+    });
+    let report = EvaluationBatchReport { results };
+    let mut text = Vec::new();
+    formatter(args.format).evaluations(&mut text, &report)?;
+    print_out(&text)?;
+    Ok(finish_batch(&report.summary(), args.format))
+}
+
+/// Runs `work` over `items` in parallel, with a progress bar on a
+/// terminal once the run has lasted a second.
+fn run_batch<T: Sync, R: Send>(
+    items: &[T],
+    what: &'static str,
+    work: impl Fn(&T) -> R + Sync + Send,
+) -> Vec<R> {
+    let progress = Progress::start(items.len(), what);
+    let answers = run_in_parallel(items, work, &|done, _| progress.set(done));
+    progress.finish();
+    answers
+}
+
+/// The exit code of a batch: its worst outcome. The table format has
+/// printed the summary on stdout; beside JSON and CSV it goes to stderr,
+/// so that stdout stays machine-readable.
+fn finish_batch(summary: &BatchSummary, format: ReportFormatArg) -> ExitCode {
+    if format != ReportFormatArg::Table {
+        eprint!("{summary}");
+    }
+    exit_code(summary.worst())
+}
+
+fn exit_code(worst: Outcome) -> ExitCode {
+    match worst {
+        Outcome::Ok => ExitCode::SUCCESS,
+        Outcome::Mismatch => ExitCode::from(1),
+        Outcome::Invalid => ExitCode::from(2),
     }
 }
 
@@ -605,27 +633,50 @@ fn check_sheet(entry: &mut VerifyEntry, source: &Path, pdf: &Path) {
 }
 
 fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
-    if !args.sheet.is_empty() && args.sheet.len() != args.sources.len() {
-        return Err(InputError::Inconsistent(format!(
-            "--sheet was given {} times for {} sources; give one sheet per source, in the same order",
-            args.sheet.len(),
-            args.sources.len()
-        ))
+    if !args.sheet.is_empty() {
+        if let Some(folder) = args.sources.iter().find(|p| p.is_dir()) {
+            return Err(InputError::Inconsistent(format!(
+                "--sheet pairs each sheet with a source named on the command line, and {} is a folder; name its sources one by one, or verify the folder without --sheet",
+                folder.display()
+            ))
+            .into());
+        }
+        if args.sheet.len() != args.sources.len() {
+            return Err(InputError::Inconsistent(format!(
+                "--sheet was given {} times for {} sources; give one sheet per source, in the same order",
+                args.sheet.len(),
+                args.sources.len()
+            ))
+            .into());
+        }
+    }
+    let found = expand_paths(&args.sources);
+    if !args.sheet.is_empty() && found.len() != args.sources.len() {
+        return Err(InputError::Inconsistent(
+            "--sheet pairs sheets with sources in order, and a source is named twice; name each source once".to_string(),
+        )
         .into());
     }
-    let mut results: Vec<VerifyEntry> = args.sources.iter().map(|p| verify_one(p)).collect();
+    let mut results = run_batch(&found, "sources verified", |entry| match entry {
+        Ok(source) => verify_file(&source.path),
+        Err(e) => VerifyEntry {
+            path: e.path().display().to_string(),
+            status: VerifyStatus::Invalid,
+            differences: Vec::new(),
+            message: Some(e.to_string()),
+        },
+    });
     for ((entry, source), pdf) in results.iter_mut().zip(&args.sources).zip(&args.sheet) {
         check_sheet(entry, source, pdf);
     }
-    let report = VerificationReport { results };
+    let report = VerificationReport {
+        results,
+        every_source: args.list,
+    };
     let mut text = Vec::new();
     formatter(args.format).verification(&mut text, &report)?;
     print_out(&text)?;
-    Ok(match report.worst() {
-        VerifyStatus::Match => ExitCode::SUCCESS,
-        VerifyStatus::Mismatch => ExitCode::from(1),
-        VerifyStatus::Invalid => ExitCode::from(2),
-    })
+    Ok(finish_batch(&report.summary(), args.format))
 }
 
 /// The largest measurements file read (10 MiB), refused by size first.
@@ -800,50 +851,68 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
 }
 
 fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
-    use rayon::prelude::*;
-    if args.output.is_some() && args.sources.len() > 1 {
+    let paper = paper_from(args.paper);
+    let output_dir = args.output_dir.as_deref();
+    let batch = args.sources.len() > 1 || args.sources.iter().any(|p| p.is_dir());
+    if !batch {
+        let source = &args.sources[0];
+        let out = match &args.output {
+            Some(out) => out.clone(),
+            None => {
+                let named = SourceFile {
+                    path: source.clone(),
+                    below: None,
+                };
+                sheet_target(&named, output_dir)
+            }
+        };
+        write_one_sheet(source, &out, paper, output_dir.is_some())?;
+        eprintln!("lotsman: wrote sheet {}", out.display());
+        return Ok(ExitCode::SUCCESS);
+    }
+    if args.output.is_some() {
         return Err(InputError::Inconsistent(
-            "--output names one PDF; for several sources use --output-dir DIR".to_string(),
+            "--output names one PDF; for several sources or a folder use --output-dir DIR"
+                .to_string(),
         )
         .into());
     }
-    let paper = paper_from(args.paper);
-    let target = |source: &Path| -> PathBuf {
-        if let Some(out) = &args.output {
-            return out.clone();
-        }
-        let name = source.with_extension("pdf");
-        match &args.output_dir {
-            Some(dir) => dir.join(name.file_name().unwrap_or_default()),
-            None => name,
-        }
-    };
-    let outcomes: Vec<(PathBuf, Result<(), Error>)> = args
-        .sources
-        .par_iter()
-        .map(|source| {
-            let out = target(source);
-            let result = refuse_overwriting_input(&out, Some(source))
-                .map_err(Error::from)
-                .and_then(|()| write_sheet(source, &out, paper));
-            (out, result)
-        })
-        .collect();
-    let mut failed = 0;
-    for (out, result) in &outcomes {
+    let planned = sheet_targets(expand_paths(&args.sources), output_dir);
+    let results = run_batch(&planned, "sheets written", |entry| match entry {
+        Ok((source, target)) => (
+            source.path.display().to_string(),
+            write_one_sheet(&source.path, target, paper, output_dir.is_some())
+                .map_err(|e| e.to_string()),
+        ),
+        Err(e) => (e.path().display().to_string(), Err(e.to_string())),
+    });
+    let mut summary = BatchSummary::new("written", false);
+    for (path, result) in &results {
         match result {
-            Ok(()) => eprintln!("lotsman: wrote sheet {}", out.display()),
-            Err(e) => {
-                failed += 1;
-                eprintln!("lotsman: error: {e}");
-            }
+            Ok(()) => summary.push(path, Outcome::Ok, ""),
+            Err(message) => summary.push(path, Outcome::Invalid, message),
         }
     }
-    Ok(if failed == 0 {
-        ExitCode::SUCCESS
-    } else {
-        ExitCode::from(2)
-    })
+    print_out(summary.to_string().as_bytes())?;
+    Ok(exit_code(summary.worst()))
+}
+
+/// Writes the sheet of `source` to `target`, never over the source itself;
+/// with `make_folders` (an output folder) the target's folders are created.
+fn write_one_sheet(
+    source: &Path,
+    target: &Path,
+    paper: Paper,
+    make_folders: bool,
+) -> Result<(), Error> {
+    refuse_overwriting_input(target, Some(source))?;
+    if make_folders && let Some(folder) = target.parent() {
+        std::fs::create_dir_all(folder).map_err(|e| SourceError::Io {
+            path: folder.to_path_buf(),
+            source: e,
+        })?;
+    }
+    write_sheet(source, target, paper)
 }
 
 fn demo(dir: &Path) -> Result<ExitCode, Error> {

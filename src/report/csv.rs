@@ -5,8 +5,9 @@
 use std::io::{self, Write};
 
 use super::{
-    DesignReport, EvaluationReport, RectifyingReport, ReportFormat, TradeoffReport,
-    VariablesDesignReport, VariablesEvaluationReport, VerificationReport,
+    DesignReport, EvaluationBatchReport, EvaluationReport, RectifyingReport, ReportFormat,
+    SourceEvaluation, TradeoffReport, VariablesDesignReport, VariablesEvaluationReport,
+    VerificationReport,
 };
 
 /// Comma-separated values, for spreadsheets.
@@ -83,6 +84,56 @@ impl ReportFormat for Csv {
                     text(&d.recorded),
                     text(&d.resolved)
                 )?;
+            }
+        }
+        Ok(())
+    }
+
+    /// One header for attributes and variables sources alike: a variables
+    /// row leaves `asn_curtailed` empty and gives `asn = n` (every lot
+    /// measures n units), an attributes row leaves `pa_centred` empty, and
+    /// an invalid source has one row with its `message`.
+    fn evaluations(&self, out: &mut dyn Write, report: &EvaluationBatchReport) -> io::Result<()> {
+        writeln!(
+            out,
+            "source,status,quality,pa,pa_centred,aoq,ati,asn,asn_curtailed,message"
+        )?;
+        for e in &report.results {
+            let lead = format!("{},{}", text(&e.path), e.status.name());
+            match &e.evaluation {
+                Some(SourceEvaluation::Attributes(r)) => {
+                    for p in &r.points {
+                        writeln!(
+                            out,
+                            "{lead},{},{},,{},{},{},{},",
+                            p.quality,
+                            p.pa,
+                            p.aoq,
+                            cell(p.ati),
+                            p.asn,
+                            cell(p.asn_curtailed)
+                        )?;
+                    }
+                }
+                Some(SourceEvaluation::Variables(r)) => {
+                    for p in &r.points {
+                        writeln!(
+                            out,
+                            "{lead},{},{},{},{},{},{},,",
+                            p.quality,
+                            p.pa,
+                            cell(p.pa_centred),
+                            p.aoq,
+                            cell(p.ati),
+                            r.variables.n
+                        )?;
+                    }
+                }
+                None => writeln!(
+                    out,
+                    "{lead},,,,,,,,{}",
+                    text(e.message.as_deref().unwrap_or(""))
+                )?,
             }
         }
         Ok(())

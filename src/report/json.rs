@@ -5,8 +5,8 @@ use std::io::{self, Write};
 use serde::Serialize;
 
 use super::{
-    DesignReport, EvaluationReport, RectifyingReport, ReportFormat, TradeoffReport,
-    VariablesDesignReport, VariablesEvaluationReport, VerificationReport,
+    DesignReport, EvaluationBatchReport, EvaluationReport, RectifyingReport, ReportFormat,
+    TradeoffReport, VariablesDesignReport, VariablesEvaluationReport, VerificationReport,
 };
 
 /// Pretty-printed JSON, one object per report, keys in snake_case.
@@ -28,6 +28,10 @@ impl ReportFormat for Json {
     }
 
     fn verification(&self, out: &mut dyn Write, report: &VerificationReport) -> io::Result<()> {
+        write_json(out, report)
+    }
+
+    fn evaluations(&self, out: &mut dyn Write, report: &EvaluationBatchReport) -> io::Result<()> {
         write_json(out, report)
     }
 

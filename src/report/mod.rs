@@ -6,6 +6,7 @@
 //! file and turns a report into text; choosing the writer (stdout, a file)
 //! is the caller's business.
 
+mod batch;
 mod csv;
 mod json;
 mod rectifying;
@@ -18,6 +19,9 @@ use std::io::{self, Write};
 
 use serde::Serialize;
 
+pub use self::batch::{
+    BatchSummary, EvaluationBatchReport, EvaluationEntry, Failure, Outcome, SourceEvaluation,
+};
 pub use self::csv::Csv;
 pub use self::json::Json;
 pub use self::rectifying::{
@@ -41,6 +45,9 @@ pub trait ReportFormat {
     fn evaluation(&self, out: &mut dyn Write, report: &EvaluationReport) -> io::Result<()>;
     /// Writes the results of verifying one or more sources.
     fn verification(&self, out: &mut dyn Write, report: &VerificationReport) -> io::Result<()>;
+    /// Writes the evaluations of several sources, each under its path,
+    /// with the batch's summary where the format has room for it.
+    fn evaluations(&self, out: &mut dyn Write, report: &EvaluationBatchReport) -> io::Result<()>;
     /// Writes a variables design report.
     fn variables_design(
         &self,
@@ -346,25 +353,10 @@ pub struct VerifyEntry {
 pub struct VerificationReport {
     /// One entry per source, in the order given.
     pub results: Vec<VerifyEntry>,
-}
-
-impl VerificationReport {
-    /// The worst status: invalid over mismatch over match.
-    pub fn worst(&self) -> VerifyStatus {
-        let has = |s| self.results.iter().any(|e| e.status == s);
-        if has(VerifyStatus::Invalid) {
-            VerifyStatus::Invalid
-        } else if has(VerifyStatus::Mismatch) {
-            VerifyStatus::Mismatch
-        } else {
-            VerifyStatus::Match
-        }
-    }
-
-    /// How many sources had `status`.
-    pub fn count(&self, status: VerifyStatus) -> usize {
-        self.results.iter().filter(|e| e.status == status).count()
-    }
+    /// Whether a table lists every source, or only the failures (JSON and
+    /// CSV always give every source).
+    #[serde(skip)]
+    pub every_source: bool,
 }
 
 /// A quality in percent with four significant digits, as reports print it

@@ -7,9 +7,10 @@ use comfy_table::{CellAlignment, ContentArrangement, LineStyle, Table as Grid, T
 use super::RectifyingReport;
 use super::words;
 use super::{
-    DesignReport, EvaluationReport, PointReport, ReportFormat, SequentialReport,
-    TradeoffCellReport, TradeoffReport, VariablesDesignReport, VariablesEvaluationReport,
-    VariablesReport, VerificationReport, format_quality, format_significant, variables_rule,
+    DesignReport, EvaluationBatchReport, EvaluationReport, PointReport, ReportFormat,
+    SequentialReport, SourceEvaluation, TradeoffCellReport, TradeoffReport, VariablesDesignReport,
+    VariablesEvaluationReport, VariablesReport, VerificationReport, format_quality,
+    format_significant, variables_rule,
 };
 use crate::design::{Input, Moved};
 use crate::model::ModelKind;
@@ -286,6 +287,10 @@ impl ReportFormat for Table {
     }
 
     fn verification(&self, out: &mut dyn Write, r: &VerificationReport) -> io::Result<()> {
+        let summary = r.summary();
+        if !r.every_source {
+            return write!(out, "{summary}");
+        }
         let mut g = grid(&["Source", "Result", "Details"]);
         if let Some(col) = g.column_mut(2) {
             col.set_cell_alignment(CellAlignment::Left);
@@ -308,13 +313,22 @@ impl ReportFormat for Table {
             g.add_row(vec![e.path.clone(), e.status.name().to_string(), details]);
         }
         writeln!(out, "{g}")?;
-        writeln!(
-            out,
-            "{} match, {} mismatch, {} invalid",
-            r.count(super::VerifyStatus::Match),
-            r.count(super::VerifyStatus::Mismatch),
-            r.count(super::VerifyStatus::Invalid)
-        )
+        writeln!(out, "{}", summary.counts())
+    }
+
+    fn evaluations(&self, out: &mut dyn Write, r: &EvaluationBatchReport) -> io::Result<()> {
+        for e in &r.results {
+            writeln!(out, "Source {}", e.path)?;
+            match (&e.evaluation, &e.message) {
+                (Some(SourceEvaluation::Attributes(report)), _) => self.evaluation(out, report)?,
+                (Some(SourceEvaluation::Variables(report)), _) => {
+                    self.variables_evaluation(out, report)?
+                }
+                (None, message) => writeln!(out, "invalid: {}", message.as_deref().unwrap_or(""))?,
+            }
+            writeln!(out)?;
+        }
+        write!(out, "{}", r.summary())
     }
 
     fn variables_design(&self, out: &mut dyn Write, r: &VariablesDesignReport) -> io::Result<()> {
