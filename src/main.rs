@@ -276,7 +276,12 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
         )
         .into());
     }
-    let grid = tradeoff(&request, &|| {});
+    let progress = Progress::start(request.cell_count(), "cells solved");
+    let done = std::sync::atomic::AtomicUsize::new(0);
+    let grid = tradeoff(&request, &|| {
+        progress.set(done.fetch_add(1, std::sync::atomic::Ordering::Relaxed) + 1)
+    });
+    progress.finish();
     let text = match args.format {
         TradeoffFormat::Pdf => {
             let title = args
