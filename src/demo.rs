@@ -44,6 +44,10 @@ pub const DEMO_PLANS: &[(&str, &str)] = &[
         "tpw-cover-thickness.yaml",
         include_str!("../plans/tpw-cover-thickness.yaml"),
     ),
+    (
+        "tpw-packing-ring.yaml",
+        include_str!("../plans/tpw-packing-ring.yaml"),
+    ),
 ];
 
 /// The readings of one lot of cover plates (invented), judged by the

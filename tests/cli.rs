@@ -364,6 +364,7 @@ fn the_demo_plans_verify_and_the_demo_writes_its_files() {
             "plans/tpw-impeller-porosity.yaml",
             "plans/tpw-sleeve-hardness.yaml",
             "plans/tpw-cover-thickness.yaml",
+            "plans/tpw-packing-ring.yaml",
         ])
         .assert()
         .success();
@@ -391,6 +392,7 @@ fn the_demo_plans_verify_and_the_demo_writes_its_files() {
         "tpw-cover-thickness.pdf",
         "tpw-cover-thickness-oc.csv",
         "tpw-cover-thickness-readings.csv",
+        "tpw-packing-ring.pdf",
     ] {
         assert!(out.join(name).is_file(), "{name}");
     }
