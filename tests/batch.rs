@@ -3,15 +3,13 @@
 //! stable order, sheets in mirrored folders, and a quiet stderr off a
 //! terminal.
 
+mod common;
+use common::lotsman;
+
 use std::path::{Path, PathBuf};
 
-use assert_cmd::Command;
 use predicates::prelude::*;
 use serde_json::Value;
-
-fn lotsman() -> Command {
-    Command::cargo_bin("lotsman").unwrap()
-}
 
 fn put(root: &Path, name: &str, text: &str) -> PathBuf {
     let path = root.join(name);

@@ -1,23 +1,10 @@
 //! The command-line contract: flags, JSON keys, exit codes and messages.
 
-use assert_cmd::Command;
+mod common;
+use common::{json_of, lotsman};
+
 use predicates::prelude::*;
 use serde_json::Value;
-
-fn lotsman() -> Command {
-    Command::cargo_bin("lotsman").unwrap()
-}
-
-fn json_of(args: &[&str]) -> Value {
-    let out = lotsman()
-        .args(args)
-        .assert()
-        .success()
-        .get_output()
-        .stdout
-        .clone();
-    serde_json::from_slice(&out).unwrap()
-}
 
 #[test]
 fn design_json_has_the_documented_keys() {

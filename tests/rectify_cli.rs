@@ -2,13 +2,11 @@
 //! codes and messages. The plans it prints are the exhaustive scipy search's
 //! (tests/data/minimum_reference.json) at the same conditions.
 
-use assert_cmd::Command;
+mod common;
+use common::lotsman;
+
 use predicates::prelude::*;
 use serde_json::Value;
-
-fn lotsman() -> Command {
-    Command::cargo_bin("lotsman").unwrap()
-}
 
 fn json_of(args: &[&str]) -> Value {
     let out = lotsman()

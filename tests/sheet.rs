@@ -1,5 +1,8 @@
 //! The plan sheet: page, text, determinism, layout and audit hash.
 
+mod common;
+use common::{page_sizes, pdf_text};
+
 use std::path::Path;
 use std::process::Command as Process;
 
@@ -13,37 +16,6 @@ fn demo_source() -> (String, PlanSource) {
     let text = std::fs::read_to_string(DEMO).unwrap();
     let source = PlanSource::from_yaml(&text, Path::new(DEMO)).unwrap();
     (text, source)
-}
-
-/// Page sizes in points from the PDF's MediaBox, read with lopdf.
-fn page_sizes(pdf: &[u8]) -> Vec<(f64, f64)> {
-    let doc = lopdf::Document::load_mem(pdf).unwrap();
-    doc.get_pages()
-        .values()
-        .map(|&id| {
-            let page = doc.get_dictionary(id).unwrap();
-            let mb = page.get(b"MediaBox").unwrap().as_array().unwrap();
-            let num = |o: &lopdf::Object| {
-                o.as_float()
-                    .map(f64::from)
-                    .or_else(|_| o.as_i64().map(|v| v as f64))
-                    .unwrap()
-            };
-            (num(&mb[2]) - num(&mb[0]), num(&mb[3]) - num(&mb[1]))
-        })
-        .collect()
-}
-
-/// The text of a PDF by pdftotext (poppler-utils, installed by .ci/run).
-fn pdf_text(pdf: &[u8]) -> String {
-    let dir = tempfile::tempdir().unwrap();
-    let path = dir.path().join("s.pdf");
-    std::fs::write(&path, pdf).unwrap();
-    let out = Process::new("pdftotext")
-        .args([path.to_str().unwrap(), "-"])
-        .output()
-        .expect("pdftotext (poppler-utils) is installed");
-    String::from_utf8(out.stdout).unwrap()
 }
 
 #[test]

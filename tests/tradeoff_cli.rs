@@ -3,24 +3,11 @@
 //! `evaluate` commands for the same points, which tests/reference.rs and
 //! tests/staged_reference.rs check against the reference scripts.
 
-use assert_cmd::Command;
+mod common;
+use common::{json_of, lotsman, pdf_text};
+
 use predicates::prelude::*;
 use serde_json::Value;
-
-fn lotsman() -> Command {
-    Command::cargo_bin("lotsman").unwrap()
-}
-
-fn json_of(args: &[&str]) -> Value {
-    let out = lotsman()
-        .args(args)
-        .assert()
-        .success()
-        .get_output()
-        .stdout
-        .clone();
-    serde_json::from_slice(&out).unwrap()
-}
 
 fn cell(v: &Value, aql: f64, rql: f64) -> &Value {
     v["cells"]
@@ -307,12 +294,7 @@ fn pdf_writes_the_heat_map_and_needs_an_output_file() {
         .arg(&path)
         .assert()
         .success();
-    let text = std::process::Command::new("pdftotext")
-        .arg(&path)
-        .arg("-")
-        .output()
-        .expect("pdftotext (poppler-utils) is installed");
-    let text = String::from_utf8(text.stdout).unwrap();
+    let text = pdf_text(&std::fs::read(&path).unwrap());
     assert!(text.contains("Packing rings"), "{text}");
     assert!(
         text.contains("lotsman tradeoff --aql 0.5%:1.5%:5"),

@@ -2,7 +2,8 @@
 //! plan, the cost panel, grid sizes, and the contours against a brute-force
 //! design.
 
-use std::process::Command as Process;
+mod common;
+use common::{page_sizes, pdf_text};
 
 use lotsman::{
     Criterion, MapQuantity, Model, ModelKind, Paper, Scheme, TradeoffGrid, TradeoffMap,
@@ -63,37 +64,6 @@ fn render(grid: &TradeoffGrid) -> TradeoffMap {
 }
 
 const COMMAND: &str = "lotsman tradeoff --aql 0.2%:2%:25 --rql 3%:12%:25 --format pdf";
-
-/// Page sizes in points from the PDF's MediaBox, read with lopdf.
-fn page_sizes(pdf: &[u8]) -> Vec<(f64, f64)> {
-    let doc = lopdf::Document::load_mem(pdf).unwrap();
-    doc.get_pages()
-        .values()
-        .map(|&id| {
-            let page = doc.get_dictionary(id).unwrap();
-            let mb = page.get(b"MediaBox").unwrap().as_array().unwrap();
-            let num = |o: &lopdf::Object| {
-                o.as_float()
-                    .map(f64::from)
-                    .or_else(|_| o.as_i64().map(|v| v as f64))
-                    .unwrap()
-            };
-            (num(&mb[2]) - num(&mb[0]), num(&mb[3]) - num(&mb[1]))
-        })
-        .collect()
-}
-
-/// The text of a PDF by pdftotext (poppler-utils, installed by .ci/run).
-fn pdf_text(pdf: &[u8]) -> String {
-    let dir = tempfile::tempdir().unwrap();
-    let path = dir.path().join("m.pdf");
-    std::fs::write(&path, pdf).unwrap();
-    let out = Process::new("pdftotext")
-        .args([path.to_str().unwrap(), "-"])
-        .output()
-        .expect("pdftotext (poppler-utils) is installed");
-    String::from_utf8(out.stdout).unwrap()
-}
 
 /// The page's blocks keep apart, and every contour label stays inside its
 /// plot, apart from the other labels.

@@ -1,13 +1,11 @@
 //! The command-line contract of variables plans: design flags and JSON
 //! keys, evaluate, verify, and judging a lot from its measurements.
 
-use assert_cmd::Command;
+mod common;
+use common::lotsman;
+
 use predicates::prelude::*;
 use serde_json::Value;
-
-fn lotsman() -> Command {
-    Command::cargo_bin("lotsman").unwrap()
-}
 
 const UPPER_UNKNOWN: &[&str] = &[
     "design",

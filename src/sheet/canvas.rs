@@ -93,7 +93,44 @@ pub fn rgb(r: f32, g: f32, b: f32) -> Color {
     })
 }
 
+/// A drawn page and what went wrong in the drawing, from [`Canvas::finish`].
+pub struct Page {
+    /// The drawing operations.
+    pub ops: Vec<Op>,
+    /// The blocks claimed.
+    pub regions: Vec<Region>,
+    /// Texts that did not fit.
+    pub overflows: Vec<String>,
+    /// Characters the font cannot draw, and blocks that leave the page or
+    /// overlap another block.
+    pub faults: Vec<String>,
+}
+
 impl<'f> Canvas<'f> {
+    /// Ends the drawing of a `pw` x `ph` page: its operations and blocks,
+    /// with every block that leaves the page or overlaps another added to
+    /// the faults.
+    pub fn finish(self, pw: f64, ph: f64) -> Page {
+        let mut faults = self.faults;
+        let regions = self.regions;
+        for (i, a) in regions.iter().enumerate() {
+            if a.x < 0.0 || a.y < 0.0 || a.x + a.w > pw || a.y + a.h > ph {
+                faults.push(format!("the {} leaves the page", a.name));
+            }
+            for b in &regions[i + 1..] {
+                if a.overlaps(b) {
+                    faults.push(format!("the {} overlaps the {}", a.name, b.name));
+                }
+            }
+        }
+        Page {
+            ops: self.ops,
+            regions,
+            overflows: self.overflows,
+            faults,
+        }
+    }
+
     pub fn new(regular: &'f ParsedFont, bold: &'f ParsedFont) -> Self {
         Canvas {
             ops: Vec::new(),

@@ -37,8 +37,8 @@ mod text;
 
 use sha2::{Digest, Sha256};
 
-use super::canvas::{Canvas, Face, Region, grey};
-use super::{BOLD_TTF, Paper, REGULAR_TTF, placement_faults, save_page};
+use super::canvas::{Canvas, Face, Page, Region, grey};
+use super::{BOLD_TTF, Paper, REGULAR_TTF, save_page};
 use crate::design::{Scheme, TradeoffGrid};
 use crate::error::{Error, InputError};
 use crate::model::ModelKind;
@@ -175,14 +175,12 @@ pub fn render_tradeoff_map(
     let hash = inputs_hash(grid, title, command, paper);
     let mut c = Canvas::new(&regular, &bold);
     let panels = layout(&mut c, grid, title, command, &hash, pw, ph);
-    let Canvas {
+    let Page {
         ops,
         regions,
         overflows,
-        mut faults,
-        ..
-    } = c;
-    faults.extend(placement_faults(&regions, pw, ph));
+        faults,
+    } = c.finish(pw, ph);
     if !overflows.is_empty() || !faults.is_empty() {
         let all: Vec<String> = overflows.into_iter().chain(faults).collect();
         return Err(InputError::Inconsistent(format!(

@@ -35,7 +35,7 @@ use crate::plan::{
 use crate::report::{format_quality, format_significant, words};
 use crate::risk::RiskPair;
 use crate::source::{PlanSource, RecordedPlan, tool_version};
-use canvas::{BOLD_ID, Canvas, Face, REGULAR_ID, Region, grey, rgb};
+use canvas::{BOLD_ID, Canvas, Face, Page, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
 pub use heatmap::{
     ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map,
@@ -252,14 +252,12 @@ pub fn render_sheet(
         }
         &attributes.common
     };
-    let Canvas {
+    let Page {
         ops,
         regions,
         overflows,
-        mut faults,
-        ..
-    } = c;
-    faults.extend(placement_faults(&regions, pw, ph));
+        faults,
+    } = c.finish(pw, ph);
     if !overflows.is_empty() || !faults.is_empty() {
         let mut parts = Vec::new();
         if !overflows.is_empty() {
@@ -290,22 +288,6 @@ pub fn render_sheet(
         source_sha256: common.hash.clone(),
         regions,
     })
-}
-
-/// Blocks that leave the page or overlap another block.
-fn placement_faults(regions: &[Region], pw: f64, ph: f64) -> Vec<String> {
-    let mut faults = Vec::new();
-    for (i, a) in regions.iter().enumerate() {
-        if a.x < 0.0 || a.y < 0.0 || a.x + a.w > pw || a.y + a.h > ph {
-            faults.push(format!("the {} leaves the page", a.name));
-        }
-        for b in &regions[i + 1..] {
-            if a.overlaps(b) {
-                faults.push(format!("the {} overlaps the {}", a.name, b.name));
-            }
-        }
-    }
-    faults
 }
 
 /// The PDF of one page of `ops`, with the fonts, the source hash in the

@@ -1,7 +1,9 @@
-//! What the fixture comparisons share: loading a fixture, reading its rows
-//! and the tolerance test. Each test binary uses a subset of them.
+//! What the test binaries share: loading a fixture, reading its rows and
+//! the tolerance test; running the binary; reading a PDF's pages and text.
+//! Each test binary uses a subset of them.
 #![allow(dead_code)]
 
+use assert_cmd::Command;
 use lotsman::{Model, ModelKind, RiskPair, RiskPoint};
 use serde_json::Value;
 
@@ -63,4 +65,52 @@ pub fn risks(row: &Value, m: &Model) -> RiskPair {
         m,
     )
     .unwrap()
+}
+
+/// The `lotsman` binary of this build.
+pub fn lotsman() -> Command {
+    Command::cargo_bin("lotsman").unwrap()
+}
+
+/// The JSON that a successful run with `args` prints.
+pub fn json_of(args: &[&str]) -> Value {
+    let out = lotsman()
+        .args(args)
+        .assert()
+        .success()
+        .get_output()
+        .stdout
+        .clone();
+    serde_json::from_slice(&out).unwrap()
+}
+
+/// Page sizes in points from the PDF's MediaBox, read with lopdf.
+pub fn page_sizes(pdf: &[u8]) -> Vec<(f64, f64)> {
+    let doc = lopdf::Document::load_mem(pdf).unwrap();
+    doc.get_pages()
+        .values()
+        .map(|&id| {
+            let page = doc.get_dictionary(id).unwrap();
+            let mb = page.get(b"MediaBox").unwrap().as_array().unwrap();
+            let num = |o: &lopdf::Object| {
+                o.as_float()
+                    .map(f64::from)
+                    .or_else(|_| o.as_i64().map(|v| v as f64))
+                    .unwrap()
+            };
+            (num(&mb[2]) - num(&mb[0]), num(&mb[3]) - num(&mb[1]))
+        })
+        .collect()
+}
+
+/// The text of a PDF by pdftotext (poppler-utils, installed by .ci/run).
+pub fn pdf_text(pdf: &[u8]) -> String {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("page.pdf");
+    std::fs::write(&path, pdf).unwrap();
+    let out = std::process::Command::new("pdftotext")
+        .args([path.to_str().unwrap(), "-"])
+        .output()
+        .expect("pdftotext (poppler-utils) is installed");
+    String::from_utf8(out.stdout).unwrap()
 }
