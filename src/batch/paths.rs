@@ -168,10 +168,11 @@ fn is_source_name(name: &Path) -> bool {
 }
 
 #[cfg(test)]
-mod tests {
+pub(crate) mod tests {
     use super::*;
 
-    fn touch(root: &Path, names: &[&str]) {
+    /// Empty files at `names` below `root`, with their folders.
+    pub(crate) fn touch(root: &Path, names: &[&str]) {
         for name in names {
             let path = root.join(name);
             fs::create_dir_all(path.parent().unwrap()).unwrap();

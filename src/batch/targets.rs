@@ -96,14 +96,7 @@ fn resolved(path: &Path) -> PathBuf {
 mod tests {
     use super::*;
     use crate::batch::expand_paths;
-
-    fn touch(root: &Path, names: &[&str]) {
-        for name in names {
-            let path = root.join(name);
-            fs::create_dir_all(path.parent().unwrap()).unwrap();
-            fs::write(path, "").unwrap();
-        }
-    }
+    use crate::batch::paths::tests::touch;
 
     #[test]
     fn nested_sources_of_one_name_keep_apart_in_the_output_folder() {
