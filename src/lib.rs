@@ -33,6 +33,18 @@
 
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
+// No panic on anything a user can feed in: outside the unit tests, errors
+// are values, never unwrap, expect or panic.
+#![cfg_attr(
+    not(test),
+    deny(
+        clippy::unwrap_used,
+        clippy::expect_used,
+        clippy::panic,
+        clippy::todo,
+        clippy::unimplemented
+    )
+)]
 
 mod atomic;
 mod batch;
