@@ -137,7 +137,9 @@ fn attributes_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>),
     let qualities = default_qualities(&recorded, &request.model, Some(&request.risks));
     let evaluation = evaluate(&recorded, &request.model, &qualities)?;
     let mut csv = Vec::new();
-    Csv.evaluation(&mut csv, &EvaluationReport::from(&evaluation))?;
+    let report = EvaluationReport::from(&evaluation);
+    report.check()?;
+    Csv.evaluation(&mut csv, &report)?;
     let limit = aoql(&recorded, &request.model);
     Ok((
         DemoRow {
@@ -163,7 +165,9 @@ fn variables_row(source: &PlanSource, name: &str, dir: &Path) -> Result<(DemoRow
     let qualities = variables_qualities(&plan, request.risks());
     let evaluation = evaluate_variables(&plan, request.model().lot_size(), &qualities)?;
     let mut csv = Vec::new();
-    Csv.variables_evaluation(&mut csv, &VariablesEvaluationReport::from(&evaluation))?;
+    let report = VariablesEvaluationReport::from(&evaluation);
+    report.check()?;
+    Csv.variables_evaluation(&mut csv, &report)?;
     let (readings_name, readings, column) = DEMO_READINGS;
     let mut written = Vec::new();
     let mut judged = None;

@@ -196,6 +196,10 @@ pub enum Error {
     /// See [`SourceError`].
     #[error(transparent)]
     Source(#[from] SourceError),
+    /// A computed number out of its range; see
+    /// [`NumericalError`](crate::NumericalError).
+    #[error(transparent)]
+    Numerical(#[from] crate::numeric::NumericalError),
     /// Writing a report failed.
     #[error("cannot write output: {0}")]
     Output(#[from] std::io::Error),

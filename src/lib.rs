@@ -83,6 +83,7 @@ pub use design::{
 };
 pub use error::{BatchError, DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
+pub use numeric::{NEAR_LIMIT, NumericalError, check_amount, check_probability, near_limit};
 pub use plan::{
     AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS,
     MAX_STAGES, MAX_VARIABLES_SAMPLE, MeasurementJudgement, Measures, NORMALITY_LEVEL, SIGMA_LEVEL,

@@ -207,7 +207,6 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     };
     let solution = solve(&request).map_err(|e| design_error(&args, e))?;
     source.record(&solution);
-    write_source(&args, &source)?;
     let steps = Steps::new(
         &request.risks,
         [
@@ -224,6 +223,9 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     )?;
     let rows = sensitivity(&request.model, &request.risks, solution.single.n, &steps);
     let report = DesignReport::new(&source.title, &solution).with_sensitivity(rows);
+    // Nothing is written or printed from a report that fails its guard.
+    report.check()?;
+    write_source(&args, &source)?;
     let mut text = Vec::new();
     match args.format {
         DesignFormat::Table => Table.design(&mut text, &report)?,
@@ -294,6 +296,8 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
         progress.set(done.fetch_add(1, std::sync::atomic::Ordering::Relaxed) + 1)
     });
     progress.finish();
+    let report = TradeoffReport::new(args.title.as_deref(), &grid);
+    report.check()?;
     let text = match args.format {
         TradeoffFormat::Pdf => {
             let title = args
@@ -303,7 +307,6 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
             render_tradeoff_map(&grid, title, Some(&command_line()), paper_from(args.paper))?.pdf
         }
         format => {
-            let report = TradeoffReport::new(args.title.as_deref(), &grid);
             let mut text = Vec::new();
             let format: &dyn ReportFormat = match format {
                 TradeoffFormat::Json => &Json,
@@ -385,8 +388,9 @@ fn design_variables_cmd(
 ) -> Result<ExitCode, Error> {
     let solution = solve_variables(request).map_err(|e| design_error(args, e))?;
     source.record_variables(&solution);
-    write_source(args, &source)?;
     let report = VariablesDesignReport::new(&source.title, &solution);
+    report.check()?;
+    write_source(args, &source)?;
     let mut text = Vec::new();
     match args.format {
         DesignFormat::Table => Table.variables_design(&mut text, &report)?,
@@ -562,6 +566,7 @@ fn evaluate_plan_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
     }
     let evaluation = evaluate(&plan, &model, &qualities)?;
     let report = EvaluationReport::from(&evaluation);
+    report.check()?;
     let mut text = Vec::new();
     formatter(args.format).evaluation(&mut text, &report)?;
     print_out(&text)?;
@@ -721,6 +726,7 @@ fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode,
     })?;
     let values = parse_measurements(&text, args.column.as_deref())?;
     let j = judge_measurements(&plan, &values, request.risks().producer().quality)?;
+    j.check()?;
     let text = match args.format {
         cli::JudgeFormat::Json => {
             serde_json::to_string_pretty(&j).map_err(std::io::Error::other)? + "\n"
@@ -1000,6 +1006,7 @@ fn rectify_cmd(args: cli::RectifyArgs) -> Result<ExitCode, Error> {
         .title
         .unwrap_or_else(|| "Minimum-inspection plan".to_string());
     let report = RectifyingReport::new(&title, &design);
+    report.check()?;
     let mut text = Vec::new();
     formatter(args.format).rectifying(&mut text, &report)?;
     print_out(&text)?;

@@ -16,7 +16,7 @@ use crate::source::PlanSource;
 /// # Errors
 /// [`SourceError`] when the file cannot be read, parsed or validated, or
 /// records no plan; [`Error::Input`] for a quality outside the model's
-/// range.
+/// range; [`Error::Numerical`] when a computed measure is out of its range.
 ///
 /// ```
 /// use lotsman::{SourceEvaluation, evaluate_source};
@@ -43,9 +43,9 @@ pub fn evaluate_source(path: &Path, qualities: &[f64]) -> Result<SourceEvaluatio
             qualities
         };
         let evaluation = evaluate_variables(&plan, request.model().lot_size(), at)?;
-        return Ok(SourceEvaluation::Variables(
-            VariablesEvaluationReport::from(&evaluation),
-        ));
+        let report = VariablesEvaluationReport::from(&evaluation);
+        report.check()?;
+        return Ok(SourceEvaluation::Variables(report));
     }
     let request = source.request().map_err(invalid)?;
     let plan = source.recorded_plan(&request.model).map_err(invalid)?;
@@ -57,7 +57,7 @@ pub fn evaluate_source(path: &Path, qualities: &[f64]) -> Result<SourceEvaluatio
         qualities
     };
     let evaluation = evaluate(&plan, &request.model, at)?;
-    Ok(SourceEvaluation::Attributes(EvaluationReport::from(
-        &evaluation,
-    )))
+    let report = EvaluationReport::from(&evaluation);
+    report.check()?;
+    Ok(SourceEvaluation::Attributes(report))
 }

@@ -7,6 +7,7 @@
 //! is the caller's business.
 
 mod batch;
+mod checks;
 mod csv;
 mod json;
 mod rectifying;
@@ -75,6 +76,36 @@ pub struct PointReport {
     pub risk: f64,
     /// The risk the plan really has at that quality.
     pub achieved_risk: f64,
+    /// Whether the achieved risk lies within `1e-9` (relative) of the
+    /// agreed one ([`NEAR_LIMIT`](crate::NEAR_LIMIT)): the plan meets the
+    /// point by less than the computation can vouch for.
+    pub near_limit: bool,
+}
+
+impl PointReport {
+    /// The point `(quality, risk)` and the risk a plan achieves there.
+    pub fn new(quality: f64, risk: f64, achieved_risk: f64) -> Self {
+        PointReport {
+            quality,
+            risk,
+            achieved_risk,
+            near_limit: crate::numeric::near_limit(achieved_risk, risk),
+        }
+    }
+}
+
+/// The notes of a design whose achieved risks sit on their limits.
+fn near_limit_notes(producer: &PointReport, consumer: &PointReport) -> Vec<String> {
+    [("producer's", "alpha", producer), ("consumer's", "beta", consumer)]
+        .into_iter()
+        .filter(|(_, _, p)| p.near_limit)
+        .map(|(side, greek, p)| {
+            format!(
+                "the achieved {side} risk {} lies within 1e-9 of {greek} = {}: the plan meets the point only at the limit of the computation's precision; a plan one step larger keeps a margin",
+                p.achieved_risk, p.risk
+            )
+        })
+        .collect()
 }
 
 /// One row of the alternatives.
@@ -226,6 +257,17 @@ impl DesignReport {
                 100.0 * a.saving_at_aql
             ));
         }
+        let producer = PointReport::new(
+            r.risks.producer().quality,
+            r.risks.producer().risk,
+            d.producer_risk,
+        );
+        let consumer = PointReport::new(
+            r.risks.consumer().quality,
+            r.risks.consumer().risk,
+            d.consumer_risk,
+        );
+        notes.extend(near_limit_notes(&producer, &consumer));
         let criterion = matches!(r.scheme, Scheme::Double | Scheme::Multiple)
             .then(|| r.options.criterion.name());
         DesignReport {
@@ -235,16 +277,8 @@ impl DesignReport {
             lot_size: r.model.lot_size(),
             plan: d.plan.clone(),
             stages: d.plan.stages().to_vec(),
-            producer: PointReport {
-                quality: r.risks.producer().quality,
-                risk: r.risks.producer().risk,
-                achieved_risk: d.producer_risk,
-            },
-            consumer: PointReport {
-                quality: r.risks.consumer().quality,
-                risk: r.risks.consumer().risk,
-                achieved_risk: d.consumer_risk,
-            },
+            producer,
+            consumer,
             criterion,
             asn: solution.asn,
             sequential: d

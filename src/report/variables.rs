@@ -138,6 +138,17 @@ impl VariablesDesignReport {
         notes.push(
             "the rule rests on normally distributed measurements: judge lots with lotsman judge --measurements, which tests normality".to_string(),
         );
+        let producer = PointReport::new(
+            risks.producer().quality,
+            risks.producer().risk,
+            d.producer_risk,
+        );
+        let consumer = PointReport::new(
+            risks.consumer().quality,
+            risks.consumer().risk,
+            d.consumer_risk,
+        );
+        notes.extend(super::near_limit_notes(&producer, &consumer));
         let attributes = solution.attributes.as_ref().ok();
         if let Err(e) = &solution.attributes {
             notes.push(format!("no attributes single plan for comparison: {e}"));
@@ -149,16 +160,8 @@ impl VariablesDesignReport {
             lot_size: model.lot_size(),
             plan: d.plan,
             variables: VariablesReport::new(&d.plan, Some(d.range)),
-            producer: PointReport {
-                quality: risks.producer().quality,
-                risk: risks.producer().risk,
-                achieved_risk: d.producer_risk,
-            },
-            consumer: PointReport {
-                quality: risks.consumer().quality,
-                risk: risks.consumer().risk,
-                achieved_risk: d.consumer_risk,
-            },
+            producer,
+            consumer,
             known_sigma_n: d.known_sigma_n,
             large_sample_n: d.approximate_n,
             attributes_plan: attributes.map(|a| SinglePlanReport { n: a.n, c: a.c }),

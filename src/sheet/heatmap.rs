@@ -145,6 +145,8 @@ pub fn render_tradeoff_map(
     command: Option<&str>,
     paper: Paper,
 ) -> Result<TradeoffMap, Error> {
+    // The map colours what the report would print: the same guard first.
+    crate::report::TradeoffReport::new(None, grid).check()?;
     let request = &grid.request;
     for (name, axis) in [("AQL", request.aql()), ("RQL", request.rql())] {
         if axis.len() < 2 {

@@ -29,10 +29,11 @@ use crate::design::DesignRequest;
 use crate::design::design_single;
 use crate::error::{Error, InputError};
 use crate::model::{Model, ModelKind};
+use crate::numeric::{NumericalError, check_amount, check_probability};
 use crate::plan::{
     Evaluation, SequentialLines, StagedPlan, aoql, evaluate, largest_asn, measures, quality_at_pa,
 };
-use crate::report::{format_quality, format_significant, words};
+use crate::report::{EvaluationReport, format_quality, format_significant, words};
 use crate::risk::RiskPair;
 use crate::source::{PlanSource, RecordedPlan, tool_version};
 use canvas::{BOLD_ID, Canvas, Face, Page, REGULAR_ID, Region, grey, rgb};
@@ -178,24 +179,28 @@ struct CurvePoint {
 
 /// The quality axis and the curve points of a plan: 241 even steps up to
 /// where Pa has fallen to 0.02 (or 1.2 p2 if that is further).
-fn curve_points(f: &Facts) -> (f64, Vec<CurvePoint>) {
+fn curve_points(f: &Facts) -> Result<(f64, Vec<CurvePoint>), NumericalError> {
     let consumer = f.request.risks.consumer();
     let x_max = nice_ceiling(quality_at_pa(&f.plan, &f.model, 0.02).max(consumer.quality * 1.2));
     let points = (0..=240)
         .map(|i| x_max * i as f64 / 240.0)
         .map(|v| v.max(x_max * 1e-6))
-        // One evaluation per point serves every curve.
+        // One evaluation per point serves every curve; a point out of its
+        // range stops the sheet rather than bend a curve.
         .map(|p| {
             let m = measures(&f.plan, &f.model, p);
-            CurvePoint {
+            check_probability(&format!("Pa at quality {p} on the OC curve"), m.pa)?;
+            check_probability(&format!("AOQ at quality {p} on the AOQ curve"), m.aoq)?;
+            check_amount(&format!("ASN at quality {p} on the ASN curve"), m.asn)?;
+            Ok(CurvePoint {
                 p,
                 pa: m.pa,
                 aoq: m.aoq,
                 asn: m.asn,
-            }
+            })
         })
-        .collect();
-    (x_max, points)
+        .collect::<Result<_, NumericalError>>()?;
+    Ok((x_max, points))
 }
 
 /// Renders the sheet of `source` (parsed from `text`, which is hashed);
@@ -232,7 +237,7 @@ pub fn render_sheet(
     let measured;
     let common = if source.is_variables() {
         measured = variables::Facts::gather(source, text, file_name)?;
-        variables::layout(&mut c, &measured, frame, ph - margin);
+        variables::layout(&mut c, &measured, frame, ph - margin)?;
         &measured.common
     } else {
         let request = source.request()?;
@@ -383,11 +388,12 @@ fn single_layout(
     // Charts take the height that the table and footer leave.
     let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
     let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
+    EvaluationReport::from(&evaluation).check()?;
     let table_h = measures_height(&evaluation, 4.2);
     let foot_top = margin + FOOT_H;
     let chart_h = (top - 4.0 - table_h - 3.0 - foot_top).min(85.0);
     let chart_w = (width - 6.0) / 2.0;
-    let (x_max, points) = curve_points(f);
+    let (x_max, points) = curve_points(f)?;
     let chart_top = top - chart_h;
     oc_chart(c, f, &points, x_max, left, chart_top, chart_w, chart_h);
     aoq_chart(
@@ -658,6 +664,7 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
     top -= STAGED_TITLE_H + GAP;
     let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
     let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
+    EvaluationReport::from(&evaluation).check()?;
     let table_h = measures_height(&evaluation, 3.9);
     let foot_top = margin + STAGED_FOOT_H;
     let risk_h = 20.0;
@@ -681,7 +688,7 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
 
     let chart_h = (top - GAP - table_h - GAP - foot_top).min(85.0);
     let chart_top = top - chart_h;
-    let (x_max, points) = curve_points(f);
+    let (x_max, points) = curve_points(f)?;
     match f.plan.sequential_lines() {
         Some(lines) => {
             // Three in a row, the decision chart widest.

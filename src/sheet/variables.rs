@@ -30,6 +30,7 @@ use super::{
 use crate::design::{SingleDesign, design_single};
 use crate::error::Error;
 use crate::model::Model;
+use crate::numeric::{NumericalError, check_probability};
 use crate::plan::{VariablesPlan, measures, quality_at_pa};
 use crate::report::words::CAUTION;
 use crate::source::PlanSource;
@@ -123,7 +124,15 @@ impl<'a> Facts<'a> {
 
 /// Lays out the variables page from `top` down; a block that does not fit
 /// is a fault on the canvas.
-pub(super) fn layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) {
+///
+/// # Errors
+/// [`NumericalError`] when a point of the OC curves is not a probability.
+pub(super) fn layout(
+    c: &mut Canvas,
+    f: &Facts,
+    frame: Frame,
+    mut top: f64,
+) -> Result<(), NumericalError> {
     let Frame {
         left,
         right,
@@ -180,9 +189,10 @@ pub(super) fn layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) {
         top - readings_h - GAP - chart_h,
         left_w,
         chart_h.max(20.0),
-    );
+    )?;
     let judge = words::judge_command(f.common.file_name);
     super::footer(c, &f.common, frame, foot_h, &caution, &judge);
+    Ok(())
 }
 
 /// The footer's height for `caution` (at 7 points across the page) and
@@ -624,7 +634,14 @@ fn quality_where(pa: impl Fn(f64) -> f64, lo: f64, target: f64) -> f64 {
 /// with sigma estimated), the attributes plan for comparison, the risk
 /// points, the legend; for two limits with sigma known, the qualities the
 /// process cannot reach shaded.
-fn oc_chart(c: &mut Canvas, f: &Facts, x: f64, y: f64, w: f64, h: f64) {
+fn oc_chart(
+    c: &mut Canvas,
+    f: &Facts,
+    x: f64,
+    y: f64,
+    w: f64,
+    h: f64,
+) -> Result<(), NumericalError> {
     let plan = &f.plan;
     let consumer = f.common.risks.consumer();
     let lowest = plan.spec().lowest_quality();
@@ -661,6 +678,16 @@ fn oc_chart(c: &mut Canvas, f: &Facts, x: f64, y: f64, w: f64, h: f64) {
             .map(|p| (p, measures(a, &f.model, p).pa))
             .collect()
     });
+    // A point out of its range stops the sheet rather than bend a curve.
+    for (name, curve) in [
+        ("variables OC", &variables),
+        ("variables OC, mean centred", &centred_curve),
+        ("attributes OC", &attributes_curve),
+    ] {
+        for &(p, pa) in curve.iter() {
+            check_probability(&format!("Pa at quality {p} on the {name} curve"), pa)?;
+        }
+    }
     let axis = quality_tick(false);
     let prob = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
     // A little room above Pa = 1 for the producer's point's label, which
@@ -776,4 +803,5 @@ fn oc_chart(c: &mut Canvas, f: &Facts, x: f64, y: f64, w: f64, h: f64) {
     avoid.extend(shifted.iter().map(|v| v.as_slice()));
     let marks = risk_marks(&f.common);
     chart::marks(c, &plot, &marks, None, None, &avoid, &[legend]);
+    Ok(())
 }
