@@ -77,11 +77,13 @@ fn write_with(
         Some(d) if !d.as_os_str().is_empty() => d,
         _ => Path::new("."),
     };
-    let mut tmp = tempfile::Builder::new()
-        .prefix(".lotsman-")
-        .suffix(".tmp")
-        .tempfile_in(dir)
-        .map_err(io)?;
+    let mut builder = tempfile::Builder::new();
+    builder.prefix(".lotsman-").suffix(".tmp");
+    // A temporary file is private (0600) by default; the file it becomes
+    // gets the permissions any new file gets (0666 less the umask).
+    #[cfg(unix)]
+    builder.permissions(std::os::unix::fs::PermissionsExt::from_mode(0o666));
+    let mut tmp = builder.tempfile_in(dir).map_err(io)?;
     fill(tmp.as_file_mut()).map_err(io)?;
     tmp.as_file().sync_all().map_err(io)?;
     let persisted = match overwrite {
@@ -167,6 +169,19 @@ mod tests {
         write_atomic(&target, b"new", Overwrite::Replace).unwrap();
         assert_eq!(std::fs::read(&target).unwrap(), b"new");
         assert_eq!(names(dir.path()), ["plan.yaml"]);
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn a_written_file_has_the_permissions_of_any_new_file() {
+        use std::os::unix::fs::PermissionsExt;
+        let dir = tempfile::tempdir().unwrap();
+        let plain = dir.path().join("plain.pdf");
+        std::fs::write(&plain, b"%PDF").unwrap();
+        let atomic = dir.path().join("atomic.pdf");
+        write_atomic(&atomic, b"%PDF", Overwrite::Refuse).unwrap();
+        let mode = |p: &Path| std::fs::metadata(p).unwrap().permissions().mode() & 0o777;
+        assert_eq!(mode(&atomic), mode(&plain));
     }
 
     #[test]
