@@ -1,26 +1,201 @@
 //! The one way this crate writes a file: into a temporary file in the target's
-//! own folder, flushed to disk, then renamed over the target. A failed run
-//! leaves the target as it was, never half-written.
+//! own folder, flushed to disk, then renamed over the target, and the folder
+//! flushed after the rename. A failed or killed run leaves the target as it
+//! was, never half-written; the only trace a killed run can leave is a hidden
+//! temporary file (`.lotsman-*.tmp`), which the batch commands skip.
+//!
+//! No other code of the crate opens a file for writing (`tests/writes.rs`
+//! scans the source tree for it).
 
+use std::fs::File;
 use std::io::Write;
 use std::path::Path;
 
-/// Writes `bytes` to `path` atomically.
+use crate::error::SourceError;
+
+/// Whether a write may replace a file that is already at its target.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Overwrite {
+    /// Write only where nothing exists yet; an existing target is
+    /// [`SourceError::Exists`] (the command-line default).
+    Refuse,
+    /// Replace an existing file (`--force`).
+    Replace,
+}
+
+impl Overwrite {
+    /// [`Overwrite::Replace`] when `force` is set.
+    pub fn from_force(force: bool) -> Self {
+        if force {
+            Overwrite::Replace
+        } else {
+            Overwrite::Refuse
+        }
+    }
+}
+
+/// Writes `bytes` to `path` atomically: a temporary file in the same folder
+/// is written and synced to disk, then renamed to `path` (with
+/// [`Overwrite::Refuse`], by a rename that fails when `path` exists, so no
+/// file that appears meanwhile is replaced either), and the folder is
+/// synced so that the rename survives a power cut where the platform
+/// allows it (Unix).
+///
+/// ```
+/// use lotsman::{Overwrite, write_atomic};
+/// let dir = tempfile::tempdir().unwrap();
+/// let path = dir.path().join("plan.yaml");
+/// write_atomic(&path, b"first", Overwrite::Refuse).unwrap();
+/// assert!(write_atomic(&path, b"second", Overwrite::Refuse).is_err());
+/// write_atomic(&path, b"second", Overwrite::Replace).unwrap();
+/// assert_eq!(std::fs::read(&path).unwrap(), b"second");
+/// ```
 ///
 /// # Errors
-/// The I/O error of creating, writing, syncing or renaming the temporary
-/// file; the target is untouched in every case.
-pub fn write_atomic(path: &Path, bytes: &[u8]) -> std::io::Result<()> {
+/// [`SourceError::Exists`] when `path` exists and `overwrite` is
+/// [`Overwrite::Refuse`]; [`SourceError::Io`] (naming `path`) when the
+/// temporary file cannot be created, written, synced or renamed. In these
+/// cases the target is untouched and the temporary file is removed. When
+/// only the final sync of the folder fails, the target already holds the
+/// new bytes and the error says that the rename may not be on disk yet.
+pub fn write_atomic(path: &Path, bytes: &[u8], overwrite: Overwrite) -> Result<(), SourceError> {
+    write_with(path, overwrite, |file| file.write_all(bytes))
+}
+
+/// [`write_atomic`] with the temporary file's contents written by `fill`,
+/// so that the unit tests can make the writing itself fail.
+fn write_with(
+    path: &Path,
+    overwrite: Overwrite,
+    fill: impl FnOnce(&mut File) -> std::io::Result<()>,
+) -> Result<(), SourceError> {
+    let io = |source| SourceError::Io {
+        path: path.to_path_buf(),
+        source,
+    };
     let dir = match path.parent() {
         Some(d) if !d.as_os_str().is_empty() => d,
         _ => Path::new("."),
     };
-    let mut tmp = tempfile::Builder::new()
-        .prefix(".lotsman-")
-        .suffix(".tmp")
-        .tempfile_in(dir)?;
-    tmp.write_all(bytes)?;
-    tmp.as_file().sync_all()?;
-    tmp.persist(path).map_err(|e| e.error)?;
+    let mut builder = tempfile::Builder::new();
+    builder.prefix(".lotsman-").suffix(".tmp");
+    // A temporary file is private (0600) by default; the file it becomes
+    // gets the permissions any new file gets (0666 less the umask).
+    #[cfg(unix)]
+    builder.permissions(std::os::unix::fs::PermissionsExt::from_mode(0o666));
+    let mut tmp = builder.tempfile_in(dir).map_err(io)?;
+    fill(tmp.as_file_mut()).map_err(io)?;
+    tmp.as_file().sync_all().map_err(io)?;
+    let persisted = match overwrite {
+        Overwrite::Replace => tmp.persist(path),
+        Overwrite::Refuse => tmp.persist_noclobber(path),
+    };
+    // A failed rename drops the temporary file with the error, which
+    // removes it.
+    persisted.map_err(|e| match e.error.kind() {
+        std::io::ErrorKind::AlreadyExists if overwrite == Overwrite::Refuse => {
+            SourceError::Exists {
+                path: path.to_path_buf(),
+            }
+        }
+        _ => io(e.error),
+    })?;
+    sync_folder(dir).map_err(|e| {
+        io(std::io::Error::new(
+            e.kind(),
+            format!("written, but its folder could not be synced to disk: {e}"),
+        ))
+    })
+}
+
+/// Flushes a folder's entries (the rename just made) to disk.
+#[cfg(unix)]
+fn sync_folder(dir: &Path) -> std::io::Result<()> {
+    File::open(dir)?.sync_all()
+}
+
+/// Other platforms give no handle on a folder to sync; the rename is as
+/// durable as the platform makes it.
+#[cfg(not(unix))]
+fn sync_folder(_dir: &Path) -> std::io::Result<()> {
     Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The names in `dir`, sorted.
+    fn names(dir: &Path) -> Vec<String> {
+        let mut v: Vec<String> = std::fs::read_dir(dir)
+            .unwrap()
+            .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+            .collect();
+        v.sort();
+        v
+    }
+
+    #[test]
+    fn a_failure_while_writing_keeps_the_existing_file_and_removes_the_temporary_one() {
+        let dir = tempfile::tempdir().unwrap();
+        let target = dir.path().join("sheet.pdf");
+        write_atomic(&target, b"the previous sheet", Overwrite::Refuse).unwrap();
+        for overwrite in [Overwrite::Refuse, Overwrite::Replace] {
+            let err = write_with(&target, overwrite, |f| {
+                f.write_all(b"half of a new")?;
+                Err(std::io::Error::other("the disk is full (injected)"))
+            })
+            .unwrap_err();
+            assert!(
+                matches!(&err, SourceError::Io { path, .. } if *path == target),
+                "{err}"
+            );
+            assert!(err.to_string().contains("injected"), "{err}");
+            assert_eq!(std::fs::read(&target).unwrap(), b"the previous sheet");
+            assert_eq!(names(dir.path()), ["sheet.pdf"]);
+        }
+    }
+
+    #[test]
+    fn an_existing_file_is_replaced_only_when_asked() {
+        let dir = tempfile::tempdir().unwrap();
+        let target = dir.path().join("plan.yaml");
+        std::fs::write(&target, b"kept").unwrap();
+        let err = write_atomic(&target, b"new", Overwrite::Refuse).unwrap_err();
+        assert!(matches!(err, SourceError::Exists { .. }), "{err}");
+        assert!(err.to_string().contains("--force"), "{err}");
+        assert_eq!(std::fs::read(&target).unwrap(), b"kept");
+        assert_eq!(names(dir.path()), ["plan.yaml"]);
+        write_atomic(&target, b"new", Overwrite::Replace).unwrap();
+        assert_eq!(std::fs::read(&target).unwrap(), b"new");
+        assert_eq!(names(dir.path()), ["plan.yaml"]);
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn a_written_file_has_the_permissions_of_any_new_file() {
+        use std::os::unix::fs::PermissionsExt;
+        let dir = tempfile::tempdir().unwrap();
+        let plain = dir.path().join("plain.pdf");
+        std::fs::write(&plain, b"%PDF").unwrap();
+        let atomic = dir.path().join("atomic.pdf");
+        write_atomic(&atomic, b"%PDF", Overwrite::Refuse).unwrap();
+        let mode = |p: &Path| std::fs::metadata(p).unwrap().permissions().mode() & 0o777;
+        assert_eq!(mode(&atomic), mode(&plain));
+    }
+
+    #[test]
+    fn a_failed_rename_leaves_the_folder_as_it_was() {
+        // A folder in the target's place: even with Replace, a file cannot
+        // be renamed over it (and this fails for root too).
+        let dir = tempfile::tempdir().unwrap();
+        let target = dir.path().join("out.pdf");
+        std::fs::create_dir(&target).unwrap();
+        std::fs::write(target.join("inside.txt"), b"inside").unwrap();
+        for overwrite in [Overwrite::Refuse, Overwrite::Replace] {
+            assert!(write_atomic(&target, b"%PDF", overwrite).is_err());
+            assert_eq!(names(dir.path()), ["out.pdf"]);
+            assert_eq!(names(&target), ["inside.txt"]);
+        }
+    }
 }

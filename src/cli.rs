@@ -175,9 +175,12 @@ pub struct DesignArgs {
     /// Output format on stdout
     #[arg(long, value_enum, default_value = "table")]
     pub format: DesignFormat,
-    /// Write the solved plan source to this file (atomically)
+    /// Write the solved plan source to this file (atomically; never over the source read)
     #[arg(long, value_name = "FILE.yaml")]
     pub output: Option<PathBuf>,
+    /// Let --output replace a file that exists already
+    #[arg(long, requires = "output")]
+    pub force: bool,
 }
 
 #[derive(Debug, Args)]
@@ -318,6 +321,9 @@ pub struct TradeoffArgs {
     /// Write the output to this file (atomically) instead of stdout; required for pdf
     #[arg(long, value_name = "FILE")]
     pub output: Option<PathBuf>,
+    /// Let --output replace a file that exists already
+    #[arg(long, requires = "output")]
+    pub force: bool,
     /// Paper size of the pdf heat map (printed landscape)
     #[arg(long, value_enum, default_value = "a4")]
     pub paper: PaperArg,
@@ -345,6 +351,13 @@ pub struct SheetArgs {
     /// Paper size
     #[arg(long, value_enum, default_value = "a4")]
     pub paper: PaperArg,
+    /// Replace PDFs that exist already (without it, a source whose PDF exists is refused)
+    #[arg(long)]
+    pub force: bool,
+    /// Print a recorded plan that differs from a re-solve or no longer meets its risk
+    /// points, with the discrepancy stated on the sheet (without it, such a source is refused)
+    #[arg(long)]
+    pub accept_recorded: bool,
 }
 
 #[derive(Debug, Args)]
@@ -359,6 +372,10 @@ pub struct DemoArgs {
     /// Folder for the demo's plan sources, OC tables and sheets
     #[arg(long, value_name = "DIR", default_value = "lotsman-demo")]
     pub output_dir: PathBuf,
+    /// Replace files of the demo that exist already in the folder (without it, the
+    /// demo writes nothing when one exists)
+    #[arg(long)]
+    pub force: bool,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]

@@ -9,7 +9,7 @@
 
 use std::path::{Path, PathBuf};
 
-use crate::atomic::write_atomic;
+use crate::atomic::{Overwrite, write_atomic};
 use crate::error::{Error, SourceError};
 use crate::plan::{
     Decision, aoql, default_qualities, evaluate, evaluate_variables, judge_measurements,
@@ -82,52 +82,56 @@ pub struct DemoRow {
     pub judged: Option<String>,
 }
 
-/// Runs the demo into `dir` (created if missing).
+/// Runs the demo into `dir` (created if missing). Every file is made
+/// before the first is written, and with [`Overwrite::Refuse`] the demo
+/// writes nothing when any of them exists already.
 ///
 /// # Errors
-/// [`Error`] when a demo source does not load (a build defect) or a file
-/// cannot be written.
-pub fn run_demo(dir: &Path) -> Result<Vec<DemoRow>, Error> {
+/// [`Error`] when a demo source does not load (a build defect), a file
+/// exists and `overwrite` refuses ([`SourceError::Exists`], naming the
+/// first), or a file cannot be written.
+pub fn run_demo(dir: &Path, overwrite: Overwrite) -> Result<Vec<DemoRow>, Error> {
     std::fs::create_dir_all(dir).map_err(|e| SourceError::Io {
         path: dir.to_path_buf(),
         source: e,
     })?;
     let mut rows = Vec::new();
+    let mut files = Vec::new();
     for (name, text) in DEMO_PLANS {
         let source = PlanSource::from_yaml(text, Path::new(name))?;
         let verified = verify(&source)? == Verdict::Match;
         let (mut row, csv) = if source.is_variables() {
-            variables_row(&source, name, dir)?
+            variables_row(&source, name)?
         } else {
             attributes_row(&source, name)?
         };
-        let source_path = dir.join(name);
-        let csv_path = dir.join(name.replace(".yaml", "-oc.csv"));
-        let sheet_path = dir.join(name.replace(".yaml", ".pdf"));
         let sheet = crate::sheet::render_sheet(text, &source, name, crate::sheet::Paper::A4)?;
-        for (path, bytes) in [
-            (&source_path, source.to_yaml().into_bytes()),
-            (&csv_path, csv),
-            (&sheet_path, sheet.pdf),
-        ] {
-            write(path, &bytes)?;
+        let mut mine = vec![
+            (name.to_string(), source.to_yaml().into_bytes()),
+            (name.replace(".yaml", "-oc.csv"), csv),
+            (name.replace(".yaml", ".pdf"), sheet.pdf),
+        ];
+        let (readings_name, readings, _) = DEMO_READINGS;
+        if row.judged.is_some() {
+            mine.push((readings_name.to_string(), readings.as_bytes().to_vec()));
         }
         row.verified = verified;
-        row.written
-            .splice(0..0, [source_path, csv_path, sheet_path]);
+        row.written = mine.iter().map(|(file, _)| dir.join(file)).collect();
+        files.extend(
+            mine.into_iter()
+                .map(|(file, bytes)| (dir.join(file), bytes)),
+        );
         rows.push(row);
     }
+    if overwrite == Overwrite::Refuse
+        && let Some((path, _)) = files.iter().find(|(path, _)| path.exists())
+    {
+        return Err(SourceError::Exists { path: path.clone() }.into());
+    }
+    for (path, bytes) in &files {
+        write_atomic(path, bytes, overwrite)?;
+    }
     Ok(rows)
-}
-
-fn write(path: &Path, bytes: &[u8]) -> Result<(), Error> {
-    write_atomic(path, bytes).map_err(|e| {
-        SourceError::Io {
-            path: path.to_path_buf(),
-            source: e,
-        }
-        .into()
-    })
 }
 
 /// The row and OC table of an attributes plan.
@@ -158,8 +162,8 @@ fn attributes_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>),
 }
 
 /// The row and OC table of a variables plan, with its demo lot judged
-/// (the readings are written beside the source).
-fn variables_row(source: &PlanSource, name: &str, dir: &Path) -> Result<(DemoRow, Vec<u8>), Error> {
+/// when the demo has readings for it (they are written beside the source).
+fn variables_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>), Error> {
     let request = source.variables_request()?;
     let plan = source.recorded_variables_plan(request.spec())?;
     let qualities = variables_qualities(&plan, request.risks());
@@ -169,12 +173,8 @@ fn variables_row(source: &PlanSource, name: &str, dir: &Path) -> Result<(DemoRow
     report.check()?;
     Csv.variables_evaluation(&mut csv, &report)?;
     let (readings_name, readings, column) = DEMO_READINGS;
-    let mut written = Vec::new();
     let mut judged = None;
     if readings_name.starts_with(&name.replace(".yaml", "")) {
-        let path = dir.join(readings_name);
-        write(&path, readings.as_bytes())?;
-        written.push(path);
         let values = parse_measurements(readings, Some(column))?;
         let j = judge_measurements(&plan, &values, request.risks().producer().quality)?;
         let mut verdict = format!(
@@ -202,7 +202,7 @@ fn variables_row(source: &PlanSource, name: &str, dir: &Path) -> Result<(DemoRow
             risks: recorded_risks(source),
             aoql: (evaluation.aoql.value, evaluation.aoql.quality),
             verified: false,
-            written,
+            written: Vec::new(),
             judged,
         },
         csv,

@@ -127,6 +127,24 @@ pub enum SourceError {
         /// Why.
         source: DesignError,
     },
+    /// The recorded plan differs from a re-solve of its risk points, or no
+    /// longer meets them, and printing it as recorded was not asked for.
+    #[error(
+        "{path}: {discrepancy}; re-solve it with: lotsman design {path} --output NEW.yaml, or print it as recorded, the discrepancy stated on the sheet, with --accept-recorded"
+    )]
+    Unconfirmed {
+        /// The source.
+        path: PathBuf,
+        /// What the audit found.
+        discrepancy: crate::source::Discrepancy,
+    },
+    /// A file to be written exists already, and replacing it was not asked
+    /// for.
+    #[error("{path} already exists; give --force to replace it (nothing was written)")]
+    Exists {
+        /// The existing file.
+        path: PathBuf,
+    },
 }
 
 /// A path of a batch that yields no plan source to work on, or a sheet

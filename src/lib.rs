@@ -61,7 +61,7 @@ mod sheet;
 mod source;
 mod templates;
 
-pub use atomic::write_atomic;
+pub use atomic::{Overwrite, write_atomic};
 pub use batch::{
     SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target, sheet_targets,
     verify_file,
@@ -113,6 +113,8 @@ pub use sheet::{
     ContourLabel, HASH_PREFIX, MapContour, MapPanel, MapQuantity, Paper, Sheet, TradeoffMap,
     render_sheet, render_tradeoff_map, sheet_source_hash, source_hash, write_sheet,
 };
+pub use sheet::{SheetOptions, render_sheet_noting};
+pub use source::{Audit, Discrepancy, RISK_TOLERANCE, UnmetPoint, audit};
 pub use source::{
     Difference, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan, RecordedVariables,
     SCHEMA_VERSION, VariablesSource, Verdict, tool_version, verify,

@@ -27,13 +27,13 @@ use cli::{
     ReportFormatArg, SchemeArg, SigmaArg, TradeoffFormat, TradeoffSchemeArg,
 };
 use lotsman::{
-    BatchSummary, Criterion, Csv, Decision, DesignReport, DesignRequest, Error,
+    BatchSummary, Criterion, Csv, Decision, DesignReport, DesignRequest, Discrepancy, Error,
     EvaluationBatchReport, EvaluationEntry, EvaluationReport, InputError, Json, LimitKind,
-    MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Paper, PlanSource, QualityRange,
-    ReportFormat, RiskPair, RiskPoint, Scheme, SchemeOptions, SigmaKind, SourceError,
-    SourceEvaluation, SourceFile, Specification, StagedPlan, Steps, Table, TradeoffReport,
-    TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry,
-    VerifyStatus, default_qualities, evaluate, evaluate_source, expand_paths, judge,
+    MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Overwrite, Paper, PlanSource,
+    QualityRange, ReportFormat, RiskPair, RiskPoint, Scheme, SchemeOptions, SheetOptions,
+    SigmaKind, SourceError, SourceEvaluation, SourceFile, Specification, StagedPlan, Steps, Table,
+    TradeoffReport, TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport,
+    VerifyEntry, VerifyStatus, default_qualities, evaluate, evaluate_source, expand_paths, judge,
     judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_fraction_list,
     parse_measurements, parse_number, parse_stage, render_tradeoff_map, run_demo, run_in_parallel,
     sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve, solve_variables,
@@ -71,7 +71,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             )
             .into()),
         },
-        Command::Demo(args) => demo(&args.output_dir),
+        Command::Demo(args) => demo(&args.output_dir, Overwrite::from_force(args.force)),
         Command::Tradeoff(args) => tradeoff_cmd(args),
         Command::Sheet(args) => sheet_cmd(args),
         Command::Judge(args) => judge_cmd(args),
@@ -319,10 +319,7 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
     };
     match &args.output {
         Some(path) => {
-            write_atomic(path, &text).map_err(|e| SourceError::Io {
-                path: path.clone(),
-                source: e,
-            })?;
+            write_atomic(path, &text, Overwrite::from_force(args.force))?;
             eprintln!("lotsman: wrote {}", path.display());
         }
         None => print_out(&text)?,
@@ -368,14 +365,16 @@ fn design_error(args: &cli::DesignArgs, e: lotsman::DesignError) -> Error {
     }
 }
 
-/// Writes the solved source to `--output`, if given.
+/// Writes the solved source to `--output`, if given: never over the
+/// source read, and over another file only with `--force`.
 fn write_source(args: &cli::DesignArgs, source: &PlanSource) -> Result<(), Error> {
     if let Some(target) = &args.output {
         refuse_overwriting_input(target, args.source.as_deref())?;
-        write_atomic(target, source.to_yaml().as_bytes()).map_err(|e| SourceError::Io {
-            path: target.clone(),
-            source: e,
-        })?;
+        write_atomic(
+            target,
+            source.to_yaml().as_bytes(),
+            Overwrite::from_force(args.force),
+        )?;
         eprintln!("lotsman: wrote plan source {}", target.display());
     }
     Ok(())
@@ -487,20 +486,37 @@ fn refuse_variables_flags(args: &cli::DesignArgs) -> Result<(), InputError> {
     Ok(())
 }
 
-/// `--output` never replaces the source that was read.
+/// `--output` never replaces the source that was read, even with
+/// `--force`.
 fn refuse_overwriting_input(target: &Path, input: Option<&Path>) -> Result<(), InputError> {
     let Some(input) = input else { return Ok(()) };
-    let same = match (std::fs::canonicalize(target), std::fs::canonicalize(input)) {
-        (Ok(a), Ok(b)) => a == b,
-        _ => false,
-    };
-    if same {
+    if same_file(target, input) {
         return Err(InputError::Inconsistent(format!(
             "--output {} is the plan source being read; write to a new file and compare before replacing it",
             target.display()
         )));
     }
     Ok(())
+}
+
+/// Whether two paths name one existing file: through links, and on Unix
+/// through another hard link too (the same device and inode).
+fn same_file(a: &Path, b: &Path) -> bool {
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::MetadataExt;
+        match (std::fs::metadata(a), std::fs::metadata(b)) {
+            (Ok(x), Ok(y)) => x.dev() == y.dev() && x.ino() == y.ino(),
+            _ => false,
+        }
+    }
+    #[cfg(not(unix))]
+    {
+        match (std::fs::canonicalize(a), std::fs::canonicalize(b)) {
+            (Ok(x), Ok(y)) => x == y,
+            _ => false,
+        }
+    }
 }
 
 /// The qualities of `--at` and `--range`, in that order.
@@ -874,7 +890,11 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
 }
 
 fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
-    let paper = paper_from(args.paper);
+    let options = SheetOptions {
+        paper: paper_from(args.paper),
+        accept_recorded: args.accept_recorded,
+        overwrite: Overwrite::from_force(args.force),
+    };
     let output_dir = args.output_dir.as_deref();
     let batch = args.sources.len() > 1 || args.sources.iter().any(|p| p.is_dir());
     if !batch {
@@ -889,7 +909,8 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
                 sheet_target(&named, output_dir)
             }
         };
-        write_one_sheet(source, &out, paper, output_dir.is_some())?;
+        let accepted = write_one_sheet(source, &out, &options, output_dir.is_some())?;
+        warn_accepted(source, accepted.as_ref());
         eprintln!("lotsman: wrote sheet {}", out.display());
         return Ok(ExitCode::SUCCESS);
     }
@@ -903,31 +924,47 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
     let planned = sheet_targets(expand_paths(&args.sources), output_dir);
     let results = run_batch(&planned, "sheets written", |entry| match entry {
         Ok((source, target)) => (
-            source.path.display().to_string(),
-            write_one_sheet(&source.path, target, paper, output_dir.is_some())
+            source.path.clone(),
+            write_one_sheet(&source.path, target, &options, output_dir.is_some())
                 .map_err(|e| e.to_string()),
         ),
-        Err(e) => (e.path().display().to_string(), Err(e.to_string())),
+        Err(e) => (e.path().to_path_buf(), Err(e.to_string())),
     });
     let mut summary = BatchSummary::new("written", false);
     for (path, result) in &results {
+        let shown = path.display().to_string();
         match result {
-            Ok(()) => summary.push(path, Outcome::Ok, ""),
-            Err(message) => summary.push(path, Outcome::Invalid, message),
+            Ok(accepted) => {
+                warn_accepted(path, accepted.as_ref());
+                summary.push(&shown, Outcome::Ok, "");
+            }
+            Err(message) => summary.push(&shown, Outcome::Invalid, message),
         }
     }
     print_out(summary.to_string().as_bytes())?;
     Ok(exit_code(summary.worst()))
 }
 
+/// The warning on stderr for a sheet printed with a discrepancy at the
+/// user's request: the sheet states it, and so does the terminal.
+fn warn_accepted(source: &Path, accepted: Option<&Discrepancy>) {
+    if let Some(d) = accepted {
+        eprintln!(
+            "lotsman: warning: {}: {d}; printed as recorded (--accept-recorded), with the discrepancy stated on the sheet",
+            source.display()
+        );
+    }
+}
+
 /// Writes the sheet of `source` to `target`, never over the source itself;
 /// with `make_folders` (an output folder) the target's folders are created.
+/// Returns the discrepancy of a plan printed as recorded.
 fn write_one_sheet(
     source: &Path,
     target: &Path,
-    paper: Paper,
+    options: &SheetOptions,
     make_folders: bool,
-) -> Result<(), Error> {
+) -> Result<Option<Discrepancy>, Error> {
     refuse_overwriting_input(target, Some(source))?;
     if make_folders && let Some(folder) = target.parent() {
         std::fs::create_dir_all(folder).map_err(|e| SourceError::Io {
@@ -935,11 +972,11 @@ fn write_one_sheet(
             source: e,
         })?;
     }
-    write_sheet(source, target, paper)
+    write_sheet(source, target, options)
 }
 
-fn demo(dir: &Path) -> Result<ExitCode, Error> {
-    let rows = run_demo(dir)?;
+fn demo(dir: &Path, overwrite: Overwrite) -> Result<ExitCode, Error> {
+    let rows = run_demo(dir, overwrite)?;
     let mut out = String::new();
     out.push_str(
         "lotsman demo: Tarnwick Pump Works, receiving inspection (an invented scenario)\n\n",

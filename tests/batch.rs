@@ -420,12 +420,23 @@ fn sheet_of_a_folder_mirrors_its_subfolders_and_refuses_a_second_sheet_of_one_na
 fn sheet_of_a_folder_without_an_output_folder_writes_beside_each_source() {
     let dir = plan_folder();
     let root = dir.path();
-    let printed = stdout_of(&["sheet", root.join("east").to_str().unwrap()], 0);
-    assert_eq!(printed.lines().last(), Some("3 written, 0 invalid"));
-    // edited.yaml is a valid source with a wrong plan: it still prints.
-    for name in ["seal", "edited", "deeper/impeller"] {
+    let printed = stdout_of(&["sheet", root.join("east").to_str().unwrap()], 2);
+    // edited.yaml is a valid source whose plan a re-solve does not
+    // confirm: refused, and the others are printed.
+    let lines: Vec<&str> = printed.lines().collect();
+    assert_eq!(lines.len(), 2, "{printed}");
+    assert!(
+        lines[0].starts_with(&format!(
+            "invalid   {}: recorded plan differs from a re-solve: plan.stages[0].n: recorded 150, re-solved 166",
+            root.join("east/edited.yaml").display()
+        )),
+        "{printed}"
+    );
+    assert_eq!(lines[1], "2 written, 1 invalid");
+    for name in ["seal", "deeper/impeller"] {
         assert!(root.join(format!("east/{name}.pdf")).exists(), "{name}");
     }
+    assert!(!root.join("east/edited.pdf").exists());
 }
 
 #[test]
@@ -604,7 +615,11 @@ fn a_batch_off_a_terminal_writes_nothing_on_stderr() {
     }
     let few = plan_folder();
     lotsman()
-        .args(["sheet", few.path().join("east").to_str().unwrap()])
+        .args([
+            "sheet",
+            few.path().join("east/seal.yaml").to_str().unwrap(),
+            few.path().join("east/deeper").to_str().unwrap(),
+        ])
         .assert()
         .success()
         .stderr("");

@@ -176,10 +176,7 @@ impl VerificationReport {
                         1 => " (and 1 more difference)".to_string(),
                         n => format!(" (and {n} more differences)"),
                     };
-                    format!(
-                        "{}: recorded {}, re-solved {}{more}",
-                        d.field, d.recorded, d.resolved
-                    )
+                    format!("{d}{more}")
                 }
                 (None, None) => String::new(),
             };

@@ -25,6 +25,7 @@ mod variables_text;
 
 use sha2::{Digest, Sha256};
 
+use crate::atomic::{Overwrite, write_atomic};
 use crate::design::DesignRequest;
 use crate::design::design_single;
 use crate::error::{Error, InputError};
@@ -35,7 +36,7 @@ use crate::plan::{
 };
 use crate::report::{EvaluationReport, format_quality, format_significant, words};
 use crate::risk::RiskPair;
-use crate::source::{PlanSource, RecordedPlan, tool_version};
+use crate::source::{Discrepancy, PlanSource, RecordedPlan, attributes_risks, audit, tool_version};
 use canvas::{BOLD_ID, Canvas, Face, Page, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
 pub use heatmap::{
@@ -92,6 +93,13 @@ struct Common<'a> {
     source: &'a PlanSource,
     recorded: &'a RecordedPlan,
     risks: RiskPair,
+    /// The producer's and consumer's risks the printed plan achieves,
+    /// computed from the plan (the risk table and the OC chart's marks
+    /// print these, so they always belong to the plan on the page).
+    achieved: (f64, f64),
+    /// The statement of a discrepancy the audit found, on a sheet printed
+    /// as recorded at the user's request.
+    notice: Option<String>,
     lot_size: Option<u64>,
     /// The title block's scheme field.
     scheme: String,
@@ -110,6 +118,7 @@ impl<'a> Common<'a> {
         risks: RiskPair,
         model: &Model,
         scheme: String,
+        achieved: (f64, f64),
     ) -> Result<Self, InputError> {
         let recorded = source
             .plan
@@ -119,6 +128,8 @@ impl<'a> Common<'a> {
             source,
             recorded,
             risks,
+            achieved,
+            notice: None,
             lot_size: model.lot_size(),
             scheme,
             per_unit: model.kind() == ModelKind::Poisson,
@@ -132,9 +143,9 @@ impl<'a> Common<'a> {
         format_quality(v, self.per_unit)
     }
 
-    /// Pa at the producer's point, as the source records it.
+    /// Pa at the producer's point, as the printed plan achieves it.
     fn pa_at_p1(&self) -> f64 {
-        1.0 - self.recorded.producer_risk
+        1.0 - self.achieved.0
     }
 }
 
@@ -206,6 +217,12 @@ fn curve_points(f: &Facts) -> Result<(f64, Vec<CurvePoint>), NumericalError> {
 /// Renders the sheet of `source` (parsed from `text`, which is hashed);
 /// `file_name` is printed in the provenance line.
 ///
+/// This prints the plan the source records as it is, and the risks that
+/// plan achieves (computed from it). It does not re-solve the source:
+/// [`write_sheet`], which the `sheet` command uses, audits the source first
+/// and refuses a plan that the audit does not confirm, or prints it with
+/// [`render_sheet_noting`].
+///
 /// # Errors
 /// [`Error`] when the source records no plan or the plan is invalid, or
 /// when a text does not fit its box even at the smallest size, holds a
@@ -216,6 +233,38 @@ pub fn render_sheet(
     source: &PlanSource,
     file_name: &str,
     paper: Paper,
+) -> Result<Sheet, Error> {
+    render(text, source, file_name, paper, None)
+}
+
+/// [`render_sheet`] for a recorded plan that the [`audit`] did not confirm,
+/// printed at the user's request: a boxed notice above the plan states the
+/// `discrepancy` and that the plan is printed as recorded, and the
+/// provenance line's command carries `--accept-recorded`.
+///
+/// # Errors
+/// As [`render_sheet`]; the notice, too, must fit its box.
+pub fn render_sheet_noting(
+    text: &str,
+    source: &PlanSource,
+    file_name: &str,
+    paper: Paper,
+    discrepancy: &Discrepancy,
+) -> Result<Sheet, Error> {
+    let found = discrepancy.brief(NOTICE_FIELDS);
+    let mut chars = found.chars();
+    let first = chars.next().map(|ch| ch.to_uppercase().to_string());
+    let notice = format!("{}{}.", first.unwrap_or_default(), chars.as_str());
+    render(text, source, file_name, paper, Some(notice))
+}
+
+/// The sheet of `source`, with the `notice` of an unconfirmed plan if any.
+fn render(
+    text: &str,
+    source: &PlanSource,
+    file_name: &str,
+    paper: Paper,
+    notice: Option<String>,
 ) -> Result<Sheet, Error> {
     let regular = printpdf::ParsedFont::from_bytes(REGULAR_TTF, 0, &mut Vec::new());
     let bold = printpdf::ParsedFont::from_bytes(BOLD_TTF, 0, &mut Vec::new());
@@ -234,18 +283,37 @@ pub fn render_sheet(
         margin,
     };
     let attributes;
-    let measured;
+    let mut measured;
     let common = if source.is_variables() {
         measured = variables::Facts::gather(source, text, file_name)?;
+        measured.common.notice = notice;
         variables::layout(&mut c, &measured, frame, ph - margin)?;
+        if measured.common.notice.is_some() && !c.faults.is_empty() && !measured.on_log() {
+            // The notice can leave the readings table no room: the
+            // readings then go on a separate log, as a large sample's do.
+            measured.displaced = true;
+            c = Canvas::new(&regular, &bold);
+            variables::layout(&mut c, &measured, frame, ph - margin)?;
+        }
         &measured.common
     } else {
         let request = source.request()?;
         let model = request.model;
         let plan = source.recorded_plan(&model)?;
         let scheme = format!("{}, {}", source.scheme.name(), model.kind().name());
+        let achieved = attributes_risks(&plan, &model, &request.risks);
+        let mut common = Common::new(
+            source,
+            text,
+            file_name,
+            request.risks,
+            &model,
+            scheme,
+            achieved,
+        )?;
+        common.notice = notice;
         attributes = Facts {
-            common: Common::new(source, text, file_name, request.risks, &model, scheme)?,
+            common,
             request,
             model,
             plan,
@@ -375,9 +443,15 @@ fn single_layout(
         width,
         margin,
     } = frame;
-    let title_h = 40.0;
+    // A notice takes its room from the title block and the footer, which
+    // then have the staged sheets' heights.
+    let (title_h, foot_h) = match f.common.notice {
+        Some(_) => (STAGED_TITLE_H, STAGED_FOOT_H),
+        None => (40.0, FOOT_H),
+    };
     title_block(c, &f.common, left, top, width, title_h);
     top -= title_h + 4.0;
+    top -= notice_block(c, &f.common, left, top, width, NOTICE_LINES);
     let plan_h = 42.0;
     single_plan_box(c, f, left, top, width, plan_h, n, ac);
     top -= plan_h + 4.0;
@@ -390,7 +464,7 @@ fn single_layout(
     let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
     EvaluationReport::from(&evaluation).check()?;
     let table_h = measures_height(&evaluation, 4.2);
-    let foot_top = margin + FOOT_H;
+    let foot_top = margin + foot_h;
     let chart_h = (top - 4.0 - table_h - 3.0 - foot_top).min(85.0);
     let chart_w = (width - 6.0) / 2.0;
     let (x_max, points) = curve_points(f)?;
@@ -412,7 +486,7 @@ fn single_layout(
     measures_table(c, f, &evaluation, left, top, table_w, table_h);
     let sig_x = left + table_w + 4.0;
     signatures(c, &f.common, sig_x, top, right - sig_x, table_h);
-    footer(c, &f.common, frame, FOOT_H, words::CAUTION, "");
+    footer(c, &f.common, frame, foot_h, words::CAUTION, "");
     if chart_h < MIN_CHART_H || top - table_h < foot_top + 2.0 {
         c.faults
             .push("the page is too short for its blocks".to_string());
@@ -504,6 +578,89 @@ fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, bloc
             5.5,
         );
     }
+}
+
+/// The most differing fields the notice lists (the rest are counted).
+const NOTICE_FIELDS: usize = 2;
+
+/// The most lines of a notice across the page.
+const NOTICE_LINES: usize = 4;
+
+/// The notice's type size.
+const NOTICE_SIZE: f64 = 7.0;
+
+/// The notice of a plan printed as recorded at the user's request: a red
+/// box `width` mm wide at `top`, its heading in bold red and the statement
+/// running on after it. Returns the height it takes with the gap below it
+/// (nothing without a notice); a notice of more than `max_lines` lines is
+/// an overflow.
+fn notice_block(
+    c: &mut Canvas,
+    f: &Common,
+    left: f64,
+    top: f64,
+    width: f64,
+    max_lines: usize,
+) -> f64 {
+    let Some(notice) = &f.notice else {
+        return 0.0;
+    };
+    let pad = 1.8;
+    let text_w = width - 2.0 * pad;
+    let head_w = c.width(text::NOTICE, Face::Bold, NOTICE_SIZE) + 1.2;
+    // The first line: the heading, then the words that fit beside it.
+    let words: Vec<&str> = notice.split_whitespace().collect();
+    let mut first = String::new();
+    let mut taken = 0;
+    for word in &words {
+        let candidate = if first.is_empty() {
+            word.to_string()
+        } else {
+            format!("{first} {word}")
+        };
+        if c.width(&candidate, Face::Regular, NOTICE_SIZE) > text_w - head_w {
+            break;
+        }
+        first = candidate;
+        taken += 1;
+    }
+    let rest = words[taken..].join(" ");
+    let lead = NOTICE_SIZE * 0.3528 * 1.25;
+    // More lines than the box holds are the paragraph's overflow below.
+    let lines = 1 + c.wrap(&rest, Face::Regular, NOTICE_SIZE, text_w).len();
+    let h = 2.0 * pad + lead * lines.min(max_lines) as f64;
+    c.claim("notice", left, top - h, width, h);
+    c.rect_fill(left, top - h, width, h, rgb(0.99, 0.92, 0.90));
+    c.rect_stroke(left, top - h, width, h, 1.4, reject_colour());
+    let baseline = top - pad - NOTICE_SIZE * 0.3528;
+    c.text(
+        left + pad,
+        baseline,
+        text::NOTICE,
+        Face::Bold,
+        NOTICE_SIZE,
+        reject_colour(),
+    );
+    c.text(
+        left + pad + head_w,
+        baseline,
+        &first,
+        Face::Regular,
+        NOTICE_SIZE,
+        grey(0.0),
+    );
+    c.paragraph(
+        "notice",
+        left + pad,
+        top - pad - lead,
+        text_w,
+        lead * max_lines.saturating_sub(1) as f64,
+        &rest,
+        Face::Regular,
+        NOTICE_SIZE,
+        NOTICE_SIZE,
+    );
+    h + GAP
 }
 
 /// The plan box's frame: a tinted box with a blue rule.
@@ -662,6 +819,7 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
     } = frame;
     title_block(c, &f.common, left, top, width, STAGED_TITLE_H);
     top -= STAGED_TITLE_H + GAP;
+    top -= notice_block(c, &f.common, left, top, width, NOTICE_LINES);
     let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
     let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
     EvaluationReport::from(&evaluation).check()?;
@@ -1496,7 +1654,7 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
         black(),
         None,
     );
-    let recorded = f.recorded;
+    let (alpha, beta) = f.achieved;
     let rows = [
         (
             text::PRODUCER_POINT,
@@ -1504,19 +1662,15 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
             format!("α ≤ {}", producer.risk),
             format!(
                 "α = {}  (Pa = {:.4})",
-                format_significant(recorded.producer_risk, 3),
-                1.0 - recorded.producer_risk
+                format_significant(alpha, 3),
+                1.0 - alpha
             ),
         ),
         (
             text::CONSUMER_POINT,
             f.q(consumer.quality),
             format!("β ≤ {}", consumer.risk),
-            format!(
-                "β = {}  (Pa = {:.4})",
-                format_significant(recorded.consumer_risk, 3),
-                recorded.consumer_risk
-            ),
+            format!("β = {}  (Pa = {:.4})", format_significant(beta, 3), beta),
         ),
     ];
     for (i, r) in rows.iter().enumerate() {
@@ -1543,12 +1697,12 @@ fn quality_tick(per_unit: bool) -> impl Fn(f64, f64) -> String {
     move |v: f64, step: f64| chart::tick_label(v, step, scale, suffix)
 }
 
-/// The two risk points as marks on an OC chart, at the Pa the source
-/// records.
+/// The two risk points as marks on an OC chart, at the Pa the printed
+/// plan achieves there.
 fn risk_marks(f: &Common) -> [Mark; 2] {
     let (producer, consumer) = (f.risks.producer(), f.risks.consumer());
     let pa1 = f.pa_at_p1();
-    let beta = f.recorded.consumer_risk;
+    let beta = f.achieved.1;
     [
         Mark {
             x: producer.quality,
@@ -1815,11 +1969,16 @@ fn footer(c: &mut Canvas, f: &Common, frame: Frame, foot_h: f64, caution: &str, 
     );
     let provenance = format!(
         "Generated by {} from {name} (SHA-256 {hash}). Plan solved by {}. \
-         Regenerate with: lotsman sheet {name}{more}",
+         Regenerate with: lotsman sheet {name}{accept}{more}",
         tool_version(),
         f.recorded.solved_by,
         name = f.file_name,
         hash = f.hash,
+        accept = if f.notice.is_some() {
+            " --accept-recorded"
+        } else {
+            ""
+        },
     );
     c.paragraph(
         "provenance",
@@ -1834,17 +1993,38 @@ fn footer(c: &mut Canvas, f: &Common, frame: Frame, foot_h: f64, caution: &str, 
     );
 }
 
-/// Reads the source at `source_path`, renders its sheet and writes it
-/// atomically to `target`. The target is never the source itself.
+/// How [`write_sheet`] treats an existing file at its target and a
+/// recorded plan that the audit does not confirm.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct SheetOptions {
+    /// Paper size.
+    pub paper: Paper,
+    /// Print a recorded plan that the [`audit`] does not confirm, with the
+    /// discrepancy stated on the page ([`render_sheet_noting`]), instead of
+    /// refusing it (`--accept-recorded`).
+    pub accept_recorded: bool,
+    /// Whether a file already at the target may be replaced (`--force`).
+    pub overwrite: Overwrite,
+}
+
+/// Reads the source at `source_path`, audits its recorded plan (see
+/// [`audit`]), renders its sheet and writes it atomically to `target`.
+/// Returns the discrepancy that a sheet printed with
+/// [`SheetOptions::accept_recorded`] states, for the caller to report too.
 ///
 /// # Errors
-/// [`Error`] for an unreadable or invalid source, a sheet that cannot be
-/// laid out, or a failed write (the target is then left as it was).
+/// [`Error`] for an unreadable or invalid source;
+/// [`SourceError::Unconfirmed`](crate::SourceError::Unconfirmed), naming the
+/// first differing field with both values, when the audit finds a
+/// discrepancy and `accept_recorded` is off; a sheet that cannot be laid
+/// out; [`SourceError::Exists`](crate::SourceError::Exists) when the target
+/// exists and `overwrite` refuses; a failed write. In every case the target
+/// is left as it was.
 pub fn write_sheet(
     source_path: &std::path::Path,
     target: &std::path::Path,
-    paper: Paper,
-) -> Result<(), Error> {
+    options: &SheetOptions,
+) -> Result<Option<Discrepancy>, Error> {
     let io = |e| crate::error::SourceError::Io {
         path: source_path.to_path_buf(),
         source: e,
@@ -1854,12 +2034,22 @@ pub fn write_sheet(
     let name = source_path
         .file_name()
         .map_or_else(|| "source.yaml".into(), |n| n.to_string_lossy().to_string());
-    let sheet = render_sheet(&text, &source, &name, paper)?;
-    crate::atomic::write_atomic(target, &sheet.pdf).map_err(|e| crate::error::SourceError::Io {
-        path: target.to_path_buf(),
-        source: e,
-    })?;
-    Ok(())
+    let discrepancy = audit(&source, source_path)?.discrepancy;
+    let sheet = match &discrepancy {
+        None => render_sheet(&text, &source, &name, options.paper)?,
+        Some(d) if options.accept_recorded => {
+            render_sheet_noting(&text, &source, &name, options.paper, d)?
+        }
+        Some(d) => {
+            return Err(crate::error::SourceError::Unconfirmed {
+                path: source_path.to_path_buf(),
+                discrepancy: d.clone(),
+            }
+            .into());
+        }
+    };
+    write_atomic(target, &sheet.pdf, options.overwrite)?;
+    Ok(discrepancy)
 }
 
 /// The source hash recorded in a sheet's metadata, if any.

@@ -20,6 +20,10 @@ pub const NOT_GIVEN: &str = "—";
 /// The lot size of a model without one.
 pub const NO_LOT_SIZE: &str = "not stated";
 
+/// Heading of the notice on a sheet whose recorded plan the audit did not
+/// confirm.
+pub const NOTICE: &str = "PRINTED AS RECORDED AT THE USER'S REQUEST, NOT AS RE-SOLVED:";
+
 /// Heading of the single plan's sample size.
 pub const SAMPLE_SIZE: &str = "SAMPLE SIZE";
 

@@ -5,8 +5,9 @@
 //! Layout, from the top: the title block; the plan box (n, k or M, sigma,
 //! the limits and the attributes plan for the same points, beside the
 //! procedure); the risk table; then two columns: on the left the readings
-//! table over the OC chart, on the right the decision rule, the result
-//! lines and the signatures; the footer. The title block, risk table,
+//! table over the OC chart (under the notice of a plan printed as
+//! recorded, if any), on the right the decision rule, the result lines and
+//! the signatures; the footer. The title block, risk table,
 //! signatures, footer and risk-point marks are the attribute sheets' own.
 //!
 //! # How many readings the sheet holds
@@ -23,9 +24,9 @@ use super::canvas::{Canvas, Face, grey, rgb};
 use super::chart::{self, Axes, LegendEntry, Plot, nice_ceiling};
 use super::variables_text::{self as words, RuleLine};
 use super::{
-    Common, Frame, GAP, MIN_CHART_H, PROCEDURE_SIZES, accept_colour, plan_frame, quality_tick,
-    reject_colour, risk_marks, risk_table, signatures, steps_block, steps_height, text,
-    title_block,
+    Common, Frame, GAP, MIN_CHART_H, PROCEDURE_SIZES, accept_colour, notice_block, plan_frame,
+    quality_tick, reject_colour, risk_marks, risk_table, signatures, steps_block, steps_height,
+    text, title_block,
 };
 use crate::design::{SingleDesign, design_single};
 use crate::error::Error;
@@ -33,7 +34,7 @@ use crate::model::Model;
 use crate::numeric::{NumericalError, check_probability};
 use crate::plan::{VariablesPlan, measures, quality_at_pa};
 use crate::report::words::CAUTION;
-use crate::source::PlanSource;
+use crate::source::{PlanSource, variables_risks};
 
 /// The most readings the sheet's table holds (see the module docs).
 pub const MAX_SHEET_READINGS: u64 = 48;
@@ -54,6 +55,10 @@ const CHART_COMFORT_H: f64 = 70.0;
 const CHART_BALANCED_H: f64 = 60.0;
 const BALANCED_PITCH: f64 = 5.0;
 const CHART_MAX_H: f64 = 100.0;
+
+/// The most lines of the notice of a plan printed as recorded, in the
+/// left column.
+const NOTICE_LINES: usize = 7;
 
 /// Widths: the right column, and the plan box's left column.
 const RIGHT_W: f64 = 72.0;
@@ -84,6 +89,9 @@ pub(super) struct Facts<'a> {
     /// The attributes single plan for the same points, if one exists
     /// within the caps.
     attributes: Option<SingleDesign>,
+    /// Whether the readings go on a separate log because the notice of an
+    /// unconfirmed plan leaves their table no room.
+    pub(super) displaced: bool,
 }
 
 impl<'a> Facts<'a> {
@@ -106,6 +114,7 @@ impl<'a> Facts<'a> {
             *request.risks(),
             request.model(),
             scheme,
+            variables_risks(&plan, request.risks()),
         )?;
         Ok(Facts {
             common,
@@ -113,12 +122,13 @@ impl<'a> Facts<'a> {
             model: *request.model(),
             unit: source.variables.as_ref().and_then(|v| v.unit.as_deref()),
             attributes: design_single(request.model(), request.risks()).ok(),
+            displaced: false,
         })
     }
 
     /// Whether the readings go on a separate log.
-    fn on_log(&self) -> bool {
-        self.plan.n() > MAX_SHEET_READINGS
+    pub(super) fn on_log(&self) -> bool {
+        self.plan.n() > MAX_SHEET_READINGS || self.displaced
     }
 }
 
@@ -173,8 +183,12 @@ pub(super) fn layout(
         sig_h.max(0.0),
     );
 
-    // The left column: readings over the chart.
+    // The left column: the notice of a plan printed as recorded, the
+    // readings, the chart. The right column has no room to spare for the
+    // notice (a two-limit rule fills it on Letter), the left one does when
+    // the readings go on a log.
     let left_w = width - RIGHT_W - 4.0;
+    top -= notice_block(c, &f.common, left, top, left_w, NOTICE_LINES);
     let band_h = top - band_bottom;
     let readings_h = readings_block(c, f, left, top, left_w, band_h);
     let chart_h = (band_h - readings_h - GAP).min(CHART_MAX_H);
@@ -478,7 +492,11 @@ fn readings_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, band_h: f
     );
     field(c, split, x + w, heading_y, words::GAUGE, false);
     if f.on_log() {
-        let note = words::readings_elsewhere(n, MAX_SHEET_READINGS);
+        let note = if n > MAX_SHEET_READINGS {
+            words::readings_elsewhere(n, MAX_SHEET_READINGS)
+        } else {
+            words::readings_displaced(n)
+        };
         let note_h = c
             .fit(&note, Face::Regular, w - 4.0, f64::INFINITY, 7.5, 7.5)
             .height;

@@ -305,6 +305,14 @@ pub fn readings_elsewhere(n: u64, cap: u64) -> String {
     )
 }
 
+/// The note in place of the readings table when the notice of an
+/// unconfirmed plan leaves it no room.
+pub fn readings_displaced(n: u64) -> String {
+    format!(
+        "The notice above leaves this page no room for the table of {n} readings. Write them on a separate readings log numbered 1 to {n}, with the lot number, and keep it with this sheet; the results and the decision are still entered on this sheet."
+    )
+}
+
 /// The caution the variables rule adds to the common one.
 pub fn assumption(sigma: SigmaKind) -> &'static str {
     match sigma {

@@ -2,15 +2,18 @@
 //! re-printed. Loading, validation into a design request, recording a
 //! solution, saving, and verification.
 
+mod audit;
 mod schema;
 mod verify;
 
 use std::path::Path;
 
+pub use audit::{Audit, Discrepancy, UnmetPoint, audit};
+pub(crate) use audit::{attributes_risks, variables_risks};
 pub use schema::{
     PlanSource, PointSource, RecordedPlan, RecordedVariables, SCHEMA_VERSION, VariablesSource,
 };
-pub use verify::{Difference, Verdict, verify};
+pub use verify::{Difference, RISK_TOLERANCE, Verdict, verify};
 
 use crate::design::{
     DesignRequest, Scheme, SchemeOptions, Solution, VariablesRequest, VariablesSolution,

@@ -25,6 +25,17 @@ pub struct Difference {
     pub resolved: String,
 }
 
+impl std::fmt::Display for Difference {
+    /// `FIELD: recorded X, re-solved Y`.
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(
+            f,
+            "{}: recorded {}, re-solved {}",
+            self.field, self.recorded, self.resolved
+        )
+    }
+}
+
 /// The result of verifying one source.
 #[derive(Clone, Debug, PartialEq)]
 pub enum Verdict {
@@ -138,7 +149,9 @@ fn compare_risks(recorded: &RecordedPlan, resolved: (f64, f64), diffs: &mut Vec<
         ("plan.producer_risk", recorded.producer_risk, resolved.0),
         ("plan.consumer_risk", recorded.consumer_risk, resolved.1),
     ] {
-        if (a - b).abs() > RISK_TOLERANCE * b.abs().max(f64::MIN_POSITIVE) {
+        // Written so that a recorded NaN or infinity is a difference too.
+        let agree = (a - b).abs() <= RISK_TOLERANCE * b.abs().max(f64::MIN_POSITIVE);
+        if !agree {
             diffs.push(Difference {
                 field: name.into(),
                 recorded: a.to_string(),
