@@ -18,9 +18,21 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> std::io::Result<()> {
     let mut tmp = tempfile::Builder::new()
         .prefix(".lotsman-")
         .suffix(".tmp")
-        .tempfile_in(dir)?;
+        .tempfile_in(dir)
+        .map_err(|e| folder_error(dir, e))?;
     tmp.write_all(bytes)?;
     tmp.as_file().sync_all()?;
     tmp.persist(path).map_err(|e| e.error)?;
     Ok(())
+}
+
+/// The error of creating the temporary file, said of the folder when the
+/// folder is the cause: the temporary file's name means nothing to the user.
+fn folder_error(dir: &Path, e: std::io::Error) -> std::io::Error {
+    let why = match e.kind() {
+        std::io::ErrorKind::NotFound => "does not exist; create it first",
+        std::io::ErrorKind::PermissionDenied => "cannot be written to (permission denied)",
+        _ => return e,
+    };
+    std::io::Error::new(e.kind(), format!("the folder {} {why}", dir.display()))
 }

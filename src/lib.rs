@@ -43,6 +43,7 @@ mod model;
 mod numeric;
 mod plan;
 mod quantity;
+mod read;
 mod report;
 mod risk;
 mod sheet;
@@ -86,6 +87,7 @@ pub use quantity::{
     MAX_RANGE_POINTS, QualityRange, parse_count, parse_fraction, parse_fraction_list, parse_number,
     parse_stage,
 };
+pub use read::read_limited;
 pub use report::{
     AlternativeReport, BatchSummary, CostReport, Csv, DesignReport, EvaluationBatchReport,
     EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ReportFormat,
@@ -101,7 +103,7 @@ pub use sheet::{
     render_sheet, render_tradeoff_map, sheet_source_hash, source_hash, write_sheet,
 };
 pub use source::{
-    Difference, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan, RecordedVariables,
-    SCHEMA_VERSION, VariablesSource, Verdict, tool_version, verify,
+    Difference, MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan,
+    RecordedVariables, SCHEMA_VERSION, VariablesSource, Verdict, tool_version, verify,
 };
 pub use templates::{TEMPLATES, template, template_kinds};
