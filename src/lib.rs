@@ -74,14 +74,14 @@ pub use error::{BatchError, DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
 pub use plan::{
     AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS,
-    MAX_STAGES, MAX_VARIABLES_SAMPLE, MeasurementJudgement, Measures, NORMALITY_LEVEL, SIGMA_LEVEL,
-    SequentialLines, SideStatistic, SigmaKind, Specification, Stage, StageOutcomes, StagedPlan,
-    VariablesEvaluation, VariablesPlan, VariablesPoint, acceptance_probability, anderson_darling,
-    aoql, average_outgoing_quality, curtailed_outcomes, curve_maximum, default_qualities, evaluate,
-    evaluate_variables, fraction_beyond_known, fraction_beyond_unknown, indifference_quality,
-    judge, judge_cumulative, judge_measurements, largest_asn, mean_and_sd, measures,
-    parse_measurements, quality_at_pa, stage_outcomes, statistic_for_fraction, variables_point,
-    variables_qualities,
+    MAX_OPEN_COUNTS, MAX_STAGES, MAX_VARIABLES_SAMPLE, MeasurementJudgement, Measures,
+    NORMALITY_LEVEL, SIGMA_LEVEL, SequentialLines, SideStatistic, SigmaKind, Specification, Stage,
+    StageOutcomes, StagedPlan, VariablesEvaluation, VariablesPlan, VariablesPoint,
+    acceptance_probability, anderson_darling, aoql, average_outgoing_quality, curtailed_outcomes,
+    curve_maximum, default_qualities, evaluate, evaluate_variables, fraction_beyond_known,
+    fraction_beyond_unknown, indifference_quality, judge, judge_cumulative, judge_measurements,
+    largest_asn, mean_and_sd, measures, parse_measurements, quality_at_pa, stage_outcomes,
+    statistic_for_fraction, variables_point, variables_qualities,
 };
 pub use quantity::{
     MAX_RANGE_POINTS, QualityRange, parse_count, parse_fraction, parse_fraction_list, parse_number,
