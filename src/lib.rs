@@ -58,17 +58,18 @@ pub use batch::{
 pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
 pub use design::{
     Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design, DesignRequest, Input,
-    InspectionCost, MAX_ACCEPTANCE_NUMBER, MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS,
-    MAX_SAMPLE_SIZE, Moved, Scheme, SchemeOptions, Sensitivity, SingleDesign, Solution, Steps,
-    TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign, VariablesRequest,
+    InspectionCost, MAX_ACCEPTANCE_NUMBER, MAX_DESIGN_STAGES, MAX_DOUBLE_SEARCH,
+    MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, MAX_MULTIPLE_SINGLE_N, MAX_SAMPLE_SIZE,
+    MAX_SEQUENTIAL_SEARCH, Moved, Scheme, SchemeOptions, Sensitivity, SingleDesign, Solution,
+    Steps, TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign, VariablesRequest,
     VariablesSolution, WaldApproximation, design_double, design_for, design_multiple,
     design_sequential, design_single, design_variables, sensitivity, single_alternatives, solve,
     solve_variables, tradeoff, wald_lines,
 };
 // Minimum-inspection plans for rectifying inspection (Dodge and Romig).
 pub use design::{
-    AOQL_PLAN_LTPD_RISK, Protection, RectifyingDesign, RectifyingPlan, RectifyingRequest,
-    RectifyingRow, design_rectifying,
+    AOQL_PLAN_LTPD_RISK, MAX_AOQL_ACCEPTANCE_NUMBER, Protection, RectifyingDesign, RectifyingPlan,
+    RectifyingRequest, RectifyingRow, design_rectifying,
 };
 pub use error::{BatchError, DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
