@@ -73,6 +73,14 @@ fn write_with(
         path: path.to_path_buf(),
         source,
     };
+    // A folder in the target's place is no file to replace, with or
+    // without --force: say so before anything is made.
+    if path.is_dir() {
+        return Err(io(std::io::Error::new(
+            std::io::ErrorKind::IsADirectory,
+            "is a folder; name a file to write",
+        )));
+    }
     let dir = match path.parent() {
         Some(d) if !d.as_os_str().is_empty() => d,
         _ => Path::new("."),
@@ -83,7 +91,9 @@ fn write_with(
     // gets the permissions any new file gets (0666 less the umask).
     #[cfg(unix)]
     builder.permissions(std::os::unix::fs::PermissionsExt::from_mode(0o666));
-    let mut tmp = builder.tempfile_in(dir).map_err(io)?;
+    let mut tmp = builder
+        .tempfile_in(dir)
+        .map_err(|e| io(folder_error(dir, e)))?;
     fill(tmp.as_file_mut()).map_err(io)?;
     tmp.as_file().sync_all().map_err(io)?;
     let persisted = match overwrite {
@@ -119,6 +129,17 @@ fn sync_folder(dir: &Path) -> std::io::Result<()> {
 #[cfg(not(unix))]
 fn sync_folder(_dir: &Path) -> std::io::Result<()> {
     Ok(())
+}
+
+/// The error of creating the temporary file, said of the folder when the
+/// folder is the cause: the temporary file's name means nothing to the user.
+fn folder_error(dir: &Path, e: std::io::Error) -> std::io::Error {
+    let why = match e.kind() {
+        std::io::ErrorKind::NotFound => "does not exist; create it first",
+        std::io::ErrorKind::PermissionDenied => "cannot be written to (permission denied)",
+        _ => return e,
+    };
+    std::io::Error::new(e.kind(), format!("the folder {} {why}", dir.display()))
 }
 
 #[cfg(test)]

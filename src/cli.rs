@@ -104,7 +104,7 @@ pub struct ModelFlags {
     #[arg(long, value_enum)]
     pub model: Option<ModelArg>,
     /// Lot size N (required by the hypergeometric model; gives ATI and AOQ's (N-n)/N)
-    #[arg(long, value_name = "N")]
+    #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub lot_size: Option<String>,
 }
 
@@ -114,16 +114,36 @@ pub struct DesignArgs {
     #[arg(value_name = "FILE.yaml", conflicts_with_all = ["aql", "rql", "alpha", "beta", "model", "lot_size", "title", "scheme", "criterion", "second_ratio", "stage_count", "sigma", "limit", "sigma_value", "lower", "upper", "unit"])]
     pub source: Option<PathBuf>,
     /// Producer's quality p1 (AQL), as a fraction (0.01) or a percent (1%)
-    #[arg(long, value_name = "P1", required_unless_present = "source")]
+    #[arg(
+        long,
+        value_name = "P1",
+        required_unless_present = "source",
+        allow_hyphen_values = true
+    )]
     pub aql: Option<String>,
     /// Producer's risk: largest probability of rejecting a lot at the AQL
-    #[arg(long, value_name = "A", default_value = "0.05")]
+    #[arg(
+        long,
+        value_name = "A",
+        default_value = "0.05",
+        allow_hyphen_values = true
+    )]
     pub alpha: String,
     /// Consumer's quality p2 (RQL, LTPD), as a fraction or a percent
-    #[arg(long, value_name = "P2", required_unless_present = "source")]
+    #[arg(
+        long,
+        value_name = "P2",
+        required_unless_present = "source",
+        allow_hyphen_values = true
+    )]
     pub rql: Option<String>,
     /// Consumer's risk: largest probability of accepting a lot at the RQL
-    #[arg(long, value_name = "B", default_value = "0.10")]
+    #[arg(
+        long,
+        value_name = "B",
+        default_value = "0.10",
+        allow_hyphen_values = true
+    )]
     pub beta: String,
     #[command(flatten)]
     pub model: ModelFlags,
@@ -134,10 +154,10 @@ pub struct DesignArgs {
     #[arg(long, value_enum)]
     pub criterion: Option<CriterionArg>,
     /// Double plans: fix the second sample at R times the first (n2 = R n1)
-    #[arg(long, value_name = "R")]
+    #[arg(long, value_name = "R", allow_hyphen_values = true)]
     pub second_ratio: Option<String>,
     /// Multiple plans: number of equal stages, 2 to 7 [default: 7]
-    #[arg(long, value_name = "K")]
+    #[arg(long, value_name = "K", allow_hyphen_values = true)]
     pub stage_count: Option<String>,
     /// Variables plans: is the process sigma known or estimated by s
     #[arg(long, value_enum)]
@@ -146,7 +166,7 @@ pub struct DesignArgs {
     #[arg(long, value_enum)]
     pub limit: Option<LimitArg>,
     /// Variables plans, sigma known: its value, in the unit of the measurements
-    #[arg(long, value_name = "S")]
+    #[arg(long, value_name = "S", allow_hyphen_values = true)]
     pub sigma_value: Option<String>,
     /// Variables plans: lower specification limit L
     #[arg(long, value_name = "L", allow_hyphen_values = true)]
@@ -190,21 +210,26 @@ pub struct EvaluateArgs {
     #[arg(value_name = "FILE.yaml|DIR", conflicts_with_all = ["n", "c", "stage", "model", "lot_size"])]
     pub sources: Vec<PathBuf>,
     /// Sample size of a single plan
-    #[arg(long, requires = "c", conflicts_with = "stage")]
+    #[arg(
+        long,
+        requires = "c",
+        conflicts_with = "stage",
+        allow_hyphen_values = true
+    )]
     pub n: Option<String>,
     /// Acceptance number of a single plan
-    #[arg(long, requires = "n")]
+    #[arg(long, requires = "n", allow_hyphen_values = true)]
     pub c: Option<String>,
     /// A stage N:AC:RE on cumulative figures (AC may be '-' for no acceptance); repeat per stage
-    #[arg(long, value_name = "N:AC:RE")]
+    #[arg(long, value_name = "N:AC:RE", allow_hyphen_values = true)]
     pub stage: Vec<String>,
     #[command(flatten)]
     pub model: ModelFlags,
     /// Qualities to evaluate at, comma-separated (1%,2.5%,0.04)
-    #[arg(long, value_name = "P,P,..")]
+    #[arg(long, value_name = "P,P,..", allow_hyphen_values = true)]
     pub at: Option<String>,
     /// Evenly spaced qualities LO:HI:COUNT (0.5%:8%:50)
-    #[arg(long, value_name = "LO:HI:COUNT")]
+    #[arg(long, value_name = "LO:HI:COUNT", allow_hyphen_values = true)]
     pub range: Option<String>,
     /// Output format
     #[arg(long, value_enum, default_value = "table")]
@@ -246,7 +271,8 @@ pub struct JudgeArgs {
         long,
         value_name = "K",
         required_unless_present = "measurements",
-        conflicts_with = "measurements"
+        conflicts_with = "measurements",
+        allow_hyphen_values = true
     )]
     pub found: Vec<String>,
     /// Variables plans: the sample's measurements, a CSV file with one value per row
@@ -257,7 +283,7 @@ pub struct JudgeArgs {
     #[arg(long, value_name = "NAME", requires = "measurements")]
     pub column: Option<String>,
     /// Units inspected so far, for one cumulative --found count (item-by-item plans)
-    #[arg(long, value_name = "N")]
+    #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub inspected: Option<String>,
     /// Output format
     #[arg(long, value_enum, default_value = "text")]
@@ -282,16 +308,26 @@ pub enum TradeoffFormat {
 #[derive(Debug, Args)]
 pub struct TradeoffArgs {
     /// Producer's qualities, one row each: LO:HI:COUNT (0.2%:2%:10) or a list (0.5%,1%,1.5%)
-    #[arg(long, value_name = "LO:HI:COUNT")]
+    #[arg(long, value_name = "LO:HI:COUNT", allow_hyphen_values = true)]
     pub aql: String,
     /// Producer's risk in every cell
-    #[arg(long, value_name = "A", default_value = "0.05")]
+    #[arg(
+        long,
+        value_name = "A",
+        default_value = "0.05",
+        allow_hyphen_values = true
+    )]
     pub alpha: String,
     /// Consumer's qualities, one column each: LO:HI:COUNT (3%:12%:10) or a list
-    #[arg(long, value_name = "LO:HI:COUNT")]
+    #[arg(long, value_name = "LO:HI:COUNT", allow_hyphen_values = true)]
     pub rql: String,
     /// Consumer's risk in every cell
-    #[arg(long, value_name = "B", default_value = "0.10")]
+    #[arg(
+        long,
+        value_name = "B",
+        default_value = "0.10",
+        allow_hyphen_values = true
+    )]
     pub beta: String,
     #[command(flatten)]
     pub model: ModelFlags,
@@ -310,7 +346,12 @@ pub struct TradeoffArgs {
     )]
     pub cost_per_unit: Option<String>,
     /// Expected process quality at which the cost is taken (ATI at this quality)
-    #[arg(long, value_name = "P", requires = "cost_per_unit")]
+    #[arg(
+        long,
+        value_name = "P",
+        requires = "cost_per_unit",
+        allow_hyphen_values = true
+    )]
     pub process_quality: Option<String>,
     /// Title printed above the grid
     #[arg(long)]
@@ -389,19 +430,24 @@ pub enum RectifySchemeArg {
 #[command(group(clap::ArgGroup::new("protection").required(true).args(["ltpd", "aoql"])))]
 pub struct RectifyArgs {
     /// Lot size N: rejected lots are screened, so the design needs it
-    #[arg(long, value_name = "N")]
+    #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub lot_size: String,
     /// Process average: the supplier's usual quality, as a fraction or a percent
-    #[arg(long, value_name = "P")]
+    #[arg(long, value_name = "P", allow_hyphen_values = true)]
     pub process_average: String,
     /// Protect by the LTPD: a lot this bad is accepted with probability at most --beta
-    #[arg(long, value_name = "P")]
+    #[arg(long, value_name = "P", allow_hyphen_values = true)]
     pub ltpd: Option<String>,
     /// Consumer's risk at the LTPD [default: 0.10]
-    #[arg(long, value_name = "B", conflicts_with = "aoql")]
+    #[arg(
+        long,
+        value_name = "B",
+        conflicts_with = "aoql",
+        allow_hyphen_values = true
+    )]
     pub beta: Option<String>,
     /// Protect by the AOQL: the average outgoing quality never exceeds this
-    #[arg(long, value_name = "L")]
+    #[arg(long, value_name = "L", allow_hyphen_values = true)]
     pub aoql: Option<String>,
     /// Sampling scheme
     #[arg(long, value_enum, default_value = "single")]

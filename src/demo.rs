@@ -93,7 +93,11 @@ pub struct DemoRow {
 pub fn run_demo(dir: &Path, overwrite: Overwrite) -> Result<Vec<DemoRow>, Error> {
     std::fs::create_dir_all(dir).map_err(|e| SourceError::Io {
         path: dir.to_path_buf(),
-        source: e,
+        source: if dir.exists() && !dir.is_dir() {
+            std::io::Error::new(e.kind(), "this is a file; give --output-dir a folder")
+        } else {
+            e
+        },
     })?;
     let mut rows = Vec::new();
     let mut files = Vec::new();

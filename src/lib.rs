@@ -55,6 +55,7 @@ mod model;
 mod numeric;
 mod plan;
 mod quantity;
+mod read;
 mod report;
 mod risk;
 mod sheet;
@@ -69,36 +70,38 @@ pub use batch::{
 pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
 pub use design::{
     Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design, DesignRequest, Input,
-    InspectionCost, MAX_ACCEPTANCE_NUMBER, MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS,
-    MAX_SAMPLE_SIZE, Moved, Scheme, SchemeOptions, Sensitivity, SingleDesign, Solution, Steps,
-    TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign, VariablesRequest,
+    InspectionCost, MAX_ACCEPTANCE_NUMBER, MAX_DESIGN_STAGES, MAX_DOUBLE_SEARCH,
+    MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, MAX_MULTIPLE_SINGLE_N, MAX_SAMPLE_SIZE,
+    MAX_SEQUENTIAL_SEARCH, Moved, Scheme, SchemeOptions, Sensitivity, SingleDesign, Solution,
+    Steps, TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign, VariablesRequest,
     VariablesSolution, WaldApproximation, design_double, design_for, design_multiple,
     design_sequential, design_single, design_variables, sensitivity, single_alternatives, solve,
     solve_variables, tradeoff, wald_lines,
 };
 // Minimum-inspection plans for rectifying inspection (Dodge and Romig).
 pub use design::{
-    AOQL_PLAN_LTPD_RISK, Protection, RectifyingDesign, RectifyingPlan, RectifyingRequest,
-    RectifyingRow, design_rectifying,
+    AOQL_PLAN_LTPD_RISK, MAX_AOQL_ACCEPTANCE_NUMBER, Protection, RectifyingDesign, RectifyingPlan,
+    RectifyingRequest, RectifyingRow, design_rectifying,
 };
 pub use error::{BatchError, DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
 pub use numeric::{NEAR_LIMIT, NumericalError, check_amount, check_probability, near_limit};
 pub use plan::{
     AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS,
-    MAX_STAGES, MAX_VARIABLES_SAMPLE, MeasurementJudgement, Measures, NORMALITY_LEVEL, SIGMA_LEVEL,
-    SequentialLines, SideStatistic, SigmaKind, Specification, Stage, StageOutcomes, StagedPlan,
-    VariablesEvaluation, VariablesPlan, VariablesPoint, acceptance_probability, anderson_darling,
-    aoql, average_outgoing_quality, curtailed_outcomes, curve_maximum, default_qualities, evaluate,
-    evaluate_variables, fraction_beyond_known, fraction_beyond_unknown, indifference_quality,
-    judge, judge_cumulative, judge_measurements, largest_asn, mean_and_sd, measures,
-    parse_measurements, quality_at_pa, stage_outcomes, statistic_for_fraction, variables_point,
-    variables_qualities,
+    MAX_OPEN_COUNTS, MAX_STAGES, MAX_VARIABLES_SAMPLE, MeasurementJudgement, Measures,
+    NORMALITY_LEVEL, SIGMA_LEVEL, SequentialLines, SideStatistic, SigmaKind, Specification, Stage,
+    StageOutcomes, StagedPlan, VariablesEvaluation, VariablesPlan, VariablesPoint,
+    acceptance_probability, anderson_darling, aoql, average_outgoing_quality, curtailed_outcomes,
+    curve_maximum, default_qualities, evaluate, evaluate_variables, fraction_beyond_known,
+    fraction_beyond_unknown, indifference_quality, judge, judge_cumulative, judge_measurements,
+    largest_asn, mean_and_sd, measures, parse_measurements, quality_at_pa, stage_outcomes,
+    statistic_for_fraction, variables_point, variables_qualities,
 };
 pub use quantity::{
     MAX_RANGE_POINTS, QualityRange, parse_count, parse_fraction, parse_fraction_list, parse_number,
     parse_stage,
 };
+pub use read::read_limited;
 pub use report::{
     AlternativeReport, BatchSummary, CostReport, Csv, DesignReport, EvaluationBatchReport,
     EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ReportFormat,
@@ -116,7 +119,7 @@ pub use sheet::{
 pub use sheet::{SheetOptions, render_sheet_noting};
 pub use source::{Audit, Discrepancy, RISK_TOLERANCE, UnmetPoint, audit};
 pub use source::{
-    Difference, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan, RecordedVariables,
-    SCHEMA_VERSION, VariablesSource, Verdict, tool_version, verify,
+    Difference, MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan,
+    RecordedVariables, SCHEMA_VERSION, VariablesSource, Verdict, tool_version, verify,
 };
 pub use templates::{TEMPLATES, template, template_kinds};

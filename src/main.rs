@@ -35,9 +35,10 @@ use lotsman::{
     TradeoffReport, TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport,
     VerifyEntry, VerifyStatus, default_qualities, evaluate, evaluate_source, expand_paths, judge,
     judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_fraction_list,
-    parse_measurements, parse_number, parse_stage, render_tradeoff_map, run_demo, run_in_parallel,
-    sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve, solve_variables,
-    source_hash, template, template_kinds, tradeoff, verify_file, write_atomic, write_sheet,
+    parse_measurements, parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo,
+    run_in_parallel, sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve,
+    solve_variables, source_hash, template, template_kinds, tradeoff, verify_file, write_atomic,
+    write_sheet,
 };
 // rectify
 use lotsman::{Protection, RectifyingReport, RectifyingRequest, design_rectifying};
@@ -492,7 +493,7 @@ fn refuse_overwriting_input(target: &Path, input: Option<&Path>) -> Result<(), I
     let Some(input) = input else { return Ok(()) };
     if same_file(target, input) {
         return Err(InputError::Inconsistent(format!(
-            "--output {} is the plan source being read; write to a new file and compare before replacing it",
+            "the output {} is the plan source being read; write to a new file and compare before replacing it",
             target.display()
         )));
     }
@@ -639,12 +640,16 @@ fn exit_code(worst: Outcome) -> ExitCode {
     }
 }
 
+/// The largest sheet read by `verify --sheet` (16 MiB; a sheet is about
+/// 100 kB), refused by size first.
+const MAX_SHEET_BYTES: u64 = 16 << 20;
+
 /// Checks that the sheet at `pdf` carries the hash of the source at `source`.
 fn check_sheet(entry: &mut VerifyEntry, source: &Path, pdf: &Path) {
-    let recorded = std::fs::read(pdf)
+    let recorded = read_limited(pdf, MAX_SHEET_BYTES, "a plan sheet")
         .map_err(|e| e.to_string())
         .and_then(|b| sheet_source_hash(&b));
-    let actual = std::fs::read_to_string(source).map(|t| source_hash(&t));
+    let actual = PlanSource::read_text(source).map(|t| source_hash(&t));
     let invalid = |entry: &mut VerifyEntry, message: String| {
         entry.status = VerifyStatus::Invalid;
         entry.message = Some(message);
@@ -666,7 +671,7 @@ fn check_sheet(entry: &mut VerifyEntry, source: &Path, pdf: &Path) {
             format!("{}: not a lotsman sheet (no source hash)", pdf.display()),
         ),
         (Err(e), _) => invalid(entry, format!("{}: {e}", pdf.display())),
-        (_, Err(e)) => invalid(entry, format!("{}: {e}", source.display())),
+        (_, Err(e)) => invalid(entry, e.to_string()),
     }
 }
 
@@ -726,14 +731,7 @@ fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode,
         path: csv.to_path_buf(),
         source: e,
     };
-    let size = std::fs::metadata(csv).map_err(io)?.len();
-    if size > MAX_MEASUREMENTS_BYTES {
-        return Err(io(std::io::Error::other(format!(
-            "the file has {size} bytes; a measurements file may have at most {MAX_MEASUREMENTS_BYTES}"
-        )))
-        .into());
-    }
-    let bytes = std::fs::read(csv).map_err(io)?;
+    let bytes = read_limited(csv, MAX_MEASUREMENTS_BYTES, "a measurements file").map_err(io)?;
     let text = String::from_utf8(bytes).map_err(|_| {
         InputError::Inconsistent(format!(
             "{}: the measurements file is not UTF-8 text",

@@ -36,8 +36,25 @@ pub fn parse_fraction(parameter: &str, text: &str) -> Result<f64, InputError> {
     }
     // Dividing by 100 would turn 1.1% into 0.011000000000000001; parsing the
     // shifted decimal keeps the value the user wrote.
-    if scale == 100.0 {
-        return shift_percent(digits).ok_or_else(bad);
+    let value = if scale == 100.0 {
+        shift_percent(digits).ok_or_else(bad)?
+    } else {
+        value
+    };
+    refuse_underflow(parameter, t, value)
+}
+
+/// `value` as read from `text`, unless `text` writes a number other than
+/// zero that binary64 rounds to zero (`1e-400`): such a value would
+/// otherwise be reported, and refused, as a 0 the user never wrote.
+fn refuse_underflow(parameter: &str, text: &str, value: f64) -> Result<f64, InputError> {
+    let mantissa = text.split(['e', 'E']).next().unwrap_or("");
+    if value == 0.0 && mantissa.chars().any(|ch| matches!(ch, '1'..='9')) {
+        return Err(InputError::out_of_range(
+            parameter,
+            text,
+            "a number that double precision can hold: it rounds to 0 (the smallest positive value is about 4.9e-324)",
+        ));
     }
     Ok(value)
 }
@@ -49,7 +66,7 @@ pub fn parse_fraction(parameter: &str, text: &str) -> Result<f64, InputError> {
 pub fn parse_number(parameter: &str, text: &str) -> Result<f64, InputError> {
     let t = text.trim();
     match t.parse::<f64>() {
-        Ok(v) if v.is_finite() && !t.is_empty() => Ok(v),
+        Ok(v) if v.is_finite() && !t.is_empty() => refuse_underflow(parameter, t, v),
         _ => Err(InputError::unparsable(
             parameter,
             text,
@@ -228,6 +245,22 @@ mod tests {
         ] {
             assert!(parse_fraction("q", text).is_err(), "{text:?}");
         }
+    }
+
+    /// A written number that rounds to zero is refused as written; a zero
+    /// stays a zero (for the range check to refuse with its own words).
+    #[test]
+    fn an_underflow_is_refused_as_written() {
+        for text in ["1e-400", "1e-400%", "0.5e-330"] {
+            let e = parse_fraction("--aql", text).unwrap_err();
+            assert!(e.to_string().contains(&format!("= {text} ")), "{e}");
+        }
+        let e = parse_number("--sigma-value", "3e-999").unwrap_err();
+        assert!(e.to_string().contains("rounds to 0"), "{e}");
+        for text in ["0", "-0", "0.0e5", "0%"] {
+            assert_eq!(parse_fraction("q", text).unwrap(), 0.0, "{text}");
+        }
+        assert!(parse_fraction("q", "1e-320").unwrap() > 0.0);
     }
 
     #[test]

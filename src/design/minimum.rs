@@ -80,6 +80,13 @@ use crate::model::{MAX_LOT_SIZE, Model, ModelKind, nonconforming_in_lot};
 use crate::plan::{Aoql, StagedPlan, acceptance_probability, aoql, measures, quality_at_pa};
 use crate::risk::RiskPoint;
 
+/// The largest acceptance number the scan reaches for an AOQL: each step
+/// is an exact threshold search on the AOQL, whose every evaluation scans
+/// the AOQ curve, so the scan costs about the square of the acceptance
+/// numbers; at `2000` it takes about 10 s on two cores. (An LTPD scan runs
+/// to [`MAX_ACCEPTANCE_NUMBER`].)
+pub const MAX_AOQL_ACCEPTANCE_NUMBER: u64 = 2_000;
+
 /// The probability of acceptance at which a plan designed for an AOQL
 /// reports its LTPD (the consumer's risk of Dodge and Romig's tables).
 pub const AOQL_PLAN_LTPD_RISK: f64 = 0.10;
@@ -399,8 +406,24 @@ impl<'a> SingleSearch<'a> {
         let mut rows = Vec::new();
         let mut best = None;
         let mut best_ati = self.request.lot_size as f64;
-        for c in 0..=MAX_ACCEPTANCE_NUMBER {
+        let last = match self.request.protection {
+            Protection::Ltpd(_) => MAX_ACCEPTANCE_NUMBER,
+            Protection::Aoql(_) => MAX_AOQL_ACCEPTANCE_NUMBER,
+        };
+        for c in 0..=last {
             let Some(n) = self.n_min(c) else {
+                if self.limit < self.request.lot_size && best_ati > self.limit as f64 {
+                    // A sample between the designer's limit and the lot
+                    // might give the protection, and save on 100%
+                    // inspection: the answer is unknown, not 100%.
+                    return Err(DesignError::NoRectifyingPlan {
+                        reason: format!(
+                            "with acceptance number {c} the protection needs a sample beyond the designer's limit of {MAX_SAMPLE_SIZE} units, and the lot has {}",
+                            self.request.lot_size
+                        ),
+                        suggestion: "give a process average and a protection further apart, or a smaller lot".to_string(),
+                    });
+                }
                 // Pa rises with c: no larger c gives the protection either
                 // (nor, for the unit-count models, can a sample within the
                 // lot hold more than c units once c reaches it).
@@ -427,7 +450,11 @@ impl<'a> SingleSearch<'a> {
         }
         Err(DesignError::NoRectifyingPlan {
             reason: format!(
-                "the scan over acceptance numbers passed the designer's limit of {MAX_ACCEPTANCE_NUMBER}"
+                "the scan over acceptance numbers passed the designer's limit of {last}{}",
+                match self.request.protection {
+                    Protection::Ltpd(_) => "",
+                    Protection::Aoql(_) => " for an AOQL",
+                }
             ),
             suggestion:
                 "give a smaller lot, or a process average further below the protection's quality"
@@ -448,7 +475,10 @@ impl<'a> SingleSearch<'a> {
 ///
 /// # Errors
 /// [`DesignError::NoRectifyingPlan`] when the scan over acceptance numbers
-/// passes [`MAX_ACCEPTANCE_NUMBER`], when a double request's best single
+/// passes [`MAX_ACCEPTANCE_NUMBER`] ([`MAX_AOQL_ACCEPTANCE_NUMBER`] for an
+/// AOQL), when the protection needs a sample above [`MAX_SAMPLE_SIZE`] in a
+/// larger lot (so that whether sampling beats 100% inspection is not
+/// known), when a double request's best single
 /// plan has an acceptance number above
 /// [`MAX_DOUBLE_SINGLE_C`](super::double::MAX_DOUBLE_SINGLE_C), or when no
 /// double plan has a smaller ATI than the best single plan.

@@ -109,13 +109,21 @@ impl Candidate {
     }
 }
 
+/// The largest single-plan sample around which the multiple designer
+/// searches: its stage size `m` runs up from 1 towards the single plan's
+/// `n`, at about half a millisecond per `m` on two cores, so `20000` takes
+/// about 10 s.
+pub const MAX_MULTIPLE_SINGLE_N: u64 = 20_000;
+
 /// Designs the `k`-stage plan of the family above that meets both risk
 /// points and minimises `criterion` (`asn-aql` or `asn-rql`).
 ///
 /// # Errors
 /// As [`design_single`] for points without a single plan;
-/// [`DesignError::NoPlan`] when no plan of the family meets both points
-/// with an ASN below the single plan's sample size.
+/// [`DesignError::BeyondCap`] when the single plan's `n` passes
+/// [`MAX_MULTIPLE_SINGLE_N`]; [`DesignError::NoPlan`] when no plan of the
+/// family meets both points with an ASN below the single plan's sample
+/// size.
 ///
 /// # Example
 /// ```
@@ -137,6 +145,15 @@ pub fn design_multiple(
     criterion: Criterion,
 ) -> Result<Design, DesignError> {
     let single = design_single(model, risks)?;
+    if single.n > MAX_MULTIPLE_SINGLE_N {
+        return Err(DesignError::BeyondCap {
+            what: format!(
+                "a multiple plan around the single plan's sample n = {}",
+                single.n
+            ),
+            cap: format!("{MAX_MULTIPLE_SINGLE_N} units (use the single or the sequential plan)"),
+        });
+    }
     let (pr, co) = (risks.producer(), risks.consumer());
     let (p1, alpha, p2, beta) = (pr.quality, pr.risk, co.quality, co.risk);
     let slope = wald_lines(model, risks).2;

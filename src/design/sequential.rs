@@ -135,14 +135,21 @@ const NOMINAL_SCALES: [f64; 11] = [1.0, 0.95, 0.9, 0.85, 0.8, 0.75, 0.7, 0.65, 0
 /// The truncation window, in multiples of the single plan's sample size.
 const TRUNCATION_WINDOW: u64 = 4;
 
+/// The largest truncation search served, as the single plan's `n (c + 1)`:
+/// the search steps item by item up to a few times `n`, and each step
+/// costs about the square of the counts between the lines, which grows
+/// like `c`; `10^7` takes about 10 s on two cores.
+pub const MAX_SEQUENTIAL_SEARCH: u64 = 10_000_000;
+
 /// Designs the truncated sequential plan for the two risk points (see the
 /// module documentation), with Wald's approximations beside it.
 ///
 /// # Errors
 /// As [`design_single`] for points without a single plan;
 /// [`DesignError::BeyondCap`] when the truncation would pass [`MAX_ITEMS`]
-/// items; [`DesignError::NoPlan`] when the lines close before the exact
-/// plan meets both points.
+/// items or the single plan's `n (c + 1)` passes [`MAX_SEQUENTIAL_SEARCH`];
+/// [`DesignError::NoPlan`] when the lines close before the exact plan meets
+/// both points.
 ///
 /// # Example
 /// ```
@@ -169,6 +176,16 @@ pub fn design_sequential(
         return Err(DesignError::BeyondCap {
             what: "a truncation".to_string(),
             cap: format!("{limit} items"),
+        });
+    }
+    let size = single.n.saturating_mul(single.c + 1);
+    if size > MAX_SEQUENTIAL_SEARCH {
+        return Err(DesignError::BeyondCap {
+            what: format!(
+                "a truncation search around the single plan n = {}, c = {} of size n (c + 1) = {size}",
+                single.n, single.c
+            ),
+            cap: format!("{MAX_SEQUENTIAL_SEARCH} (use the single plan)"),
         });
     }
     let last = (TRUNCATION_WINDOW * single.n).min(limit);

@@ -83,9 +83,10 @@ pub fn mean_and_sd(values: &[f64]) -> (f64, f64) {
 
 /// Reads measurements from CSV text: one value per row, or, with
 /// `column`, the named column of a file whose first row is a header.
-/// A byte-order mark and Windows line ends are accepted; empty lines at
-/// the end are ignored. Without `column`, a first row that is not a number
-/// is taken as the header of a one-column file.
+/// What spreadsheets write is accepted: a byte-order mark, and Windows
+/// (`\r\n`) and old Macintosh (`\r`) line ends; empty lines at the end are
+/// ignored. Without `column`, a first row that is not a number is taken as
+/// the header of a one-column file.
 ///
 /// # Errors
 /// [`InputError`] naming the row (and column) of a blank or non-numeric
@@ -93,15 +94,11 @@ pub fn mean_and_sd(values: &[f64]) -> (f64, f64) {
 /// of several columns without `column`, or commas used as decimal marks.
 pub fn parse_measurements(text: &str, column: Option<&str>) -> Result<Vec<f64>, InputError> {
     let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+    let text = text.replace("\r\n", "\n").replace('\r', "\n");
     let mut rows: Vec<(usize, Vec<&str>)> = text
         .lines()
         .enumerate()
-        .map(|(i, l)| {
-            (
-                i + 1,
-                l.trim_end_matches('\r').split(',').map(str::trim).collect(),
-            )
-        })
+        .map(|(i, l)| (i + 1, l.split(',').map(str::trim).collect()))
         .collect();
     while rows
         .last()
@@ -218,7 +215,8 @@ pub struct MeasurementJudgement {
 ///
 /// # Errors
 /// [`InputError`] when the count differs from the plan's `n`, there are
-/// fewer than 2 values, or every value is the same (no spread to measure).
+/// fewer than 2 values, every value is the same (no spread to measure), or
+/// the values are too large for their mean and spread to be computed.
 pub fn judge_measurements(
     plan: &VariablesPlan,
     values: &[f64],
@@ -238,10 +236,20 @@ pub fn judge_measurements(
             plan.n()
         )));
     }
-    let (mean, s) = mean_and_sd(values);
-    if s == 0.0 || !s.is_finite() {
+    // Equal readings are tested as such: their computed s is rounding
+    // noise (42 readings of 5.9 give s = 9e-16), not a spread.
+    if values.iter().all(|&v| v == values[0]) {
         return Err(InputError::Inconsistent(
             "every measurement is the same, so the sample shows no spread: the gauge's resolution is too coarse for a variables plan".to_string(),
+        ));
+    }
+    let (mean, s) = mean_and_sd(values);
+    if !(mean.is_finite() && s.is_finite()) {
+        let largest = values.iter().fold(0.0f64, |m, v| m.max(v.abs()));
+        return Err(InputError::out_of_range(
+            "largest measurement (absolute value)",
+            format!("{largest:e}"),
+            "small enough for the mean and standard deviation to be computed (below about 1e150); check the file's unit",
         ));
     }
     let spec = plan.spec();
@@ -377,5 +385,9 @@ mod tests {
         assert!(blank.to_string().contains("row 2"), "{blank}");
         let text = parse_measurements("12.01\nabc\n", None).unwrap_err();
         assert!(text.to_string().contains("row 2"), "{text}");
+        let mac = parse_measurements("bore\r12.01\r12.03\r", None);
+        assert_eq!(mac, Ok(vec![12.01, 12.03]));
+        let blank = parse_measurements("12.01\r\r12.03\r", None).unwrap_err();
+        assert!(blank.to_string().contains("row 2"), "{blank}");
     }
 }

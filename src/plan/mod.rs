@@ -26,7 +26,7 @@ pub use measures::{
 pub(crate) use oc::Walk;
 pub use oc::{StageOutcomes, curtailed_outcomes, stage_outcomes};
 pub use sequential::{ItemRun, SequentialLines};
-pub use staged::{MAX_ITEMS, MAX_STAGES, Stage, StagedPlan};
+pub use staged::{MAX_ITEMS, MAX_OPEN_COUNTS, MAX_STAGES, Stage, StagedPlan};
 pub use variables::{LimitKind, MAX_VARIABLES_SAMPLE, SigmaKind, Specification, VariablesPlan};
 pub use variables_evaluation::{
     VariablesEvaluation, VariablesPoint, evaluate_variables, variables_point, variables_qualities,

@@ -5,6 +5,7 @@ use std::fmt;
 
 use serde::{Deserialize, Serialize};
 
+use crate::design::{MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE};
 use crate::error::InputError;
 use crate::model::{Model, ModelKind};
 use crate::plan::SequentialLines;
@@ -16,6 +17,14 @@ pub const MAX_STAGES: usize = 10;
 /// truncation: `10^5`, where the exact OC of one quality still costs well
 /// under a millisecond.
 pub const MAX_ITEMS: u64 = 100_000;
+
+/// The most counts a stage may leave undecided (`reject - accept - 1`).
+/// The exact recursion carries every open count into the next stage, so a
+/// stage's work is the product of the open counts before and after it:
+/// `500` keeps a ten-stage plan to about `2 10^6` steps a quality. The
+/// designers' plans leave far fewer open (a sequential plan within its
+/// designer's limits, at most about 200).
+pub const MAX_OPEN_COUNTS: u64 = 500;
 
 /// One stage of a staged plan, on cumulative figures.
 ///
@@ -44,9 +53,14 @@ pub struct Stage {
 /// increasing from at least 1; on every stage `accept < reject`; every stage
 /// but the last leaves some count undecided (otherwise the later stages are
 /// never reached); the last stage decides every count
-/// (`reject = accept + 1`); and, for the unit-count models, every acceptance
+/// (`reject = accept + 1`); no stage leaves more than [`MAX_OPEN_COUNTS`]
+/// counts undecided; and, for the unit-count models, every acceptance
 /// number is below its cumulative sample size (otherwise the stage accepts
-/// every lot) and, for the hypergeometric model, the sample fits in the lot.
+/// every lot) and, for the hypergeometric model, the sample fits in the lot;
+/// and every plan stays within the designers' limits, samples of at most
+/// [`MAX_SAMPLE_SIZE`] units and acceptance numbers of at most
+/// [`MAX_ACCEPTANCE_NUMBER`] (beyond them a plan's measures cost minutes and
+/// its sample sizes no longer fit a double's 53 bits).
 ///
 /// # Example
 /// ```
@@ -200,6 +214,24 @@ fn check_stages(stages: &[Stage], model: &Model) -> Result<(), InputError> {
                 });
             }
             previous_n = s.n;
+            if s.n > MAX_SAMPLE_SIZE {
+                return Err(InputError::out_of_range(
+                    &name("cumulative sample size"),
+                    s.n,
+                    &format!("1 to {MAX_SAMPLE_SIZE} units"),
+                ));
+            }
+            let largest = |number: u64| number > MAX_ACCEPTANCE_NUMBER + 1;
+            if s.accept.is_some_and(|a| a > MAX_ACCEPTANCE_NUMBER) || largest(s.reject) {
+                return Err(InputError::out_of_range(
+                    &name("acceptance or rejection number"),
+                    s,
+                    &format!(
+                        "at most {MAX_ACCEPTANCE_NUMBER} for the acceptance number and {} for the rejection number",
+                        MAX_ACCEPTANCE_NUMBER + 1
+                    ),
+                ));
+            }
             if s.n > model.max_sample() {
                 return Err(InputError::Inconsistent(format!(
                     "{} {} exceeds the lot size {}",
@@ -238,6 +270,13 @@ fn check_stages(stages: &[Stage], model: &Model) -> Result<(), InputError> {
                     i + 1,
                     i + 2
                 )));
+            }
+            if s.reject - lowest_open > MAX_OPEN_COUNTS {
+                return Err(InputError::out_of_range(
+                    &name("counts left open (rejection number - acceptance number - 1)"),
+                    s.reject - lowest_open,
+                    &format!("at most {MAX_OPEN_COUNTS}"),
+                ));
             }
             if i == last && s.accept.map(|a| a + 1) != Some(s.reject) {
                 return Err(InputError::Inconsistent(format!(

@@ -2025,11 +2025,7 @@ pub fn write_sheet(
     target: &std::path::Path,
     options: &SheetOptions,
 ) -> Result<Option<Discrepancy>, Error> {
-    let io = |e| crate::error::SourceError::Io {
-        path: source_path.to_path_buf(),
-        source: e,
-    };
-    let text = std::fs::read_to_string(source_path).map_err(io)?;
+    let text = PlanSource::read_text(source_path)?;
     let source = PlanSource::from_yaml(&text, source_path)?;
     let name = source_path
         .file_name()

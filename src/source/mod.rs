@@ -26,6 +26,13 @@ use crate::risk::{RiskPair, RiskPoint};
 /// The largest plan source read: 1 MiB, refused by size before parsing.
 pub const MAX_SOURCE_BYTES: u64 = 1 << 20;
 
+/// The deepest nesting of brackets (`[` and `{`) a source may have; a plan
+/// source needs two at most. The YAML parser's work grows with the depth
+/// times the length of the text, so a megabyte of nothing but brackets
+/// would hold it for minutes; counting every bracket, quoted or in a
+/// comment, costs one pass and refuses such a file at once.
+pub const MAX_BRACKET_DEPTH: usize = 64;
+
 /// The first line of every source the tool writes.
 const HEADER: &str = "# lotsman plan source. Edit the inputs, then re-solve with: lotsman design THIS-FILE --output THIS-FILE.new\n";
 
@@ -35,23 +42,28 @@ pub fn tool_version() -> String {
 }
 
 impl PlanSource {
-    /// Parses a source from YAML text.
+    /// Parses a source from YAML text. A leading byte-order mark, which
+    /// some Windows editors write, is skipped.
     ///
     /// # Errors
     /// [`SourceError::Parse`] with serde_yaml's message (field, line and
     /// column) for malformed YAML, unknown or duplicated fields and wrong
-    /// types; [`SourceError::Invalid`] for a schema version other than
+    /// types, and for brackets nested deeper than [`MAX_BRACKET_DEPTH`];
+    /// [`SourceError::Invalid`] for a schema version other than
     /// [`SCHEMA_VERSION`] or invalid values (see [`PlanSource::request`]).
     pub fn from_yaml(text: &str, path: &Path) -> Result<Self, SourceError> {
         let parse = |message: String| SourceError::Parse {
             path: path.to_path_buf(),
             message,
         };
-        if text.trim().is_empty() {
+        let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+        let blank = |line: &str| line.trim().is_empty() || line.trim_start().starts_with('#');
+        if text.lines().all(blank) {
             return Err(parse(
-                "the file is empty; start from a template: lotsman new binomial".into(),
+                "the file is empty (nothing but blank lines and comments); start from a template: lotsman new binomial".into(),
             ));
         }
+        check_brackets(text).map_err(parse)?;
         let source: PlanSource = serde_yaml::from_str(text).map_err(|e| parse(e.to_string()))?;
         if source.schema != SCHEMA_VERSION {
             return Err(SourceError::Invalid {
@@ -81,21 +93,33 @@ impl PlanSource {
     /// [`MAX_SOURCE_BYTES`] before reading them.
     ///
     /// # Errors
-    /// [`SourceError::Io`] when the file cannot be read or is too large;
-    /// otherwise as [`PlanSource::from_yaml`].
+    /// As [`PlanSource::read_text`]; otherwise as [`PlanSource::from_yaml`].
     pub fn load(path: &Path) -> Result<Self, SourceError> {
+        Self::from_yaml(&Self::read_text(path)?, path)
+    }
+
+    /// The text of the source file at `path`, read within
+    /// [`MAX_SOURCE_BYTES`] ([`read_limited`](crate::read_limited)).
+    ///
+    /// # Errors
+    /// [`SourceError::Io`] when the file cannot be read, is too large or is
+    /// not UTF-8 text.
+    pub fn read_text(path: &Path) -> Result<String, SourceError> {
         let io = |source| SourceError::Io {
             path: path.to_path_buf(),
             source,
         };
-        let size = std::fs::metadata(path).map_err(io)?.len();
-        if size > MAX_SOURCE_BYTES {
-            return Err(io(std::io::Error::other(format!(
-                "the file has {size} bytes; a plan source may have at most {MAX_SOURCE_BYTES}"
-            ))));
-        }
-        let text = std::fs::read_to_string(path).map_err(io)?;
-        Self::from_yaml(&text, path)
+        let bytes =
+            crate::read::read_limited(path, MAX_SOURCE_BYTES, "a plan source").map_err(io)?;
+        String::from_utf8(bytes).map_err(|e| {
+            io(std::io::Error::new(
+                std::io::ErrorKind::InvalidData,
+                format!(
+                    "the file is not UTF-8 text (byte {} is not); save it as UTF-8",
+                    e.utf8_error().valid_up_to() + 1
+                ),
+            ))
+        })
     }
 
     /// Loads a source that must record a plan, with its request and its
@@ -128,7 +152,7 @@ impl PlanSource {
     pub fn request(&self) -> Result<DesignRequest, InputError> {
         if self.is_variables() {
             return Err(InputError::Inconsistent(format!(
-                "the source '{}' is a variables plan; it has no attributes request",
+                "the source '{}' is a variables plan, decided from measurements (judge --measurements FILE.csv), not from counts",
                 self.title
             )));
         }
@@ -155,7 +179,13 @@ impl PlanSource {
     /// date, attribute settings on a variables plan, or an attributes
     /// source.
     pub fn variables_request(&self) -> Result<VariablesRequest, InputError> {
-        let Some(v) = self.variables.as_ref().filter(|_| self.is_variables()) else {
+        if !self.is_variables() {
+            return Err(InputError::Inconsistent(format!(
+                "the source '{}' is a {} attributes plan, decided from counts (judge --found K), not from measurements",
+                self.title, self.scheme
+            )));
+        }
+        let Some(v) = self.variables.as_ref() else {
             return Err(InputError::Inconsistent(format!(
                 "the source '{}' needs scheme: variables and a 'variables' section (sigma, limit, lower/upper)",
                 self.title
@@ -416,6 +446,28 @@ impl PlanSource {
         let body = serde_yaml::to_string(self).unwrap_or_default();
         format!("{HEADER}{body}")
     }
+}
+
+/// Checks that brackets nest at most [`MAX_BRACKET_DEPTH`] deep, counting
+/// every `[`, `{`, `]` and `}` of the text.
+fn check_brackets(text: &str) -> Result<(), String> {
+    let mut depth = 0usize;
+    for (i, line) in text.lines().enumerate() {
+        for ch in line.chars() {
+            match ch {
+                '[' | '{' => depth += 1,
+                ']' | '}' => depth = depth.saturating_sub(1),
+                _ => continue,
+            }
+            if depth > MAX_BRACKET_DEPTH {
+                return Err(format!(
+                    "brackets [ and {{ nest more than {MAX_BRACKET_DEPTH} deep at line {}; a plan source needs at most 2 (see: lotsman new binomial)",
+                    i + 1
+                ));
+            }
+        }
+    }
+    Ok(())
 }
 
 /// Checks a `YYYY-MM-DD` date of the Gregorian calendar.

@@ -152,17 +152,23 @@ pub struct RecordedVariables {
     pub m: Option<f64>,
 }
 
+/// A quality or risk as written in the source: a plain number (`0.01`) or a
+/// percent string (`"1%"`), both read by
+/// [`parse_fraction`](crate::parse_fraction) from the scalar's own text
+/// (serde_yaml hands any scalar to a string visitor), so that `1e-400` is
+/// refused as written rather than read as 0. Asking for the text also means
+/// that a value is never buffered: a sequence or mapping (an alias of one
+/// included) is refused at its first event instead of being expanded.
 fn fraction<'de, D: Deserializer<'de>>(d: D) -> Result<f64, D::Error> {
-    #[derive(Deserialize)]
-    #[serde(untagged)]
-    enum Raw {
-        Number(f64),
-        Text(String),
-    }
-    match Raw::deserialize(d)? {
-        Raw::Number(x) => Ok(x),
-        Raw::Text(t) => {
-            crate::quantity::parse_fraction("value", &t).map_err(serde::de::Error::custom)
+    struct Fraction;
+    impl serde::de::Visitor<'_> for Fraction {
+        type Value = f64;
+        fn expecting(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+            f.write_str("a fraction (0.01) or a percent (\"1%\")")
+        }
+        fn visit_str<E: serde::de::Error>(self, text: &str) -> Result<f64, E> {
+            crate::quantity::parse_fraction("value", text).map_err(E::custom)
         }
     }
+    d.deserialize_str(Fraction)
 }
