@@ -863,6 +863,12 @@ fn evaluate_refuses_invalid_plans_and_qualities() {
             &["evaluate", "@c-above-n.yaml"],
             "acceptance number 7 must be below the cumulative sample size 5",
         ),
+        reported(
+            "verify of a source that records c > n: invalid, not a mismatch",
+            &["verify", "@c-above-n.yaml"],
+            2,
+            "acceptance number 7 must be below the cumulative sample size 5",
+        ),
         refused(
             "a source that records no plan",
             &["evaluate", "@no-plan.yaml"],

@@ -3,13 +3,16 @@
 
 use std::path::Path;
 
+use crate::error::InputError;
 use crate::report::{VerifyEntry, VerifyStatus};
 use crate::source::{PlanSource, Verdict, verify};
 
 /// Reads, re-solves and compares the source at `path` (see
 /// [`verify`](crate::verify)). A file that cannot be read, parsed or
-/// solved is an [`VerifyStatus::Invalid`] entry whose message names the
-/// path and the cause.
+/// solved, or that records a plan which is no valid plan (an acceptance
+/// number above the sample, stages out of order), is an
+/// [`VerifyStatus::Invalid`] entry whose message names the path and the
+/// cause.
 ///
 /// ```
 /// use lotsman::{VerifyStatus, verify_file};
@@ -32,7 +35,32 @@ pub fn verify_file(path: &Path) -> VerifyEntry {
     };
     match verify(&source) {
         Ok(Verdict::Match) => entry(VerifyStatus::Match, Vec::new(), None),
-        Ok(Verdict::Mismatch(diffs)) => entry(VerifyStatus::Mismatch, diffs, None),
+        // A recorded plan that is no valid plan at all (c above n, stages
+        // out of order) is invalid, not merely different; the differing
+        // fields are still listed.
+        Ok(Verdict::Mismatch(diffs)) => match recorded_plan_is_valid(&source) {
+            Ok(()) => entry(VerifyStatus::Mismatch, diffs, None),
+            Err(why) => entry(
+                VerifyStatus::Invalid,
+                diffs,
+                Some(format!("the recorded plan is not a valid plan: {why}")),
+            ),
+        },
         Err(e) => entry(VerifyStatus::Invalid, Vec::new(), Some(e.to_string())),
     }
+}
+
+/// Whether the plan a source records, if any, is a valid plan for the
+/// source's model or specification.
+fn recorded_plan_is_valid(source: &PlanSource) -> Result<(), InputError> {
+    if source.plan.is_none() {
+        return Ok(());
+    }
+    if source.is_variables() {
+        let request = source.variables_request()?;
+        source.recorded_variables_plan(request.spec())?;
+    } else {
+        source.recorded_plan(&source.request()?.model)?;
+    }
+    Ok(())
 }
