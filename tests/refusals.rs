@@ -686,6 +686,9 @@ fn points_beyond_the_limits_are_refused_within_a_second() {
         refused_fast("double plan at parts per million (n = 1.1 million)", &["design", "--aql", "1e-6", "--rql", "6e-6", "--scheme", "double"], "a double search around the single plan n = 1113463, c = 3 of size n (c + 3)^3 = 2.41e8 beyond the designer's limit of 1e8"),
         refused_fast("multiple plan at parts per million", &["design", "--aql", "1e-6", "--rql", "6e-6", "--scheme", "multiple"], "a multiple plan around the single plan's sample n = 1113463 beyond the designer's limit of 20000 units"),
         refused_fast("sequential plan for close points (c = 937)", &["design", "--aql", "1%", "--rql", "1.1%", "--scheme", "sequential"], "of size n (c + 1) = 83331920 beyond the designer's limit of 10000000"),
+        // Found by the no-panics property: every acceptance number fits at
+        // n = 1 here, and listing them once ran out of memory.
+        reported("Poisson RQL of 10^9 per unit: answered at once", &["design", "--aql", "0.02", "--rql", "1e9", "--model", "poisson"], 0, "PLAN  n = 1, c = 98"),
         reported("trade-off grid of close points: every cell says why", &["tradeoff", "--aql", "1e-9,2e-9", "--rql", "1.0001e-9,3e-9"], 0, "no plan in 4 of 4 cells"),
         reported("double trade-off grid at parts per million", &["tradeoff", "--aql", "1e-7,2e-7", "--rql", "6e-7,9e-7", "--scheme", "double"], 0, "no plan in 4 of 4 cells"),
         refused_fast("rectify, LTPD beyond the sample limit in a huge lot", &["rectify", "--lot-size", "1000000000000", "--process-average", "1e-9", "--ltpd", "1.0001e-9"], "the protection needs a sample beyond the designer's limit of 1000000000 units, and the lot has 1000000000000"),

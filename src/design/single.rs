@@ -50,6 +50,9 @@ pub const MAX_SAMPLE_SIZE: u64 = 1_000_000_000;
 /// The largest acceptance number the designer will propose (`10^5`).
 pub const MAX_ACCEPTANCE_NUMBER: u64 = 100_000;
 
+/// The most acceptance numbers a design lists as fitting at its `n`.
+const MAX_FITTING_LISTED: usize = 1000;
+
 /// A solved single plan.
 #[derive(Clone, Debug, PartialEq)]
 pub struct SingleDesign {
@@ -64,7 +67,9 @@ pub struct SingleDesign {
     /// Achieved consumer's risk `Pa(p2)`.
     pub consumer_risk: f64,
     /// Every acceptance number that also meets both points at `n` (the
-    /// chosen one included), for the record of the tie rule.
+    /// chosen one included), for the record of the tie rule; the list ends
+    /// where no later one could win it (a producer's risk of exactly 0) and
+    /// holds at most 1,000.
     pub fitting_c: Vec<u64>,
 }
 
@@ -376,9 +381,18 @@ pub(crate) fn design_single_with(
     // Larger acceptance numbers only lower the producer's risk, so those that
     // fit at n are the run from c up while the consumer's point still holds.
     // Each fitting c is kept with its two risks: (c, producer's, consumer's).
+    // The run ends early once the producer's risk is exactly 0: every later
+    // c has producer's risk 0 and a consumer's risk no smaller, so none can
+    // win the tie rule (this bounds the run where a Poisson RQL of millions
+    // per unit lets every c fit at n = 1); and it lists at most
+    // MAX_FITTING_LISTED acceptance numbers.
     let mut fitting = vec![(c, producer_risk, s.consumer_risk(n, c))];
     let mut next = c + 1;
-    while model.kind() == ModelKind::Poisson || next < n {
+    while (model.kind() == ModelKind::Poisson || next < n)
+        && next <= MAX_ACCEPTANCE_NUMBER
+        && fitting.len() < MAX_FITTING_LISTED
+        && fitting[fitting.len() - 1].1 > 0.0
+    {
         let consumer_risk = s.consumer_risk(n, next);
         if consumer_risk > s.beta {
             break;
