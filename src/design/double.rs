@@ -61,10 +61,10 @@ use crate::risk::RiskPair;
 /// at 25 it takes about 3 s on two cores.
 pub const MAX_DOUBLE_SINGLE_C: u64 = 25;
 
-/// The largest double search served, as [`double_search_size`]: about 10 s
-/// on two cores. Beyond it (points a few parts per million apart, where the
-/// single plan inspects a million units) the sweep would run for minutes
-/// or hours.
+/// The largest double search served, measured as `n (c + 3)^3` for the
+/// single plan's `n` and `c`: about 10 s on two cores. Beyond it (points a
+/// few parts per million apart, where the single plan inspects a million
+/// units) the sweep would run for minutes or hours.
 pub const MAX_DOUBLE_SEARCH: f64 = 1e8;
 
 /// The work of a double search whose first samples run up to `n` around

@@ -13,7 +13,8 @@ pub struct StageOutcomes {
     pub reject: Vec<f64>,
     /// Expected number of units inspected under full curtailment (stop as
     /// soon as the decision is certain); `None` where it was not asked for
-    /// or cannot be computed (see [`Walk::step`]).
+    /// or cannot be computed (a hypergeometric state the earlier draws
+    /// cannot produce).
     pub curtailed_units: Option<f64>,
 }
 
