@@ -1100,7 +1100,7 @@ fn plan_sources_that_are_not_valid_yaml_sources_are_refused() {
             "duplicated nested key",
             &v("@duplicate-nested-key.yaml"),
             2,
-            "producer: duplicate field `quality` at line 6",
+            "producer: duplicate field `quality` at line 6 column 3; `quality` is given again at line 7",
         ),
         reported(
             "schema as text",

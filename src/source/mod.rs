@@ -3,6 +3,7 @@
 //! solution, saving, and verification.
 
 mod audit;
+mod keys;
 mod schema;
 mod verify;
 
@@ -47,7 +48,8 @@ impl PlanSource {
     ///
     /// # Errors
     /// [`SourceError::Parse`] with serde_yaml's message (field, line and
-    /// column) for malformed YAML, unknown or duplicated fields and wrong
+    /// column; for a duplicated field, the line where it is given again)
+    /// for malformed YAML, unknown or duplicated fields and wrong
     /// types, and for brackets nested deeper than [`MAX_BRACKET_DEPTH`];
     /// [`SourceError::Invalid`] for a schema version other than
     /// [`SCHEMA_VERSION`] or invalid values (see [`PlanSource::request`]).
@@ -64,7 +66,8 @@ impl PlanSource {
             ));
         }
         check_brackets(text).map_err(parse)?;
-        let source: PlanSource = serde_yaml::from_str(text).map_err(|e| parse(e.to_string()))?;
+        let source: PlanSource = serde_yaml::from_str(text)
+            .map_err(|e| parse(with_repeated_line(e.to_string(), text)))?;
         if source.schema != SCHEMA_VERSION {
             return Err(SourceError::Invalid {
                 path: path.to_path_buf(),
@@ -468,6 +471,28 @@ fn check_brackets(text: &str) -> Result<(), String> {
         }
     }
     Ok(())
+}
+
+/// serde_yaml's `message`, with the line where a duplicated field is given
+/// again when it names one (serde_yaml gives none at the top level, and the
+/// start of the mapping below it).
+fn with_repeated_line(message: String, text: &str) -> String {
+    let key = message
+        .split_once("duplicate field `")
+        .and_then(|(_, rest)| rest.split_once('`'))
+        .map(|(key, _)| key);
+    let line = key.and_then(|key| {
+        keys::repeated_keys(text)
+            .into_iter()
+            .find(|&(_, k)| k == key)
+            .map(|(line, _)| line)
+    });
+    match (key, line) {
+        (Some(key), Some(line)) => {
+            format!("{message}; `{key}` is given again at line {line}, and a key may appear once")
+        }
+        _ => message,
+    }
 }
 
 /// Checks a `YYYY-MM-DD` date of the Gregorian calendar.
