@@ -37,6 +37,12 @@ fn benches(c: &mut Criterion) {
             black_box(out)
         })
     });
+    // The numerical guard runs on every report before it is written.
+    let grid = tradeoff(&request, &|| {});
+    let report = TradeoffReport::new(None, &grid);
+    group.bench_function("100 x 100 single grid report, guarded", |b| {
+        b.iter(|| black_box(report.check()))
+    });
     group.finish();
 }
 

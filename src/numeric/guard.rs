@@ -4,6 +4,8 @@
 //! (a NaN from an overflow, a tail summed past its range) stops the command
 //! with a message instead of printing a wrong plan quietly.
 
+use std::fmt::Display;
+
 use thiserror::Error;
 
 /// A computed number that its kind does not allow.
@@ -28,9 +30,14 @@ const ROUNDING: f64 = 1e-12;
 /// Checks that `p` is a probability (finite, within `[0, 1]` up to
 /// rounding of `1e-12`).
 ///
+/// `quantity` is only written out when the check fails: a report of a
+/// 500 x 500 grid checks over a million numbers, and naming each one up
+/// front would cost more than solving the grid. Pass `format_args!` for a
+/// name built from values.
+///
 /// # Errors
 /// [`NumericalError`] naming `quantity`.
-pub fn check_probability(quantity: &str, p: f64) -> Result<(), NumericalError> {
+pub fn check_probability(quantity: impl Display, p: f64) -> Result<(), NumericalError> {
     if p.is_finite() && (-ROUNDING..=1.0 + ROUNDING).contains(&p) {
         return Ok(());
     }
@@ -42,11 +49,12 @@ pub fn check_probability(quantity: &str, p: f64) -> Result<(), NumericalError> {
 }
 
 /// Checks that `x` is finite and not negative (a number of units, a
-/// quality, a cost).
+/// quality, a cost); `quantity` is written out only on failure, as in
+/// [`check_probability`].
 ///
 /// # Errors
 /// [`NumericalError`] naming `quantity`.
-pub fn check_amount(quantity: &str, x: f64) -> Result<(), NumericalError> {
+pub fn check_amount(quantity: impl Display, x: f64) -> Result<(), NumericalError> {
     if x.is_finite() && x >= -ROUNDING {
         return Ok(());
     }

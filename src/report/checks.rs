@@ -13,8 +13,15 @@ use crate::plan::{Aoql, MeasurementJudgement, Measures, VariablesPoint};
 
 type Checked = Result<(), NumericalError>;
 
-fn at(name: &str, quality: f64) -> String {
-    format!("{name} at quality {quality}")
+/// `NAME at quality Q`, written out only when a check fails.
+fn at(name: &str, quality: f64) -> impl std::fmt::Display + '_ {
+    struct At<'a>(&'a str, f64);
+    impl std::fmt::Display for At<'_> {
+        fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+            write!(f, "{} at quality {}", self.0, self.1)
+        }
+    }
+    At(name, quality)
 }
 
 fn aoql(a: &Aoql) -> Checked {
@@ -23,26 +30,26 @@ fn aoql(a: &Aoql) -> Checked {
 }
 
 fn measures(m: &Measures) -> Checked {
-    check_probability(&at("Pa", m.quality), m.pa)?;
-    check_probability(&at("AOQ", m.quality), m.aoq)?;
-    check_amount(&at("ASN", m.quality), m.asn)?;
+    check_probability(at("Pa", m.quality), m.pa)?;
+    check_probability(at("AOQ", m.quality), m.aoq)?;
+    check_amount(at("ASN", m.quality), m.asn)?;
     if let Some(ati) = m.ati {
-        check_amount(&at("ATI", m.quality), ati)?;
+        check_amount(at("ATI", m.quality), ati)?;
     }
     if let Some(asn) = m.asn_curtailed {
-        check_amount(&at("curtailed ASN", m.quality), asn)?;
+        check_amount(at("curtailed ASN", m.quality), asn)?;
     }
     Ok(())
 }
 
 fn variables_point(p: &VariablesPoint) -> Checked {
-    check_probability(&at("Pa", p.quality), p.pa)?;
+    check_probability(at("Pa", p.quality), p.pa)?;
     if let Some(pa) = p.pa_centred {
-        check_probability(&at("Pa (mean centred)", p.quality), pa)?;
+        check_probability(at("Pa (mean centred)", p.quality), pa)?;
     }
-    check_probability(&at("AOQ", p.quality), p.aoq)?;
+    check_probability(at("AOQ", p.quality), p.aoq)?;
     if let Some(ati) = p.ati {
-        check_amount(&at("ATI", p.quality), ati)?;
+        check_amount(at("ATI", p.quality), ati)?;
     }
     Ok(())
 }
@@ -80,7 +87,7 @@ impl EvaluationReport {
         }
         for (m, shares) in self.points.iter().zip(&self.decided_at) {
             for &share in shares {
-                check_probability(&at("share decided at a stage", m.quality), share)?;
+                check_probability(at("share decided at a stage", m.quality), share)?;
             }
         }
         aoql(&self.aoql)?;
@@ -120,14 +127,14 @@ impl TradeoffReport {
     /// [`NumericalError`] naming the first number out of its range.
     pub fn check(&self) -> Checked {
         for c in &self.cells {
-            let cell = |name: &str| format!("{name} of the cell AQL {}, RQL {}", c.aql, c.rql);
             for (name, v) in [
                 ("achieved producer's risk", c.producer_risk),
                 ("achieved consumer's risk", c.consumer_risk),
                 ("Pa at the process quality", c.pa_at_process.flatten()),
             ] {
                 if let Some(v) = v {
-                    check_probability(&cell(name), v)?;
+                    let cell = format_args!("{name} of the cell AQL {}, RQL {}", c.aql, c.rql);
+                    check_probability(cell, v)?;
                 }
             }
             for (name, v) in [
@@ -136,7 +143,8 @@ impl TradeoffReport {
                 ("cost", c.cost.flatten()),
             ] {
                 if let Some(v) = v {
-                    check_amount(&cell(name), v)?;
+                    let cell = format_args!("{name} of the cell AQL {}, RQL {}", c.aql, c.rql);
+                    check_amount(cell, v)?;
                 }
             }
         }
@@ -162,7 +170,7 @@ impl RectifyingReport {
         }
         for row in &self.by_acceptance_number {
             if let Some(ati) = row.ati {
-                check_amount(&format!("ATI of c = {}", row.c), ati)?;
+                check_amount(format_args!("ATI of c = {}", row.c), ati)?;
             }
         }
         Ok(())

@@ -200,9 +200,9 @@ fn curve_points(f: &Facts) -> Result<(f64, Vec<CurvePoint>), NumericalError> {
         // range stops the sheet rather than bend a curve.
         .map(|p| {
             let m = measures(&f.plan, &f.model, p);
-            check_probability(&format!("Pa at quality {p} on the OC curve"), m.pa)?;
-            check_probability(&format!("AOQ at quality {p} on the AOQ curve"), m.aoq)?;
-            check_amount(&format!("ASN at quality {p} on the ASN curve"), m.asn)?;
+            check_probability(format_args!("Pa at quality {p} on the OC curve"), m.pa)?;
+            check_probability(format_args!("AOQ at quality {p} on the AOQ curve"), m.aoq)?;
+            check_amount(format_args!("ASN at quality {p} on the ASN curve"), m.asn)?;
             Ok(CurvePoint {
                 p,
                 pa: m.pa,

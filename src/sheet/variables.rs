@@ -703,7 +703,7 @@ fn oc_chart(
         ("attributes OC", &attributes_curve),
     ] {
         for &(p, pa) in curve.iter() {
-            check_probability(&format!("Pa at quality {p} on the {name} curve"), pa)?;
+            check_probability(format_args!("Pa at quality {p} on the {name} curve"), pa)?;
         }
     }
     let axis = quality_tick(false);
