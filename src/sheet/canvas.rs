@@ -61,6 +61,10 @@ pub struct Canvas<'f> {
     bold: &'f ParsedFont,
 }
 
+/// Millimetres per point (1 pt = 1/72 inch): the page is laid out in mm,
+/// type is sized in points.
+pub const MM_PER_PT: f64 = 25.4 / 72.0;
+
 pub const REGULAR_ID: &str = "SheetSans";
 pub const BOLD_ID: &str = "SheetSansBold";
 
@@ -156,7 +160,7 @@ impl<'f> Canvas<'f> {
                     .unwrap_or(font.units_per_em / 2) as f64
             })
             .sum();
-        units / font.units_per_em as f64 * size * 25.4 / 72.0
+        units / font.units_per_em as f64 * size * MM_PER_PT
     }
 
     /// Writes one line of text with its baseline at `(x, y)`.
@@ -225,7 +229,7 @@ impl<'f> Canvas<'f> {
         let mut at = x;
         for (run, sub) in formula_runs(text) {
             let (s, dy) = if sub {
-                (sub_size(size), -0.22 * size * 0.3528)
+                (sub_size(size), -0.22 * size * MM_PER_PT)
             } else {
                 (size, 0.0)
             };
@@ -265,7 +269,7 @@ impl<'f> Canvas<'f> {
         let mut s = size;
         loop {
             let lines = self.wrap(text, face, s, w);
-            let lead = s * 0.3528 * 1.25;
+            let lead = s * MM_PER_PT * 1.25;
             let need = lead * lines.len() as f64;
             let widest = lines
                 .iter()
@@ -305,7 +309,7 @@ impl<'f> Canvas<'f> {
             self.overflows.push(format!("{name}: '{text}'"));
         }
         for (i, l) in fit.lines.iter().enumerate() {
-            let y = top - fit.size * 0.3528 - fit.lead * i as f64;
+            let y = top - fit.size * MM_PER_PT - fit.lead * i as f64;
             self.text(x, y, l, face, fit.size, grey(0.0));
         }
         fit.height
@@ -469,7 +473,7 @@ impl<'f> Canvas<'f> {
 /// than any printer, and a third of the digits of a full `f32`, which
 /// keeps a map of thousands of cells small.
 fn compact_point(x: f64, y: f64) -> LinePoint {
-    let round = |v: f64| Pt(((v * 72.0 / 25.4) * 100.0).round() as f32 / 100.0);
+    let round = |v: f64| Pt(((v / MM_PER_PT) * 100.0).round() as f32 / 100.0);
     LinePoint {
         p: Point {
             x: round(x),

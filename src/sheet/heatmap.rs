@@ -38,7 +38,7 @@ mod text;
 use sha2::{Digest, Sha256};
 
 use super::canvas::{Canvas, Face, Page, Region, grey};
-use super::{BOLD_TTF, Paper, REGULAR_TTF, save_page};
+use super::{Paper, embedded_fonts, save_page};
 use crate::design::{Scheme, TradeoffGrid};
 use crate::error::{Error, InputError};
 use crate::model::ModelKind;
@@ -167,11 +167,7 @@ pub fn render_tradeoff_map(
             .into());
         }
     }
-    let regular = printpdf::ParsedFont::from_bytes(REGULAR_TTF, 0, &mut Vec::new());
-    let bold = printpdf::ParsedFont::from_bytes(BOLD_TTF, 0, &mut Vec::new());
-    let (Some(regular), Some(bold)) = (regular, bold) else {
-        return Err(InputError::Inconsistent("the embedded map fonts do not parse".into()).into());
-    };
+    let (regular, bold) = embedded_fonts()?;
     // Landscape: the paper turned.
     let (ph, pw) = paper.size();
     let hash = inputs_hash(grid, title, command, paper);

@@ -37,7 +37,7 @@ use crate::plan::{
 use crate::report::{EvaluationReport, format_quality, format_significant, words};
 use crate::risk::RiskPair;
 use crate::source::{Discrepancy, PlanSource, RecordedPlan, attributes_risks, audit, tool_version};
-use canvas::{BOLD_ID, Canvas, Face, Page, REGULAR_ID, Region, grey, rgb};
+use canvas::{BOLD_ID, Canvas, Face, MM_PER_PT, Page, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
 pub use heatmap::{
     ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map,
@@ -266,13 +266,7 @@ fn render(
     paper: Paper,
     notice: Option<String>,
 ) -> Result<Sheet, Error> {
-    let regular = printpdf::ParsedFont::from_bytes(REGULAR_TTF, 0, &mut Vec::new());
-    let bold = printpdf::ParsedFont::from_bytes(BOLD_TTF, 0, &mut Vec::new());
-    let (Some(regular), Some(bold)) = (regular, bold) else {
-        return Err(
-            InputError::Inconsistent("the embedded sheet fonts do not parse".into()).into(),
-        );
-    };
+    let (regular, bold) = embedded_fonts()?;
     let (pw, ph) = paper.size();
     let mut c = Canvas::new(&regular, &bold);
     let margin = 14.0;
@@ -361,6 +355,20 @@ fn render(
         source_sha256: common.hash.clone(),
         regions,
     })
+}
+
+/// The two embedded faces, regular and bold, parsed for a canvas.
+///
+/// # Errors
+/// [`InputError::Inconsistent`] when they do not parse (a build defect).
+fn embedded_fonts() -> Result<(printpdf::ParsedFont, printpdf::ParsedFont), InputError> {
+    let parse = |bytes| printpdf::ParsedFont::from_bytes(bytes, 0, &mut Vec::new());
+    match (parse(REGULAR_TTF), parse(BOLD_TTF)) {
+        (Some(regular), Some(bold)) => Ok((regular, bold)),
+        _ => Err(InputError::Inconsistent(
+            "the embedded fonts do not parse (a defect of this build)".into(),
+        )),
+    }
 }
 
 /// The PDF of one page of `ops`, with the fonts, the source hash in the
@@ -625,14 +633,14 @@ fn notice_block(
         taken += 1;
     }
     let rest = words[taken..].join(" ");
-    let lead = NOTICE_SIZE * 0.3528 * 1.25;
+    let lead = NOTICE_SIZE * MM_PER_PT * 1.25;
     // More lines than the box holds are the paragraph's overflow below.
     let lines = 1 + c.wrap(&rest, Face::Regular, NOTICE_SIZE, text_w).len();
     let h = 2.0 * pad + lead * lines.min(max_lines) as f64;
     c.claim("notice", left, top - h, width, h);
     c.rect_fill(left, top - h, width, h, rgb(0.99, 0.92, 0.90));
     c.rect_stroke(left, top - h, width, h, 1.4, reject_colour());
-    let baseline = top - pad - NOTICE_SIZE * 0.3528;
+    let baseline = top - pad - NOTICE_SIZE * MM_PER_PT;
     c.text(
         left + pad,
         baseline,
@@ -1033,7 +1041,7 @@ fn plan_table<const K: usize>(
         if i % 2 == 1 {
             c.rect_fill(x, row_top - pitch, total, pitch, rgb(0.85, 0.89, 0.95));
         }
-        let y = row_top - pitch * 0.5 - size * 0.3528 * 0.36;
+        let y = row_top - pitch * 0.5 - size * MM_PER_PT * 0.36;
         let mut cx = x;
         for (cell, w) in row.iter().zip(widths) {
             let tw = c.width(&cell.text, cell.face, size);
@@ -1552,7 +1560,7 @@ fn decision_chart(
     // units the zone between them is narrowest at its ends: one test per
     // position. A label without room is left out; the colours say the same.
     let size = 6.5;
-    let label_h = size * 0.3528 * 0.75;
+    let label_h = size * MM_PER_PT * 0.75;
     let pad = 0.8;
     let per_unit_mm = (plot.right - plot.left) / t;
     // The unit whose step the page x `px` lies on (units n - 1 to n).

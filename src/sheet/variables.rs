@@ -20,7 +20,7 @@
 //! paper. A larger sample is written on a separate readings log; the sheet
 //! says so and keeps the result lines.
 
-use super::canvas::{Canvas, Face, grey, rgb};
+use super::canvas::{Canvas, Face, MM_PER_PT, grey, rgb};
 use super::chart::{self, Axes, LegendEntry, Plot, nice_ceiling};
 use super::variables_text::{self as words, RuleLine};
 use super::{
@@ -215,7 +215,7 @@ fn footer_height(c: &Canvas, caution: &str, width: f64) -> f64 {
     let caution_h = c
         .fit(caution, Face::Regular, width, f64::INFINITY, 7.0, 7.0)
         .height;
-    1.5 + caution_h + 1.5 + 3.0 * 6.0 * 0.3528 * 1.25 + 0.5
+    1.5 + caution_h + 1.5 + 3.0 * 6.0 * MM_PER_PT * 1.25 + 0.5
 }
 
 /// The plan box: heading, n and the constant large, sigma, the limits and
@@ -353,7 +353,7 @@ fn rule_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
         c.formula_width(a, Face::Regular, size) + pair_gap + c.formula_width(b, Face::Regular, size)
             <= inner
     };
-    let lead = size * 0.3528 * 1.4;
+    let lead = size * MM_PER_PT * 1.4;
     let note_size = 6.0;
     let heights: Vec<f64> = lines
         .iter()
@@ -554,7 +554,7 @@ fn readings_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, band_h: f
             }
             c.text_right(
                 gx + number_w - 1.5,
-                row_top - pitch * 0.5 - size * 0.3528 * 0.36,
+                row_top - pitch * 0.5 - size * MM_PER_PT * 0.36,
                 &index.to_string(),
                 Face::Regular,
                 size,

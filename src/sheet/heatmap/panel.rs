@@ -10,7 +10,7 @@ use printpdf::Color;
 use super::contour::{Lattice, Path};
 use super::field::{Field, Gap, LogScale, MapQuantity, blocks, levels, tiles, value_label};
 use super::{ContourLabel, MapContour, MapPanel, ramp, text};
-use crate::sheet::canvas::{Canvas, Face, Region, grey};
+use crate::sheet::canvas::{Canvas, Face, MM_PER_PT, Region, grey};
 use crate::sheet::chart::{next_step, nice_step, segment_hits, tick_label};
 
 /// Type sizes, points: large enough to read across a meeting room.
@@ -18,9 +18,6 @@ const TITLE: f64 = 10.5;
 const AXIS: f64 = 9.0;
 const TICK: f64 = 8.0;
 const LABEL: f64 = 9.0;
-
-/// Millimetres per point.
-const PT: f64 = 25.4 / 72.0;
 
 /// Height of the digits of DejaVu Sans, as a fraction of the type size.
 const DIGIT_HEIGHT: f64 = 0.73;
@@ -164,7 +161,7 @@ fn ticks(
                 .fold(0.0, f64::max)
                 + 4.0
         } else {
-            3.0 * TICK * PT
+            3.0 * TICK * MM_PER_PT
         };
         if step / (hi - lo) * span >= need || ticks.len() <= 2 {
             return ticks;
@@ -467,7 +464,7 @@ fn place_labels(
     };
     let mut placed: Vec<Rect> = Vec::new();
     let mut out = Vec::with_capacity(levels.len());
-    let bh = DIGIT_HEIGHT * LABEL * PT + 2.0 * PAD_Y;
+    let bh = DIGIT_HEIGHT * LABEL * MM_PER_PT + 2.0 * PAD_Y;
     for (li, &level) in levels.iter().enumerate() {
         let bw = c.width(&value_label(level), Face::Bold, LABEL) + 2.0 * PAD_X;
         let lengths: Vec<Vec<f64>> = on_page[li].iter().map(|p| cumulative(p)).collect();
@@ -523,7 +520,7 @@ fn draw_label(c: &mut Canvas, text: &str, r: Rect) {
 fn draw_box_text(c: &mut Canvas, text: &str, face: Face, size: f64, r: Rect) {
     c.fill_rects(&[r], grey(1.0));
     let tw = c.width(text, face, size);
-    let baseline = (r.1 + r.3) / 2.0 - DIGIT_HEIGHT * size * PT / 2.0;
+    let baseline = (r.1 + r.3) / 2.0 - DIGIT_HEIGHT * size * MM_PER_PT / 2.0;
     c.text(
         (r.0 + r.2 - tw) / 2.0,
         baseline,
@@ -644,7 +641,7 @@ fn axes(
         marks.push(vec![(left - TICK_LEN, py), (left, py)]);
         c.text_right(
             left - TICK_LEN - 0.6,
-            py - DIGIT_HEIGHT * TICK * PT / 2.0,
+            py - DIGIT_HEIGHT * TICK * MM_PER_PT / 2.0,
             label,
             Face::Regular,
             TICK,
@@ -675,7 +672,7 @@ fn axes(
             "{name}: '{y_label}' runs into the colour bar's title"
         ));
     }
-    let fit = c.fit(&p.title, Face::Bold, w, TITLE * PT * 1.3, TITLE, 7.5);
+    let fit = c.fit(&p.title, Face::Bold, w, TITLE * MM_PER_PT * 1.3, TITLE, 7.5);
     if !fit.fits {
         c.overflows.push(format!("{name}: '{}'", p.title));
     }
@@ -706,7 +703,7 @@ fn bar_labels(
         .iter()
         .map(|&l| (at(l), value_label(l), Face::Bold, TICK))
         .collect();
-    let clear = 3.0 * TICK * PT;
+    let clear = 3.0 * TICK * MM_PER_PT;
     for v in [lo, hi] {
         let py = at(v);
         if levels.iter().all(|&l| (at(l) - py).abs() >= clear) {
@@ -768,7 +765,7 @@ fn colour_bar(
     for (py, label, face, size) in labels {
         c.text(
             bx + BAR_W + TICK_LEN + 0.8,
-            py - DIGIT_HEIGHT * size * PT / 2.0,
+            py - DIGIT_HEIGHT * size * MM_PER_PT / 2.0,
             label,
             *face,
             *size,
@@ -784,11 +781,7 @@ mod tests {
     /// Places the labels of `paths` (one path per level, levels 10, 20,
     /// ...) on a plot from (0, 0) to (200, 100) mm.
     fn labels_of(paths: &[Path]) -> Vec<Vec<Rect>> {
-        let regular =
-            printpdf::ParsedFont::from_bytes(crate::sheet::REGULAR_TTF, 0, &mut Vec::new())
-                .unwrap();
-        let bold =
-            printpdf::ParsedFont::from_bytes(crate::sheet::BOLD_TTF, 0, &mut Vec::new()).unwrap();
+        let (regular, bold) = crate::sheet::embedded_fonts().unwrap();
         let c = Canvas::new(&regular, &bold);
         let levels: Vec<f64> = (1..=paths.len()).map(|k| 10.0 * k as f64).collect();
         let per_level: Vec<Vec<Path>> = paths.iter().map(|p| vec![p.clone()]).collect();

@@ -52,7 +52,10 @@ pub fn model(kind: ModelKind) -> String {
 
 /// The lot size field.
 pub fn lot_size(lot: Option<u64>) -> String {
-    lot.map_or_else(|| "not stated".to_string(), |n| format!("{n} units"))
+    lot.map_or_else(
+        || crate::sheet::text::NO_LOT_SIZE.to_string(),
+        |n| format!("{n} units"),
+    )
 }
 
 /// The risks field.
