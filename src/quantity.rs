@@ -2,6 +2,7 @@
 //! (`0.01`) or a percent (`1%`), ranges `LO:HI:COUNT` and lists `p,p,...`.
 
 use crate::error::InputError;
+use crate::numeric::round_significant;
 
 /// Parses a fraction written as a decimal (`0.015`, `1.5e-2`) or a percent
 /// (`1.5%`). Rejects NaN, infinities and anything else that is not a plain
@@ -215,11 +216,9 @@ impl QualityRange {
                 if i + 1 == self.count {
                     self.hi
                 } else {
-                    // Printing with 15 significant digits and reading back
-                    // drops the binary noise of the sum (at most a few ulp),
-                    // and changes a value by at most 5e-16 relative.
-                    let x = self.lo + step * i as f64;
-                    format!("{x:.14e}").parse().unwrap_or(x)
+                    // 15 significant digits drop the binary noise of the
+                    // sum (a few ulp) and move nothing else.
+                    round_significant(self.lo + step * i as f64, 15)
                 }
             })
             .collect()

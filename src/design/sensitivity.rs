@@ -16,6 +16,7 @@ use serde::Serialize;
 use super::single::design_single;
 use crate::error::InputError;
 use crate::model::Model;
+use crate::numeric::round_significant;
 use crate::risk::RiskPair;
 
 /// One of the four agreed inputs.
@@ -111,7 +112,7 @@ fn nice_fifth(x: f64) -> f64 {
         .find(|&s| s <= target * (1.0 + 1e-9))
         .unwrap_or(decade);
     // 10^k for negative k is not exact in binary; read the decimal back.
-    format!("{step:.12e}").parse().unwrap_or(step)
+    round_significant(step, 12)
 }
 
 /// The single plan after one input moved, or why there is none.
@@ -175,17 +176,12 @@ pub fn sensitivity(model: &Model, risks: &RiskPair, n: u64, steps: &Steps) -> Ve
                 input,
                 value,
                 step,
-                conceded: moved(decimal(value + sign * step)),
-                tightened: moved(decimal(value - sign * step)),
+                // 12 digits: 0.06 - 0.01 is the 0.05 the user means.
+                conceded: moved(round_significant(value + sign * step, 12)),
+                tightened: moved(round_significant(value - sign * step, 12)),
             }
         })
         .collect()
-}
-
-/// `x` rounded to 12 significant digits: `0.06 - 0.01` is the 0.05 the
-/// user means, not 0.049999999999999996.
-fn decimal(x: f64) -> f64 {
-    format!("{x:.11e}").parse().unwrap_or(x)
 }
 
 fn value_of(risks: &RiskPair, input: Input) -> f64 {

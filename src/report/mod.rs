@@ -402,6 +402,20 @@ pub fn format_quality(q: f64, per_unit: bool) -> String {
     format!("{}%", format_significant(q * 100.0, 4))
 }
 
+/// [`format_significant`] without trailing zeros: `1.5`, not `1.500`;
+/// `9`, not `9.00000`; an exponent is kept as it is (`1e-10` stays, and
+/// `1.500e-10` becomes `1.5e-10`).
+pub(crate) fn format_short(x: f64, digits: usize) -> String {
+    let s = format_significant(x, digits);
+    let (mantissa, exponent) = s.split_at(s.find('e').unwrap_or(s.len()));
+    let mantissa = if mantissa.contains('.') {
+        mantissa.trim_end_matches('0').trim_end_matches('.')
+    } else {
+        mantissa
+    };
+    format!("{mantissa}{exponent}")
+}
+
 /// `x` with `digits` significant digits, without exponent for the sizes
 /// reports meet.
 pub fn format_significant(x: f64, digits: usize) -> String {

@@ -10,7 +10,7 @@
 
 use crate::design::SingleDesign;
 use crate::plan::{LimitKind, SigmaKind, Specification, VariablesPlan};
-use crate::report::format_significant;
+use crate::report::{format_short, format_significant};
 
 /// A number as recorded: the shortest decimal that reads back as `v`.
 pub fn number(v: f64) -> String {
@@ -211,8 +211,7 @@ pub fn rule(plan: &VariablesPlan) -> Vec<RuleLine> {
             let nf = n as f64;
             match spec.sigma() {
                 None => {
-                    let a = format_significant(nf / 2.0 - 1.0, 6);
-                    let a = a.trim_end_matches('0').trim_end_matches('.').to_string();
+                    let a = format_short(nf / 2.0 - 1.0, 6);
                     let coefficient = format_significant(nf.sqrt() / (2.0 * (nf - 1.0)), 5);
                     lines.push(RuleLine::Formula(format!(
                         "p̂_U = I_x({a}, {a}),  x = 0.5 − {coefficient}·Q_U"

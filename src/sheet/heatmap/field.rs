@@ -5,6 +5,7 @@
 
 use crate::design::TradeoffGrid;
 use crate::error::DesignError;
+use crate::numeric::round_significant;
 
 /// What a panel of the map shows.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -169,13 +170,11 @@ pub fn levels(lo: f64, hi: f64) -> Vec<f64> {
     best
 }
 
-/// `m` times ten to the `e`, rounded to the digits it has, so that a level
-/// prints and compares as the number it is (0.3, not 0.30000000000000004).
+/// `m` times ten to the `e`, rounded to the two digits a mantissa of
+/// [`SERIES`] has, so that a level prints and compares as the number it is
+/// (0.3, not 0.30000000000000004).
 fn level_value(m: f64, e: i32) -> f64 {
-    let v = m * 10f64.powi(e);
-    let decimals = (1 - e).max(0);
-    let scale = 10f64.powi(decimals);
-    (v * scale).round() / scale
+    round_significant(m * 10f64.powi(e), 2)
 }
 
 /// A value as a contour label or a colour bar tick: whole numbers grouped
@@ -197,12 +196,7 @@ pub fn value_label(v: f64) -> String {
         }
         return out;
     }
-    let s = crate::report::format_significant(v, 3);
-    if s.contains('.') {
-        s.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        s
-    }
+    crate::report::format_short(v, 3)
 }
 
 /// The blocks of at most `most` that `count` cells are drawn as: each cell
@@ -336,6 +330,9 @@ mod tests {
             got,
             ["10 000", "2000", "150", "12.5", "1.5", "0.5", "250 000"]
         );
+        // A tiny cost keeps its exponent whole.
+        assert_eq!(value_label(1.5e-10), "1.5e-10");
+        assert_eq!(value_label(1e-10), "1e-10");
     }
 
     #[test]

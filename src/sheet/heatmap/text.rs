@@ -4,7 +4,7 @@
 
 use crate::design::{Criterion, Scheme};
 use crate::model::ModelKind;
-use crate::report::format_significant;
+use crate::report::format_short;
 
 use super::field::{Gap, MapQuantity};
 
@@ -16,13 +16,7 @@ pub const KICKER: &str =
 /// model) with at most four significant digits and no trailing zeros.
 pub fn quality(q: f64, per_unit: bool) -> String {
     let (v, suffix) = if per_unit { (q, "") } else { (q * 100.0, "%") };
-    let s = format_significant(v, 4);
-    let s = if s.contains('.') {
-        s.trim_end_matches('0').trim_end_matches('.')
-    } else {
-        &s
-    };
-    format!("{s}{suffix}")
+    format!("{}{suffix}", format_short(v, 4))
 }
 
 /// A risk or a cost as given: the shortest decimal that reads back as it.
