@@ -290,8 +290,9 @@ pub struct JudgeArgs {
     pub format: JudgeFormat,
 }
 
+/// The schemes of the grid and of minimum-inspection plans.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
-pub enum TradeoffSchemeArg {
+pub enum SingleOrDoubleArg {
     Single,
     Double,
 }
@@ -333,7 +334,7 @@ pub struct TradeoffArgs {
     pub model: ModelFlags,
     /// Sampling scheme of every cell
     #[arg(long, value_enum, default_value = "single")]
-    pub scheme: TradeoffSchemeArg,
+    pub scheme: SingleOrDoubleArg,
     /// What the double designer minimises [default: asn-aql]
     #[arg(long, value_enum)]
     pub criterion: Option<CriterionArg>,
@@ -419,12 +420,6 @@ pub struct DemoArgs {
     pub force: bool,
 }
 
-#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
-pub enum RectifySchemeArg {
-    Single,
-    Double,
-}
-
 /// `rectify`: minimum-inspection plans for rectifying inspection.
 #[derive(Debug, Args)]
 #[command(group(clap::ArgGroup::new("protection").required(true).args(["ltpd", "aoql"])))]
@@ -451,7 +446,7 @@ pub struct RectifyArgs {
     pub aoql: Option<String>,
     /// Sampling scheme
     #[arg(long, value_enum, default_value = "single")]
-    pub scheme: RectifySchemeArg,
+    pub scheme: SingleOrDoubleArg,
     /// Likelihood model [default: hypergeometric, since the lot size is known]
     #[arg(long, value_enum)]
     pub model: Option<ModelArg>,

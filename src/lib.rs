@@ -69,19 +69,16 @@ pub use batch::{
 };
 pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
 pub use design::{
-    Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design, DesignRequest, Input,
-    InspectionCost, MAX_ACCEPTANCE_NUMBER, MAX_DESIGN_STAGES, MAX_DOUBLE_SEARCH,
-    MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, MAX_MULTIPLE_SINGLE_N, MAX_SAMPLE_SIZE,
-    MAX_SEQUENTIAL_SEARCH, Moved, Scheme, SchemeOptions, Sensitivity, SingleDesign, Solution,
-    Steps, TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign, VariablesRequest,
-    VariablesSolution, WaldApproximation, design_double, design_for, design_multiple,
-    design_sequential, design_single, design_variables, sensitivity, single_alternatives, solve,
-    solve_variables, tradeoff, wald_lines,
-};
-// Minimum-inspection plans for rectifying inspection (Dodge and Romig).
-pub use design::{
-    AOQL_PLAN_LTPD_RISK, MAX_AOQL_ACCEPTANCE_NUMBER, Protection, RectifyingDesign, RectifyingPlan,
-    RectifyingRequest, RectifyingRow, design_rectifying,
+    AOQL_PLAN_LTPD_RISK, Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design,
+    DesignRequest, Input, InspectionCost, MAX_ACCEPTANCE_NUMBER, MAX_AOQL_ACCEPTANCE_NUMBER,
+    MAX_DESIGN_STAGES, MAX_DOUBLE_SEARCH, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS,
+    MAX_MULTIPLE_SINGLE_N, MAX_SAMPLE_SIZE, MAX_SEQUENTIAL_SEARCH, Moved, Protection,
+    RectifyingDesign, RectifyingPlan, RectifyingRequest, RectifyingRow, Scheme, SchemeOptions,
+    Sensitivity, SingleDesign, Solution, Steps, TradeoffCell, TradeoffGrid, TradeoffRequest,
+    VariablesDesign, VariablesRequest, VariablesSolution, WaldApproximation, design_double,
+    design_for, design_multiple, design_rectifying, design_sequential, design_single,
+    design_variables, sensitivity, single_alternatives, solve, solve_variables, tradeoff,
+    wald_lines,
 };
 pub use error::{BatchError, DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
@@ -104,22 +101,21 @@ pub use quantity::{
 pub use read::read_limited;
 pub use report::{
     AlternativeReport, BatchSummary, CostReport, Csv, DesignReport, EvaluationBatchReport,
-    EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ReportFormat,
-    SourceEvaluation, Table, TradeoffCellReport, TradeoffReport, VariablesDesignReport,
-    VariablesEvaluationReport, VariablesReport, VerificationReport, VerifyEntry, VerifyStatus,
-    format_quality, format_significant, variables_rule, words,
+    EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ProtectionReport,
+    RECTIFYING_STEP, RectifyingPlanReport, RectifyingReport, ReportFormat, SourceEvaluation, Table,
+    TradeoffCellReport, TradeoffReport, VariablesDesignReport, VariablesEvaluationReport,
+    VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, format_quality,
+    format_significant, variables_rule, words,
 };
-// The minimum-inspection report (`rectify`).
-pub use report::{ProtectionReport, RECTIFYING_STEP, RectifyingPlanReport, RectifyingReport};
 pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{
-    ContourLabel, HASH_PREFIX, MapContour, MapPanel, MapQuantity, Paper, Sheet, TradeoffMap,
-    render_sheet, render_tradeoff_map, sheet_source_hash, source_hash, write_sheet,
+    ContourLabel, HASH_PREFIX, MapContour, MapPanel, MapQuantity, Paper, Sheet, SheetOptions,
+    TradeoffMap, render_sheet, render_sheet_noting, render_tradeoff_map, sheet_source_hash,
+    source_hash, write_sheet,
 };
-pub use sheet::{SheetOptions, render_sheet_noting};
-pub use source::{Audit, Discrepancy, RISK_TOLERANCE, UnmetPoint, audit};
 pub use source::{
-    Difference, MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES, PlanSource, PointSource, RecordedPlan,
-    RecordedVariables, SCHEMA_VERSION, VariablesSource, Verdict, tool_version, verify,
+    Audit, Difference, Discrepancy, MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES, PlanSource, PointSource,
+    RISK_TOLERANCE, RecordedPlan, RecordedVariables, SCHEMA_VERSION, UnmetPoint, VariablesSource,
+    Verdict, audit, tool_version, verify,
 };
 pub use templates::{TEMPLATES, template, template_kinds};

@@ -24,24 +24,23 @@ use std::process::ExitCode;
 use clap::Parser;
 use cli::{
     Cli, Command, CriterionArg, DesignFormat, LimitArg, ModelArg, ModelFlags, PaperArg,
-    ReportFormatArg, SchemeArg, SigmaArg, TradeoffFormat, TradeoffSchemeArg,
+    ReportFormatArg, SchemeArg, SigmaArg, SingleOrDoubleArg, TradeoffFormat,
 };
 use lotsman::{
     BatchSummary, Criterion, Csv, Decision, DesignReport, DesignRequest, Discrepancy, Error,
     EvaluationBatchReport, EvaluationEntry, EvaluationReport, InputError, Json, LimitKind,
     MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Overwrite, Paper, PlanSource,
-    QualityRange, ReportFormat, RiskPair, RiskPoint, Scheme, SchemeOptions, SheetOptions,
-    SigmaKind, SourceError, SourceEvaluation, SourceFile, Specification, StagedPlan, Steps, Table,
-    TradeoffReport, TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport,
-    VerifyEntry, VerifyStatus, default_qualities, evaluate, evaluate_source, expand_paths, judge,
+    Protection, QualityRange, RectifyingReport, RectifyingRequest, ReportFormat, RiskPair,
+    RiskPoint, Scheme, SchemeOptions, SheetOptions, SigmaKind, SourceError, SourceEvaluation,
+    SourceFile, Specification, StagedPlan, Steps, Table, TradeoffReport, TradeoffRequest,
+    VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry, VerifyStatus,
+    default_qualities, design_rectifying, evaluate, evaluate_source, expand_paths, judge,
     judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_fraction_list,
     parse_measurements, parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo,
     run_in_parallel, sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve,
     solve_variables, source_hash, template, template_kinds, tradeoff, verify_file, write_atomic,
     write_sheet,
 };
-// rectify
-use lotsman::{Protection, RectifyingReport, RectifyingRequest, design_rectifying};
 use progress::Progress;
 
 fn main() -> ExitCode {
@@ -98,12 +97,16 @@ fn print_out(bytes: &[u8]) -> Result<(), Error> {
 /// The model from `--model` and `--lot-size`: binomial by default, the
 /// hypergeometric model when a lot size is given without a model.
 fn model_from(flags: &ModelFlags) -> Result<Model, InputError> {
-    let lot = flags
-        .lot_size
-        .as_deref()
+    model_of(flags.model, flags.lot_size.as_deref())
+}
+
+/// The model of `--model` and `--lot-size`: hypergeometric by default when
+/// the lot size is given, binomial otherwise.
+fn model_of(model: Option<ModelArg>, lot_size: Option<&str>) -> Result<Model, InputError> {
+    let lot = lot_size
         .map(|t| parse_count("--lot-size", t, MAX_LOT_SIZE))
         .transpose()?;
-    let kind = match (flags.model, lot) {
+    let kind = match (model, lot) {
         (Some(ModelArg::Binomial), _) => ModelKind::Binomial,
         (Some(ModelArg::Hypergeometric), _) => ModelKind::Hypergeometric,
         (Some(ModelArg::Poisson), _) => ModelKind::Poisson,
@@ -208,19 +211,17 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     };
     let solution = solve(&request).map_err(|e| design_error(&args, e))?;
     source.record(&solution);
+    let step = |flag: &str, text: &Option<String>| {
+        text.as_deref().map(|t| parse_fraction(flag, t)).transpose()
+    };
     let steps = Steps::new(
         &request.risks,
         [
-            (&args.step_aql, "--step-aql"),
-            (&args.step_alpha, "--step-alpha"),
-            (&args.step_rql, "--step-rql"),
-            (&args.step_beta, "--step-beta"),
-        ]
-        .map(|(v, flag)| v.as_deref().map(|t| parse_fraction(flag, t)).transpose())
-        .into_iter()
-        .collect::<Result<Vec<_>, _>>()?
-        .try_into()
-        .unwrap_or([None; 4]),
+            step("--step-aql", &args.step_aql)?,
+            step("--step-alpha", &args.step_alpha)?,
+            step("--step-rql", &args.step_rql)?,
+            step("--step-beta", &args.step_beta)?,
+        ],
     )?;
     let rows = sensitivity(&request.model, &request.risks, solution.single.n, &steps);
     let report = DesignReport::new(&source.title, &solution).with_sensitivity(rows);
@@ -247,6 +248,13 @@ fn criterion_from(arg: Option<CriterionArg>) -> Criterion {
     }
 }
 
+fn scheme_of(arg: SingleOrDoubleArg) -> Scheme {
+    match arg {
+        SingleOrDoubleArg::Single => Scheme::Single,
+        SingleOrDoubleArg::Double => Scheme::Double,
+    }
+}
+
 /// The qualities of one grid axis: `LO:HI:COUNT` or a list `p,p,..`.
 fn axis_from(flag: &str, text: &str) -> Result<Vec<f64>, InputError> {
     if text.contains(':') {
@@ -258,10 +266,7 @@ fn axis_from(flag: &str, text: &str) -> Result<Vec<f64>, InputError> {
 
 fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
     let model = model_from(&args.model)?;
-    let scheme = match args.scheme {
-        TradeoffSchemeArg::Single => Scheme::Single,
-        TradeoffSchemeArg::Double => Scheme::Double,
-    };
+    let scheme = scheme_of(args.scheme);
     if args.criterion.is_some() && scheme != Scheme::Double {
         return Err(InputError::Inconsistent(
             "--criterion applies to double plans (--scheme double)".to_string(),
@@ -1010,13 +1015,8 @@ fn demo(dir: &Path, overwrite: Overwrite) -> Result<ExitCode, Error> {
 /// `rectify`: the flags as a validated minimum-inspection request, the
 /// design, and its report.
 fn rectify_cmd(args: cli::RectifyArgs) -> Result<ExitCode, Error> {
-    let lot = parse_count("--lot-size", &args.lot_size, MAX_LOT_SIZE)?;
-    let kind = match args.model {
-        Some(ModelArg::Binomial) => ModelKind::Binomial,
-        Some(ModelArg::Poisson) => ModelKind::Poisson,
-        Some(ModelArg::Hypergeometric) | None => ModelKind::Hypergeometric,
-    };
-    let model = Model::new(kind, Some(lot))?;
+    // The lot size is required, so the default model is hypergeometric.
+    let model = model_of(args.model, Some(&args.lot_size))?;
     let process_average = parse_fraction("--process-average", &args.process_average)?;
     let protection = match (&args.ltpd, &args.aoql) {
         (Some(ltpd), _) => Protection::Ltpd(RiskPoint {
@@ -1031,11 +1031,8 @@ fn rectify_cmd(args: cli::RectifyArgs) -> Result<ExitCode, Error> {
             .into());
         }
     };
-    let scheme = match args.scheme {
-        cli::RectifySchemeArg::Single => Scheme::Single,
-        cli::RectifySchemeArg::Double => Scheme::Double,
-    };
-    let request = RectifyingRequest::new(model, process_average, protection, scheme)?;
+    let request =
+        RectifyingRequest::new(model, process_average, protection, scheme_of(args.scheme))?;
     let design = design_rectifying(&request)?;
     let title = args
         .title

@@ -106,22 +106,27 @@ pub(crate) fn check_quality(model: &Model, name: &str, q: f64) -> Result<(), Inp
 /// [`InputError::OutOfRange`] naming the risk; [`InputError::Inconsistent`]
 /// when `alpha + beta >= 1`.
 pub(crate) fn check_risks(alpha: f64, beta: f64) -> Result<(), InputError> {
-    for (name, r) in [
-        ("alpha (producer's risk)", alpha),
-        ("beta (consumer's risk)", beta),
-    ] {
-        if !(r > 0.0 && r < 1.0) {
-            return Err(InputError::out_of_range(
-                name,
-                r,
-                "between 0 and 1 (exclusive), e.g. 0.05 or 5%",
-            ));
-        }
-    }
+    check_risk("alpha (producer's risk)", alpha)?;
+    check_risk("beta (consumer's risk)", beta)?;
     if alpha + beta >= 1.0 {
         return Err(InputError::Inconsistent(format!(
             "alpha + beta = {alpha} + {beta} must be below 1, or any plan (even accepting every lot with probability 1 - alpha) meets both points"
         )));
     }
     Ok(())
+}
+
+/// Checks that the risk `r` lies in `(0, 1)`.
+///
+/// # Errors
+/// [`InputError::OutOfRange`] naming the risk as `name`.
+pub(crate) fn check_risk(name: &str, r: f64) -> Result<(), InputError> {
+    if r > 0.0 && r < 1.0 {
+        return Ok(());
+    }
+    Err(InputError::out_of_range(
+        name,
+        r,
+        "between 0 and 1 (exclusive), e.g. 0.05 or 5%",
+    ))
 }

@@ -78,7 +78,7 @@ use super::single::{
 use crate::error::{DesignError, InputError};
 use crate::model::{MAX_LOT_SIZE, Model, ModelKind, nonconforming_in_lot};
 use crate::plan::{Aoql, StagedPlan, acceptance_probability, aoql, measures, quality_at_pa};
-use crate::risk::RiskPoint;
+use crate::risk::{RiskPoint, check_quality, check_risk};
 
 /// The largest acceptance number the scan reaches for an AOQL: each step
 /// is an exact threshold search on the AOQL, whose every evaluation scans
@@ -175,31 +175,19 @@ impl RectifyingRequest {
                 &format!("2 to {MAX_LOT_SIZE} units"),
             ));
         }
-        let range = match model.kind() {
-            ModelKind::Poisson => "above 0 (nonconformities per unit)",
-            _ => "between 0 and 1 (exclusive), e.g. 0.01 or 1%",
-        };
         let quality = protection.quality();
         let (label, flag) = match protection {
             Protection::Ltpd(_) => ("LTPD", "LTPD (--ltpd)"),
             Protection::Aoql(_) => ("AOQL", "AOQL (--aoql)"),
         };
-        for (name, q) in [
-            ("process average (--process-average)", process_average),
-            (flag, quality),
-        ] {
-            if !model.accepts_quality(q) {
-                return Err(InputError::out_of_range(name, q, range));
-            }
-        }
+        check_quality(
+            &model,
+            "process average (--process-average)",
+            process_average,
+        )?;
+        check_quality(&model, flag, quality)?;
         if let Protection::Ltpd(point) = protection {
-            if !(point.risk > 0.0 && point.risk < 1.0) {
-                return Err(InputError::out_of_range(
-                    "beta (consumer's risk at the LTPD, --beta)",
-                    point.risk,
-                    "between 0 and 1 (exclusive), e.g. 0.10 or 10%",
-                ));
-            }
+            check_risk("beta (consumer's risk at the LTPD, --beta)", point.risk)?;
             if model.kind() == ModelKind::Hypergeometric
                 && nonconforming_in_lot(point.quality, lot_size) == 0
             {
@@ -478,10 +466,9 @@ impl<'a> SingleSearch<'a> {
 /// passes [`MAX_ACCEPTANCE_NUMBER`] ([`MAX_AOQL_ACCEPTANCE_NUMBER`] for an
 /// AOQL), when the protection needs a sample above [`MAX_SAMPLE_SIZE`] in a
 /// larger lot (so that whether sampling beats 100% inspection is not
-/// known), when a double request's best single
-/// plan has an acceptance number above
-/// [`MAX_DOUBLE_SINGLE_C`](super::double::MAX_DOUBLE_SINGLE_C), or when no
-/// double plan has a smaller ATI than the best single plan.
+/// known), when a double request's best single plan has an acceptance
+/// number above [`MAX_DOUBLE_SINGLE_C`](super::double::MAX_DOUBLE_SINGLE_C),
+/// or when no double plan has a smaller ATI than the best single plan.
 ///
 /// # Example
 /// ```

@@ -124,7 +124,7 @@ impl TradeoffRequest {
             return Err(InputError::out_of_range(
                 "number of grid cells",
                 cells,
-                "at most 250000 (AQL count x RQL count)",
+                &format!("at most {MAX_GRID_CELLS} (AQL count x RQL count)"),
             ));
         }
         if !matches!(scheme, Scheme::Single | Scheme::Double) {

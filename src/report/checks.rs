@@ -5,8 +5,8 @@
 //! printed; the command stops with the [`NumericalError`] instead.
 
 use super::{
-    DesignReport, EvaluationReport, RectifyingReport, TradeoffReport, VariablesDesignReport,
-    VariablesEvaluationReport,
+    DesignReport, EvaluationReport, PointReport, RectifyingReport, TradeoffReport,
+    VariablesDesignReport, VariablesEvaluationReport,
 };
 use crate::numeric::{NumericalError, check_amount, check_probability};
 use crate::plan::{Aoql, MeasurementJudgement, Measures, VariablesPoint};
@@ -54,14 +54,18 @@ fn variables_point(p: &VariablesPoint) -> Checked {
     Ok(())
 }
 
+fn achieved(producer: &PointReport, consumer: &PointReport) -> Checked {
+    check_probability("achieved producer's risk", producer.achieved_risk)?;
+    check_probability("achieved consumer's risk", consumer.achieved_risk)
+}
+
 impl DesignReport {
     /// Checks the achieved risks and the ASN figures.
     ///
     /// # Errors
     /// [`NumericalError`] naming the first number out of its range.
     pub fn check(&self) -> Checked {
-        check_probability("achieved producer's risk", self.producer.achieved_risk)?;
-        check_probability("achieved consumer's risk", self.consumer.achieved_risk)?;
+        achieved(&self.producer, &self.consumer)?;
         if let Some(a) = &self.asn {
             for (name, v) in [
                 ("ASN at the AQL", a.at_aql),
@@ -101,8 +105,7 @@ impl VariablesDesignReport {
     /// # Errors
     /// [`NumericalError`] naming the first number out of its range.
     pub fn check(&self) -> Checked {
-        check_probability("achieved producer's risk", self.producer.achieved_risk)?;
-        check_probability("achieved consumer's risk", self.consumer.achieved_risk)
+        achieved(&self.producer, &self.consumer)
     }
 }
 

@@ -36,6 +36,7 @@ pub use self::variables::{
 use crate::design::{Alternative, AsnSummary, Scheme, Sensitivity, Solution, WaldApproximation};
 use crate::model::ModelKind;
 use crate::plan::{Aoql, Evaluation, ItemRun, Measures, SequentialLines, Stage, StagedPlan};
+use crate::risk::RiskPair;
 use crate::source::{Difference, tool_version};
 
 /// One output format.
@@ -94,18 +95,29 @@ impl PointReport {
     }
 }
 
-/// The notes of a design whose achieved risks sit on their limits.
-fn near_limit_notes(producer: &PointReport, consumer: &PointReport) -> Vec<String> {
-    [("producer's", "alpha", producer), ("consumer's", "beta", consumer)]
-        .into_iter()
-        .filter(|(_, _, p)| p.near_limit)
-        .map(|(side, greek, p)| {
-            format!(
+/// The producer's and consumer's points of `risks` with the risks a design
+/// achieves there, `(producer's, consumer's)`; a note is added to `notes`
+/// for each achieved risk that sits on its limit.
+fn achieved_points(
+    risks: &RiskPair,
+    (producer_risk, consumer_risk): (f64, f64),
+    notes: &mut Vec<String>,
+) -> (PointReport, PointReport) {
+    let (p, c) = (risks.producer(), risks.consumer());
+    let producer = PointReport::new(p.quality, p.risk, producer_risk);
+    let consumer = PointReport::new(c.quality, c.risk, consumer_risk);
+    for (side, greek, point) in [
+        ("producer's", "alpha", &producer),
+        ("consumer's", "beta", &consumer),
+    ] {
+        if point.near_limit {
+            notes.push(format!(
                 "the achieved {side} risk {} lies within 1e-9 of {greek} = {}: the plan meets the point only at the limit of the computation's precision; a plan one step larger keeps a margin",
-                p.achieved_risk, p.risk
-            )
-        })
-        .collect()
+                point.achieved_risk, point.risk
+            ));
+        }
+    }
+    (producer, consumer)
 }
 
 /// One row of the alternatives.
@@ -257,17 +269,8 @@ impl DesignReport {
                 100.0 * a.saving_at_aql
             ));
         }
-        let producer = PointReport::new(
-            r.risks.producer().quality,
-            r.risks.producer().risk,
-            d.producer_risk,
-        );
-        let consumer = PointReport::new(
-            r.risks.consumer().quality,
-            r.risks.consumer().risk,
-            d.consumer_risk,
-        );
-        notes.extend(near_limit_notes(&producer, &consumer));
+        let (producer, consumer) =
+            achieved_points(&r.risks, (d.producer_risk, d.consumer_risk), &mut notes);
         let criterion = matches!(r.scheme, Scheme::Double | Scheme::Multiple)
             .then(|| r.options.criterion.name());
         DesignReport {

@@ -8,7 +8,7 @@ use std::io::{self, Write};
 
 use serde::Serialize;
 
-use super::table::{grid, write_stage_table};
+use super::table::{grid, plan_headline, write_stage_table};
 use super::{format_quality, format_significant, words};
 use crate::design::{Protection, RectifyingDesign, RectifyingPlan, RectifyingRow};
 use crate::model::{ModelKind, nonconforming_in_lot};
@@ -238,10 +238,7 @@ pub(super) fn write_table(out: &mut dyn Write, r: &RectifyingReport) -> io::Resu
         }
         Some(p) => {
             let plan = &p.plan;
-            match plan.as_single() {
-                Some((n, c)) => writeln!(out, "  PLAN  n = {n}, c = {c} (reject at {})", c + 1)?,
-                None => writeln!(out, "  PLAN  {} stages (cumulative counts)", p.stages.len())?,
-            }
+            writeln!(out, "{}", plan_headline(plan))?;
             for step in words::plan_procedure(plan, per_unit) {
                 writeln!(out, "  {step}")?;
             }

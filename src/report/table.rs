@@ -14,7 +14,7 @@ use super::{
 };
 use crate::design::{Input, Moved};
 use crate::model::ModelKind;
-use crate::plan::Stage;
+use crate::plan::{Stage, StagedPlan};
 
 /// Aligned text tables for a terminal.
 #[derive(Clone, Copy, Debug, Default)]
@@ -119,6 +119,15 @@ fn write_risk_points(
     writeln!(out, "{g}")
 }
 
+/// The first line of a single or staged plan: `  PLAN  n = 110, c = 3
+/// (reject at 4)`, or the number of stages.
+pub(super) fn plan_headline(plan: &StagedPlan) -> String {
+    match plan.as_single() {
+        Some((n, c)) => format!("  PLAN  n = {n}, c = {c} (reject at {})", c + 1),
+        None => format!("  PLAN  {} stages (cumulative counts)", plan.stages().len()),
+    }
+}
+
 fn optional(v: Option<u64>, prefix: &str) -> String {
     v.map_or("none".to_string(), |x| format!("{prefix}{x}"))
 }
@@ -133,9 +142,7 @@ impl ReportFormat for Table {
         writeln!(out, "{} plan, {} model, {lot}", r.scheme, r.model)?;
         writeln!(out)?;
         let plan = &r.plan;
-        if let Some((n, c)) = plan.as_single() {
-            writeln!(out, "  PLAN  n = {n}, c = {c} (reject at {})", c + 1)?;
-        } else if let Some(seq) = &r.sequential {
+        if let Some(seq) = &r.sequential {
             writeln!(
                 out,
                 "  PLAN  item by item: accept when d <= {:.5} n - {:.5}, reject when d >= {:.5} n + {:.5}; at item {} accept d <= {}",
@@ -147,7 +154,7 @@ impl ReportFormat for Table {
                 seq.final_acceptance
             )?;
         } else {
-            writeln!(out, "  PLAN  {} stages (cumulative counts)", r.stages.len())?;
+            writeln!(out, "{}", plan_headline(plan))?;
         }
         for step in words::plan_procedure(plan, per_unit) {
             writeln!(out, "  {step}")?;

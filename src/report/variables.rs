@@ -138,17 +138,8 @@ impl VariablesDesignReport {
         notes.push(
             "the rule rests on normally distributed measurements: judge lots with lotsman judge --measurements, which tests normality".to_string(),
         );
-        let producer = PointReport::new(
-            risks.producer().quality,
-            risks.producer().risk,
-            d.producer_risk,
-        );
-        let consumer = PointReport::new(
-            risks.consumer().quality,
-            risks.consumer().risk,
-            d.consumer_risk,
-        );
-        notes.extend(super::near_limit_notes(&producer, &consumer));
+        let (producer, consumer) =
+            super::achieved_points(risks, (d.producer_risk, d.consumer_risk), &mut notes);
         let attributes = solution.attributes.as_ref().ok();
         if let Err(e) = &solution.attributes {
             notes.push(format!("no attributes single plan for comparison: {e}"));
