@@ -5,7 +5,7 @@
 //! loads and saves back to the same bytes.
 
 mod common;
-use common::{lotsman, page_sizes, pdf_text};
+use common::{lotsman, page_sizes, pdf_text, stdout_of};
 
 use std::path::{Path, PathBuf};
 
@@ -525,15 +525,8 @@ fn every_demo_plan_round_trips_and_re_solves_to_the_same_bytes() {
         assert_round_trip(text, name);
         let path = dir.path().join(name);
         std::fs::write(&path, text).unwrap();
-        let again = lotsman()
-            .args(["design", "--format", "yaml"])
-            .arg(&path)
-            .assert()
-            .success()
-            .get_output()
-            .stdout
-            .clone();
-        assert_eq!(String::from_utf8(again).unwrap(), *text, "{name}");
+        let again = stdout_of(&["design", "--format", "yaml", &path.to_string_lossy()]);
+        assert_eq!(again, *text, "{name}");
     }
 }
 

@@ -4,21 +4,11 @@
 
 mod common;
 use common::json_of;
-use lotsman::{Model, ModelKind, RiskPair, RiskPoint, design_single};
+use lotsman::{Model, ModelKind, RiskPair, design_single};
 
+/// The risk points `(p1, 0.05)` and `(p2, 0.10)`.
 fn pair(model: &Model, p1: f64, p2: f64) -> RiskPair {
-    RiskPair::new(
-        RiskPoint {
-            quality: p1,
-            risk: 0.05,
-        },
-        RiskPoint {
-            quality: p2,
-            risk: 0.10,
-        },
-        model,
-    )
-    .unwrap()
+    common::pair(model, p1, 0.05, p2, 0.10)
 }
 
 /// Lot of 10 holding D = 2 at the RQL of 20%: the plan n = 9, c = 1 accepts

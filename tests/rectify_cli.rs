@@ -3,22 +3,14 @@
 //! (tests/data/minimum_reference.json) at the same conditions.
 
 mod common;
-use common::lotsman;
+use common::{lotsman, stdout_of};
 
 use predicates::prelude::*;
 use serde_json::Value;
 
+/// The JSON of `rectify` with `args`.
 fn json_of(args: &[&str]) -> Value {
-    let out = lotsman()
-        .arg("rectify")
-        .args(args)
-        .args(["--format", "json"])
-        .assert()
-        .success()
-        .get_output()
-        .stdout
-        .clone();
-    serde_json::from_slice(&out).unwrap()
+    common::json_of(&[&["rectify"], args, &["--format", "json"]].concat())
 }
 
 /// Exit 2 with a message on stderr that contains every `needle`; the
@@ -193,24 +185,17 @@ fn the_table_shows_the_steps_the_trade_off_and_the_caution() {
 
 #[test]
 fn csv_lists_the_single_plans_by_acceptance_number() {
-    let out = lotsman()
-        .args([
-            "rectify",
-            "--lot-size",
-            "5000",
-            "--process-average",
-            "1%",
-            "--aoql",
-            "3%",
-            "--format",
-            "csv",
-        ])
-        .assert()
-        .success()
-        .get_output()
-        .stdout
-        .clone();
-    let text = String::from_utf8(out).unwrap();
+    let text = stdout_of(&[
+        "rectify",
+        "--lot-size",
+        "5000",
+        "--process-average",
+        "1%",
+        "--aoql",
+        "3%",
+        "--format",
+        "csv",
+    ]);
     let lines: Vec<&str> = text.lines().collect();
     assert_eq!(lines[0], "c,n_min,ati,best_single");
     assert_eq!(lines.len(), 1 + 5, "c = 0 to 4");

@@ -2,29 +2,16 @@
 //! staged designers promise. The exact values against an independent
 //! reference are in tests/reference.rs (staged_reference.json).
 
+mod common;
+use common::pair;
 use lotsman::{
-    Criterion, Decision, Model, ModelKind, RiskPair, RiskPoint, Stage, StagedPlan,
-    curtailed_outcomes, design_double, design_multiple, design_sequential, design_single, judge,
-    judge_cumulative, measures, stage_outcomes, wald_lines,
+    Criterion, Decision, Model, ModelKind, Stage, StagedPlan, curtailed_outcomes, design_double,
+    design_multiple, design_sequential, design_single, judge, judge_cumulative, measures,
+    stage_outcomes, wald_lines,
 };
 
 fn binomial() -> Model {
     Model::new(ModelKind::Binomial, None).unwrap()
-}
-
-fn pair(model: &Model, p1: f64, alpha: f64, p2: f64, beta: f64) -> RiskPair {
-    RiskPair::new(
-        RiskPoint {
-            quality: p1,
-            risk: alpha,
-        },
-        RiskPoint {
-            quality: p2,
-            risk: beta,
-        },
-        model,
-    )
-    .unwrap()
 }
 
 fn double(n1: u64, c1: u64, r1: u64, n2: u64, c2: u64, model: &Model) -> StagedPlan {

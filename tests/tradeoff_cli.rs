@@ -4,7 +4,7 @@
 //! tests/staged_reference.rs check against the reference scripts.
 
 mod common;
-use common::{json_of, lotsman, pdf_text};
+use common::{json_of, lotsman, pdf_text, stdout_of};
 
 use predicates::prelude::*;
 use serde_json::Value;
@@ -177,22 +177,15 @@ fn the_table_shows_n_and_c_in_blocks_of_columns() {
 
 #[test]
 fn csv_has_one_row_per_cell() {
-    let out = lotsman()
-        .args([
-            "tradeoff",
-            "--aql",
-            "0.5%:1%:2",
-            "--rql",
-            "4%:6%:3",
-            "--format",
-            "csv",
-        ])
-        .assert()
-        .success()
-        .get_output()
-        .stdout
-        .clone();
-    let text = String::from_utf8(out).unwrap();
+    let text = stdout_of(&[
+        "tradeoff",
+        "--aql",
+        "0.5%:1%:2",
+        "--rql",
+        "4%:6%:3",
+        "--format",
+        "csv",
+    ]);
     let lines: Vec<&str> = text.lines().collect();
     assert_eq!(
         lines[0],

@@ -1,26 +1,20 @@
 //! Variables plans against textbook formulas and worked numbers, and the
 //! designer's minimality as a property.
 
+mod common;
 use lotsman::{
-    LimitKind, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, SigmaKind, Specification,
-    design_variables,
+    LimitKind, Model, ModelKind, NoncentralT, RiskPair, SigmaKind, Specification, design_variables,
 };
 use proptest::prelude::*;
 
 fn risks(p1: f64, alpha: f64, p2: f64, beta: f64) -> RiskPair {
-    let model = Model::new(ModelKind::Binomial, None).unwrap();
-    RiskPair::new(
-        RiskPoint {
-            quality: p1,
-            risk: alpha,
-        },
-        RiskPoint {
-            quality: p2,
-            risk: beta,
-        },
-        &model,
+    common::pair(
+        &Model::new(ModelKind::Binomial, None).unwrap(),
+        p1,
+        alpha,
+        p2,
+        beta,
     )
-    .unwrap()
 }
 
 fn upper(sigma: SigmaKind) -> Specification {

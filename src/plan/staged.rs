@@ -221,8 +221,9 @@ fn check_stages(stages: &[Stage], model: &Model) -> Result<(), InputError> {
                     &format!("1 to {MAX_SAMPLE_SIZE} units"),
                 ));
             }
-            let largest = |number: u64| number > MAX_ACCEPTANCE_NUMBER + 1;
-            if s.accept.is_some_and(|a| a > MAX_ACCEPTANCE_NUMBER) || largest(s.reject) {
+            if s.accept.is_some_and(|a| a > MAX_ACCEPTANCE_NUMBER)
+                || s.reject > MAX_ACCEPTANCE_NUMBER + 1
+            {
                 return Err(InputError::out_of_range(
                     &name("acceptance or rejection number"),
                     s,

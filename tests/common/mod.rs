@@ -53,16 +53,27 @@ pub fn close(got: f64, want: f64, rel: f64) -> bool {
 
 /// The risk points `(p1, alpha)` and `(p2, beta)` of a row.
 pub fn risks(row: &Value, m: &Model) -> RiskPair {
+    pair(
+        m,
+        f(row, "p1"),
+        f(row, "alpha"),
+        f(row, "p2"),
+        f(row, "beta"),
+    )
+}
+
+/// The risk points `(p1, alpha)` and `(p2, beta)` under `model`.
+pub fn pair(model: &Model, p1: f64, alpha: f64, p2: f64, beta: f64) -> RiskPair {
     RiskPair::new(
         RiskPoint {
-            quality: f(row, "p1"),
-            risk: f(row, "alpha"),
+            quality: p1,
+            risk: alpha,
         },
         RiskPoint {
-            quality: f(row, "p2"),
-            risk: f(row, "beta"),
+            quality: p2,
+            risk: beta,
         },
-        m,
+        model,
     )
     .unwrap()
 }
@@ -72,8 +83,8 @@ pub fn lotsman() -> Command {
     Command::cargo_bin("lotsman").unwrap()
 }
 
-/// The JSON that a successful run with `args` prints.
-pub fn json_of(args: &[&str]) -> Value {
+/// What a successful run with `args` prints on stdout.
+pub fn stdout_of(args: &[&str]) -> String {
     let out = lotsman()
         .args(args)
         .assert()
@@ -81,7 +92,12 @@ pub fn json_of(args: &[&str]) -> Value {
         .get_output()
         .stdout
         .clone();
-    serde_json::from_slice(&out).unwrap()
+    String::from_utf8(out).unwrap()
+}
+
+/// The JSON that a successful run with `args` prints.
+pub fn json_of(args: &[&str]) -> Value {
+    serde_json::from_str(&stdout_of(args)).unwrap()
 }
 
 /// Page sizes in points from the PDF's MediaBox, read with lopdf.
