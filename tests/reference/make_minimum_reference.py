@@ -111,15 +111,22 @@ def hyper_terms(k, N, D, n):
         return np.where(ok, np.exp(np.where(ok, ln, 0.0)), 0.0)
 
 
+def _hyper_sum(k, n, q, N, keep):
+    """The sum of the hypergeometric terms P(X = j) over the j where
+    ``keep(j, k)`` holds (``np.less_equal`` for the cdf, ``np.equal`` for
+    the pmf)."""
+    terms = hyper_terms(k, N, q, n)
+    j = np.arange(terms.shape[0]).reshape((-1,) + (1,) * (terms.ndim - 1))
+    return np.where(keep(j, k), terms, 0.0).sum(axis=0)
+
+
 def cdf(model, k, n, q, N):
     """P(X <= k) for the count in n units at quality parameter q (arrays broadcast)."""
     if model == BIN:
         return st.binom.cdf(k, n, q)
     if model == POI:
         return st.poisson.cdf(k, np.asarray(n, dtype=float) * q)
-    terms = hyper_terms(k, N, q, n)
-    j = np.arange(terms.shape[0]).reshape((-1,) + (1,) * (terms.ndim - 1))
-    return np.where(j <= k, terms, 0.0).sum(axis=0)
+    return _hyper_sum(k, n, q, N, np.less_equal)
 
 
 def pmf(model, k, n, q, N):
@@ -128,9 +135,7 @@ def pmf(model, k, n, q, N):
         return st.binom.pmf(k, n, q)
     if model == POI:
         return st.poisson.pmf(k, np.asarray(n, dtype=float) * q)
-    terms = hyper_terms(k, N, q, n)
-    j = np.arange(terms.shape[0]).reshape((-1,) + (1,) * (terms.ndim - 1))
-    return np.where(j == k, terms, 0.0).sum(axis=0)
+    return _hyper_sum(k, n, q, N, np.equal)
 
 
 class Problem:
