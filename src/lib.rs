@@ -102,7 +102,7 @@ pub use read::read_limited;
 pub use report::{
     AlternativeReport, BatchSummary, CostReport, Csv, DesignReport, EvaluationBatchReport,
     EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ProtectionReport,
-    RECTIFYING_STEP, RectifyingPlanReport, RectifyingReport, ReportFormat, SourceEvaluation, Table,
+    RectifyingPlanReport, RectifyingReport, ReportFormat, SourceEvaluation, Table,
     TradeoffCellReport, TradeoffReport, VariablesDesignReport, VariablesEvaluationReport,
     VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, format_quality,
     format_significant, variables_rule, words,

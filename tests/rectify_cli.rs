@@ -173,9 +173,12 @@ fn the_table_shows_the_steps_the_trade_off_and_the_caution() {
             "PLAN  n = 64, c = 3 (reject at 4)",
         ))
         .stdout(predicate::str::contains("1. Draw 64 units at random"))
+        // The last step screens rejected lots: ATI and AOQ assume it, so
+        // the generic "returned or screened" must not appear.
         .stdout(predicate::str::contains(
-            "Rectifying inspection: screen every rejected lot",
+            "4. Rectifying inspection: screen every rejected lot 100%",
         ))
+        .stdout(predicate::str::contains("returned or screened").not())
         .stdout(predicate::str::contains("average total inspection ATI"))
         .stdout(predicate::str::contains("100% inspection"))
         .stdout(predicate::str::contains(" 3 *"))

@@ -25,9 +25,7 @@ pub use self::batch::{
 };
 pub use self::csv::Csv;
 pub use self::json::Json;
-pub use self::rectifying::{
-    ProtectionReport, RECTIFYING_STEP, RectifyingPlanReport, RectifyingReport,
-};
+pub use self::rectifying::{ProtectionReport, RectifyingPlanReport, RectifyingReport};
 pub use self::table::Table;
 pub use self::tradeoff::{CostReport, TradeoffCellReport, TradeoffReport};
 pub use self::variables::{

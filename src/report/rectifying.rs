@@ -15,11 +15,6 @@ use crate::model::{ModelKind, nonconforming_in_lot};
 use crate::plan::{Aoql, Stage, StagedPlan};
 use crate::source::tool_version;
 
-/// What rectifying inspection does with a rejected lot, which ATI and AOQ
-/// assume.
-pub const RECTIFYING_STEP: &str = "Rectifying inspection: screen every rejected lot 100% and replace \
-    the nonconforming units found; the ATI and AOQ below assume it.";
-
 /// The protection asked for.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct ProtectionReport {
@@ -239,10 +234,9 @@ pub(super) fn write_table(out: &mut dyn Write, r: &RectifyingReport) -> io::Resu
         Some(p) => {
             let plan = &p.plan;
             writeln!(out, "{}", plan_headline(plan))?;
-            for step in words::plan_procedure(plan, per_unit) {
+            for step in words::rectifying_procedure(plan, per_unit) {
                 writeln!(out, "  {step}")?;
             }
-            writeln!(out, "  {RECTIFYING_STEP}")?;
             if plan.as_single().is_none() {
                 writeln!(out)?;
                 write_stage_table(out, &p.stages)?;

@@ -17,6 +17,11 @@ pub fn counted(per_unit: bool) -> &'static str {
 /// The inspector's procedure for the single plan `(n, c)`, one step per
 /// item.
 pub fn procedure(n: u64, c: u64, per_unit: bool) -> [String; 4] {
+    single_steps(n, c, per_unit, DISPOSITION)
+}
+
+/// The single plan's four steps, the last one `disposition`.
+fn single_steps(n: u64, c: u64, per_unit: bool, disposition: &str) -> [String; 4] {
     let what = counted(per_unit);
     [
         format!(
@@ -27,22 +32,40 @@ pub fn procedure(n: u64, c: u64, per_unit: bool) -> [String; 4] {
             "3. If the count is {c} or fewer, accept the lot. If it is {} or more, reject the lot.",
             c + 1
         ),
-        format!("4. {DISPOSITION}"),
+        format!("4. {disposition}"),
     ]
 }
 
-/// The last step of every procedure: what happens to a rejected lot.
+/// The last step of a procedure: what happens to a rejected lot.
 const DISPOSITION: &str = "A rejected lot is returned or screened 100%, as the supply agreement says; \
      record the counts and the decision.";
+
+/// The last step of a procedure under rectifying inspection, which the
+/// ATI and AOQ of a minimum-inspection plan assume.
+pub const RECTIFYING_DISPOSITION: &str = "Rectifying inspection: screen every rejected lot 100% \
+     and replace the nonconforming units found (the ATI and AOQ below assume it); record the \
+     counts and the decision.";
 
 /// The inspector's procedure for any staged plan, one step per item: the
 /// single plan's four steps, or the steps of a staged or an item-by-item
 /// plan (whose numbers are in the stage table or the item table beside
 /// them).
 pub fn plan_procedure(plan: &StagedPlan, per_unit: bool) -> Vec<String> {
+    steps(plan, per_unit, DISPOSITION)
+}
+
+/// [`plan_procedure`] for a plan under rectifying inspection: the last
+/// step screens every rejected lot ([`RECTIFYING_DISPOSITION`]) instead of
+/// leaving the choice to the supply agreement.
+pub fn rectifying_procedure(plan: &StagedPlan, per_unit: bool) -> Vec<String> {
+    steps(plan, per_unit, RECTIFYING_DISPOSITION)
+}
+
+/// The steps of any staged plan, the last one `disposition`.
+fn steps(plan: &StagedPlan, per_unit: bool, disposition: &str) -> Vec<String> {
     let what = counted(per_unit);
     if let Some((n, c)) = plan.as_single() {
-        return procedure(n, c, per_unit).to_vec();
+        return single_steps(n, c, per_unit, disposition).to_vec();
     }
     let stages = plan.stages();
     let last = stages[stages.len() - 1];
@@ -62,7 +85,7 @@ pub fn plan_procedure(plan: &StagedPlan, per_unit: bool) -> Vec<String> {
              rejection number; otherwise inspect the next unit."
                 .to_string(),
             format!("4. At unit {} the lot is decided: {close}", last.n),
-            format!("5. {DISPOSITION}"),
+            format!("5. {disposition}"),
         ];
     }
     vec![
@@ -82,7 +105,7 @@ pub fn plan_procedure(plan: &StagedPlan, per_unit: bool) -> Vec<String> {
             stages.len(),
             last.n
         ),
-        format!("5. {DISPOSITION}"),
+        format!("5. {disposition}"),
     ]
 }
 
