@@ -257,8 +257,9 @@ class Problem:
 
 
 def golden_max(f, a, b, rel=1e-13):
-    """Maximiser of a unimodal f on [a, b] by golden-section search."""
-    g = (math.sqrt(5) - 1) / 2
+    """Maximiser of a unimodal f on [a, b] by golden-section search, in
+    double precision, or at mpmath's precision when a is an mpf."""
+    g = ((mp.sqrt(5) if isinstance(a, mpf) else math.sqrt(5)) - 1) / 2
     x1, x2 = b - g * (b - a), a + g * (b - a)
     f1, f2 = f(x1), f(x2)
     while b - a > rel * b:
@@ -514,20 +515,7 @@ def mp_double_aoql(prob, stages, guess):
         vals = [(f(D / N), D) for D in range(max(D0 - 3, 0), min(D0 + 3, N) + 1)]
         v, D = max(vals)
         return to_float(v), to_float(mpf(D) / N)
-    a, b = mpf(guess) * mpf("0.99"), mpf(guess) * mpf("1.01")
-    g = (mp.sqrt(5) - 1) / 2
-    x1, x2 = b - g * (b - a), a + g * (b - a)
-    f1, f2 = f(x1), f(x2)
-    while b - a > mpf(10) ** -20 * b:
-        if f1 < f2:
-            a, x1, f1 = x1, x2, f2
-            x2 = a + g * (b - a)
-            f2 = f(x2)
-        else:
-            b, x2, f2 = x2, x1, f1
-            x1 = b - g * (b - a)
-            f1 = f(x1)
-    m = (a + b) / 2
+    m = golden_max(f, mpf(guess) * mpf("0.99"), mpf(guess) * mpf("1.01"), mpf(10) ** -20)
     return to_float(f(m)), to_float(m)
 
 
