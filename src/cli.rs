@@ -14,6 +14,17 @@ pub struct Cli {
     pub command: Command,
 }
 
+impl Cli {
+    /// The names of the commands, in the order of `--help`.
+    pub fn command_names() -> Vec<String> {
+        use clap::CommandFactory;
+        Cli::command()
+            .get_subcommands()
+            .map(|c| c.get_name().to_string())
+            .collect()
+    }
+}
+
 #[derive(Debug, Subcommand)]
 pub enum Command {
     /// Design the smallest plan that meets both risk points.
@@ -101,9 +112,10 @@ pub enum ReportFormatArg {
 #[derive(Debug, Args)]
 pub struct ModelFlags {
     /// Likelihood model [default: binomial, or hypergeometric with --lot-size]
-    #[arg(long, value_enum)]
+    #[arg(long, value_enum, ignore_case = true)]
     pub model: Option<ModelArg>,
-    /// Lot size N (required by the hypergeometric model; gives ATI and AOQ's (N-n)/N)
+    /// Lot size N (required by the hypergeometric model; gives ATI and AOQ's (N-n)/N); beside a
+    /// plan source, the lot of a source that gives none
     #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub lot_size: Option<String>,
 }
@@ -148,10 +160,10 @@ pub struct DesignArgs {
     #[command(flatten)]
     pub model: ModelFlags,
     /// Sampling scheme
-    #[arg(long, value_enum, default_value = "single")]
+    #[arg(long, value_enum, ignore_case = true, default_value = "single")]
     pub scheme: SchemeArg,
     /// What a double or multiple plan minimises [default: asn-aql]
-    #[arg(long, value_enum)]
+    #[arg(long, value_enum, ignore_case = true)]
     pub criterion: Option<CriterionArg>,
     /// Double plans: fix the second sample at R times the first (n2 = R n1)
     #[arg(long, value_name = "R", allow_hyphen_values = true)]
@@ -160,10 +172,10 @@ pub struct DesignArgs {
     #[arg(long, value_name = "K", allow_hyphen_values = true)]
     pub stage_count: Option<String>,
     /// Variables plans: is the process sigma known or estimated by s
-    #[arg(long, value_enum)]
+    #[arg(long, value_enum, ignore_case = true)]
     pub sigma: Option<SigmaArg>,
     /// Variables plans: which specification limits
-    #[arg(long, value_enum)]
+    #[arg(long, value_enum, ignore_case = true)]
     pub limit: Option<LimitArg>,
     /// Variables plans, sigma known: its value, in the unit of the measurements
     #[arg(long, value_name = "S", allow_hyphen_values = true)]
@@ -193,7 +205,7 @@ pub struct DesignArgs {
     #[arg(long, value_name = "B", allow_hyphen_values = true)]
     pub step_beta: Option<String>,
     /// Output format on stdout
-    #[arg(long, value_enum, default_value = "table")]
+    #[arg(long, value_enum, ignore_case = true, default_value = "table")]
     pub format: DesignFormat,
     /// Write the solved plan source to this file (atomically; never over the source read)
     #[arg(long, value_name = "FILE.yaml")]
@@ -201,13 +213,16 @@ pub struct DesignArgs {
     /// Let --output replace a file that exists already
     #[arg(long, requires = "output")]
     pub force: bool,
+    /// Re-solve the plan source FILE.yaml and replace it with the solved source (atomically)
+    #[arg(long, conflicts_with = "output")]
+    pub in_place: bool,
 }
 
 #[derive(Debug, Args)]
 pub struct EvaluateArgs {
     /// Plan sources whose recorded plans to evaluate, or folders of them
     /// (searched through subfolders for *.yaml and *.yml)
-    #[arg(value_name = "FILE.yaml|DIR", conflicts_with_all = ["n", "c", "stage", "model", "lot_size"])]
+    #[arg(value_name = "FILE.yaml|DIR", conflicts_with_all = ["n", "c", "stage", "model"])]
     pub sources: Vec<PathBuf>,
     /// Sample size of a single plan
     #[arg(
@@ -232,7 +247,7 @@ pub struct EvaluateArgs {
     #[arg(long, value_name = "LO:HI:COUNT", allow_hyphen_values = true)]
     pub range: Option<String>,
     /// Output format
-    #[arg(long, value_enum, default_value = "table")]
+    #[arg(long, value_enum, ignore_case = true, default_value = "table")]
     pub format: ReportFormatArg,
 }
 
@@ -250,13 +265,15 @@ pub struct VerifyArgs {
     #[arg(long)]
     pub list: bool,
     /// Output format
-    #[arg(long, value_enum, default_value = "table")]
+    #[arg(long, value_enum, ignore_case = true, default_value = "table")]
     pub format: ReportFormatArg,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
 pub enum JudgeFormat {
-    Text,
+    /// The decision in words (`text`, its earlier name, is still read)
+    #[value(alias = "text")]
+    Table,
     Json,
 }
 
@@ -286,7 +303,7 @@ pub struct JudgeArgs {
     #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub inspected: Option<String>,
     /// Output format
-    #[arg(long, value_enum, default_value = "text")]
+    #[arg(long, value_enum, ignore_case = true, default_value = "table")]
     pub format: JudgeFormat,
 }
 
@@ -333,32 +350,35 @@ pub struct TradeoffArgs {
     #[command(flatten)]
     pub model: ModelFlags,
     /// Sampling scheme of every cell
-    #[arg(long, value_enum, default_value = "single")]
+    #[arg(long, value_enum, ignore_case = true, default_value = "single")]
     pub scheme: SingleOrDoubleArg,
     /// What the double designer minimises [default: asn-aql]
-    #[arg(long, value_enum)]
+    #[arg(long, value_enum, ignore_case = true)]
     pub criterion: Option<CriterionArg>,
     /// Cost of inspecting one unit: adds the expected inspection cost per lot (needs --lot-size)
     #[arg(
         long,
         value_name = "X",
-        requires = "process_quality",
+        requires = "process_average",
         allow_hyphen_values = true
     )]
     pub cost_per_unit: Option<String>,
-    /// Expected process quality at which the cost is taken (ATI at this quality)
+    /// Process average: the supplier's usual quality, at which the cost is taken (ATI there)
+    // `--process-quality`, the flag's first name, is still read (hidden),
+    // so that scripts written for it keep working.
     #[arg(
         long,
         value_name = "P",
+        alias = "process-quality",
         requires = "cost_per_unit",
         allow_hyphen_values = true
     )]
-    pub process_quality: Option<String>,
+    pub process_average: Option<String>,
     /// Title printed above the grid
     #[arg(long)]
     pub title: Option<String>,
     /// Output format
-    #[arg(long, value_enum, default_value = "table")]
+    #[arg(long, value_enum, ignore_case = true, default_value = "table")]
     pub format: TradeoffFormat,
     /// Write the output to this file (atomically) instead of stdout; required for pdf
     #[arg(long, value_name = "FILE")]
@@ -367,7 +387,7 @@ pub struct TradeoffArgs {
     #[arg(long, requires = "output")]
     pub force: bool,
     /// Paper size of the pdf heat map (printed landscape)
-    #[arg(long, value_enum, default_value = "a4")]
+    #[arg(long, value_enum, ignore_case = true, default_value = "a4")]
     pub paper: PaperArg,
 }
 
@@ -391,7 +411,7 @@ pub struct SheetArgs {
     #[arg(long, value_name = "DIR")]
     pub output_dir: Option<PathBuf>,
     /// Paper size
-    #[arg(long, value_enum, default_value = "a4")]
+    #[arg(long, value_enum, ignore_case = true, default_value = "a4")]
     pub paper: PaperArg,
     /// Replace PDFs that exist already (without it, a source whose PDF exists is refused)
     #[arg(long)]
@@ -445,15 +465,15 @@ pub struct RectifyArgs {
     #[arg(long, value_name = "L", allow_hyphen_values = true)]
     pub aoql: Option<String>,
     /// Sampling scheme
-    #[arg(long, value_enum, default_value = "single")]
+    #[arg(long, value_enum, ignore_case = true, default_value = "single")]
     pub scheme: SingleOrDoubleArg,
     /// Likelihood model [default: hypergeometric, since the lot size is known]
-    #[arg(long, value_enum)]
+    #[arg(long, value_enum, ignore_case = true)]
     pub model: Option<ModelArg>,
     /// Title printed above the plan
     #[arg(long)]
     pub title: Option<String>,
     /// Output format
-    #[arg(long, value_enum, default_value = "table")]
+    #[arg(long, value_enum, ignore_case = true, default_value = "table")]
     pub format: ReportFormatArg,
 }

@@ -37,6 +37,16 @@ pub enum InputError {
     /// Values that are each valid but do not fit together.
     #[error("{0}")]
     Inconsistent(String),
+    /// A plan source without the solved plan the work needs, or with a
+    /// plan of the wrong kind: solving it is the fix. Inside a
+    /// [`SourceError::Invalid`], `FILE.yaml` in the advice is the source's
+    /// own name.
+    #[error("{why}; solve it with: lotsman design FILE.yaml --in-place")]
+    NotSolved {
+        /// What the source lacks, e.g. `not solved yet: the source records
+        /// no plan`.
+        why: String,
+    },
 }
 
 impl InputError {
@@ -95,7 +105,7 @@ pub enum DesignError {
 #[derive(Debug, Error)]
 pub enum SourceError {
     /// The file system refused.
-    #[error("{path}: {source}")]
+    #[error("{}", crate::plain::io_message(path, source))]
     Io {
         /// The file.
         path: PathBuf,
@@ -103,16 +113,16 @@ pub enum SourceError {
         source: std::io::Error,
     },
     /// The YAML does not parse, or does not fit the schema (the message
-    /// carries the field, line and column).
+    /// says, in plain words, what the field must hold, and gives its line).
     #[error("{path}: {message}")]
     Parse {
         /// The file.
         path: PathBuf,
-        /// serde_yaml's message, with the line and column.
+        /// What is wrong and where, in plain words.
         message: String,
     },
     /// The YAML parses but holds an invalid value.
-    #[error("{path}: {source}")]
+    #[error("{}", invalid_message(path, source))]
     Invalid {
         /// The file.
         path: PathBuf,
@@ -130,7 +140,8 @@ pub enum SourceError {
     /// The recorded plan differs from a re-solve of its risk points, or no
     /// longer meets them, and printing it as recorded was not asked for.
     #[error(
-        "{path}: {discrepancy}; re-solve it with: lotsman design {path} --output NEW.yaml, or print it as recorded, the discrepancy stated on the sheet, with --accept-recorded"
+        "{path}: {discrepancy}; re-solve it with: lotsman design {} --in-place, or print it as recorded, the discrepancy stated on the sheet, with --accept-recorded",
+        crate::plain::shell_path(path)
     )]
     Unconfirmed {
         /// The source.
@@ -153,7 +164,10 @@ pub enum SourceError {
 #[derive(Debug, Error)]
 pub enum BatchError {
     /// The path does not exist or cannot be inspected.
-    #[error("{path}: {source}; give a plan source (FILE.yaml) or a folder that holds some")]
+    #[error(
+        "{}; give a plan source (FILE.yaml) or a folder that holds some",
+        crate::plain::io_message(path, source)
+    )]
     Missing {
         /// The path as given.
         path: PathBuf,
@@ -161,7 +175,10 @@ pub enum BatchError {
         source: std::io::Error,
     },
     /// A folder, or a folder below it, cannot be listed.
-    #[error("{path}: the folder cannot be listed: {source}")]
+    #[error(
+        "{path}: the folder cannot be listed: it {}",
+        crate::plain::io_reason(source)
+    )]
     Unlistable {
         /// The folder.
         path: PathBuf,
@@ -219,6 +236,19 @@ pub enum Error {
     #[error(transparent)]
     Numerical(#[from] crate::numeric::NumericalError),
     /// Writing a report failed.
-    #[error("cannot write output: {0}")]
+    #[error("{}", crate::plain::io_message(std::path::Path::new("the output"), .0).trim_start_matches("the output: "))]
     Output(#[from] std::io::Error),
+}
+
+/// The message of [`SourceError::Invalid`]: the path, then what is wrong;
+/// the advice of [`InputError::NotSolved`] names the source itself.
+fn invalid_message(path: &std::path::Path, source: &InputError) -> String {
+    match source {
+        InputError::NotSolved { why } => format!(
+            "{}: {why}; solve it with: lotsman design {} --in-place",
+            path.display(),
+            crate::plain::shell_path(path)
+        ),
+        other => format!("{}: {other}", path.display()),
+    }
 }

@@ -53,6 +53,7 @@ mod design;
 mod error;
 mod model;
 mod numeric;
+mod plain;
 mod plan;
 mod quantity;
 mod read;
@@ -83,6 +84,7 @@ pub use design::{
 pub use error::{BatchError, DesignError, Error, InputError, SourceError};
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
 pub use numeric::{NEAR_LIMIT, NumericalError, check_amount, check_probability, near_limit};
+pub use plain::{escape_controls, io_message, io_reason, is_unsafe_char, shell_path, shell_word};
 pub use plan::{
     AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS,
     MAX_OPEN_COUNTS, MAX_STAGES, MAX_VARIABLES_SAMPLE, MeasurementJudgement, Measures,

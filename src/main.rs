@@ -41,17 +41,80 @@ use lotsman::{
     solve_variables, source_hash, template, template_kinds, tradeoff, verify_file, write_atomic,
     write_sheet,
 };
+use lotsman::{escape_controls, shell_path, shell_word};
 use progress::Progress;
 
 fn main() -> ExitCode {
-    let cli = Cli::parse();
+    let cli = match Cli::try_parse() {
+        Ok(cli) => cli,
+        Err(e) => return arguments_refused(&e),
+    };
     match run(cli) {
         Ok(code) => code,
-        Err(e) => {
-            eprintln!("lotsman: error: {e}");
-            ExitCode::from(2)
-        }
+        Err(e) => refuse(&e),
     }
+}
+
+/// The one-line refusal on stderr, exit code 2. Control characters that
+/// came from a file or an argument are shown escaped, never sent raw to
+/// the terminal.
+fn refuse(e: &dyn std::fmt::Display) -> ExitCode {
+    eprintln!("lotsman: error: {}", escape_controls(&e.to_string()));
+    ExitCode::from(2)
+}
+
+/// A path as messages show it: its control characters escaped.
+fn shown(path: &Path) -> String {
+    escape_controls(&path.to_string_lossy()).into_owned()
+}
+
+/// What clap reports: help and version on stdout (exit 0, or 2 when they
+/// cannot be written), an argument error as one line like every refusal.
+fn arguments_refused(e: &clap::Error) -> ExitCode {
+    use clap::error::ErrorKind;
+    use std::io::IsTerminal;
+    match e.kind() {
+        ErrorKind::DisplayHelp | ErrorKind::DisplayVersion => {
+            if std::io::stdout().is_terminal() {
+                // clap's own printing keeps its styles on a terminal.
+                let _ = e.print();
+                return ExitCode::SUCCESS;
+            }
+            match print_out(e.render().to_string().as_bytes()) {
+                Ok(()) => ExitCode::SUCCESS,
+                Err(e) => refuse(&e),
+            }
+        }
+        ErrorKind::DisplayHelpOnMissingArgumentOrSubcommand => refuse(&format!(
+            "give a command: {}; lotsman --help says what each does",
+            Cli::command_names().join(", ")
+        )),
+        _ => refuse(&one_line(&e.render().to_string())),
+    }
+}
+
+/// clap's message on one line: the error and its tips, without the usage
+/// block, and the command whose `--help` lists the options.
+fn one_line(rendered: &str) -> String {
+    let mut text = String::new();
+    let command = std::env::args()
+        .nth(1)
+        .filter(|a| Cli::command_names().contains(a));
+    let help = match command {
+        Some(c) => format!("lotsman {c} --help"),
+        None => "lotsman --help".to_string(),
+    };
+    for line in rendered.lines().map(str::trim).filter(|l| !l.is_empty()) {
+        if line.starts_with("Usage: ") || line.starts_with("For more information") {
+            continue;
+        }
+        let line = line.strip_prefix("error: ").unwrap_or(line);
+        if !text.is_empty() {
+            text.push_str(if text.ends_with(':') { " " } else { "; " });
+        }
+        text.push_str(line);
+    }
+    format!("{text}; {help} lists the options")
 }
 
 fn run(cli: Cli) -> Result<ExitCode, Error> {
@@ -87,11 +150,18 @@ fn formatter(format: ReportFormatArg) -> &'static dyn ReportFormat {
     }
 }
 
+/// Prints `bytes` on stdout in one write; a device that is full or a
+/// reader that went away is refused in words (exit code 2).
 fn print_out(bytes: &[u8]) -> Result<(), Error> {
     let mut out = std::io::stdout().lock();
-    out.write_all(bytes)?;
-    out.flush()?;
-    Ok(())
+    out.write_all(bytes)
+        .and_then(|()| out.flush())
+        .map_err(|e| {
+            Error::Output(std::io::Error::new(
+                e.kind(),
+                format!("standard output {}", lotsman::io_reason(&e)),
+            ))
+        })
 }
 
 /// The model from `--model` and `--lot-size`: binomial by default, the
@@ -117,6 +187,13 @@ fn model_of(model: Option<ModelArg>, lot_size: Option<&str>) -> Result<Model, In
 }
 
 fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
+    refuse_non_yaml_output(args.output.as_deref())?;
+    if args.in_place && args.source.is_none() {
+        return Err(InputError::Inconsistent(
+            "--in-place re-solves a plan source and replaces it: name the source, as in lotsman design FILE.yaml --in-place; a plan designed from flags is written with --output FILE.yaml".to_string(),
+        )
+        .into());
+    }
     let variables = match &args.source {
         Some(path) => {
             let source = PlanSource::load(path)?;
@@ -273,10 +350,10 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
         )
         .into());
     }
-    let cost = match (&args.cost_per_unit, &args.process_quality) {
+    let cost = match (&args.cost_per_unit, &args.process_average) {
         (Some(k), Some(p)) => Some((
             parse_number("--cost-per-unit", k)?,
-            parse_fraction("--process-quality", p)?,
+            parse_fraction("--process-average", p)?,
         )),
         _ => None,
     };
@@ -326,7 +403,7 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
     match &args.output {
         Some(path) => {
             write_atomic(path, &text, Overwrite::from_force(args.force))?;
-            eprintln!("lotsman: wrote {}", path.display());
+            eprintln!("lotsman: wrote {}", shown(path));
         }
         None => print_out(&text)?,
     }
@@ -372,18 +449,72 @@ fn design_error(args: &cli::DesignArgs, e: lotsman::DesignError) -> Error {
 }
 
 /// Writes the solved source to `--output`, if given: never over the
-/// source read, and over another file only with `--force`.
+/// source read, and over another file only with `--force`; or, with
+/// `--in-place`, over the source read, which is what that flag asks for.
 fn write_source(args: &cli::DesignArgs, source: &PlanSource) -> Result<(), Error> {
+    if let (true, Some(path)) = (args.in_place, &args.source) {
+        write_atomic(path, source.to_yaml().as_bytes(), Overwrite::Replace)?;
+        eprintln!("lotsman: re-solved {} in place", shown(path));
+    }
     if let Some(target) = &args.output {
-        refuse_overwriting_input(target, args.source.as_deref())?;
+        refuse_overwriting_input(target, args.source.as_deref(), true)?;
         write_atomic(
             target,
             source.to_yaml().as_bytes(),
             Overwrite::from_force(args.force),
         )?;
-        eprintln!("lotsman: wrote plan source {}", target.display());
+        eprintln!("lotsman: wrote plan source {}", shown(target));
     }
     Ok(())
+}
+
+/// `design --output` writes a plan source, so its name must end in
+/// `.yaml` or `.yml`: the name the folder search finds, and not a PDF
+/// (the sheet is printed from the source by `lotsman sheet`).
+fn refuse_non_yaml_output(output: Option<&Path>) -> Result<(), InputError> {
+    // A folder in the target's place is refused as such when written.
+    let Some(target) = output.filter(|t| !t.is_dir()) else {
+        return Ok(());
+    };
+    let extension = target
+        .extension()
+        .map(|e| e.to_string_lossy().to_ascii_lowercase());
+    if matches!(extension.as_deref(), Some("yaml" | "yml")) {
+        return Ok(());
+    }
+    let yaml = target.with_extension("yaml");
+    let rerun = this_command_with_output(&yaml);
+    let sheet = if extension.as_deref() == Some("pdf") {
+        format!(
+            ", then print its sheet with: lotsman sheet {}",
+            shell_path(&yaml)
+        )
+    } else {
+        String::new()
+    };
+    Err(InputError::Inconsistent(format!(
+        "--output {} would hold the plan source, which is YAML, and its name does not end in .yaml or .yml; write it with: {rerun}{sheet}",
+        target.display()
+    )))
+}
+
+/// This run's command line with the value of `--output` replaced by
+/// `output`, as a shell takes it back.
+fn this_command_with_output(output: &Path) -> String {
+    let mut words = vec!["lotsman".to_string()];
+    let mut args = std::env::args_os().skip(1);
+    while let Some(arg) = args.next() {
+        let text = arg.to_string_lossy();
+        if text == "--output" {
+            args.next();
+            words.push(format!("--output {}", shell_path(output)));
+        } else if text.starts_with("--output=") {
+            words.push(format!("--output {}", shell_path(output)));
+        } else {
+            words.push(shell_word(&text));
+        }
+    }
+    words.join(" ")
 }
 
 fn design_variables_cmd(
@@ -493,12 +624,24 @@ fn refuse_variables_flags(args: &cli::DesignArgs) -> Result<(), InputError> {
 }
 
 /// `--output` never replaces the source that was read, even with
-/// `--force`.
-fn refuse_overwriting_input(target: &Path, input: Option<&Path>) -> Result<(), InputError> {
+/// `--force`; `in_place` names the flag that does (for `design`).
+fn refuse_overwriting_input(
+    target: &Path,
+    input: Option<&Path>,
+    in_place: bool,
+) -> Result<(), InputError> {
     let Some(input) = input else { return Ok(()) };
     if same_file(target, input) {
+        let advice = if in_place {
+            format!(
+                ", or re-solve it in place with: lotsman design {} --in-place",
+                shell_path(input)
+            )
+        } else {
+            String::new()
+        };
         return Err(InputError::Inconsistent(format!(
-            "the output {} is the plan source being read; write to a new file and compare before replacing it",
+            "the output {} is the plan source being read; write to a new file and compare before replacing it{advice}",
             target.display()
         )));
     }
@@ -543,7 +686,7 @@ fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
         [one] if !one.is_dir() => {
             let qualities = asked_qualities(&args)?;
             let mut text = Vec::new();
-            match evaluate_source(one, &qualities)? {
+            match evaluate_source(one, &qualities, source_lot(&args)?)? {
                 SourceEvaluation::Attributes(r) => {
                     formatter(args.format).evaluation(&mut text, &r)?
                 }
@@ -556,6 +699,15 @@ fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
         }
         _ => evaluate_batch_cmd(&args),
     }
+}
+
+/// `--lot-size` beside plan sources: the lot of a source that gives none.
+fn source_lot(args: &cli::EvaluateArgs) -> Result<Option<u64>, InputError> {
+    args.model
+        .lot_size
+        .as_deref()
+        .map(|t| parse_count("--lot-size", t, MAX_LOT_SIZE))
+        .transpose()
 }
 
 /// `evaluate --n --c` or `--stage`: a plan given by its numbers.
@@ -599,11 +751,12 @@ fn evaluate_plan_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
 /// the summary after the table, or on stderr beside JSON and CSV.
 fn evaluate_batch_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
     let qualities = asked_qualities(args)?;
+    let lot = source_lot(args)?;
     let found = expand_paths(&args.sources);
     let results = run_batch(&found, "sources evaluated", |entry| match entry {
         Ok(s) => EvaluationEntry::new(
             s.path.display().to_string(),
-            evaluate_source(&s.path, &qualities).map_err(|e| e.to_string()),
+            evaluate_source(&s.path, &qualities, lot).map_err(|e| e.to_string()),
         ),
         Err(e) => EvaluationEntry::new(e.path().display().to_string(), Err(e.to_string())),
     });
@@ -652,8 +805,11 @@ const MAX_SHEET_BYTES: u64 = 16 << 20;
 /// Checks that the sheet at `pdf` carries the hash of the source at `source`.
 fn check_sheet(entry: &mut VerifyEntry, source: &Path, pdf: &Path) {
     let recorded = read_limited(pdf, MAX_SHEET_BYTES, "a plan sheet")
-        .map_err(|e| e.to_string())
-        .and_then(|b| sheet_source_hash(&b));
+        .map_err(|e| lotsman::io_message(pdf, &e))
+        .and_then(|b| {
+            sheet_source_hash(&b)
+                .map_err(|_| format!("{}: not a PDF that can be read", pdf.display()))
+        });
     let actual = PlanSource::read_text(source).map(|t| source_hash(&t));
     let invalid = |entry: &mut VerifyEntry, message: String| {
         entry.status = VerifyStatus::Invalid;
@@ -675,7 +831,7 @@ fn check_sheet(entry: &mut VerifyEntry, source: &Path, pdf: &Path) {
             entry,
             format!("{}: not a lotsman sheet (no source hash)", pdf.display()),
         ),
-        (Err(e), _) => invalid(entry, format!("{}: {e}", pdf.display())),
+        (Err(e), _) => invalid(entry, e),
         (_, Err(e)) => invalid(entry, e.to_string()),
     }
 }
@@ -750,7 +906,7 @@ fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode,
         cli::JudgeFormat::Json => {
             serde_json::to_string_pretty(&j).map_err(std::io::Error::other)? + "\n"
         }
-        cli::JudgeFormat::Text => {
+        cli::JudgeFormat::Table => {
             let mut t = String::new();
             for w in &j.warnings {
                 t.push_str(&format!("WARNING: {w}\n"));
@@ -813,7 +969,7 @@ fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode,
                     "  spread against the known sigma: chi-square p = {p:.4}\n"
                 ));
             }
-            t.push_str(&format!("  plan {} from {}\n", plan, args.source.display()));
+            t.push_str(&format!("  plan {} from {}\n", plan, shown(&args.source)));
             t
         }
     };
@@ -853,7 +1009,7 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
         cli::JudgeFormat::Json => {
             serde_json::to_string_pretty(&j).map_err(std::io::Error::other)? + "\n"
         }
-        cli::JudgeFormat::Text => {
+        cli::JudgeFormat::Table => {
             let rule = match j.decision {
                 Decision::Accept => format!(
                     "{} <= acceptance number {}",
@@ -884,7 +1040,7 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
                 j.stage,
                 j.inspected,
                 plan,
-                args.source.display()
+                shown(&args.source)
             )
         }
     };
@@ -914,7 +1070,7 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
         };
         let accepted = write_one_sheet(source, &out, &options, output_dir.is_some())?;
         warn_accepted(source, accepted.as_ref());
-        eprintln!("lotsman: wrote sheet {}", out.display());
+        eprintln!("lotsman: wrote sheet {}", shown(&out));
         return Ok(ExitCode::SUCCESS);
     }
     if args.output.is_some() {
@@ -953,8 +1109,9 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
 fn warn_accepted(source: &Path, accepted: Option<&Discrepancy>) {
     if let Some(d) = accepted {
         eprintln!(
-            "lotsman: warning: {}: {d}; printed as recorded (--accept-recorded), with the discrepancy stated on the sheet",
-            source.display()
+            "lotsman: warning: {}: {}; printed as recorded (--accept-recorded), with the discrepancy stated on the sheet",
+            shown(source),
+            escape_controls(&d.to_string())
         );
     }
 }
@@ -968,7 +1125,7 @@ fn write_one_sheet(
     options: &SheetOptions,
     make_folders: bool,
 ) -> Result<Option<Discrepancy>, Error> {
-    refuse_overwriting_input(target, Some(source))?;
+    refuse_overwriting_input(target, Some(source), false)?;
     if make_folders && let Some(folder) = target.parent() {
         std::fs::create_dir_all(folder).map_err(|e| SourceError::Io {
             path: folder.to_path_buf(),

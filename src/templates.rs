@@ -17,7 +17,10 @@ pub const TEMPLATES: &[(&str, &str)] = &[
 
 /// The template of `kind`, or `None` for an unknown kind.
 pub fn template(kind: &str) -> Option<&'static str> {
-    TEMPLATES.iter().find(|(k, _)| *k == kind).map(|(_, t)| *t)
+    TEMPLATES
+        .iter()
+        .find(|(k, _)| k.eq_ignore_ascii_case(kind))
+        .map(|(_, t)| *t)
 }
 
 /// The names of all templates, for messages.

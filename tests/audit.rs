@@ -77,11 +77,11 @@ fn edited_sources(dir: &Path) -> Vec<(PathBuf, String)> {
     vec![
         (
             edited(dir, "single.yaml", SEAL, &[("n: 166", "n: 150")]),
-            "plan.stages[0].n: recorded 150, re-solved 166".into(),
+            "stage 1 n: recorded 150, re-solved 166".into(),
         ),
         (
             edited(dir, "double.yaml", DOUBLE, &[("n: 131", "n: 120")]),
-            "plan.stages[1].n: recorded 120, re-solved 131".into(),
+            "stage 2 n: recorded 120, re-solved 131".into(),
         ),
         (
             edited(
@@ -229,7 +229,7 @@ fn the_notice_fits_both_papers_without_overlaps_for_every_kind_of_plan() {
             MULTIPLE,
             &[("accept: 0\n    reject: 3", "accept: 0\n    reject: 4")],
         ),
-        "plan.stages[1].reject: recorded 4, re-solved 3".into(),
+        "stage 2 reject: recorded 4, re-solved 3".into(),
     ));
     // Seven differing fields and an unmet point: the notice lists two and
     // counts the rest.
@@ -248,7 +248,7 @@ fn the_notice_fits_both_papers_without_overlaps_for_every_kind_of_plan() {
                 ("consumer_risk: 0.09999818504082597", "consumer_risk: 0.09"),
             ],
         ),
-        "and 5 more fields (lotsman verify lists every one)".into(),
+        "and 5 more fields (lotsman verify s.yaml lists every one)".into(),
     ));
     for (path, needle) in &sources {
         let text = std::fs::read_to_string(path).unwrap();
@@ -322,7 +322,7 @@ fn a_batch_sheet_refuses_unconfirmed_sources_or_prints_them_with_the_notice() {
         (
             lines[0],
             "b-single.yaml",
-            "plan.stages[0].n: recorded 150, re-solved 166",
+            "stage 1 n: recorded 150, re-solved 166",
         ),
         (
             lines[1],
@@ -374,27 +374,27 @@ fn verify_names_every_field_of_every_scheme() {
     let cases: Vec<(&Path, &str, Edit)> = vec![
         (
             Path::new(SEAL),
-            "plan.stages[0].n",
+            "stage 1 n",
             Box::new(|s| s.plan.as_mut().unwrap().stages[0].n += 1),
         ),
         (
             Path::new(SEAL),
-            "plan.stages[0].accept",
+            "stage 1 accept",
             Box::new(|s| s.plan.as_mut().unwrap().stages[0].accept = Some(2)),
         ),
         (
             Path::new(SEAL),
-            "plan.stages[0].reject",
+            "stage 1 reject",
             Box::new(|s| s.plan.as_mut().unwrap().stages[0].reject = 5),
         ),
         (
             Path::new(DOUBLE),
-            "plan.stages[1].accept",
+            "stage 2 accept",
             Box::new(|s| s.plan.as_mut().unwrap().stages[1].accept = Some(2)),
         ),
         (
             Path::new(MULTIPLE),
-            "plan.stages",
+            "number of stages",
             Box::new(|s| {
                 s.plan.as_mut().unwrap().stages.pop();
             }),
@@ -499,12 +499,19 @@ fn verify_names_every_field_of_every_scheme() {
             "plan.producer_risk",
             Box::new(|s| s.plan.as_mut().unwrap().producer_risk = f64::INFINITY),
         ),
-        (Path::new(SEAL), "plan", Box::new(|s| s.plan = None)),
     ];
     for (path, field, edit) in cases {
         let fields = differing_fields(path, edit);
         assert_eq!(fields, [field], "{}", path.display());
     }
+    // A source without a plan is not solved yet: an error, not a field
+    // that differs.
+    let mut unsolved = PlanSource::load(Path::new(SEAL)).unwrap();
+    unsolved.plan = None;
+    assert!(matches!(
+        verify(&unsolved),
+        Err(lotsman::Error::Input(lotsman::InputError::NotSolved { .. }))
+    ));
     // Within the tolerance a recorded risk still matches.
     let fields = differing_fields(Path::new(SEAL), |s| {
         s.plan.as_mut().unwrap().producer_risk *= 1.0 + 1e-12

@@ -92,13 +92,13 @@ fn verify_of_a_folder_counts_every_outcome_and_gives_one_line_per_failure() {
     assert_eq!(
         lines[0],
         format!(
-            "mismatch  {}: plan.stages[0].n: recorded 150, re-solved 166",
+            "mismatch  {}: stage 1 n: recorded 150, re-solved 166",
             root.join("east/edited.yaml").display()
         )
     );
     assert!(
         lines[1].starts_with(&format!(
-            "invalid   {}: unknown field `lotsize`",
+            "invalid   {}: line 15: 'lotsize' is not a key of a plan source (did you mean lot_size?)",
             root.join("west/broken.yaml").display()
         )),
         "{}",
@@ -162,7 +162,7 @@ fn missing_paths_and_empty_folders_are_invalid_entries_and_the_rest_is_verified(
     let lines: Vec<&str> = out.lines().collect();
     assert_eq!(lines.len(), 4, "{out}");
     assert!(lines[0].starts_with(&format!(
-        "invalid   {}: No such file",
+        "invalid   {}: does not exist; give a plan source (FILE.yaml) or a folder that holds some",
         root.join("no-such.yaml").display()
     )));
     for (line, folder) in lines[1..3].iter().zip(["empty", "text-only"]) {
@@ -228,7 +228,7 @@ fn json_and_csv_give_one_entry_per_source_in_a_stable_order_and_the_summary_on_s
         .map(|r| r["status"].as_str().unwrap())
         .collect();
     assert_eq!(statuses, ["match", "match", "mismatch", "match", "invalid"]);
-    assert_eq!(results[2]["differences"][0]["field"], "plan.stages[0].n");
+    assert_eq!(results[2]["differences"][0]["field"], "stage 1 n");
     let csv = run("csv");
     let rows: Vec<&str> = csv.lines().skip(1).collect();
     assert_eq!(
@@ -427,7 +427,7 @@ fn sheet_of_a_folder_without_an_output_folder_writes_beside_each_source() {
     assert_eq!(lines.len(), 2, "{printed}");
     assert!(
         lines[0].starts_with(&format!(
-            "invalid   {}: recorded plan differs from a re-solve: plan.stages[0].n: recorded 150, re-solved 166",
+            "invalid   {}: recorded plan differs from a re-solve: stage 1 n: recorded 150, re-solved 166",
             root.join("east/edited.yaml").display()
         )),
         "{printed}"
@@ -484,7 +484,7 @@ fn evaluate_of_a_folder_gives_each_source_under_its_path_then_the_summary() {
     assert!(out.contains("invalid: "));
     let lines: Vec<&str> = out.lines().collect();
     assert!(lines[lines.len() - 2].starts_with(&format!(
-        "invalid   {}: unknown field `lotsize`",
+        "invalid   {}: line 15: 'lotsize' is not a key of a plan source (did you mean lot_size?)",
         root.join("west/broken.yaml").display()
     )));
     assert_eq!(lines[lines.len() - 1], "5 evaluated, 1 invalid");
@@ -590,7 +590,7 @@ fn evaluate_of_one_source_keeps_its_own_output() {
         .code(2)
         .stdout("")
         .stderr(predicate::str::starts_with(
-            "lotsman: error: plans/no-such-plan.yaml: No such file",
+            "lotsman: error: plans/no-such-plan.yaml does not exist",
         ));
 }
 

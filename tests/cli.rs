@@ -286,7 +286,7 @@ fn verify_reports_a_hand_edited_plan_with_exit_1() {
         .assert()
         .code(1)
         .stdout(predicate::str::contains(
-            "plan.stages[0].n: recorded 150, re-solved 166",
+            "stage 1 n: recorded 150, re-solved 166",
         ))
         .stdout(predicate::str::contains("1 match, 1 mismatch, 0 invalid"));
 }
@@ -307,7 +307,9 @@ fn verify_of_an_invalid_source_exits_2_and_still_checks_the_others() {
         ])
         .assert()
         .code(2)
-        .stdout(predicate::str::contains("unknown field `lotsize`"))
+        .stdout(predicate::str::contains(
+            "'lotsize' is not a key of a plan source (did you mean lot_size?)",
+        ))
         .stdout(predicate::str::contains("line 15"))
         .stdout(predicate::str::contains("\"status\": \"match\""));
 }

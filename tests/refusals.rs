@@ -875,7 +875,7 @@ fn evaluate_refuses_invalid_plans_and_qualities() {
         refused(
             "a source that records no plan",
             &["evaluate", "@no-plan.yaml"],
-            "records no plan yet; solve it first with: lotsman design FILE --output FILE",
+            "@no-plan.yaml: not solved yet: the source records no plan; solve it with: lotsman design @no-plan.yaml --in-place",
         ),
     ];
     run("evaluate", &cases);
@@ -1057,13 +1057,13 @@ fn plan_sources_that_are_not_valid_yaml_sources_are_refused() {
             "malformed YAML",
             &v("@malformed.yaml"),
             2,
-            "mapping values are not allowed in this context at line 3 column 9",
+            "line 3: a 'key: value' here does not line up with the keys above it: check the indentation of this line",
         ),
         reported(
             "a tab in the indentation",
             &v("@tab.yaml"),
             2,
-            "found a tab character that violates indentation at line 2",
+            "line 2: YAML indents with spaces, not tabs: replace the tab at the start of this line with spaces",
         ),
         reported("empty file", &v("@empty.yaml"), 2, "the file is empty"),
         reported(
@@ -1076,49 +1076,49 @@ fn plan_sources_that_are_not_valid_yaml_sources_are_refused() {
             "a list",
             &v("@list.yaml"),
             2,
-            "invalid type: sequence, expected struct PlanSource",
+            "a plan source is a YAML mapping of keys (schema:, title:, scheme:, model:, producer:, consumer:, ..., each at the start of a line); this file is a list",
         ),
         reported(
             "a sentence",
             &v("@scalar.yaml"),
             2,
-            "invalid type: string \"just a sentence\", expected struct PlanSource",
+            "this file is the text 'just a sentence'; start from a template: lotsman new binomial",
         ),
         reported(
             "unknown key",
             &v("@unknown-key.yaml"),
             2,
-            "unknown field `modell`, expected one of",
+            "line 4: 'modell' is not a key of a plan source (did you mean model?); the keys there are schema, title,",
         ),
         reported(
             "duplicated key",
             &v("@duplicate-key.yaml"),
             2,
-            "duplicate field `title`",
+            "line 3: title: is given twice, and a key may appear once; keep one",
         ),
         reported(
             "duplicated nested key",
             &v("@duplicate-nested-key.yaml"),
             2,
-            "producer: duplicate field `quality` at line 6 column 3; `quality` is given again at line 7",
+            "line 7: quality: is given twice under producer, and a key may appear once",
         ),
         reported(
             "schema as text",
             &v("@schema-text.yaml"),
             2,
-            "schema: invalid type: string \"one\", expected u32 at line 1",
+            "line 1: schema must be a whole number such as 1 (digits only, no thousands separator), not the text 'one'",
         ),
         reported(
             "quality as a list",
             &v("@quality-list.yaml"),
             2,
-            "producer.quality: invalid type: sequence, expected a fraction (0.01) or a percent (\"1%\")",
+            "line 6: producer.quality must be a fraction such as 0.01 or a percent such as \"1%\", not a list",
         ),
         reported(
             "lot size as a fraction",
             &v("@lot-fraction.yaml"),
             2,
-            "lot_size: invalid type: floating point `12.5`, expected u64",
+            "line 5: lot_size must be a whole number such as 3000 (digits only, no thousands separator), not 12.5",
         ),
         reported(
             "lot size 10^19",
@@ -1130,7 +1130,7 @@ fn plan_sources_that_are_not_valid_yaml_sources_are_refused() {
             "lot size 10^20",
             &v("@lot-1e20.yaml"),
             2,
-            "lot_size: invalid type: integer `100000000000000000000` as u128, expected u64",
+            "line 5: lot_size must be a whole number from 0 to 18446744073709551615, not 100000000000000000000",
         ),
         reported(
             "lot size 0",
@@ -1148,25 +1148,25 @@ fn plan_sources_that_are_not_valid_yaml_sources_are_refused() {
             "quality .nan",
             &v("@quality-nan.yaml"),
             2,
-            "producer.quality: value = '.nan' is not a fraction",
+            "line 6: producer.quality = '.nan' is not a fraction",
         ),
         reported(
             "quality .inf",
             &v("@quality-inf.yaml"),
             2,
-            "consumer.quality: value = '.inf' is not a fraction",
+            "line 9: consumer.quality = '.inf' is not a fraction",
         ),
         reported(
             "quality 1e-400 (rounds to 0)",
             &v("@quality-tiny.yaml"),
             2,
-            "producer.quality: value = 1e-400 is out of range: it must be a number that double precision can hold",
+            "line 6: producer.quality = 1e-400 is out of range: it must be a number that double precision can hold",
         ),
         reported(
             "quality '1%%'",
             &v("@quality-percent-percent.yaml"),
             2,
-            "value = '1%%' is not a fraction",
+            "producer.quality = '1%%' is not a fraction",
         ),
         reported(
             "quality -0.0",
@@ -1214,7 +1214,7 @@ fn plan_sources_that_are_not_valid_yaml_sources_are_refused() {
             "a missing file",
             &v("@missing.yaml"),
             2,
-            "No such file or directory",
+            "@missing.yaml: does not exist; give a plan source (FILE.yaml) or a folder that holds some",
         ),
         reported(
             "a folder without sources",
@@ -1237,12 +1237,12 @@ fn plan_sources_that_are_not_valid_yaml_sources_are_refused() {
         refused(
             "design from a malformed source",
             &["design", "@malformed.yaml"],
-            "@malformed.yaml: mapping values are not allowed",
+            "@malformed.yaml: line 3: a 'key: value' here does not line up",
         ),
         refused(
             "sheet of a source with a duplicated key",
             &["sheet", "@duplicate-key.yaml", "--output", "@dup.pdf"],
-            "duplicate field `title`",
+            "line 3: title: is given twice, and a key may appear once; keep one",
         ),
     ];
     run("sources", &cases);
@@ -1280,17 +1280,17 @@ fn oversized_endless_and_explosive_sources_are_refused_within_a_second() {
         refused_fast(
             "billion laughs in a quality",
             &["design", "@bomb-quality.yaml"],
-            "producer.quality: invalid type: sequence, expected a fraction",
+            "line 6: producer.quality must be a fraction such as 0.01 or a percent such as \"1%\", not a list",
         ),
         refused_fast(
             "billion laughs over 20000 values in a quality",
             &["design", "@bomb-wide.yaml"],
-            "consumer.quality: invalid type: sequence, expected a fraction",
+            "line 9: consumer.quality must be a fraction such as 0.01 or a percent such as \"1%\", not a list",
         ),
         refused_fast(
             "billion laughs in the notes",
             &["evaluate", "@bomb-notes.yaml"],
-            "notes: invalid type: sequence, expected a string",
+            "line 3: notes must be text (in quotes if it would otherwise read as a number or a list), not a list",
         ),
         refused_fast(
             "brackets nested 100000 deep",
@@ -1428,7 +1428,7 @@ fn other_commands_refuse_bad_input() {
                 "6%,7%",
                 "--cost-per-unit",
                 "-1",
-                "--process-quality",
+                "--process-average",
                 "1%",
                 "--lot-size",
                 "100",
@@ -1436,7 +1436,7 @@ fn other_commands_refuse_bad_input() {
             "cost per unit inspected = -1 is out of range: it must be a positive number",
         ),
         refused(
-            "tradeoff: process quality 0",
+            "tradeoff: process average 0",
             &[
                 "tradeoff",
                 "--aql",
@@ -1445,12 +1445,12 @@ fn other_commands_refuse_bad_input() {
                 "6%,7%",
                 "--cost-per-unit",
                 "1",
-                "--process-quality",
+                "--process-average",
                 "0",
                 "--lot-size",
                 "100",
             ],
-            "process quality = 0 is out of range",
+            "process average = 0 is out of range",
         ),
         refused(
             "tradeoff: cost without a lot",
@@ -1462,7 +1462,7 @@ fn other_commands_refuse_bad_input() {
                 "6%,7%",
                 "--cost-per-unit",
                 "1",
-                "--process-quality",
+                "--process-average",
                 "1%",
             ],
             "the cost view needs a lot size",

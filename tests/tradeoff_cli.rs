@@ -93,13 +93,13 @@ fn the_cost_is_the_cost_per_unit_times_the_ati_that_evaluate_reports() {
         "2000",
         "--cost-per-unit",
         "2.5",
-        "--process-quality",
+        "--process-average",
         "1.2%",
         "--format",
         "json",
     ]);
     assert_eq!(grid["cost"]["per_unit"], 2.5);
-    assert_eq!(grid["cost"]["process_quality"], 0.012);
+    assert_eq!(grid["cost"]["process_average"], 0.012);
     for rql in [0.05, 0.08] {
         let c = cell(&grid, 0.01, rql);
         let (n, acc) = (c["n"].as_u64().unwrap(), c["c"].as_u64().unwrap());
@@ -221,7 +221,7 @@ fn bad_requests_exit_2_with_a_message_naming_the_problem() {
                 "6%",
                 "--cost-per-unit",
                 "2",
-                "--process-quality",
+                "--process-average",
                 "1%",
             ],
             "needs a lot size",
@@ -236,7 +236,7 @@ fn bad_requests_exit_2_with_a_message_naming_the_problem() {
                 "500",
                 "--cost-per-unit",
                 "-2",
-                "--process-quality",
+                "--process-average",
                 "1%",
             ],
             "cost per unit inspected = -2",

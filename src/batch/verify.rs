@@ -46,6 +46,15 @@ pub fn verify_file(path: &Path) -> VerifyEntry {
                 Some(format!("the recorded plan is not a valid plan: {why}")),
             ),
         },
+        // An input error is said of the file, so that the advice of one
+        // not solved yet names it.
+        Err(crate::Error::Input(e)) => {
+            let e = crate::SourceError::Invalid {
+                path: path.to_path_buf(),
+                source: e,
+            };
+            entry(VerifyStatus::Invalid, Vec::new(), Some(e.to_string()))
+        }
         Err(e) => entry(VerifyStatus::Invalid, Vec::new(), Some(e.to_string())),
     }
 }

@@ -26,7 +26,7 @@
 //!
 //! # Cost
 //!
-//! With a cost per unit inspected `k` and an expected process quality
+//! With a cost per unit inspected `k` and a process average
 //! `p̄`, the expected inspection cost per lot under rectifying inspection
 //! (rejected lots screened 100%) is `k ATI(p̄)`, with
 //! `ATI = Σ_j a_j n_j + (1 − Pa) N` (for a single plan
@@ -49,7 +49,7 @@ pub const MAX_GRID_CELLS: usize = 250_000;
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct InspectionCost {
     per_unit: f64,
-    process_quality: f64,
+    process_average: f64,
 }
 
 impl InspectionCost {
@@ -58,9 +58,9 @@ impl InspectionCost {
         self.per_unit
     }
 
-    /// The expected process quality `p̄` at which the cost is taken.
-    pub fn process_quality(&self) -> f64 {
-        self.process_quality
+    /// The process average `p̄` at which the cost is taken.
+    pub fn process_average(&self) -> f64 {
+        self.process_average
     }
 }
 
@@ -84,7 +84,7 @@ impl TradeoffRequest {
     /// `aql` are the producer's qualities (rows), `rql` the consumer's
     /// (columns); a cell whose AQL is not below its RQL is valid input and
     /// reports that it has no plan. `cost` is `(cost per unit inspected,
-    /// expected process quality)`.
+    /// process average)`.
     ///
     /// # Errors
     /// [`InputError`] for an empty axis, a quality the model cannot take,
@@ -139,7 +139,7 @@ impl TradeoffRequest {
         .check(scheme)?;
         let cost = match cost {
             None => None,
-            Some((per_unit, process_quality)) => {
+            Some((per_unit, process_average)) => {
                 if !(per_unit.is_finite() && per_unit > 0.0) {
                     return Err(InputError::out_of_range(
                         "cost per unit inspected",
@@ -147,7 +147,7 @@ impl TradeoffRequest {
                         "a positive number",
                     ));
                 }
-                check_quality(&model, "process quality", process_quality)?;
+                check_quality(&model, "process average", process_average)?;
                 if model.lot_size().is_none() {
                     return Err(InputError::Inconsistent(
                         "the cost view needs a lot size: it counts the 100% inspection of rejected lots (ATI); give --lot-size N".to_string(),
@@ -155,7 +155,7 @@ impl TradeoffRequest {
                 }
                 Some(InspectionCost {
                     per_unit,
-                    process_quality,
+                    process_average,
                 })
             }
         };
@@ -217,7 +217,7 @@ impl TradeoffRequest {
     }
 }
 
-/// The expected inspection at the process quality.
+/// The expected inspection at the process average.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct CellCost {
     /// `Pa(p̄)`.
@@ -358,7 +358,7 @@ fn solve_cell(
         None => measures(&plan, model, aql).asn,
     };
     let cost = request.cost.map(|k| {
-        let m = measures(&plan, model, k.process_quality);
+        let m = measures(&plan, model, k.process_average);
         // The request holds a lot size whenever it holds a cost.
         let ati = m.ati.unwrap_or(f64::NAN);
         CellCost {

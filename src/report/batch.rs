@@ -7,6 +7,7 @@ use std::fmt;
 use serde::Serialize;
 
 use super::{EvaluationReport, VariablesEvaluationReport, VerificationReport, VerifyStatus};
+use crate::plain::escape_controls;
 
 /// How one source of a batch ended, from best to worst; the worst of a run
 /// sets the exit status (0, 1, 2).
@@ -95,8 +96,9 @@ impl BatchSummary {
     }
 
     /// Counts one source. For a failure, `reason` is kept on one line, and
-    /// a leading `PATH: ` (the library's errors start with the path) is
-    /// dropped because the failure line names the path already.
+    /// a leading `PATH: ` or `PATH ` (the library's errors start with the
+    /// path: `x.yaml: line 3: ...`, `x.yaml does not exist`) is dropped
+    /// because the failure line names the path already.
     pub fn push(&mut self, path: &str, outcome: Outcome, reason: &str) {
         if outcome == Outcome::Ok {
             self.ok += 1;
@@ -104,7 +106,7 @@ impl BatchSummary {
         }
         let reason = reason
             .strip_prefix(path)
-            .and_then(|r| r.strip_prefix(": "))
+            .and_then(|r| r.strip_prefix(": ").or_else(|| r.strip_prefix(' ')))
             .unwrap_or(reason);
         self.failures.push(Failure {
             path: path.to_string(),
@@ -148,13 +150,15 @@ impl BatchSummary {
 
 impl fmt::Display for BatchSummary {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        // Paths and reasons quote file names and values: their control
+        // characters are shown escaped, never sent to the terminal raw.
         for failure in &self.failures {
             writeln!(
                 f,
                 "{:<9} {}: {}",
                 failure.outcome.name(),
-                failure.path,
-                failure.reason
+                escape_controls(&failure.path),
+                escape_controls(&failure.reason)
             )?;
         }
         writeln!(f, "{}", self.counts())

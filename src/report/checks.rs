@@ -133,7 +133,7 @@ impl TradeoffReport {
             for (name, v) in [
                 ("achieved producer's risk", c.producer_risk),
                 ("achieved consumer's risk", c.consumer_risk),
-                ("Pa at the process quality", c.pa_at_process.flatten()),
+                ("Pa at the process average", c.pa_at_process.flatten()),
             ] {
                 if let Some(v) = v {
                     let cell = format_args!("{name} of the cell AQL {}, RQL {}", c.aql, c.rql);

@@ -12,6 +12,7 @@ use super::table::{grid, plan_headline, write_stage_table};
 use super::{format_quality, format_significant, words};
 use crate::design::{Protection, RectifyingDesign, RectifyingPlan, RectifyingRow};
 use crate::model::{ModelKind, nonconforming_in_lot};
+use crate::plain::escape_controls;
 use crate::plan::{Aoql, Stage, StagedPlan};
 use crate::source::tool_version;
 
@@ -204,7 +205,7 @@ const ROWS: usize = 14;
 pub(super) fn write_table(out: &mut dyn Write, r: &RectifyingReport) -> io::Result<()> {
     let per_unit = r.model == ModelKind::Poisson;
     let q = |x: f64| format_quality(x, per_unit);
-    writeln!(out, "{}", r.title)?;
+    writeln!(out, "{}", escape_controls(&r.title))?;
     writeln!(
         out,
         "minimum-inspection {} plan (Dodge and Romig's method), {} model, lot of {} units",

@@ -14,6 +14,7 @@ use super::{
 };
 use crate::design::{Input, Moved};
 use crate::model::ModelKind;
+use crate::plain::escape_controls;
 use crate::plan::{Stage, StagedPlan};
 
 /// Aligned text tables for a terminal.
@@ -135,7 +136,7 @@ fn optional(v: Option<u64>, prefix: &str) -> String {
 impl ReportFormat for Table {
     fn design(&self, out: &mut dyn Write, r: &DesignReport) -> io::Result<()> {
         let per_unit = r.model == ModelKind::Poisson;
-        writeln!(out, "{}", r.title)?;
+        writeln!(out, "{}", escape_controls(&r.title))?;
         let lot = r
             .lot_size
             .map_or("no lot size".to_string(), |n| format!("lot of {n} units"));
@@ -317,7 +318,11 @@ impl ReportFormat for Table {
                     .collect::<Vec<_>>()
                     .join("; ")
             };
-            g.add_row(vec![e.path.clone(), e.status.name().to_string(), details]);
+            g.add_row(vec![
+                escape_controls(&e.path).into_owned(),
+                e.status.name().to_string(),
+                escape_controls(&details).into_owned(),
+            ]);
         }
         writeln!(out, "{g}")?;
         writeln!(out, "{}", summary.counts())
@@ -325,13 +330,17 @@ impl ReportFormat for Table {
 
     fn evaluations(&self, out: &mut dyn Write, r: &EvaluationBatchReport) -> io::Result<()> {
         for e in &r.results {
-            writeln!(out, "Source {}", e.path)?;
+            writeln!(out, "Source {}", escape_controls(&e.path))?;
             match (&e.evaluation, &e.message) {
                 (Some(SourceEvaluation::Attributes(report)), _) => self.evaluation(out, report)?,
                 (Some(SourceEvaluation::Variables(report)), _) => {
                     self.variables_evaluation(out, report)?
                 }
-                (None, message) => writeln!(out, "invalid: {}", message.as_deref().unwrap_or(""))?,
+                (None, message) => writeln!(
+                    out,
+                    "invalid: {}",
+                    escape_controls(message.as_deref().unwrap_or(""))
+                )?,
             }
             writeln!(out)?;
         }
@@ -339,7 +348,7 @@ impl ReportFormat for Table {
     }
 
     fn variables_design(&self, out: &mut dyn Write, r: &VariablesDesignReport) -> io::Result<()> {
-        writeln!(out, "{}", r.title)?;
+        writeln!(out, "{}", escape_controls(&r.title))?;
         writeln!(out, "{}", specification_line(&r.variables))?;
         writeln!(out)?;
         writeln!(out, "  PLAN  {}", r.plan)?;
@@ -435,7 +444,7 @@ impl ReportFormat for Table {
     fn tradeoff(&self, out: &mut dyn Write, r: &TradeoffReport) -> io::Result<()> {
         let per_unit = r.model == ModelKind::Poisson;
         if let Some(title) = &r.title {
-            writeln!(out, "{title}")?;
+            writeln!(out, "{}", escape_controls(title))?;
         }
         let lot = r
             .lot_size
@@ -470,8 +479,8 @@ impl ReportFormat for Table {
             writeln!(out)?;
             writeln!(
                 out,
-                "Expected inspection cost per lot at process quality {} ({} per unit inspected; ATI: sample, plus the whole lot when rejected)",
-                format_quality(k.process_quality, per_unit),
+                "Expected inspection cost per lot at the process average {} ({} per unit inspected; ATI: sample, plus the whole lot when rejected)",
+                format_quality(k.process_average, per_unit),
                 k.per_unit
             )?;
             write_matrix(out, r, per_unit, |c| {

@@ -12,8 +12,8 @@ use crate::source::tool_version;
 pub struct CostReport {
     /// Cost of inspecting one unit.
     pub per_unit: f64,
-    /// The expected process quality at which ATI is taken.
-    pub process_quality: f64,
+    /// The process average at which ATI is taken.
+    pub process_average: f64,
 }
 
 /// One cell of the grid.
@@ -38,10 +38,10 @@ pub struct TradeoffCellReport {
     pub producer_risk: Option<f64>,
     /// Achieved consumer's risk at the RQL.
     pub consumer_risk: Option<f64>,
-    /// With a cost: probability of acceptance at the process quality.
+    /// With a cost: probability of acceptance at the process average.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub pa_at_process: Option<Option<f64>>,
-    /// With a cost: average total inspection per lot at the process quality.
+    /// With a cost: average total inspection per lot at the process average.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub ati: Option<Option<f64>>,
     /// With a cost: cost per unit times `ati`.
@@ -122,7 +122,7 @@ impl TradeoffReport {
             rql: r.rql().to_vec(),
             cost: r.cost().map(|k| CostReport {
                 per_unit: k.per_unit(),
-                process_quality: k.process_quality(),
+                process_average: k.process_average(),
             }),
             cells,
             solved_by: tool_version(),

@@ -256,7 +256,7 @@ fn layout(
     }
     let fields: Vec<Field> = quantities.iter().map(|&q| Field::new(grid, q)).collect();
     let process = request.cost().map_or_else(String::new, |k| {
-        text::quality(k.process_quality(), per_unit)
+        text::quality(k.process_average(), per_unit)
     });
 
     let top = ph - MARGIN;
@@ -323,7 +323,7 @@ fn title_block(
         fields.push((text::COST_PER_UNIT, text::number(k.per_unit())));
         fields.push((
             text::PROCESS_QUALITY,
-            text::quality(k.process_quality(), per_unit),
+            text::quality(k.process_average(), per_unit),
         ));
     }
     let rows = fields.len().div_ceil(2);

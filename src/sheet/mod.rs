@@ -19,6 +19,7 @@
 mod canvas;
 mod chart;
 mod heatmap;
+mod names;
 mod text;
 mod variables;
 mod variables_text;
@@ -215,7 +216,8 @@ fn curve_points(f: &Facts) -> Result<(f64, Vec<CurvePoint>), NumericalError> {
 }
 
 /// Renders the sheet of `source` (parsed from `text`, which is hashed);
-/// `file_name` is printed in the provenance line.
+/// `file_name` is printed in the provenance line, as one shell word in
+/// which a character the sheet font lacks stands as the wildcard `?`.
 ///
 /// This prints the plan the source records as it is, and the risks that
 /// plan achieves (computed from it). It does not re-solve the source:
@@ -251,22 +253,22 @@ pub fn render_sheet_noting(
     paper: Paper,
     discrepancy: &Discrepancy,
 ) -> Result<Sheet, Error> {
-    let found = discrepancy.brief(NOTICE_FIELDS);
-    let mut chars = found.chars();
-    let first = chars.next().map(|ch| ch.to_uppercase().to_string());
-    let notice = format!("{}{}.", first.unwrap_or_default(), chars.as_str());
-    render(text, source, file_name, paper, Some(notice))
+    render(text, source, file_name, paper, Some(discrepancy))
 }
 
-/// The sheet of `source`, with the `notice` of an unconfirmed plan if any.
+/// The sheet of `source`, with the notice of an unconfirmed plan's
+/// `discrepancy` if any.
 fn render(
     text: &str,
     source: &PlanSource,
     file_name: &str,
     paper: Paper,
-    notice: Option<String>,
+    discrepancy: Option<&Discrepancy>,
 ) -> Result<Sheet, Error> {
     let (regular, bold) = embedded_fonts()?;
+    let shown = names::printed_name(file_name, &regular);
+    let file_name = shown.as_str();
+    let notice = discrepancy.map(|d| names::notice_of(d, file_name, NOTICE_FIELDS));
     let (pw, ph) = paper.size();
     let mut c = Canvas::new(&regular, &bold);
     let margin = 14.0;

@@ -31,8 +31,7 @@ pub struct Audit {
 /// the two lists is not empty.
 ///
 /// Displayed, it is one line: `recorded plan differs from a re-solve:
-/// plan.stages[0].n: recorded 150, re-solved 166; ...`, then each unmet
-/// point.
+/// stage 1 n: recorded 150, re-solved 166; ...`, then each unmet point.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Discrepancy {
     /// The fields that differ, as [`verify`] names them.
@@ -73,7 +72,8 @@ impl fmt::Display for UnmetPoint {
 impl Discrepancy {
     /// The discrepancy in one line, with at most `fields` of the differing
     /// fields and the number of the others (a sheet has room for a few;
-    /// `verify` lists them all).
+    /// `verify` lists them all, and the line says how to run it on
+    /// `source`, a file name as the shell takes it).
     ///
     /// ```
     /// use lotsman::{Difference, Discrepancy};
@@ -87,12 +87,12 @@ impl Discrepancy {
     ///     unmet: Vec::new(),
     /// };
     /// assert_eq!(
-    ///     d.brief(1),
-    ///     "recorded plan differs from a re-solve: plan.sequential.slope: recorded 1, re-solved 2; and 1 more field (lotsman verify lists every one)"
+    ///     d.brief(1, "sleeve.yaml"),
+    ///     "recorded plan differs from a re-solve: plan.sequential.slope: recorded 1, re-solved 2; and 1 more field (lotsman verify sleeve.yaml lists every one)"
     /// );
-    /// assert_eq!(d.brief(2), d.to_string());
+    /// assert_eq!(d.brief(2, "sleeve.yaml"), d.to_string());
     /// ```
-    pub fn brief(&self, fields: usize) -> String {
+    pub fn brief(&self, fields: usize, source: &str) -> String {
         let mut parts = Vec::new();
         if !self.differences.is_empty() {
             let mut shown: Vec<String> = self
@@ -103,9 +103,11 @@ impl Discrepancy {
                 .collect();
             match self.differences.len().saturating_sub(fields) {
                 0 => {}
-                1 => shown.push("and 1 more field (lotsman verify lists every one)".into()),
+                1 => shown.push(format!(
+                    "and 1 more field (lotsman verify {source} lists every one)"
+                )),
                 more => shown.push(format!(
-                    "and {more} more fields (lotsman verify lists every one)"
+                    "and {more} more fields (lotsman verify {source} lists every one)"
                 )),
             }
             parts.push(format!(
@@ -121,7 +123,7 @@ impl Discrepancy {
 impl fmt::Display for Discrepancy {
     /// Every differing field, then every unmet point.
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(f, "{}", self.brief(usize::MAX))
+        write!(f, "{}", self.brief(usize::MAX, ""))
     }
 }
 
@@ -140,7 +142,7 @@ impl fmt::Display for Discrepancy {
 /// assert_eq!(audit(&source, path).unwrap().discrepancy, None);
 /// source.plan.as_mut().unwrap().stages[0].n = 120;
 /// let found = audit(&source, path).unwrap().discrepancy.unwrap();
-/// assert_eq!(found.differences[0].field, "plan.stages[0].n");
+/// assert_eq!(found.differences[0].field, "stage 1 n");
 /// assert_eq!(found.unmet[0].party, "consumer's");
 /// ```
 ///

@@ -6,6 +6,7 @@ mod audit;
 mod keys;
 mod schema;
 mod verify;
+mod yaml_words;
 
 use std::path::Path;
 
@@ -35,7 +36,7 @@ pub const MAX_SOURCE_BYTES: u64 = 1 << 20;
 pub const MAX_BRACKET_DEPTH: usize = 64;
 
 /// The first line of every source the tool writes.
-const HEADER: &str = "# lotsman plan source. Edit the inputs, then re-solve with: lotsman design THIS-FILE --output THIS-FILE.new\n";
+const HEADER: &str = "# lotsman plan source. Edit the inputs, then re-solve with: lotsman design THIS-FILE --in-place\n";
 
 /// The tool and version recorded as `solved_by`.
 pub fn tool_version() -> String {
@@ -47,10 +48,10 @@ impl PlanSource {
     /// some Windows editors write, is skipped.
     ///
     /// # Errors
-    /// [`SourceError::Parse`] with serde_yaml's message (field, line and
-    /// column; for a duplicated field, the line where it is given again)
-    /// for malformed YAML, unknown or duplicated fields and wrong
-    /// types, and for brackets nested deeper than [`MAX_BRACKET_DEPTH`];
+    /// [`SourceError::Parse`], in plain words with the line (for a
+    /// duplicated key, the line where it is given again), for malformed
+    /// YAML, unknown, missing or duplicated keys and wrong types, and for
+    /// brackets nested deeper than [`MAX_BRACKET_DEPTH`];
     /// [`SourceError::Invalid`] for a schema version other than
     /// [`SCHEMA_VERSION`] or invalid values (see [`PlanSource::request`]).
     pub fn from_yaml(text: &str, path: &Path) -> Result<Self, SourceError> {
@@ -67,7 +68,7 @@ impl PlanSource {
         }
         check_brackets(text).map_err(parse)?;
         let source: PlanSource = serde_yaml::from_str(text)
-            .map_err(|e| parse(with_repeated_line(e.to_string(), text)))?;
+            .map_err(|e| parse(yaml_words::plain_yaml_error(&e, text, path)))?;
         if source.schema != SCHEMA_VERSION {
             return Err(SourceError::Invalid {
                 path: path.to_path_buf(),
@@ -267,16 +268,14 @@ impl PlanSource {
     /// [`InputError::Inconsistent`] when the source records no plan, or
     /// [`InputError`] when the recorded stages are not a valid plan.
     pub fn recorded_plan(&self, model: &Model) -> Result<StagedPlan, InputError> {
-        let recorded = self.plan.as_ref().ok_or_else(|| {
-            InputError::Inconsistent(format!(
-                "the source '{}' records no plan yet; solve it first with: lotsman design FILE --output FILE",
-                self.title
-            ))
-        })?;
+        let recorded = self.plan.as_ref().ok_or_else(not_solved)?;
         if recorded.variables.is_some() {
-            return Err(InputError::Inconsistent(
-                "the recorded plan is a variables plan (n and k or m), not stages".to_string(),
-            ));
+            return Err(InputError::NotSolved {
+                why: format!(
+                    "the recorded plan is a variables plan (n and k or m), and this {} plan records stages",
+                    self.scheme
+                ),
+            });
         }
         match (&recorded.sequential, recorded.stages.is_empty()) {
             (Some(lines), true) => StagedPlan::sequential(*lines, model),
@@ -320,15 +319,13 @@ impl PlanSource {
         &self,
         spec: &Specification,
     ) -> Result<VariablesPlan, InputError> {
-        let recorded = self
-            .plan
-            .as_ref()
-            .and_then(|p| p.variables.filter(|_| p.stages.is_empty() && p.sequential.is_none()))
-            .ok_or_else(|| {
-                InputError::Inconsistent(format!(
-                    "the source '{}' records no variables plan (plan: variables: n, k or m) yet; solve it first with: lotsman design FILE --output FILE",
-                    self.title
-                ))
+        let plan = self.plan.as_ref().ok_or_else(not_solved)?;
+        let recorded = plan
+            .variables
+            .filter(|_| plan.stages.is_empty() && plan.sequential.is_none())
+            .ok_or_else(|| InputError::NotSolved {
+                why: "the recorded plan is not a variables plan (plan: variables: with n, and k or m)"
+                    .to_string(),
             })?;
         let two = spec.limit() == crate::plan::LimitKind::Both;
         let constant = match (recorded.k, recorded.m, two) {
@@ -451,6 +448,13 @@ impl PlanSource {
     }
 }
 
+/// The refusal of a source that records no plan: it has not been solved.
+pub(crate) fn not_solved() -> InputError {
+    InputError::NotSolved {
+        why: "not solved yet: the source records no plan".to_string(),
+    }
+}
+
 /// Checks that brackets nest at most [`MAX_BRACKET_DEPTH`] deep, counting
 /// every `[`, `{`, `]` and `}` of the text.
 fn check_brackets(text: &str) -> Result<(), String> {
@@ -471,28 +475,6 @@ fn check_brackets(text: &str) -> Result<(), String> {
         }
     }
     Ok(())
-}
-
-/// serde_yaml's `message`, with the line where a duplicated field is given
-/// again when it names one (serde_yaml gives none at the top level, and the
-/// start of the mapping below it).
-fn with_repeated_line(message: String, text: &str) -> String {
-    let key = message
-        .split_once("duplicate field `")
-        .and_then(|(_, rest)| rest.split_once('`'))
-        .map(|(key, _)| key);
-    let line = key.and_then(|key| {
-        keys::repeated_keys(text)
-            .into_iter()
-            .find(|&(_, k)| k == key)
-            .map(|(line, _)| line)
-    });
-    match (key, line) {
-        (Some(key), Some(line)) => {
-            format!("{message}; `{key}` is given again at line {line}, and a key may appear once")
-        }
-        _ => message,
-    }
 }
 
 /// Checks a `YYYY-MM-DD` date of the Gregorian calendar.

@@ -17,7 +17,8 @@ pub const RISK_TOLERANCE: f64 = 1e-9;
 /// One field whose recorded value differs from the re-solved one.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct Difference {
-    /// The field, e.g. `plan.stages[0].n`.
+    /// The field, e.g. `stage 1 n` (stages counted from 1) or
+    /// `plan.producer_risk`.
     pub field: String,
     /// As recorded in the source.
     pub recorded: String,
@@ -48,20 +49,18 @@ pub enum Verdict {
 /// Re-solves `source` and compares the result with its recorded plan.
 ///
 /// # Errors
-/// [`Error`] when the source's inputs are invalid or its risk points have
-/// no plan (the source is then invalid, not a mismatch).
+/// [`Error`] when the source's inputs are invalid, it records no plan
+/// ([`InputError::NotSolved`](crate::InputError::NotSolved)), or its risk
+/// points have no plan (the source is then invalid, not a mismatch).
 pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
     if source.is_variables() {
         return verify_variables(source);
     }
-    let design = design_for(&source.request()?)?;
-    let Some(recorded) = &source.plan else {
-        return Ok(Verdict::Mismatch(vec![Difference {
-            field: "plan".into(),
-            recorded: "(none)".into(),
-            resolved: design.plan.to_string(),
-        }]));
-    };
+    let request = source.request()?;
+    // A source that records no plan is not solved yet: invalid, not a
+    // mismatch, and refused before the work of a re-solve.
+    let recorded = source.plan.as_ref().ok_or_else(super::not_solved)?;
+    let design = design_for(&request)?;
     let mut diffs = Vec::new();
     match (&recorded.sequential, design.plan.sequential_lines()) {
         (Some(r), Some(s)) => compare_lines(r, s, &mut diffs),
@@ -95,6 +94,7 @@ pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
 /// [`RISK_TOLERANCE`].
 fn verify_variables(source: &PlanSource) -> Result<Verdict, Error> {
     let request = source.variables_request()?;
+    let recorded = source.plan.as_ref().ok_or_else(super::not_solved)?;
     let design = design_variables(request.spec(), request.risks())?;
     let plan = &design.plan;
     let resolved = RecordedVariables {
@@ -102,11 +102,7 @@ fn verify_variables(source: &PlanSource) -> Result<Verdict, Error> {
         k: plan.k(),
         m: plan.m(),
     };
-    let Some((recorded, numbers)) = source
-        .plan
-        .as_ref()
-        .and_then(|p| p.variables.map(|v| (p, v)))
-    else {
+    let Some(numbers) = recorded.variables else {
         return Ok(Verdict::Mismatch(vec![Difference {
             field: "plan.variables".into(),
             recorded: "(none)".into(),
@@ -161,10 +157,17 @@ fn compare_risks(recorded: &RecordedPlan, resolved: (f64, f64), diffs: &mut Vec<
     }
 }
 
+/// The name of the field `key` of the recorded plan's stage `index`
+/// (counted from 0 in the file's list, from 1 in every message, table and
+/// report): `stage 1 n`, `stage 2 accept`.
+pub(crate) fn stage_field(index: usize, key: &str) -> String {
+    format!("stage {} {key}", index + 1)
+}
+
 fn compare_stages(recorded: &[Stage], resolved: &[Stage], diffs: &mut Vec<Difference>) {
     if recorded.len() != resolved.len() {
         diffs.push(Difference {
-            field: "plan.stages".into(),
+            field: "number of stages".into(),
             recorded: format!("{} stages", recorded.len()),
             resolved: format!("{} stages", resolved.len()),
         });
@@ -178,7 +181,7 @@ fn compare_stages(recorded: &[Stage], resolved: &[Stage], diffs: &mut Vec<Differ
         ] {
             if a != b {
                 diffs.push(Difference {
-                    field: format!("plan.stages[{i}].{name}"),
+                    field: stage_field(i, name),
                     recorded: a,
                     resolved: b,
                 });

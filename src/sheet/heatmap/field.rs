@@ -14,7 +14,7 @@ pub enum MapQuantity {
     SampleSize,
     /// The average sample number at the AQL of a double plan.
     AsnAtAql,
-    /// The expected inspection cost per lot at the process quality
+    /// The expected inspection cost per lot at the process average
     /// (cost per unit times ATI).
     CostPerLot,
 }
