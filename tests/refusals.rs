@@ -982,7 +982,7 @@ fn judge_refuses_counts_and_measurements_it_cannot_use() {
         refused(
             "semicolons and decimal commas",
             &m("@semicolons.csv"),
-            "row 2 of the measurements has 2 cells ('1;5,834')",
+            "this file separates its values with ';' (row 1: 'plate;thickness_mm')",
         ),
         refused(
             "NaN",

@@ -81,30 +81,45 @@ pub fn mean_and_sd(values: &[f64]) -> (f64, f64) {
     (mean, (ss / (n - 1.0)).sqrt())
 }
 
-/// Reads measurements from CSV text: one value per row, or, with
-/// `column`, the named column of a file whose first row is a header.
-/// What spreadsheets write is accepted: a byte-order mark, and Windows
-/// (`\r\n`) and old Macintosh (`\r`) line ends; empty lines at the end are
-/// ignored. Without `column`, a first row that is not a number is taken as
-/// the header of a one-column file.
+/// Reads measurements from CSV text (with the csv crate): one value per
+/// row, or, with `column`, the named column of a file whose first row is
+/// a header. What spreadsheets write is accepted: a byte-order mark,
+/// Windows (`\r\n`) and old Macintosh (`\r`) line ends, quoted cells,
+/// blank lines before the first row and after the last. Without `column`,
+/// a first row that is not a number is taken as the header of a
+/// one-column file.
+///
+/// A file that would be misread is refused, never decided on: rows are
+/// named by their line in the file, counted from 1.
+///
+/// ```
+/// use lotsman::parse_measurements;
+/// assert_eq!(parse_measurements("bore\n12.01\n12.03\n", None), Ok(vec![12.01, 12.03]));
+/// let e = parse_measurements("plate,bore\n1,12.01\n2,12,03\n", Some("bore")).unwrap_err();
+/// assert!(e.to_string().starts_with("row 3 of the measurements has 3 cells"));
+/// ```
 ///
 /// # Errors
 /// [`InputError`] naming the row (and column) of a blank or non-numeric
-/// cell, a row with more cells than the header, a missing column, a file
-/// of several columns without `column`, or commas used as decimal marks.
+/// cell; a row with more cells than the header (decimal commas read as
+/// separators); a file that separates its values with semicolons or tabs;
+/// a missing column; a file of several columns without `column`; or
+/// commas used as decimal marks.
 pub fn parse_measurements(text: &str, column: Option<&str>) -> Result<Vec<f64>, InputError> {
-    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
-    let text = text.replace("\r\n", "\n").replace('\r', "\n");
-    let mut rows: Vec<(usize, Vec<&str>)> = text
-        .lines()
-        .enumerate()
-        .map(|(i, l)| (i + 1, l.split(',').map(str::trim).collect()))
-        .collect();
-    while rows
-        .last()
-        .is_some_and(|(_, cells)| cells.iter().all(|c| c.is_empty()))
+    let rows = csv_rows(text)?;
+    if let Some((line, cells)) = rows
+        .iter()
+        .find(|(_, cells)| cells.iter().any(|c| c.contains([';', '\t'])))
     {
-        rows.pop();
+        let separator = if cells.iter().any(|c| c.contains(';')) {
+            "';'"
+        } else {
+            "tabs"
+        };
+        return Err(InputError::Inconsistent(format!(
+            "this file separates its values with {separator} (row {line}: '{}'), and a measurements file is comma-separated with decimal points; save it from the spreadsheet as CSV with commas and decimal points, or give one value per row",
+            cells.join(",")
+        )));
     }
     let Some((_, first)) = rows.first() else {
         return Err(InputError::Inconsistent(
@@ -112,15 +127,15 @@ pub fn parse_measurements(text: &str, column: Option<&str>) -> Result<Vec<f64>, 
         ));
     };
     let is_number = |c: &str| c.parse::<f64>().is_ok();
-    let (index, skip) = match column {
+    let (index, skip, width) = match column {
         Some(name) => {
-            let index = first.iter().position(|h| *h == name).ok_or_else(|| {
+            let index = first.iter().position(|h| h == name).ok_or_else(|| {
                 InputError::Inconsistent(format!(
                     "the measurements file has no column '{name}'; its header row is: {}",
                     first.join(", ")
                 ))
             })?;
-            (index, 1)
+            (index, 1, first.len())
         }
         None => {
             if first.len() > 1 {
@@ -133,23 +148,30 @@ pub fn parse_measurements(text: &str, column: Option<&str>) -> Result<Vec<f64>, 
                     ""
                 };
                 return Err(InputError::Inconsistent(format!(
-                    "row 1 of the measurements has {} cells; give one value per row, or name the column with --column{hint}",
+                    "row {} of the measurements has {} cells; give one value per row, or name the column with --column{hint}",
+                    rows[0].0,
                     first.len()
                 )));
             }
-            (0, usize::from(!is_number(first[0])))
+            (0, usize::from(!is_number(&first[0])), 1)
         }
     };
     let mut values = Vec::new();
     for (line, cells) in rows.iter().skip(skip) {
-        if column.is_none() && cells.len() > 1 {
-            return Err(InputError::Inconsistent(format!(
-                "row {line} of the measurements has {} cells ('{}'); give one value per row (if commas are decimal marks, write the decimals with points)",
-                cells.len(),
-                cells.join(",")
-            )));
+        if cells.len() > width {
+            let shown = cells.join(",");
+            return Err(InputError::Inconsistent(match column {
+                None => format!(
+                    "row {line} of the measurements has {} cells ('{shown}'); give one value per row (if commas are decimal marks, write the decimals with points)",
+                    cells.len()
+                ),
+                Some(_) => format!(
+                    "row {line} of the measurements has {} cells and the header row {width} ('{shown}'): a comma inside a value (a decimal comma, as in 9,950) splits it in two; save the file with decimal points (9.950), or put each such value in quotes",
+                    cells.len()
+                ),
+            }));
         }
-        let cell = cells.get(index).copied().unwrap_or("");
+        let cell = cells.get(index).map_or("", String::as_str);
         if cell.is_empty() {
             return Err(InputError::Inconsistent(format!(
                 "row {line} of the measurements is blank; every unit of the sample needs its reading"
@@ -167,6 +189,65 @@ pub fn parse_measurements(text: &str, column: Option<&str>) -> Result<Vec<f64>, 
         }
     }
     Ok(values)
+}
+
+/// The rows of a CSV text as (line in the file, trimmed cells), read by
+/// the csv crate; a blank line between rows is refused with its line.
+///
+/// The line ends are made `\n` first, and blank lines are looked for
+/// before the csv crate reads the text: it reads `\r` alone as a line end
+/// but counts lines by `\n`, and it skips empty lines, counting them into
+/// the next row's line, so that a blank line between two readings (a
+/// reading missing from the sample) would pass unseen and shift the line
+/// of every row after it.
+fn csv_rows(text: &str) -> Result<Vec<(u64, Vec<String>)>, InputError> {
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+    let text = text.replace("\r\n", "\n").replace('\r', "\n");
+    let lines: Vec<&str> = text.split('\n').collect();
+    let blank = |l: &str| l.trim().is_empty();
+    let leading = lines.iter().take_while(|l| blank(l)).count();
+    let last = lines.iter().rposition(|l| !blank(l)).unwrap_or(0);
+    if let Some(gap) = (leading..last).find(|&i| blank(lines[i])) {
+        return Err(InputError::Inconsistent(format!(
+            "row {} of the measurements is blank; every unit of the sample needs its reading",
+            gap + 1
+        )));
+    }
+    let mut reader = csv::ReaderBuilder::new()
+        .has_headers(false)
+        .flexible(true)
+        .trim(csv::Trim::All)
+        .from_reader(text.as_bytes());
+    let mut rows: Vec<(u64, Vec<String>)> = Vec::new();
+    let mut record = csv::StringRecord::new();
+    loop {
+        let more = reader.read_record(&mut record).map_err(|e| {
+            let line = e.position().map_or(0, |p| p.line());
+            InputError::Inconsistent(format!(
+                "row {line} of the measurements cannot be read as comma-separated values; save the file again as CSV"
+            ))
+        })?;
+        if !more {
+            break;
+        }
+        // The csv crate gives a row the line where its reading started,
+        // which for the first row is before the blank lines it skipped.
+        let line = if rows.is_empty() {
+            leading as u64 + 1
+        } else {
+            record.position().map_or(0, |p| p.line())
+        };
+        rows.push((line, record.iter().map(str::to_string).collect()));
+    }
+    // Rows of nothing but empty cells at the end (",," from a spreadsheet)
+    // are no readings.
+    while rows
+        .last()
+        .is_some_and(|(_, cells)| cells.iter().all(|c| c.is_empty()))
+    {
+        rows.pop();
+    }
+    Ok(rows)
 }
 
 /// The statistics of one side of the specification.
@@ -389,5 +470,48 @@ mod tests {
         assert_eq!(mac, Ok(vec![12.01, 12.03]));
         let blank = parse_measurements("12.01\r\r12.03\r", None).unwrap_err();
         assert!(blank.to_string().contains("row 2"), "{blank}");
+        let quoted = parse_measurements("plate,bore\n1,\"12.01\"\n2,12.02\n", Some("bore"));
+        assert_eq!(quoted, Ok(vec![12.01, 12.02]));
+        let trailing = parse_measurements("12.01\n12.02\n\n\n", None);
+        assert_eq!(trailing, Ok(vec![12.01, 12.02]));
+        let late = parse_measurements("\n\nbore\n12.01\nx\n", None).unwrap_err();
+        assert!(late.to_string().contains("row 5 = 'x'"), "{late}");
+    }
+
+    /// A decimal comma under a named column splits a reading in two: the
+    /// row is refused, never read as its first part.
+    #[test]
+    fn decimal_commas_under_a_column_are_refused_with_their_row() {
+        let e = parse_measurements("plate,bore\n1,9.95\n2,9,950\n", Some("bore")).unwrap_err();
+        let e = e.to_string();
+        assert!(
+            e.starts_with("row 3 of the measurements has 3 cells and the header row 2 ('2,9,950')"),
+            "{e}"
+        );
+        assert!(e.contains("save the file with decimal points"), "{e}");
+        let quoted = parse_measurements("plate,bore\n1,\"9,950\"\n", Some("bore")).unwrap_err();
+        assert!(
+            quoted
+                .to_string()
+                .contains("is not a number written with a decimal point")
+        );
+    }
+
+    #[test]
+    fn semicolons_and_tabs_are_named_as_the_separator() {
+        for (text, sep) in [
+            ("plate;bore\n1;9,95\n", "';'"),
+            ("plate\tbore\n1\t9.95\n", "tabs"),
+        ] {
+            for column in [None, Some("bore")] {
+                let e = parse_measurements(text, column).unwrap_err().to_string();
+                assert!(
+                    e.starts_with(&format!(
+                        "this file separates its values with {sep} (row 1:"
+                    )),
+                    "{e}"
+                );
+            }
+        }
     }
 }
