@@ -97,8 +97,8 @@ pub use plan::{
     statistic_for_fraction, variables_point, variables_qualities,
 };
 pub use quantity::{
-    MAX_RANGE_POINTS, QualityRange, parse_count, parse_fraction, parse_fraction_list, parse_number,
-    parse_stage,
+    BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, QualityRange, bare_fraction_note, parse_count,
+    parse_fraction, parse_fraction_list, parse_number, parse_stage,
 };
 pub use read::read_limited;
 pub use report::{

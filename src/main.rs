@@ -16,6 +16,7 @@
 
 mod cli;
 mod progress;
+mod quality_flags;
 
 use std::io::Write;
 use std::path::Path;
@@ -30,19 +31,19 @@ use lotsman::{
     BatchSummary, Criterion, Csv, Decision, DesignReport, DesignRequest, Discrepancy, Error,
     EvaluationBatchReport, EvaluationEntry, EvaluationReport, InputError, Json, LimitKind,
     MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Overwrite, Paper, PlanSource,
-    Protection, QualityRange, RectifyingReport, RectifyingRequest, ReportFormat, RiskPair,
-    RiskPoint, Scheme, SchemeOptions, SheetOptions, SigmaKind, SourceError, SourceEvaluation,
-    SourceFile, Specification, StagedPlan, Steps, Table, TradeoffReport, TradeoffRequest,
+    Protection, RectifyingReport, RectifyingRequest, ReportFormat, RiskPair, RiskPoint, Scheme,
+    SchemeOptions, SheetOptions, SigmaKind, SourceError, SourceEvaluation, SourceFile,
+    Specification, StagedPlan, Steps, Table, TradeoffReport, TradeoffRequest,
     VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry, VerifyStatus,
     default_qualities, design_rectifying, evaluate, evaluate_source, expand_paths, judge,
-    judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_fraction_list,
-    parse_measurements, parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo,
-    run_in_parallel, sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve,
-    solve_variables, source_hash, template, template_kinds, tradeoff, verify_file, write_atomic,
-    write_sheet,
+    judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_measurements,
+    parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo, run_in_parallel,
+    sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve, solve_variables,
+    source_hash, template, template_kinds, tradeoff, verify_file, write_atomic, write_sheet,
 };
 use lotsman::{escape_controls, shell_path, shell_word};
 use progress::Progress;
+use quality_flags::Qualities;
 
 fn main() -> ExitCode {
     let cli = match Cli::try_parse() {
@@ -332,17 +333,9 @@ fn scheme_of(arg: SingleOrDoubleArg) -> Scheme {
     }
 }
 
-/// The qualities of one grid axis: `LO:HI:COUNT` or a list `p,p,..`.
-fn axis_from(flag: &str, text: &str) -> Result<Vec<f64>, InputError> {
-    if text.contains(':') {
-        Ok(QualityRange::parse(flag, text)?.points())
-    } else {
-        parse_fraction_list(flag, text)
-    }
-}
-
 fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
     let model = model_from(&args.model)?;
+    let qualities = Qualities::of(model.kind());
     let scheme = scheme_of(args.scheme);
     if args.criterion.is_some() && scheme != Scheme::Double {
         return Err(InputError::Inconsistent(
@@ -353,13 +346,13 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
     let cost = match (&args.cost_per_unit, &args.process_average) {
         (Some(k), Some(p)) => Some((
             parse_number("--cost-per-unit", k)?,
-            parse_fraction("--process-average", p)?,
+            qualities.one("--process-average", p)?,
         )),
         _ => None,
     };
     let request = TradeoffRequest::new(
-        axis_from("--aql", &args.aql)?,
-        axis_from("--rql", &args.rql)?,
+        qualities.axis("--aql", &args.aql)?,
+        qualities.axis("--rql", &args.rql)?,
         parse_fraction("--alpha", &args.alpha)?,
         parse_fraction("--beta", &args.beta)?,
         model,
@@ -539,13 +532,14 @@ fn design_variables_cmd(
 
 /// The risk points of `--aql`, `--alpha`, `--rql`, `--beta` for `model`.
 fn risks_from(args: &cli::DesignArgs, model: &Model) -> Result<RiskPair, InputError> {
+    let qualities = Qualities::of(model.kind());
     let point = |q: &Option<String>,
                  q_name: &str,
                  r: &str,
                  r_name: &str|
      -> Result<RiskPoint, InputError> {
         Ok(RiskPoint {
-            quality: parse_fraction(q_name, q.as_deref().unwrap_or(""))?,
+            quality: qualities.one(q_name, q.as_deref().unwrap_or(""))?,
             risk: parse_fraction(r_name, r)?,
         })
     };
@@ -668,23 +662,38 @@ fn same_file(a: &Path, b: &Path) -> bool {
     }
 }
 
-/// The qualities of `--at` and `--range`, in that order.
-fn asked_qualities(args: &cli::EvaluateArgs) -> Result<Vec<f64>, InputError> {
+/// The qualities of `--at` and `--range`, in that order, for plans whose
+/// models are `kinds`.
+fn asked_qualities(
+    args: &cli::EvaluateArgs,
+    kinds: impl IntoIterator<Item = ModelKind>,
+) -> Result<Vec<f64>, InputError> {
+    let parser = Qualities::of_any(kinds);
     let mut qualities = Vec::new();
     if let Some(list) = &args.at {
-        qualities.extend(parse_fraction_list("--at", list)?);
+        qualities.extend(parser.list("--at", list)?);
     }
     if let Some(range) = &args.range {
-        qualities.extend(QualityRange::parse("--range", range)?.points());
+        qualities.extend(parser.range("--range", range)?);
     }
     Ok(qualities)
+}
+
+/// The models of the sources that load, for the note on bare fractions
+/// (a source that does not load is refused by the evaluation itself).
+fn source_models<'a>(paths: impl IntoIterator<Item = &'a Path>) -> Vec<ModelKind> {
+    paths
+        .into_iter()
+        .filter_map(|p| PlanSource::load(p).ok())
+        .map(|s| s.model)
+        .collect()
 }
 
 fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
     match args.sources.as_slice() {
         [] => evaluate_plan_cmd(&args),
         [one] if !one.is_dir() => {
-            let qualities = asked_qualities(&args)?;
+            let qualities = asked_qualities(&args, source_models([one.as_path()]))?;
             let mut text = Vec::new();
             match evaluate_source(one, &qualities, source_lot(&args)?)? {
                 SourceEvaluation::Attributes(r) => {
@@ -734,7 +743,7 @@ fn evaluate_plan_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
             .into());
         }
     };
-    let mut qualities = asked_qualities(args)?;
+    let mut qualities = asked_qualities(args, [model.kind()])?;
     if qualities.is_empty() {
         qualities = default_qualities(&plan, &model, None);
     }
@@ -750,9 +759,15 @@ fn evaluate_plan_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
 /// `evaluate` over several sources or folders: every source evaluated,
 /// the summary after the table, or on stderr beside JSON and CSV.
 fn evaluate_batch_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
-    let qualities = asked_qualities(args)?;
-    let lot = source_lot(args)?;
     let found = expand_paths(&args.sources);
+    let kinds = source_models(
+        found
+            .iter()
+            .filter_map(|e| e.as_ref().ok())
+            .map(|s| s.path.as_path()),
+    );
+    let qualities = asked_qualities(args, kinds)?;
+    let lot = source_lot(args)?;
     let results = run_batch(&found, "sources evaluated", |entry| match entry {
         Ok(s) => EvaluationEntry::new(
             s.path.display().to_string(),
@@ -1174,13 +1189,14 @@ fn demo(dir: &Path, overwrite: Overwrite) -> Result<ExitCode, Error> {
 fn rectify_cmd(args: cli::RectifyArgs) -> Result<ExitCode, Error> {
     // The lot size is required, so the default model is hypergeometric.
     let model = model_of(args.model, Some(&args.lot_size))?;
-    let process_average = parse_fraction("--process-average", &args.process_average)?;
+    let qualities = Qualities::of(model.kind());
+    let process_average = qualities.one("--process-average", &args.process_average)?;
     let protection = match (&args.ltpd, &args.aoql) {
         (Some(ltpd), _) => Protection::Ltpd(RiskPoint {
-            quality: parse_fraction("--ltpd", ltpd)?,
+            quality: qualities.one("--ltpd", ltpd)?,
             risk: parse_fraction("--beta", args.beta.as_deref().unwrap_or("0.10"))?,
         }),
-        (None, Some(aoql)) => Protection::Aoql(parse_fraction("--aoql", aoql)?),
+        (None, Some(aoql)) => Protection::Aoql(qualities.one("--aoql", aoql)?),
         (None, None) => {
             return Err(InputError::Inconsistent(
                 "give the protection: --ltpd P (with --beta B) or --aoql L".to_string(),

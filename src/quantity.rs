@@ -156,6 +156,82 @@ pub fn parse_fraction_list(parameter: &str, text: &str) -> Result<Vec<f64>, Inpu
         .collect()
 }
 
+/// The largest bare fraction taken as meant: above it, a quality written
+/// without a percent sign for a fraction-nonconforming model is more
+/// likely a percent typed without its sign (`--aql 0.5` for half a
+/// percent) than a lot one fifth nonconforming, which acceptance sampling
+/// rarely plans for. Common practice, not a standard's figure.
+pub const BARE_FRACTION_NOTE_ABOVE: f64 = 0.2;
+
+/// The note for the qualities of `flag` given as `text` (one quality, a
+/// list `p,p,..` or a range `LO:HI:COUNT`) that are written without a
+/// percent sign and lie above [`BARE_FRACTION_NOTE_ABOVE`] (and below 1,
+/// where they are refused anyway): how they were read, and how to write
+/// the percents. `None` when there are none. The caller gives the note
+/// for fraction-nonconforming models only (a rate per unit of 0.5 is
+/// ordinary), and the qualities are still used as read.
+///
+/// ```
+/// use lotsman::bare_fraction_note;
+/// assert_eq!(
+///     bare_fraction_note("--aql", "0.5").unwrap(),
+///     "--aql 0.5 was read as 50%; for 0.5 percent write 0.5%"
+/// );
+/// assert_eq!(
+///     bare_fraction_note("--range", "0.3:0.8:5").unwrap(),
+///     "--range 0.3:0.8:5 was read as 30% to 80%; for percents write 0.3%:0.8%:5"
+/// );
+/// assert_eq!(bare_fraction_note("--aql", "0.5%"), None);
+/// assert_eq!(bare_fraction_note("--aql", "0.01"), None);
+/// ```
+pub fn bare_fraction_note(flag: &str, text: &str) -> Option<String> {
+    let bare = |token: &str| {
+        let t = token.trim();
+        !t.ends_with('%')
+            && t.parse::<f64>()
+                .is_ok_and(|v| v > BARE_FRACTION_NOTE_ABOVE && v < 1.0)
+    };
+    let range = text.contains(':');
+    let separator = if range { ':' } else { ',' };
+    let tokens: Vec<&str> = text.split(separator).collect();
+    // A range's third part is its count, not a quality.
+    let qualities = if range {
+        tokens.len().min(2)
+    } else {
+        tokens.len()
+    };
+    let flagged: Vec<usize> = (0..qualities).filter(|&i| bare(tokens[i])).collect();
+    if flagged.is_empty() {
+        return None;
+    }
+    let percent = |token: &str| {
+        let v: f64 = token.trim().parse().unwrap_or(f64::NAN);
+        format!("{}%", round_significant(100.0 * v, 12))
+    };
+    let read: Vec<String> = flagged.iter().map(|&i| percent(tokens[i])).collect();
+    let read = read.join(if range { " to " } else { ", " });
+    let fixed: Vec<String> = tokens
+        .iter()
+        .enumerate()
+        .map(|(i, t)| {
+            if flagged.contains(&i) {
+                format!("{}%", t.trim())
+            } else {
+                t.to_string()
+            }
+        })
+        .collect();
+    let fixed = fixed.join(&separator.to_string());
+    let what = match flagged.as_slice() {
+        [one] if tokens.len() == 1 => format!("{} percent", tokens[*one].trim()),
+        _ => "percents".to_string(),
+    };
+    Some(format!(
+        "{flag} {} was read as {read}; for {what} write {fixed}",
+        text.trim()
+    ))
+}
+
 /// A range of qualities `LO:HI:COUNT`, evenly spaced, ends included.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct QualityRange {
@@ -260,6 +336,23 @@ mod tests {
             assert_eq!(parse_fraction("q", text).unwrap(), 0.0, "{text}");
         }
         assert!(parse_fraction("q", "1e-320").unwrap() > 0.0);
+    }
+
+    #[test]
+    fn bare_fractions_above_a_fifth_get_a_note_and_the_rest_none() {
+        assert_eq!(
+            bare_fraction_note("--at", "1%,0.25, 0.8").unwrap(),
+            "--at 1%,0.25, 0.8 was read as 25%, 80%; for percents write 1%,0.25%,0.8%"
+        );
+        // At the limit, at or above 1 (refused as out of range), text,
+        // percents and a range's count: no note.
+        for text in ["0.2", "1", "1.5", "abc", "50%", "0.01:0.1:300", ""] {
+            assert_eq!(bare_fraction_note("--aql", text), None, "{text}");
+        }
+        assert_eq!(
+            bare_fraction_note("--aql", "0.01:0.5:3").unwrap(),
+            "--aql 0.01:0.5:3 was read as 50%; for percents write 0.01:0.5%:3"
+        );
     }
 
     #[test]
