@@ -87,7 +87,7 @@ fn arguments_refused(e: &clap::Error) -> ExitCode {
             }
         }
         ErrorKind::DisplayHelpOnMissingArgumentOrSubcommand => refuse(&format!(
-            "give a command: {}; lotsman --help says what each does",
+            "give a command: {}; what each does: lotsman --help",
             Cli::command_names().join(", ")
         )),
         _ => refuse(&one_line(&e.render().to_string())),
@@ -115,7 +115,7 @@ fn one_line(rendered: &str) -> String {
         }
         text.push_str(line);
     }
-    format!("{text}; {help} lists the options")
+    format!("{text}; the options: {help}")
 }
 
 fn run(cli: Cli) -> Result<ExitCode, Error> {

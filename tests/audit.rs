@@ -248,7 +248,7 @@ fn the_notice_fits_both_papers_without_overlaps_for_every_kind_of_plan() {
                 ("consumer_risk: 0.09999818504082597", "consumer_risk: 0.09"),
             ],
         ),
-        "and 5 more fields (lotsman verify s.yaml lists every one)".into(),
+        "and 5 more fields (listed by: lotsman verify s.yaml)".into(),
     ));
     for (path, needle) in &sources {
         let text = std::fs::read_to_string(path).unwrap();

@@ -23,6 +23,9 @@ enum Out {
     Err,
     /// The command's report on stdout (batch summaries, accepted input).
     Std,
+    /// A note or a report of a file written, on stderr, beside an answer
+    /// (never an error line).
+    Note,
 }
 
 /// One input and what the tool must answer.
@@ -330,6 +333,23 @@ impl Fixtures {
     }
 }
 
+/// Wording of serde, serde_yaml, clap and the operating system that a
+/// message must have said in plain words instead.
+const LIBRARY_WORDS: [&str; 12] = [
+    "invalid type",
+    "invalid value:",
+    "expected struct",
+    "unknown variant",
+    "unknown field",
+    "missing field",
+    "duplicate field",
+    "expected u64",
+    "os error",
+    "No such file or directory",
+    "Usage:",
+    "For more information",
+];
+
 /// Runs every case on fresh fixtures (see [`run_in`]).
 fn run(group: &str, cases: &[Case]) {
     run_in(&Fixtures::new(), group, cases);
@@ -352,7 +372,7 @@ fn run_in(fx: &Fixtures, group: &str, cases: &[Case]) {
         let stdout = String::from_utf8_lossy(&output.stdout);
         let stderr = String::from_utf8_lossy(&output.stderr);
         let text = match case.out {
-            Out::Err => &stderr,
+            Out::Err | Out::Note => &stderr,
             Out::Std => &stdout,
         };
         let mut wrong = Vec::new();
@@ -373,6 +393,23 @@ fn run_in(fx: &Fixtures, group: &str, cases: &[Case]) {
             && !(stderr.starts_with("lotsman: error: ") && stderr.lines().count() == 1)
         {
             wrong.push("the refusal is not one line 'lotsman: error: ...'".to_string());
+        }
+        if case.out == Out::Note && stderr.contains("lotsman: error: ") {
+            wrong.push("a note came with an error".to_string());
+        }
+        // Nothing reaches the terminal raw but line ends, and no Rust,
+        // serde or system wording reaches a user.
+        if [&stdout, &stderr]
+            .iter()
+            .any(|t| t.chars().any(|ch| ch.is_control() && ch != '\n'))
+        {
+            wrong.push("a control character was printed raw".to_string());
+        }
+        if let Some(word) = LIBRARY_WORDS
+            .iter()
+            .find(|w| stdout.contains(*w) || stderr.contains(*w))
+        {
+            wrong.push(format!("the library's wording '{word}' reached the user"));
         }
         if case.fast && elapsed > Duration::from_secs(1) {
             wrong.push(format!("took {elapsed:?}, more than a second"));
@@ -1635,4 +1672,931 @@ fn a_read_only_folder_is_named_in_the_refusal() {
             .stderr(predicates::str::contains(fragment.as_str()));
     }
     assert!(std::fs::read_dir(&locked).unwrap().next().is_none());
+}
+
+/// Issue 14: a fixture folder with the shared fixtures and these extra
+/// files, each written as given.
+fn fixtures_with(extra: &[(&str, String)]) -> Fixtures {
+    let fx = Fixtures::new();
+    for (name, text) in extra {
+        std::fs::write(fx.path(name), text).unwrap();
+    }
+    fx
+}
+
+/// [`BASE`] with `from` replaced by `to`.
+fn base_with(from: &str, to: &str) -> String {
+    assert!(BASE.contains(from), "{from}");
+    BASE.replacen(from, to, 1)
+}
+
+/// The readings of the demo lot, `plate,thickness_mm` with a header, with
+/// `edit` applied to each data row's reading (its line number, its text).
+fn readings_with(edit: impl Fn(usize, &str) -> String) -> String {
+    let readings = std::fs::read_to_string("plans/tpw-cover-thickness-readings.csv").unwrap();
+    let mut lines = readings.lines();
+    let mut out = format!("{}\n", lines.next().unwrap());
+    for (i, line) in lines.enumerate() {
+        let (plate, value) = line.split_once(',').unwrap();
+        out.push_str(&format!("{plate},{}\n", edit(i + 2, value)));
+    }
+    out
+}
+
+/// A note or report on stderr beside an answer, exit code 0.
+fn noted(name: &'static str, args: &[&'static str], fragment: &'static str) -> Case {
+    Case {
+        out: Out::Note,
+        ..reported(name, args, 0, fragment)
+    }
+}
+
+/// Issue 14, item 14: what a plan source must hold, said in plain words
+/// with its line; a file that cannot be read, in the system's place; a
+/// source without a plan, "not solved yet".
+#[test]
+fn sources_and_files_are_refused_in_plain_words() {
+    let stages = |stage: &str| {
+        format!(
+            "{BASE}plan:\n  stages:\n  - n: 50\n    accept: 1\n    reject: 2\n{stage}  producer_risk: 0.1\n  consumer_risk: 0.1\n  solved_by: hand\n"
+        )
+    };
+    let fx = fixtures_with(&[
+        ("number.yaml", "42\n".into()),
+        (
+            "lot-thousands.yaml",
+            base_with("model: binomial", "model: hypergeometric\nlot_size: 3,000"),
+        ),
+        ("scheme-capital.yaml", base_with("scheme: single", "scheme: Single")),
+        ("model-typo.yaml", base_with("model: binomial", "model: binomal")),
+        (
+            "no-producer.yaml",
+            base_with("producer:\n  quality: 0.01\n  risk: 0.05\n", ""),
+        ),
+        ("no-alpha.yaml", base_with("  risk: 0.05\n", "")),
+        ("nested-tab.yaml", base_with("  quality: 0.06", "\tquality: 0.06")),
+        ("control.yaml", base_with("title: Refusal suite", "title: \"a\u{1}b\"")),
+        ("two-documents.yaml", format!("{BASE}---\n{BASE}")),
+        ("open-quote.yaml", base_with("title: Refusal suite", "title: \"Refusal")),
+        (
+            "stage-text.yaml",
+            stages("  - n: ten\n    accept: 1\n    reject: 2\n"),
+        ),
+        (
+            "stage-key-typo.yaml",
+            stages("  - n: 100\n    acept: 2\n    reject: 3\n"),
+        ),
+        (
+            "producer-number.yaml",
+            base_with("producer:\n  quality: 0.01\n  risk: 0.05", "producer: 0.01"),
+        ),
+        (
+            "variables-unsolved.yaml",
+            "schema: 1\ntitle: Unsolved\nscheme: variables\nvariables:\n  sigma: unknown\n  limit: lower\n  lower: 5.7\nmodel: hypergeometric\nlot_size: 600\nproducer:\n  quality: 0.01\n  risk: 0.05\nconsumer:\n  quality: 0.06\n  risk: 0.1\n".into(),
+        ),
+    ]);
+    let v = |file: &'static str| -> Vec<&'static str> { vec!["verify", file] };
+    let cases = vec![
+        reported(
+            "a number instead of a mapping",
+            &v("@number.yaml"),
+            2,
+            "a plan source is a YAML mapping of keys (schema:, title:, scheme:, model:, producer:, consumer:, ..., each at the start of a line); this file is 42",
+        ),
+        reported(
+            "a lot size with a thousands separator",
+            &v("@lot-thousands.yaml"),
+            2,
+            "line 5: lot_size must be a whole number such as 3000 (digits only, no thousands separator), not the text '3,000'",
+        ),
+        reported(
+            "a scheme in capitals (did you mean)",
+            &v("@scheme-capital.yaml"),
+            2,
+            "line 3: scheme must be one of single, double, multiple, sequential, variables, not 'Single'; did you mean single?",
+        ),
+        reported(
+            "a misspelt model (did you mean)",
+            &v("@model-typo.yaml"),
+            2,
+            "line 4: model must be one of binomial, hypergeometric, poisson, not 'binomal'; did you mean binomial?",
+        ),
+        reported(
+            "a missing section",
+            &v("@no-producer.yaml"),
+            2,
+            "the source has no producer: line; add producer: with quality: (the AQL) and risk: (alpha) indented below it",
+        ),
+        reported(
+            "a missing key in a section",
+            &v("@no-alpha.yaml"),
+            2,
+            "producer has no risk: (alpha, e.g. risk: 0.05); add it, indented below producer:",
+        ),
+        reported(
+            "a tab indenting a nested key",
+            &v("@nested-tab.yaml"),
+            2,
+            "line 9: YAML indents with spaces, not tabs",
+        ),
+        reported(
+            "a control character in a value",
+            &v("@control.yaml"),
+            2,
+            "line 2: the text holds a control character, which a plan source may not",
+        ),
+        reported(
+            "two YAML documents",
+            &v("@two-documents.yaml"),
+            2,
+            "the file holds more than one YAML document (a line '---' starts each); a plan source is one document",
+        ),
+        reported(
+            "a quote never closed",
+            &v("@open-quote.yaml"),
+            2,
+            "the file ends inside a quoted text or a bracket",
+        ),
+        reported(
+            "a recorded stage counted from one",
+            &v("@stage-text.yaml"),
+            2,
+            "line 16: stage 2 n of the recorded plan must be a whole number such as 50 (digits only, no thousands separator), not the text 'ten'",
+        ),
+        reported(
+            "a misspelt key in a recorded stage",
+            &v("@stage-key-typo.yaml"),
+            2,
+            "'acept' is not a key under stage 2 of the recorded plan (did you mean accept?); the keys there are n, accept, reject",
+        ),
+        reported(
+            "a number where a section belongs",
+            &v("@producer-number.yaml"),
+            2,
+            "line 5: producer must be a mapping of quality: and risk:, each on its own line, indented below producer:, not 0.01",
+        ),
+        refused(
+            "a file that does not exist",
+            &["design", "@nothing.yaml"],
+            "@nothing.yaml does not exist",
+        ),
+        refused(
+            "a folder given as a source",
+            &["design", "@no-sources"],
+            "@no-sources is a folder, not a file",
+        ),
+        refused(
+            "measurements that do not exist",
+            &[
+                "judge",
+                "plans/tpw-cover-thickness.yaml",
+                "--measurements",
+                "@nothing.csv",
+            ],
+            "@nothing.csv does not exist",
+        ),
+        reported(
+            "a sheet that does not exist",
+            &[
+                "verify",
+                "plans/tpw-cover-fit.yaml",
+                "--sheet",
+                "@nothing.pdf",
+            ],
+            2,
+            "@nothing.pdf does not exist",
+        ),
+        reported(
+            "a sheet that is not a PDF",
+            &["verify", "plans/tpw-cover-fit.yaml", "--sheet", "@a-file"],
+            2,
+            "@a-file: not a PDF that can be read",
+        ),
+        reported(
+            "not solved yet, under verify (invalid, not a mismatch)",
+            &v("@no-plan.yaml"),
+            2,
+            "invalid   @no-plan.yaml: not solved yet: the source records no plan; solve it with: lotsman design @no-plan.yaml --in-place",
+        ),
+        refused(
+            "not solved yet, under judge",
+            &["judge", "@no-plan.yaml", "--found", "0"],
+            "@no-plan.yaml: not solved yet: the source records no plan; solve it with: lotsman design @no-plan.yaml --in-place",
+        ),
+        refused(
+            "not solved yet, under sheet",
+            &["sheet", "@no-plan.yaml", "--output", "@no-plan.pdf"],
+            "@no-plan.yaml: not solved yet",
+        ),
+        refused(
+            "a variables source not solved yet",
+            &[
+                "judge",
+                "@variables-unsolved.yaml",
+                "--measurements",
+                "@bom.csv",
+                "--column",
+                "thickness_mm",
+            ],
+            "@variables-unsolved.yaml: not solved yet: the source records no plan; solve it with: lotsman design @variables-unsolved.yaml --in-place",
+        ),
+    ];
+    run_in(&fx, "plain words", &cases);
+}
+
+/// Issue 14, items 14 and 15: argument errors are one line like every
+/// refusal, control characters in arguments are shown escaped, and one
+/// name per idea across commands, in any case.
+#[test]
+fn arguments_are_refused_in_one_line_and_named_alike() {
+    let cases = vec![
+        refused(
+            "an unknown flag",
+            &["design", "--aql", "1%", "--rql", "6%", "--frobnicate"],
+            "unexpected argument '--frobnicate' found; tip: a similar argument exists: '--format'; the options: lotsman design --help",
+        ),
+        refused(
+            "a value not among the choices",
+            &["sheet", "plans/tpw-cover-fit.yaml", "--paper", "A5"],
+            "invalid value 'A5' for '--paper <PAPER>'; [possible values: a4, letter]; the options: lotsman sheet --help",
+        ),
+        refused(
+            "a required flag missing",
+            &["design", "--aql", "1%"],
+            "the following required arguments were not provided: --rql <P2>; the options: lotsman design --help",
+        ),
+        refused(
+            "no command",
+            &[],
+            "give a command: design, evaluate, verify, judge, sheet, tradeoff, new, demo, rectify; what each does: lotsman --help",
+        ),
+        refused(
+            "--in-place with --output",
+            &[
+                "design",
+                "@source.yaml",
+                "--in-place",
+                "--output",
+                "@other.yaml",
+            ],
+            "the argument '--in-place' cannot be used with '--output <FILE.yaml>'",
+        ),
+        refused(
+            "--in-place without a source",
+            &["design", "--aql", "1%", "--rql", "6%", "--in-place"],
+            "--in-place re-solves a plan source and replaces it: name the source",
+        ),
+        refused(
+            "a control character in an argument",
+            &["design", "--aql", "1\u{1b}[31m%", "--rql", "6%"],
+            "--aql = '1\\x1B[31m%' is not a fraction (0.01) or a percent (1%)",
+        ),
+        refused(
+            "a control character in an unknown flag",
+            &["design", "--a\u{7}ql", "1%"],
+            "unexpected argument '--aql' found",
+        ),
+        refused(
+            "design --output into a PDF",
+            &["design", "--aql", "1%", "--rql", "6%", "--output", "@x.pdf"],
+            "--output @x.pdf would hold the plan source, which is YAML, and its name does not end in .yaml or .yml; write it with: lotsman design --aql 1% --rql 6% --output @x.yaml, then print its sheet with: lotsman sheet @x.yaml",
+        ),
+        refused(
+            "design --output into a JSON file",
+            &[
+                "design",
+                "--aql",
+                "1%",
+                "--rql",
+                "6%",
+                "--format",
+                "json",
+                "--output=@x.json",
+            ],
+            "write it with: lotsman design --aql 1% --rql 6% --format json --output @x.yaml",
+        ),
+        refused(
+            "--lot-size beside a source that gives one",
+            &["evaluate", "plans/tpw-cover-fit.yaml", "--lot-size", "3000"],
+            "--lot-size 3000 is for a source that gives no lot size, and this one gives lot_size: 400",
+        ),
+        reported(
+            "--lot-size beside a source that gives none: accepted",
+            &[
+                "evaluate",
+                "plans/tpw-seal-visual.yaml",
+                "--lot-size",
+                "3000",
+                "--at",
+                "1%",
+            ],
+            0,
+            "Plan 166:3:4 (N:AC:RE), binomial model, lot of 3000 units",
+        ),
+        noted(
+            "--paper in capitals: accepted",
+            &[
+                "sheet",
+                "plans/tpw-cover-fit.yaml",
+                "--paper",
+                "A4",
+                "--output",
+                "@a4.pdf",
+            ],
+            "lotsman: wrote sheet @a4.pdf",
+        ),
+        reported(
+            "--model in capitals: accepted",
+            &["design", "--aql", "1%", "--rql", "6%", "--model", "POISSON"],
+            0,
+            "single plan, poisson model",
+        ),
+        reported(
+            "new with a capital: accepted",
+            &["new", "Binomial"],
+            0,
+            "# lotsman plan source: single sampling, binomial model.",
+        ),
+        reported(
+            "judge --format table, as every command",
+            &[
+                "judge",
+                "plans/tpw-seal-visual.yaml",
+                "--found",
+                "1",
+                "--format",
+                "table",
+            ],
+            0,
+            "ACCEPT the lot",
+        ),
+        reported(
+            "judge --format text, the earlier name: still read",
+            &[
+                "judge",
+                "plans/tpw-seal-visual.yaml",
+                "--found",
+                "1",
+                "--format",
+                "text",
+            ],
+            0,
+            "ACCEPT the lot",
+        ),
+        reported(
+            "tradeoff --process-average, as rectify names it",
+            &[
+                "tradeoff",
+                "--aql",
+                "1%,2%",
+                "--rql",
+                "6%,7%",
+                "--lot-size",
+                "500",
+                "--cost-per-unit",
+                "1",
+                "--process-average",
+                "1%",
+            ],
+            0,
+            "Expected inspection cost per lot at the process average 1.000%",
+        ),
+        reported(
+            "tradeoff --process-quality, the earlier name: still read",
+            &[
+                "tradeoff",
+                "--aql",
+                "1%,2%",
+                "--rql",
+                "6%,7%",
+                "--lot-size",
+                "500",
+                "--cost-per-unit",
+                "1",
+                "--process-quality",
+                "1%",
+            ],
+            0,
+            "Expected inspection cost per lot at the process average 1.000%",
+        ),
+    ];
+    run("arguments", &cases);
+}
+
+/// Issue 14, item 6: a measurements file that would be misread is refused
+/// with its row and the fix, never decided on.
+#[test]
+fn measurements_that_would_be_misread_are_refused() {
+    let fx = fixtures_with(&[
+        (
+            "commas-column.csv",
+            readings_with(|_, v| v.replace('.', ",")),
+        ),
+        (
+            "one-comma-column.csv",
+            readings_with(|line, v| {
+                if line == 10 {
+                    v.replace('.', ",")
+                } else {
+                    v.to_string()
+                }
+            }),
+        ),
+        (
+            "quoted-commas.csv",
+            readings_with(|_, v| format!("\"{}\"", v.replace('.', ","))),
+        ),
+        ("quoted.csv", readings_with(|_, v| format!("\"{v}\""))),
+        (
+            "tabs.csv",
+            readings_with(|_, v| v.to_string()).replace(',', "\t"),
+        ),
+        (
+            "blank-between.csv",
+            readings_with(|line, v| {
+                if line == 6 {
+                    format!("{v}\n")
+                } else {
+                    v.to_string()
+                }
+            }),
+        ),
+    ]);
+    let mc = |file: &'static str| -> Vec<&'static str> {
+        vec![
+            "judge",
+            "plans/tpw-cover-thickness.yaml",
+            "--measurements",
+            file,
+            "--column",
+            "thickness_mm",
+        ]
+    };
+    let cases = vec![
+        refused(
+            "decimal commas under --column",
+            &mc("@commas-column.csv"),
+            "row 2 of the measurements has 3 cells and the header row 2 ('1,5,834'): a comma inside a value (a decimal comma, as in 9,950) splits it in two; save the file with decimal points (9.950), or put each such value in quotes",
+        ),
+        refused(
+            "one decimal comma under --column",
+            &mc("@one-comma-column.csv"),
+            "row 10 of the measurements has 3 cells and the header row 2",
+        ),
+        refused(
+            "quoted decimal commas under --column",
+            &mc("@quoted-commas.csv"),
+            "measurement in row 2 = '5,834' is not a number written with a decimal point",
+        ),
+        refused(
+            "semicolons under --column",
+            &mc("@semicolons.csv"),
+            "this file separates its values with ';' (row 1: 'plate;thickness_mm'), and a measurements file is comma-separated with decimal points",
+        ),
+        refused(
+            "tabs under --column",
+            &mc("@tabs.csv"),
+            "this file separates its values with tabs (row 1: 'plate\\tthickness_mm')",
+        ),
+        refused(
+            "tabs without --column",
+            &[
+                "judge",
+                "plans/tpw-cover-thickness.yaml",
+                "--measurements",
+                "@tabs.csv",
+            ],
+            "this file separates its values with tabs",
+        ),
+        refused(
+            "a blank line between readings under --column",
+            &mc("@blank-between.csv"),
+            "row 7 of the measurements is blank",
+        ),
+        reported(
+            "quoted readings: accepted",
+            &mc("@quoted.csv"),
+            0,
+            "ACCEPT the lot: Q_L = 2.8684 >= k = 1.901",
+        ),
+    ];
+    run_in(&fx, "measurements", &cases);
+}
+
+/// Issue 14, item 5: a bare fraction above a fifth, for a model of
+/// fractions nonconforming, gets a note saying how it was read; the plan
+/// is still given.
+#[test]
+fn bare_fractions_above_a_fifth_get_a_note_and_the_answer() {
+    let cases = vec![
+        noted(
+            "a bare AQL",
+            &["design", "--aql", "0.5", "--rql", "0.8"],
+            "lotsman: note: --aql 0.5 was read as 50%; for 0.5 percent write 0.5%",
+        ),
+        noted(
+            "a bare RQL",
+            &["design", "--aql", "0.5%", "--rql", "0.3"],
+            "lotsman: note: --rql 0.3 was read as 30%; for 0.3 percent write 0.3%",
+        ),
+        noted(
+            "a bare quality to evaluate at",
+            &["evaluate", "--n", "20", "--c", "1", "--at", "1%,0.3"],
+            "lotsman: note: --at 1%,0.3 was read as 30%; for percents write 1%,0.3%",
+        ),
+        noted(
+            "a bare range",
+            &["evaluate", "--n", "20", "--c", "1", "--range", "0.25:0.5:3"],
+            "lotsman: note: --range 0.25:0.5:3 was read as 25% to 50%; for percents write 0.25%:0.5%:3",
+        ),
+        noted(
+            "a bare quality for a source",
+            &["evaluate", "plans/tpw-seal-visual.yaml", "--at", "0.4"],
+            "lotsman: note: --at 0.4 was read as 40%",
+        ),
+        noted(
+            "a bare grid axis",
+            &["tradeoff", "--aql", "0.25,0.3", "--rql", "0.5,0.6"],
+            "lotsman: note: --aql 0.25,0.3 was read as 25%, 30%; for percents write 0.25%,0.3%",
+        ),
+        noted(
+            "a bare process average (tradeoff)",
+            &[
+                "tradeoff",
+                "--aql",
+                "1%,2%",
+                "--rql",
+                "6%,7%",
+                "--lot-size",
+                "500",
+                "--cost-per-unit",
+                "1",
+                "--process-average",
+                "0.3",
+            ],
+            "lotsman: note: --process-average 0.3 was read as 30%",
+        ),
+        noted(
+            "a bare process average (rectify)",
+            &[
+                "rectify",
+                "--lot-size",
+                "500",
+                "--process-average",
+                "0.3",
+                "--aoql",
+                "50%",
+            ],
+            "lotsman: note: --process-average 0.3 was read as 30%",
+        ),
+        noted(
+            "a bare LTPD",
+            &[
+                "rectify",
+                "--lot-size",
+                "500",
+                "--process-average",
+                "0.1%",
+                "--ltpd",
+                "0.25",
+            ],
+            "lotsman: note: --ltpd 0.25 was read as 25%",
+        ),
+        noted(
+            "a bare AOQL",
+            &[
+                "rectify",
+                "--lot-size",
+                "500",
+                "--process-average",
+                "0.1%",
+                "--aoql",
+                "0.3",
+            ],
+            "lotsman: note: --aoql 0.3 was read as 30%",
+        ),
+    ];
+    run("bare fractions", &cases);
+    // Rates per unit, percents and small fractions get none.
+    for args in [
+        vec![
+            "design", "--aql", "0.5", "--rql", "0.8", "--model", "poisson",
+        ],
+        vec!["evaluate", "plans/tpw-housing-finish.yaml", "--at", "0.5"],
+        vec!["design", "--aql", "0.5%", "--rql", "0.8%"],
+        vec!["design", "--aql", "0.01", "--rql", "0.06"],
+    ] {
+        let out = lotsman().args(&args).output().unwrap();
+        assert_eq!(out.status.code(), Some(0), "{args:?}");
+        assert!(
+            out.stderr.is_empty(),
+            "{args:?}: {}",
+            String::from_utf8_lossy(&out.stderr)
+        );
+    }
+}
+
+/// The commands a message suggests: each `lotsman ...` after the message's
+/// own `lotsman: ` prefix, up to the end of its clause (`;`, `)`, `, ` or
+/// the end of the line, outside quotes), as a shell would read it.
+fn suggested_commands(message: &str) -> Vec<String> {
+    let mut found = Vec::new();
+    let mut rest = message;
+    while let Some(at) = rest.find("lotsman ") {
+        let tail = &rest[at..];
+        let mut end = tail.len();
+        // Outside quotes, in '...' (no escapes) or in $'...' (backslash
+        // escapes).
+        #[derive(PartialEq)]
+        enum Quote {
+            None,
+            Plain,
+            Ansi,
+        }
+        let mut quote = Quote::None;
+        let chars: Vec<(usize, char)> = tail.char_indices().collect();
+        let mut k = 0;
+        while k < chars.len() {
+            let (i, ch) = chars[k];
+            let next = chars.get(k + 1).map(|&(_, c)| c);
+            match (&quote, ch) {
+                (Quote::None, '\\') | (Quote::Ansi, '\\') => k += 1,
+                (Quote::None, '$') if next == Some('\'') => {
+                    quote = Quote::Ansi;
+                    k += 1;
+                }
+                (Quote::None, '\'') => quote = Quote::Plain,
+                (Quote::Plain | Quote::Ansi, '\'') => quote = Quote::None,
+                (Quote::None, ';' | ')' | '\n') => {
+                    end = i;
+                    break;
+                }
+                (Quote::None, ',') if next == Some(' ') => {
+                    end = i;
+                    break;
+                }
+                _ => {}
+            }
+            k += 1;
+        }
+        found.push(tail[..end].trim_end().to_string());
+        rest = &tail[end..];
+    }
+    found
+}
+
+/// Runs `command` (a line that starts with `lotsman `) through the shell
+/// in `dir`, with this build's binary as `lotsman`.
+fn run_suggested(command: &str, dir: &std::path::Path) -> std::process::Output {
+    let binary = assert_cmd::cargo::cargo_bin("lotsman");
+    std::process::Command::new("bash")
+        .arg("-c")
+        .arg(format!(
+            "lotsman() {{ '{}' \"$@\"; }}; {command}",
+            binary.display()
+        ))
+        .current_dir(dir)
+        .output()
+        .unwrap()
+}
+
+/// Issue 14, item 10: every command a refusal suggests works when
+/// followed as written, and after it the refused command succeeds.
+#[test]
+fn advice_works_when_followed_as_written() {
+    let dir = tempfile::tempdir().unwrap();
+    let d = dir.path();
+    let fit = std::fs::read_to_string("plans/tpw-cover-fit.yaml").unwrap();
+    // A folder and a file name with a space and a quote: the advice must
+    // quote them for the shell.
+    let folder = d.join("supplier's plans");
+    std::fs::create_dir(&folder).unwrap();
+    let unsolved = folder.join("cover fit.yaml");
+    std::fs::write(&unsolved, BASE).unwrap();
+    let unsolved_too = folder.join("seal.yaml");
+    std::fs::write(&unsolved_too, BASE).unwrap();
+    let edited = folder.join("edited.yaml");
+    std::fs::write(&edited, fit.replace("  - n: 62\n", "  - n: 50\n")).unwrap();
+    let source = folder.join("source.yaml");
+    std::fs::write(&source, &fit).unwrap();
+    let empty = folder.join("empty.yaml");
+    std::fs::write(&empty, "").unwrap();
+    let p = |path: &std::path::Path| path.to_str().unwrap().to_string();
+    // (the refused command, where its message is, the command to succeed
+    // after the advice is followed)
+    let cases: Vec<(Vec<String>, Out, Option<Vec<String>>)> = vec![
+        (
+            vec!["evaluate".into(), p(&unsolved)],
+            Out::Err,
+            Some(vec!["evaluate".into(), p(&unsolved)]),
+        ),
+        (
+            vec!["verify".into(), p(&unsolved_too)],
+            Out::Std,
+            Some(vec!["verify".into(), p(&unsolved_too)]),
+        ),
+        (
+            vec!["sheet".into(), p(&edited)],
+            Out::Err,
+            Some(vec!["sheet".into(), p(&edited)]),
+        ),
+        (
+            vec!["design".into(), p(&source), "--output".into(), p(&source)],
+            Out::Err,
+            Some(vec!["verify".into(), p(&source)]),
+        ),
+        (vec!["design".into(), p(&empty)], Out::Err, None),
+        (
+            vec![
+                "design".into(),
+                "--aql".into(),
+                "1%".into(),
+                "--rql".into(),
+                "6%".into(),
+                "--output".into(),
+                p(&folder.join("plan.pdf")),
+            ],
+            Out::Err,
+            Some(vec!["verify".into(), p(&folder.join("plan.yaml"))]),
+        ),
+        (
+            vec!["sheet".into(), p(&source), "--paper".into(), "A5".into()],
+            Out::Err,
+            None,
+        ),
+        (vec![], Out::Err, None),
+    ];
+    let mut count = 0;
+    for (args, out, then) in cases {
+        let refused = lotsman().args(&args).current_dir(d).output().unwrap();
+        assert_ne!(refused.status.code(), Some(0), "{args:?} was not refused");
+        let message = String::from_utf8_lossy(match out {
+            Out::Std => &refused.stdout,
+            _ => &refused.stderr,
+        })
+        .to_string();
+        let commands = suggested_commands(message.trim_start_matches("lotsman: error: "));
+        assert!(!commands.is_empty(), "{args:?}: no command in {message}");
+        for command in commands {
+            assert!(
+                !command
+                    .split_whitespace()
+                    .any(|w| w.contains("FILE") || w.contains("NEW")),
+                "{command}: a placeholder where the file is known"
+            );
+            let ran = run_suggested(&command, d);
+            assert!(
+                ran.status.success(),
+                "{args:?} suggested `{command}`, which failed: {}",
+                String::from_utf8_lossy(&ran.stderr)
+            );
+            count += 1;
+        }
+        if let Some(then) = then {
+            let after = lotsman().args(&then).current_dir(d).output().unwrap();
+            assert!(
+                after.status.success(),
+                "{then:?} after following the advice: {}{}",
+                String::from_utf8_lossy(&after.stdout),
+                String::from_utf8_lossy(&after.stderr)
+            );
+        }
+    }
+    eprintln!("advice: {count} suggested commands run");
+    // The re-solved sources are the tool's own, and verify confirms them.
+    lotsman()
+        .arg("verify")
+        .arg(&folder)
+        .assert()
+        .code(2)
+        .stdout(predicates::str::contains("5 match, 0 mismatch, 1 invalid"));
+}
+
+/// Issue 14, item 15: a report that cannot be written (a full device, a
+/// reader that went away) is exit code 2 with a plain message, help
+/// included.
+#[test]
+fn output_that_cannot_be_written_is_exit_2_with_a_plain_message() {
+    let binary = assert_cmd::cargo::cargo_bin("lotsman");
+    let full = std::path::Path::new("/dev/full");
+    if full.exists() {
+        for args in [
+            vec!["design", "--aql", "1%", "--rql", "6%"],
+            vec!["--help"],
+            vec!["verify", "plans/tpw-cover-fit.yaml"],
+        ] {
+            let out = std::process::Command::new(&binary)
+                .args(&args)
+                .stdout(std::fs::OpenOptions::new().write(true).open(full).unwrap())
+                .output()
+                .unwrap();
+            assert_eq!(out.status.code(), Some(2), "{args:?}");
+            assert_eq!(
+                String::from_utf8_lossy(&out.stderr),
+                "lotsman: error: standard output cannot be written: the disk is full\n",
+                "{args:?}"
+            );
+        }
+    } else {
+        eprintln!("no /dev/full on this system: the full-device check is skipped");
+    }
+    // A pipe whose reader is gone before the first byte.
+    let (reader, writer) = std::io::pipe().unwrap();
+    drop(reader);
+    let out = std::process::Command::new(&binary)
+        .args(["design", "--aql", "1%", "--rql", "6%"])
+        .stdout(writer)
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(2));
+    assert_eq!(
+        String::from_utf8_lossy(&out.stderr),
+        "lotsman: error: standard output was closed by the program reading it\n"
+    );
+}
+
+/// Issue 14, item 10: `design FILE --in-place` re-solves the source and
+/// replaces it; the file is the tool's own source afterwards.
+#[test]
+fn design_in_place_replaces_the_source_with_the_solved_one() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("cover.yaml");
+    let fit = std::fs::read_to_string("plans/tpw-cover-fit.yaml").unwrap();
+    std::fs::write(&path, fit.replace("  - n: 62\n", "  - n: 50\n")).unwrap();
+    lotsman()
+        .arg("design")
+        .arg(&path)
+        .arg("--in-place")
+        .assert()
+        .success()
+        .stderr(format!("lotsman: re-solved {} in place\n", path.display()));
+    assert_eq!(std::fs::read_to_string(&path).unwrap(), fit);
+    // No temporary file is left beside it.
+    let names: Vec<_> = std::fs::read_dir(dir.path()).unwrap().collect();
+    assert_eq!(names.len(), 1);
+}
+
+/// Issue 14, item 14: control characters from file names, YAML values, CSV
+/// cells and arguments are shown escaped, never sent to the terminal raw
+/// (the runner fails any case that prints one).
+#[test]
+fn control_characters_are_shown_escaped() {
+    let fx = fixtures_with(&[
+        (
+            "escape-title.yaml",
+            base_with("title: Refusal suite", "title: \"Cover \\e[2J fit\""),
+        ),
+        (
+            "escape-cell.csv",
+            readings_with(|line, v| {
+                if line == 3 {
+                    format!("{v}\u{1b}[31m")
+                } else {
+                    v.to_string()
+                }
+            }),
+        ),
+    ]);
+    let cases = vec![
+        reported(
+            "an escape sequence in a title",
+            &["design", "@escape-title.yaml"],
+            0,
+            "Cover \\x1B[2J fit",
+        ),
+        refused(
+            "an escape sequence in a CSV cell",
+            &[
+                "judge",
+                "plans/tpw-cover-thickness.yaml",
+                "--measurements",
+                "@escape-cell.csv",
+                "--column",
+                "thickness_mm",
+            ],
+            "measurement in row 3 = '5.885\\x1B[31m' is not a number",
+        ),
+        refused(
+            "an escape sequence in a file name",
+            &["design", "@missing\u{1b}[2J.yaml"],
+            "missing\\x1B[2J.yaml does not exist",
+        ),
+        reported(
+            "an escape sequence in a file name, in a batch",
+            &["verify", "@gone\u{1b}]0;title\u{7}.yaml"],
+            2,
+            "gone\\x1B]0;title\\x07.yaml: does not exist",
+        ),
+        refused(
+            "a carriage return in an argument",
+            &["evaluate", "--n", "20", "--c", "1", "--at", "1%\rREWRITTEN"],
+            "--at = '1%\\rREWRITTEN' is not a fraction",
+        ),
+        refused(
+            "a right-to-left override in an argument",
+            &["new", "double\u{202e}"],
+            "template kind = 'double\\u202E' is not one of",
+        ),
+    ];
+    run_in(&fx, "control characters", &cases);
 }

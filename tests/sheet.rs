@@ -907,3 +907,53 @@ fn variables_sheets_are_deterministic_and_the_cli_writes_them() {
         .success();
     assert_eq!(std::fs::read(&pdf).unwrap(), a.pdf);
 }
+
+/// Issue 14, item 14: a file name with characters the sheet font lacks
+/// does not block the sheet. The footer names the source as one shell
+/// word, a '?' standing for each such character, so that its command
+/// regenerates the sheet when run as printed in the source's folder.
+#[test]
+fn a_file_name_the_font_cannot_draw_prints_a_safe_form_that_still_works() {
+    let dir = tempfile::tempdir().unwrap();
+    let source = dir.path().join("Prüf 漢字 seal's.yaml");
+    std::fs::copy(DEMO, &source).unwrap();
+    let pdf = source.with_extension("pdf");
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .arg("sheet")
+        .arg(&source)
+        .assert()
+        .success();
+    let first = std::fs::read(&pdf).unwrap();
+    let text = pdf_text(&first)
+        .split_whitespace()
+        .collect::<Vec<_>>()
+        .join(" ");
+    let command = "lotsman sheet 'Prüf '??' seal'\\''s.yaml'";
+    assert!(
+        text.contains(&format!("Regenerate with: {command}")),
+        "{text}"
+    );
+    // The printed command, run in the source's folder once the sheet is
+    // lost, prints the same bytes again.
+    std::fs::remove_file(&pdf).unwrap();
+    let binary = assert_cmd::cargo::cargo_bin("lotsman");
+    let ran = Process::new("bash")
+        .arg("-c")
+        .arg(format!(
+            "lotsman() {{ '{}' \"$@\"; }}; {command}",
+            binary.display()
+        ))
+        .current_dir(dir.path())
+        // '?' stands for one character in a UTF-8 shell, as users' shells
+        // are; in the C locale it would stand for one byte.
+        .env("LC_ALL", "C.UTF-8")
+        .output()
+        .unwrap();
+    assert!(
+        ran.status.success(),
+        "{}",
+        String::from_utf8_lossy(&ran.stderr)
+    );
+    assert_eq!(std::fs::read(&pdf).unwrap(), first);
+}

@@ -88,7 +88,7 @@ impl Discrepancy {
     /// };
     /// assert_eq!(
     ///     d.brief(1, "sleeve.yaml"),
-    ///     "recorded plan differs from a re-solve: plan.sequential.slope: recorded 1, re-solved 2; and 1 more field (lotsman verify sleeve.yaml lists every one)"
+    ///     "recorded plan differs from a re-solve: plan.sequential.slope: recorded 1, re-solved 2; and 1 more field (listed by: lotsman verify sleeve.yaml)"
     /// );
     /// assert_eq!(d.brief(2, "sleeve.yaml"), d.to_string());
     /// ```
@@ -104,10 +104,10 @@ impl Discrepancy {
             match self.differences.len().saturating_sub(fields) {
                 0 => {}
                 1 => shown.push(format!(
-                    "and 1 more field (lotsman verify {source} lists every one)"
+                    "and 1 more field (listed by: lotsman verify {source})"
                 )),
                 more => shown.push(format!(
-                    "and {more} more fields (lotsman verify {source} lists every one)"
+                    "and {more} more fields (listed by: lotsman verify {source})"
                 )),
             }
             parts.push(format!(

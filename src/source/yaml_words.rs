@@ -297,7 +297,7 @@ fn missing(field: Option<&str>, key: &str, file: &Path) -> String {
                 _ => "it",
             };
             format!(
-                "the source has no {key}: line; add {what} (lotsman new binomial prints a complete source)"
+                "the source has no {key}: line; add {what} (a complete source: lotsman new binomial)"
             )
         }
         Some("plan") | Some("plan.sequential") | Some("plan.variables") => format!(
