@@ -98,7 +98,7 @@ fn verify_of_a_folder_counts_every_outcome_and_gives_one_line_per_failure() {
     );
     assert!(
         lines[1].starts_with(&format!(
-            "invalid   {}: line 15: 'lotsize' is not a key of a plan source (did you mean lot_size?)",
+            "invalid   {}: line 15: 'lotsize' is not a key of a plan source; did you mean lot_size?",
             root.join("west/broken.yaml").display()
         )),
         "{}",
@@ -484,7 +484,7 @@ fn evaluate_of_a_folder_gives_each_source_under_its_path_then_the_summary() {
     assert!(out.contains("invalid: "));
     let lines: Vec<&str> = out.lines().collect();
     assert!(lines[lines.len() - 2].starts_with(&format!(
-        "invalid   {}: line 15: 'lotsize' is not a key of a plan source (did you mean lot_size?)",
+        "invalid   {}: line 15: 'lotsize' is not a key of a plan source; did you mean lot_size?",
         root.join("west/broken.yaml").display()
     )));
     assert_eq!(lines[lines.len() - 1], "5 evaluated, 1 invalid");

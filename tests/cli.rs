@@ -308,7 +308,7 @@ fn verify_of_an_invalid_source_exits_2_and_still_checks_the_others() {
         .assert()
         .code(2)
         .stdout(predicate::str::contains(
-            "'lotsize' is not a key of a plan source (did you mean lot_size?)",
+            "'lotsize' is not a key of a plan source; did you mean lot_size?",
         ))
         .stdout(predicate::str::contains("line 15"))
         .stdout(predicate::str::contains("\"status\": \"match\""));

@@ -239,14 +239,13 @@ fn say(path: Option<&str>, core: &str, text: &str, file: &Path, line: Option<usi
             Some(f) => format!("under {f}"),
             None => "of a plan source".into(),
         };
-        let keys = if names.is_empty() {
-            String::new()
-        } else {
-            format!("; the keys there are {}", names.join(", "))
+        // The nearest key when one is near, else every key there is.
+        let hint = match closest(given, &names) {
+            Some(n) => format!("; did you mean {n}?"),
+            None if names.is_empty() => String::new(),
+            None => format!("; the keys there are {}", names.join(", ")),
         };
-        let guess =
-            closest(given, &names).map_or(String::new(), |n| format!(" (did you mean {n}?)"));
-        return format!("'{given}' is not a key {place}{guess}{keys}").into();
+        return format!("'{given}' is not a key {place}{hint}").into();
     }
     if let Some(rest) = core.strip_prefix("missing field `") {
         let key = rest.split('`').next().unwrap_or(rest);
@@ -443,7 +442,7 @@ mod tests {
             ),
             (
                 &BASE.replace("model:", "modell:"),
-                "line 4: 'modell' is not a key of a plan source (did you mean model?); the keys there are schema, title,",
+                "line 4: 'modell' is not a key of a plan source; did you mean model?",
             ),
             (
                 &BASE.replace("producer:\n  quality: 0.01\n  risk: 0.05\n", ""),
