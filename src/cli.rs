@@ -231,6 +231,10 @@ pub struct EvaluateArgs {
     /// Evenly spaced qualities LO:HI:COUNT (0.5%:8%:50)
     #[arg(long, value_name = "LO:HI:COUNT", allow_hyphen_values = true)]
     pub range: Option<String>,
+    /// Evaluate a recorded plan that differs from a re-solve or no longer meets its risk
+    /// points, the discrepancy stated in the output (without it, such a source is refused)
+    #[arg(long, requires = "sources")]
+    pub accept_recorded: bool,
     /// Output format
     #[arg(long, value_enum, default_value = "table")]
     pub format: ReportFormatArg,
@@ -285,6 +289,10 @@ pub struct JudgeArgs {
     /// Units inspected so far, for one cumulative --found count (item-by-item plans)
     #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub inspected: Option<String>,
+    /// Decide by a recorded plan that differs from a re-solve or no longer meets its risk
+    /// points, the discrepancy stated beside the decision (without it, such a source is refused)
+    #[arg(long)]
+    pub accept_recorded: bool,
     /// Output format
     #[arg(long, value_enum, default_value = "text")]
     pub format: JudgeFormat,

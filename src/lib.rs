@@ -114,8 +114,8 @@ pub use sheet::{
     source_hash, write_sheet,
 };
 pub use source::{
-    Audit, Difference, Discrepancy, MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES, PlanSource, PointSource,
-    RISK_TOLERANCE, RecordedPlan, RecordedVariables, SCHEMA_VERSION, UnmetPoint, VariablesSource,
-    Verdict, audit, tool_version, verify,
+    Audit, Audited, Difference, Discrepancy, MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES, PlanSource,
+    PointSource, RISK_TOLERANCE, RecordedPlan, RecordedVariables, SCHEMA_VERSION, UnmetPoint,
+    VariablesSource, Verdict, audit, tool_version, verify,
 };
 pub use templates::{TEMPLATES, template, template_kinds};

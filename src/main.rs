@@ -543,14 +543,16 @@ fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
         [one] if !one.is_dir() => {
             let qualities = asked_qualities(&args)?;
             let mut text = Vec::new();
-            match evaluate_source(one, &qualities)? {
+            let evaluation = evaluate_source(one, &qualities, args.accept_recorded)?;
+            match &evaluation {
                 SourceEvaluation::Attributes(r) => {
-                    formatter(args.format).evaluation(&mut text, &r)?
+                    formatter(args.format).evaluation(&mut text, r)?
                 }
                 SourceEvaluation::Variables(r) => {
-                    formatter(args.format).variables_evaluation(&mut text, &r)?
+                    formatter(args.format).variables_evaluation(&mut text, r)?
                 }
             }
+            warn_accepted(one, evaluation.accepted_recorded(), EVALUATED_AS_RECORDED);
             print_out(&text)?;
             Ok(ExitCode::SUCCESS)
         }
@@ -603,10 +605,16 @@ fn evaluate_batch_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
     let results = run_batch(&found, "sources evaluated", |entry| match entry {
         Ok(s) => EvaluationEntry::new(
             s.path.display().to_string(),
-            evaluate_source(&s.path, &qualities).map_err(|e| e.to_string()),
+            evaluate_source(&s.path, &qualities, args.accept_recorded).map_err(|e| e.to_string()),
         ),
         Err(e) => EvaluationEntry::new(e.path().display().to_string(), Err(e.to_string())),
     });
+    for e in &results {
+        if let Some(evaluation) = &e.evaluation {
+            let accepted = evaluation.accepted_recorded();
+            warn_accepted(Path::new(&e.path), accepted, EVALUATED_AS_RECORDED);
+        }
+    }
     let report = EvaluationBatchReport { results };
     let mut text = Vec::new();
     formatter(args.format).evaluations(&mut text, &report)?;
@@ -731,7 +739,9 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
 const MAX_MEASUREMENTS_BYTES: u64 = 10 << 20;
 
 fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode, Error> {
-    let (_, request, plan) = PlanSource::load_with_variables_plan(&args.source)?;
+    let (audited, request, plan) =
+        PlanSource::load_with_variables_plan(&args.source, args.accept_recorded)?;
+    let accepted = audited.accepted.map(|d| d.to_string());
     let io = |e: std::io::Error| SourceError::Io {
         path: csv.to_path_buf(),
         source: e,
@@ -747,11 +757,9 @@ fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode,
     let j = judge_measurements(&plan, &values, request.risks().producer().quality)?;
     j.check()?;
     let text = match args.format {
-        cli::JudgeFormat::Json => {
-            serde_json::to_string_pretty(&j).map_err(std::io::Error::other)? + "\n"
-        }
+        cli::JudgeFormat::Json => judgement_json(&j, accepted.as_deref())?,
         cli::JudgeFormat::Text => {
-            let mut t = String::new();
+            let mut t = accepted_line(accepted.as_deref());
             for w in &j.warnings {
                 t.push_str(&format!("WARNING: {w}\n"));
             }
@@ -817,6 +825,7 @@ fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode,
             t
         }
     };
+    warn_accepted(&args.source, accepted.as_deref(), DECIDED_AS_RECORDED);
     print_out(text.as_bytes())?;
     Ok(ExitCode::SUCCESS)
 }
@@ -825,7 +834,8 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
     if let Some(csv) = &args.measurements {
         return judge_measurements_cmd(&args, csv);
     }
-    let (_, request, plan) = PlanSource::load_with_plan(&args.source)?;
+    let (audited, request, plan) = PlanSource::load_with_plan(&args.source, args.accept_recorded)?;
+    let accepted = audited.accepted.map(|d| d.to_string());
     let found = args
         .found
         .iter()
@@ -850,9 +860,7 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
     };
     let item_by_item = plan.sequential_lines().is_some();
     let text = match args.format {
-        cli::JudgeFormat::Json => {
-            serde_json::to_string_pretty(&j).map_err(std::io::Error::other)? + "\n"
-        }
+        cli::JudgeFormat::Json => judgement_json(&j, accepted.as_deref())?,
         cli::JudgeFormat::Text => {
             let rule = match j.decision {
                 Decision::Accept => format!(
@@ -880,7 +888,8 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
             };
             let place = if item_by_item { "item" } else { "stage" };
             format!(
-                "{verdict}\n  {place} {}: {} units inspected in all, cumulative count {rule}\n  plan {} from {}\n",
+                "{}{verdict}\n  {place} {}: {} units inspected in all, cumulative count {rule}\n  plan {} from {}\n",
+                accepted_line(accepted.as_deref()),
                 j.stage,
                 j.inspected,
                 plan,
@@ -888,6 +897,7 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
             )
         }
     };
+    warn_accepted(&args.source, accepted.as_deref(), DECIDED_AS_RECORDED);
     print_out(text.as_bytes())?;
     Ok(ExitCode::SUCCESS)
 }
@@ -913,7 +923,8 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
             }
         };
         let accepted = write_one_sheet(source, &out, &options, output_dir.is_some())?;
-        warn_accepted(source, accepted.as_ref());
+        let accepted = accepted.map(|d| d.to_string());
+        warn_accepted(source, accepted.as_deref(), PRINTED_AS_RECORDED);
         eprintln!("lotsman: wrote sheet {}", out.display());
         return Ok(ExitCode::SUCCESS);
     }
@@ -938,7 +949,8 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
         let shown = path.display().to_string();
         match result {
             Ok(accepted) => {
-                warn_accepted(path, accepted.as_ref());
+                let accepted = accepted.as_ref().map(|d| d.to_string());
+                warn_accepted(path, accepted.as_deref(), PRINTED_AS_RECORDED);
                 summary.push(&shown, Outcome::Ok, "");
             }
             Err(message) => summary.push(&shown, Outcome::Invalid, message),
@@ -948,15 +960,39 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
     Ok(exit_code(summary.worst()))
 }
 
-/// The warning on stderr for a sheet printed with a discrepancy at the
-/// user's request: the sheet states it, and so does the terminal.
-fn warn_accepted(source: &Path, accepted: Option<&Discrepancy>) {
+/// What was done with a recorded plan used at the user's request although
+/// the audit does not confirm it, for [`warn_accepted`].
+const PRINTED_AS_RECORDED: &str =
+    "printed as recorded (--accept-recorded), with the discrepancy stated on the sheet";
+const EVALUATED_AS_RECORDED: &str =
+    "evaluated as recorded (--accept-recorded), with the discrepancy stated in the report";
+const DECIDED_AS_RECORDED: &str = "the lot is decided by the plan as recorded (--accept-recorded), with the discrepancy stated beside the decision";
+
+/// The warning on stderr for a recorded plan used with a discrepancy at
+/// the user's request (`done` says how): the output states it, and so
+/// does the terminal.
+fn warn_accepted(source: &Path, accepted: Option<&str>, done: &str) {
     if let Some(d) = accepted {
-        eprintln!(
-            "lotsman: warning: {}: {d}; printed as recorded (--accept-recorded), with the discrepancy stated on the sheet",
-            source.display()
-        );
+        eprintln!("lotsman: warning: {}: {d}; {done}", source.display());
     }
+}
+
+/// The first line of a decision by a plan used as recorded although the
+/// audit does not confirm it; empty otherwise.
+fn accepted_line(accepted: Option<&str>) -> String {
+    accepted.map_or(String::new(), |d| {
+        format!("DECIDED BY THE PLAN AS RECORDED (--accept-recorded): {d}\n")
+    })
+}
+
+/// A judgement as JSON, with the discrepancy of a plan used as recorded
+/// under `accepted_recorded`.
+fn judgement_json(j: &impl serde::Serialize, accepted: Option<&str>) -> Result<String, Error> {
+    let mut value = serde_json::to_value(j).map_err(std::io::Error::other)?;
+    if let (Some(d), serde_json::Value::Object(map)) = (accepted, &mut value) {
+        map.insert("accepted_recorded".into(), d.into());
+    }
+    Ok(serde_json::to_string_pretty(&value).map_err(std::io::Error::other)? + "\n")
 }
 
 /// Writes the sheet of `source` to `target`, never over the source itself;

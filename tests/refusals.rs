@@ -1636,3 +1636,80 @@ fn a_read_only_folder_is_named_in_the_refusal() {
     }
     assert!(std::fs::read_dir(&locked).unwrap().next().is_none());
 }
+
+/// Judge and evaluate on a source that no longer verifies (issue 14,
+/// item 7): a recorded plan edited by hand, which a re-solve and the
+/// recorded risk points no longer confirm, is refused naming the field and
+/// both values, as `sheet` refuses it; in a batch it is that source's
+/// failure. `--accept-recorded` is the way to use it anyway (tested in
+/// tests/audit.rs).
+#[test]
+fn judge_and_evaluate_on_a_source_that_no_longer_verifies_are_refused() {
+    let fx = Fixtures::new();
+    let seal = std::fs::read_to_string("plans/tpw-seal-visual.yaml").unwrap();
+    let cover = std::fs::read_to_string("plans/tpw-cover-thickness.yaml").unwrap();
+    std::fs::write(
+        fx.path("n-edited.yaml"),
+        seal.replacen("n: 166", "n: 150", 1),
+    )
+    .unwrap();
+    std::fs::write(
+        fx.path("k-edited.yaml"),
+        cover.replacen("k: 1.901", "k: 1.7", 1),
+    )
+    .unwrap();
+    std::fs::create_dir(fx.path("folder")).unwrap();
+    std::fs::write(fx.path("folder/a.yaml"), &seal).unwrap();
+    std::fs::write(
+        fx.path("folder/b.yaml"),
+        seal.replacen("n: 166", "n: 150", 1),
+    )
+    .unwrap();
+    let cases = vec![
+        refused(
+            "judge, a single plan with its n edited",
+            &["judge", "@n-edited.yaml", "--found", "2"],
+            "recorded 150, re-solved 166",
+        ),
+        refused(
+            "judge, the advice names the way out",
+            &["judge", "@n-edited.yaml", "--found", "2"],
+            "or use the plan as recorded with --accept-recorded",
+        ),
+        refused(
+            "judge, a variables plan with its k edited",
+            &[
+                "judge",
+                "@k-edited.yaml",
+                "--measurements",
+                "plans/tpw-cover-thickness-readings.csv",
+                "--column",
+                "thickness_mm",
+            ],
+            "plan.variables.k: recorded 1.7, re-solved 1.901",
+        ),
+        refused(
+            "evaluate, a single plan with its n edited",
+            &["evaluate", "@n-edited.yaml"],
+            "recorded 150, re-solved 166",
+        ),
+        refused(
+            "evaluate, a variables plan with its k edited",
+            &["evaluate", "@k-edited.yaml", "--format", "json"],
+            "plan.variables.k: recorded 1.7, re-solved 1.901",
+        ),
+        reported(
+            "evaluate, a folder: the edited source is that source's failure",
+            &["evaluate", "@folder"],
+            2,
+            "1 evaluated, 1 invalid",
+        ),
+        reported(
+            "evaluate, a folder: the failure names the field",
+            &["evaluate", "@folder", "--at", "1%"],
+            2,
+            "recorded 150, re-solved 166",
+        ),
+    ];
+    run_in(&fx, "judge on a source that no longer verifies", &cases);
+}

@@ -36,7 +36,9 @@ use crate::plan::{
 };
 use crate::report::{EvaluationReport, format_quality, format_significant, words};
 use crate::risk::RiskPair;
-use crate::source::{Discrepancy, PlanSource, RecordedPlan, attributes_risks, audit, tool_version};
+use crate::source::{
+    Audited, Discrepancy, PlanSource, RecordedPlan, attributes_risks, tool_version,
+};
 use canvas::{BOLD_ID, Canvas, Face, MM_PER_PT, Page, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
 pub use heatmap::{
@@ -237,7 +239,7 @@ pub fn render_sheet(
     render(text, source, file_name, paper, None)
 }
 
-/// [`render_sheet`] for a recorded plan that the [`audit`] did not confirm,
+/// [`render_sheet`] for a recorded plan that the [`audit`](crate::audit) did not confirm,
 /// printed at the user's request: a boxed notice above the plan states the
 /// `discrepancy` and that the plan is printed as recorded, and the
 /// provenance line's command carries `--accept-recorded`.
@@ -2007,7 +2009,7 @@ fn footer(c: &mut Canvas, f: &Common, frame: Frame, foot_h: f64, caution: &str, 
 pub struct SheetOptions {
     /// Paper size.
     pub paper: Paper,
-    /// Print a recorded plan that the [`audit`] does not confirm, with the
+    /// Print a recorded plan that the [`audit`](crate::audit) does not confirm, with the
     /// discrepancy stated on the page ([`render_sheet_noting`]), instead of
     /// refusing it (`--accept-recorded`).
     pub accept_recorded: bool,
@@ -2016,7 +2018,7 @@ pub struct SheetOptions {
 }
 
 /// Reads the source at `source_path`, audits its recorded plan (see
-/// [`audit`]), renders its sheet and writes it atomically to `target`.
+/// [`audit`](crate::audit)), renders its sheet and writes it atomically to `target`.
 /// Returns the discrepancy that a sheet printed with
 /// [`SheetOptions::accept_recorded`] states, for the caller to report too.
 ///
@@ -2033,27 +2035,22 @@ pub fn write_sheet(
     target: &std::path::Path,
     options: &SheetOptions,
 ) -> Result<Option<Discrepancy>, Error> {
-    let text = PlanSource::read_text(source_path)?;
-    let source = PlanSource::from_yaml(&text, source_path)?;
+    let audited = Audited::load(source_path, options.accept_recorded)?;
     let name = source_path
         .file_name()
         .map_or_else(|| "source.yaml".into(), |n| n.to_string_lossy().to_string());
-    let discrepancy = audit(&source, source_path)?.discrepancy;
-    let sheet = match &discrepancy {
-        None => render_sheet(&text, &source, &name, options.paper)?,
-        Some(d) if options.accept_recorded => {
-            render_sheet_noting(&text, &source, &name, options.paper, d)?
-        }
-        Some(d) => {
-            return Err(crate::error::SourceError::Unconfirmed {
-                path: source_path.to_path_buf(),
-                discrepancy: d.clone(),
-            }
-            .into());
-        }
-    };
+    let sheet = audited_sheet(&audited, &name, options.paper)?;
     write_atomic(target, &sheet.pdf, options.overwrite)?;
-    Ok(discrepancy)
+    Ok(audited.accepted)
+}
+
+/// The sheet of an audited source, printed from the file `name`: with the
+/// notice of its discrepancy when it is used as recorded.
+fn audited_sheet(audited: &Audited, name: &str, paper: Paper) -> Result<Sheet, Error> {
+    match &audited.accepted {
+        None => render_sheet(&audited.text, &audited.source, name, paper),
+        Some(d) => render_sheet_noting(&audited.text, &audited.source, name, paper, d),
+    }
 }
 
 /// The source hash recorded in a sheet's metadata, if any.

@@ -208,6 +208,58 @@ pub fn audit(source: &PlanSource, path: &Path) -> Result<Audit, Error> {
     })
 }
 
+/// A source read once and audited, as the commands that use its recorded
+/// plan (`sheet`, `judge`, `evaluate`) take it: the text (which a sheet
+/// hashes), the parsed source, and the discrepancy it is used with at the
+/// user's request (`--accept-recorded`), if any.
+#[derive(Clone, Debug)]
+pub struct Audited {
+    /// The source's text as read.
+    pub text: String,
+    /// The parsed source.
+    pub source: PlanSource,
+    /// What the audit found, when the plan is used as recorded although
+    /// the audit does not confirm it; `None` when it is confirmed.
+    pub accepted: Option<Discrepancy>,
+}
+
+impl Audited {
+    /// Reads the source at `path` once, parses it and [`audit`]s its
+    /// recorded plan. A plan the audit does not confirm is refused, unless
+    /// `accept_recorded` is set: it is then kept with its discrepancy, for
+    /// the caller to state in its output.
+    ///
+    /// ```
+    /// use lotsman::Audited;
+    /// let path = std::path::Path::new("plans/tpw-seal-visual.yaml");
+    /// let audited = Audited::load(path, false).unwrap();
+    /// assert_eq!(audited.accepted, None);
+    /// ```
+    ///
+    /// # Errors
+    /// As [`PlanSource::load`] and [`audit`];
+    /// [`SourceError::Unconfirmed`], naming the first differing field with
+    /// both values, when the audit finds a discrepancy and
+    /// `accept_recorded` is off.
+    pub fn load(path: &Path, accept_recorded: bool) -> Result<Self, Error> {
+        let text = PlanSource::read_text(path)?;
+        let source = PlanSource::from_yaml(&text, path)?;
+        let accepted = audit(&source, path)?.discrepancy;
+        match accepted {
+            Some(discrepancy) if !accept_recorded => Err(SourceError::Unconfirmed {
+                path: path.to_path_buf(),
+                discrepancy,
+            }
+            .into()),
+            accepted => Ok(Audited {
+                text,
+                source,
+                accepted,
+            }),
+        }
+    }
+}
+
 /// The producer's and consumer's risks of an attributes plan at the
 /// points, by the exact recursion every designer reports them with.
 pub(crate) fn attributes_risks(plan: &StagedPlan, model: &Model, risks: &RiskPair) -> (f64, f64) {

@@ -9,7 +9,7 @@ mod verify;
 
 use std::path::Path;
 
-pub use audit::{Audit, Discrepancy, UnmetPoint, audit};
+pub use audit::{Audit, Audited, Discrepancy, UnmetPoint, audit};
 pub(crate) use audit::{attributes_risks, variables_risks};
 pub use schema::{
     PlanSource, PointSource, RecordedPlan, RecordedVariables, SCHEMA_VERSION, VariablesSource,
@@ -19,7 +19,7 @@ pub use verify::{Difference, RISK_TOLERANCE, Verdict, verify};
 use crate::design::{
     DesignRequest, Scheme, SchemeOptions, Solution, VariablesRequest, VariablesSolution,
 };
-use crate::error::{InputError, SourceError};
+use crate::error::{Error, InputError, SourceError};
 use crate::model::Model;
 use crate::plan::{Specification, StagedPlan, VariablesPlan};
 use crate::risk::{RiskPair, RiskPoint};
@@ -125,21 +125,28 @@ impl PlanSource {
         })
     }
 
-    /// Loads a source that must record a plan, with its request and its
-    /// validated plan: what `evaluate FILE` and `judge FILE` start from.
+    /// Loads and audits a source that must record a plan ([`Audited::load`]),
+    /// with its request and its validated plan: what `evaluate FILE` and
+    /// `judge FILE` start from.
     ///
     /// # Errors
-    /// As [`PlanSource::load`]; [`SourceError::Invalid`] when the source
+    /// As [`Audited::load`]; [`SourceError::Invalid`] when the source
     /// records no plan or an invalid one.
-    pub fn load_with_plan(path: &Path) -> Result<(Self, DesignRequest, StagedPlan), SourceError> {
-        let source = Self::load(path)?;
+    pub fn load_with_plan(
+        path: &Path,
+        accept_recorded: bool,
+    ) -> Result<(Audited, DesignRequest, StagedPlan), Error> {
+        let audited = Audited::load(path, accept_recorded)?;
         let invalid = |e| SourceError::Invalid {
             path: path.to_path_buf(),
             source: e,
         };
-        let request = source.request().map_err(invalid)?;
-        let plan = source.recorded_plan(&request.model).map_err(invalid)?;
-        Ok((source, request, plan))
+        let request = audited.source.request().map_err(invalid)?;
+        let plan = audited
+            .source
+            .recorded_plan(&request.model)
+            .map_err(invalid)?;
+        Ok((audited, request, plan))
     }
 
     /// Whether the source describes a variables plan.
@@ -290,25 +297,28 @@ impl PlanSource {
         }
     }
 
-    /// Loads a variables source that must record a plan, with its request
-    /// and validated plan: what `evaluate FILE` and `judge FILE` start from.
+    /// Loads and audits a variables source that must record a plan
+    /// ([`Audited::load`]), with its request and validated plan: what
+    /// `evaluate FILE` and `judge FILE` start from.
     ///
     /// # Errors
-    /// As [`PlanSource::load`]; [`SourceError::Invalid`] when the source
+    /// As [`Audited::load`]; [`SourceError::Invalid`] when the source
     /// records no plan or an invalid one.
     pub fn load_with_variables_plan(
         path: &Path,
-    ) -> Result<(Self, VariablesRequest, VariablesPlan), SourceError> {
-        let source = Self::load(path)?;
+        accept_recorded: bool,
+    ) -> Result<(Audited, VariablesRequest, VariablesPlan), Error> {
+        let audited = Audited::load(path, accept_recorded)?;
         let invalid = |e| SourceError::Invalid {
             path: path.to_path_buf(),
             source: e,
         };
-        let request = source.variables_request().map_err(invalid)?;
-        let plan = source
+        let request = audited.source.variables_request().map_err(invalid)?;
+        let plan = audited
+            .source
             .recorded_variables_plan(request.spec())
             .map_err(invalid)?;
-        Ok((source, request, plan))
+        Ok((audited, request, plan))
     }
 
     /// The recorded variables plan, validated for `spec`.
