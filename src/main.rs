@@ -31,14 +31,14 @@ use lotsman::{
     EvaluationBatchReport, EvaluationEntry, EvaluationReport, InputError, Json, LimitKind,
     MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Overwrite, Paper, PlanSource,
     Protection, QualityRange, RectifyingReport, RectifyingRequest, ReportFormat, RiskPair,
-    RiskPoint, Scheme, SchemeOptions, SheetOptions, SigmaKind, SourceError, SourceEvaluation,
-    SourceFile, Specification, StagedPlan, Steps, Table, TradeoffReport, TradeoffRequest,
-    VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry, VerifyStatus,
-    default_qualities, design_rectifying, evaluate, evaluate_source, expand_paths, judge,
-    judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_fraction_list,
-    parse_measurements, parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo,
-    run_in_parallel, sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve,
-    solve_variables, source_hash, template, template_kinds, tradeoff, verify_file, write_atomic,
+    RiskPoint, Scheme, SchemeOptions, SheetOptions, SheetVerdict, SigmaKind, SourceError,
+    SourceEvaluation, SourceFile, Specification, StagedPlan, Steps, Table, TradeoffReport,
+    TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry,
+    VerifyStatus, check_sheet, default_qualities, design_rectifying, evaluate, evaluate_source,
+    expand_paths, judge, judge_cumulative, judge_measurements, parse_count, parse_fraction,
+    parse_fraction_list, parse_measurements, parse_number, parse_stage, read_limited,
+    render_tradeoff_map, run_demo, run_in_parallel, sensitivity, sheet_target, sheet_targets,
+    solve, solve_variables, template, template_kinds, tradeoff, verify_file, write_atomic,
     write_sheet,
 };
 use progress::Progress;
@@ -653,38 +653,31 @@ fn exit_code(worst: Outcome) -> ExitCode {
     }
 }
 
-/// The largest sheet read by `verify --sheet` (16 MiB; a sheet is about
-/// 100 kB), refused by size first.
-const MAX_SHEET_BYTES: u64 = 16 << 20;
-
-/// Checks that the sheet at `pdf` carries the hash of the source at `source`.
-fn check_sheet(entry: &mut VerifyEntry, source: &Path, pdf: &Path) {
-    let recorded = read_limited(pdf, MAX_SHEET_BYTES, "a plan sheet")
-        .map_err(|e| e.to_string())
-        .and_then(|b| sheet_source_hash(&b));
-    let actual = PlanSource::read_text(source).map(|t| source_hash(&t));
-    let invalid = |entry: &mut VerifyEntry, message: String| {
-        entry.status = VerifyStatus::Invalid;
-        entry.message = Some(message);
-    };
-    match (recorded, actual) {
-        (Ok(Some(r)), Ok(a)) if r == a => {}
-        (Ok(Some(r)), Ok(a)) => {
+/// Checks that the sheet at `pdf` is the sheet this tool prints from the
+/// source at `source` (see [`check_sheet`]): a forged or foreign sheet
+/// makes the entry a mismatch, an unreadable one invalid.
+fn check_sheet_entry(entry: &mut VerifyEntry, source: &Path, pdf: &Path) {
+    match check_sheet(source, pdf) {
+        SheetVerdict::Genuine => {}
+        SheetVerdict::Foreign { reason, hashes } => {
             if entry.status == VerifyStatus::Match {
                 entry.status = VerifyStatus::Mismatch;
             }
-            entry.differences.push(lotsman::Difference {
-                field: format!("sheet {} source SHA-256", pdf.display()),
-                recorded: r,
-                resolved: a,
-            });
+            if let Some((recorded, resolved)) = hashes {
+                entry.differences.push(lotsman::Difference {
+                    field: format!("sheet {} source SHA-256", pdf.display()),
+                    recorded,
+                    resolved,
+                });
+            }
+            if entry.message.is_none() {
+                entry.message = Some(reason);
+            }
         }
-        (Ok(None), _) => invalid(
-            entry,
-            format!("{}: not a lotsman sheet (no source hash)", pdf.display()),
-        ),
-        (Err(e), _) => invalid(entry, format!("{}: {e}", pdf.display())),
-        (_, Err(e)) => invalid(entry, e.to_string()),
+        SheetVerdict::Unreadable(message) => {
+            entry.status = VerifyStatus::Invalid;
+            entry.message = Some(message);
+        }
     }
 }
 
@@ -723,7 +716,7 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
         },
     });
     for ((entry, source), pdf) in results.iter_mut().zip(&args.sources).zip(&args.sheet) {
-        check_sheet(entry, source, pdf);
+        check_sheet_entry(entry, source, pdf);
     }
     let report = VerificationReport {
         results,

@@ -1713,3 +1713,70 @@ fn judge_and_evaluate_on_a_source_that_no_longer_verifies_are_refused() {
     ];
     run_in(&fx, "judge on a source that no longer verifies", &cases);
 }
+
+/// A forged sheet (issue 14, item 9): `verify --sheet` prints the sheet
+/// again from the source and compares the bytes, so neither a PDF made by
+/// hand that carries the source's hash nor another plan's real sheet with
+/// its subject swapped passes; each is a mismatch (exit 1) that says the
+/// sheet does not come from this source and names the version the sheet
+/// claims. A PDF that is no lotsman sheet at all is invalid (exit 2).
+#[test]
+fn forged_sheets_are_caught_by_verify() {
+    let fx = Fixtures::new();
+    let fit = "plans/tpw-cover-fit.yaml";
+    let hash = lotsman::source_hash(&std::fs::read_to_string(fit).unwrap());
+    std::fs::write(
+        fx.path("hand-made.pdf"),
+        common::hand_made_sheet(&hash, false),
+    )
+    .unwrap();
+    std::fs::write(
+        fx.path("hand-made-letter.pdf"),
+        common::hand_made_sheet(&hash, true),
+    )
+    .unwrap();
+    let seal = fx.path("seal.pdf");
+    lotsman()
+        .args(["sheet", "plans/tpw-seal-visual.yaml", "--output"])
+        .arg(&seal)
+        .assert()
+        .success();
+    let subject = format!("{}{hash}", lotsman::HASH_PREFIX);
+    let swapped = common::with_info(&std::fs::read(&seal).unwrap(), "Subject", &subject);
+    std::fs::write(fx.path("swapped.pdf"), swapped).unwrap();
+    std::fs::write(fx.path("not-a-sheet.pdf"), b"%PDF-1.7\nnothing here\n").unwrap();
+    let claim = "the sheet does not come from this source (or this tool version)";
+    let cases = vec![
+        reported(
+            "a hand-made PDF carrying the source's hash",
+            &["verify", fit, "--sheet", "@hand-made.pdf"],
+            1,
+            claim,
+        ),
+        reported(
+            "a hand-made Letter PDF carrying the source's hash",
+            &["verify", fit, "--sheet", "@hand-made-letter.pdf"],
+            1,
+            claim,
+        ),
+        reported(
+            "the verdict names the version the forgery claims",
+            &["verify", fit, "--sheet", "@hand-made.pdf"],
+            1,
+            "the sheet says it was made by lotsman",
+        ),
+        reported(
+            "another plan's sheet with its subject swapped",
+            &["verify", fit, "--sheet", "@swapped.pdf"],
+            1,
+            claim,
+        ),
+        reported(
+            "a file that is no PDF",
+            &["verify", fit, "--sheet", "@not-a-sheet.pdf"],
+            2,
+            "not a readable PDF",
+        ),
+    ];
+    run_in(&fx, "forged sheet", &cases);
+}

@@ -907,3 +907,170 @@ fn variables_sheets_are_deterministic_and_the_cli_writes_them() {
         .success();
     assert_eq!(std::fs::read(&pdf).unwrap(), a.pdf);
 }
+
+/// `verify --sheet` on `pdf` (bytes written to a file) against `source`:
+/// the exit code and stdout.
+fn verify_sheet(source: &str, pdf: &[u8], extra: &[&str]) -> (i32, String) {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("sheet.pdf");
+    std::fs::write(&path, pdf).unwrap();
+    let out = Command::cargo_bin("lotsman")
+        .unwrap()
+        .args(["verify", source, "--sheet", path.to_str().unwrap()])
+        .args(extra)
+        .output()
+        .unwrap();
+    (
+        out.status.code().unwrap(),
+        String::from_utf8(out.stdout).unwrap(),
+    )
+}
+
+#[test]
+fn verify_passes_a_genuine_sheet_on_either_paper_and_catches_forged_ones() {
+    let dir = tempfile::tempdir().unwrap();
+    let text = std::fs::read_to_string(DEMO).unwrap();
+    let hash = source_hash(&text);
+    let version = format!("lotsman {}", env!("CARGO_PKG_VERSION"));
+    for (paper, letter) in [("a4", false), ("letter", true)] {
+        let genuine = dir.path().join(format!("seal-{paper}.pdf"));
+        Command::cargo_bin("lotsman")
+            .unwrap()
+            .args(["sheet", DEMO, "--paper", paper, "--output"])
+            .arg(&genuine)
+            .assert()
+            .success();
+        let genuine = std::fs::read(&genuine).unwrap();
+        assert_eq!(verify_sheet(DEMO, &genuine, &[]).0, 0, "{paper}");
+
+        // A PDF made by hand that carries the source's hash.
+        let forged = common::hand_made_sheet(&hash, letter);
+        assert!(forged.len() < 1000, "{} bytes", forged.len());
+        assert_eq!(sheet_source_hash(&forged).unwrap(), Some(hash.clone()));
+        // Another plan's real sheet, its subject swapped for this hash.
+        let other = dir.path().join(format!("fit-{paper}.pdf"));
+        Command::cargo_bin("lotsman")
+            .unwrap()
+            .args([
+                "sheet",
+                "plans/tpw-cover-fit.yaml",
+                "--paper",
+                paper,
+                "--output",
+            ])
+            .arg(&other)
+            .assert()
+            .success();
+        let swapped = common::with_info(
+            &std::fs::read(&other).unwrap(),
+            "Subject",
+            &format!("{}{hash}", lotsman::HASH_PREFIX),
+        );
+        // The genuine sheet with its bytes touched: one more space in the
+        // title of its metadata.
+        let touched = common::with_info(&genuine, "Title", &format!("{} ", source_title()));
+        for (what, pdf) in [
+            ("hand-made", &forged),
+            ("subject swapped", &swapped),
+            ("touched", &touched),
+        ] {
+            let (code, out) = verify_sheet(DEMO, pdf, &[]);
+            assert_eq!(code, 1, "{paper} {what}: {out}");
+            assert!(
+                out.contains("the sheet does not come from this source (or this tool version)")
+                    && out.contains(&format!("the sheet says it was made by {version}")),
+                "{paper} {what}: {out}"
+            );
+        }
+    }
+}
+
+/// The demo source's title, as its sheet's metadata holds it.
+fn source_title() -> String {
+    demo_source().1.title
+}
+
+#[test]
+fn verify_names_the_tool_version_a_foreign_sheet_says_it_came_from() {
+    let dir = tempfile::tempdir().unwrap();
+    let pdf = dir.path().join("seal.pdf");
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .args(["sheet", DEMO, "--output"])
+        .arg(&pdf)
+        .assert()
+        .success();
+    let older = common::with_info(&std::fs::read(&pdf).unwrap(), "Creator", "lotsman 0.0.9");
+    let (code, out) = verify_sheet(DEMO, &older, &["--format", "json"]);
+    assert_eq!(code, 1, "{out}");
+    let value: serde_json::Value = serde_json::from_str(&out).unwrap();
+    let message = value["results"][0]["message"].as_str().unwrap();
+    assert!(
+        message.contains("the sheet does not come from this source (or this tool version)")
+            && message.contains(&format!(
+                "the sheet says it was made by lotsman 0.0.9; this is lotsman {}",
+                env!("CARGO_PKG_VERSION")
+            )),
+        "{message}"
+    );
+    assert_eq!(value["results"][0]["status"], "mismatch");
+}
+
+#[test]
+fn a_sheet_printed_as_recorded_or_from_a_renamed_source_still_verifies_as_its_sheet() {
+    let dir = tempfile::tempdir().unwrap();
+    let edited = dir.path().join("edited.yaml");
+    let text = std::fs::read_to_string(DEMO).unwrap();
+    std::fs::write(&edited, text.replacen("n: 166", "n: 150", 1)).unwrap();
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .arg("sheet")
+        .arg(&edited)
+        .args(["--accept-recorded", "--paper", "letter"])
+        .assert()
+        .success();
+    let pdf = std::fs::read(edited.with_extension("pdf")).unwrap();
+    // The source itself mismatches (n edited); the sheet is its sheet.
+    let (code, out) = verify_sheet(edited.to_str().unwrap(), &pdf, &[]);
+    assert_eq!(code, 1, "{out}");
+    assert!(out.contains("recorded 150, re-solved 166"), "{out}");
+    assert!(!out.contains("does not come from"), "{out}");
+    // The footer names the file printed from; a copy under another name
+    // is still the source of that sheet.
+    let renamed = dir.path().join("renamed.yaml");
+    std::fs::copy(DEMO, &renamed).unwrap();
+    let genuine = dir.path().join("g.pdf");
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .args(["sheet", DEMO, "--output"])
+        .arg(&genuine)
+        .assert()
+        .success();
+    let (code, out) = verify_sheet(
+        renamed.to_str().unwrap(),
+        &std::fs::read(&genuine).unwrap(),
+        &[],
+    );
+    assert_eq!(code, 0, "{out}");
+}
+
+#[test]
+fn verify_passes_the_genuine_sheet_of_every_kind_of_plan() {
+    let dir = tempfile::tempdir().unwrap();
+    for source in [
+        DOUBLE,
+        SEQUENTIAL,
+        MULTIPLE,
+        "plans/tpw-cover-thickness.yaml",
+    ] {
+        let pdf = dir.path().join("s.pdf");
+        Command::cargo_bin("lotsman")
+            .unwrap()
+            .args(["sheet", source, "--force", "--output"])
+            .arg(&pdf)
+            .assert()
+            .success();
+        let (code, out) = verify_sheet(source, &std::fs::read(&pdf).unwrap(), &[]);
+        assert_eq!(code, 0, "{source}: {out}");
+    }
+}

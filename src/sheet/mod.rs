@@ -18,6 +18,7 @@
 
 mod canvas;
 mod chart;
+mod check;
 mod heatmap;
 mod text;
 mod variables;
@@ -41,6 +42,7 @@ use crate::source::{
 };
 use canvas::{BOLD_ID, Canvas, Face, MM_PER_PT, Page, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
+pub use check::{MAX_SHEET_BYTES, SOURCE_NAME_KEY, SheetVerdict, check_sheet};
 pub use heatmap::{
     ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map,
 };
@@ -62,6 +64,14 @@ impl Paper {
         match self {
             Paper::A4 => (210.0, 297.0),
             Paper::Letter => (215.9, 279.4),
+        }
+    }
+
+    /// The paper's name, as messages give it.
+    pub fn name(self) -> &'static str {
+        match self {
+            Paper::A4 => "A4",
+            Paper::Letter => "Letter",
         }
     }
 }
@@ -374,7 +384,8 @@ fn embedded_fonts() -> Result<(printpdf::ParsedFont, printpdf::ParsedFont), Inpu
 }
 
 /// The PDF of one page of `ops`, with the fonts, the source hash in the
-/// subject and the document ID set from it.
+/// subject, the source's file name (as printed in the footer) under
+/// [`SOURCE_NAME_KEY`], and the document ID set from the hash.
 fn save(
     f: &Common,
     regular: &printpdf::ParsedFont,
@@ -388,6 +399,7 @@ fn save(
         &f.source.title,
         &subject,
         &f.hash,
+        &[(SOURCE_NAME_KEY, f.file_name)],
         regular,
         bold,
         pw,
@@ -396,14 +408,16 @@ fn save(
     )
 }
 
-/// The PDF of one page of `ops` titled `title`, with the fonts, `subject`
-/// in the metadata and the document ID made from the hex `hash`, so that
-/// the same inputs give the same bytes in any process.
+/// The PDF of one page of `ops` titled `title`, with the fonts; in the
+/// metadata `subject`, this tool's version as the creator, and the `extra`
+/// entries; the document ID made from the hex `hash`, so that the same
+/// inputs give the same bytes in any process.
 #[allow(clippy::too_many_arguments)]
 fn save_page(
     title: &str,
     subject: &str,
     hash: &str,
+    extra: &[(&str, &str)],
     regular: &printpdf::ParsedFont,
     bold: &printpdf::ParsedFont,
     pw: f64,
@@ -413,6 +427,7 @@ fn save_page(
     let mut warnings = Vec::new();
     let mut doc = printpdf::PdfDocument::new(title);
     doc.metadata.info.subject = subject.to_string();
+    doc.metadata.info.creator = tool_version();
     doc.resources.fonts.map.insert(
         printpdf::FontId(REGULAR_ID.to_string()),
         printpdf::PdfFont::new(regular.clone()),
@@ -430,6 +445,17 @@ fn save_page(
     let id = lopdf::Object::String(hash.as_bytes()[..32].to_vec(), lopdf::StringFormat::Literal);
     lo.trailer
         .set("ID", lopdf::Object::Array(vec![id.clone(), id]));
+    if !extra.is_empty() {
+        let info = lo
+            .trailer
+            .get(b"Info")
+            .and_then(|o| o.as_reference())
+            .and_then(|r| lo.get_dictionary_mut(r))
+            .map_err(|e| Error::Output(std::io::Error::other(e.to_string())))?;
+        for (key, value) in extra {
+            info.set(*key, check::text_object(value));
+        }
+    }
     lo.compress();
     let mut pdf = Vec::new();
     lo.save_to(&mut pdf)
@@ -2046,7 +2072,7 @@ pub fn write_sheet(
 
 /// The sheet of an audited source, printed from the file `name`: with the
 /// notice of its discrepancy when it is used as recorded.
-fn audited_sheet(audited: &Audited, name: &str, paper: Paper) -> Result<Sheet, Error> {
+pub(crate) fn audited_sheet(audited: &Audited, name: &str, paper: Paper) -> Result<Sheet, Error> {
     match &audited.accepted {
         None => render_sheet(&audited.text, &audited.source, name, paper),
         Some(d) => render_sheet_noting(&audited.text, &audited.source, name, paper, d),
@@ -2074,7 +2100,7 @@ pub fn sheet_source_hash(pdf: &[u8]) -> Result<Option<String>, String> {
 
 /// A PDF text string: UTF-16BE after a byte-order mark, else PDFDocEncoding
 /// (ASCII for the hex digits this module writes).
-fn text_string(bytes: &[u8]) -> String {
+pub(crate) fn text_string(bytes: &[u8]) -> String {
     match bytes.strip_prefix(&[0xFE, 0xFF]) {
         Some(utf16) => {
             let units: Vec<u16> = utf16
