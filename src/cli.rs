@@ -111,7 +111,7 @@ pub struct ModelFlags {
 #[derive(Debug, Args)]
 pub struct DesignArgs {
     /// A plan source to solve instead of the flags below
-    #[arg(value_name = "FILE.yaml", conflicts_with_all = ["aql", "rql", "alpha", "beta", "model", "lot_size", "title", "scheme", "criterion", "second_ratio", "stage_count", "sigma", "limit", "sigma_value", "lower", "upper", "unit"])]
+    #[arg(value_name = "FILE.yaml", conflicts_with_all = ["aql", "rql", "alpha", "beta", "model", "lot_size", "title", "scheme", "criterion", "second_ratio", "stage_count", "sigma", "limit", "sigma_value", "lower", "upper", "unit", "id", "revision", "date", "item", "characteristic", "prepared_by", "approved_by"])]
     pub source: Option<PathBuf>,
     /// Producer's quality p1 (AQL), as a fraction (0.01) or a percent (1%)
     #[arg(
@@ -180,6 +180,27 @@ pub struct DesignArgs {
     /// Title recorded in the plan source written with --output
     #[arg(long)]
     pub title: Option<String>,
+    /// Plan identifier (document number), recorded as `id` for the sheet
+    #[arg(long, value_name = "TEXT")]
+    pub id: Option<String>,
+    /// Revision of the plan document, recorded as `revision`
+    #[arg(long, value_name = "TEXT")]
+    pub revision: Option<String>,
+    /// Date of the revision, YYYY-MM-DD, recorded as `date`
+    #[arg(long, value_name = "YYYY-MM-DD")]
+    pub date: Option<String>,
+    /// The item inspected (part name, number, drawing revision), recorded as `item`
+    #[arg(long, value_name = "TEXT")]
+    pub item: Option<String>,
+    /// What is checked and what makes a unit nonconforming, recorded as `characteristic`
+    #[arg(long, value_name = "TEXT")]
+    pub characteristic: Option<String>,
+    /// Who prepared the plan (name, function), recorded as `prepared_by`
+    #[arg(long, value_name = "TEXT")]
+    pub prepared_by: Option<String>,
+    /// Who approved the plan (name, function), recorded as `approved_by`
+    #[arg(long, value_name = "TEXT")]
+    pub approved_by: Option<String>,
     /// Sensitivity: the step by which the AQL moves [default: 1-2-5 step near a fifth of it]
     #[arg(long, value_name = "P", allow_hyphen_values = true)]
     pub step_aql: Option<String>,

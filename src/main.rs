@@ -27,19 +27,19 @@ use cli::{
     ReportFormatArg, SchemeArg, SigmaArg, SingleOrDoubleArg, TradeoffFormat,
 };
 use lotsman::{
-    BatchSummary, Criterion, Csv, Decision, DesignReport, DesignRequest, Discrepancy, Error,
+    BatchSummary, Criterion, Csv, Decision, Description, DesignReport, DesignRequest, Error,
     EvaluationBatchReport, EvaluationEntry, EvaluationReport, InputError, Json, LimitKind,
     MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Overwrite, Paper, PlanSource,
     Protection, QualityRange, RectifyingReport, RectifyingRequest, ReportFormat, RiskPair,
-    RiskPoint, Scheme, SchemeOptions, SheetOptions, SheetVerdict, SigmaKind, SourceError,
-    SourceEvaluation, SourceFile, Specification, StagedPlan, Steps, Table, TradeoffReport,
-    TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry,
-    VerifyStatus, check_sheet, default_qualities, design_rectifying, evaluate, evaluate_source,
-    expand_paths, judge, judge_cumulative, judge_measurements, parse_count, parse_fraction,
-    parse_fraction_list, parse_measurements, parse_number, parse_stage, read_limited,
-    render_tradeoff_map, run_demo, run_in_parallel, sensitivity, sheet_target, sheet_targets,
-    solve, solve_variables, template, template_kinds, tradeoff, verify_file, write_atomic,
-    write_sheet,
+    RiskPoint, Scheme, SchemeOptions, SheetNotes, SheetOptions, SheetVerdict, SigmaKind,
+    SourceError, SourceEvaluation, SourceFile, Specification, StagedPlan, Steps, Table,
+    TradeoffReport, TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport,
+    VerifyEntry, VerifyStatus, check_sheet, default_qualities, design_rectifying, evaluate,
+    evaluate_source, expand_paths, judge, judge_cumulative, judge_measurements, parse_count,
+    parse_fraction, parse_fraction_list, parse_measurements, parse_number, parse_stage,
+    read_limited, render_tradeoff_map, run_demo, run_in_parallel, sensitivity, sheet_target,
+    sheet_targets, solve, solve_variables, template, template_kinds, tradeoff, verify_file,
+    write_atomic, write_sheet,
 };
 use progress::Progress;
 
@@ -138,10 +138,9 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
                 .title
                 .clone()
                 .unwrap_or_else(|| "Untitled plan".to_string());
-            Some((
-                PlanSource::new_variables(&title, &request, args.unit.clone()),
-                request,
-            ))
+            let mut source = PlanSource::new_variables(&title, &request, args.unit.clone());
+            source.describe(description_from(&args))?;
+            Some((source, request))
         }
         None => {
             refuse_variables_flags(&args)?;
@@ -206,7 +205,9 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
                 .title
                 .clone()
                 .unwrap_or_else(|| "Untitled plan".to_string());
-            (PlanSource::new(&title, &request), request)
+            let mut source = PlanSource::new(&title, &request);
+            source.describe(description_from(&args))?;
+            (source, request)
         }
     };
     let solution = solve(&request).map_err(|e| design_error(&args, e))?;
@@ -236,6 +237,20 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     }
     print_out(&text)?;
     Ok(ExitCode::SUCCESS)
+}
+
+/// The document fields of `--id`, `--revision`, `--date`, `--item`,
+/// `--characteristic`, `--prepared-by` and `--approved-by`.
+fn description_from(args: &cli::DesignArgs) -> Description {
+    Description {
+        id: args.id.clone(),
+        revision: args.revision.clone(),
+        date: args.date.clone(),
+        item: args.item.clone(),
+        characteristic: args.characteristic.clone(),
+        prepared_by: args.prepared_by.clone(),
+        approved_by: args.approved_by.clone(),
+    }
 }
 
 /// The criterion of `--criterion`, or the default.
@@ -915,9 +930,8 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
                 sheet_target(&named, output_dir)
             }
         };
-        let accepted = write_one_sheet(source, &out, &options, output_dir.is_some())?;
-        let accepted = accepted.map(|d| d.to_string());
-        warn_accepted(source, accepted.as_deref(), PRINTED_AS_RECORDED);
+        let notes = write_one_sheet(source, &out, &options, output_dir.is_some())?;
+        warn_sheet_notes(source, &notes);
         eprintln!("lotsman: wrote sheet {}", out.display());
         return Ok(ExitCode::SUCCESS);
     }
@@ -941,9 +955,8 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
     for (path, result) in &results {
         let shown = path.display().to_string();
         match result {
-            Ok(accepted) => {
-                let accepted = accepted.as_ref().map(|d| d.to_string());
-                warn_accepted(path, accepted.as_deref(), PRINTED_AS_RECORDED);
+            Ok(notes) => {
+                warn_sheet_notes(path, notes);
                 summary.push(&shown, Outcome::Ok, "");
             }
             Err(message) => summary.push(&shown, Outcome::Invalid, message),
@@ -970,6 +983,17 @@ fn warn_accepted(source: &Path, accepted: Option<&str>, done: &str) {
     }
 }
 
+/// The warnings of a sheet written from `source`: the discrepancy it
+/// states, and one line per field that still holds a template's
+/// placeholder.
+fn warn_sheet_notes(source: &Path, notes: &SheetNotes) {
+    let accepted = notes.accepted.as_ref().map(|d| d.to_string());
+    warn_accepted(source, accepted.as_deref(), PRINTED_AS_RECORDED);
+    for p in &notes.placeholders {
+        eprintln!("lotsman: warning: {}: {p}", source.display());
+    }
+}
+
 /// The first line of a decision by a plan used as recorded although the
 /// audit does not confirm it; empty otherwise.
 fn accepted_line(accepted: Option<&str>) -> String {
@@ -990,13 +1014,13 @@ fn judgement_json(j: &impl serde::Serialize, accepted: Option<&str>) -> Result<S
 
 /// Writes the sheet of `source` to `target`, never over the source itself;
 /// with `make_folders` (an output folder) the target's folders are created.
-/// Returns the discrepancy of a plan printed as recorded.
+/// Returns what the sheet states or still holds, for the warnings.
 fn write_one_sheet(
     source: &Path,
     target: &Path,
     options: &SheetOptions,
     make_folders: bool,
-) -> Result<Option<Discrepancy>, Error> {
+) -> Result<SheetNotes, Error> {
     refuse_overwriting_input(target, Some(source))?;
     if make_folders && let Some(folder) = target.parent() {
         std::fs::create_dir_all(folder).map_err(|e| SourceError::Io {

@@ -1780,3 +1780,78 @@ fn forged_sheets_are_caught_by_verify() {
     ];
     run_in(&fx, "forged sheet", &cases);
 }
+
+/// The document fields `design` takes for the sheet (issue 14, item 16):
+/// a date that is no date of the calendar, an empty text or one with a
+/// control character is refused before any work, naming the flag.
+#[test]
+fn design_refuses_document_fields_it_cannot_record() {
+    let cases = vec![
+        refused_fast(
+            "a date that is no date",
+            &[
+                "design",
+                "--aql",
+                "1%",
+                "--rql",
+                "6%",
+                "--date",
+                "2026-02-30",
+            ],
+            "--date = '2026-02-30' is not a date YYYY-MM-DD",
+        ),
+        refused_fast(
+            "a date in another order",
+            &[
+                "design",
+                "--aql",
+                "1%",
+                "--rql",
+                "6%",
+                "--date",
+                "30.01.2026",
+            ],
+            "--date = '30.01.2026' is not a date YYYY-MM-DD",
+        ),
+        refused_fast(
+            "an empty item",
+            &["design", "--aql", "1%", "--rql", "6%", "--item", ""],
+            "--item = '' is out of range",
+        ),
+        refused_fast(
+            "a name with a tab",
+            &[
+                "design",
+                "--aql",
+                "1%",
+                "--rql",
+                "6%",
+                "--prepared-by",
+                "R.\tOdumbe",
+            ],
+            "--prepared-by holds a control character (U+0009)",
+        ),
+        refused_fast(
+            "a variables design with a bad date",
+            &[
+                "design",
+                "--scheme",
+                "variables",
+                "--sigma",
+                "unknown",
+                "--limit",
+                "lower",
+                "--lower",
+                "5.8",
+                "--aql",
+                "1%",
+                "--rql",
+                "6%",
+                "--date",
+                "2026-13-01",
+            ],
+            "--date = '2026-13-01' is not a date",
+        ),
+    ];
+    run("design document fields", &cases);
+}

@@ -20,6 +20,7 @@ mod canvas;
 mod chart;
 mod check;
 mod heatmap;
+mod record;
 mod text;
 mod variables;
 mod variables_text;
@@ -40,6 +41,7 @@ use crate::risk::RiskPair;
 use crate::source::{
     Audited, Discrepancy, PlanSource, RecordedPlan, attributes_risks, tool_version,
 };
+use crate::templates::{Placeholder, placeholders};
 use canvas::{BOLD_ID, Canvas, Face, MM_PER_PT, Page, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
 pub use check::{MAX_SHEET_BYTES, SOURCE_NAME_KEY, SheetVerdict, check_sheet};
@@ -485,7 +487,7 @@ fn single_layout(
         Some(_) => (STAGED_TITLE_H, STAGED_FOOT_H),
         None => (40.0, FOOT_H),
     };
-    title_block(c, &f.common, left, top, width, title_h);
+    let title_h = title_block(c, &f.common, left, top, width, title_h);
     top -= title_h + 4.0;
     top -= notice_block(c, &f.common, left, top, width, NOTICE_LINES);
     let plan_h = 42.0;
@@ -521,7 +523,7 @@ fn single_layout(
     let table_w = 112.0;
     measures_table(c, f, &evaluation, left, top, table_w, table_h);
     let sig_x = left + table_w + 4.0;
-    signatures(c, &f.common, sig_x, top, right - sig_x, table_h);
+    record::record_column(c, f, sig_x, top, right - sig_x, table_h);
     footer(c, &f.common, frame, foot_h, words::CAUTION, "");
     if chart_h < MIN_CHART_H || top - table_h < foot_top + 2.0 {
         c.faults
@@ -530,16 +532,50 @@ fn single_layout(
     Ok(())
 }
 
+/// The sizes the characteristic is printed at, from the largest: it wraps
+/// onto as many lines as the block's room holds at each, and shrinks only
+/// when they do not fit. Below 7 points it would no longer read on a
+/// photocopy at the bench, so at 7 points the block grows instead, up to
+/// [`CHARACTERISTIC_LINES`] lines; a longer text is refused.
+const CHARACTERISTIC_SIZES: [f64; 3] = [8.0, 7.5, 7.0];
+const CHARACTERISTIC_LINES: usize = 5;
+
 /// The title block: title, item and characteristic on the left; plan ID,
-/// revision, date, lot size and scheme on the right.
-fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, block_h: f64) {
+/// revision, date, lot size and scheme on the right. The block is
+/// `min_h` mm tall, or taller when a long characteristic needs the room;
+/// returns its height.
+fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, min_h: f64) -> f64 {
     let source = f.source;
     let right = left + width;
     let black = || grey(0.0);
-    c.claim("title block", left, top - block_h, width, block_h);
-    c.rect_stroke(left, top - block_h, width, block_h, 0.8, black());
     let meta_w = 52.0;
     let title_w = width - meta_w - 6.0;
+    let field_w = title_w - 23.0;
+    // Measured first, for the characteristic's size and the block's
+    // height: the title and item above it, and the room they leave.
+    let title_h = c
+        .fit(&source.title, Face::Bold, title_w, 13.0, 14.0, 8.0)
+        .height;
+    let item = given(&source.item);
+    let item_h = c
+        .fit(&item, Face::Regular, field_w, 9.0, 8.0, 5.5)
+        .height
+        .max(3.5);
+    let above = 8.5 + title_h + item_h + 1.5;
+    let room = min_h - above - 2.0;
+    let characteristic = given(&source.characteristic);
+    let height_at = |c: &Canvas, size: f64| {
+        let lines = c.wrap(&characteristic, Face::Regular, size, field_w).len();
+        size * MM_PER_PT * 1.25 * lines.min(CHARACTERISTIC_LINES) as f64
+    };
+    let size = CHARACTERISTIC_SIZES
+        .into_iter()
+        .find(|&s| height_at(c, s) <= room + 1e-6)
+        .unwrap_or(CHARACTERISTIC_SIZES[CHARACTERISTIC_SIZES.len() - 1]);
+    let characteristic_h = height_at(c, size);
+    let block_h = min_h.max(above + characteristic_h.max(3.5) + 2.0);
+    c.claim("title block", left, top - block_h, width, block_h);
+    c.rect_stroke(left, top - block_h, width, block_h, 0.8, black());
     c.text(
         left + 3.0,
         top - 4.5,
@@ -560,23 +596,30 @@ fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, bloc
         8.0,
     );
     let fields = [
-        (text::ITEM, given(&source.item)),
-        (text::CHARACTERISTIC, given(&source.characteristic)),
+        (text::ITEM, item, 9.0, 8.0, 5.5),
+        // Room for the lines at the size chosen; more lines than that are
+        // the paragraph's overflow, and a refusal.
+        (
+            text::CHARACTERISTIC,
+            characteristic,
+            characteristic_h + 1e-6,
+            size,
+            size,
+        ),
     ];
     let mut fy = top - 8.5 - title_used;
-    for (label, value) in fields {
+    for (label, value, room, size, min_size) in fields {
         c.text(left + 3.0, fy - 2.5, label, Face::Bold, 6.5, grey(0.35));
-        let room = (fy - (top - block_h + 2.0)).min(9.0);
         let used = c.paragraph(
             label,
             left + 26.0,
             fy,
-            title_w - 23.0,
+            field_w,
             room,
             &value,
             Face::Regular,
-            8.0,
-            5.5,
+            size,
+            min_size,
         );
         fy -= used.max(3.5) + 1.5;
     }
@@ -614,6 +657,7 @@ fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, bloc
             5.5,
         );
     }
+    block_h
 }
 
 /// The most differing fields the notice lists (the rest are counted).
@@ -853,8 +897,8 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
         width,
         margin,
     } = frame;
-    title_block(c, &f.common, left, top, width, STAGED_TITLE_H);
-    top -= STAGED_TITLE_H + GAP;
+    let title_h = title_block(c, &f.common, left, top, width, STAGED_TITLE_H);
+    top -= title_h + GAP;
     top -= notice_block(c, &f.common, left, top, width, NOTICE_LINES);
     let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
     let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
@@ -923,7 +967,7 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
     let table_w = 112.0;
     measures_table(c, f, &evaluation, left, top, table_w, table_h);
     let sig_x = left + table_w + 4.0;
-    signatures(c, &f.common, sig_x, top, right - sig_x, table_h);
+    record::record_column(c, f, sig_x, top, right - sig_x, table_h);
     footer(c, &f.common, frame, STAGED_FOOT_H, words::CAUTION, "");
     if chart_h < MIN_CHART_H - 1e-9 || top - table_h < foot_top + 2.0 {
         c.faults
@@ -2043,10 +2087,23 @@ pub struct SheetOptions {
     pub overwrite: Overwrite,
 }
 
+/// What [`write_sheet`] found besides the sheet it wrote, for the caller
+/// to report.
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct SheetNotes {
+    /// The discrepancy that a sheet printed with
+    /// [`SheetOptions::accept_recorded`] states.
+    pub accepted: Option<Discrepancy>,
+    /// The fields of the source that still hold a template's placeholder
+    /// text, printed on the sheet as they are.
+    pub placeholders: Vec<Placeholder>,
+}
+
 /// Reads the source at `source_path`, audits its recorded plan (see
 /// [`audit`](crate::audit)), renders its sheet and writes it atomically to `target`.
 /// Returns the discrepancy that a sheet printed with
-/// [`SheetOptions::accept_recorded`] states, for the caller to report too.
+/// [`SheetOptions::accept_recorded`] states and the fields that still hold
+/// a template's placeholder ([`placeholders`]), for the caller to report.
 ///
 /// # Errors
 /// [`Error`] for an unreadable or invalid source;
@@ -2060,14 +2117,17 @@ pub fn write_sheet(
     source_path: &std::path::Path,
     target: &std::path::Path,
     options: &SheetOptions,
-) -> Result<Option<Discrepancy>, Error> {
+) -> Result<SheetNotes, Error> {
     let audited = Audited::load(source_path, options.accept_recorded)?;
     let name = source_path
         .file_name()
         .map_or_else(|| "source.yaml".into(), |n| n.to_string_lossy().to_string());
     let sheet = audited_sheet(&audited, &name, options.paper)?;
     write_atomic(target, &sheet.pdf, options.overwrite)?;
-    Ok(audited.accepted)
+    Ok(SheetNotes {
+        placeholders: placeholders(&audited.source),
+        accepted: audited.accepted,
+    })
 }
 
 /// The sheet of an audited source, printed from the file `name`: with the

@@ -149,8 +149,8 @@ pub(super) fn layout(
         width,
         margin,
     } = frame;
-    title_block(c, &f.common, left, top, width, TITLE_H);
-    top -= TITLE_H + GAP;
+    let title_h = title_block(c, &f.common, left, top, width, TITLE_H);
+    top -= title_h + GAP;
     let plan_h = plan_box(c, f, left, top, width);
     top -= plan_h + GAP;
     risk_table(c, &f.common, left, top, width, RISK_H);
@@ -419,7 +419,7 @@ fn rule_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
 
 /// A blank field: its label (formula markup) and `=` at `(x, y)`, then a
 /// writing line to `x_end`.
-fn field(c: &mut Canvas, x: f64, x_end: f64, y: f64, label: &str, equals: bool) {
+pub(super) fn field(c: &mut Canvas, x: f64, x_end: f64, y: f64, label: &str, equals: bool) {
     let size = 7.5;
     let label = if equals {
         format!("{label} =")
@@ -451,8 +451,17 @@ fn results_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
             field(c, cx, cx + cell, row_y(i), label, true);
         }
     }
-    // The decision: two boxes to tick.
-    let y = row_y(rows.len());
+    decision_row(c, x, row_y(rows.len()));
+    let y = row_y(rows.len() + 1);
+    let split = x + w * 0.62;
+    field(c, x, split - gutter, y, words::INSPECTED_BY, false);
+    field(c, split, x + w, y, words::INSPECTED_ON, false);
+    h
+}
+
+/// The decision with its baseline at `(x, y)`: two boxes to tick, accept
+/// and reject.
+pub(super) fn decision_row(c: &mut Canvas, x: f64, y: f64) {
     c.text(x, y, words::DECISION, Face::Bold, 7.5, grey(0.1));
     let mut bx = x + c.width(words::DECISION, Face::Bold, 7.5) + 4.0;
     for (label, color) in [
@@ -463,11 +472,6 @@ fn results_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
         c.text(bx + 5.0, y, label, Face::Bold, 7.5, color);
         bx += 5.0 + c.width(label, Face::Bold, 7.5) + 6.0;
     }
-    let y = row_y(rows.len() + 1);
-    let split = x + w * 0.62;
-    field(c, x, split - gutter, y, words::INSPECTED_BY, false);
-    field(c, split, x + w, y, words::INSPECTED_ON, false);
-    h
 }
 
 /// The readings block: heading with the lot and gauge fields, then either

@@ -3,6 +3,7 @@
 //! solution, saving, and verification.
 
 mod audit;
+mod describe;
 mod keys;
 mod schema;
 mod verify;
@@ -11,6 +12,7 @@ use std::path::Path;
 
 pub use audit::{Audit, Audited, Discrepancy, UnmetPoint, audit};
 pub(crate) use audit::{attributes_risks, variables_risks};
+pub use describe::Description;
 pub use schema::{
     PlanSource, PointSource, RecordedPlan, RecordedVariables, SCHEMA_VERSION, VariablesSource,
 };
@@ -220,7 +222,7 @@ impl PlanSource {
     /// The checked date, title, model and risk points every source has.
     fn model_and_risks(&self) -> Result<(Model, RiskPair), InputError> {
         if let Some(date) = &self.date {
-            check_date(date)?;
+            check_date("date", date)?;
         }
         if self.title.trim().is_empty() {
             return Err(InputError::out_of_range("title", "''", "a non-empty text"));
@@ -505,9 +507,10 @@ fn with_repeated_line(message: String, text: &str) -> String {
     }
 }
 
-/// Checks a `YYYY-MM-DD` date of the Gregorian calendar.
-fn check_date(date: &str) -> Result<(), InputError> {
-    let bad = || InputError::unparsable("date", date, "a date YYYY-MM-DD, e.g. 2026-11-30");
+/// Checks a `YYYY-MM-DD` date of the Gregorian calendar, given as
+/// `parameter` (named in the message).
+fn check_date(parameter: &str, date: &str) -> Result<(), InputError> {
+    let bad = || InputError::unparsable(parameter, date, "a date YYYY-MM-DD, e.g. 2026-11-30");
     let parts: Vec<&str> = date.split('-').collect();
     let [y, m, d] = parts.as_slice() else {
         return Err(bad());
