@@ -433,7 +433,8 @@ pub struct SheetArgs {
 
 #[derive(Debug, Args)]
 pub struct NewArgs {
-    /// Template kind: binomial, hypergeometric, poisson, double, multiple, sequential or variables
+    /// Template kind: binomial, hypergeometric, poisson, double, multiple, sequential, variables
+    /// or rectifying
     #[arg(value_name = "KIND")]
     pub kind: String,
 }
@@ -479,10 +480,17 @@ pub struct RectifyArgs {
     /// Likelihood model [default: hypergeometric, since the lot size is known]
     #[arg(long, value_enum)]
     pub model: Option<ModelArg>,
-    /// Title printed above the plan
+    /// Title printed above the plan, and recorded in the plan source written with --output
     #[arg(long)]
     pub title: Option<String>,
     /// Output format
     #[arg(long, value_enum, default_value = "table")]
     pub format: ReportFormatArg,
+    /// Write the plan as a plan source (scheme: rectifying) to this file, atomically, for
+    /// verify, sheet, evaluate and judge
+    #[arg(long, value_name = "FILE.yaml")]
+    pub output: Option<PathBuf>,
+    /// Let --output replace a file that exists already
+    #[arg(long, requires = "output")]
+    pub force: bool,
 }

@@ -120,6 +120,9 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     let variables = match &args.source {
         Some(path) => {
             let source = PlanSource::load(path)?;
+            if source.is_rectifying() {
+                return design_rectifying_source(&args, source, path);
+            }
             if source.is_variables() {
                 let request = source
                     .variables_request()
@@ -233,6 +236,41 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     match args.format {
         DesignFormat::Table => Table.design(&mut text, &report)?,
         DesignFormat::Json => Json.design(&mut text, &report)?,
+        DesignFormat::Yaml => text = source.to_yaml().into_bytes(),
+    }
+    print_out(&text)?;
+    Ok(ExitCode::SUCCESS)
+}
+
+/// `design FILE` of a minimum-inspection source: solved as `rectify`
+/// solves it, recorded, written to `--output` and reported.
+fn design_rectifying_source(
+    args: &cli::DesignArgs,
+    mut source: PlanSource,
+    path: &Path,
+) -> Result<ExitCode, Error> {
+    let request = source
+        .rectifying_request()
+        .map_err(|e| SourceError::Invalid {
+            path: path.to_path_buf(),
+            source: e,
+        })?;
+    let design = design_rectifying(&request).map_err(|e| design_error(args, e))?;
+    let report = RectifyingReport::new(&source.title, &design);
+    report.check()?;
+    if args.output.is_some() || args.format == DesignFormat::Yaml {
+        source
+            .record_rectifying(&design)
+            .map_err(|e| SourceError::Invalid {
+                path: path.to_path_buf(),
+                source: e,
+            })?;
+    }
+    write_source(args, &source)?;
+    let mut text = Vec::new();
+    match args.format {
+        DesignFormat::Table => Table.rectifying(&mut text, &report)?,
+        DesignFormat::Json => Json.rectifying(&mut text, &report)?,
         DesignFormat::Yaml => text = source.to_yaml().into_bytes(),
     }
     print_out(&text)?;
@@ -842,7 +880,7 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
     if let Some(csv) = &args.measurements {
         return judge_measurements_cmd(&args, csv);
     }
-    let (audited, request, plan) = PlanSource::load_with_plan(&args.source, args.accept_recorded)?;
+    let (audited, model, plan) = PlanSource::load_with_plan(&args.source, args.accept_recorded)?;
     let accepted = audited.accepted.map(|d| d.to_string());
     let found = args
         .found
@@ -859,12 +897,12 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
             };
             judge_cumulative(
                 &plan,
-                &request.model,
+                &model,
                 parse_count("--inspected", n, u64::MAX)?,
                 *count,
             )?
         }
-        None => judge(&plan, &request.model, &found)?,
+        None => judge(&plan, &model, &found)?,
     };
     let item_by_item = plan.sequential_lines().is_some();
     let text = match args.format {
@@ -1084,6 +1122,17 @@ fn rectify_cmd(args: cli::RectifyArgs) -> Result<ExitCode, Error> {
             .into());
         }
     };
+    if let Some(target) = &args.output
+        && target
+            .extension()
+            .is_some_and(|e| e.eq_ignore_ascii_case("pdf"))
+    {
+        return Err(InputError::Inconsistent(format!(
+            "--output writes the plan source, YAML, and {} names a PDF; write FILE.yaml, then print its sheet with: lotsman sheet FILE.yaml",
+            target.display()
+        ))
+        .into());
+    }
     let request =
         RectifyingRequest::new(model, process_average, protection, scheme_of(args.scheme))?;
     let design = design_rectifying(&request)?;
@@ -1092,6 +1141,16 @@ fn rectify_cmd(args: cli::RectifyArgs) -> Result<ExitCode, Error> {
         .unwrap_or_else(|| "Minimum-inspection plan".to_string());
     let report = RectifyingReport::new(&title, &design);
     report.check()?;
+    if let Some(target) = &args.output {
+        let mut source = PlanSource::new_rectifying(&title, &request);
+        source.record_rectifying(&design)?;
+        write_atomic(
+            target,
+            source.to_yaml().as_bytes(),
+            Overwrite::from_force(args.force),
+        )?;
+        eprintln!("lotsman: wrote plan source {}", target.display());
+    }
     let mut text = Vec::new();
     formatter(args.format).rectifying(&mut text, &report)?;
     print_out(&text)?;

@@ -21,6 +21,7 @@ pub const TEMPLATES: &[(&str, &str)] = &[
     ("multiple", include_str!("../templates/multiple.yaml")),
     ("sequential", include_str!("../templates/sequential.yaml")),
     ("variables", include_str!("../templates/variables.yaml")),
+    ("rectifying", include_str!("../templates/rectifying.yaml")),
 ];
 
 /// The template of `kind`, or `None` for an unknown kind.

@@ -487,17 +487,17 @@ fn verify_names_every_field_of_every_scheme() {
         (
             Path::new(SEAL),
             "plan.producer_risk",
-            Box::new(|s| s.plan.as_mut().unwrap().producer_risk *= 1.0 + 1e-8),
+            Box::new(|s| *s.plan.as_mut().unwrap().producer_risk.as_mut().unwrap() *= 1.0 + 1e-8),
         ),
         (
             Path::new(VARIABLES),
             "plan.consumer_risk",
-            Box::new(|s| s.plan.as_mut().unwrap().consumer_risk = f64::NAN),
+            Box::new(|s| s.plan.as_mut().unwrap().consumer_risk = Some(f64::NAN)),
         ),
         (
             Path::new(DOUBLE),
             "plan.producer_risk",
-            Box::new(|s| s.plan.as_mut().unwrap().producer_risk = f64::INFINITY),
+            Box::new(|s| s.plan.as_mut().unwrap().producer_risk = Some(f64::INFINITY)),
         ),
         (Path::new(SEAL), "plan", Box::new(|s| s.plan = None)),
     ];
@@ -507,7 +507,7 @@ fn verify_names_every_field_of_every_scheme() {
     }
     // Within the tolerance a recorded risk still matches.
     let fields = differing_fields(Path::new(SEAL), |s| {
-        s.plan.as_mut().unwrap().producer_risk *= 1.0 + 1e-12
+        *s.plan.as_mut().unwrap().producer_risk.as_mut().unwrap() *= 1.0 + 1e-12
     });
     assert!(fields.is_empty(), "{fields:?}");
 }

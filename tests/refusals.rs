@@ -1855,3 +1855,157 @@ fn design_refuses_document_fields_it_cannot_record() {
     ];
     run("design document fields", &cases);
 }
+
+/// Minimum-inspection plan sources (`scheme: rectifying`, issue 14,
+/// item 15) that cannot be what they claim, and `rectify --output` where
+/// it must not write: each is refused with the key or the flag named.
+#[test]
+fn rectifying_sources_that_are_not_valid_are_refused() {
+    let fx = Fixtures::new();
+    let head = "schema: 1\ntitle: Bushes\nscheme: rectifying\n";
+    let section =
+        "rectifying:\n  form: single\n  process_average: 0.25%\n  ltpd: 1%\n  beta: 0.1\n";
+    let lot = "model: hypergeometric\nlot_size: 5000\n";
+    let texts = [
+        ("no-section.yaml", format!("{head}{lot}")),
+        (
+            "two-protections.yaml",
+            format!("{head}{section}  aoql: 1%\n{lot}"),
+        ),
+        (
+            "beta-with-aoql.yaml",
+            format!(
+                "{head}rectifying:\n  form: single\n  process_average: 0.25%\n  aoql: 1%\n  beta: 0.1\n{lot}"
+            ),
+        ),
+        (
+            "with-producer.yaml",
+            format!("{head}{section}{lot}producer:\n  quality: 0.01\n  risk: 0.05\n"),
+        ),
+        ("no-lot.yaml", format!("{head}{section}model: binomial\n")),
+        (
+            "form-multiple.yaml",
+            format!(
+                "{head}{}{lot}",
+                section.replace("form: single", "form: multiple")
+            ),
+        ),
+        (
+            "average-above.yaml",
+            format!("{head}{}{lot}", section.replace("0.25%", "2%")),
+        ),
+        ("section-on-single.yaml", format!("{BASE}{section}")),
+        (
+            "no-producer.yaml",
+            BASE.replace("producer:\n  quality: 0.01\n  risk: 0.05\n", ""),
+        ),
+        (
+            "ati-on-single.yaml",
+            format!(
+                "{BASE}plan:\n  stages:\n  - n: 110\n    accept: 3\n    reject: 4\n  producer_risk: 0.025\n  consumer_risk: 0.098\n  ati: 120\n  solved_by: hand\n"
+            ),
+        ),
+        (
+            "risks-missing.yaml",
+            format!(
+                "{head}{section}{lot}plan:\n  stages:\n  - n: 766\n    accept: 4\n    reject: 5\n  solved_by: hand\n"
+            ),
+        ),
+    ];
+    for (name, text) in &texts {
+        std::fs::write(fx.path(name), text).unwrap();
+    }
+    let cases = vec![
+        reported(
+            "scheme: rectifying without its section",
+            &["verify", "@no-section.yaml"],
+            2,
+            "scheme: rectifying needs a 'rectifying' section",
+        ),
+        refused(
+            "an LTPD and an AOQL at once",
+            &["design", "@two-protections.yaml"],
+            "give one protection in 'rectifying': ltpd (with beta) or aoql, not both",
+        ),
+        refused(
+            "beta beside an AOQL",
+            &["design", "@beta-with-aoql.yaml"],
+            "rectifying.beta goes with an LTPD",
+        ),
+        refused(
+            "a producer's point on a minimum-inspection plan",
+            &["design", "@with-producer.yaml"],
+            "'producer' does not belong to a minimum-inspection plan",
+        ),
+        refused(
+            "no lot size",
+            &["design", "@no-lot.yaml"],
+            "a minimum-inspection plan needs lot_size",
+        ),
+        refused(
+            "a form other than single or double",
+            &["design", "@form-multiple.yaml"],
+            "rectifying.form = multiple is out of range",
+        ),
+        refused(
+            "a process average above the LTPD",
+            &["design", "@average-above.yaml"],
+            "must be below the LTPD",
+        ),
+        refused(
+            "a rectifying section on a single plan",
+            &["design", "@section-on-single.yaml"],
+            "'rectifying' applies to minimum-inspection plans (scheme: rectifying) only",
+        ),
+        refused(
+            "a single plan without its producer's point",
+            &["design", "@no-producer.yaml"],
+            "the source gives no producer: point (the AQL and alpha)",
+        ),
+        reported(
+            "an ATI recorded on a single plan",
+            &["verify", "@ati-on-single.yaml"],
+            2,
+            "plan.ati belongs to minimum-inspection plans",
+        ),
+        refused(
+            "a recorded minimum-inspection plan without its figures",
+            &["judge", "@risks-missing.yaml", "--found", "1"],
+            "the recorded plan gives no ati",
+        ),
+        refused(
+            "rectify --output naming a PDF",
+            &[
+                "rectify",
+                "--lot-size",
+                "5000",
+                "--process-average",
+                "0.25%",
+                "--ltpd",
+                "1%",
+                "--output",
+                "@r.pdf",
+            ],
+            "--output writes the plan source, YAML",
+        ),
+        refused(
+            "rectify --output when the answer is 100% inspection",
+            &[
+                "rectify",
+                "--lot-size",
+                "50",
+                "--process-average",
+                "0.5%",
+                "--ltpd",
+                "2%",
+                "--model",
+                "binomial",
+                "--output",
+                "@full.yaml",
+            ],
+            "there is no sampling plan to record",
+        ),
+    ];
+    run_in(&fx, "rectifying source", &cases);
+    assert!(!fx.path("r.pdf").exists() && !fx.path("full.yaml").exists());
+}

@@ -1388,3 +1388,114 @@ fn a_sheet_warns_of_each_placeholder_a_template_left() {
         .success()
         .stderr(predicate::str::contains("warning").not());
 }
+
+/// `rectify ARGS --output DIR/NAME`: the source written.
+fn rectifying_source(dir: &Path, name: &str, args: &[&str]) -> std::path::PathBuf {
+    let path = dir.join(name);
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .arg("rectify")
+        .args(args)
+        .arg("--output")
+        .arg(&path)
+        .assert()
+        .success();
+    path
+}
+
+#[test]
+fn a_minimum_inspection_plan_prints_its_protection_procedure_and_ati() {
+    let dir = tempfile::tempdir().unwrap();
+    let lot = ["--lot-size", "5000", "--process-average", "0.25%"];
+    let single = rectifying_source(
+        dir.path(),
+        "single.yaml",
+        &[&lot[..], &["--ltpd", "1%"]].concat(),
+    );
+    let double = rectifying_source(
+        dir.path(),
+        "double.yaml",
+        &[&lot[..], &["--aoql", "1%", "--scheme", "double"]].concat(),
+    );
+    let cases = [
+        (
+            &single,
+            vec![
+                "n = 766",
+                "Accept if ≤ 4 nonconforming units",
+                "Process average (p̄) 0.2500% least ATI ATI = 922.2 of 5000 (Pa = 0.9631)",
+                "LTPD (consumer's protection) 1.000% β ≤ 0.1 β = 0.1000 (Pa = 0.1000)",
+                "Nonconforming units found",
+            ],
+        ),
+        (
+            &double,
+            vec![
+                "DOUBLE SAMPLING: 2 STAGES, UP TO 363 UNITS",
+                "AOQL (consumer's protection) 1.000% AOQ ≤ 1.000% AOQL = 0.9990% at 1.880%",
+                "Found at stage",
+            ],
+        ),
+    ];
+    for (path, needles) in cases {
+        let (text, source) = source_at(path.to_str().unwrap());
+        let model = *source.rectifying_request().unwrap().model();
+        let plan = source.recorded_plan(&model).unwrap();
+        for paper in [Paper::A4, Paper::Letter] {
+            let sheet = render_sheet(&text, &source, "r.yaml", paper)
+                .unwrap_or_else(|e| panic!("{} {paper:?}: {e}", path.display()));
+            assert_laid_out(&sheet, paper);
+            let names: Vec<&str> = sheet.regions.iter().map(|r| r.name.as_str()).collect();
+            for block in [
+                "protection",
+                "OC chart",
+                "AOQ chart",
+                "measures",
+                "record",
+                "approval",
+            ] {
+                assert!(names.contains(&block), "no {block} in {names:?}");
+            }
+            assert!(!names.contains(&"risks"), "{names:?}");
+            let words = folded(&pdf_text(&sheet.pdf));
+            let lines = pdf_lines(&sheet.pdf).join("\n");
+            for needle in &needles {
+                assert!(
+                    words.contains(needle) || lines.contains(needle),
+                    "{paper:?}: no {needle:?} in:\n{lines}"
+                );
+            }
+            for needle in [
+                "rectifying, ",
+                "AGREED PROTECTION AND WHAT THIS PLAN ACHIEVES UNDER RECTIFYING INSPECTION (HYPERGEOMETRIC MODEL)",
+                "p̄ = 0.2500%",
+                "LTPD = ",
+                "Sampling does not guarantee the quality of a lot",
+            ] {
+                assert!(
+                    words.contains(needle),
+                    "{paper:?}: no {needle:?} in {words}"
+                );
+            }
+            // The rectifying procedure: a rejected lot is screened.
+            for step in lotsman::words::rectifying_procedure(&plan, false) {
+                assert!(
+                    words.contains(&folded(&step)),
+                    "no step {step:?} in {words}"
+                );
+            }
+            assert!(!words.contains("returned or screened"), "{words}");
+            assert!(!words.contains('?'), "a '?' reached the page:\n{words}");
+        }
+        // The command prints it, and verify knows its sheet.
+        let pdf = path.with_extension("pdf");
+        Command::cargo_bin("lotsman")
+            .unwrap()
+            .arg("sheet")
+            .arg(path)
+            .assert()
+            .success();
+        let (code, out) = verify_sheet(path.to_str().unwrap(), &std::fs::read(&pdf).unwrap(), &[]);
+        assert_eq!(code, 0, "{out}");
+    }
+}

@@ -10,7 +10,8 @@ use crate::source::Audited;
 
 /// The evaluation of the plan recorded in the source at `path`, at
 /// `qualities`, or, when `qualities` is empty, at the default qualities of
-/// its kind of plan: eight levels bracketing the risk points
+/// its kind of plan: eight levels bracketing the risk points (for a
+/// minimum-inspection plan, the process average and the LTPD)
 /// ([`default_qualities`], [`variables_qualities`]).
 ///
 /// The source is read once and audited first ([`Audited::load`]): a
@@ -65,16 +66,30 @@ pub fn evaluate_source(
         report.check()?;
         return Ok(SourceEvaluation::Variables(report));
     }
-    let request = source.request().map_err(invalid)?;
-    let plan = source.recorded_plan(&request.model).map_err(invalid)?;
+    let rectifying = source
+        .is_rectifying()
+        .then(|| source.rectifying_request())
+        .transpose()
+        .map_err(invalid)?;
+    let model = match &rectifying {
+        Some(request) => *request.model(),
+        None => source.request().map_err(invalid)?.model,
+    };
+    let plan = source.recorded_plan(&model).map_err(invalid)?;
     let defaults;
     let at = if qualities.is_empty() {
-        defaults = default_qualities(&plan, &request.model, Some(&request.risks));
+        defaults = match &rectifying {
+            Some(request) => request.default_qualities(&plan),
+            None => {
+                let risks = source.request().map_err(invalid)?.risks;
+                default_qualities(&plan, &model, Some(&risks))
+            }
+        };
         &defaults
     } else {
         qualities
     };
-    let evaluation = evaluate(&plan, &request.model, at)?;
+    let evaluation = evaluate(&plan, &model, at)?;
     let report = EvaluationReport {
         accepted_recorded: accepted,
         ..EvaluationReport::from(&evaluation)

@@ -21,6 +21,7 @@ mod chart;
 mod check;
 mod heatmap;
 mod record;
+mod rectifying;
 mod text;
 mod variables;
 mod variables_text;
@@ -28,8 +29,7 @@ mod variables_text;
 use sha2::{Digest, Sha256};
 
 use crate::atomic::{Overwrite, write_atomic};
-use crate::design::DesignRequest;
-use crate::design::design_single;
+use crate::design::{Protection, RectifyingPlan, RectifyingRequest, design_single};
 use crate::error::{Error, InputError};
 use crate::model::{Model, ModelKind};
 use crate::numeric::{NumericalError, check_amount, check_probability};
@@ -106,11 +106,8 @@ pub const HASH_PREFIX: &str = "lotsman-source-sha256:";
 struct Common<'a> {
     source: &'a PlanSource,
     recorded: &'a RecordedPlan,
-    risks: RiskPair,
-    /// The producer's and consumer's risks the printed plan achieves,
-    /// computed from the plan (the risk table and the OC chart's marks
-    /// print these, so they always belong to the plan on the page).
-    achieved: (f64, f64),
+    /// What the plan was agreed on, with what the printed plan achieves.
+    agreement: Agreement,
     /// The statement of a discrepancy the audit found, on a sheet printed
     /// as recorded at the user's request.
     notice: Option<String>,
@@ -122,6 +119,43 @@ struct Common<'a> {
     file_name: &'a str,
 }
 
+/// What the plan on a sheet was agreed on, with what the printed plan
+/// achieves there, computed from the plan (the risk table and the OC
+/// chart's marks print these, so they always belong to the plan on the
+/// page).
+enum Agreement {
+    /// Two risk points, and the producer's and consumer's risks the plan
+    /// achieves at them.
+    Points {
+        risks: RiskPair,
+        achieved: (f64, f64),
+    },
+    /// A minimum-inspection plan's process average and protection, and
+    /// what the plan does under rectifying inspection.
+    Rectifying {
+        request: RectifyingRequest,
+        figures: Box<RectifyingPlan>,
+    },
+}
+
+impl Agreement {
+    /// The two qualities the curves and tables are drawn around: the
+    /// producer's and consumer's, or the process average and the LTPD
+    /// (for an AOQL protection, the plan's own, where `Pa` falls to 0.10).
+    fn qualities(&self) -> (f64, f64) {
+        match self {
+            Agreement::Points { risks, .. } => (risks.producer().quality, risks.consumer().quality),
+            Agreement::Rectifying { request, figures } => (
+                request.process_average(),
+                match request.protection() {
+                    Protection::Ltpd(point) => point.quality,
+                    Protection::Aoql(_) => figures.ltpd,
+                },
+            ),
+        }
+    }
+}
+
 impl<'a> Common<'a> {
     /// The shared facts of `source`, whose plan the caller has validated
     /// (so that a missing plan is reported in the plan's own words).
@@ -129,10 +163,9 @@ impl<'a> Common<'a> {
         source: &'a PlanSource,
         text: &str,
         file_name: &'a str,
-        risks: RiskPair,
+        agreement: Agreement,
         model: &Model,
         scheme: String,
-        achieved: (f64, f64),
     ) -> Result<Self, InputError> {
         let recorded = source
             .plan
@@ -141,8 +174,7 @@ impl<'a> Common<'a> {
         Ok(Common {
             source,
             recorded,
-            risks,
-            achieved,
+            agreement,
             notice: None,
             lot_size: model.lot_size(),
             scheme,
@@ -156,19 +188,43 @@ impl<'a> Common<'a> {
     fn q(&self, v: f64) -> String {
         format_quality(v, self.per_unit)
     }
-
-    /// Pa at the producer's point, as the printed plan achieves it.
-    fn pa_at_p1(&self) -> f64 {
-        1.0 - self.achieved.0
-    }
 }
 
-/// What the blocks of an attributes sheet print from, gathered once.
+/// What the blocks of an attributes sheet (a plan designed from two risk
+/// points, or a minimum-inspection plan) print from, gathered once.
 struct Facts<'a> {
     common: Common<'a>,
-    request: DesignRequest,
     model: Model,
     plan: StagedPlan,
+}
+
+impl Facts<'_> {
+    /// The qualities of the measures table: eight levels bracketing the
+    /// two qualities of the agreement.
+    fn default_qualities(&self) -> Vec<f64> {
+        match &self.common.agreement {
+            Agreement::Points { risks, .. } => {
+                crate::plan::default_qualities(&self.plan, &self.model, Some(risks))
+            }
+            Agreement::Rectifying { request, .. } => request.default_qualities(&self.plan),
+        }
+    }
+
+    /// The inspector's procedure: a rejected lot is screened under
+    /// rectifying inspection, and returned or screened as agreed otherwise.
+    fn steps(&self) -> Vec<String> {
+        match self.common.agreement {
+            Agreement::Points { .. } => words::plan_procedure(&self.plan, self.common.per_unit),
+            Agreement::Rectifying { .. } => {
+                words::rectifying_procedure(&self.plan, self.common.per_unit)
+            }
+        }
+    }
+
+    /// Whether the plan is a minimum-inspection plan.
+    fn rectifying(&self) -> bool {
+        matches!(self.common.agreement, Agreement::Rectifying { .. })
+    }
 }
 
 /// A field of the source, or a dash.
@@ -205,8 +261,8 @@ struct CurvePoint {
 /// The quality axis and the curve points of a plan: 241 even steps up to
 /// where Pa has fallen to 0.02 (or 1.2 p2 if that is further).
 fn curve_points(f: &Facts) -> Result<(f64, Vec<CurvePoint>), NumericalError> {
-    let consumer = f.request.risks.consumer();
-    let x_max = nice_ceiling(quality_at_pa(&f.plan, &f.model, 0.02).max(consumer.quality * 1.2));
+    let upper = f.common.agreement.qualities().1;
+    let x_max = nice_ceiling(quality_at_pa(&f.plan, &f.model, 0.02).max(upper * 1.2));
     let points = (0..=240)
         .map(|i| x_max * i as f64 / 240.0)
         .map(|v| v.max(x_max * 1e-6))
@@ -305,24 +361,31 @@ fn render(
         }
         &measured.common
     } else {
-        let request = source.request()?;
-        let model = request.model;
-        let plan = source.recorded_plan(&model)?;
-        let scheme = format!("{}, {}", source.scheme.name(), model.kind().name());
-        let achieved = attributes_risks(&plan, &model, &request.risks);
-        let mut common = Common::new(
-            source,
-            text,
-            file_name,
-            request.risks,
-            &model,
-            scheme,
-            achieved,
-        )?;
+        let (model, plan, agreement, scheme) = if source.is_rectifying() {
+            let request = source.rectifying_request()?;
+            let model = *request.model();
+            let plan = source.recorded_plan(&model)?;
+            let figures = Box::new(RectifyingPlan::new(plan.clone(), &request));
+            let scheme = format!("{}, {}", source.scheme.name(), request.scheme().name());
+            (
+                model,
+                plan,
+                Agreement::Rectifying { request, figures },
+                scheme,
+            )
+        } else {
+            let request = source.request()?;
+            let model = request.model;
+            let plan = source.recorded_plan(&model)?;
+            let achieved = attributes_risks(&plan, &model, &request.risks);
+            let risks = request.risks;
+            let scheme = format!("{}, {}", source.scheme.name(), model.kind().name());
+            (model, plan, Agreement::Points { risks, achieved }, scheme)
+        };
+        let mut common = Common::new(source, text, file_name, agreement, &model, scheme)?;
         common.notice = notice;
         attributes = Facts {
             common,
-            request,
             model,
             plan,
         };
@@ -490,7 +553,9 @@ fn single_layout(
     let title_h = title_block(c, &f.common, left, top, width, title_h);
     top -= title_h + 4.0;
     top -= notice_block(c, &f.common, left, top, width, NOTICE_LINES);
-    let plan_h = 42.0;
+    // The box is 42 mm, or as tall as the procedure beside the sample
+    // needs at 8 points (a rectifying procedure has a longer last step).
+    let plan_h = procedure_height(c, f, width - SINGLE_PLAN_COL - 8.0, 8.0).max(42.0);
     single_plan_box(c, f, left, top, width, plan_h, n, ac);
     top -= plan_h + 4.0;
     let risk_h = 20.0;
@@ -498,7 +563,7 @@ fn single_layout(
     top -= risk_h + 3.0;
 
     // Charts take the height that the table and footer leave.
-    let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
+    let qualities = f.default_qualities();
     let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
     EvaluationReport::from(&evaluation).check()?;
     let table_h = measures_height(&evaluation, 4.2);
@@ -766,6 +831,10 @@ fn reject_colour() -> printpdf::Color {
     rgb(0.6, 0.1, 0.05)
 }
 
+/// The width of the single plan box's left column (sample size and
+/// decisions).
+const SINGLE_PLAN_COL: f64 = 76.0;
+
 /// The single plan's box: the sample size and the two decisions on the
 /// left, the procedure on the right.
 #[allow(clippy::too_many_arguments)]
@@ -780,7 +849,7 @@ fn single_plan_box(
     ac: u64,
 ) {
     plan_frame(c, left, top, width, plan_h);
-    let col = 76.0;
+    let col = SINGLE_PLAN_COL;
     c.heading(left + 4.0, top - 7.0, text::SAMPLE_SIZE);
     c.text(
         left + 4.0,
@@ -829,8 +898,7 @@ fn single_plan_box(
 /// The inspector's procedure under its heading at `(x, top)`, one
 /// paragraph per step, each in what the earlier steps left above `bottom`.
 fn procedure(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, bottom: f64, size: f64) {
-    let steps = words::plan_procedure(&f.plan, f.common.per_unit);
-    steps_block(c, &steps, x, top, w, bottom, size);
+    steps_block(c, &f.steps(), x, top, w, bottom, size);
 }
 
 /// Numbered steps under the procedure heading at `(x, top)`, one paragraph
@@ -857,12 +925,7 @@ fn steps_block(c: &mut Canvas, steps: &[String], x: f64, top: f64, w: f64, botto
 /// Height the procedure takes in a column `w` mm wide at `size`, heading
 /// and bottom padding included (see [`procedure`]).
 fn procedure_height(c: &Canvas, f: &Facts, w: f64, size: f64) -> f64 {
-    steps_height(
-        c,
-        &words::plan_procedure(&f.plan, f.common.per_unit),
-        w,
-        size,
-    )
+    steps_height(c, &f.steps(), w, size)
 }
 
 /// Height of [`steps_block`] in a column `w` mm wide at `size`.
@@ -900,7 +963,7 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
     let title_h = title_block(c, &f.common, left, top, width, STAGED_TITLE_H);
     top -= title_h + GAP;
     top -= notice_block(c, &f.common, left, top, width, NOTICE_LINES);
-    let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
+    let qualities = f.default_qualities();
     let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
     EvaluationReport::from(&evaluation).check()?;
     let table_h = measures_height(&evaluation, 3.9);
@@ -950,7 +1013,10 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
         None => {
             let chart_w = (width - 6.0) / 2.0;
             oc_chart(c, f, &points, x_max, left, chart_top, chart_w, chart_h);
-            asn_chart(
+            // Under rectifying inspection the AOQ is what the protection
+            // bounds; otherwise the ASN is what a staged plan saves.
+            let second = if f.rectifying() { aoq_chart } else { asn_chart };
+            second(
                 c,
                 f,
                 &points,
@@ -1174,11 +1240,11 @@ fn stage_plan_box(
         })
         .collect();
     let heads = &text::STAGE_HEADS;
-    let heading = text::stages_heading(
-        f.common.source.scheme.name(),
-        stages.len(),
-        f.plan.max_sample(),
-    );
+    let form = match &f.common.agreement {
+        Agreement::Rectifying { request, .. } => request.scheme(),
+        Agreement::Points { .. } => f.common.source.scheme,
+    };
+    let heading = text::stages_heading(form.name(), stages.len(), f.plan.max_sample());
     // The box for each row type: (procedure size, height, (type, widths,
     // left column, procedure width)).
     let layout = |c: &mut Canvas, rows_in: RowType| {
@@ -1470,10 +1536,13 @@ fn asn_chart(
     h: f64,
 ) {
     let asn: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.asn)).collect();
-    let p1 = f.request.risks.producer().quality;
+    let p1 = f.common.agreement.qualities().0;
     let at_p1 = measures(&f.plan, &f.model, p1).asn;
     let (q_max, asn_max) = largest_asn(&f.plan, &f.model);
-    let single_n = design_single(&f.model, &f.request.risks).ok().map(|d| d.n);
+    let single_n = match &f.common.agreement {
+        Agreement::Points { risks, .. } => design_single(&f.model, risks).ok().map(|d| d.n),
+        Agreement::Rectifying { .. } => None,
+    };
     let top_value = single_n.map_or(asn_max, |n| asn_max.max(n as f64));
     let y_max = nice_ceiling(top_value * 1.15);
     let axis = quality_tick(f.common.per_unit);
@@ -1708,9 +1777,16 @@ fn decision_chart(
 
 /// The risk table: each agreed point against what the plan achieves.
 fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_h: f64) {
+    let (risks, achieved) = match &f.agreement {
+        Agreement::Points { risks, achieved } => (risks, achieved),
+        Agreement::Rectifying { request, figures } => {
+            let agreed = (request, figures.as_ref());
+            return rectifying::protection_table(c, f, agreed, left, top, width, risk_h);
+        }
+    };
     let right = left + width;
     let black = || grey(0.0);
-    let (producer, consumer) = (f.risks.producer(), f.risks.consumer());
+    let (producer, consumer) = (risks.producer(), risks.consumer());
     c.claim("risks", left, top - risk_h, width, risk_h);
     c.heading(left, top - 3.5, text::RISKS);
     let cols = [left, left + 52.0, left + 84.0, left + 128.0, right];
@@ -1734,7 +1810,7 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
         black(),
         None,
     );
-    let (alpha, beta) = f.achieved;
+    let (alpha, beta) = *achieved;
     let rows = [
         (
             text::PRODUCER_POINT,
@@ -1780,9 +1856,15 @@ fn quality_tick(per_unit: bool) -> impl Fn(f64, f64) -> String {
 /// The two risk points as marks on an OC chart, at the Pa the printed
 /// plan achieves there.
 fn risk_marks(f: &Common) -> [Mark; 2] {
-    let (producer, consumer) = (f.risks.producer(), f.risks.consumer());
-    let pa1 = f.pa_at_p1();
-    let beta = f.achieved.1;
+    let (risks, achieved) = match &f.agreement {
+        Agreement::Points { risks, achieved } => (risks, achieved),
+        Agreement::Rectifying { request, figures } => {
+            return rectifying::marks(f, request, figures);
+        }
+    };
+    let (producer, consumer) = (risks.producer(), risks.consumer());
+    let pa1 = 1.0 - achieved.0;
+    let beta = achieved.1;
     [
         Mark {
             x: producer.quality,

@@ -107,15 +107,12 @@ impl<'a> Facts<'a> {
         let request = source.variables_request()?;
         let plan = source.recorded_variables_plan(request.spec())?;
         let scheme = words::scheme(request.spec().sigma_kind());
-        let common = super::Common::new(
-            source,
-            text,
-            file_name,
-            *request.risks(),
-            request.model(),
-            scheme,
-            variables_risks(&plan, request.risks()),
-        )?;
+        let agreement = super::Agreement::Points {
+            risks: *request.risks(),
+            achieved: variables_risks(&plan, request.risks()),
+        };
+        let common =
+            super::Common::new(source, text, file_name, agreement, request.model(), scheme)?;
         Ok(Facts {
             common,
             plan,
@@ -665,14 +662,14 @@ fn oc_chart(
     h: f64,
 ) -> Result<(), NumericalError> {
     let plan = &f.plan;
-    let consumer = f.common.risks.consumer();
+    let upper = f.common.agreement.qualities().1;
     let lowest = plan.spec().lowest_quality();
     let start = lowest.max(1e-6);
     let centred = plan.pa_centred(0.5).is_some();
     let attributes = f.attributes.as_ref().map(|a| &a.plan);
     // The axis from the one-sided curve: the centred one, which costs a
     // quadrature a point, runs close beside it.
-    let mut reach = quality_where(|p| plan.pa(p), start, 0.02).max(consumer.quality * 1.2);
+    let mut reach = quality_where(|p| plan.pa(p), start, 0.02).max(upper * 1.2);
     if let Some(a) = attributes {
         reach = reach.max(quality_at_pa(a, &f.model, 0.02));
     }
