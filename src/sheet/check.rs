@@ -114,7 +114,7 @@ pub fn check_sheet(source: &Path, pdf: &Path) -> SheetVerdict {
         Ok(sheet) if sheet.pdf == bytes => SheetVerdict::Genuine,
         Ok(_) => foreign(
             format!(
-                "it carries this source's SHA-256, but its pages differ from the sheet this source prints on {}",
+                "it carries this source's SHA-256, but it differs from the sheet this source prints on {}, byte for byte",
                 paper.name()
             ),
             None,
