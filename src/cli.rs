@@ -123,7 +123,7 @@ pub struct ModelFlags {
 #[derive(Debug, Args)]
 pub struct DesignArgs {
     /// A plan source to solve instead of the flags below
-    #[arg(value_name = "FILE.yaml", conflicts_with_all = ["aql", "rql", "alpha", "beta", "model", "lot_size", "title", "scheme", "criterion", "second_ratio", "stage_count", "sigma", "limit", "sigma_value", "lower", "upper", "unit"])]
+    #[arg(value_name = "FILE.yaml", conflicts_with_all = ["aql", "rql", "alpha", "beta", "model", "lot_size", "title", "scheme", "criterion", "second_ratio", "stage_count", "sigma", "limit", "sigma_value", "lower", "upper", "unit", "id", "revision", "date", "item", "characteristic", "prepared_by", "approved_by"])]
     pub source: Option<PathBuf>,
     /// Producer's quality p1 (AQL), as a fraction (0.01) or a percent (1%)
     #[arg(
@@ -192,6 +192,27 @@ pub struct DesignArgs {
     /// Title recorded in the plan source written with --output
     #[arg(long)]
     pub title: Option<String>,
+    /// Plan identifier (document number), recorded as `id` for the sheet
+    #[arg(long, value_name = "TEXT")]
+    pub id: Option<String>,
+    /// Revision of the plan document, recorded as `revision`
+    #[arg(long, value_name = "TEXT")]
+    pub revision: Option<String>,
+    /// Date of the revision, YYYY-MM-DD, recorded as `date`
+    #[arg(long, value_name = "YYYY-MM-DD")]
+    pub date: Option<String>,
+    /// The item inspected (part name, number, drawing revision), recorded as `item`
+    #[arg(long, value_name = "TEXT")]
+    pub item: Option<String>,
+    /// What is checked and what makes a unit nonconforming, recorded as `characteristic`
+    #[arg(long, value_name = "TEXT")]
+    pub characteristic: Option<String>,
+    /// Who prepared the plan (name, function), recorded as `prepared_by`
+    #[arg(long, value_name = "TEXT")]
+    pub prepared_by: Option<String>,
+    /// Who approved the plan (name, function), recorded as `approved_by`
+    #[arg(long, value_name = "TEXT")]
+    pub approved_by: Option<String>,
     /// Sensitivity: the step by which the AQL moves [default: 1-2-5 step near a fifth of it]
     #[arg(long, value_name = "P", allow_hyphen_values = true)]
     pub step_aql: Option<String>,
@@ -246,6 +267,10 @@ pub struct EvaluateArgs {
     /// Evenly spaced qualities LO:HI:COUNT (0.5%:8%:50)
     #[arg(long, value_name = "LO:HI:COUNT", allow_hyphen_values = true)]
     pub range: Option<String>,
+    /// Evaluate a recorded plan that differs from a re-solve or no longer meets its risk
+    /// points, the discrepancy stated in the output (without it, such a source is refused)
+    #[arg(long, requires = "sources")]
+    pub accept_recorded: bool,
     /// Output format
     #[arg(long, value_enum, ignore_case = true, default_value = "table")]
     pub format: ReportFormatArg,
@@ -302,6 +327,10 @@ pub struct JudgeArgs {
     /// Units inspected so far, for one cumulative --found count (item-by-item plans)
     #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub inspected: Option<String>,
+    /// Decide by a recorded plan that differs from a re-solve or no longer meets its risk
+    /// points, the discrepancy stated beside the decision (without it, such a source is refused)
+    #[arg(long)]
+    pub accept_recorded: bool,
     /// Output format
     #[arg(long, value_enum, ignore_case = true, default_value = "table")]
     pub format: JudgeFormat,
@@ -424,7 +453,8 @@ pub struct SheetArgs {
 
 #[derive(Debug, Args)]
 pub struct NewArgs {
-    /// Template kind: binomial, hypergeometric, poisson, double, multiple, sequential or variables
+    /// Template kind: binomial, hypergeometric, poisson, double, multiple, sequential, variables
+    /// or rectifying
     #[arg(value_name = "KIND")]
     pub kind: String,
 }
@@ -470,10 +500,17 @@ pub struct RectifyArgs {
     /// Likelihood model [default: hypergeometric, since the lot size is known]
     #[arg(long, value_enum, ignore_case = true)]
     pub model: Option<ModelArg>,
-    /// Title printed above the plan
+    /// Title printed above the plan, and recorded in the plan source written with --output
     #[arg(long)]
     pub title: Option<String>,
     /// Output format
     #[arg(long, value_enum, ignore_case = true, default_value = "table")]
     pub format: ReportFormatArg,
+    /// Write the plan as a plan source (scheme: rectifying) to this file, atomically, for
+    /// verify, sheet, evaluate and judge
+    #[arg(long, value_name = "FILE.yaml")]
+    pub output: Option<PathBuf>,
+    /// Let --output replace a file that exists already
+    #[arg(long, requires = "output")]
+    pub force: bool,
 }

@@ -214,8 +214,8 @@ fn variables_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>), 
 }
 
 fn recorded_risks(source: &PlanSource) -> (f64, f64) {
-    source
-        .plan
-        .as_ref()
-        .map_or((f64::NAN, f64::NAN), |p| (p.producer_risk, p.consumer_risk))
+    source.plan.as_ref().map_or((f64::NAN, f64::NAN), |p| {
+        let risk = |r: Option<f64>| r.unwrap_or(f64::NAN);
+        (risk(p.producer_risk), risk(p.consumer_risk))
+    })
 }

@@ -138,9 +138,10 @@ pub enum SourceError {
         source: DesignError,
     },
     /// The recorded plan differs from a re-solve of its risk points, or no
-    /// longer meets them, and printing it as recorded was not asked for.
+    /// longer meets them, and using it as recorded (to print, evaluate or
+    /// judge by) was not asked for.
     #[error(
-        "{path}: {discrepancy}; re-solve it with: lotsman design {} --in-place, or print it as recorded, the discrepancy stated on the sheet, with --accept-recorded",
+        "{path}: {discrepancy}; re-solve it with: lotsman design {} --in-place, or use the plan as recorded with --accept-recorded, which states the discrepancy in the output",
         crate::plain::shell_path(path)
     )]
     Unconfirmed {

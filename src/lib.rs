@@ -111,13 +111,14 @@ pub use report::{
 };
 pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{
-    ContourLabel, HASH_PREFIX, MapContour, MapPanel, MapQuantity, Paper, Sheet, SheetOptions,
-    TradeoffMap, render_sheet, render_sheet_noting, render_tradeoff_map, sheet_source_hash,
-    source_hash, write_sheet,
+    ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity, Paper,
+    SOURCE_NAME_KEY, Sheet, SheetNotes, SheetOptions, SheetVerdict, TradeoffMap, check_sheet,
+    render_sheet, render_sheet_noting, render_tradeoff_map, sheet_source_hash, source_hash,
+    write_sheet,
 };
 pub use source::{
-    Audit, Difference, Discrepancy, MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES, PlanSource, PointSource,
-    RISK_TOLERANCE, RecordedPlan, RecordedVariables, SCHEMA_VERSION, UnmetPoint, VariablesSource,
-    Verdict, audit, tool_version, verify,
+    Audit, Audited, Description, Difference, Discrepancy, MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES,
+    PlanSource, PointSource, RISK_TOLERANCE, RecordedPlan, RecordedVariables, SCHEMA_VERSION,
+    UnmetPoint, VariablesSource, Verdict, audit, tool_version, verify,
 };
-pub use templates::{TEMPLATES, template, template_kinds};
+pub use templates::{Placeholder, TEMPLATES, placeholders, template, template_kinds};

@@ -28,18 +28,18 @@ use cli::{
     ReportFormatArg, SchemeArg, SigmaArg, SingleOrDoubleArg, TradeoffFormat,
 };
 use lotsman::{
-    BatchSummary, Criterion, Csv, Decision, DesignReport, DesignRequest, Discrepancy, Error,
+    BatchSummary, Criterion, Csv, Decision, Description, DesignReport, DesignRequest, Error,
     EvaluationBatchReport, EvaluationEntry, EvaluationReport, InputError, Json, LimitKind,
     MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Overwrite, Paper, PlanSource,
     Protection, RectifyingReport, RectifyingRequest, ReportFormat, RiskPair, RiskPoint, Scheme,
-    SchemeOptions, SheetOptions, SigmaKind, SourceError, SourceEvaluation, SourceFile,
-    Specification, StagedPlan, Steps, Table, TradeoffReport, TradeoffRequest,
-    VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry, VerifyStatus,
-    default_qualities, design_rectifying, evaluate, evaluate_source, expand_paths, judge,
-    judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_measurements,
-    parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo, run_in_parallel,
-    sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve, solve_variables,
-    source_hash, template, template_kinds, tradeoff, verify_file, write_atomic, write_sheet,
+    SchemeOptions, SheetNotes, SheetOptions, SheetVerdict, SigmaKind, SourceError,
+    SourceEvaluation, SourceFile, Specification, StagedPlan, Steps, Table, TradeoffReport,
+    TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry,
+    VerifyStatus, check_sheet, default_qualities, design_rectifying, evaluate, evaluate_source,
+    expand_paths, judge, judge_cumulative, judge_measurements, parse_count, parse_fraction,
+    parse_measurements, parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo,
+    run_in_parallel, sensitivity, sheet_target, sheet_targets, solve, solve_variables, template,
+    template_kinds, tradeoff, verify_file, write_atomic, write_sheet,
 };
 use lotsman::{escape_controls, shell_path, shell_word};
 use progress::Progress;
@@ -198,6 +198,9 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     let variables = match &args.source {
         Some(path) => {
             let source = PlanSource::load(path)?;
+            if source.is_rectifying() {
+                return design_rectifying_source(&args, source, path);
+            }
             if source.is_variables() {
                 let request = source
                     .variables_request()
@@ -216,10 +219,9 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
                 .title
                 .clone()
                 .unwrap_or_else(|| "Untitled plan".to_string());
-            Some((
-                PlanSource::new_variables(&title, &request, args.unit.clone()),
-                request,
-            ))
+            let mut source = PlanSource::new_variables(&title, &request, args.unit.clone());
+            source.describe(description_from(&args))?;
+            Some((source, request))
         }
         None => {
             refuse_variables_flags(&args)?;
@@ -284,7 +286,9 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
                 .title
                 .clone()
                 .unwrap_or_else(|| "Untitled plan".to_string());
-            (PlanSource::new(&title, &request), request)
+            let mut source = PlanSource::new(&title, &request);
+            source.describe(description_from(&args))?;
+            (source, request)
         }
     };
     let solution = solve(&request).map_err(|e| design_error(&args, e))?;
@@ -314,6 +318,55 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     }
     print_out(&text)?;
     Ok(ExitCode::SUCCESS)
+}
+
+/// `design FILE` of a minimum-inspection source: solved as `rectify`
+/// solves it, recorded, written to `--output` and reported.
+fn design_rectifying_source(
+    args: &cli::DesignArgs,
+    mut source: PlanSource,
+    path: &Path,
+) -> Result<ExitCode, Error> {
+    let request = source
+        .rectifying_request()
+        .map_err(|e| SourceError::Invalid {
+            path: path.to_path_buf(),
+            source: e,
+        })?;
+    let design = design_rectifying(&request).map_err(|e| design_error(args, e))?;
+    let report = RectifyingReport::new(&source.title, &design);
+    report.check()?;
+    if args.output.is_some() || args.format == DesignFormat::Yaml {
+        source
+            .record_rectifying(&design)
+            .map_err(|e| SourceError::Invalid {
+                path: path.to_path_buf(),
+                source: e,
+            })?;
+    }
+    write_source(args, &source)?;
+    let mut text = Vec::new();
+    match args.format {
+        DesignFormat::Table => Table.rectifying(&mut text, &report)?,
+        DesignFormat::Json => Json.rectifying(&mut text, &report)?,
+        DesignFormat::Yaml => text = source.to_yaml().into_bytes(),
+    }
+    print_out(&text)?;
+    Ok(ExitCode::SUCCESS)
+}
+
+/// The document fields of `--id`, `--revision`, `--date`, `--item`,
+/// `--characteristic`, `--prepared-by` and `--approved-by`.
+fn description_from(args: &cli::DesignArgs) -> Description {
+    Description {
+        id: args.id.clone(),
+        revision: args.revision.clone(),
+        date: args.date.clone(),
+        item: args.item.clone(),
+        characteristic: args.characteristic.clone(),
+        prepared_by: args.prepared_by.clone(),
+        approved_by: args.approved_by.clone(),
+    }
 }
 
 /// The criterion of `--criterion`, or the default.
@@ -695,14 +748,17 @@ fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
         [one] if !one.is_dir() => {
             let qualities = asked_qualities(&args, source_models([one.as_path()]))?;
             let mut text = Vec::new();
-            match evaluate_source(one, &qualities, source_lot(&args)?)? {
+            let evaluation =
+                evaluate_source(one, &qualities, source_lot(&args)?, args.accept_recorded)?;
+            match &evaluation {
                 SourceEvaluation::Attributes(r) => {
-                    formatter(args.format).evaluation(&mut text, &r)?
+                    formatter(args.format).evaluation(&mut text, r)?
                 }
                 SourceEvaluation::Variables(r) => {
-                    formatter(args.format).variables_evaluation(&mut text, &r)?
+                    formatter(args.format).variables_evaluation(&mut text, r)?
                 }
             }
+            warn_accepted(one, evaluation.accepted_recorded(), EVALUATED_AS_RECORDED);
             print_out(&text)?;
             Ok(ExitCode::SUCCESS)
         }
@@ -771,10 +827,17 @@ fn evaluate_batch_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
     let results = run_batch(&found, "sources evaluated", |entry| match entry {
         Ok(s) => EvaluationEntry::new(
             s.path.display().to_string(),
-            evaluate_source(&s.path, &qualities, lot).map_err(|e| e.to_string()),
+            evaluate_source(&s.path, &qualities, lot, args.accept_recorded)
+                .map_err(|e| e.to_string()),
         ),
         Err(e) => EvaluationEntry::new(e.path().display().to_string(), Err(e.to_string())),
     });
+    for e in &results {
+        if let Some(evaluation) = &e.evaluation {
+            let accepted = evaluation.accepted_recorded();
+            warn_accepted(Path::new(&e.path), accepted, EVALUATED_AS_RECORDED);
+        }
+    }
     let report = EvaluationBatchReport { results };
     let mut text = Vec::new();
     formatter(args.format).evaluations(&mut text, &report)?;
@@ -813,41 +876,31 @@ fn exit_code(worst: Outcome) -> ExitCode {
     }
 }
 
-/// The largest sheet read by `verify --sheet` (16 MiB; a sheet is about
-/// 100 kB), refused by size first.
-const MAX_SHEET_BYTES: u64 = 16 << 20;
-
-/// Checks that the sheet at `pdf` carries the hash of the source at `source`.
-fn check_sheet(entry: &mut VerifyEntry, source: &Path, pdf: &Path) {
-    let recorded = read_limited(pdf, MAX_SHEET_BYTES, "a plan sheet")
-        .map_err(|e| lotsman::io_message(pdf, &e))
-        .and_then(|b| {
-            sheet_source_hash(&b)
-                .map_err(|_| format!("{}: not a PDF that can be read", pdf.display()))
-        });
-    let actual = PlanSource::read_text(source).map(|t| source_hash(&t));
-    let invalid = |entry: &mut VerifyEntry, message: String| {
-        entry.status = VerifyStatus::Invalid;
-        entry.message = Some(message);
-    };
-    match (recorded, actual) {
-        (Ok(Some(r)), Ok(a)) if r == a => {}
-        (Ok(Some(r)), Ok(a)) => {
+/// Checks that the sheet at `pdf` is the sheet this tool prints from the
+/// source at `source` (see [`check_sheet`]): a forged or foreign sheet
+/// makes the entry a mismatch, an unreadable one invalid.
+fn check_sheet_entry(entry: &mut VerifyEntry, source: &Path, pdf: &Path) {
+    match check_sheet(source, pdf) {
+        SheetVerdict::Genuine => {}
+        SheetVerdict::Foreign { reason, hashes } => {
             if entry.status == VerifyStatus::Match {
                 entry.status = VerifyStatus::Mismatch;
             }
-            entry.differences.push(lotsman::Difference {
-                field: format!("sheet {} source SHA-256", pdf.display()),
-                recorded: r,
-                resolved: a,
-            });
+            if let Some((recorded, resolved)) = hashes {
+                entry.differences.push(lotsman::Difference {
+                    field: format!("sheet {} source SHA-256", pdf.display()),
+                    recorded,
+                    resolved,
+                });
+            }
+            if entry.message.is_none() {
+                entry.message = Some(reason);
+            }
         }
-        (Ok(None), _) => invalid(
-            entry,
-            format!("{}: not a lotsman sheet (no source hash)", pdf.display()),
-        ),
-        (Err(e), _) => invalid(entry, e),
-        (_, Err(e)) => invalid(entry, e.to_string()),
+        SheetVerdict::Unreadable(message) => {
+            entry.status = VerifyStatus::Invalid;
+            entry.message = Some(message);
+        }
     }
 }
 
@@ -886,7 +939,7 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
         },
     });
     for ((entry, source), pdf) in results.iter_mut().zip(&args.sources).zip(&args.sheet) {
-        check_sheet(entry, source, pdf);
+        check_sheet_entry(entry, source, pdf);
     }
     let report = VerificationReport {
         results,
@@ -902,7 +955,9 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
 const MAX_MEASUREMENTS_BYTES: u64 = 10 << 20;
 
 fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode, Error> {
-    let (_, request, plan) = PlanSource::load_with_variables_plan(&args.source)?;
+    let (audited, request, plan) =
+        PlanSource::load_with_variables_plan(&args.source, args.accept_recorded)?;
+    let accepted = audited.accepted.map(|d| d.to_string());
     let io = |e: std::io::Error| SourceError::Io {
         path: csv.to_path_buf(),
         source: e,
@@ -918,11 +973,9 @@ fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode,
     let j = judge_measurements(&plan, &values, request.risks().producer().quality)?;
     j.check()?;
     let text = match args.format {
-        cli::JudgeFormat::Json => {
-            serde_json::to_string_pretty(&j).map_err(std::io::Error::other)? + "\n"
-        }
+        cli::JudgeFormat::Json => judgement_json(&j, accepted.as_deref())?,
         cli::JudgeFormat::Table => {
-            let mut t = String::new();
+            let mut t = accepted_line(accepted.as_deref());
             for w in &j.warnings {
                 t.push_str(&format!("WARNING: {w}\n"));
             }
@@ -988,6 +1041,7 @@ fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode,
             t
         }
     };
+    warn_accepted(&args.source, accepted.as_deref(), DECIDED_AS_RECORDED);
     print_out(text.as_bytes())?;
     Ok(ExitCode::SUCCESS)
 }
@@ -996,7 +1050,8 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
     if let Some(csv) = &args.measurements {
         return judge_measurements_cmd(&args, csv);
     }
-    let (_, request, plan) = PlanSource::load_with_plan(&args.source)?;
+    let (audited, model, plan) = PlanSource::load_with_plan(&args.source, args.accept_recorded)?;
+    let accepted = audited.accepted.map(|d| d.to_string());
     let found = args
         .found
         .iter()
@@ -1012,18 +1067,16 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
             };
             judge_cumulative(
                 &plan,
-                &request.model,
+                &model,
                 parse_count("--inspected", n, u64::MAX)?,
                 *count,
             )?
         }
-        None => judge(&plan, &request.model, &found)?,
+        None => judge(&plan, &model, &found)?,
     };
     let item_by_item = plan.sequential_lines().is_some();
     let text = match args.format {
-        cli::JudgeFormat::Json => {
-            serde_json::to_string_pretty(&j).map_err(std::io::Error::other)? + "\n"
-        }
+        cli::JudgeFormat::Json => judgement_json(&j, accepted.as_deref())?,
         cli::JudgeFormat::Table => {
             let rule = match j.decision {
                 Decision::Accept => format!(
@@ -1051,7 +1104,8 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
             };
             let place = if item_by_item { "item" } else { "stage" };
             format!(
-                "{verdict}\n  {place} {}: {} units inspected in all, cumulative count {rule}\n  plan {} from {}\n",
+                "{}{verdict}\n  {place} {}: {} units inspected in all, cumulative count {rule}\n  plan {} from {}\n",
+                accepted_line(accepted.as_deref()),
                 j.stage,
                 j.inspected,
                 plan,
@@ -1059,6 +1113,7 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
             )
         }
     };
+    warn_accepted(&args.source, accepted.as_deref(), DECIDED_AS_RECORDED);
     print_out(text.as_bytes())?;
     Ok(ExitCode::SUCCESS)
 }
@@ -1083,8 +1138,8 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
                 sheet_target(&named, output_dir)
             }
         };
-        let accepted = write_one_sheet(source, &out, &options, output_dir.is_some())?;
-        warn_accepted(source, accepted.as_ref());
+        let notes = write_one_sheet(source, &out, &options, output_dir.is_some())?;
+        warn_sheet_notes(source, &notes);
         eprintln!("lotsman: wrote sheet {}", shown(&out));
         return Ok(ExitCode::SUCCESS);
     }
@@ -1108,8 +1163,8 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
     for (path, result) in &results {
         let shown = path.display().to_string();
         match result {
-            Ok(accepted) => {
-                warn_accepted(path, accepted.as_ref());
+            Ok(notes) => {
+                warn_sheet_notes(path, notes);
                 summary.push(&shown, Outcome::Ok, "");
             }
             Err(message) => summary.push(&shown, Outcome::Invalid, message),
@@ -1119,27 +1174,69 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
     Ok(exit_code(summary.worst()))
 }
 
-/// The warning on stderr for a sheet printed with a discrepancy at the
-/// user's request: the sheet states it, and so does the terminal.
-fn warn_accepted(source: &Path, accepted: Option<&Discrepancy>) {
+/// What was done with a recorded plan used at the user's request although
+/// the audit does not confirm it, for [`warn_accepted`].
+const PRINTED_AS_RECORDED: &str =
+    "printed as recorded (--accept-recorded), with the discrepancy stated on the sheet";
+const EVALUATED_AS_RECORDED: &str =
+    "evaluated as recorded (--accept-recorded), with the discrepancy stated in the report";
+const DECIDED_AS_RECORDED: &str = "the lot is decided by the plan as recorded (--accept-recorded), with the discrepancy stated beside the decision";
+
+/// The warning on stderr for a recorded plan used with a discrepancy at
+/// the user's request (`done` says how): the output states it, and so
+/// does the terminal.
+fn warn_accepted(source: &Path, accepted: Option<&str>, done: &str) {
     if let Some(d) = accepted {
         eprintln!(
-            "lotsman: warning: {}: {}; printed as recorded (--accept-recorded), with the discrepancy stated on the sheet",
+            "lotsman: warning: {}: {}; {done}",
             shown(source),
-            escape_controls(&d.to_string())
+            escape_controls(d)
         );
     }
 }
 
+/// The warnings of a sheet written from `source`: the discrepancy it
+/// states, and one line per field that still holds a template's
+/// placeholder.
+fn warn_sheet_notes(source: &Path, notes: &SheetNotes) {
+    let accepted = notes.accepted.as_ref().map(|d| d.to_string());
+    warn_accepted(source, accepted.as_deref(), PRINTED_AS_RECORDED);
+    for p in &notes.placeholders {
+        eprintln!(
+            "lotsman: warning: {}: {}",
+            shown(source),
+            escape_controls(&p.to_string())
+        );
+    }
+}
+
+/// The first line of a decision by a plan used as recorded although the
+/// audit does not confirm it; empty otherwise.
+fn accepted_line(accepted: Option<&str>) -> String {
+    accepted.map_or(String::new(), |d| {
+        format!("DECIDED BY THE PLAN AS RECORDED (--accept-recorded): {d}\n")
+    })
+}
+
+/// A judgement as JSON, with the discrepancy of a plan used as recorded
+/// under `accepted_recorded`.
+fn judgement_json(j: &impl serde::Serialize, accepted: Option<&str>) -> Result<String, Error> {
+    let mut value = serde_json::to_value(j).map_err(std::io::Error::other)?;
+    if let (Some(d), serde_json::Value::Object(map)) = (accepted, &mut value) {
+        map.insert("accepted_recorded".into(), d.into());
+    }
+    Ok(serde_json::to_string_pretty(&value).map_err(std::io::Error::other)? + "\n")
+}
+
 /// Writes the sheet of `source` to `target`, never over the source itself;
 /// with `make_folders` (an output folder) the target's folders are created.
-/// Returns the discrepancy of a plan printed as recorded.
+/// Returns what the sheet states or still holds, for the warnings.
 fn write_one_sheet(
     source: &Path,
     target: &Path,
     options: &SheetOptions,
     make_folders: bool,
-) -> Result<Option<Discrepancy>, Error> {
+) -> Result<SheetNotes, Error> {
     refuse_overwriting_input(target, Some(source), false)?;
     if make_folders && let Some(folder) = target.parent() {
         std::fs::create_dir_all(folder).map_err(|e| SourceError::Io {
@@ -1204,6 +1301,17 @@ fn rectify_cmd(args: cli::RectifyArgs) -> Result<ExitCode, Error> {
             .into());
         }
     };
+    if let Some(target) = &args.output
+        && target
+            .extension()
+            .is_some_and(|e| e.eq_ignore_ascii_case("pdf"))
+    {
+        return Err(InputError::Inconsistent(format!(
+            "--output writes the plan source, YAML, and {} names a PDF; write FILE.yaml, then print its sheet with: lotsman sheet FILE.yaml",
+            target.display()
+        ))
+        .into());
+    }
     let request =
         RectifyingRequest::new(model, process_average, protection, scheme_of(args.scheme))?;
     let design = design_rectifying(&request)?;
@@ -1212,6 +1320,16 @@ fn rectify_cmd(args: cli::RectifyArgs) -> Result<ExitCode, Error> {
         .unwrap_or_else(|| "Minimum-inspection plan".to_string());
     let report = RectifyingReport::new(&title, &design);
     report.check()?;
+    if let Some(target) = &args.output {
+        let mut source = PlanSource::new_rectifying(&title, &request);
+        source.record_rectifying(&design)?;
+        write_atomic(
+            target,
+            source.to_yaml().as_bytes(),
+            Overwrite::from_force(args.force),
+        )?;
+        eprintln!("lotsman: wrote plan source {}", target.display());
+    }
     let mut text = Vec::new();
     formatter(args.format).rectifying(&mut text, &report)?;
     print_out(&text)?;

@@ -487,17 +487,17 @@ fn verify_names_every_field_of_every_scheme() {
         (
             Path::new(SEAL),
             "plan.producer_risk",
-            Box::new(|s| s.plan.as_mut().unwrap().producer_risk *= 1.0 + 1e-8),
+            Box::new(|s| *s.plan.as_mut().unwrap().producer_risk.as_mut().unwrap() *= 1.0 + 1e-8),
         ),
         (
             Path::new(VARIABLES),
             "plan.consumer_risk",
-            Box::new(|s| s.plan.as_mut().unwrap().consumer_risk = f64::NAN),
+            Box::new(|s| s.plan.as_mut().unwrap().consumer_risk = Some(f64::NAN)),
         ),
         (
             Path::new(DOUBLE),
             "plan.producer_risk",
-            Box::new(|s| s.plan.as_mut().unwrap().producer_risk = f64::INFINITY),
+            Box::new(|s| s.plan.as_mut().unwrap().producer_risk = Some(f64::INFINITY)),
         ),
     ];
     for (path, field, edit) in cases {
@@ -514,7 +514,7 @@ fn verify_names_every_field_of_every_scheme() {
     ));
     // Within the tolerance a recorded risk still matches.
     let fields = differing_fields(Path::new(SEAL), |s| {
-        s.plan.as_mut().unwrap().producer_risk *= 1.0 + 1e-12
+        *s.plan.as_mut().unwrap().producer_risk.as_mut().unwrap() *= 1.0 + 1e-12
     });
     assert!(fields.is_empty(), "{fields:?}");
 }
@@ -722,4 +722,144 @@ fn sources_written_by_design_output_round_trip_for_every_scheme() {
     }
     let two = two_limit(dir.path());
     check_written(&two);
+}
+
+/// The arguments that decide a lot of `source` by `judge`: a count for an
+/// attributes plan; for a variables plan, a file of as many readings as
+/// its sample (near 12, spread a little) written beside the source.
+fn judge_args(source: &Path) -> Vec<String> {
+    let loaded = PlanSource::load(source).unwrap();
+    let mut args = vec!["judge".to_string(), source.display().to_string()];
+    match loaded.plan.as_ref().and_then(|p| p.variables) {
+        Some(v) => {
+            let csv = source.with_extension("csv");
+            let readings: String = (0..v.n)
+                .map(|i| format!("{:.3}\n", 12.0 + 0.002 * (i % 7) as f64 - 0.006))
+                .collect();
+            std::fs::write(&csv, readings).unwrap();
+            args.extend(["--measurements".into(), csv.display().to_string()]);
+        }
+        None => args.extend(["--found".into(), "0".into()]),
+    }
+    args
+}
+
+#[test]
+fn judge_and_evaluate_refuse_a_plan_a_re_solve_does_not_confirm_naming_the_field() {
+    let dir = tempfile::tempdir().unwrap();
+    for (source, field) in edited_sources(dir.path()) {
+        let evaluate = vec!["evaluate".to_string(), source.display().to_string()];
+        for args in [judge_args(&source), evaluate] {
+            let out = lotsman().args(&args).assert().code(2);
+            let output = out.get_output();
+            assert!(output.stdout.is_empty(), "{args:?}");
+            let stderr = String::from_utf8(output.stderr.clone()).unwrap();
+            assert_eq!(stderr.lines().count(), 1, "{stderr}");
+            assert!(
+                stderr.starts_with(&format!(
+                    "lotsman: error: {}: recorded plan differs from a re-solve: {field}",
+                    source.display()
+                )) && stderr.contains("--accept-recorded"),
+                "{args:?}: {stderr}"
+            );
+        }
+    }
+}
+
+#[test]
+fn judge_and_evaluate_with_accept_recorded_state_the_discrepancy_in_every_format() {
+    let dir = tempfile::tempdir().unwrap();
+    for (source, field) in edited_sources(dir.path()) {
+        let shown = source.display().to_string();
+        let warning =
+            format!("lotsman: warning: {shown}: recorded plan differs from a re-solve: {field}");
+        // Text and table: the first line states it; stderr warns.
+        let mut judge = judge_args(&source);
+        judge.push("--accept-recorded".into());
+        let evaluate = vec![
+            "evaluate".to_string(),
+            shown.clone(),
+            "--accept-recorded".into(),
+        ];
+        for (args, head) in [
+            (
+                &judge,
+                "DECIDED BY THE PLAN AS RECORDED (--accept-recorded): ",
+            ),
+            (&evaluate, "EVALUATED AS RECORDED (--accept-recorded): "),
+        ] {
+            let out = lotsman().args(args).assert().success();
+            let stdout = String::from_utf8(out.get_output().stdout.clone()).unwrap();
+            let stderr = String::from_utf8(out.get_output().stderr.clone()).unwrap();
+            assert!(
+                stdout.starts_with(&format!(
+                    "{head}recorded plan differs from a re-solve: {field}"
+                )),
+                "{args:?}:\n{stdout}"
+            );
+            assert!(stderr.starts_with(&warning), "{args:?}: {stderr}");
+            // JSON: the key holds the discrepancy.
+            let mut json_args = args.clone();
+            json_args.extend(["--format".into(), "json".into()]);
+            let out = lotsman().args(&json_args).assert().success();
+            let value: serde_json::Value =
+                serde_json::from_slice(&out.get_output().stdout).unwrap();
+            let accepted = value["accepted_recorded"].as_str().unwrap_or_default();
+            assert!(
+                accepted.starts_with(&format!("recorded plan differs from a re-solve: {field}")),
+                "{json_args:?}: {value}"
+            );
+        }
+    }
+    // A confirmed plan carries no such line or key.
+    let plain = stdout_of(&["evaluate", SEAL, "--format", "json", "--accept-recorded"]);
+    assert!(!plain.contains("accepted_recorded"), "{plain}");
+    let plain = stdout_of(&["judge", SEAL, "--found", "1", "--accept-recorded"]);
+    assert!(plain.starts_with("ACCEPT the lot"), "{plain}");
+}
+
+#[test]
+fn a_batch_evaluation_refuses_an_unconfirmed_source_or_states_its_discrepancy() {
+    let dir = tempfile::tempdir().unwrap();
+    let root = dir.path().join("plans");
+    std::fs::create_dir(&root).unwrap();
+    std::fs::copy(SEAL, root.join("a-good.yaml")).unwrap();
+    edited(&root, "b-single.yaml", SEAL, &[("n: 166", "n: 150")]);
+    let r = root.to_str().unwrap();
+    let out = lotsman()
+        .args(["evaluate", r, "--at", "1%"])
+        .assert()
+        .code(2);
+    let stdout = String::from_utf8(out.get_output().stdout.clone()).unwrap();
+    assert!(
+        stdout.contains(&format!(
+            "invalid   {}: recorded plan differs from a re-solve: ",
+            root.join("b-single.yaml").display()
+        )) && stdout.ends_with("1 evaluated, 1 invalid\n"),
+        "{stdout}"
+    );
+    let out = lotsman()
+        .args([
+            "evaluate",
+            r,
+            "--at",
+            "1%",
+            "--format",
+            "json",
+            "--accept-recorded",
+        ])
+        .assert()
+        .success();
+    let value: serde_json::Value = serde_json::from_slice(&out.get_output().stdout).unwrap();
+    let results = value["results"].as_array().unwrap();
+    assert!(results[0]["evaluation"].get("accepted_recorded").is_none());
+    let accepted = results[1]["evaluation"]["accepted_recorded"]
+        .as_str()
+        .unwrap();
+    assert!(
+        accepted.contains("recorded 150, re-solved 166"),
+        "{accepted}"
+    );
+    let stderr = String::from_utf8(out.get_output().stderr.clone()).unwrap();
+    assert!(stderr.contains("b-single.yaml: recorded plan differs") && !stderr.contains("a-good"));
 }

@@ -477,17 +477,27 @@ fn evaluate_of_a_folder_gives_each_source_under_its_path_then_the_summary() {
     assert_eq!(headers, order);
     assert!(out.contains("Plan 62:2:3 (N:AC:RE), hypergeometric model, lot of 400 units"));
     assert!(out.contains("Plan n = 42, k = 1.901"), "the variables plan");
-    assert!(
-        out.contains("Plan 150:3:4"),
-        "the edited plan is evaluated as recorded"
-    );
+    // The edited plan is refused as the audit finds it (issue 14, item 7),
+    // as sheet refuses it; --accept-recorded evaluates it as recorded.
+    assert!(!out.contains("Plan 150:3:4"), "the edited plan is refused");
     assert!(out.contains("invalid: "));
     let lines: Vec<&str> = out.lines().collect();
+    assert!(lines[lines.len() - 3].starts_with(&format!(
+        "invalid   {}: recorded plan differs from a re-solve: ",
+        root.join("east/edited.yaml").display()
+    )));
     assert!(lines[lines.len() - 2].starts_with(&format!(
         "invalid   {}: line 15: 'lotsize' is not a key of a plan source; did you mean lot_size?",
         root.join("west/broken.yaml").display()
     )));
-    assert_eq!(lines[lines.len() - 1], "5 evaluated, 1 invalid");
+    assert_eq!(lines[lines.len() - 1], "4 evaluated, 2 invalid");
+    let root_s = root.to_str().unwrap();
+    let accepted = stdout_of(
+        &["evaluate", root_s, "--at", "1%,6%", "--accept-recorded"],
+        2,
+    );
+    assert!(accepted.contains("Plan 150:3:4"), "evaluated as recorded");
+    assert!(accepted.ends_with("5 evaluated, 1 invalid\n"), "{accepted}");
 }
 
 #[test]

@@ -1773,7 +1773,7 @@ fn sources_and_files_are_refused_in_plain_words() {
             "a scheme in capitals (did you mean)",
             &v("@scheme-capital.yaml"),
             2,
-            "line 3: scheme must be one of single, double, multiple, sequential, variables, not 'Single'; did you mean single?",
+            "line 3: scheme must be one of single, double, multiple, sequential, variables, rectifying, not 'Single'; did you mean single?",
         ),
         reported(
             "a misspelt model (did you mean)",
@@ -2599,4 +2599,377 @@ fn control_characters_are_shown_escaped() {
         ),
     ];
     run_in(&fx, "control characters", &cases);
+}
+
+/// Judge and evaluate on a source that no longer verifies (issue 14,
+/// item 7): a recorded plan edited by hand, which a re-solve and the
+/// recorded risk points no longer confirm, is refused naming the field and
+/// both values, as `sheet` refuses it; in a batch it is that source's
+/// failure. `--accept-recorded` is the way to use it anyway (tested in
+/// tests/audit.rs).
+#[test]
+fn judge_and_evaluate_on_a_source_that_no_longer_verifies_are_refused() {
+    let fx = Fixtures::new();
+    let seal = std::fs::read_to_string("plans/tpw-seal-visual.yaml").unwrap();
+    let cover = std::fs::read_to_string("plans/tpw-cover-thickness.yaml").unwrap();
+    std::fs::write(
+        fx.path("n-edited.yaml"),
+        seal.replacen("n: 166", "n: 150", 1),
+    )
+    .unwrap();
+    std::fs::write(
+        fx.path("k-edited.yaml"),
+        cover.replacen("k: 1.901", "k: 1.7", 1),
+    )
+    .unwrap();
+    std::fs::create_dir(fx.path("folder")).unwrap();
+    std::fs::write(fx.path("folder/a.yaml"), &seal).unwrap();
+    std::fs::write(
+        fx.path("folder/b.yaml"),
+        seal.replacen("n: 166", "n: 150", 1),
+    )
+    .unwrap();
+    let cases = vec![
+        refused(
+            "judge, a single plan with its n edited",
+            &["judge", "@n-edited.yaml", "--found", "2"],
+            "recorded 150, re-solved 166",
+        ),
+        refused(
+            "judge, the advice names the way out",
+            &["judge", "@n-edited.yaml", "--found", "2"],
+            "or use the plan as recorded with --accept-recorded",
+        ),
+        refused(
+            "judge, a variables plan with its k edited",
+            &[
+                "judge",
+                "@k-edited.yaml",
+                "--measurements",
+                "plans/tpw-cover-thickness-readings.csv",
+                "--column",
+                "thickness_mm",
+            ],
+            "plan.variables.k: recorded 1.7, re-solved 1.901",
+        ),
+        refused(
+            "evaluate, a single plan with its n edited",
+            &["evaluate", "@n-edited.yaml"],
+            "recorded 150, re-solved 166",
+        ),
+        refused(
+            "evaluate, a variables plan with its k edited",
+            &["evaluate", "@k-edited.yaml", "--format", "json"],
+            "plan.variables.k: recorded 1.7, re-solved 1.901",
+        ),
+        reported(
+            "evaluate, a folder: the edited source is that source's failure",
+            &["evaluate", "@folder"],
+            2,
+            "1 evaluated, 1 invalid",
+        ),
+        reported(
+            "evaluate, a folder: the failure names the field",
+            &["evaluate", "@folder", "--at", "1%"],
+            2,
+            "recorded 150, re-solved 166",
+        ),
+    ];
+    run_in(&fx, "judge on a source that no longer verifies", &cases);
+}
+
+/// A forged sheet (issue 14, item 9): `verify --sheet` prints the sheet
+/// again from the source and compares the bytes, so neither a PDF made by
+/// hand that carries the source's hash nor another plan's real sheet with
+/// its subject swapped passes; each is a mismatch (exit 1) that says the
+/// sheet does not come from this source and names the version the sheet
+/// claims. A PDF that is no lotsman sheet at all is invalid (exit 2).
+#[test]
+fn forged_sheets_are_caught_by_verify() {
+    let fx = Fixtures::new();
+    let fit = "plans/tpw-cover-fit.yaml";
+    let hash = lotsman::source_hash(&std::fs::read_to_string(fit).unwrap());
+    std::fs::write(
+        fx.path("hand-made.pdf"),
+        common::hand_made_sheet(&hash, false),
+    )
+    .unwrap();
+    std::fs::write(
+        fx.path("hand-made-letter.pdf"),
+        common::hand_made_sheet(&hash, true),
+    )
+    .unwrap();
+    let seal = fx.path("seal.pdf");
+    lotsman()
+        .args(["sheet", "plans/tpw-seal-visual.yaml", "--output"])
+        .arg(&seal)
+        .assert()
+        .success();
+    let subject = format!("{}{hash}", lotsman::HASH_PREFIX);
+    let swapped = common::with_info(&std::fs::read(&seal).unwrap(), "Subject", &subject);
+    std::fs::write(fx.path("swapped.pdf"), swapped).unwrap();
+    std::fs::write(fx.path("not-a-sheet.pdf"), b"%PDF-1.7\nnothing here\n").unwrap();
+    let claim = "the sheet does not come from this source (or this tool version)";
+    let cases = vec![
+        reported(
+            "a hand-made PDF carrying the source's hash",
+            &["verify", fit, "--sheet", "@hand-made.pdf"],
+            1,
+            claim,
+        ),
+        reported(
+            "a hand-made Letter PDF carrying the source's hash",
+            &["verify", fit, "--sheet", "@hand-made-letter.pdf"],
+            1,
+            claim,
+        ),
+        reported(
+            "the verdict names the version the forgery claims",
+            &["verify", fit, "--sheet", "@hand-made.pdf"],
+            1,
+            "the sheet says it was made by lotsman",
+        ),
+        reported(
+            "another plan's sheet with its subject swapped",
+            &["verify", fit, "--sheet", "@swapped.pdf"],
+            1,
+            claim,
+        ),
+        reported(
+            "a file that is no PDF",
+            &["verify", fit, "--sheet", "@not-a-sheet.pdf"],
+            2,
+            "not a PDF that can be read",
+        ),
+    ];
+    run_in(&fx, "forged sheet", &cases);
+}
+
+/// The document fields `design` takes for the sheet (issue 14, item 16):
+/// a date that is no date of the calendar, an empty text or one with a
+/// control character is refused before any work, naming the flag.
+#[test]
+fn design_refuses_document_fields_it_cannot_record() {
+    let cases = vec![
+        refused_fast(
+            "a date that is no date",
+            &[
+                "design",
+                "--aql",
+                "1%",
+                "--rql",
+                "6%",
+                "--date",
+                "2026-02-30",
+            ],
+            "--date = '2026-02-30' is not a date YYYY-MM-DD",
+        ),
+        refused_fast(
+            "a date in another order",
+            &[
+                "design",
+                "--aql",
+                "1%",
+                "--rql",
+                "6%",
+                "--date",
+                "30.01.2026",
+            ],
+            "--date = '30.01.2026' is not a date YYYY-MM-DD",
+        ),
+        refused_fast(
+            "an empty item",
+            &["design", "--aql", "1%", "--rql", "6%", "--item", ""],
+            "--item = '' is out of range",
+        ),
+        refused_fast(
+            "a name with a tab",
+            &[
+                "design",
+                "--aql",
+                "1%",
+                "--rql",
+                "6%",
+                "--prepared-by",
+                "R.\tOdumbe",
+            ],
+            "--prepared-by holds a control character (U+0009)",
+        ),
+        refused_fast(
+            "a variables design with a bad date",
+            &[
+                "design",
+                "--scheme",
+                "variables",
+                "--sigma",
+                "unknown",
+                "--limit",
+                "lower",
+                "--lower",
+                "5.8",
+                "--aql",
+                "1%",
+                "--rql",
+                "6%",
+                "--date",
+                "2026-13-01",
+            ],
+            "--date = '2026-13-01' is not a date",
+        ),
+    ];
+    run("design document fields", &cases);
+}
+
+/// Minimum-inspection plan sources (`scheme: rectifying`, issue 14,
+/// item 15) that cannot be what they claim, and `rectify --output` where
+/// it must not write: each is refused with the key or the flag named.
+#[test]
+fn rectifying_sources_that_are_not_valid_are_refused() {
+    let fx = Fixtures::new();
+    let head = "schema: 1\ntitle: Bushes\nscheme: rectifying\n";
+    let section =
+        "rectifying:\n  form: single\n  process_average: 0.25%\n  ltpd: 1%\n  beta: 0.1\n";
+    let lot = "model: hypergeometric\nlot_size: 5000\n";
+    let texts = [
+        ("no-section.yaml", format!("{head}{lot}")),
+        (
+            "two-protections.yaml",
+            format!("{head}{section}  aoql: 1%\n{lot}"),
+        ),
+        (
+            "beta-with-aoql.yaml",
+            format!(
+                "{head}rectifying:\n  form: single\n  process_average: 0.25%\n  aoql: 1%\n  beta: 0.1\n{lot}"
+            ),
+        ),
+        (
+            "with-producer.yaml",
+            format!("{head}{section}{lot}producer:\n  quality: 0.01\n  risk: 0.05\n"),
+        ),
+        ("no-lot.yaml", format!("{head}{section}model: binomial\n")),
+        (
+            "form-multiple.yaml",
+            format!(
+                "{head}{}{lot}",
+                section.replace("form: single", "form: multiple")
+            ),
+        ),
+        (
+            "average-above.yaml",
+            format!("{head}{}{lot}", section.replace("0.25%", "2%")),
+        ),
+        ("section-on-single.yaml", format!("{BASE}{section}")),
+        (
+            "no-producer.yaml",
+            BASE.replace("producer:\n  quality: 0.01\n  risk: 0.05\n", ""),
+        ),
+        (
+            "ati-on-single.yaml",
+            format!(
+                "{BASE}plan:\n  stages:\n  - n: 110\n    accept: 3\n    reject: 4\n  producer_risk: 0.025\n  consumer_risk: 0.098\n  ati: 120\n  solved_by: hand\n"
+            ),
+        ),
+        (
+            "risks-missing.yaml",
+            format!(
+                "{head}{section}{lot}plan:\n  stages:\n  - n: 766\n    accept: 4\n    reject: 5\n  solved_by: hand\n"
+            ),
+        ),
+    ];
+    for (name, text) in &texts {
+        std::fs::write(fx.path(name), text).unwrap();
+    }
+    let cases = vec![
+        reported(
+            "scheme: rectifying without its section",
+            &["verify", "@no-section.yaml"],
+            2,
+            "scheme: rectifying needs a 'rectifying' section",
+        ),
+        refused(
+            "an LTPD and an AOQL at once",
+            &["design", "@two-protections.yaml"],
+            "give one protection in 'rectifying': ltpd (with beta) or aoql, not both",
+        ),
+        refused(
+            "beta beside an AOQL",
+            &["design", "@beta-with-aoql.yaml"],
+            "rectifying.beta goes with an LTPD",
+        ),
+        refused(
+            "a producer's point on a minimum-inspection plan",
+            &["design", "@with-producer.yaml"],
+            "'producer' does not belong to a minimum-inspection plan",
+        ),
+        refused(
+            "no lot size",
+            &["design", "@no-lot.yaml"],
+            "a minimum-inspection plan needs lot_size",
+        ),
+        refused(
+            "a form other than single or double",
+            &["design", "@form-multiple.yaml"],
+            "rectifying.form = multiple is out of range",
+        ),
+        refused(
+            "a process average above the LTPD",
+            &["design", "@average-above.yaml"],
+            "must be below the LTPD",
+        ),
+        refused(
+            "a rectifying section on a single plan",
+            &["design", "@section-on-single.yaml"],
+            "'rectifying' applies to minimum-inspection plans (scheme: rectifying) only",
+        ),
+        refused(
+            "a single plan without its producer's point",
+            &["design", "@no-producer.yaml"],
+            "the source has no producer: line; add producer: with quality: (the AQL) and risk: (alpha)",
+        ),
+        reported(
+            "an ATI recorded on a single plan",
+            &["verify", "@ati-on-single.yaml"],
+            2,
+            "plan.ati belongs to minimum-inspection plans",
+        ),
+        refused(
+            "a recorded minimum-inspection plan without its figures",
+            &["judge", "@risks-missing.yaml", "--found", "1"],
+            "the recorded plan gives no ati",
+        ),
+        refused(
+            "rectify --output naming a PDF",
+            &[
+                "rectify",
+                "--lot-size",
+                "5000",
+                "--process-average",
+                "0.25%",
+                "--ltpd",
+                "1%",
+                "--output",
+                "@r.pdf",
+            ],
+            "--output writes the plan source, YAML",
+        ),
+        refused(
+            "rectify --output when the answer is 100% inspection",
+            &[
+                "rectify",
+                "--lot-size",
+                "50",
+                "--process-average",
+                "0.5%",
+                "--ltpd",
+                "2%",
+                "--model",
+                "binomial",
+                "--output",
+                "@full.yaml",
+            ],
+            "there is no sampling plan to record",
+        ),
+    ];
+    run_in(&fx, "rectifying source", &cases);
+    assert!(!fx.path("r.pdf").exists() && !fx.path("full.yaml").exists());
 }

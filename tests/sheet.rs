@@ -490,7 +490,8 @@ fn the_single_sheet_keeps_its_own_layout() {
             "OC chart",
             "AOQ chart",
             "measures",
-            "signatures",
+            "record",
+            "approval",
             "footer"
         ]
     );
@@ -956,4 +957,595 @@ fn a_file_name_the_font_cannot_draw_prints_a_safe_form_that_still_works() {
         String::from_utf8_lossy(&ran.stderr)
     );
     assert_eq!(std::fs::read(&pdf).unwrap(), first);
+}
+
+/// `verify --sheet` on `pdf` (bytes written to a file) against `source`:
+/// the exit code and stdout.
+fn verify_sheet(source: &str, pdf: &[u8], extra: &[&str]) -> (i32, String) {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("sheet.pdf");
+    std::fs::write(&path, pdf).unwrap();
+    let out = Command::cargo_bin("lotsman")
+        .unwrap()
+        .args(["verify", source, "--sheet", path.to_str().unwrap()])
+        .args(extra)
+        .output()
+        .unwrap();
+    (
+        out.status.code().unwrap(),
+        String::from_utf8(out.stdout).unwrap(),
+    )
+}
+
+#[test]
+fn verify_passes_a_genuine_sheet_on_either_paper_and_catches_forged_ones() {
+    let dir = tempfile::tempdir().unwrap();
+    let text = std::fs::read_to_string(DEMO).unwrap();
+    let hash = source_hash(&text);
+    let version = format!("lotsman {}", env!("CARGO_PKG_VERSION"));
+    for (paper, letter) in [("a4", false), ("letter", true)] {
+        let genuine = dir.path().join(format!("seal-{paper}.pdf"));
+        Command::cargo_bin("lotsman")
+            .unwrap()
+            .args(["sheet", DEMO, "--paper", paper, "--output"])
+            .arg(&genuine)
+            .assert()
+            .success();
+        let genuine = std::fs::read(&genuine).unwrap();
+        assert_eq!(verify_sheet(DEMO, &genuine, &[]).0, 0, "{paper}");
+
+        // A PDF made by hand that carries the source's hash.
+        let forged = common::hand_made_sheet(&hash, letter);
+        assert!(forged.len() < 1000, "{} bytes", forged.len());
+        assert_eq!(sheet_source_hash(&forged).unwrap(), Some(hash.clone()));
+        // Another plan's real sheet, its subject swapped for this hash.
+        let other = dir.path().join(format!("fit-{paper}.pdf"));
+        Command::cargo_bin("lotsman")
+            .unwrap()
+            .args([
+                "sheet",
+                "plans/tpw-cover-fit.yaml",
+                "--paper",
+                paper,
+                "--output",
+            ])
+            .arg(&other)
+            .assert()
+            .success();
+        let swapped = common::with_info(
+            &std::fs::read(&other).unwrap(),
+            "Subject",
+            &format!("{}{hash}", lotsman::HASH_PREFIX),
+        );
+        // The genuine sheet with its bytes touched: one more space in the
+        // title of its metadata.
+        let touched = common::with_info(&genuine, "Title", &format!("{} ", source_title()));
+        for (what, pdf) in [
+            ("hand-made", &forged),
+            ("subject swapped", &swapped),
+            ("touched", &touched),
+        ] {
+            let (code, out) = verify_sheet(DEMO, pdf, &[]);
+            assert_eq!(code, 1, "{paper} {what}: {out}");
+            assert!(
+                out.contains("the sheet does not come from this source (or this tool version)")
+                    && out.contains(&format!("the sheet says it was made by {version}")),
+                "{paper} {what}: {out}"
+            );
+        }
+    }
+}
+
+/// The demo source's title, as its sheet's metadata holds it.
+fn source_title() -> String {
+    demo_source().1.title
+}
+
+#[test]
+fn verify_names_the_tool_version_a_foreign_sheet_says_it_came_from() {
+    let dir = tempfile::tempdir().unwrap();
+    let pdf = dir.path().join("seal.pdf");
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .args(["sheet", DEMO, "--output"])
+        .arg(&pdf)
+        .assert()
+        .success();
+    let older = common::with_info(&std::fs::read(&pdf).unwrap(), "Creator", "lotsman 0.0.9");
+    let (code, out) = verify_sheet(DEMO, &older, &["--format", "json"]);
+    assert_eq!(code, 1, "{out}");
+    let value: serde_json::Value = serde_json::from_str(&out).unwrap();
+    let message = value["results"][0]["message"].as_str().unwrap();
+    assert!(
+        message.contains("the sheet does not come from this source (or this tool version)")
+            && message.contains(&format!(
+                "the sheet says it was made by lotsman 0.0.9; this is lotsman {}",
+                env!("CARGO_PKG_VERSION")
+            )),
+        "{message}"
+    );
+    assert_eq!(value["results"][0]["status"], "mismatch");
+}
+
+#[test]
+fn a_sheet_printed_as_recorded_or_from_a_renamed_source_still_verifies_as_its_sheet() {
+    let dir = tempfile::tempdir().unwrap();
+    let edited = dir.path().join("edited.yaml");
+    let text = std::fs::read_to_string(DEMO).unwrap();
+    std::fs::write(&edited, text.replacen("n: 166", "n: 150", 1)).unwrap();
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .arg("sheet")
+        .arg(&edited)
+        .args(["--accept-recorded", "--paper", "letter"])
+        .assert()
+        .success();
+    let pdf = std::fs::read(edited.with_extension("pdf")).unwrap();
+    // The source itself mismatches (n edited); the sheet is its sheet.
+    let (code, out) = verify_sheet(edited.to_str().unwrap(), &pdf, &[]);
+    assert_eq!(code, 1, "{out}");
+    assert!(out.contains("recorded 150, re-solved 166"), "{out}");
+    assert!(!out.contains("does not come from"), "{out}");
+    // The footer names the file printed from; a copy under another name
+    // is still the source of that sheet.
+    let renamed = dir.path().join("renamed.yaml");
+    std::fs::copy(DEMO, &renamed).unwrap();
+    let genuine = dir.path().join("g.pdf");
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .args(["sheet", DEMO, "--output"])
+        .arg(&genuine)
+        .assert()
+        .success();
+    let (code, out) = verify_sheet(
+        renamed.to_str().unwrap(),
+        &std::fs::read(&genuine).unwrap(),
+        &[],
+    );
+    assert_eq!(code, 0, "{out}");
+}
+
+#[test]
+fn verify_passes_the_genuine_sheet_of_every_kind_of_plan() {
+    let dir = tempfile::tempdir().unwrap();
+    for source in [
+        DOUBLE,
+        SEQUENTIAL,
+        MULTIPLE,
+        "plans/tpw-cover-thickness.yaml",
+    ] {
+        let pdf = dir.path().join("s.pdf");
+        Command::cargo_bin("lotsman")
+            .unwrap()
+            .args(["sheet", source, "--force", "--output"])
+            .arg(&pdf)
+            .assert()
+            .success();
+        let (code, out) = verify_sheet(source, &std::fs::read(&pdf).unwrap(), &[]);
+        assert_eq!(code, 0, "{source}: {out}");
+    }
+}
+
+// A sheet ready to sign: the lot record, the document fields from
+// `design`, the placeholders left, a long characteristic (issue 14,
+// item 16).
+
+const SEAL: &str = DEMO;
+const HOUSING: &str = "plans/tpw-housing-finish.yaml";
+const COVER_THICKNESS: &str = "plans/tpw-cover-thickness.yaml";
+
+#[test]
+fn every_attribute_sheet_has_a_lot_record_beside_the_measures_on_either_paper() {
+    let cases = [
+        (SEAL, "Nonconforming units found"),
+        (HOUSING, "Nonconformities found"),
+        (DOUBLE, "Found at stage"),
+        (MULTIPLE, "Found at stage"),
+        (SEQUENTIAL, "Decided at unit"),
+    ];
+    for (path, count_field) in cases {
+        let (text, source) = source_at(path);
+        for paper in [Paper::A4, Paper::Letter] {
+            let sheet = render_sheet(&text, &source, "s.yaml", paper)
+                .unwrap_or_else(|e| panic!("{path} {paper:?}: {e}"));
+            assert_laid_out(&sheet, paper);
+            let block = |name: &str| {
+                sheet
+                    .regions
+                    .iter()
+                    .find(|r| r.name == name)
+                    .unwrap_or_else(|| panic!("{path} {paper:?}: no {name}"))
+                    .clone()
+            };
+            let (record, approval, measures) =
+                (block("record"), block("approval"), block("measures"));
+            // The record stands beside the measures table, over the
+            // approval, and the two fill the table's height.
+            assert!(record.x > measures.x + measures.w, "{path} {paper:?}");
+            assert!(record.y > approval.y, "{path} {paper:?}");
+            assert!(
+                ((record.y + record.h) - (measures.y + measures.h)).abs() < 1e-6
+                    && (approval.y - measures.y).abs() < 1e-6,
+                "{path} {paper:?}"
+            );
+            let words = folded(&pdf_text(&sheet.pdf));
+            for needle in [
+                "LOT RECORD",
+                "Lot no.",
+                count_field,
+                "Decision",
+                "accept",
+                "reject",
+                "Inspected by",
+                "Prepared by",
+                "Approved by",
+                "Signature",
+            ] {
+                assert!(
+                    words.contains(needle),
+                    "{path} {paper:?}: no {needle:?} in {words}"
+                );
+            }
+        }
+    }
+    // An item-by-item plan records the unit that decided the lot and the
+    // running count there: the figures judge --inspected --found takes.
+    let (text, source) = source_at(SEQUENTIAL);
+    let sheet = render_sheet(&text, &source, "s.yaml", Paper::A4).unwrap();
+    let words = folded(&pdf_text(&sheet.pdf));
+    assert!(words.contains("Decided at unit") && words.contains("running count"));
+    assert!(!words.contains("Found at stage"), "{words}");
+}
+
+/// The heights in points of the boxes pdftotext gives the words `word` of
+/// a PDF: the font size times 1.164 for the sheet's font (DejaVu Sans's
+/// ascent plus descent), so 8 pt gives 9.31 and 7 pt 8.15.
+fn word_heights(pdf: &[u8], word: &str) -> Vec<f64> {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("s.pdf");
+    std::fs::write(&path, pdf).unwrap();
+    let out = Process::new("pdftotext")
+        .args(["-bbox", path.to_str().unwrap(), "-"])
+        .output()
+        .expect("pdftotext (poppler-utils) is installed");
+    let attr = |line: &str, key: &str| -> f64 {
+        let at = line.find(&format!("{key}=\"")).unwrap() + key.len() + 2;
+        line[at..].split('"').next().unwrap().parse().unwrap()
+    };
+    String::from_utf8(out.stdout)
+        .unwrap()
+        .lines()
+        .filter(|l| l.trim_end().ends_with(&format!(">{word}</word>")))
+        .map(|l| attr(l, "yMax") - attr(l, "yMin"))
+        .collect()
+}
+
+/// A characteristic of some 320 characters, with a word found nowhere
+/// else on a sheet.
+const LONG_CHARACTERISTIC: &str = "Bore diameter 12.000 +0.018/-0.000 mm, measured with the \
+    air gauge TPW-AG-12 at three heights and in two orientations ninety degrees apart; a \
+    unit is nonconforming when any of the six readings lies outside the tolerance, or when \
+    the bore shows a scratch deeper than 0.01 mm under the profilometer (Quillfeather method)";
+
+#[test]
+fn a_long_characteristic_wraps_onto_more_lines_and_never_prints_below_7_points() {
+    for path in [SEAL, DOUBLE, SEQUENTIAL, MULTIPLE, COVER_THICKNESS] {
+        let (text, mut source) = source_at(path);
+        source.characteristic = Some(LONG_CHARACTERISTIC.to_string());
+        for paper in [Paper::A4, Paper::Letter] {
+            let sheet = render_sheet(&text, &source, "s.yaml", paper)
+                .unwrap_or_else(|e| panic!("{path} {paper:?}: {e}"));
+            assert_laid_out(&sheet, paper);
+            let page = folded(&pdf_text(&sheet.pdf));
+            assert!(
+                page.contains(LONG_CHARACTERISTIC),
+                "{path} {paper:?}: {page}"
+            );
+            let heights = word_heights(&sheet.pdf, "(Quillfeather");
+            assert_eq!(heights.len(), 1, "{path} {paper:?}");
+            assert!(
+                heights[0] >= 8.1,
+                "{path} {paper:?}: {heights:?} (7 pt is 8.15)"
+            );
+        }
+    }
+    // One that does not fit at 7 points in five lines is refused, with
+    // the field named.
+    let (text, mut source) = source_at(SEAL);
+    source.characteristic = Some(LONG_CHARACTERISTIC.repeat(2));
+    let err = render_sheet(&text, &source, "s.yaml", Paper::A4)
+        .unwrap_err()
+        .to_string();
+    assert!(
+        err.contains("cannot be laid out") && err.contains("Characteristic: 'Bore diameter"),
+        "{err}"
+    );
+}
+
+#[test]
+fn a_short_characteristic_keeps_8_points() {
+    let (text, source) = demo_source();
+    let sheet = render_sheet(&text, &source, "s.yaml", Paper::A4).unwrap();
+    let heights = word_heights(&sheet.pdf, "magnification");
+    assert_eq!(heights.len(), 1);
+    assert!((heights[0] - 9.31).abs() < 0.05, "{heights:?}");
+}
+
+#[test]
+fn a_sheet_straight_from_design_is_ready_to_sign() {
+    let dir = tempfile::tempdir().unwrap();
+    let source = dir.path().join("seal.yaml");
+    let fields = [
+        ("--id", "id", "TPW-RI-0520"),
+        ("--revision", "revision", "B"),
+        ("--date", "date", "2026-03-04"),
+        (
+            "--item",
+            "item",
+            "O-ring 20 x 2 mm, FKM 75, part TPW-4410 rev. A",
+        ),
+        (
+            "--characteristic",
+            "characteristic",
+            "Surface defects under 4x magnification per TPW visual standard VS-07",
+        ),
+        (
+            "--prepared-by",
+            "prepared_by",
+            "R. Odumbe, supplier quality engineer",
+        ),
+        (
+            "--approved-by",
+            "approved_by",
+            "H. Vasquez-Lind, quality manager",
+        ),
+    ];
+    let mut args = vec![
+        "design",
+        "--aql",
+        "0.65%",
+        "--rql",
+        "4%",
+        "--title",
+        "O-ring seals, visual",
+    ];
+    for (flag, _, value) in &fields {
+        args.extend([*flag, *value]);
+    }
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .args(&args)
+        .arg("--output")
+        .arg(&source)
+        .assert()
+        .success();
+    let loaded = PlanSource::load(&source).unwrap();
+    let yaml = std::fs::read_to_string(&source).unwrap();
+    for (_, key, value) in &fields {
+        assert!(
+            yaml.contains(&format!("\n{key}: {value}\n")),
+            "{key} in:\n{yaml}"
+        );
+    }
+    assert_eq!(loaded.prepared_by.as_deref(), Some(fields[5].2));
+    // The sheet prints without a warning and carries every field.
+    let pdf = dir.path().join("seal.pdf");
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .arg("sheet")
+        .arg(&source)
+        .assert()
+        .success()
+        .stderr(format!("lotsman: wrote sheet {}\n", pdf.display()));
+    let words = folded(&pdf_text(&std::fs::read(&pdf).unwrap()));
+    for (_, _, value) in &fields {
+        assert!(words.contains(value), "no {value:?} in {words}");
+    }
+    // A variables design takes them too.
+    let out = Command::cargo_bin("lotsman")
+        .unwrap()
+        .args([
+            "design",
+            "--scheme",
+            "variables",
+            "--sigma",
+            "unknown",
+            "--limit",
+            "lower",
+            "--lower",
+            "5.8",
+            "--aql",
+            "1%",
+            "--rql",
+            "6%",
+            "--id",
+            "TPW-RI-0521",
+            "--date",
+            "2026-03-05",
+            "--format",
+            "yaml",
+        ])
+        .assert()
+        .success();
+    let yaml = String::from_utf8(out.get_output().stdout.clone()).unwrap();
+    assert!(
+        yaml.contains("\nid: TPW-RI-0521\n") && yaml.contains("\ndate: 2026-03-05\n"),
+        "{yaml}"
+    );
+}
+
+#[test]
+fn a_sheet_warns_of_each_placeholder_a_template_left() {
+    let dir = tempfile::tempdir().unwrap();
+    for kind in ["binomial", "sequential", "variables"] {
+        let template = dir.path().join(format!("{kind}.yaml"));
+        let out = Command::cargo_bin("lotsman")
+            .unwrap()
+            .args(["new", kind])
+            .output()
+            .unwrap();
+        // The user fills in the item and leaves the rest.
+        let text = String::from_utf8(out.stdout).unwrap().replace(
+            "<part name, part number, drawing revision>",
+            "Seal 20 x 2 mm, TPW-4410",
+        );
+        std::fs::write(&template, text).unwrap();
+        let solved = dir.path().join(format!("{kind}-solved.yaml"));
+        Command::cargo_bin("lotsman")
+            .unwrap()
+            .arg("design")
+            .arg(&template)
+            .arg("--output")
+            .arg(&solved)
+            .assert()
+            .success();
+        let out = Command::cargo_bin("lotsman")
+            .unwrap()
+            .arg("sheet")
+            .arg(&solved)
+            .assert()
+            .success();
+        let stderr = String::from_utf8(out.get_output().stderr.clone()).unwrap();
+        let warned: Vec<&str> = stderr
+            .lines()
+            .filter(|l| l.starts_with("lotsman: warning: "))
+            .collect();
+        let fields = [
+            "title",
+            "id",
+            "characteristic",
+            "prepared_by",
+            "approved_by",
+            "notes",
+        ];
+        assert_eq!(warned.len(), fields.len(), "{kind}: {stderr}");
+        for (line, field) in warned.iter().zip(fields) {
+            assert!(
+                line.starts_with(&format!(
+                    "lotsman: warning: {}: {field} still holds the template's placeholder <",
+                    solved.display()
+                )),
+                "{kind}: {line}"
+            );
+        }
+    }
+    // The demo plans, filled in, print without one.
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .args(["sheet", SEAL, "--output"])
+        .arg(dir.path().join("seal.pdf"))
+        .assert()
+        .success()
+        .stderr(predicate::str::contains("warning").not());
+}
+
+/// `rectify ARGS --output DIR/NAME`: the source written.
+fn rectifying_source(dir: &Path, name: &str, args: &[&str]) -> std::path::PathBuf {
+    let path = dir.join(name);
+    Command::cargo_bin("lotsman")
+        .unwrap()
+        .arg("rectify")
+        .args(args)
+        .arg("--output")
+        .arg(&path)
+        .assert()
+        .success();
+    path
+}
+
+#[test]
+fn a_minimum_inspection_plan_prints_its_protection_procedure_and_ati() {
+    let dir = tempfile::tempdir().unwrap();
+    let lot = ["--lot-size", "5000", "--process-average", "0.25%"];
+    let single = rectifying_source(
+        dir.path(),
+        "single.yaml",
+        &[&lot[..], &["--ltpd", "1%"]].concat(),
+    );
+    let double = rectifying_source(
+        dir.path(),
+        "double.yaml",
+        &[&lot[..], &["--aoql", "1%", "--scheme", "double"]].concat(),
+    );
+    let cases = [
+        (
+            &single,
+            vec![
+                "n = 766",
+                "Accept if ≤ 4 nonconforming units",
+                "Process average (p̄) 0.2500% least ATI ATI = 922.2 of 5000 (Pa = 0.9631)",
+                "LTPD (consumer's protection) 1.000% β ≤ 0.1 β = 0.1000 (Pa = 0.1000)",
+                "Nonconforming units found",
+            ],
+        ),
+        (
+            &double,
+            vec![
+                "DOUBLE SAMPLING: 2 STAGES, UP TO 363 UNITS",
+                "AOQL (consumer's protection) 1.000% AOQ ≤ 1.000% AOQL = 0.9990% at 1.880%",
+                "Found at stage",
+            ],
+        ),
+    ];
+    for (path, needles) in cases {
+        let (text, source) = source_at(path.to_str().unwrap());
+        let model = *source.rectifying_request().unwrap().model();
+        let plan = source.recorded_plan(&model).unwrap();
+        for paper in [Paper::A4, Paper::Letter] {
+            let sheet = render_sheet(&text, &source, "r.yaml", paper)
+                .unwrap_or_else(|e| panic!("{} {paper:?}: {e}", path.display()));
+            assert_laid_out(&sheet, paper);
+            let names: Vec<&str> = sheet.regions.iter().map(|r| r.name.as_str()).collect();
+            for block in [
+                "protection",
+                "OC chart",
+                "AOQ chart",
+                "measures",
+                "record",
+                "approval",
+            ] {
+                assert!(names.contains(&block), "no {block} in {names:?}");
+            }
+            assert!(!names.contains(&"risks"), "{names:?}");
+            let words = folded(&pdf_text(&sheet.pdf));
+            let lines = pdf_lines(&sheet.pdf).join("\n");
+            for needle in &needles {
+                assert!(
+                    words.contains(needle) || lines.contains(needle),
+                    "{paper:?}: no {needle:?} in:\n{lines}"
+                );
+            }
+            for needle in [
+                "rectifying, ",
+                "AGREED PROTECTION AND WHAT THIS PLAN ACHIEVES UNDER RECTIFYING INSPECTION (HYPERGEOMETRIC MODEL)",
+                "p̄ = 0.2500%",
+                "LTPD = ",
+                "Sampling does not guarantee the quality of a lot",
+            ] {
+                assert!(
+                    words.contains(needle),
+                    "{paper:?}: no {needle:?} in {words}"
+                );
+            }
+            // The rectifying procedure: a rejected lot is screened.
+            for step in lotsman::words::rectifying_procedure(&plan, false) {
+                assert!(
+                    words.contains(&folded(&step)),
+                    "no step {step:?} in {words}"
+                );
+            }
+            assert!(!words.contains("returned or screened"), "{words}");
+            assert!(!words.contains('?'), "a '?' reached the page:\n{words}");
+        }
+        // The command prints it, and verify knows its sheet.
+        let pdf = path.with_extension("pdf");
+        Command::cargo_bin("lotsman")
+            .unwrap()
+            .arg("sheet")
+            .arg(path)
+            .assert()
+            .success();
+        let (code, out) = verify_sheet(path.to_str().unwrap(), &std::fs::read(&pdf).unwrap(), &[]);
+        assert_eq!(code, 0, "{out}");
+    }
 }

@@ -69,7 +69,7 @@ fn recorded_plan_is_valid(source: &PlanSource) -> Result<(), InputError> {
         let request = source.variables_request()?;
         source.recorded_variables_plan(request.spec())?;
     } else {
-        source.recorded_plan(&source.request()?.model)?;
+        source.recorded_plan(&source.staged_model()?)?;
     }
     Ok(())
 }

@@ -77,8 +77,10 @@ use super::single::{
 };
 use crate::error::{DesignError, InputError};
 use crate::model::{MAX_LOT_SIZE, Model, ModelKind, nonconforming_in_lot};
-use crate::plan::{Aoql, StagedPlan, acceptance_probability, aoql, measures, quality_at_pa};
-use crate::risk::{RiskPoint, check_quality, check_risk};
+use crate::plan::{
+    Aoql, StagedPlan, acceptance_probability, aoql, default_qualities, measures, quality_at_pa,
+};
+use crate::risk::{RiskPair, RiskPoint, check_quality, check_risk};
 
 /// The largest acceptance number the scan reaches for an AOQL: each step
 /// is an exact threshold search on the AOQL, whose every evaluation scans
@@ -251,6 +253,32 @@ impl RectifyingRequest {
             Protection::Ltpd(point) => point.risk,
             Protection::Aoql(_) => AOQL_PLAN_LTPD_RISK,
         }
+    }
+
+    /// The qualities at which `plan` is evaluated by default: the eight
+    /// levels that bracket the process average and the LTPD (the agreed
+    /// one, or for an AOQL protection the plan's own, where `Pa` falls to
+    /// [`AOQL_PLAN_LTPD_RISK`]), as [`default_qualities`] brackets two risk
+    /// points.
+    pub fn default_qualities(&self, plan: &StagedPlan) -> Vec<f64> {
+        let upper = match self.protection {
+            Protection::Ltpd(point) => point.quality,
+            Protection::Aoql(_) => quality_at_pa(plan, &self.model, self.ltpd_risk()),
+        };
+        // Only the qualities of the pair are used; its risks are the
+        // nominal 0.05 and 0.10 of any valid pair.
+        let pair = RiskPair::new(
+            RiskPoint {
+                quality: self.process_average,
+                risk: 0.05,
+            },
+            RiskPoint {
+                quality: upper,
+                risk: 0.10,
+            },
+            &self.model,
+        );
+        default_qualities(plan, &self.model, pair.ok().as_ref())
     }
 }
 

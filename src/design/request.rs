@@ -30,6 +30,10 @@ pub enum Scheme {
     /// Measurements of a normal characteristic against its limits
     /// ([`VariablesRequest`]).
     Variables,
+    /// A minimum-inspection plan for rectifying inspection, single or
+    /// double, from a process average and a protection
+    /// ([`RectifyingRequest`](super::RectifyingRequest)).
+    Rectifying,
 }
 
 impl Scheme {
@@ -41,6 +45,7 @@ impl Scheme {
             Scheme::Multiple => "multiple",
             Scheme::Sequential => "sequential",
             Scheme::Variables => "variables",
+            Scheme::Rectifying => "rectifying",
         }
     }
 }
@@ -113,6 +118,11 @@ impl SchemeOptions {
         if scheme == Scheme::Variables {
             return Err(InputError::Inconsistent(
                 "a variables plan is designed from its specification (sigma and limits), not from attribute settings".to_string(),
+            ));
+        }
+        if scheme == Scheme::Rectifying {
+            return Err(InputError::Inconsistent(
+                "a minimum-inspection plan is designed from a process average and a protection (lotsman rectify), not from two risk points".to_string(),
             ));
         }
         if let Some(r) = self.second_ratio {
@@ -256,6 +266,14 @@ pub fn design_for(request: &DesignRequest) -> Result<Design, DesignError> {
                 reason: "an attributes request cannot describe a variables plan".to_string(),
                 suggestion:
                     "build a VariablesRequest with its specification and call solve_variables"
+                        .to_string(),
+            });
+        }
+        Scheme::Rectifying => {
+            return Err(DesignError::NoPlan {
+                reason: "two risk points cannot describe a minimum-inspection plan".to_string(),
+                suggestion:
+                    "build a RectifyingRequest with its process average and protection and call design_rectifying"
                         .to_string(),
             });
         }

@@ -201,6 +201,17 @@ pub enum SourceEvaluation {
     Variables(VariablesEvaluationReport),
 }
 
+impl SourceEvaluation {
+    /// The discrepancy of a plan evaluated as recorded at the user's
+    /// request, if any.
+    pub fn accepted_recorded(&self) -> Option<&str> {
+        match self {
+            SourceEvaluation::Attributes(r) => r.accepted_recorded.as_deref(),
+            SourceEvaluation::Variables(r) => r.accepted_recorded.as_deref(),
+        }
+    }
+}
+
 /// One source of `evaluate` over many: its evaluation, or why there is
 /// none. In JSON exactly one of `evaluation` and `message` is present.
 #[derive(Clone, Debug, PartialEq, Serialize)]

@@ -240,6 +240,7 @@ impl ReportFormat for Table {
 
     fn evaluation(&self, out: &mut dyn Write, r: &EvaluationReport) -> io::Result<()> {
         let per_unit = r.model == ModelKind::Poisson;
+        accepted_line(out, r.accepted_recorded.as_deref())?;
         let lot = r
             .lot_size
             .map_or("no lot size".to_string(), |n| format!("lot of {n} units"));
@@ -401,6 +402,7 @@ impl ReportFormat for Table {
         out: &mut dyn Write,
         r: &VariablesEvaluationReport,
     ) -> io::Result<()> {
+        accepted_line(out, r.accepted_recorded.as_deref())?;
         let lot = r
             .lot_size
             .map_or("no lot size".to_string(), |n| format!("lot of {n} units"));
@@ -638,4 +640,13 @@ fn specification_line(v: &VariablesReport) -> String {
         },
         limits.join(", ")
     )
+}
+
+/// The first line of an evaluation of a plan used as recorded although the
+/// audit does not confirm it (`--accept-recorded`): the discrepancy.
+fn accepted_line(out: &mut dyn Write, accepted: Option<&str>) -> io::Result<()> {
+    match accepted {
+        Some(d) => writeln!(out, "EVALUATED AS RECORDED (--accept-recorded): {d}"),
+        None => Ok(()),
+    }
 }

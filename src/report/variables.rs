@@ -179,6 +179,11 @@ pub struct VariablesEvaluationReport {
     pub aoql: Aoql,
     /// The quality where `Pa = 0.5`.
     pub indifference_quality: f64,
+    /// The discrepancy of a recorded plan that the audit does not confirm
+    /// and that is evaluated as recorded at the user's request
+    /// (`--accept-recorded`); absent otherwise.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub accepted_recorded: Option<String>,
 }
 
 impl From<&VariablesEvaluation> for VariablesEvaluationReport {
@@ -190,6 +195,7 @@ impl From<&VariablesEvaluation> for VariablesEvaluationReport {
             points: e.points.clone(),
             aoql: e.aoql,
             indifference_quality: e.indifference_quality,
+            accepted_recorded: None,
         }
     }
 }

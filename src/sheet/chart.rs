@@ -485,6 +485,19 @@ pub fn marks(
             // above the plot (for a point near the top) and crossing the
             // dashed guide if need be: better than crossing the curve.
             .or_else(|| search(&|p, lw, n| within(p, lw, n, 3.0) && clear(p, lw, n)))
+            // Then across a vertical guide just right of the point, at the
+            // point's height: where a steep curve near the top leaves no
+            // room between the point and the guide, nor above them.
+            .or_else(|| {
+                let g = guide_x.filter(|&g| g > mx && g - mx < 25.0)?;
+                layouts.iter().find_map(|(lines, lw, _)| {
+                    let up = LABEL_LEAD * (lines.len() as f64 - 1.0);
+                    [(g + 1.5, my - 1.0 - up / 2.0), (g + 1.5, my - 3.6 - up)]
+                        .into_iter()
+                        .find(|p| within(p, *lw, lines.len(), 3.0) && clear(p, *lw, lines.len()))
+                        .map(|p| (lines, *lw, p))
+                })
+            })
             // As before the curve check: the first of the four nearest
             // that is inside, else right-above.
             .or_else(|| {
@@ -557,11 +570,23 @@ pub fn draw(c: &mut Canvas, name: &str, x: f64, y: f64, w: f64, h: f64, chart: &
             y_step: None,
         },
     );
-    let avoid: Vec<LabelBox> = chart
+    let mut avoid: Vec<LabelBox> = chart
         .guide
         .iter()
         .map(|(gx, label)| vertical_guide(c, &plot, *gx, label))
         .collect();
+    // The axis label above the plot: a mark near the top may rise into
+    // the room beside it, not over it. Its glyphs reach 0.6 mm below its
+    // baseline (3 mm above the plot); a label's box reaches 0.85 mm above
+    // its glyphs, so the box avoided starts that much higher.
+    let y_label_w = c.width(chart.y_label, Face::Regular, 7.0);
+    let base = plot.top + 3.0;
+    avoid.push((
+        plot.x - 0.4,
+        base - 0.6 + 0.85,
+        plot.x + y_label_w + 0.4,
+        base + 2.6,
+    ));
     curve(c, &plot, chart.curve, 1.3, curve_colour(), None);
     let guide_x = chart.guide.as_ref().map(|(g, _)| plot.sx(*g));
     marks(c, &plot, chart.marks, guide_x, None, &[chart.curve], &avoid);

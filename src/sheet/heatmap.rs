@@ -188,7 +188,7 @@ pub fn render_tradeoff_map(
         .into());
     }
     let subject = format!("lotsman trade-off map, inputs SHA-256 {hash}");
-    let pdf = save_page(title, &subject, &hash, &regular, &bold, pw, ph, ops)?;
+    let pdf = save_page(title, &subject, &hash, &[], &regular, &bold, pw, ph, ops)?;
     Ok(TradeoffMap {
         pdf,
         inputs_sha256: hash,

@@ -18,8 +18,11 @@
 
 mod canvas;
 mod chart;
+mod check;
 mod heatmap;
 mod names;
+mod record;
+mod rectifying;
 mod text;
 mod variables;
 mod variables_text;
@@ -27,8 +30,7 @@ mod variables_text;
 use sha2::{Digest, Sha256};
 
 use crate::atomic::{Overwrite, write_atomic};
-use crate::design::DesignRequest;
-use crate::design::design_single;
+use crate::design::{Protection, RectifyingPlan, RectifyingRequest, design_single};
 use crate::error::{Error, InputError};
 use crate::model::{Model, ModelKind};
 use crate::numeric::{NumericalError, check_amount, check_probability};
@@ -37,9 +39,13 @@ use crate::plan::{
 };
 use crate::report::{EvaluationReport, format_quality, format_significant, words};
 use crate::risk::RiskPair;
-use crate::source::{Discrepancy, PlanSource, RecordedPlan, attributes_risks, audit, tool_version};
+use crate::source::{
+    Audited, Discrepancy, PlanSource, RecordedPlan, attributes_risks, tool_version,
+};
+use crate::templates::{Placeholder, placeholders};
 use canvas::{BOLD_ID, Canvas, Face, MM_PER_PT, Page, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
+pub use check::{MAX_SHEET_BYTES, SOURCE_NAME_KEY, SheetVerdict, check_sheet};
 pub use heatmap::{
     ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map,
 };
@@ -61,6 +67,14 @@ impl Paper {
         match self {
             Paper::A4 => (210.0, 297.0),
             Paper::Letter => (215.9, 279.4),
+        }
+    }
+
+    /// The paper's name, as messages give it.
+    pub fn name(self) -> &'static str {
+        match self {
+            Paper::A4 => "A4",
+            Paper::Letter => "Letter",
         }
     }
 }
@@ -93,11 +107,8 @@ pub const HASH_PREFIX: &str = "lotsman-source-sha256:";
 struct Common<'a> {
     source: &'a PlanSource,
     recorded: &'a RecordedPlan,
-    risks: RiskPair,
-    /// The producer's and consumer's risks the printed plan achieves,
-    /// computed from the plan (the risk table and the OC chart's marks
-    /// print these, so they always belong to the plan on the page).
-    achieved: (f64, f64),
+    /// What the plan was agreed on, with what the printed plan achieves.
+    agreement: Agreement,
     /// The statement of a discrepancy the audit found, on a sheet printed
     /// as recorded at the user's request.
     notice: Option<String>,
@@ -109,6 +120,43 @@ struct Common<'a> {
     file_name: &'a str,
 }
 
+/// What the plan on a sheet was agreed on, with what the printed plan
+/// achieves there, computed from the plan (the risk table and the OC
+/// chart's marks print these, so they always belong to the plan on the
+/// page).
+enum Agreement {
+    /// Two risk points, and the producer's and consumer's risks the plan
+    /// achieves at them.
+    Points {
+        risks: RiskPair,
+        achieved: (f64, f64),
+    },
+    /// A minimum-inspection plan's process average and protection, and
+    /// what the plan does under rectifying inspection.
+    Rectifying {
+        request: RectifyingRequest,
+        figures: Box<RectifyingPlan>,
+    },
+}
+
+impl Agreement {
+    /// The two qualities the curves and tables are drawn around: the
+    /// producer's and consumer's, or the process average and the LTPD
+    /// (for an AOQL protection, the plan's own, where `Pa` falls to 0.10).
+    fn qualities(&self) -> (f64, f64) {
+        match self {
+            Agreement::Points { risks, .. } => (risks.producer().quality, risks.consumer().quality),
+            Agreement::Rectifying { request, figures } => (
+                request.process_average(),
+                match request.protection() {
+                    Protection::Ltpd(point) => point.quality,
+                    Protection::Aoql(_) => figures.ltpd,
+                },
+            ),
+        }
+    }
+}
+
 impl<'a> Common<'a> {
     /// The shared facts of `source`, whose plan the caller has validated
     /// (so that a missing plan is reported in the plan's own words).
@@ -116,10 +164,9 @@ impl<'a> Common<'a> {
         source: &'a PlanSource,
         text: &str,
         file_name: &'a str,
-        risks: RiskPair,
+        agreement: Agreement,
         model: &Model,
         scheme: String,
-        achieved: (f64, f64),
     ) -> Result<Self, InputError> {
         let recorded = source
             .plan
@@ -128,8 +175,7 @@ impl<'a> Common<'a> {
         Ok(Common {
             source,
             recorded,
-            risks,
-            achieved,
+            agreement,
             notice: None,
             lot_size: model.lot_size(),
             scheme,
@@ -143,19 +189,43 @@ impl<'a> Common<'a> {
     fn q(&self, v: f64) -> String {
         format_quality(v, self.per_unit)
     }
-
-    /// Pa at the producer's point, as the printed plan achieves it.
-    fn pa_at_p1(&self) -> f64 {
-        1.0 - self.achieved.0
-    }
 }
 
-/// What the blocks of an attributes sheet print from, gathered once.
+/// What the blocks of an attributes sheet (a plan designed from two risk
+/// points, or a minimum-inspection plan) print from, gathered once.
 struct Facts<'a> {
     common: Common<'a>,
-    request: DesignRequest,
     model: Model,
     plan: StagedPlan,
+}
+
+impl Facts<'_> {
+    /// The qualities of the measures table: eight levels bracketing the
+    /// two qualities of the agreement.
+    fn default_qualities(&self) -> Vec<f64> {
+        match &self.common.agreement {
+            Agreement::Points { risks, .. } => {
+                crate::plan::default_qualities(&self.plan, &self.model, Some(risks))
+            }
+            Agreement::Rectifying { request, .. } => request.default_qualities(&self.plan),
+        }
+    }
+
+    /// The inspector's procedure: a rejected lot is screened under
+    /// rectifying inspection, and returned or screened as agreed otherwise.
+    fn steps(&self) -> Vec<String> {
+        match self.common.agreement {
+            Agreement::Points { .. } => words::plan_procedure(&self.plan, self.common.per_unit),
+            Agreement::Rectifying { .. } => {
+                words::rectifying_procedure(&self.plan, self.common.per_unit)
+            }
+        }
+    }
+
+    /// Whether the plan is a minimum-inspection plan.
+    fn rectifying(&self) -> bool {
+        matches!(self.common.agreement, Agreement::Rectifying { .. })
+    }
 }
 
 /// A field of the source, or a dash.
@@ -192,8 +262,8 @@ struct CurvePoint {
 /// The quality axis and the curve points of a plan: 241 even steps up to
 /// where Pa has fallen to 0.02 (or 1.2 p2 if that is further).
 fn curve_points(f: &Facts) -> Result<(f64, Vec<CurvePoint>), NumericalError> {
-    let consumer = f.request.risks.consumer();
-    let x_max = nice_ceiling(quality_at_pa(&f.plan, &f.model, 0.02).max(consumer.quality * 1.2));
+    let upper = f.common.agreement.qualities().1;
+    let x_max = nice_ceiling(quality_at_pa(&f.plan, &f.model, 0.02).max(upper * 1.2));
     let points = (0..=240)
         .map(|i| x_max * i as f64 / 240.0)
         .map(|v| v.max(x_max * 1e-6))
@@ -239,7 +309,7 @@ pub fn render_sheet(
     render(text, source, file_name, paper, None)
 }
 
-/// [`render_sheet`] for a recorded plan that the [`audit`] did not confirm,
+/// [`render_sheet`] for a recorded plan that the [`audit`](crate::audit) did not confirm,
 /// printed at the user's request: a boxed notice above the plan states the
 /// `discrepancy` and that the plan is printed as recorded, and the
 /// provenance line's command carries `--accept-recorded`.
@@ -293,24 +363,31 @@ fn render(
         }
         &measured.common
     } else {
-        let request = source.request()?;
-        let model = request.model;
-        let plan = source.recorded_plan(&model)?;
-        let scheme = format!("{}, {}", source.scheme.name(), model.kind().name());
-        let achieved = attributes_risks(&plan, &model, &request.risks);
-        let mut common = Common::new(
-            source,
-            text,
-            file_name,
-            request.risks,
-            &model,
-            scheme,
-            achieved,
-        )?;
+        let (model, plan, agreement, scheme) = if source.is_rectifying() {
+            let request = source.rectifying_request()?;
+            let model = *request.model();
+            let plan = source.recorded_plan(&model)?;
+            let figures = Box::new(RectifyingPlan::new(plan.clone(), &request));
+            let scheme = format!("{}, {}", source.scheme.name(), request.scheme().name());
+            (
+                model,
+                plan,
+                Agreement::Rectifying { request, figures },
+                scheme,
+            )
+        } else {
+            let request = source.request()?;
+            let model = request.model;
+            let plan = source.recorded_plan(&model)?;
+            let achieved = attributes_risks(&plan, &model, &request.risks);
+            let risks = request.risks;
+            let scheme = format!("{}, {}", source.scheme.name(), model.kind().name());
+            (model, plan, Agreement::Points { risks, achieved }, scheme)
+        };
+        let mut common = Common::new(source, text, file_name, agreement, &model, scheme)?;
         common.notice = notice;
         attributes = Facts {
             common,
-            request,
             model,
             plan,
         };
@@ -374,7 +451,8 @@ fn embedded_fonts() -> Result<(printpdf::ParsedFont, printpdf::ParsedFont), Inpu
 }
 
 /// The PDF of one page of `ops`, with the fonts, the source hash in the
-/// subject and the document ID set from it.
+/// subject, the source's file name (as printed in the footer) under
+/// [`SOURCE_NAME_KEY`], and the document ID set from the hash.
 fn save(
     f: &Common,
     regular: &printpdf::ParsedFont,
@@ -388,6 +466,7 @@ fn save(
         &f.source.title,
         &subject,
         &f.hash,
+        &[(SOURCE_NAME_KEY, f.file_name)],
         regular,
         bold,
         pw,
@@ -396,14 +475,16 @@ fn save(
     )
 }
 
-/// The PDF of one page of `ops` titled `title`, with the fonts, `subject`
-/// in the metadata and the document ID made from the hex `hash`, so that
-/// the same inputs give the same bytes in any process.
+/// The PDF of one page of `ops` titled `title`, with the fonts; in the
+/// metadata `subject`, this tool's version as the creator, and the `extra`
+/// entries; the document ID made from the hex `hash`, so that the same
+/// inputs give the same bytes in any process.
 #[allow(clippy::too_many_arguments)]
 fn save_page(
     title: &str,
     subject: &str,
     hash: &str,
+    extra: &[(&str, &str)],
     regular: &printpdf::ParsedFont,
     bold: &printpdf::ParsedFont,
     pw: f64,
@@ -413,6 +494,7 @@ fn save_page(
     let mut warnings = Vec::new();
     let mut doc = printpdf::PdfDocument::new(title);
     doc.metadata.info.subject = subject.to_string();
+    doc.metadata.info.creator = tool_version();
     doc.resources.fonts.map.insert(
         printpdf::FontId(REGULAR_ID.to_string()),
         printpdf::PdfFont::new(regular.clone()),
@@ -430,6 +512,17 @@ fn save_page(
     let id = lopdf::Object::String(hash.as_bytes()[..32].to_vec(), lopdf::StringFormat::Literal);
     lo.trailer
         .set("ID", lopdf::Object::Array(vec![id.clone(), id]));
+    if !extra.is_empty() {
+        let info = lo
+            .trailer
+            .get(b"Info")
+            .and_then(|o| o.as_reference())
+            .and_then(|r| lo.get_dictionary_mut(r))
+            .map_err(|e| Error::Output(std::io::Error::other(e.to_string())))?;
+        for (key, value) in extra {
+            info.set(*key, check::text_object(value));
+        }
+    }
     lo.compress();
     let mut pdf = Vec::new();
     lo.save_to(&mut pdf)
@@ -459,10 +552,12 @@ fn single_layout(
         Some(_) => (STAGED_TITLE_H, STAGED_FOOT_H),
         None => (40.0, FOOT_H),
     };
-    title_block(c, &f.common, left, top, width, title_h);
+    let title_h = title_block(c, &f.common, left, top, width, title_h);
     top -= title_h + 4.0;
     top -= notice_block(c, &f.common, left, top, width, NOTICE_LINES);
-    let plan_h = 42.0;
+    // The box is 42 mm, or as tall as the procedure beside the sample
+    // needs at 8 points (a rectifying procedure has a longer last step).
+    let plan_h = procedure_height(c, f, width - SINGLE_PLAN_COL - 8.0, 8.0).max(42.0);
     single_plan_box(c, f, left, top, width, plan_h, n, ac);
     top -= plan_h + 4.0;
     let risk_h = 20.0;
@@ -470,7 +565,7 @@ fn single_layout(
     top -= risk_h + 3.0;
 
     // Charts take the height that the table and footer leave.
-    let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
+    let qualities = f.default_qualities();
     let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
     EvaluationReport::from(&evaluation).check()?;
     let table_h = measures_height(&evaluation, 4.2);
@@ -495,7 +590,7 @@ fn single_layout(
     let table_w = 112.0;
     measures_table(c, f, &evaluation, left, top, table_w, table_h);
     let sig_x = left + table_w + 4.0;
-    signatures(c, &f.common, sig_x, top, right - sig_x, table_h);
+    record::record_column(c, f, sig_x, top, right - sig_x, table_h);
     footer(c, &f.common, frame, foot_h, words::CAUTION, "");
     if chart_h < MIN_CHART_H || top - table_h < foot_top + 2.0 {
         c.faults
@@ -504,16 +599,50 @@ fn single_layout(
     Ok(())
 }
 
+/// The sizes the characteristic is printed at, from the largest: it wraps
+/// onto as many lines as the block's room holds at each, and shrinks only
+/// when they do not fit. Below 7 points it would no longer read on a
+/// photocopy at the bench, so at 7 points the block grows instead, up to
+/// [`CHARACTERISTIC_LINES`] lines; a longer text is refused.
+const CHARACTERISTIC_SIZES: [f64; 3] = [8.0, 7.5, 7.0];
+const CHARACTERISTIC_LINES: usize = 5;
+
 /// The title block: title, item and characteristic on the left; plan ID,
-/// revision, date, lot size and scheme on the right.
-fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, block_h: f64) {
+/// revision, date, lot size and scheme on the right. The block is
+/// `min_h` mm tall, or taller when a long characteristic needs the room;
+/// returns its height.
+fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, min_h: f64) -> f64 {
     let source = f.source;
     let right = left + width;
     let black = || grey(0.0);
-    c.claim("title block", left, top - block_h, width, block_h);
-    c.rect_stroke(left, top - block_h, width, block_h, 0.8, black());
     let meta_w = 52.0;
     let title_w = width - meta_w - 6.0;
+    let field_w = title_w - 23.0;
+    // Measured first, for the characteristic's size and the block's
+    // height: the title and item above it, and the room they leave.
+    let title_h = c
+        .fit(&source.title, Face::Bold, title_w, 13.0, 14.0, 8.0)
+        .height;
+    let item = given(&source.item);
+    let item_h = c
+        .fit(&item, Face::Regular, field_w, 9.0, 8.0, 5.5)
+        .height
+        .max(3.5);
+    let above = 8.5 + title_h + item_h + 1.5;
+    let room = min_h - above - 2.0;
+    let characteristic = given(&source.characteristic);
+    let height_at = |c: &Canvas, size: f64| {
+        let lines = c.wrap(&characteristic, Face::Regular, size, field_w).len();
+        size * MM_PER_PT * 1.25 * lines.min(CHARACTERISTIC_LINES) as f64
+    };
+    let size = CHARACTERISTIC_SIZES
+        .into_iter()
+        .find(|&s| height_at(c, s) <= room + 1e-6)
+        .unwrap_or(CHARACTERISTIC_SIZES[CHARACTERISTIC_SIZES.len() - 1]);
+    let characteristic_h = height_at(c, size);
+    let block_h = min_h.max(above + characteristic_h.max(3.5) + 2.0);
+    c.claim("title block", left, top - block_h, width, block_h);
+    c.rect_stroke(left, top - block_h, width, block_h, 0.8, black());
     c.text(
         left + 3.0,
         top - 4.5,
@@ -534,23 +663,30 @@ fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, bloc
         8.0,
     );
     let fields = [
-        (text::ITEM, given(&source.item)),
-        (text::CHARACTERISTIC, given(&source.characteristic)),
+        (text::ITEM, item, 9.0, 8.0, 5.5),
+        // Room for the lines at the size chosen; more lines than that are
+        // the paragraph's overflow, and a refusal.
+        (
+            text::CHARACTERISTIC,
+            characteristic,
+            characteristic_h + 1e-6,
+            size,
+            size,
+        ),
     ];
     let mut fy = top - 8.5 - title_used;
-    for (label, value) in fields {
+    for (label, value, room, size, min_size) in fields {
         c.text(left + 3.0, fy - 2.5, label, Face::Bold, 6.5, grey(0.35));
-        let room = (fy - (top - block_h + 2.0)).min(9.0);
         let used = c.paragraph(
             label,
             left + 26.0,
             fy,
-            title_w - 23.0,
+            field_w,
             room,
             &value,
             Face::Regular,
-            8.0,
-            5.5,
+            size,
+            min_size,
         );
         fy -= used.max(3.5) + 1.5;
     }
@@ -588,6 +724,7 @@ fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, bloc
             5.5,
         );
     }
+    block_h
 }
 
 /// The most differing fields the notice lists (the rest are counted).
@@ -696,6 +833,10 @@ fn reject_colour() -> printpdf::Color {
     rgb(0.6, 0.1, 0.05)
 }
 
+/// The width of the single plan box's left column (sample size and
+/// decisions).
+const SINGLE_PLAN_COL: f64 = 76.0;
+
 /// The single plan's box: the sample size and the two decisions on the
 /// left, the procedure on the right.
 #[allow(clippy::too_many_arguments)]
@@ -710,7 +851,7 @@ fn single_plan_box(
     ac: u64,
 ) {
     plan_frame(c, left, top, width, plan_h);
-    let col = 76.0;
+    let col = SINGLE_PLAN_COL;
     c.heading(left + 4.0, top - 7.0, text::SAMPLE_SIZE);
     c.text(
         left + 4.0,
@@ -759,8 +900,7 @@ fn single_plan_box(
 /// The inspector's procedure under its heading at `(x, top)`, one
 /// paragraph per step, each in what the earlier steps left above `bottom`.
 fn procedure(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, bottom: f64, size: f64) {
-    let steps = words::plan_procedure(&f.plan, f.common.per_unit);
-    steps_block(c, &steps, x, top, w, bottom, size);
+    steps_block(c, &f.steps(), x, top, w, bottom, size);
 }
 
 /// Numbered steps under the procedure heading at `(x, top)`, one paragraph
@@ -787,12 +927,7 @@ fn steps_block(c: &mut Canvas, steps: &[String], x: f64, top: f64, w: f64, botto
 /// Height the procedure takes in a column `w` mm wide at `size`, heading
 /// and bottom padding included (see [`procedure`]).
 fn procedure_height(c: &Canvas, f: &Facts, w: f64, size: f64) -> f64 {
-    steps_height(
-        c,
-        &words::plan_procedure(&f.plan, f.common.per_unit),
-        w,
-        size,
-    )
+    steps_height(c, &f.steps(), w, size)
 }
 
 /// Height of [`steps_block`] in a column `w` mm wide at `size`.
@@ -827,10 +962,10 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
         width,
         margin,
     } = frame;
-    title_block(c, &f.common, left, top, width, STAGED_TITLE_H);
-    top -= STAGED_TITLE_H + GAP;
+    let title_h = title_block(c, &f.common, left, top, width, STAGED_TITLE_H);
+    top -= title_h + GAP;
     top -= notice_block(c, &f.common, left, top, width, NOTICE_LINES);
-    let qualities = crate::plan::default_qualities(&f.plan, &f.model, Some(&f.request.risks));
+    let qualities = f.default_qualities();
     let evaluation = evaluate(&f.plan, &f.model, &qualities)?;
     EvaluationReport::from(&evaluation).check()?;
     let table_h = measures_height(&evaluation, 3.9);
@@ -880,7 +1015,10 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
         None => {
             let chart_w = (width - 6.0) / 2.0;
             oc_chart(c, f, &points, x_max, left, chart_top, chart_w, chart_h);
-            asn_chart(
+            // Under rectifying inspection the AOQ is what the protection
+            // bounds; otherwise the ASN is what a staged plan saves.
+            let second = if f.rectifying() { aoq_chart } else { asn_chart };
+            second(
                 c,
                 f,
                 &points,
@@ -897,7 +1035,7 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
     let table_w = 112.0;
     measures_table(c, f, &evaluation, left, top, table_w, table_h);
     let sig_x = left + table_w + 4.0;
-    signatures(c, &f.common, sig_x, top, right - sig_x, table_h);
+    record::record_column(c, f, sig_x, top, right - sig_x, table_h);
     footer(c, &f.common, frame, STAGED_FOOT_H, words::CAUTION, "");
     if chart_h < MIN_CHART_H - 1e-9 || top - table_h < foot_top + 2.0 {
         c.faults
@@ -1104,11 +1242,11 @@ fn stage_plan_box(
         })
         .collect();
     let heads = &text::STAGE_HEADS;
-    let heading = text::stages_heading(
-        f.common.source.scheme.name(),
-        stages.len(),
-        f.plan.max_sample(),
-    );
+    let form = match &f.common.agreement {
+        Agreement::Rectifying { request, .. } => request.scheme(),
+        Agreement::Points { .. } => f.common.source.scheme,
+    };
+    let heading = text::stages_heading(form.name(), stages.len(), f.plan.max_sample());
     // The box for each row type: (procedure size, height, (type, widths,
     // left column, procedure width)).
     let layout = |c: &mut Canvas, rows_in: RowType| {
@@ -1400,10 +1538,13 @@ fn asn_chart(
     h: f64,
 ) {
     let asn: Vec<(f64, f64)> = points.iter().map(|pt| (pt.p, pt.asn)).collect();
-    let p1 = f.request.risks.producer().quality;
+    let p1 = f.common.agreement.qualities().0;
     let at_p1 = measures(&f.plan, &f.model, p1).asn;
     let (q_max, asn_max) = largest_asn(&f.plan, &f.model);
-    let single_n = design_single(&f.model, &f.request.risks).ok().map(|d| d.n);
+    let single_n = match &f.common.agreement {
+        Agreement::Points { risks, .. } => design_single(&f.model, risks).ok().map(|d| d.n),
+        Agreement::Rectifying { .. } => None,
+    };
     let top_value = single_n.map_or(asn_max, |n| asn_max.max(n as f64));
     let y_max = nice_ceiling(top_value * 1.15);
     let axis = quality_tick(f.common.per_unit);
@@ -1638,9 +1779,16 @@ fn decision_chart(
 
 /// The risk table: each agreed point against what the plan achieves.
 fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_h: f64) {
+    let (risks, achieved) = match &f.agreement {
+        Agreement::Points { risks, achieved } => (risks, achieved),
+        Agreement::Rectifying { request, figures } => {
+            let agreed = (request, figures.as_ref());
+            return rectifying::protection_table(c, f, agreed, left, top, width, risk_h);
+        }
+    };
     let right = left + width;
     let black = || grey(0.0);
-    let (producer, consumer) = (f.risks.producer(), f.risks.consumer());
+    let (producer, consumer) = (risks.producer(), risks.consumer());
     c.claim("risks", left, top - risk_h, width, risk_h);
     c.heading(left, top - 3.5, text::RISKS);
     let cols = [left, left + 52.0, left + 84.0, left + 128.0, right];
@@ -1664,7 +1812,7 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
         black(),
         None,
     );
-    let (alpha, beta) = f.achieved;
+    let (alpha, beta) = *achieved;
     let rows = [
         (
             text::PRODUCER_POINT,
@@ -1710,9 +1858,15 @@ fn quality_tick(per_unit: bool) -> impl Fn(f64, f64) -> String {
 /// The two risk points as marks on an OC chart, at the Pa the printed
 /// plan achieves there.
 fn risk_marks(f: &Common) -> [Mark; 2] {
-    let (producer, consumer) = (f.risks.producer(), f.risks.consumer());
-    let pa1 = f.pa_at_p1();
-    let beta = f.achieved.1;
+    let (risks, achieved) = match &f.agreement {
+        Agreement::Points { risks, achieved } => (risks, achieved),
+        Agreement::Rectifying { request, figures } => {
+            return rectifying::marks(f, request, figures);
+        }
+    };
+    let (producer, consumer) = (risks.producer(), risks.consumer());
+    let pa1 = 1.0 - achieved.0;
+    let beta = achieved.1;
     [
         Mark {
             x: producer.quality,
@@ -2009,7 +2163,7 @@ fn footer(c: &mut Canvas, f: &Common, frame: Frame, foot_h: f64, caution: &str, 
 pub struct SheetOptions {
     /// Paper size.
     pub paper: Paper,
-    /// Print a recorded plan that the [`audit`] does not confirm, with the
+    /// Print a recorded plan that the [`audit`](crate::audit) does not confirm, with the
     /// discrepancy stated on the page ([`render_sheet_noting`]), instead of
     /// refusing it (`--accept-recorded`).
     pub accept_recorded: bool,
@@ -2017,10 +2171,23 @@ pub struct SheetOptions {
     pub overwrite: Overwrite,
 }
 
+/// What [`write_sheet`] found besides the sheet it wrote, for the caller
+/// to report.
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct SheetNotes {
+    /// The discrepancy that a sheet printed with
+    /// [`SheetOptions::accept_recorded`] states.
+    pub accepted: Option<Discrepancy>,
+    /// The fields of the source that still hold a template's placeholder
+    /// text, printed on the sheet as they are.
+    pub placeholders: Vec<Placeholder>,
+}
+
 /// Reads the source at `source_path`, audits its recorded plan (see
-/// [`audit`]), renders its sheet and writes it atomically to `target`.
+/// [`audit`](crate::audit)), renders its sheet and writes it atomically to `target`.
 /// Returns the discrepancy that a sheet printed with
-/// [`SheetOptions::accept_recorded`] states, for the caller to report too.
+/// [`SheetOptions::accept_recorded`] states and the fields that still hold
+/// a template's placeholder ([`placeholders`]), for the caller to report.
 ///
 /// # Errors
 /// [`Error`] for an unreadable or invalid source;
@@ -2034,28 +2201,26 @@ pub fn write_sheet(
     source_path: &std::path::Path,
     target: &std::path::Path,
     options: &SheetOptions,
-) -> Result<Option<Discrepancy>, Error> {
-    let text = PlanSource::read_text(source_path)?;
-    let source = PlanSource::from_yaml(&text, source_path)?;
+) -> Result<SheetNotes, Error> {
+    let audited = Audited::load(source_path, options.accept_recorded)?;
     let name = source_path
         .file_name()
         .map_or_else(|| "source.yaml".into(), |n| n.to_string_lossy().to_string());
-    let discrepancy = audit(&source, source_path)?.discrepancy;
-    let sheet = match &discrepancy {
-        None => render_sheet(&text, &source, &name, options.paper)?,
-        Some(d) if options.accept_recorded => {
-            render_sheet_noting(&text, &source, &name, options.paper, d)?
-        }
-        Some(d) => {
-            return Err(crate::error::SourceError::Unconfirmed {
-                path: source_path.to_path_buf(),
-                discrepancy: d.clone(),
-            }
-            .into());
-        }
-    };
+    let sheet = audited_sheet(&audited, &name, options.paper)?;
     write_atomic(target, &sheet.pdf, options.overwrite)?;
-    Ok(discrepancy)
+    Ok(SheetNotes {
+        placeholders: placeholders(&audited.source),
+        accepted: audited.accepted,
+    })
+}
+
+/// The sheet of an audited source, printed from the file `name`: with the
+/// notice of its discrepancy when it is used as recorded.
+pub(crate) fn audited_sheet(audited: &Audited, name: &str, paper: Paper) -> Result<Sheet, Error> {
+    match &audited.accepted {
+        None => render_sheet(&audited.text, &audited.source, name, paper),
+        Some(d) => render_sheet_noting(&audited.text, &audited.source, name, paper, d),
+    }
 }
 
 /// The source hash recorded in a sheet's metadata, if any.
@@ -2079,7 +2244,7 @@ pub fn sheet_source_hash(pdf: &[u8]) -> Result<Option<String>, String> {
 
 /// A PDF text string: UTF-16BE after a byte-order mark, else PDFDocEncoding
 /// (ASCII for the hex digits this module writes).
-fn text_string(bytes: &[u8]) -> String {
+pub(crate) fn text_string(bytes: &[u8]) -> String {
     match bytes.strip_prefix(&[0xFE, 0xFF]) {
         Some(utf16) => {
             let units: Vec<u16> = utf16

@@ -93,6 +93,22 @@ pub const APPROVED_BY: &str = "Approved by";
 pub const SIGNATURE: &str = "Signature";
 pub const SIGNED_ON: &str = "Date";
 
+/// The lot record of an attribute sheet: its heading and the labels of
+/// the count fields (the lot number, decision, inspector and date share
+/// the variables sheet's labels).
+pub const RECORD: &str = "LOT RECORD";
+pub const FOUND_AT_STAGE: &str = "Found at stage";
+pub const DECIDED_AT_UNIT: &str = "Decided at unit";
+pub const RUNNING_COUNT: &str = "running count";
+
+/// The count field of a single plan: `Nonconforming units found`.
+pub fn found(per_unit: bool) -> String {
+    let what = crate::report::words::counted(per_unit);
+    let mut chars = what.chars();
+    let first = chars.next().map(|ch| ch.to_uppercase().to_string());
+    format!("{}{} found", first.unwrap_or_default(), chars.as_str())
+}
+
 /// Heading of a staged plan's stage table.
 pub fn stages_heading(scheme: &str, stages: usize, max_units: u64) -> String {
     format!(

@@ -107,15 +107,12 @@ impl<'a> Facts<'a> {
         let request = source.variables_request()?;
         let plan = source.recorded_variables_plan(request.spec())?;
         let scheme = words::scheme(request.spec().sigma_kind());
-        let common = super::Common::new(
-            source,
-            text,
-            file_name,
-            *request.risks(),
-            request.model(),
-            scheme,
-            variables_risks(&plan, request.risks()),
-        )?;
+        let agreement = super::Agreement::Points {
+            risks: *request.risks(),
+            achieved: variables_risks(&plan, request.risks()),
+        };
+        let common =
+            super::Common::new(source, text, file_name, agreement, request.model(), scheme)?;
         Ok(Facts {
             common,
             plan,
@@ -149,8 +146,8 @@ pub(super) fn layout(
         width,
         margin,
     } = frame;
-    title_block(c, &f.common, left, top, width, TITLE_H);
-    top -= TITLE_H + GAP;
+    let title_h = title_block(c, &f.common, left, top, width, TITLE_H);
+    top -= title_h + GAP;
     let plan_h = plan_box(c, f, left, top, width);
     top -= plan_h + GAP;
     risk_table(c, &f.common, left, top, width, RISK_H);
@@ -419,7 +416,7 @@ fn rule_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
 
 /// A blank field: its label (formula markup) and `=` at `(x, y)`, then a
 /// writing line to `x_end`.
-fn field(c: &mut Canvas, x: f64, x_end: f64, y: f64, label: &str, equals: bool) {
+pub(super) fn field(c: &mut Canvas, x: f64, x_end: f64, y: f64, label: &str, equals: bool) {
     let size = 7.5;
     let label = if equals {
         format!("{label} =")
@@ -451,8 +448,17 @@ fn results_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
             field(c, cx, cx + cell, row_y(i), label, true);
         }
     }
-    // The decision: two boxes to tick.
-    let y = row_y(rows.len());
+    decision_row(c, x, row_y(rows.len()));
+    let y = row_y(rows.len() + 1);
+    let split = x + w * 0.62;
+    field(c, x, split - gutter, y, words::INSPECTED_BY, false);
+    field(c, split, x + w, y, words::INSPECTED_ON, false);
+    h
+}
+
+/// The decision with its baseline at `(x, y)`: two boxes to tick, accept
+/// and reject.
+pub(super) fn decision_row(c: &mut Canvas, x: f64, y: f64) {
     c.text(x, y, words::DECISION, Face::Bold, 7.5, grey(0.1));
     let mut bx = x + c.width(words::DECISION, Face::Bold, 7.5) + 4.0;
     for (label, color) in [
@@ -463,11 +469,6 @@ fn results_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
         c.text(bx + 5.0, y, label, Face::Bold, 7.5, color);
         bx += 5.0 + c.width(label, Face::Bold, 7.5) + 6.0;
     }
-    let y = row_y(rows.len() + 1);
-    let split = x + w * 0.62;
-    field(c, x, split - gutter, y, words::INSPECTED_BY, false);
-    field(c, split, x + w, y, words::INSPECTED_ON, false);
-    h
 }
 
 /// The readings block: heading with the lot and gauge fields, then either
@@ -661,14 +662,14 @@ fn oc_chart(
     h: f64,
 ) -> Result<(), NumericalError> {
     let plan = &f.plan;
-    let consumer = f.common.risks.consumer();
+    let upper = f.common.agreement.qualities().1;
     let lowest = plan.spec().lowest_quality();
     let start = lowest.max(1e-6);
     let centred = plan.pa_centred(0.5).is_some();
     let attributes = f.attributes.as_ref().map(|a| &a.plan);
     // The axis from the one-sided curve: the centred one, which costs a
     // quadrature a point, runs close beside it.
-    let mut reach = quality_where(|p| plan.pa(p), start, 0.02).max(consumer.quality * 1.2);
+    let mut reach = quality_where(|p| plan.pa(p), start, 0.02).max(upper * 1.2);
     if let Some(a) = attributes {
         reach = reach.max(quality_at_pa(a, &f.model, 0.02));
     }

@@ -8,8 +8,8 @@ use std::fmt;
 use std::path::Path;
 
 use super::{Difference, PlanSource, RISK_TOLERANCE, Verdict, verify};
-use crate::design::Design;
-use crate::error::{Error, SourceError};
+use crate::design::{Design, Protection, RectifyingPlan};
+use crate::error::{Error, InputError, SourceError};
 use crate::model::{Model, ModelKind};
 use crate::plan::{StagedPlan, VariablesPlan};
 use crate::report::{format_quality, format_significant};
@@ -20,7 +20,10 @@ use crate::risk::RiskPair;
 pub struct Audit {
     /// The producer's risk `1 - Pa(p1)` and the consumer's risk `Pa(p2)`
     /// that the recorded plan achieves, computed now from the plan itself
-    /// (not copied from the source).
+    /// (not copied from the source). For a minimum-inspection plan, the
+    /// chance of rejecting a lot at the process average and `Pa` at the
+    /// LTPD (for an AOQL protection, at the plan's own LTPD, where `Pa`
+    /// falls to 0.10).
     pub achieved: (f64, f64),
     /// What is wrong with the recorded plan; `None` when it is confirmed.
     pub discrepancy: Option<Discrepancy>,
@@ -40,23 +43,36 @@ pub struct Discrepancy {
     pub unmet: Vec<UnmetPoint>,
 }
 
-/// An agreed risk point that a recorded plan does not meet.
+/// An agreed risk point, or a minimum-inspection plan's protection, that a
+/// recorded plan does not meet.
 #[derive(Clone, Debug, PartialEq)]
 pub struct UnmetPoint {
     /// `producer's` or `consumer's`.
     pub party: &'static str,
-    /// The point's quality, as reports print it (`4.000%`).
+    /// The point's quality, as reports print it (`4.000%`); for an AOQL
+    /// protection, the agreed AOQL.
     pub quality: String,
-    /// `alpha` or `beta`.
+    /// `alpha`, `beta`, or `AOQL` for an AOQL protection.
     pub risk_name: &'static str,
-    /// The agreed largest risk.
+    /// The agreed largest risk (or AOQL).
     pub agreed: f64,
-    /// The risk the recorded plan achieves.
+    /// The risk (or AOQL) the recorded plan achieves.
     pub achieved: f64,
+    /// Whether qualities are nonconformities per unit (Poisson model), for
+    /// an AOQL printed as a quality.
+    pub per_unit: bool,
 }
 
 impl fmt::Display for UnmetPoint {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        if self.risk_name == "AOQL" {
+            return write!(
+                f,
+                "the recorded plan does not meet the consumer's protection: its AOQL is {}, above the agreed {}",
+                format_quality(self.achieved, self.per_unit),
+                self.quality
+            );
+        }
         write!(
             f,
             "the recorded plan does not meet the {} point: {} at {} is {}, above the agreed {}",
@@ -155,6 +171,16 @@ pub fn audit(source: &PlanSource, path: &Path) -> Result<Audit, Error> {
         path: path.to_path_buf(),
         source: e,
     };
+    if source.is_rectifying() {
+        let differences = differences(source, path)?;
+        let (achieved, unmet) = rectifying_unmet(source).map_err(invalid)?;
+        let discrepancy = (!differences.is_empty() || !unmet.is_empty())
+            .then_some(Discrepancy { differences, unmet });
+        return Ok(Audit {
+            achieved,
+            discrepancy,
+        });
+    }
     let (risks, achieved, per_unit) = if source.is_variables() {
         let request = source.variables_request().map_err(invalid)?;
         let plan = source
@@ -174,19 +200,7 @@ pub fn audit(source: &PlanSource, path: &Path) -> Result<Audit, Error> {
             request.model.kind() == ModelKind::Poisson,
         )
     };
-    let differences = match verify(source) {
-        Ok(Verdict::Match) => Vec::new(),
-        Ok(Verdict::Mismatch(d)) => d,
-        Err(Error::Input(e)) => return Err(invalid(e).into()),
-        Err(Error::Design(e)) => {
-            return Err(SourceError::Design {
-                path: path.to_path_buf(),
-                source: e,
-            }
-            .into());
-        }
-        Err(e) => return Err(e),
-    };
+    let differences = differences(source, path)?;
     let points = [
         ("producer's", "alpha", risks.producer(), achieved.0),
         ("consumer's", "beta", risks.consumer(), achieved.1),
@@ -200,6 +214,7 @@ pub fn audit(source: &PlanSource, path: &Path) -> Result<Audit, Error> {
             risk_name,
             agreed: point.risk,
             achieved: risk,
+            per_unit,
         })
         .collect();
     let discrepancy = (!differences.is_empty() || !unmet.is_empty())
@@ -208,6 +223,112 @@ pub fn audit(source: &PlanSource, path: &Path) -> Result<Audit, Error> {
         achieved,
         discrepancy,
     })
+}
+
+/// A source read once and audited, as the commands that use its recorded
+/// plan (`sheet`, `judge`, `evaluate`) take it: the text (which a sheet
+/// hashes), the parsed source, and the discrepancy it is used with at the
+/// user's request (`--accept-recorded`), if any.
+#[derive(Clone, Debug)]
+pub struct Audited {
+    /// The source's text as read.
+    pub text: String,
+    /// The parsed source.
+    pub source: PlanSource,
+    /// What the audit found, when the plan is used as recorded although
+    /// the audit does not confirm it; `None` when it is confirmed.
+    pub accepted: Option<Discrepancy>,
+}
+
+impl Audited {
+    /// Reads the source at `path` once, parses it and [`audit`]s its
+    /// recorded plan. A plan the audit does not confirm is refused, unless
+    /// `accept_recorded` is set: it is then kept with its discrepancy, for
+    /// the caller to state in its output.
+    ///
+    /// ```
+    /// use lotsman::Audited;
+    /// let path = std::path::Path::new("plans/tpw-seal-visual.yaml");
+    /// let audited = Audited::load(path, false).unwrap();
+    /// assert_eq!(audited.accepted, None);
+    /// ```
+    ///
+    /// # Errors
+    /// As [`PlanSource::load`] and [`audit`];
+    /// [`SourceError::Unconfirmed`], naming the first differing field with
+    /// both values, when the audit finds a discrepancy and
+    /// `accept_recorded` is off.
+    pub fn load(path: &Path, accept_recorded: bool) -> Result<Self, Error> {
+        let text = PlanSource::read_text(path)?;
+        let source = PlanSource::from_yaml(&text, path)?;
+        let accepted = audit(&source, path)?.discrepancy;
+        match accepted {
+            Some(discrepancy) if !accept_recorded => Err(SourceError::Unconfirmed {
+                path: path.to_path_buf(),
+                discrepancy,
+            }
+            .into()),
+            accepted => Ok(Audited {
+                text,
+                source,
+                accepted,
+            }),
+        }
+    }
+}
+
+/// The fields in which `source` (read from `path`) differs from a
+/// re-solve, as [`verify`] names them.
+fn differences(source: &PlanSource, path: &Path) -> Result<Vec<Difference>, Error> {
+    match verify(source) {
+        Ok(Verdict::Match) => Ok(Vec::new()),
+        Ok(Verdict::Mismatch(d)) => Ok(d),
+        Err(Error::Input(e)) => Err(SourceError::Invalid {
+            path: path.to_path_buf(),
+            source: e,
+        }
+        .into()),
+        Err(Error::Design(e)) => Err(SourceError::Design {
+            path: path.to_path_buf(),
+            source: e,
+        }
+        .into()),
+        Err(e) => Err(e),
+    }
+}
+
+/// What the plan a minimum-inspection source records achieves (see
+/// [`Audit::achieved`]), and the protection it does not give: `Pa` at the
+/// LTPD above beta, or an AOQL above the agreed one, beyond
+/// [`RISK_TOLERANCE`].
+fn rectifying_unmet(source: &PlanSource) -> Result<((f64, f64), Vec<UnmetPoint>), InputError> {
+    let request = source.rectifying_request()?;
+    let plan = source.recorded_plan(request.model())?;
+    let figures = RectifyingPlan::new(plan, &request);
+    let per_unit = request.model().kind() == ModelKind::Poisson;
+    let at_ltpd = figures.pa_at_ltpd.unwrap_or_else(|| request.ltpd_risk());
+    let achieved = (1.0 - figures.pa, at_ltpd);
+    let above = |got: f64, agreed: f64| got.is_nan() || got > agreed * (1.0 + RISK_TOLERANCE);
+    let unmet = match request.protection() {
+        Protection::Ltpd(point) if above(at_ltpd, point.risk) => vec![UnmetPoint {
+            party: "consumer's",
+            quality: format_quality(point.quality, per_unit),
+            risk_name: "beta",
+            agreed: point.risk,
+            achieved: at_ltpd,
+            per_unit,
+        }],
+        Protection::Aoql(limit) if above(figures.aoql.value, limit) => vec![UnmetPoint {
+            party: "consumer's",
+            quality: format_quality(limit, per_unit),
+            risk_name: "AOQL",
+            agreed: limit,
+            achieved: figures.aoql.value,
+            per_unit,
+        }],
+        _ => Vec::new(),
+    };
+    Ok((achieved, unmet))
 }
 
 /// The producer's and consumer's risks of an attributes plan at the

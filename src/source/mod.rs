@@ -3,24 +3,28 @@
 //! solution, saving, and verification.
 
 mod audit;
+mod describe;
 mod keys;
+mod rectifying;
 mod schema;
 mod verify;
 mod yaml_words;
 
 use std::path::Path;
 
-pub use audit::{Audit, Discrepancy, UnmetPoint, audit};
+pub use audit::{Audit, Audited, Discrepancy, UnmetPoint, audit};
 pub(crate) use audit::{attributes_risks, variables_risks};
+pub use describe::Description;
 pub use schema::{
-    PlanSource, PointSource, RecordedPlan, RecordedVariables, SCHEMA_VERSION, VariablesSource,
+    PlanSource, PointSource, RecordedPlan, RecordedVariables, RectifyingSource, SCHEMA_VERSION,
+    VariablesSource,
 };
 pub use verify::{Difference, RISK_TOLERANCE, Verdict, verify};
 
 use crate::design::{
     DesignRequest, Scheme, SchemeOptions, Solution, VariablesRequest, VariablesSolution,
 };
-use crate::error::{InputError, SourceError};
+use crate::error::{Error, InputError, SourceError};
 use crate::model::Model;
 use crate::plan::{Specification, StagedPlan, VariablesPlan};
 use crate::risk::{RiskPair, RiskPoint};
@@ -83,6 +87,8 @@ impl PlanSource {
         }
         let checked = if source.is_variables() {
             source.variables_request().map(drop)
+        } else if source.is_rectifying() {
+            source.rectifying_request().map(drop)
         } else {
             source.request().map(drop)
         };
@@ -126,26 +132,44 @@ impl PlanSource {
         })
     }
 
-    /// Loads a source that must record a plan, with its request and its
-    /// validated plan: what `evaluate FILE` and `judge FILE` start from.
+    /// Loads and audits a source that must record a staged plan
+    /// ([`Audited::load`]): an attributes plan designed from two risk
+    /// points, or a minimum-inspection plan. Returns it with its model and
+    /// its validated plan: what `judge FILE --found K` starts from.
     ///
     /// # Errors
-    /// As [`PlanSource::load`]; [`SourceError::Invalid`] when the source
+    /// As [`Audited::load`]; [`SourceError::Invalid`] when the source
     /// records no plan or an invalid one.
-    pub fn load_with_plan(path: &Path) -> Result<(Self, DesignRequest, StagedPlan), SourceError> {
-        let source = Self::load(path)?;
+    pub fn load_with_plan(
+        path: &Path,
+        accept_recorded: bool,
+    ) -> Result<(Audited, Model, StagedPlan), Error> {
+        let audited = Audited::load(path, accept_recorded)?;
         let invalid = |e| SourceError::Invalid {
             path: path.to_path_buf(),
             source: e,
         };
-        let request = source.request().map_err(invalid)?;
-        let plan = source.recorded_plan(&request.model).map_err(invalid)?;
-        Ok((source, request, plan))
+        let model = audited.source.staged_model().map_err(invalid)?;
+        let plan = audited.source.recorded_plan(&model).map_err(invalid)?;
+        Ok((audited, model, plan))
     }
 
     /// Whether the source describes a variables plan.
     pub fn is_variables(&self) -> bool {
         self.scheme == Scheme::Variables
+    }
+
+    /// The validated model of a source whose plan is staged: an attributes
+    /// plan designed from two risk points, or a minimum-inspection plan.
+    ///
+    /// # Errors
+    /// As [`PlanSource::request`] and [`PlanSource::rectifying_request`].
+    pub fn staged_model(&self) -> Result<Model, InputError> {
+        if self.is_rectifying() {
+            Ok(*self.rectifying_request()?.model())
+        } else {
+            Ok(self.request()?.model)
+        }
     }
 
     /// The validated design request of an attributes source.
@@ -160,12 +184,19 @@ impl PlanSource {
                 self.title
             )));
         }
+        if self.is_rectifying() {
+            return Err(InputError::Inconsistent(format!(
+                "the source '{}' is a minimum-inspection plan (scheme: rectifying), designed from a process average and a protection, not from two risk points",
+                self.title
+            )));
+        }
         if self.variables.is_some() {
             return Err(InputError::Inconsistent(format!(
                 "'variables' applies to variables plans only, and this source's scheme is {}",
                 self.scheme
             )));
         }
+        self.refuse_rectifying_section()?;
         let (model, risks) = self.model_and_risks()?;
         let options = self.scheme_options()?;
         Ok(DesignRequest {
@@ -206,28 +237,54 @@ impl PlanSource {
                 )));
             }
         }
+        self.refuse_rectifying_section()?;
         let spec = Specification::new(v.sigma, v.sigma_value, v.limit, v.lower, v.upper)?;
         let (model, risks) = self.model_and_risks()?;
         VariablesRequest::new(spec, risks, model)
     }
 
-    /// The checked date, title, model and risk points every source has.
-    fn model_and_risks(&self) -> Result<(Model, RiskPair), InputError> {
+    /// The checked date and title every source has.
+    fn check_document(&self) -> Result<(), InputError> {
         if let Some(date) = &self.date {
-            check_date(date)?;
+            check_date("date", date)?;
         }
         if self.title.trim().is_empty() {
             return Err(InputError::out_of_range("title", "''", "a non-empty text"));
         }
+        Ok(())
+    }
+
+    /// The checked date, title, model and risk points of a source designed
+    /// from two risk points.
+    fn model_and_risks(&self) -> Result<(Model, RiskPair), InputError> {
+        self.check_document()?;
         let model = Model::new(self.model, self.lot_size)?;
+        let point = |given: Option<PointSource>, key: &str, what: &str| {
+            given.ok_or_else(|| {
+                InputError::Inconsistent(format!(
+                    "the source has no {key}: line; add {key}: with {what} indented below it; a {} plan is designed from both risk points (a complete source: lotsman new binomial)",
+                    self.scheme
+                ))
+            })
+        };
+        let producer = point(
+            self.producer,
+            "producer",
+            "quality: (the AQL) and risk: (alpha)",
+        )?;
+        let consumer = point(
+            self.consumer,
+            "consumer",
+            "quality: (the RQL) and risk: (beta)",
+        )?;
         let risks = RiskPair::new(
             RiskPoint {
-                quality: self.producer.quality,
-                risk: self.producer.risk,
+                quality: producer.quality,
+                risk: producer.risk,
             },
             RiskPoint {
-                quality: self.consumer.quality,
-                risk: self.consumer.risk,
+                quality: consumer.quality,
+                risk: consumer.risk,
             },
             &model,
         )?;
@@ -277,6 +334,7 @@ impl PlanSource {
                 ),
             });
         }
+        self.check_recorded_figures(recorded)?;
         match (&recorded.sequential, recorded.stages.is_empty()) {
             (Some(lines), true) => StagedPlan::sequential(*lines, model),
             (None, false) => StagedPlan::new(recorded.stages.clone(), model),
@@ -289,25 +347,28 @@ impl PlanSource {
         }
     }
 
-    /// Loads a variables source that must record a plan, with its request
-    /// and validated plan: what `evaluate FILE` and `judge FILE` start from.
+    /// Loads and audits a variables source that must record a plan
+    /// ([`Audited::load`]), with its request and validated plan: what
+    /// `evaluate FILE` and `judge FILE` start from.
     ///
     /// # Errors
-    /// As [`PlanSource::load`]; [`SourceError::Invalid`] when the source
+    /// As [`Audited::load`]; [`SourceError::Invalid`] when the source
     /// records no plan or an invalid one.
     pub fn load_with_variables_plan(
         path: &Path,
-    ) -> Result<(Self, VariablesRequest, VariablesPlan), SourceError> {
-        let source = Self::load(path)?;
+        accept_recorded: bool,
+    ) -> Result<(Audited, VariablesRequest, VariablesPlan), Error> {
+        let audited = Audited::load(path, accept_recorded)?;
         let invalid = |e| SourceError::Invalid {
             path: path.to_path_buf(),
             source: e,
         };
-        let request = source.variables_request().map_err(invalid)?;
-        let plan = source
+        let request = audited.source.variables_request().map_err(invalid)?;
+        let plan = audited
+            .source
             .recorded_variables_plan(request.spec())
             .map_err(invalid)?;
-        Ok((source, request, plan))
+        Ok((audited, request, plan))
     }
 
     /// The recorded variables plan, validated for `spec`.
@@ -327,6 +388,9 @@ impl PlanSource {
                 why: "the recorded plan is not a variables plan (plan: variables: with n, and k or m)"
                     .to_string(),
             })?;
+        if let Some(plan) = &self.plan {
+            self.check_recorded_figures(plan)?;
+        }
         let two = spec.limit() == crate::plan::LimitKind::Both;
         let constant = match (recorded.k, recorded.m, two) {
             (Some(k), None, false) => k,
@@ -374,8 +438,10 @@ impl PlanSource {
                 k: plan.k(),
                 m: plan.m(),
             }),
-            producer_risk: solution.design.producer_risk,
-            consumer_risk: solution.design.consumer_risk,
+            producer_risk: Some(solution.design.producer_risk),
+            consumer_risk: Some(solution.design.consumer_risk),
+            ati: None,
+            aoql: None,
             solved_by: tool_version(),
         });
     }
@@ -410,16 +476,17 @@ impl PlanSource {
             second_ratio: None,
             stage_count: None,
             variables: None,
+            rectifying: None,
             model: model.kind(),
             lot_size: model.lot_size(),
-            producer: PointSource {
+            producer: Some(PointSource {
                 quality: producer.quality,
                 risk: producer.risk,
-            },
-            consumer: PointSource {
+            }),
+            consumer: Some(PointSource {
                 quality: consumer.quality,
                 risk: consumer.risk,
-            },
+            }),
             plan: None,
         }
     }
@@ -434,8 +501,10 @@ impl PlanSource {
             },
             sequential: plan.sequential_lines().copied(),
             variables: None,
-            producer_risk: solution.design.producer_risk,
-            consumer_risk: solution.design.consumer_risk,
+            producer_risk: Some(solution.design.producer_risk),
+            consumer_risk: Some(solution.design.consumer_risk),
+            ati: None,
+            aoql: None,
             solved_by: tool_version(),
         });
     }
@@ -477,9 +546,10 @@ fn check_brackets(text: &str) -> Result<(), String> {
     Ok(())
 }
 
-/// Checks a `YYYY-MM-DD` date of the Gregorian calendar.
-fn check_date(date: &str) -> Result<(), InputError> {
-    let bad = || InputError::unparsable("date", date, "a date YYYY-MM-DD, e.g. 2026-11-30");
+/// Checks a `YYYY-MM-DD` date of the Gregorian calendar, given as
+/// `parameter` (named in the message).
+fn check_date(parameter: &str, date: &str) -> Result<(), InputError> {
+    let bad = || InputError::unparsable(parameter, date, "a date YYYY-MM-DD, e.g. 2026-11-30");
     let parts: Vec<&str> = date.split('-').collect();
     let [y, m, d] = parts.as_slice() else {
         return Err(bad());

@@ -2,9 +2,11 @@
 //!
 //! A plan source is the YAML file from which anyone can re-solve and
 //! re-print a plan. It holds what was agreed (the two risk points, the model
-//! and lot size), what the plan is for (title, item, characteristic, notes,
-//! identifier, revision, date, names) and, once solved, the plan with the
-//! risks it achieves and the tool version that solved it.
+//! and lot size; for a minimum-inspection plan, `scheme: rectifying`, the
+//! process average and the protection instead of the points), what the plan
+//! is for (title, item, characteristic, notes, identifier, revision, date,
+//! names) and, once solved, the plan with the figures it achieves and the
+//! tool version that solved it.
 //!
 //! Unknown fields are refused with their name, line and column: a typing
 //! mistake must not silently drop an agreed value.
@@ -65,16 +67,23 @@ pub struct PlanSource {
     /// Variables plans: the measured characteristic's specification.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub variables: Option<VariablesSource>,
+    /// Minimum-inspection plans (`scheme: rectifying`): the plan's form,
+    /// the process average and the protection.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub rectifying: Option<RectifyingSource>,
     /// Likelihood model (for a variables plan: the attributes model of the
     /// comparison plan).
     pub model: ModelKind,
     /// Lot size `N`, required by the hypergeometric model.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub lot_size: Option<u64>,
-    /// The producer's point: AQL and alpha.
-    pub producer: PointSource,
-    /// The consumer's point: RQL and beta.
-    pub consumer: PointSource,
+    /// The producer's point: AQL and alpha (every scheme but `rectifying`,
+    /// which has none).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub producer: Option<PointSource>,
+    /// The consumer's point: RQL and beta (every scheme but `rectifying`).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub consumer: Option<PointSource>,
     /// The solved plan, written by the tool.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub plan: Option<RecordedPlan>,
@@ -107,10 +116,22 @@ pub struct RecordedPlan {
     /// The sample size and acceptance constant of a variables plan.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub variables: Option<RecordedVariables>,
-    /// Achieved producer's risk `1 - Pa(p1)`.
-    pub producer_risk: f64,
-    /// Achieved consumer's risk `Pa(p2)`.
-    pub consumer_risk: f64,
+    /// Achieved producer's risk `1 - Pa(p1)` (every scheme but
+    /// `rectifying`).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub producer_risk: Option<f64>,
+    /// Achieved consumer's risk `Pa(p2)`; for a minimum-inspection plan
+    /// protected by an LTPD, `Pa` at the LTPD.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub consumer_risk: Option<f64>,
+    /// Minimum-inspection plans: the average total inspection per lot at
+    /// the process average.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub ati: Option<f64>,
+    /// Minimum-inspection plans: the plan's AOQL under rectifying
+    /// inspection.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub aoql: Option<f64>,
     /// Tool and version that solved it, e.g. `lotsman 0.1.0`.
     pub solved_by: String,
 }
@@ -135,6 +156,42 @@ pub struct VariablesSource {
     /// The unit of the measurements, e.g. `mm`, for the sheet.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub unit: Option<String>,
+}
+
+/// A minimum-inspection plan's request as stored (`scheme: rectifying`):
+/// the plan's form, the supplier's process average, and the protection,
+/// either an LTPD with the consumer's risk there or an AOQL. Qualities are
+/// fractions (`0.0025`) or percent strings (`"0.25%"`).
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RectifyingSource {
+    /// `single` or `double`.
+    pub form: Scheme,
+    /// The process average: the supplier's usual quality.
+    #[serde(deserialize_with = "fraction")]
+    pub process_average: f64,
+    /// The LTPD: a lot this bad is accepted with probability at most
+    /// `beta`.
+    #[serde(
+        default,
+        deserialize_with = "some_fraction",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub ltpd: Option<f64>,
+    /// The consumer's risk at the LTPD (default 0.10).
+    #[serde(
+        default,
+        deserialize_with = "some_fraction",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub beta: Option<f64>,
+    /// The AOQL: the average outgoing quality never exceeds it.
+    #[serde(
+        default,
+        deserialize_with = "some_fraction",
+        skip_serializing_if = "Option::is_none"
+    )]
+    pub aoql: Option<f64>,
 }
 
 /// A solved variables plan as recorded: `n` with `k` (one limit) or `m`
@@ -171,4 +228,10 @@ fn fraction<'de, D: Deserializer<'de>>(d: D) -> Result<f64, D::Error> {
         }
     }
     d.deserialize_str(Fraction)
+}
+
+/// [`fraction`] for an optional field, which `#[serde(default)]` leaves
+/// `None` when it is absent.
+fn some_fraction<'de, D: Deserializer<'de>>(d: D) -> Result<Option<f64>, D::Error> {
+    fraction(d).map(Some)
 }

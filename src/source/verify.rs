@@ -4,7 +4,7 @@
 use serde::Serialize;
 
 use super::{PlanSource, RecordedPlan, RecordedVariables};
-use crate::design::{design_for, design_variables};
+use crate::design::{RectifyingPlan, design_for, design_rectifying, design_variables};
 use crate::error::Error;
 use crate::plan::{SequentialLines, Stage};
 
@@ -56,6 +56,9 @@ pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
     if source.is_variables() {
         return verify_variables(source);
     }
+    if source.is_rectifying() {
+        return verify_rectifying(source);
+    }
     let request = source.request()?;
     // A source that records no plan is not solved yet: invalid, not a
     // mismatch, and refused before the work of a re-solve.
@@ -84,6 +87,54 @@ pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
     compare_risks(
         recorded,
         (design.producer_risk, design.consumer_risk),
+        &mut diffs,
+    );
+    Ok(verdict(diffs))
+}
+
+/// A minimum-inspection source: re-solved by [`design_rectifying`], the
+/// stages must match exactly, the ATI, AOQL and (with an LTPD) `Pa` at the
+/// LTPD within [`RISK_TOLERANCE`]. A re-solve that answers 100%
+/// inspection differs in `plan`.
+fn verify_rectifying(source: &PlanSource) -> Result<Verdict, Error> {
+    let request = source.rectifying_request()?;
+    // Not solved yet: invalid, not a mismatch (as for the other schemes).
+    if source.plan.is_none() {
+        return Err(super::not_solved().into());
+    }
+    let design = design_rectifying(&request)?;
+    let resolved = |plan: Option<&RectifyingPlan>| {
+        plan.map_or("inspect every unit (100%)".to_string(), |p| {
+            p.plan.to_string()
+        })
+    };
+    let (Some(recorded), Some(chosen)) = (&source.plan, &design.plan) else {
+        return Ok(match (&source.plan, &design.plan) {
+            (None, None) => Verdict::Match,
+            (recorded, _) => Verdict::Mismatch(vec![Difference {
+                field: "plan".into(),
+                recorded: if recorded.is_some() {
+                    "a sampling plan"
+                } else {
+                    "(none)"
+                }
+                .into(),
+                resolved: resolved(design.plan.as_ref()),
+            }]),
+        });
+    };
+    let mut diffs = Vec::new();
+    compare_stages(&recorded.stages, chosen.plan.stages(), &mut diffs);
+    compare_figures(
+        &[
+            (
+                "plan.consumer_risk",
+                recorded.consumer_risk,
+                chosen.pa_at_ltpd,
+            ),
+            ("plan.ati", recorded.ati, Some(chosen.ati)),
+            ("plan.aoql", recorded.aoql, Some(chosen.aoql.value)),
+        ],
         &mut diffs,
     );
     Ok(verdict(diffs))
@@ -141,17 +192,40 @@ fn verdict(diffs: Vec<Difference>) -> Verdict {
 }
 
 fn compare_risks(recorded: &RecordedPlan, resolved: (f64, f64), diffs: &mut Vec<Difference>) {
-    for (name, a, b) in [
-        ("plan.producer_risk", recorded.producer_risk, resolved.0),
-        ("plan.consumer_risk", recorded.consumer_risk, resolved.1),
-    ] {
-        // Written so that a recorded NaN or infinity is a difference too.
-        let agree = (a - b).abs() <= RISK_TOLERANCE * b.abs().max(f64::MIN_POSITIVE);
+    compare_figures(
+        &[
+            (
+                "plan.producer_risk",
+                recorded.producer_risk,
+                Some(resolved.0),
+            ),
+            (
+                "plan.consumer_risk",
+                recorded.consumer_risk,
+                Some(resolved.1),
+            ),
+        ],
+        diffs,
+    );
+}
+
+/// Compares recorded figures `(field, recorded, re-solved)` within
+/// [`RISK_TOLERANCE`] (relative); a figure present on one side only is a
+/// difference too.
+fn compare_figures(figures: &[(&str, Option<f64>, Option<f64>)], diffs: &mut Vec<Difference>) {
+    let shown = |v: Option<f64>| v.map_or("(none)".to_string(), |v| v.to_string());
+    for &(name, a, b) in figures {
+        let agree = match (a, b) {
+            // Written so that a recorded NaN or infinity is a difference too.
+            (Some(a), Some(b)) => (a - b).abs() <= RISK_TOLERANCE * b.abs().max(f64::MIN_POSITIVE),
+            (None, None) => true,
+            _ => false,
+        };
         if !agree {
             diffs.push(Difference {
                 field: name.into(),
-                recorded: a.to_string(),
-                resolved: b.to_string(),
+                recorded: shown(a),
+                resolved: shown(b),
             });
         }
     }

@@ -438,15 +438,11 @@ mod tests {
             ),
             (
                 &BASE.replace("scheme: single", "scheme: Single"),
-                "line 3: scheme must be one of single, double, multiple, sequential, variables, not 'Single'; did you mean single?",
+                "line 3: scheme must be one of single, double, multiple, sequential, variables, rectifying, not 'Single'; did you mean single?",
             ),
             (
                 &BASE.replace("model:", "modell:"),
                 "line 4: 'modell' is not a key of a plan source; did you mean model?",
-            ),
-            (
-                &BASE.replace("producer:\n  quality: 0.01\n  risk: 0.05\n", ""),
-                "the source has no producer: line; add producer: with quality: (the AQL) and risk: (alpha) indented below it",
             ),
             (
                 &BASE.replace("  risk: 0.05\n", ""),

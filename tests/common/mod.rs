@@ -130,3 +130,60 @@ pub fn pdf_text(pdf: &[u8]) -> String {
         .expect("pdftotext (poppler-utils) is installed");
     String::from_utf8(out.stdout).unwrap()
 }
+
+/// A PDF made by hand, of some 700 bytes: one A4 (or Letter) page saying
+/// `n = 166` and metadata that claims the source hash `hash` and this tool
+/// as its creator. What a forger of a sheet would start from.
+pub fn hand_made_sheet(hash: &str, letter: bool) -> Vec<u8> {
+    use lopdf::{Document, Object, Stream, dictionary};
+    let (w, h) = if letter {
+        (612.0, 792.0)
+    } else {
+        (595.27563, 841.88983)
+    };
+    let mut doc = Document::with_version("1.7");
+    let pages = doc.new_object_id();
+    let font = doc.add_object(dictionary! {
+        "Type" => "Font", "Subtype" => "Type1", "BaseFont" => "Helvetica",
+    });
+    let content = doc.add_object(Stream::new(
+        dictionary! {},
+        b"BT /F1 24 Tf 60 700 Td (n = 166   Accept if 3 or fewer) Tj ET".to_vec(),
+    ));
+    let page = doc.add_object(dictionary! {
+        "Type" => "Page",
+        "Parent" => pages,
+        "MediaBox" => vec![0.into(), 0.into(), Object::Real(w), Object::Real(h)],
+        "Resources" => dictionary! { "Font" => dictionary! { "F1" => font } },
+        "Contents" => content,
+    });
+    doc.objects.insert(
+        pages,
+        Object::Dictionary(dictionary! {
+            "Type" => "Pages", "Kids" => vec![page.into()], "Count" => 1,
+        }),
+    );
+    let catalog = doc.add_object(dictionary! { "Type" => "Catalog", "Pages" => pages });
+    let info = doc.add_object(dictionary! {
+        "Subject" => Object::string_literal(format!("lotsman-source-sha256:{hash}")),
+        "Creator" => Object::string_literal(format!("lotsman {}", env!("CARGO_PKG_VERSION"))),
+    });
+    doc.trailer.set("Root", catalog);
+    doc.trailer.set("Info", info);
+    let mut bytes = Vec::new();
+    doc.save_to(&mut bytes).unwrap();
+    bytes
+}
+
+/// `pdf` with the document information's `key` set to the text `value`
+/// (the way anyone can edit a sheet's metadata).
+pub fn with_info(pdf: &[u8], key: &str, value: &str) -> Vec<u8> {
+    let mut doc = lopdf::Document::load_mem(pdf).unwrap();
+    let info = doc.trailer.get(b"Info").unwrap().as_reference().unwrap();
+    doc.get_dictionary_mut(info)
+        .unwrap()
+        .set(key, lopdf::Object::string_literal(value));
+    let mut bytes = Vec::new();
+    doc.save_to(&mut bytes).unwrap();
+    bytes
+}
