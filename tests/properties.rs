@@ -2,7 +2,8 @@
 
 use lotsman::{
     Criterion, Model, ModelKind, RiskPair, RiskPoint, Stage, StagedPlan, acceptance_probability,
-    curtailed_outcomes, design_double, design_sequential, design_single, measures, stage_outcomes,
+    curtailed_outcomes, design_double, design_sequential, design_single, evaluate, format_quality,
+    measures, nonconforming_in_lot, stage_outcomes,
 };
 use proptest::prelude::*;
 
@@ -168,6 +169,41 @@ proptest! {
             let alpha: f64 = stage_outcomes(&d.plan, &model, p1).reject.iter().sum();
             let beta = stage_outcomes(&d.plan, &model, p2).pa();
             prop_assert!(alpha <= 0.05 && beta <= 0.10, "{}: {} {}", d.plan, alpha, beta);
+        }
+    }
+}
+
+/// A finite lot of 20 to 20,000 units.
+fn lot_strategy() -> impl Strategy<Value = Model> {
+    (20u64..20_000).prop_map(|n| Model::new(ModelKind::Hypergeometric, Some(n)).unwrap())
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(128))]
+
+    /// Issue 14, items 2 and 8: under the hypergeometric model every
+    /// measure is at the lot quality D/N, so no AOQ at any asked quality
+    /// exceeds the AOQL (the largest AOQ over the lot qualities D/N),
+    /// neither as computed nor as printed, and two qualities that mean the
+    /// same lot get the same figures.
+    #[test]
+    fn no_printed_aoq_exceeds_the_printed_aoql_in_a_finite_lot(
+        model in lot_strategy(),
+        stages in staged_strategy(),
+        qualities in prop::collection::vec(0.0001f64..0.6, 1..12),
+    ) {
+        let Ok(plan) = StagedPlan::new(stages, &model) else { return Ok(()) };
+        let e = evaluate(&plan, &model, &qualities).unwrap();
+        let printed = |q: f64| format_quality(q, false).trim_end_matches('%').parse::<f64>().unwrap();
+        for m in &e.points {
+            let lot = model.lot_size().unwrap();
+            let d = m.lot_nonconforming.unwrap();
+            prop_assert_eq!(d, nonconforming_in_lot(m.quality, lot));
+            prop_assert_eq!(m.lot_quality, Some(d as f64 / lot as f64));
+            prop_assert!(m.aoq <= e.aoql.value * (1.0 + 1e-12), "AOQ {} at {} above the AOQL {}", m.aoq, m.quality, e.aoql.value);
+            prop_assert!(printed(m.aoq) <= printed(e.aoql.value), "{} above {}", format_quality(m.aoq, false), format_quality(e.aoql.value, false));
+            let same_lot = measures(&plan, &model, d as f64 / lot as f64);
+            prop_assert_eq!((m.pa, m.aoq, m.ati, m.asn), (same_lot.pa, same_lot.aoq, same_lot.ati, same_lot.asn));
         }
     }
 }

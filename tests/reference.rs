@@ -126,6 +126,10 @@ fn measures_match_mpmath() {
     for row in table {
         let m = model(row);
         let got = measures(&plan(row, &m), &m, f(row, "p"));
+        // A finite lot's D = round(p N) and its quality D/N, at which every
+        // measure is taken (issue 14, item 2).
+        assert_eq!(got.lot_nonconforming, row["lot_nonconforming"].as_u64());
+        assert_eq!(got.lot_quality, row["lot_quality"].as_f64());
         assert!(close(got.pa, f(row, "pa"), 1e-9), "pa {} for {row}", got.pa);
         assert!(
             close(got.aoq, f(row, "aoq"), 1e-9),

@@ -68,6 +68,16 @@ impl ModelKind {
             _ => "fraction nonconforming",
         }
     }
+
+    /// The unit of qualities, AOQ and AOQL in JSON reports: `fraction`
+    /// (0.01 is 1% nonconforming) or `per_unit` (nonconformities per unit;
+    /// per 100 units is 100 times the number).
+    pub fn quality_unit(self) -> &'static str {
+        match self {
+            ModelKind::Poisson => "per_unit",
+            _ => "fraction",
+        }
+    }
 }
 
 impl fmt::Display for ModelKind {
@@ -134,6 +144,40 @@ impl Model {
         match self.kind {
             ModelKind::Hypergeometric => self.lot_size.unwrap_or(u64::MAX),
             _ => u64::MAX,
+        }
+    }
+
+    /// The number of nonconforming units `D = round(p N)` that a lot of
+    /// quality `p` holds under the hypergeometric model
+    /// ([`nonconforming_in_lot`]); `None` for the other two models, whose
+    /// quality is a process's and not a whole number of units.
+    pub fn nonconforming_in_lot(&self, p: f64) -> Option<u64> {
+        match (self.kind, self.lot_size) {
+            (ModelKind::Hypergeometric, Some(lot)) => Some(nonconforming_in_lot(p, lot)),
+            _ => None,
+        }
+    }
+
+    /// The quality every measure is computed at when the asked quality is
+    /// `p`: the lot's own quality `D / N` under the hypergeometric model (a
+    /// finite lot holds a whole number of nonconforming units), `p` itself
+    /// under the other two.
+    ///
+    /// Pa, AOQ, ATI and ASN all take it, so that two qualities that mean
+    /// the same lot (the same `D`) get the same figures, and no AOQ exceeds
+    /// the AOQL, which is the largest AOQ over the lot qualities `D / N`.
+    ///
+    /// # Example
+    /// ```
+    /// use lotsman::{Model, ModelKind};
+    /// let m = Model::new(ModelKind::Hypergeometric, Some(300)).unwrap();
+    /// assert_eq!(m.nonconforming_in_lot(0.0065), Some(2));
+    /// assert_eq!(m.lot_quality(0.0065), 2.0 / 300.0);
+    /// ```
+    pub fn lot_quality(&self, p: f64) -> f64 {
+        match (self.nonconforming_in_lot(p), self.lot_size) {
+            (Some(d), Some(lot)) => d as f64 / lot as f64,
+            _ => p,
         }
     }
 

@@ -78,6 +78,9 @@ pub struct RectifyingReport {
     pub scheme: &'static str,
     /// Model name.
     pub model: ModelKind,
+    /// The unit of the qualities, AOQL and LTPD: `fraction` or `per_unit`
+    /// ([`ModelKind::quality_unit`]).
+    pub quality_unit: &'static str,
     /// The lot size `N`.
     pub lot_size: u64,
     /// The process average.
@@ -168,6 +171,7 @@ impl RectifyingReport {
             title: title.to_string(),
             scheme: r.scheme().name(),
             model: r.model().kind(),
+            quality_unit: r.model().kind().quality_unit(),
             lot_size: lot,
             process_average: r.process_average(),
             protection,

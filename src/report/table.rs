@@ -10,7 +10,7 @@ use super::{
     DesignReport, EvaluationBatchReport, EvaluationReport, PointReport, ReportFormat,
     SequentialReport, SourceEvaluation, TradeoffCellReport, TradeoffReport, VariablesDesignReport,
     VariablesEvaluationReport, VariablesReport, VerificationReport, format_quality,
-    format_significant, variables_rule,
+    format_quality_cell, format_significant, quality_head, variables_rule,
 };
 use crate::design::{Input, Moved};
 use crate::model::ModelKind;
@@ -25,6 +25,11 @@ const RULED: TableStyle = TableStyle::new()
     .top_border(LineStyle::none().fill('─').junction('─'))
     .header_separator(LineStyle::none().fill('─').junction('─'))
     .bottom_border(LineStyle::none().fill('─').junction('─'));
+
+/// Heads of the lot columns of an evaluation under the hypergeometric
+/// model.
+const LOT_D: &str = "D in the lot";
+const LOT_QUALITY: &str = "Lot quality D/N";
 
 /// How many rows of alternatives a terminal table shows.
 const ALTERNATIVE_ROWS: usize = 12;
@@ -264,26 +269,65 @@ impl ReportFormat for Table {
                 )?
             }
         }
-        let mut g = grid(&["Quality", "Pa", "AOQ", "ATI", "ASN", "ASN curtailed"]);
+        let (quality, aoq) = (
+            quality_head("Quality", per_unit),
+            quality_head("AOQ", per_unit),
+        );
+        // A finite lot holds a whole number D of nonconforming units: each
+        // row says which, and the lot quality D/N its measures are at.
+        let lot = r.points.iter().any(|p| p.lot_nonconforming.is_some());
+        let mut header = vec![quality.as_str()];
+        if lot {
+            header.extend([LOT_D, LOT_QUALITY]);
+        }
+        header.extend(["Pa", &aoq, "ATI", "ASN", "ASN curtailed"]);
+        let mut g = grid(&header);
         for p in &r.points {
-            g.add_row(vec![
-                format_quality(p.quality, per_unit),
+            let mut row = vec![format_quality_cell(p.quality, per_unit)];
+            if lot {
+                row.push(
+                    p.lot_nonconforming
+                        .map_or("-".to_string(), |d| d.to_string()),
+                );
+                row.push(
+                    p.lot_quality
+                        .map_or("-".to_string(), |q| format_quality_cell(q, per_unit)),
+                );
+            }
+            row.extend([
                 format!("{:.4}", p.pa),
-                format_quality(p.aoq, per_unit),
+                format_quality_cell(p.aoq, per_unit),
                 p.ati.map_or("-".to_string(), |v| format!("{v:.1}")),
                 format!("{:.1}", p.asn),
                 p.asn_curtailed
                     .map_or("-".to_string(), |v| format!("{v:.1}")),
             ]);
+            g.add_row(row);
         }
         writeln!(out, "{g}")?;
+        // Both are lot qualities D/N under the hypergeometric model.
+        let with_d = |q: f64| match r.lot_size {
+            Some(n) if lot => format!(
+                "{} (D = {})",
+                format_quality(q, per_unit),
+                crate::model::nonconforming_in_lot(q, n)
+            ),
+            _ => format_quality(q, per_unit),
+        };
         writeln!(
             out,
-            "AOQL {} at quality {}; indifference quality (Pa = 0.5) {}",
+            "AOQL {} at {}quality {}; indifference quality (Pa = 0.5) {}",
             format_quality(r.aoql.value, per_unit),
-            format_quality(r.aoql.quality, per_unit),
-            format_quality(r.indifference_quality, per_unit)
+            if lot { "lot " } else { "" },
+            with_d(r.aoql.quality),
+            with_d(r.indifference_quality)
         )?;
+        if lot {
+            writeln!(
+                out,
+                "A lot of N units holds D = round(p N) nonconforming units: every measure of a row is at its lot quality D/N."
+            )?;
+        }
         if r.lot_size.is_none() {
             writeln!(
                 out,
@@ -445,6 +489,12 @@ impl ReportFormat for Table {
             "{} plans, {} model, {lot}; alpha {} and beta {} in every cell",
             r.scheme, r.model, r.alpha, r.beta
         )?;
+        if per_unit {
+            writeln!(
+                out,
+                "AQL and RQL in nonconformities per unit (per 100 units in brackets)"
+            )?;
+        }
         writeln!(out)?;
         let double = r.criterion.is_some();
         if double {
@@ -513,8 +563,14 @@ fn write_sensitivity(out: &mut dyn Write, r: &DesignReport, per_unit: bool) -> i
     writeln!(out)?;
     writeln!(
         out,
-        "What one step of each input does to the single plan (n = {}, c = {}), the other three as agreed",
-        r.single_plan.n, r.single_plan.c
+        "What one step of each input does to the single plan (n = {}, c = {}), the other three as agreed{}",
+        r.single_plan.n,
+        r.single_plan.c,
+        if per_unit {
+            " (AQL and RQL per unit, per 100 units in brackets)"
+        } else {
+            ""
+        }
     )?;
     let mut g = grid(&[
         "Input",
@@ -529,7 +585,8 @@ fn write_sensitivity(out: &mut dyn Write, r: &DesignReport, per_unit: bool) -> i
     // written, with no padding digits.
     let decimal = |v: f64| format!("{}", format!("{v:.11e}").parse::<f64>().unwrap_or(v));
     let value = |input: Input, v: f64| match input {
-        Input::Aql | Input::Rql if !per_unit => format!("{}%", decimal(100.0 * v)),
+        Input::Aql | Input::Rql if per_unit => format!("{} ({})", decimal(v), decimal(100.0 * v)),
+        Input::Aql | Input::Rql => format!("{}%", decimal(100.0 * v)),
         _ => decimal(v),
     };
     let n = |m: &Moved| match (m.n, m.change) {
@@ -585,7 +642,7 @@ fn write_matrix(
         header.extend(
             r.rql[first..last]
                 .iter()
-                .map(|&q| format_quality(q, per_unit)),
+                .map(|&q| format_quality_cell(q, per_unit)),
         );
         let mut g = Grid::new();
         g.load_style(RULED)
@@ -597,7 +654,7 @@ fn write_matrix(
             }
         }
         for (i, &aql) in r.aql.iter().enumerate() {
-            let mut row = vec![format_quality(aql, per_unit)];
+            let mut row = vec![format_quality_cell(aql, per_unit)];
             row.extend((first..last).map(|j| text(r.cell(i, j))));
             g.add_row(row);
         }

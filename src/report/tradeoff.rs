@@ -60,6 +60,9 @@ pub struct TradeoffReport {
     pub scheme: &'static str,
     /// Model name.
     pub model: ModelKind,
+    /// The unit of the AQL and RQL values: `fraction` or `per_unit`
+    /// ([`ModelKind::quality_unit`]).
+    pub quality_unit: &'static str,
     /// Lot size, `null` when absent.
     pub lot_size: Option<u64>,
     /// The producer's risk of every cell.
@@ -114,6 +117,7 @@ impl TradeoffReport {
             title: title.map(str::to_string),
             scheme: r.scheme().name(),
             model: r.model().kind(),
+            quality_unit: r.model().kind().quality_unit(),
             lot_size: r.model().lot_size(),
             alpha: r.alpha(),
             beta: r.beta(),

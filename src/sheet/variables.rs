@@ -31,7 +31,7 @@ use super::{
 use crate::design::{SingleDesign, design_single};
 use crate::error::Error;
 use crate::model::Model;
-use crate::numeric::{NumericalError, check_probability};
+use crate::numeric::{NumericalError, Quantity, Short, check};
 use crate::plan::{VariablesPlan, measures, quality_at_pa};
 use crate::report::words::CAUTION;
 use crate::source::{PlanSource, variables_risks};
@@ -703,7 +703,11 @@ fn oc_chart(
         ("attributes OC", &attributes_curve),
     ] {
         for &(p, pa) in curve.iter() {
-            check_probability(format_args!("Pa at quality {p} on the {name} curve"), pa)?;
+            check(
+                Quantity::Probability,
+                format_args!("Pa at quality {} on the {name} curve", Short(p)),
+                pa,
+            )?;
         }
     }
     let axis = quality_tick(false);

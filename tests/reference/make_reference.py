@@ -497,9 +497,17 @@ def mp_asn_curtailed(model, n, c, p, lot_size=None):
 
 
 def measures_row(model, n, c, lot_size, p):
-    """pa, AOQ, ATI, ASN and curtailed ASN of plan (n, c) at quality p."""
+    """pa, AOQ, ATI, ASN and curtailed ASN of plan (n, c) at quality p.
+
+    A finite lot (hypergeometric) holds D = round(p N) nonconforming units,
+    so its quality is D/N: every measure, the AOQ's quality factor
+    included, is taken there, and the row gives D and D/N beside p (issue
+    14, item 2: a quality as typed in the AOQ made two qualities of one lot
+    differ, and an AOQ exceed the AOQL).
+    """
     cdf, sf = mp_tails(model, n, c, p, lot_size)
-    P = mpf(p)
+    lot_d = lot_defectives(p, lot_size) if model == HYP else None
+    P = mpf(p) if lot_d is None else mpf(lot_d) / lot_size
     if lot_size is None:
         aoq, ati = cdf * P, None
     else:
@@ -507,6 +515,8 @@ def measures_row(model, n, c, lot_size, p):
         ati = n + sf * (lot_size - n)  # n + (1 - pa)(N - n), 1 - pa taken as sf
     asn_c = mp_asn_curtailed(model, n, c, p, lot_size)
     return dict(model=model, n=n, c=c, lot_size=lot_size, p=p,
+                lot_nonconforming=lot_d,
+                lot_quality=None if lot_d is None else to_float(P),
                 pa=to_float(cdf), aoq=to_float(aoq),
                 ati=None if ati is None else to_float(ati), asn=n,
                 asn_curtailed=None if asn_c is None else to_float(asn_c))
@@ -784,6 +794,10 @@ MEASURE_CASES = (
     + [(HYP, 13, 0, 500, 0.05), (HYP, 125, 3, 2000, 0.02), (HYP, 48, 1, 50, 0.04),
        (HYP, 49, 2, 50, 0.9), (HYP, 80, 2, 1000, 0.0005), (HYP, 200, 5, 100000, 0.01),
        (HYP, 10, 2, 50, 0.03), (HYP, 10, 0, 50, 0.01)]
+    # Issue 14, item 2: 2.29% to 2.33% in a lot of 2000 (D = 46, 46, 46, 46,
+    # 47); item 8: the AQL 0.65% in a lot of 300 (D = 2, D/N = 0.6667%).
+    + [(HYP, 125, 3, 2000, p) for p in (0.0229, 0.023, 0.0231, 0.0232, 0.0233)]
+    + [(HYP, 94, 2, 300, 0.0065), (HYP, 94, 2, 300, 0.018027756377319945)]
 )
 
 # (model, n, c, lot_size)
@@ -792,7 +806,7 @@ AOQL_CASES = [
     (BIN, 1000, 10, None), (BIN, 2000000, 220, None),
     (POI, 50, 1, None), (POI, 125, 3, 2000), (POI, 13, 0, None), (POI, 1000, 10, None),
     (HYP, 10, 1, 50), (HYP, 13, 0, 500), (HYP, 125, 3, 2000), (HYP, 200, 4, 10000),
-    (HYP, 48, 1, 50),
+    (HYP, 48, 1, 50), (HYP, 94, 2, 300),
 ]
 
 INDIFFERENCE_CASES = [
