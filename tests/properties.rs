@@ -1,9 +1,9 @@
 //! Property tests of the invariants the designer and the models promise.
 
 use lotsman::{
-    Criterion, Model, ModelKind, RiskPair, RiskPoint, Stage, StagedPlan, acceptance_probability,
-    curtailed_outcomes, design_double, design_sequential, design_single, evaluate, format_quality,
-    measures, nonconforming_in_lot, stage_outcomes,
+    Criterion, DesignError, Model, ModelKind, RiskPair, RiskPoint, Stage, StagedPlan,
+    acceptance_probability, curtailed_outcomes, design_double, design_sequential, design_single,
+    evaluate, format_quality, measures, nonconforming_in_lot, stage_outcomes,
 };
 use proptest::prelude::*;
 
@@ -204,6 +204,53 @@ proptest! {
             prop_assert!(printed(m.aoq) <= printed(e.aoql.value), "{} above {}", format_quality(m.aoq, false), format_quality(e.aoql.value, false));
             let same_lot = measures(&plan, &model, d as f64 / lot as f64);
             prop_assert_eq!((m.pa, m.aoq, m.ati, m.asn), (same_lot.pa, same_lot.aoq, same_lot.ati, same_lot.asn));
+        }
+    }
+}
+
+/// Any model with a lot of 5 to 3000 units.
+fn model_with_lot_strategy() -> impl Strategy<Value = Model> {
+    (
+        prop::sample::select(vec![
+            ModelKind::Binomial,
+            ModelKind::Poisson,
+            ModelKind::Hypergeometric,
+        ]),
+        5u64..3000,
+    )
+        .prop_map(|(kind, lot)| Model::new(kind, Some(lot)).unwrap())
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(32))]
+
+    /// Issue 14, item 3: whenever the lot size is known, no designer
+    /// proposes a sample larger than the lot; when the points need one, the
+    /// answer is the refusal that says to inspect the whole lot, and the
+    /// sample it names is the one the lot-free design finds.
+    #[test]
+    fn no_designed_sample_exceeds_its_lot(
+        model in model_with_lot_strategy(), (p1, p2, a, b) in risks_strategy()
+    ) {
+        let risks = RiskPair::new(RiskPoint { quality: p1, risk: a }, RiskPoint { quality: p2, risk: b }, &model).unwrap();
+        let lot = model.lot_size().unwrap();
+        let designs = [
+            design_single(&model, &risks).map(|d| d.plan),
+            design_double(&model, &risks, Criterion::AsnAql, None).map(|d| d.plan),
+            design_sequential(&model, &risks).map(|(d, _)| d.plan),
+        ];
+        for d in designs {
+            match d {
+                Ok(plan) => prop_assert!(plan.max_sample() <= lot, "{} in a lot of {}", plan, lot),
+                Err(DesignError::WholeLot { needed, lot: l, .. }) => {
+                    prop_assert_eq!(l, lot);
+                    prop_assert!(needed > lot);
+                    let free = Model::new(model.kind(), None).unwrap();
+                    let unbounded = design_single(&free, &RiskPair::new(risks.producer(), risks.consumer(), &free).unwrap()).unwrap();
+                    prop_assert_eq!(unbounded.n, needed);
+                }
+                Err(_) => {}
+            }
         }
     }
 }

@@ -27,7 +27,7 @@ use std::fmt;
 
 use serde::{Deserialize, Serialize};
 
-use crate::error::InputError;
+use crate::error::{DesignError, InputError};
 use binomial::Binomial;
 use hypergeometric::Hypergeometric;
 pub use hypergeometric::nonconforming_in_lot;
@@ -138,12 +138,65 @@ impl Model {
         self.lot_size
     }
 
-    /// The largest sample the model allows: the lot size for the
-    /// hypergeometric model, otherwise unbounded.
+    /// The largest sample the model allows: the lot size whenever one is
+    /// known, whatever the model (no sample is larger than its lot);
+    /// otherwise unbounded.
     pub fn max_sample(&self) -> u64 {
+        self.lot_size.unwrap_or(u64::MAX)
+    }
+
+    /// The same model without its lot size, for the binomial and Poisson
+    /// models, whose probabilities do not depend on it (a designer searches
+    /// on it to learn the sample the points need, then holds that sample
+    /// to the lot with [`Model::fit_in_lot`]); the hypergeometric model as
+    /// it is.
+    pub(crate) fn without_lot(&self) -> Model {
         match self.kind {
-            ModelKind::Hypergeometric => self.lot_size.unwrap_or(u64::MAX),
-            _ => u64::MAX,
+            ModelKind::Hypergeometric => *self,
+            kind => Model {
+                kind,
+                lot_size: None,
+            },
+        }
+    }
+
+    /// Checks that a sample of `n` units, named `what` (e.g. "stage 2
+    /// cumulative sample size"), fits the lot: whenever a lot size is
+    /// known, under every model, a sample cannot take more units than the
+    /// lot holds. This is the one place the rule lives; plans given by hand,
+    /// recorded in a source or built by a designer all pass through it.
+    ///
+    /// # Errors
+    /// [`InputError::Inconsistent`] naming `what`, `n` and the lot size,
+    /// and what to do instead.
+    ///
+    /// # Example
+    /// ```
+    /// use lotsman::{Model, ModelKind};
+    /// let m = Model::new(ModelKind::Binomial, Some(30)).unwrap();
+    /// assert!(m.check_sample("stage 1 cumulative sample size", 30).is_ok());
+    /// let e = m.check_sample("stage 1 cumulative sample size", 110).unwrap_err();
+    /// assert!(e.to_string().contains("110 exceeds the lot size 30"));
+    /// ```
+    pub fn check_sample(&self, what: impl fmt::Display, n: u64) -> Result<(), InputError> {
+        match self.lot_size {
+            Some(lot) if n > lot => Err(InputError::Inconsistent(format!(
+                "{what} {n} exceeds the lot size {lot}: a sample cannot be larger than its lot; inspect all {lot} units (100%), or give a plan whose samples fit the lot"
+            ))),
+            _ => Ok(()),
+        }
+    }
+
+    /// The designers' check of their answer against the lot: `Ok` when a
+    /// sample of `needed` units (or measurements) fits it, otherwise the
+    /// refusal that states the answer, to inspect the whole lot, and why.
+    ///
+    /// # Errors
+    /// [`DesignError::WholeLot`] when `needed` exceeds the lot size.
+    pub fn fit_in_lot(&self, needed: u64, unit: &'static str) -> Result<(), DesignError> {
+        match self.lot_size {
+            Some(lot) if needed > lot => Err(DesignError::WholeLot { needed, lot, unit }),
+            _ => Ok(()),
         }
     }
 

@@ -231,7 +231,7 @@ impl ReportFormat for Csv {
     fn tradeoff(&self, out: &mut dyn Write, r: &TradeoffReport) -> io::Result<()> {
         writeln!(
             out,
-            "{},{},n,c,asn_at_aql,producer_risk,consumer_risk,stages,pa_at_process,ati,cost,reason",
+            "{},{},n,c,asn_at_aql,producer_risk,consumer_risk,stages,pa_at_process,ati,cost,full_inspection,reason",
             quality_column("aql", r.model),
             quality_column("rql", r.model)
         )?;
@@ -244,7 +244,7 @@ impl ReportFormat for Csv {
             });
             writeln!(
                 out,
-                "{},{},{},{},{},{},{},{},{},{},{},{}",
+                "{},{},{},{},{},{},{},{},{},{},{},{},{}",
                 num(c.aql),
                 num(c.rql),
                 cell(c.n),
@@ -256,6 +256,7 @@ impl ReportFormat for Csv {
                 opt(c.pa_at_process.flatten()),
                 opt(c.ati.flatten()),
                 opt(c.cost.flatten()),
+                c.full_inspection,
                 text(c.reason.as_deref().unwrap_or(""))
             )?;
         }

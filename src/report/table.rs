@@ -510,6 +510,7 @@ impl ReportFormat for Table {
             )?;
         }
         write_matrix(out, r, per_unit, |c| match (c.n, c.c) {
+            _ if c.full_inspection => "100%".to_string(),
             (Some(n), Some(_)) if double => {
                 format!("{:.1} ({n})", c.asn_at_aql.unwrap_or(f64::NAN))
             }
@@ -530,8 +531,23 @@ impl ReportFormat for Table {
                     .map_or("-".to_string(), |v| format!("{v:.2}"))
             })?;
         }
-        let failed: Vec<&TradeoffCellReport> =
-            r.cells.iter().filter(|c| c.reason.is_some()).collect();
+        let whole = r.cells.iter().filter(|c| c.full_inspection).count();
+        if let (true, Some(lot)) = (whole > 0, r.lot_size) {
+            writeln!(
+                out,
+                "- 100% in {whole} of {} cells: their points need a sample larger than the lot of {lot} units, so every unit is inspected (ATI {lot}{})",
+                r.cells.len(),
+                r.cost.as_ref().map_or(String::new(), |k| format!(
+                    ", cost {:.2} per lot",
+                    k.per_unit * lot as f64
+                ))
+            )?;
+        }
+        let failed: Vec<&TradeoffCellReport> = r
+            .cells
+            .iter()
+            .filter(|c| c.reason.is_some() && !c.full_inspection)
+            .collect();
         if let Some(first) = failed.first() {
             writeln!(
                 out,

@@ -105,7 +105,7 @@ impl<'a> Facts<'a> {
         file_name: &'a str,
     ) -> Result<Self, Error> {
         let request = source.variables_request()?;
-        let plan = source.recorded_variables_plan(request.spec())?;
+        let plan = source.recorded_variables_plan(&request)?;
         let scheme = words::scheme(request.spec().sigma_kind());
         let common = super::Common::new(
             source,

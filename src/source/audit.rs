@@ -155,9 +155,7 @@ pub fn audit(source: &PlanSource, path: &Path) -> Result<Audit, Error> {
     };
     let (risks, achieved, per_unit) = if source.is_variables() {
         let request = source.variables_request().map_err(invalid)?;
-        let plan = source
-            .recorded_variables_plan(request.spec())
-            .map_err(invalid)?;
+        let plan = source.recorded_variables_plan(&request).map_err(invalid)?;
         (
             *request.risks(),
             variables_risks(&plan, request.risks()),

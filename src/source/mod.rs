@@ -305,21 +305,22 @@ impl PlanSource {
             source: e,
         };
         let request = source.variables_request().map_err(invalid)?;
-        let plan = source
-            .recorded_variables_plan(request.spec())
-            .map_err(invalid)?;
+        let plan = source.recorded_variables_plan(&request).map_err(invalid)?;
         Ok((source, request, plan))
     }
 
-    /// The recorded variables plan, validated for `spec`.
+    /// The recorded variables plan, validated for the request's
+    /// specification and lot.
     ///
     /// # Errors
     /// [`InputError`] when the source records no variables plan, gives `k`
-    /// where `m` belongs (or the reverse), or an invalid `n` or constant.
+    /// where `m` belongs (or the reverse), an invalid `n` or constant, or
+    /// an `n` larger than the lot ([`Model::check_sample`]).
     pub fn recorded_variables_plan(
         &self,
-        spec: &Specification,
+        request: &VariablesRequest,
     ) -> Result<VariablesPlan, InputError> {
+        let spec = request.spec();
         let recorded = self
             .plan
             .as_ref()
@@ -347,6 +348,9 @@ impl PlanSource {
                 )));
             }
         };
+        request
+            .model()
+            .check_sample("the recorded plan's sample size n", recorded.n)?;
         VariablesPlan::new(*spec, recorded.n, constant)
     }
 

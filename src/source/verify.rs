@@ -4,7 +4,7 @@
 use serde::Serialize;
 
 use super::{PlanSource, RecordedPlan, RecordedVariables};
-use crate::design::{design_for, design_variables};
+use crate::design::design_for;
 use crate::error::Error;
 use crate::plan::{SequentialLines, Stage};
 
@@ -95,7 +95,7 @@ pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
 /// [`RISK_TOLERANCE`].
 fn verify_variables(source: &PlanSource) -> Result<Verdict, Error> {
     let request = source.variables_request()?;
-    let design = design_variables(request.spec(), request.risks())?;
+    let design = request.design()?;
     let plan = &design.plan;
     let resolved = RecordedVariables {
         n: plan.n(),

@@ -165,6 +165,7 @@ pub fn gap(g: Gap) -> &'static str {
         Gap::NotBelow => "No plan: the AQL is not below the RQL",
         Gap::BeyondCap => "No plan: the points are too close for the designer's limits",
         Gap::NoPlan => "No plan meets both points (for example, the lot is too small)",
+        Gap::WholeLot => "100% inspection: the points need a larger sample than the lot",
     }
 }
 
