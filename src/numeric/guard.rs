@@ -42,7 +42,7 @@ impl Quantity {
         }
     }
 
-    /// Whether `x` is a value of this kind, up to [`ROUNDING`].
+    /// Whether `x` is a value of this kind, up to a rounding of `1e-12`.
     pub fn allows(self, x: f64) -> bool {
         x.is_finite()
             && x >= -ROUNDING

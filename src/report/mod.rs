@@ -427,7 +427,7 @@ pub fn format_quality(q: f64, per_unit: bool) -> String {
 /// A quality in a table cell, four significant digits: a fraction in
 /// percent as [`format_quality`] prints it; nonconformities per unit as
 /// `1.500 (150.0)`, per unit and, in brackets, per 100 units, under a
-/// column head that names both ([`quality_head`]).
+/// column head that names both (`Quality per unit (per 100 units)`).
 pub fn format_quality_cell(q: f64, per_unit: bool) -> String {
     if per_unit {
         return format!(
