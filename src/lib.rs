@@ -81,7 +81,9 @@ pub use design::{
     wald_lines,
 };
 pub use error::{BatchError, DesignError, Error, InputError, SourceError};
-pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
+pub use model::{
+    MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot,
+};
 pub use numeric::{NEAR_LIMIT, NumericalError, Quantity, Short, check, near_limit};
 pub use plan::{
     AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS,

@@ -163,3 +163,155 @@ fn the_sheet_shows_the_lot_quality_and_d_beside_the_agreed_quality() {
         assert!(text.contains(part), "no '{part}' in\n{text}");
     }
 }
+
+/// Item 4: alpha = 5e-17, where 1 - alpha rounds to 1. The smallest plan
+/// for 1% / 99% is n = 9, c = 8 (hand computation: P(X = 9) = 0.01^9 =
+/// 1e-18 <= 5e-17, while n = 8, c = 7 has 1e-16; Pa(99%) = 1 - 0.99^9 =
+/// 0.0865), not a refusal as "too close"; the risk prints as written.
+#[test]
+fn a_risk_where_one_minus_alpha_rounds_to_one_gets_its_smallest_plan() {
+    let args = [
+        "design", "--aql", "1%", "--rql", "99%", "--alpha", "5e-17", "--format", "json",
+    ];
+    let v = json_of(&args);
+    assert_eq!(
+        (
+            v["stages"][0]["n"].as_u64(),
+            v["stages"][0]["accept"].as_u64()
+        ),
+        (Some(9), Some(8))
+    );
+    let alpha = v["producer"]["achieved_risk"].as_f64().unwrap();
+    assert!((alpha - 1e-18).abs() < 1e-30, "{alpha:e}");
+    let table = stdout_of(&args[..7]);
+    assert!(table.contains("alpha 5e-17"), "{table}");
+}
+
+/// Item 4: alpha = beta = 1e-30 with every designer. Each plan is checked
+/// on its own tails by the exact stage recursion (never as 1 - Pa); the
+/// single plan for 1% / 99% is n = 41, c = 20, as the mpmath reference
+/// finds (tests/data/reference.json, extreme_designs).
+#[test]
+fn every_designer_meets_risks_of_1e_30() {
+    use lotsman::{
+        Criterion, LimitKind, Model, ModelKind, Protection, RectifyingRequest, RiskPoint, Scheme,
+        SigmaKind, Specification, TradeoffRequest, VariablesRequest, design_double,
+        design_multiple, design_rectifying, design_sequential, design_single, stage_outcomes,
+        tradeoff,
+    };
+    let model = Model::new(ModelKind::Binomial, None).unwrap();
+    let risks = common::pair(&model, 0.01, 1e-30, 0.99, 1e-30);
+    let single = design_single(&model, &risks).unwrap();
+    assert_eq!((single.n, single.c), (41, 20));
+    let staged = [
+        design_double(&model, &risks, Criterion::AsnAql, None).unwrap(),
+        design_multiple(&model, &risks, 7, Criterion::AsnAql).unwrap(),
+        design_sequential(&model, &risks).unwrap().0,
+    ];
+    for d in staged.iter().map(|d| &d.plan).chain([&single.plan]) {
+        let alpha: f64 = stage_outcomes(d, &model, 0.01).reject.iter().sum();
+        let beta: f64 = stage_outcomes(d, &model, 0.99).accept.iter().sum();
+        assert!(alpha <= 1e-30 && beta <= 1e-30, "{d}: {alpha:e}, {beta:e}");
+        assert!(
+            alpha > 0.0 && beta > 0.0,
+            "{d}: risks kept, not rounded away"
+        );
+    }
+    // Variables, sigma known, one limit: the producer's risk from its own
+    // tail, not 1 - Pa (which would say 0).
+    let spec = Specification::new(
+        SigmaKind::Known,
+        Some(1.0),
+        LimitKind::Upper,
+        None,
+        Some(5.0),
+    )
+    .unwrap();
+    let variables = common::pair(&model, 0.01, 1e-30, 0.10, 1e-30);
+    let v = VariablesRequest::new(spec, variables, model)
+        .unwrap()
+        .design()
+        .unwrap();
+    assert!(
+        v.producer_risk > 0.0 && v.producer_risk <= 1e-30,
+        "{:e}",
+        v.producer_risk
+    );
+    assert!(v.consumer_risk <= 1e-30, "{:e}", v.consumer_risk);
+    // Rectify, LTPD with a consumer's risk of 1e-30.
+    let lot = Model::new(ModelKind::Hypergeometric, Some(1000)).unwrap();
+    let ltpd = Protection::Ltpd(RiskPoint {
+        quality: 0.5,
+        risk: 1e-30,
+    });
+    let r = design_rectifying(&RectifyingRequest::new(lot, 0.005, ltpd, Scheme::Single).unwrap())
+        .unwrap();
+    let pa = r.plan.unwrap().pa_at_ltpd.unwrap();
+    assert!(pa <= 1e-30, "{pa:e}");
+    // The grid: every cell a plan.
+    let grid = tradeoff(
+        &TradeoffRequest::new(
+            vec![0.01, 0.05],
+            vec![0.9, 0.99],
+            1e-30,
+            1e-30,
+            model,
+            Scheme::Single,
+            Criterion::AsnAql,
+            None,
+        )
+        .unwrap(),
+        &|| {},
+    );
+    assert!(grid.cells.iter().all(|c| c.outcome.is_ok()));
+}
+
+/// Item 4: a subnormal quality (1e-310) is evaluated, and every number is
+/// printed in a short scientific form, not three hundred zeros. At such a
+/// quality a lot is all but certainly accepted: the fully curtailed ASN of
+/// n = 10, c = 1 is the 9 units after which acceptance is certain.
+#[test]
+fn subnormal_qualities_are_evaluated_and_printed_short() {
+    let csv = stdout_of(&[
+        "evaluate", "--n", "10", "--c", "1", "--at", "1e-310", "--format", "csv",
+    ]);
+    assert_eq!(csv.lines().nth(1), Some("1e-310,1,1e-310,,10,9"), "{csv}");
+    let table = stdout_of(&["evaluate", "--n", "10", "--c", "1", "--at", "1e-310"]);
+    assert!(
+        table.contains("1.000e-308%") && !table.contains("0.0000000000"),
+        "{table}"
+    );
+    // n = 4, c = 0 against 50%: the producer's risk 1 - (1 - p)^4 = 4e-310
+    // (hand computation), kept as a subnormal, not rounded to 0.
+    let v = json_of(&[
+        "design", "--aql", "1e-310", "--rql", "50%", "--format", "json",
+    ]);
+    assert_eq!(v["stages"][0]["n"], 4);
+    let alpha = v["producer"]["achieved_risk"].as_f64().unwrap();
+    assert!((alpha - 4e-310).abs() < 1e-322, "{alpha:e}");
+    let seq = json_of(&[
+        "design",
+        "--aql",
+        "1e-310",
+        "--rql",
+        "50%",
+        "--scheme",
+        "sequential",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(seq["sequential"]["truncation"], 4, "{seq}");
+}
+
+/// Item 4: a Poisson count whose mean overflows (a rate near the largest
+/// double times a billion units) is above every acceptance number: Pa is
+/// 0, where the tail sum once gave NaN and a clamp turned it into 1.
+#[test]
+fn a_poisson_mean_beyond_the_double_range_accepts_nothing() {
+    use lotsman::{Model, ModelKind, StagedPlan, measures};
+    let model = Model::new(ModelKind::Poisson, None).unwrap();
+    let plan = StagedPlan::single(1_000_000_000, 1, &model).unwrap();
+    let m = measures(&plan, &model, 1e306);
+    assert_eq!(m.pa, 0.0);
+    assert!(m.aoq == 0.0 && m.asn.is_finite());
+}

@@ -254,3 +254,41 @@ proptest! {
         }
     }
 }
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(64))]
+
+    /// Issue 14, item 4: risks from 1e-40 to 0.3 (where 1 - alpha rounds to
+    /// 1 below about 1e-16) give the smallest plan that meets both points
+    /// on their own tails, P(X > c) <= alpha and P(X <= c) <= beta, and one
+    /// unit less meets neither with any acceptance number.
+    #[test]
+    fn risks_far_below_double_precision_get_the_smallest_plan(
+        model in model_strategy(),
+        p1 in 0.005f64..0.05,
+        ratio in 4.0f64..40.0,
+        ln_alpha in -92.0f64..-1.2,
+        ln_beta in -92.0f64..-1.2,
+    ) {
+        let (alpha, beta) = (ln_alpha.exp(), ln_beta.exp());
+        let p2 = (p1 * ratio).min(0.95);
+        let risks = RiskPair::new(RiskPoint { quality: p1, risk: alpha }, RiskPoint { quality: p2, risk: beta }, &model).unwrap();
+        let d = match design_single(&model, &risks) {
+            Ok(d) => d,
+            // A lot too small to tell the points apart is the only refusal
+            // these points may meet.
+            Err(e) => {
+                prop_assert!(matches!(e, DesignError::NoPlan { .. }), "{}", e);
+                return Ok(());
+            }
+        };
+        prop_assert!(meets(&model, d.n, d.c, &risks), "n = {}, c = {}", d.n, d.c);
+        let smaller = d.n - 1;
+        if smaller >= 1 && d.n <= 2000 {
+            let c_top = if model.kind() == ModelKind::Poisson { 4 * smaller + 40 } else { smaller - 1 };
+            for c in 0..=c_top {
+                prop_assert!(!meets(&model, smaller, c, &risks), "n - 1 = {} meets with c = {}", smaller, c);
+            }
+        }
+    }
+}

@@ -1875,3 +1875,79 @@ fn a_sample_larger_than_the_lot_is_refused_everywhere() {
     ];
     run_in(&fx, "sample larger than the lot", &cases);
 }
+
+/// Issue 14, item 4: qualities and risks at the ends of the double range
+/// are answered truly (the smallest plan, an evaluation in short
+/// scientific form) or refused with the true reason, never as "too close"
+/// because 1 - alpha rounded to 1, never with hundreds of zeros.
+#[test]
+fn the_ends_of_the_double_range_get_true_answers_or_true_reasons() {
+    let cases = vec![
+        reported(
+            "ends of the double range: alpha = 5e-17 (1 - alpha rounds to 1)",
+            &["design", "--aql", "1%", "--rql", "99%", "--alpha", "5e-17"],
+            0,
+            "PLAN  n = 9, c = 8",
+        ),
+        // mpmath: tests/data/reference.json, extreme_designs.
+        reported(
+            "ends of the double range: alpha = beta = 1e-30",
+            &[
+                "design", "--aql", "1%", "--rql", "99%", "--alpha", "1e-30", "--beta", "1e-30",
+            ],
+            0,
+            "PLAN  n = 41, c = 20",
+        ),
+        reported(
+            "ends of the double range: a subnormal quality is evaluated",
+            &["evaluate", "--n", "10", "--c", "1", "--at", "1e-310"],
+            0,
+            "1.000e-308%",
+        ),
+        refused_fast(
+            "ends of the double range: points a subnormal apart need a sample beyond the limit",
+            &["design", "--aql", "1e-310", "--rql", "1e-300"],
+            "the risk points are too close: a plan would need a sample beyond the designer's limit of 1000000000 units",
+        ),
+        refused_fast(
+            "ends of the double range: a rate whose rate per 100 units overflows",
+            &[
+                "evaluate", "--n", "10", "--c", "1", "--model", "poisson", "--at", "1e308",
+            ],
+            "quality = 1e308 is out of range: it must be above 0 (nonconformities per unit) and at most 1.7e306, so that the rate per 100 units is a number",
+        ),
+        refused_fast(
+            "ends of the double range: a Poisson RQL beyond the largest rate",
+            &[
+                "design", "--model", "poisson", "--aql", "1", "--rql", "1.8e306",
+            ],
+            "consumer's quality (RQL) = 1.8e306 is out of range",
+        ),
+        refused_fast(
+            "ends of the double range: two limits, sigma unknown, risks below what the quadrature vouches for",
+            &[
+                "design",
+                "--scheme",
+                "variables",
+                "--sigma",
+                "unknown",
+                "--limit",
+                "both",
+                "--lower",
+                "1",
+                "--upper",
+                "9",
+                "--aql",
+                "1%",
+                "--rql",
+                "10%",
+                "--alpha",
+                "1e-30",
+                "--beta",
+                "1e-30",
+            ],
+            "alpha = 1e-30 and beta = 1e-30 are below the 1e-8 it can vouch for",
+        ),
+    ];
+    run("ends of the double range", &cases);
+}

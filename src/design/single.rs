@@ -36,7 +36,7 @@ use std::collections::HashMap;
 
 use serde::Serialize;
 
-use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z};
+use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z_upper};
 use super::search::first_true;
 use crate::error::DesignError;
 use crate::model::{Model, ModelKind, nonconforming_in_lot};
@@ -128,8 +128,8 @@ impl<'a> Solver<'a> {
             alpha: producer.risk,
             p2: consumer.quality,
             beta: consumer.risk,
-            z_alpha: z(1.0 - producer.risk),
-            z_beta: z(1.0 - consumer.risk),
+            z_alpha: z_upper(producer.risk),
+            z_beta: z_upper(consumer.risk),
             limit: model.max_sample().min(MAX_SAMPLE_SIZE),
         }
     }
@@ -287,7 +287,7 @@ pub(crate) fn smallest_sample_with_pa_at_most(
     guess: Option<u64>,
 ) -> Option<u64> {
     let guess =
-        guess.unwrap_or_else(|| sample_guess(model, poisson_mean_at(c, z(1.0 - target)), p, limit));
+        guess.unwrap_or_else(|| sample_guess(model, poisson_mean_at(c, z_upper(target)), p, limit));
     let ln_target = target.ln();
     first_true(smallest_sample(model.kind(), c), limit, guess, |n| {
         let pa = model.tails(n, c, p, 0, 0).cdf;

@@ -34,6 +34,7 @@ pub use hypergeometric::nonconforming_in_lot;
 pub use noncentral_t::NoncentralT;
 use poisson::Poisson;
 pub use tail::Tails;
+pub(crate) use tail::at_most_one;
 use tail::{Terms, tails};
 pub(crate) use window::Window;
 use window::window;
@@ -85,6 +86,11 @@ impl fmt::Display for ModelKind {
         f.write_str(self.name())
     }
 }
+
+/// The largest rate of nonconformities per unit (Poisson) accepted: the
+/// largest double over 100, rounded down to `1.7e306`, so that the rate
+/// per 100 units is a finite number.
+pub const MAX_RATE: f64 = 1.7e306;
 
 /// The largest lot size accepted: `10^12` units, far beyond any real lot and
 /// well inside the range where `f64` holds every whole number exactly.
@@ -235,11 +241,23 @@ impl Model {
     }
 
     /// Whether `p` is a quality this model can take: `0 < p < 1` for a
-    /// fraction nonconforming, `p > 0` (finite) for nonconformities per unit.
+    /// fraction nonconforming; for nonconformities per unit `p > 0` up to
+    /// [`MAX_RATE`], so that the rate per 100 units, which reports print
+    /// beside it, is a number too.
     pub fn accepts_quality(&self, p: f64) -> bool {
         match self.kind {
-            ModelKind::Poisson => p.is_finite() && p > 0.0,
+            ModelKind::Poisson => p > 0.0 && p <= MAX_RATE,
             _ => p > 0.0 && p < 1.0,
+        }
+    }
+
+    /// The valid qualities of this model, in words, for refusals.
+    pub(crate) fn quality_range(&self) -> &'static str {
+        match self.kind {
+            ModelKind::Poisson => {
+                "above 0 (nonconformities per unit) and at most 1.7e306, so that the rate per 100 units is a number"
+            }
+            _ => "between 0 and 1 (exclusive), e.g. 0.01 or 1%",
         }
     }
 
@@ -255,6 +273,7 @@ impl Model {
             Count::Poisson(d) => tails(&d, c),
             Count::Hypergeometric(d) => tails(&d, c),
             Count::Impossible => Tails::ALL_BELOW,
+            Count::Endless => Tails::ALL_ABOVE,
         }
     }
 
@@ -265,6 +284,7 @@ impl Model {
             Count::Poisson(d) => d.ln_pmf(k).exp(),
             Count::Hypergeometric(d) => d.ln_pmf(k).exp(),
             Count::Impossible => f64::from(u8::from(k == 0)),
+            Count::Endless => 0.0,
         }
     }
 
@@ -291,6 +311,7 @@ impl Model {
             Count::Poisson(d) => window(&d, lo, hi),
             Count::Hypergeometric(d) => window(&d, lo, hi),
             Count::Impossible => Window::at_zero(),
+            Count::Endless => Window::beyond_every_count(),
         }
     }
 
@@ -343,7 +364,11 @@ impl Model {
     fn count(&self, m: u64, p: f64, drawn: u64, found: u64) -> Count {
         match self.kind {
             ModelKind::Binomial => Count::Binomial(Binomial::new(m, p)),
-            ModelKind::Poisson => Count::Poisson(Poisson::new(m as f64 * p)),
+            ModelKind::Poisson => match m as f64 * p {
+                // A mean beyond the largest double: every count is exceeded.
+                lambda if lambda.is_infinite() => Count::Endless,
+                lambda => Count::Poisson(Poisson::new(lambda)),
+            },
             ModelKind::Hypergeometric => {
                 let lot = self.lot_size.unwrap_or(u64::MAX);
                 let bad = nonconforming_in_lot(p, lot);
@@ -365,4 +390,6 @@ enum Count {
     Poisson(Poisson),
     Hypergeometric(Hypergeometric),
     Impossible,
+    /// A Poisson count whose mean overflows: above every cut.
+    Endless,
 }

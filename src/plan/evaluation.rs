@@ -2,7 +2,7 @@
 //! table plus the curve's AOQL and indifference quality.
 
 use crate::error::InputError;
-use crate::model::{Model, ModelKind};
+use crate::model::Model;
 use crate::plan::{
     Aoql, Measures, StagedPlan, acceptance_probability, aoql, measures, stage_outcomes,
 };
@@ -38,11 +38,11 @@ pub fn evaluate(
 ) -> Result<Evaluation, InputError> {
     for &q in qualities {
         if !model.accepts_quality(q) {
-            let range = match model.kind() {
-                ModelKind::Poisson => "above 0 (nonconformities per unit)",
-                _ => "between 0 and 1 (exclusive)",
-            };
-            return Err(InputError::out_of_range("quality", q, range));
+            return Err(InputError::out_of_range(
+                "quality",
+                crate::numeric::Short(q),
+                model.quality_range(),
+            ));
         }
     }
     Ok(Evaluation {

@@ -33,6 +33,7 @@ pub use self::variables::{
 };
 use crate::design::{Alternative, AsnSummary, Scheme, Sensitivity, Solution, WaldApproximation};
 use crate::model::ModelKind;
+use crate::numeric::Short;
 use crate::plan::{Aoql, Evaluation, ItemRun, Measures, SequentialLines, Stage, StagedPlan};
 use crate::risk::RiskPair;
 use crate::source::{Difference, tool_version};
@@ -111,7 +112,8 @@ fn achieved_points(
         if point.near_limit {
             notes.push(format!(
                 "the achieved {side} risk {} lies within 1e-9 of {greek} = {}: the plan meets the point only at the limit of the computation's precision; a plan one step larger keeps a margin",
-                point.achieved_risk, point.risk
+                Short(point.achieved_risk),
+                Short(point.risk)
             ));
         }
     }
@@ -472,7 +474,9 @@ pub fn format_significant(x: f64, digits: usize) -> String {
     }
     let magnitude = x.abs().log10().floor() as i64;
     let decimals = (digits as i64 - 1 - magnitude).max(0) as usize;
-    if magnitude < -6 {
+    // Tiny and huge values in scientific form: a subnormal quality of
+    // 1e-310 or a rate of 1e300 per unit in a few characters, not hundreds.
+    if !(-6..15).contains(&magnitude) {
         return format!("{:.*e}", digits - 1, x);
     }
     format!("{x:.decimals$}")

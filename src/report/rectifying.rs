@@ -12,6 +12,7 @@ use super::table::{grid, plan_headline, write_stage_table};
 use super::{format_quality, format_significant, words};
 use crate::design::{Protection, RectifyingDesign, RectifyingPlan, RectifyingRow};
 use crate::model::{ModelKind, nonconforming_in_lot};
+use crate::numeric::Short;
 use crate::plan::{Aoql, Stage, StagedPlan};
 use crate::source::tool_version;
 
@@ -216,8 +217,9 @@ pub(super) fn write_table(out: &mut dyn Write, r: &RectifyingReport) -> io::Resu
     )?;
     let protection = match r.protection.beta {
         Some(beta) => format!(
-            "LTPD {} with consumer's risk {beta}",
-            q(r.protection.quality)
+            "LTPD {} with consumer's risk {}",
+            q(r.protection.quality),
+            Short(beta)
         ),
         None => format!("AOQL {}", q(r.protection.quality)),
     };

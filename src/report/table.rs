@@ -14,6 +14,7 @@ use super::{
 };
 use crate::design::{Input, Moved};
 use crate::model::ModelKind;
+use crate::numeric::Short;
 use crate::plan::{Stage, StagedPlan};
 
 /// Aligned text tables for a terminal.
@@ -117,7 +118,7 @@ fn write_risk_points(
         g.add_row(vec![
             name.to_string(),
             format_quality(p.quality, per_unit),
-            format!("{greek} {}", p.risk),
+            format!("{greek} {}", Short(p.risk)),
             format_significant(p.achieved_risk, 4),
         ]);
     }
@@ -487,7 +488,10 @@ impl ReportFormat for Table {
         writeln!(
             out,
             "{} plans, {} model, {lot}; alpha {} and beta {} in every cell",
-            r.scheme, r.model, r.alpha, r.beta
+            r.scheme,
+            r.model,
+            Short(r.alpha),
+            Short(r.beta)
         )?;
         if per_unit {
             writeln!(

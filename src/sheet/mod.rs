@@ -1691,7 +1691,7 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
         (
             text::PRODUCER_POINT,
             f.q(producer.quality),
-            format!("α ≤ {}", producer.risk),
+            format!("α ≤ {}", Short(producer.risk)),
             format!(
                 "α = {}  (Pa = {:.4})",
                 format_significant(alpha, 3),
@@ -1701,7 +1701,7 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
         (
             text::CONSUMER_POINT,
             f.q(consumer.quality),
-            format!("β ≤ {}", consumer.risk),
+            format!("β ≤ {}", Short(consumer.risk)),
             format!("β = {}  (Pa = {:.4})", format_significant(beta, 3), beta),
         ),
     ];

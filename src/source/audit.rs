@@ -217,7 +217,5 @@ pub(crate) fn attributes_risks(plan: &StagedPlan, model: &Model, risks: &RiskPai
 /// each in the configuration that is worse for that party (as the designer
 /// holds them).
 pub(crate) fn variables_risks(plan: &VariablesPlan, risks: &RiskPair) -> (f64, f64) {
-    let (at_aql, _) = plan.pa_bounds(risks.producer().quality);
-    let (_, at_rql) = plan.pa_bounds(risks.consumer().quality);
-    (1.0 - at_aql, at_rql)
+    plan.achieved_risks(risks.producer().quality, risks.consumer().quality)
 }

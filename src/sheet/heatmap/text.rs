@@ -4,6 +4,7 @@
 
 use crate::design::{Criterion, Scheme};
 use crate::model::ModelKind;
+use crate::numeric::Short;
 use crate::report::format_short;
 
 use super::field::{Gap, MapQuantity};
@@ -29,7 +30,7 @@ pub fn quality(q: f64, per_unit: bool) -> String {
 
 /// A risk or a cost as given: the shortest decimal that reads back as it.
 pub fn number(v: f64) -> String {
-    format!("{v}")
+    Short(v).to_string()
 }
 
 /// The scheme field.
