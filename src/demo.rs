@@ -169,7 +169,7 @@ fn attributes_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>),
 /// when the demo has readings for it (they are written beside the source).
 fn variables_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>), Error> {
     let request = source.variables_request()?;
-    let plan = source.recorded_variables_plan(request.spec())?;
+    let plan = source.recorded_variables_plan(&request)?;
     let qualities = variables_qualities(&plan, request.risks());
     let evaluation = evaluate_variables(&plan, request.model().lot_size(), &qualities)?;
     let mut csv = Vec::new();

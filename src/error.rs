@@ -90,6 +90,20 @@ pub enum DesignError {
         /// The cap.
         cap: String,
     },
+    /// The risk points need a sample larger than the lot: no sampling plan
+    /// fits, and the answer is to inspect every unit.
+    #[error(
+        "no plan: the risk points need a sample of n = {needed} {unit} from a lot of {lot} units, and a sample cannot be larger than its lot; inspect all {lot} units (100%), or agree points further apart (raise the RQL, lower the AQL, or relax alpha or beta)"
+    )]
+    WholeLot {
+        /// The sample the points need.
+        needed: u64,
+        /// The lot size.
+        lot: u64,
+        /// What the sample counts: `units`, or `measurements` for a
+        /// variables plan.
+        unit: &'static str,
+    },
     /// A minimum-inspection request (rectifying inspection) with no answer
     /// of the scheme asked for within the designer's limits.
     #[error("no minimum-inspection plan: {reason}; {suggestion}")]

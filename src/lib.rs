@@ -82,8 +82,10 @@ pub use design::{
     wald_lines,
 };
 pub use error::{BatchError, DesignError, Error, InputError, SourceError};
-pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
-pub use numeric::{NEAR_LIMIT, NumericalError, check_amount, check_probability, near_limit};
+pub use model::{
+    MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot,
+};
+pub use numeric::{NEAR_LIMIT, NumericalError, Quantity, Short, check, near_limit};
 pub use plain::{escape_controls, io_message, io_reason, is_unsafe_char, shell_path, shell_word};
 pub use plan::{
     AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS,
@@ -107,7 +109,7 @@ pub use report::{
     RectifyingPlanReport, RectifyingReport, ReportFormat, SourceEvaluation, Table,
     TradeoffCellReport, TradeoffReport, VariablesDesignReport, VariablesEvaluationReport,
     VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, format_quality,
-    format_significant, variables_rule, words,
+    format_quality_cell, format_significant, variables_rule, words,
 };
 pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{

@@ -1256,7 +1256,7 @@ fn demo(dir: &Path, overwrite: Overwrite) -> Result<ExitCode, Error> {
     for r in &rows {
         let per_unit = r.model == ModelKind::Poisson;
         out.push_str(&format!(
-            "{}\n  {}  [{} model]\n  plan {}; achieved alpha {:.4}, beta {:.4}; AOQL {} at quality {}{}\n  verify: {}\n{}  wrote {}\n\n",
+            "{}\n  {}  [{} model]\n  plan {}; achieved alpha {:.4}, beta {:.4}; AOQL {} at quality {}\n  verify: {}\n{}  wrote {}\n\n",
             r.title,
             r.file,
             r.model,
@@ -1265,7 +1265,6 @@ fn demo(dir: &Path, overwrite: Overwrite) -> Result<ExitCode, Error> {
             r.risks.1,
             lotsman::format_quality(r.aoql.0, per_unit),
             lotsman::format_quality(r.aoql.1, per_unit),
-            if per_unit { " (nonconformities per unit)" } else { "" },
             if r.verified { "the recorded plan matches a fresh solve" } else { "MISMATCH" },
             r.judged.as_ref().map_or(String::new(), |j| format!("  judged the demo lot's readings: {j}\n")),
             r.written.iter().map(|p| p.display().to_string()).collect::<Vec<_>>().join(", "),

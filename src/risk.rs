@@ -92,11 +92,11 @@ pub(crate) fn check_quality(model: &Model, name: &str, q: f64) -> Result<(), Inp
     if model.accepts_quality(q) {
         return Ok(());
     }
-    let range = match model.kind() {
-        crate::ModelKind::Poisson => "above 0 (nonconformities per unit)",
-        _ => "between 0 and 1 (exclusive), e.g. 0.01 or 1%",
-    };
-    Err(InputError::out_of_range(name, q, range))
+    Err(InputError::out_of_range(
+        name,
+        crate::numeric::Short(q),
+        model.quality_range(),
+    ))
 }
 
 /// Checks a pair of risks on their own: each in `(0, 1)` and

@@ -566,7 +566,7 @@ fn evaluate_json_and_csv_over_many_sources_have_one_entry_each() {
     let lines: Vec<&str> = csv.lines().collect();
     assert_eq!(
         lines[0],
-        "source,status,quality,pa,pa_centred,aoq,ati,asn,asn_curtailed,message"
+        "source,status,quality,quality_unit,lot_nonconforming,lot_quality,pa,pa_centred,aoq,ati,asn,asn_curtailed,message"
     );
     let sources: Vec<&str> = lines[1..]
         .iter()
@@ -586,7 +586,7 @@ fn evaluate_json_and_csv_over_many_sources_have_one_entry_each() {
     );
     let thickness: Vec<&str> = lines[4].split(',').collect();
     assert_eq!(thickness[1], "ok");
-    assert_eq!(thickness[7], "42", "a variables plan's ASN is n");
+    assert_eq!(thickness[10], "42", "a variables plan's ASN is n");
 }
 
 #[test]

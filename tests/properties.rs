@@ -1,8 +1,9 @@
 //! Property tests of the invariants the designer and the models promise.
 
 use lotsman::{
-    Criterion, Model, ModelKind, RiskPair, RiskPoint, Stage, StagedPlan, acceptance_probability,
-    curtailed_outcomes, design_double, design_sequential, design_single, measures, stage_outcomes,
+    Criterion, DesignError, Model, ModelKind, RiskPair, RiskPoint, Stage, StagedPlan,
+    acceptance_probability, curtailed_outcomes, design_double, design_sequential, design_single,
+    evaluate, format_quality, measures, nonconforming_in_lot, stage_outcomes,
 };
 use proptest::prelude::*;
 
@@ -168,6 +169,126 @@ proptest! {
             let alpha: f64 = stage_outcomes(&d.plan, &model, p1).reject.iter().sum();
             let beta = stage_outcomes(&d.plan, &model, p2).pa();
             prop_assert!(alpha <= 0.05 && beta <= 0.10, "{}: {} {}", d.plan, alpha, beta);
+        }
+    }
+}
+
+/// A finite lot of 20 to 20,000 units.
+fn lot_strategy() -> impl Strategy<Value = Model> {
+    (20u64..20_000).prop_map(|n| Model::new(ModelKind::Hypergeometric, Some(n)).unwrap())
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(128))]
+
+    /// Issue 14, items 2 and 8: under the hypergeometric model every
+    /// measure is at the lot quality D/N, so no AOQ at any asked quality
+    /// exceeds the AOQL (the largest AOQ over the lot qualities D/N),
+    /// neither as computed nor as printed, and two qualities that mean the
+    /// same lot get the same figures.
+    #[test]
+    fn no_printed_aoq_exceeds_the_printed_aoql_in_a_finite_lot(
+        model in lot_strategy(),
+        stages in staged_strategy(),
+        qualities in prop::collection::vec(0.0001f64..0.6, 1..12),
+    ) {
+        let Ok(plan) = StagedPlan::new(stages, &model) else { return Ok(()) };
+        let e = evaluate(&plan, &model, &qualities).unwrap();
+        let printed = |q: f64| format_quality(q, false).trim_end_matches('%').parse::<f64>().unwrap();
+        for m in &e.points {
+            let lot = model.lot_size().unwrap();
+            let d = m.lot_nonconforming.unwrap();
+            prop_assert_eq!(d, nonconforming_in_lot(m.quality, lot));
+            prop_assert_eq!(m.lot_quality, Some(d as f64 / lot as f64));
+            prop_assert!(m.aoq <= e.aoql.value * (1.0 + 1e-12), "AOQ {} at {} above the AOQL {}", m.aoq, m.quality, e.aoql.value);
+            prop_assert!(printed(m.aoq) <= printed(e.aoql.value), "{} above {}", format_quality(m.aoq, false), format_quality(e.aoql.value, false));
+            let same_lot = measures(&plan, &model, d as f64 / lot as f64);
+            prop_assert_eq!((m.pa, m.aoq, m.ati, m.asn), (same_lot.pa, same_lot.aoq, same_lot.ati, same_lot.asn));
+        }
+    }
+}
+
+/// Any model with a lot of 5 to 3000 units.
+fn model_with_lot_strategy() -> impl Strategy<Value = Model> {
+    (
+        prop::sample::select(vec![
+            ModelKind::Binomial,
+            ModelKind::Poisson,
+            ModelKind::Hypergeometric,
+        ]),
+        5u64..3000,
+    )
+        .prop_map(|(kind, lot)| Model::new(kind, Some(lot)).unwrap())
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(32))]
+
+    /// Issue 14, item 3: whenever the lot size is known, no designer
+    /// proposes a sample larger than the lot; when the points need one, the
+    /// answer is the refusal that says to inspect the whole lot, and the
+    /// sample it names is the one the lot-free design finds.
+    #[test]
+    fn no_designed_sample_exceeds_its_lot(
+        model in model_with_lot_strategy(), (p1, p2, a, b) in risks_strategy()
+    ) {
+        let risks = RiskPair::new(RiskPoint { quality: p1, risk: a }, RiskPoint { quality: p2, risk: b }, &model).unwrap();
+        let lot = model.lot_size().unwrap();
+        let designs = [
+            design_single(&model, &risks).map(|d| d.plan),
+            design_double(&model, &risks, Criterion::AsnAql, None).map(|d| d.plan),
+            design_sequential(&model, &risks).map(|(d, _)| d.plan),
+        ];
+        for d in designs {
+            match d {
+                Ok(plan) => prop_assert!(plan.max_sample() <= lot, "{} in a lot of {}", plan, lot),
+                Err(DesignError::WholeLot { needed, lot: l, .. }) => {
+                    prop_assert_eq!(l, lot);
+                    prop_assert!(needed > lot);
+                    let free = Model::new(model.kind(), None).unwrap();
+                    let unbounded = design_single(&free, &RiskPair::new(risks.producer(), risks.consumer(), &free).unwrap()).unwrap();
+                    prop_assert_eq!(unbounded.n, needed);
+                }
+                Err(_) => {}
+            }
+        }
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(64))]
+
+    /// Issue 14, item 4: risks from 1e-40 to 0.3 (where 1 - alpha rounds to
+    /// 1 below about 1e-16) give the smallest plan that meets both points
+    /// on their own tails, P(X > c) <= alpha and P(X <= c) <= beta, and one
+    /// unit less meets neither with any acceptance number.
+    #[test]
+    fn risks_far_below_double_precision_get_the_smallest_plan(
+        model in model_strategy(),
+        p1 in 0.005f64..0.05,
+        ratio in 4.0f64..40.0,
+        ln_alpha in -92.0f64..-1.2,
+        ln_beta in -92.0f64..-1.2,
+    ) {
+        let (alpha, beta) = (ln_alpha.exp(), ln_beta.exp());
+        let p2 = (p1 * ratio).min(0.95);
+        let risks = RiskPair::new(RiskPoint { quality: p1, risk: alpha }, RiskPoint { quality: p2, risk: beta }, &model).unwrap();
+        let d = match design_single(&model, &risks) {
+            Ok(d) => d,
+            // A lot too small to tell the points apart is the only refusal
+            // these points may meet.
+            Err(e) => {
+                prop_assert!(matches!(e, DesignError::NoPlan { .. }), "{}", e);
+                return Ok(());
+            }
+        };
+        prop_assert!(meets(&model, d.n, d.c, &risks), "n = {}, c = {}", d.n, d.c);
+        let smaller = d.n - 1;
+        if smaller >= 1 && d.n <= 2000 {
+            let c_top = if model.kind() == ModelKind::Poisson { 4 * smaller + 40 } else { smaller - 1 };
+            for c in 0..=c_top {
+                prop_assert!(!meets(&model, smaller, c, &risks), "n - 1 = {} meets with c = {}", smaller, c);
+            }
         }
     }
 }

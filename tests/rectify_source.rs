@@ -277,7 +277,7 @@ fn judge_and_evaluate_use_the_recorded_plan() {
         .collect();
     assert_eq!(qualities.len(), 8, "{qualities:?}");
     assert!(
-        qualities.contains(&0.0026) && qualities.contains(&0.01),
+        qualities.contains(&0.0025) && qualities.contains(&0.01),
         "{qualities:?}"
     );
 }

@@ -126,6 +126,10 @@ fn measures_match_mpmath() {
     for row in table {
         let m = model(row);
         let got = measures(&plan(row, &m), &m, f(row, "p"));
+        // A finite lot's D = round(p N) and its quality D/N, at which every
+        // measure is taken (issue 14, item 2).
+        assert_eq!(got.lot_nonconforming, row["lot_nonconforming"].as_u64());
+        assert_eq!(got.lot_quality, row["lot_quality"].as_f64());
         assert!(close(got.pa, f(row, "pa"), 1e-9), "pa {} for {row}", got.pa);
         assert!(
             close(got.aoq, f(row, "aoq"), 1e-9),
@@ -192,5 +196,27 @@ fn poisson_unity_values_match_mpmath() {
         let l2 = quality_at_pa(&p, &m, f(row, "beta"));
         assert!(close(l1, f(row, "lambda1"), 1e-9), "{l1} for {row}");
         assert!(close(l2, f(row, "lambda2"), 1e-9), "{l2} for {row}");
+    }
+}
+
+/// Issue 14, item 4: risks at the end of double precision (alpha = 5e-17,
+/// where 1 - alpha rounds to 1; alpha = beta = 1e-30). The reference tests
+/// each point on its own tail at 50 digits (mpmath); the designer must
+/// find the same smallest plan, with the same achieved risks.
+#[test]
+fn extreme_risk_designs_match_mpmath() {
+    let v = fixture();
+    let table = rows(&v, "extreme_designs");
+    assert!(table.len() >= 8);
+    for row in table {
+        let m = model(row);
+        let d = design_single(&m, &risks(row, &m)).unwrap_or_else(|e| panic!("{e} for {row}"));
+        assert_eq!((d.n, d.c), (u(row, "n"), u(row, "c")), "{row}");
+        for (got, key) in [
+            (d.producer_risk, "producer_risk"),
+            (d.consumer_risk, "consumer_risk"),
+        ] {
+            assert!(close(got, f(row, key), 1e-9), "{key} {got:e} for {row}");
+        }
     }
 }

@@ -2973,3 +2973,318 @@ fn rectifying_sources_that_are_not_valid_are_refused() {
     run_in(&fx, "rectifying source", &cases);
     assert!(!fx.path("r.pdf").exists() && !fx.path("full.yaml").exists());
 }
+
+/// Issue 14, item 3: a sample larger than the lot. Whenever a lot size is
+/// known, under every model, every scheme and every command refuses it: a
+/// designer answers "inspect all N units (100%)" with the sample the points
+/// need; a plan given by hand or recorded in a source is refused naming
+/// its stage (from 1). A trade-off cell beyond the lot is 100% inspection,
+/// and rectify answers with 100% inspection (both reported, not refused).
+#[test]
+fn a_sample_larger_than_the_lot_is_refused_everywhere() {
+    let fx = Fixtures::new();
+    let base = std::fs::read_to_string(fx.path("no-plan.yaml")).unwrap();
+    let in_lot = base.replace("model: binomial", "model: binomial\nlot_size: 30");
+    // The binomial plan for 1% / 6% (n = 110, c = 3), recorded by hand in a
+    // lot of 30.
+    std::fs::write(
+        fx.path("above-lot.yaml"),
+        format!(
+            "{in_lot}plan:\n  stages:\n  - n: 110\n    accept: 3\n    reject: 4\n  producer_risk: 0.0257\n  consumer_risk: 0.0962\n  solved_by: hand\n"
+        ),
+    )
+    .unwrap();
+    // A double plan whose second stage passes the lot of 30.
+    std::fs::write(
+        fx.path("above-lot-double.yaml"),
+        format!(
+            "{}plan:\n  stages:\n  - n: 20\n    accept: 0\n    reject: 3\n  - n: 40\n    accept: 3\n    reject: 4\n  producer_risk: 0.01\n  consumer_risk: 0.1\n  solved_by: hand\n",
+            in_lot.replace("scheme: single", "scheme: double")
+        ),
+    )
+    .unwrap();
+    // The demo's variables plan (n = 42) in a lot of 30.
+    let thickness = std::fs::read_to_string("plans/tpw-cover-thickness.yaml").unwrap();
+    assert!(thickness.contains("lot_size: 600"));
+    std::fs::write(
+        fx.path("variables-above-lot.yaml"),
+        thickness.replace("lot_size: 600", "lot_size: 30"),
+    )
+    .unwrap();
+    const NEEDS: &str = "no plan: the risk points need a sample of n = 110 units from a lot of 30 units, and a sample cannot be larger than its lot; inspect all 30 units (100%)";
+    const STAGE_1: &str = "stage 1 cumulative sample size 110 exceeds the lot size 30: a sample cannot be larger than its lot; inspect all 30 units (100%)";
+    let design = |rest: &[&'static str]| {
+        let mut v = vec![
+            "design",
+            "--aql",
+            "1%",
+            "--rql",
+            "6%",
+            "--lot-size",
+            "30",
+            "--model",
+        ];
+        v.extend_from_slice(rest);
+        v
+    };
+    let readings = "plans/tpw-cover-thickness-readings.csv";
+    let cases = vec![
+        refused(
+            "sample larger than the lot: single, binomial",
+            &design(&["binomial"]),
+            NEEDS,
+        ),
+        // scipy.stats.poisson: the smallest Poisson plan for 1% / 6% is
+        // n = 112, c = 3.
+        refused(
+            "sample larger than the lot: single, Poisson",
+            &design(&["poisson"]),
+            "no plan: the risk points need a sample of n = 112 units from a lot of 30 units",
+        ),
+        refused(
+            "sample larger than the lot: double",
+            &design(&["binomial", "--scheme", "double"]),
+            NEEDS,
+        ),
+        refused(
+            "sample larger than the lot: multiple",
+            &design(&["binomial", "--scheme", "multiple"]),
+            NEEDS,
+        ),
+        refused(
+            "sample larger than the lot: sequential",
+            &design(&["binomial", "--scheme", "sequential"]),
+            NEEDS,
+        ),
+        refused(
+            "sample larger than the lot: variables (n = 42)",
+            &[
+                "design",
+                "--scheme",
+                "variables",
+                "--sigma",
+                "unknown",
+                "--limit",
+                "lower",
+                "--lower",
+                "5",
+                "--aql",
+                "1%",
+                "--rql",
+                "6%",
+                "--lot-size",
+                "30",
+            ],
+            "no plan: the risk points need a sample of n = 42 measurements from a lot of 30 units, and a sample cannot be larger than its lot; inspect all 30 units (100%)",
+        ),
+        refused(
+            "sample larger than the lot: a plan given by hand, binomial",
+            &[
+                "evaluate",
+                "--n",
+                "110",
+                "--c",
+                "3",
+                "--lot-size",
+                "30",
+                "--model",
+                "binomial",
+            ],
+            STAGE_1,
+        ),
+        refused(
+            "sample larger than the lot: a second stage given by hand, Poisson",
+            &[
+                "evaluate",
+                "--stage",
+                "20:0:3",
+                "--stage",
+                "40:3:4",
+                "--lot-size",
+                "30",
+                "--model",
+                "poisson",
+            ],
+            "stage 2 cumulative sample size 40 exceeds the lot size 30",
+        ),
+        refused(
+            "sample larger than the lot: design of a source",
+            &["design", "@above-lot.yaml"],
+            NEEDS,
+        ),
+        refused(
+            "sample larger than the lot: evaluate a recorded plan",
+            &["evaluate", "@above-lot.yaml"],
+            STAGE_1,
+        ),
+        refused(
+            "sample larger than the lot: judge a recorded plan",
+            &["judge", "@above-lot.yaml", "--found", "1"],
+            STAGE_1,
+        ),
+        refused(
+            "sample larger than the lot: judge a recorded second stage",
+            &[
+                "judge",
+                "@above-lot-double.yaml",
+                "--found",
+                "1",
+                "--found",
+                "0",
+            ],
+            "stage 2 cumulative sample size 40 exceeds the lot size 30",
+        ),
+        refused(
+            "sample larger than the lot: sheet of a recorded plan",
+            &["sheet", "@above-lot.yaml"],
+            STAGE_1,
+        ),
+        refused(
+            "sample larger than the lot: sheet printed as recorded",
+            &["sheet", "@above-lot.yaml", "--accept-recorded"],
+            STAGE_1,
+        ),
+        reported(
+            "sample larger than the lot: verify",
+            &["verify", "@above-lot.yaml"],
+            2,
+            NEEDS,
+        ),
+        refused(
+            "sample larger than the lot: judge measurements for a recorded variables plan",
+            &[
+                "judge",
+                "@variables-above-lot.yaml",
+                "--measurements",
+                readings,
+                "--column",
+                "thickness_mm",
+            ],
+            "the recorded plan's sample size n 42 exceeds the lot size 30",
+        ),
+        refused(
+            "sample larger than the lot: sheet of a recorded variables plan",
+            &["sheet", "@variables-above-lot.yaml"],
+            "the recorded plan's sample size n 42 exceeds the lot size 30",
+        ),
+        reported(
+            "sample larger than the lot: verify a recorded variables plan",
+            &["verify", "@variables-above-lot.yaml"],
+            2,
+            "n = 42 measurements from a lot of 30 units",
+        ),
+        reported(
+            "sample larger than the lot: a trade-off cell is 100% inspection at the cost of the whole lot",
+            &[
+                "tradeoff",
+                "--aql",
+                "1%,2%",
+                "--rql",
+                "6%,9%",
+                "--lot-size",
+                "100",
+                "--model",
+                "binomial",
+                "--cost-per-unit",
+                "2",
+                "--process-quality",
+                "1%",
+            ],
+            0,
+            "- 100% in 2 of 4 cells: their points need a sample larger than the lot of 100 units, so every unit is inspected (ATI 100, cost 200.00 per lot)",
+        ),
+        reported(
+            "sample larger than the lot: rectify answers 100% inspection",
+            &[
+                "rectify",
+                "--lot-size",
+                "30",
+                "--model",
+                "binomial",
+                "--process-average",
+                "0.5%",
+                "--ltpd",
+                "6%",
+            ],
+            0,
+            "PLAN  inspect every unit of the lot (100% inspection), 30 units per lot",
+        ),
+    ];
+    run_in(&fx, "sample larger than the lot", &cases);
+}
+
+/// Issue 14, item 4: qualities and risks at the ends of the double range
+/// are answered truly (the smallest plan, an evaluation in short
+/// scientific form) or refused with the true reason, never as "too close"
+/// because 1 - alpha rounded to 1, never with hundreds of zeros.
+#[test]
+fn the_ends_of_the_double_range_get_true_answers_or_true_reasons() {
+    let cases = vec![
+        reported(
+            "ends of the double range: alpha = 5e-17 (1 - alpha rounds to 1)",
+            &["design", "--aql", "1%", "--rql", "99%", "--alpha", "5e-17"],
+            0,
+            "PLAN  n = 9, c = 8",
+        ),
+        // mpmath: tests/data/reference.json, extreme_designs.
+        reported(
+            "ends of the double range: alpha = beta = 1e-30",
+            &[
+                "design", "--aql", "1%", "--rql", "99%", "--alpha", "1e-30", "--beta", "1e-30",
+            ],
+            0,
+            "PLAN  n = 41, c = 20",
+        ),
+        reported(
+            "ends of the double range: a subnormal quality is evaluated",
+            &["evaluate", "--n", "10", "--c", "1", "--at", "1e-310"],
+            0,
+            "1.000e-308%",
+        ),
+        refused_fast(
+            "ends of the double range: points a subnormal apart need a sample beyond the limit",
+            &["design", "--aql", "1e-310", "--rql", "1e-300"],
+            "the risk points are too close: a plan would need a sample beyond the designer's limit of 1000000000 units",
+        ),
+        refused_fast(
+            "ends of the double range: a rate whose rate per 100 units overflows",
+            &[
+                "evaluate", "--n", "10", "--c", "1", "--model", "poisson", "--at", "1e308",
+            ],
+            "quality = 1e308 is out of range: it must be above 0 (nonconformities per unit) and at most 1.7e306, so that the rate per 100 units is a number",
+        ),
+        refused_fast(
+            "ends of the double range: a Poisson RQL beyond the largest rate",
+            &[
+                "design", "--model", "poisson", "--aql", "1", "--rql", "1.8e306",
+            ],
+            "consumer's quality (RQL) = 1.8e306 is out of range",
+        ),
+        refused_fast(
+            "ends of the double range: two limits, sigma unknown, risks below what the quadrature vouches for",
+            &[
+                "design",
+                "--scheme",
+                "variables",
+                "--sigma",
+                "unknown",
+                "--limit",
+                "both",
+                "--lower",
+                "1",
+                "--upper",
+                "9",
+                "--aql",
+                "1%",
+                "--rql",
+                "10%",
+                "--alpha",
+                "1e-30",
+                "--beta",
+                "1e-30",
+            ],
+            "alpha = 1e-30 and beta = 1e-30 are below the 1e-8 it can vouch for",
+        ),
+    ];
+    run("ends of the double range", &cases);
+}

@@ -189,7 +189,7 @@ fn csv_has_one_row_per_cell() {
     let lines: Vec<&str> = text.lines().collect();
     assert_eq!(
         lines[0],
-        "aql,rql,n,c,asn_at_aql,producer_risk,consumer_risk,stages,pa_at_process,ati,cost,reason"
+        "aql,rql,n,c,asn_at_aql,producer_risk,consumer_risk,stages,pa_at_process,ati,cost,full_inspection,reason"
     );
     assert_eq!(lines.len(), 1 + 6);
     assert!(lines.iter().any(|l| l.starts_with("0.01,0.06,110,3,")));

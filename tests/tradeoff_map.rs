@@ -178,7 +178,11 @@ fn nonconformities_per_unit_label_the_axes_of_a_poisson_map() {
         text.contains("Consumer's quality, RQL (nonconformities per unit)"),
         "{text}"
     );
-    assert!(text.contains("0.005 to 0.02, 6 values"), "{text}");
+    // Issue 14, item 1: nonconformities per unit and per 100 units.
+    assert!(
+        text.contains("0.005 (0.5 per 100) to 0.02 (2 per 100), 6 values"),
+        "{text}"
+    );
     assert!(!text.contains('%'), "{text}");
 }
 

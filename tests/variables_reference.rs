@@ -95,9 +95,23 @@ fn noncentral_t_tails() {
 /// Exact minimal n and the interval of the constant, for all four kinds.
 #[test]
 fn designs_match_the_exhaustive_scan() {
+    check_designs("designs");
+}
+
+/// Issue 14, item 4: sigma known, one limit, with risks where 1 - alpha
+/// rounds to 1 (5e-17, 1e-30); the reference takes the quantiles at 50
+/// digits.
+#[test]
+fn extreme_risk_designs_match_mpmath() {
+    assert!(rows(&data(), "extreme_designs").len() >= 3);
+    check_designs("extreme_designs");
+}
+
+/// Every design row of the fixture's array `key` against the designer.
+fn check_designs(key: &str) {
     let v = data();
     let model = Model::new(ModelKind::Binomial, None).unwrap();
-    for row in rows(&v, "designs") {
+    for row in rows(&v, key) {
         let risks = RiskPair::new(
             RiskPoint {
                 quality: f(row, "p1"),

@@ -56,9 +56,7 @@ pub fn evaluate_source(
     };
     if source.is_variables() {
         let request = source.variables_request().map_err(invalid)?;
-        let plan = source
-            .recorded_variables_plan(request.spec())
-            .map_err(invalid)?;
+        let plan = source.recorded_variables_plan(&request).map_err(invalid)?;
         let defaults;
         let at = if qualities.is_empty() {
             defaults = variables_qualities(&plan, request.risks());

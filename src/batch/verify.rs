@@ -67,7 +67,7 @@ fn recorded_plan_is_valid(source: &PlanSource) -> Result<(), InputError> {
     }
     if source.is_variables() {
         let request = source.variables_request()?;
-        source.recorded_variables_plan(request.spec())?;
+        source.recorded_variables_plan(&request)?;
     } else {
         source.recorded_plan(&source.staged_model()?)?;
     }

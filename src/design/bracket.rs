@@ -14,14 +14,16 @@
 //! exactly on the model's own probabilities, and a poor guess costs a few
 //! more evaluations, never a wrong plan.
 
-use statrs::distribution::{ContinuousCDF, Normal};
+use crate::model::{ModelKind, normal};
 
-use crate::model::ModelKind;
-
-/// The standard normal quantile.
-pub(crate) fn z(u: f64) -> f64 {
-    // Normal::new(0, 1) cannot fail; a unit normal is built once per call.
-    Normal::standard().inverse_cdf(u)
+/// `z` with `P(Z > z) = risk` for a standard normal `Z`: the quantile of
+/// `1 - risk`, found from the upper tail itself. Taking `1 - risk` first
+/// would round a risk below about `1e-16` to a quantile of 1 (an infinite
+/// `z`, and a guess that calls every pair of points too close); the tail
+/// keeps it finite down to the smallest risks a double holds (the
+/// quantile of `5e-324` is about 38.5).
+pub(crate) fn z_upper(risk: f64) -> f64 {
+    normal::upper_quantile(risk)
 }
 
 /// `lambda` with `P(Poisson(lambda) <= c) = q`, approximately; `z_upper` is
@@ -85,7 +87,7 @@ pub(crate) fn aoql_factor(c: u64) -> f64 {
     (1..20)
         .map(|i| {
             let q = f64::from(i) / 20.0;
-            q * poisson_mean_at(c, z(1.0 - q))
+            q * poisson_mean_at(c, z_upper(q))
         })
         .fold(0.0, f64::max)
 }

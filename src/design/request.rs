@@ -380,6 +380,18 @@ impl VariablesRequest {
     pub fn model(&self) -> &Model {
         &self.model
     }
+
+    /// The variables plan of the request ([`design_variables`]), held to
+    /// the lot: every designer's answer passes the lot check at its entry.
+    ///
+    /// # Errors
+    /// As [`design_variables`]; [`DesignError::WholeLot`] when the plan
+    /// measures more units than the lot holds.
+    pub fn design(&self) -> Result<VariablesDesign, DesignError> {
+        let design = design_variables(&self.spec, &self.risks)?;
+        self.model.fit_in_lot(design.plan.n(), "measurements")?;
+        Ok(design)
+    }
 }
 
 /// A solved variables request, with the attributes single plan for the
@@ -398,9 +410,10 @@ pub struct VariablesSolution {
 /// Solves a variables request and designs the attributes plan beside it.
 ///
 /// # Errors
-/// As [`design_variables`].
+/// As [`design_variables`]; [`DesignError::WholeLot`] when the plan
+/// measures more units than the lot holds.
 pub fn solve_variables(request: &VariablesRequest) -> Result<VariablesSolution, DesignError> {
-    let design = design_variables(&request.spec, &request.risks)?;
+    let design = request.design()?;
     Ok(VariablesSolution {
         request: *request,
         design,

@@ -87,33 +87,46 @@ pub fn wald_lines(model: &Model, risks: &RiskPair) -> (f64, f64, f64) {
     lines_for(model, pr.quality, pr.risk, co.quality, co.risk)
 }
 
+/// `ln(a / b)` for `a, b > 0`: the logarithm of the quotient where the
+/// quotient is a finite double, else the difference of the logarithms (a
+/// subnormal quality of `1e-310`, or a risk of `1e-310`, makes `1 / b`
+/// overflow, and `ln(inf)` would turn the lines into NaN).
+fn ln_ratio(a: f64, b: f64) -> f64 {
+    let r = a / b;
+    if r.is_finite() && r > 0.0 {
+        r.ln()
+    } else {
+        a.ln() - b.ln()
+    }
+}
+
 /// Wald's lines for `p1`, `p2` built from the nominal risks `alpha`, `beta`.
 fn lines_for(model: &Model, p1: f64, alpha: f64, p2: f64, beta: f64) -> (f64, f64, f64) {
     let (g, slope) = match model.kind() {
         ModelKind::Poisson => {
-            let g = (p2 / p1).ln();
+            let g = ln_ratio(p2, p1);
             (g, (p2 - p1) / g)
         }
         _ => {
-            let g1 = (p2 / p1).ln();
+            let g1 = ln_ratio(p2, p1);
             let g2 = ((1.0 - p1) / (1.0 - p2)).ln();
             let g = g1 + g2;
             (g, g2 / g)
         }
     };
     (
-        ((1.0 - alpha) / beta).ln() / g,
-        ((1.0 - beta) / alpha).ln() / g,
+        ln_ratio(1.0 - alpha, beta) / g,
+        ln_ratio(1.0 - beta, alpha) / g,
         slope,
     )
 }
 
 fn wald_approximation(model: &Model, p1: f64, alpha: f64, p2: f64, beta: f64) -> WaldApproximation {
     let (h_accept, h_reject, slope) = lines_for(model, p1, alpha, p2, beta);
-    let (ln_a, ln_b) = (((1.0 - beta) / alpha).ln(), (beta / (1.0 - alpha)).ln());
+    let (ln_a, ln_b) = (ln_ratio(1.0 - beta, alpha), ln_ratio(beta, 1.0 - alpha));
     let drift = |p: f64| match model.kind() {
-        ModelKind::Poisson => p * (p2 / p1).ln() - (p2 - p1),
-        _ => p * (p2 / p1).ln() + (1.0 - p) * ((1.0 - p2) / (1.0 - p1)).ln(),
+        ModelKind::Poisson => p * ln_ratio(p2, p1) - (p2 - p1),
+        _ => p * ln_ratio(p2, p1) + (1.0 - p) * ((1.0 - p2) / (1.0 - p1)).ln(),
     };
     let asn_max = match model.kind() {
         ModelKind::Poisson => h_accept * h_reject / slope,

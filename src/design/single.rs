@@ -36,15 +36,16 @@ use std::collections::HashMap;
 
 use serde::Serialize;
 
-use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z};
+use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z_upper};
 use super::search::first_true;
 use crate::error::DesignError;
 use crate::model::{Model, ModelKind, nonconforming_in_lot};
 use crate::plan::StagedPlan;
 use crate::risk::RiskPair;
 
-/// The largest sample size the designer will propose for the binomial and
-/// Poisson models (`10^9`); the hypergeometric model is capped by the lot.
+/// The largest sample size the designer will propose (`10^9`); whenever a
+/// lot size is known, under every model, the lot caps it too (a design
+/// that needs more is refused with [`DesignError::WholeLot`]).
 pub const MAX_SAMPLE_SIZE: u64 = 1_000_000_000;
 
 /// The largest acceptance number the designer will propose (`10^5`).
@@ -127,8 +128,8 @@ impl<'a> Solver<'a> {
             alpha: producer.risk,
             p2: consumer.quality,
             beta: consumer.risk,
-            z_alpha: z(1.0 - producer.risk),
-            z_beta: z(1.0 - consumer.risk),
+            z_alpha: z_upper(producer.risk),
+            z_beta: z_upper(consumer.risk),
             limit: model.max_sample().min(MAX_SAMPLE_SIZE),
         }
     }
@@ -286,7 +287,7 @@ pub(crate) fn smallest_sample_with_pa_at_most(
     guess: Option<u64>,
 ) -> Option<u64> {
     let guess =
-        guess.unwrap_or_else(|| sample_guess(model, poisson_mean_at(c, z(1.0 - target)), p, limit));
+        guess.unwrap_or_else(|| sample_guess(model, poisson_mean_at(c, z_upper(target)), p, limit));
     let ln_target = target.ln();
     first_true(smallest_sample(model.kind(), c), limit, guess, |n| {
         let pa = model.tails(n, c, p, 0, 0).cdf;
@@ -300,6 +301,9 @@ pub(crate) fn smallest_sample_with_pa_at_most(
 /// # Errors
 /// [`DesignError::NoPlan`] when a finite lot cannot tell the two qualities
 /// apart (both round to the same number of nonconforming units);
+/// [`DesignError::WholeLot`] when the binomial or Poisson plan needs a
+/// larger sample than the lot holds (the answer is to inspect the whole
+/// lot);
 /// [`DesignError::BeyondCap`] when the plan would need more than
 /// [`MAX_SAMPLE_SIZE`] units or an acceptance number above
 /// [`MAX_ACCEPTANCE_NUMBER`].
@@ -327,8 +331,13 @@ pub(crate) fn design_single_with(
     risks: &RiskPair,
     memo: &mut Memo,
 ) -> Result<SingleDesign, DesignError> {
-    let s = Solver::new(model, risks);
-    memo.prepare(model, risks);
+    // The binomial and Poisson probabilities do not depend on the lot: the
+    // search runs without it, so that a lot too small for the points is
+    // refused with the sample they need (model.fit_in_lot below), not with
+    // the lot as a designer's limit.
+    let search_model = model.without_lot();
+    let s = Solver::new(&search_model, risks);
+    memo.prepare(&search_model, risks);
     if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {
         let d1 = nonconforming_in_lot(s.p1, lot);
         let d2 = nonconforming_in_lot(s.p2, lot);
@@ -407,6 +416,7 @@ pub(crate) fn design_single_with(
         .min_by(|a, b| score(a).total_cmp(&score(b)).then(a.0.cmp(&b.0)))
         .unwrap_or(fitting[0]);
     memo.c = Some(chosen);
+    model.fit_in_lot(n, "units")?;
     let plan = StagedPlan::single_checked_by_designer(n, chosen);
     Ok(SingleDesign {
         plan,

@@ -31,6 +31,14 @@
 //! (rejected lots screened 100%) is `k ATI(p̄)`, with
 //! `ATI = Σ_j a_j n_j + (1 − Pa) N` (for a single plan
 //! `n + (1 − Pa)(N − n)`), so a lot size is required.
+//!
+//! # Cells beyond the lot
+//!
+//! Whenever the lot size is known, a cell whose points need a sample
+//! larger than the lot has no sampling plan: its answer is 100%
+//! inspection ([`TradeoffCell::full_inspection`]). Its ATI is the whole lot
+//! `N`, so its cost is `k N` ([`TradeoffGrid::full_inspection_cost`]), the
+//! most any plan can cost, since `ATI <= N`.
 
 use rayon::prelude::*;
 
@@ -267,6 +275,17 @@ pub struct TradeoffCell {
     pub outcome: Result<CellPlan, DesignError>,
 }
 
+impl TradeoffCell {
+    /// The lot size, when the cell's answer is 100% inspection: its points
+    /// need a sample larger than the lot ([`DesignError::WholeLot`]).
+    pub fn full_inspection(&self) -> Option<u64> {
+        match self.outcome {
+            Err(DesignError::WholeLot { lot, .. }) => Some(lot),
+            _ => None,
+        }
+    }
+}
+
 /// A solved grid: the cells row by row (AQL outer, RQL inner).
 #[derive(Clone, Debug, PartialEq)]
 pub struct TradeoffGrid {
@@ -280,6 +299,15 @@ impl TradeoffGrid {
     /// The cell at row `i` (AQL) and column `j` (RQL).
     pub fn cell(&self, i: usize, j: usize) -> &TradeoffCell {
         &self.cells[i * self.request.rql.len() + j]
+    }
+
+    /// The cost per lot of a cell whose answer is 100% inspection, when
+    /// the grid is priced: every unit of the lot is inspected, so its ATI
+    /// is `N` and its cost `k N`, the cap of the method's cost
+    /// `k ATI <= k N`.
+    pub fn full_inspection_cost(&self, cell: &TradeoffCell) -> Option<f64> {
+        let lot = cell.full_inspection()?;
+        self.request.cost.map(|k| k.per_unit * lot as f64)
     }
 }
 

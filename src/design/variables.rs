@@ -45,7 +45,7 @@
 use super::search::first_true;
 use crate::error::DesignError;
 use crate::model::{NoncentralT, normal};
-use crate::numeric::brent;
+use crate::numeric::{Short, brent};
 use crate::plan::{
     LimitKind, MAX_VARIABLES_SAMPLE, Specification, VariablesPlan, fraction_beyond_unknown,
 };
@@ -96,6 +96,12 @@ impl Quantiles {
     }
 }
 
+/// The smallest risk a two-limit, sigma-unknown plan is designed for: its
+/// mean-centred OC is integrated to about `1e-10` (relative), so a
+/// producer's risk found as `1 - Pa` is good to about `1e-10` absolute, one
+/// percent of this floor.
+const CENTRED_RISK_FLOOR: f64 = 1e-8;
+
 /// The interval of the constant at `n`, `None` when empty.
 type Interval = Option<(f64, f64)>;
 
@@ -104,12 +110,34 @@ type Interval = Option<(f64, f64)>;
 ///
 /// # Errors
 /// [`DesignError::NoPlan`] when two limits are so close for the known sigma
-/// that a centred process already exceeds the AQL (or the RQL);
+/// that a centred process already exceeds the AQL (or the RQL), or when a
+/// two-limit plan with sigma unknown is asked for a risk below `1e-8`
+/// (its mean-centred OC, a quadrature, cannot vouch for less);
 /// [`DesignError::BeyondCap`] when `n` would exceed 10^4.
 pub fn design_variables(
     spec: &Specification,
     risks: &RiskPair,
 ) -> Result<VariablesDesign, DesignError> {
+    if spec.limit() == LimitKind::Both && spec.sigma().is_none() {
+        let below: Vec<String> = [
+            ("alpha", risks.producer().risk),
+            ("beta", risks.consumer().risk),
+        ]
+        .iter()
+        .filter(|(_, r)| *r < CENTRED_RISK_FLOOR)
+        .map(|(name, r)| format!("{name} = {}", Short(*r)))
+        .collect();
+        if !below.is_empty() {
+            return Err(DesignError::NoPlan {
+                reason: format!(
+                    "with two limits and sigma unknown the plan is held to the mean-centred configuration, whose OC is a quadrature good to about 1e-10, and {} {} below the {CENTRED_RISK_FLOOR:e} it can vouch for",
+                    below.join(" and "),
+                    if below.len() == 1 { "is" } else { "are" }
+                ),
+                suggestion: "agree risks of at least 1e-8, or design the plan with sigma known or for one limit, or an attributes plan".to_string(),
+            });
+        }
+    }
     let z = Quantiles::of(risks);
     let lowest = spec.lowest_quality();
     for (name, q) in [
@@ -119,9 +147,9 @@ pub fn design_variables(
         if lowest >= q {
             return Err(DesignError::NoPlan {
                 reason: format!(
-                    "the limits are too close for sigma: even with its mean centred the process has {:.4}% beyond them (2 Phi(-(U - L) / (2 sigma))), not below the {name} {:.4}%",
-                    100.0 * lowest,
-                    100.0 * q
+                    "the limits are too close for sigma: even with its mean centred the process has {} beyond them (2 Phi(-(U - L) / (2 sigma))), not below the {name} {}",
+                    crate::report::format_quality(lowest, false),
+                    crate::report::format_quality(q, false)
                 ),
                 suggestion:
                     "reduce the process spread, widen the limits, or agree the risk points again"
@@ -196,10 +224,14 @@ fn constant_interval(spec: &Specification, risks: &RiskPair, z: &Quantiles, n: u
     let ordered = |lo: f64, hi: f64| (lo <= hi).then_some((lo, hi));
     match (spec.limit(), spec.sigma()) {
         (LimitKind::Both, Some(_)) => {
-            let pa =
-                |m: f64, p: f64| VariablesPlan::new(*spec, n, m).map_or(0.0, |plan| plan.pa(p));
-            let lo = fraction_where(|m| pa(m, risks.producer().quality) - (1.0 - alpha))?;
-            let hi = fraction_where(|m| pa(m, risks.consumer().quality) - beta)?;
+            // Both conditions on the log scale of their own tails, so that a
+            // risk of 1e-30 is met as such (1 - alpha would round to 1).
+            let ln = |x: f64| x.max(f64::MIN_POSITIVE).ln();
+            let plan = |m: f64| VariablesPlan::new(*spec, n, m).ok();
+            let reject = |m: f64, p: f64| plan(m).map_or(1.0, |plan| plan.reject(p));
+            let pa = |m: f64, p: f64| plan(m).map_or(0.0, |plan| plan.pa(p));
+            let lo = fraction_where(|m| alpha.ln() - ln(reject(m, risks.producer().quality)))?;
+            let hi = fraction_where(|m| ln(pa(m, risks.consumer().quality)) - beta.ln())?;
             ordered(lo, hi)
         }
         (LimitKind::Both, None) => {
@@ -238,7 +270,8 @@ fn unknown_k_interval(z: &Quantiles, alpha: f64, beta: f64, n: u64) -> Option<(f
     }
     let root_n = (n as f64).sqrt();
     let hi = NoncentralT::new(n - 1, z.p1 * root_n).quantile(alpha) / root_n;
-    let lo = NoncentralT::new(n - 1, z.p2 * root_n).quantile(1.0 - beta) / root_n;
+    // The upper quantile at beta itself: 1 - beta rounds to 1 below 1e-16.
+    let lo = NoncentralT::new(n - 1, z.p2 * root_n).upper_quantile(beta) / root_n;
     Some((lo, hi))
 }
 
@@ -275,12 +308,12 @@ fn choose(
         })
     };
     let plan = VariablesPlan::new(*spec, n, constant).ok()?;
-    let (at_aql, _) = plan.pa_bounds(risks.producer().quality);
-    let (_, at_rql) = plan.pa_bounds(risks.consumer().quality);
+    let (producer_risk, consumer_risk) =
+        plan.achieved_risks(risks.producer().quality, risks.consumer().quality);
     let design = VariablesDesign {
         plan,
-        producer_risk: 1.0 - at_aql,
-        consumer_risk: at_rql,
+        producer_risk,
+        consumer_risk,
         range,
         known_sigma_n: 0,
         approximate_n: None,

@@ -90,7 +90,10 @@ pub(crate) fn curtailed_stage_mean(
     }
     let q = 1.0 - p;
     let one_more = Binomial::new(m + 1, p);
-    let reject_part = k as f64 / p * super::tail::tails(&one_more, k).sf;
+    // sf / p before k: the tail is about C(m + 1, k + 1) p^(k + 1), so the
+    // ratio stays finite, where 1 / p alone overflows for a subnormal p
+    // (1e-310) and times a tail of 0 gives NaN.
+    let reject_part = k as f64 * (super::tail::tails(&one_more, k).sf / p);
     let stage = Binomial::new(m, p);
     super::window::curtailed_units(&stage, m, accept_left, k, reject_part, |a| {
         (m - a) as f64 / q * super::tail::tails(&one_more, a).cdf

@@ -27,13 +27,14 @@ use std::fmt;
 
 use serde::{Deserialize, Serialize};
 
-use crate::error::InputError;
+use crate::error::{DesignError, InputError};
 use binomial::Binomial;
 use hypergeometric::Hypergeometric;
 pub use hypergeometric::nonconforming_in_lot;
 pub use noncentral_t::NoncentralT;
 use poisson::Poisson;
 pub use tail::Tails;
+pub(crate) use tail::at_most_one;
 use tail::{Terms, tails};
 pub(crate) use window::Window;
 use window::window;
@@ -68,6 +69,16 @@ impl ModelKind {
             _ => "fraction nonconforming",
         }
     }
+
+    /// The unit of qualities, AOQ and AOQL in JSON reports: `fraction`
+    /// (0.01 is 1% nonconforming) or `per_unit` (nonconformities per unit;
+    /// per 100 units is 100 times the number).
+    pub fn quality_unit(self) -> &'static str {
+        match self {
+            ModelKind::Poisson => "per_unit",
+            _ => "fraction",
+        }
+    }
 }
 
 impl fmt::Display for ModelKind {
@@ -75,6 +86,11 @@ impl fmt::Display for ModelKind {
         f.write_str(self.name())
     }
 }
+
+/// The largest rate of nonconformities per unit (Poisson) accepted: the
+/// largest double over 100, rounded down to `1.7e306`, so that the rate
+/// per 100 units is a finite number.
+pub const MAX_RATE: f64 = 1.7e306;
 
 /// The largest lot size accepted: `10^12` units, far beyond any real lot and
 /// well inside the range where `f64` holds every whole number exactly.
@@ -128,21 +144,120 @@ impl Model {
         self.lot_size
     }
 
-    /// The largest sample the model allows: the lot size for the
-    /// hypergeometric model, otherwise unbounded.
+    /// The largest sample the model allows: the lot size whenever one is
+    /// known, whatever the model (no sample is larger than its lot);
+    /// otherwise unbounded.
     pub fn max_sample(&self) -> u64 {
+        self.lot_size.unwrap_or(u64::MAX)
+    }
+
+    /// The same model without its lot size, for the binomial and Poisson
+    /// models, whose probabilities do not depend on it (a designer searches
+    /// on it to learn the sample the points need, then holds that sample
+    /// to the lot with [`Model::fit_in_lot`]); the hypergeometric model as
+    /// it is.
+    pub(crate) fn without_lot(&self) -> Model {
         match self.kind {
-            ModelKind::Hypergeometric => self.lot_size.unwrap_or(u64::MAX),
-            _ => u64::MAX,
+            ModelKind::Hypergeometric => *self,
+            kind => Model {
+                kind,
+                lot_size: None,
+            },
+        }
+    }
+
+    /// Checks that a sample of `n` units, named `what` (e.g. "stage 2
+    /// cumulative sample size"), fits the lot: whenever a lot size is
+    /// known, under every model, a sample cannot take more units than the
+    /// lot holds. This is the one place the rule lives; plans given by hand,
+    /// recorded in a source or built by a designer all pass through it.
+    ///
+    /// # Errors
+    /// [`InputError::Inconsistent`] naming `what`, `n` and the lot size,
+    /// and what to do instead.
+    ///
+    /// # Example
+    /// ```
+    /// use lotsman::{Model, ModelKind};
+    /// let m = Model::new(ModelKind::Binomial, Some(30)).unwrap();
+    /// assert!(m.check_sample("stage 1 cumulative sample size", 30).is_ok());
+    /// let e = m.check_sample("stage 1 cumulative sample size", 110).unwrap_err();
+    /// assert!(e.to_string().contains("110 exceeds the lot size 30"));
+    /// ```
+    pub fn check_sample(&self, what: impl fmt::Display, n: u64) -> Result<(), InputError> {
+        match self.lot_size {
+            Some(lot) if n > lot => Err(InputError::Inconsistent(format!(
+                "{what} {n} exceeds the lot size {lot}: a sample cannot be larger than its lot; inspect all {lot} units (100%), or give a plan whose samples fit the lot"
+            ))),
+            _ => Ok(()),
+        }
+    }
+
+    /// The designers' check of their answer against the lot: `Ok` when a
+    /// sample of `needed` units (or measurements) fits it, otherwise the
+    /// refusal that states the answer, to inspect the whole lot, and why.
+    ///
+    /// # Errors
+    /// [`DesignError::WholeLot`] when `needed` exceeds the lot size.
+    pub fn fit_in_lot(&self, needed: u64, unit: &'static str) -> Result<(), DesignError> {
+        match self.lot_size {
+            Some(lot) if needed > lot => Err(DesignError::WholeLot { needed, lot, unit }),
+            _ => Ok(()),
+        }
+    }
+
+    /// The number of nonconforming units `D = round(p N)` that a lot of
+    /// quality `p` holds under the hypergeometric model
+    /// ([`nonconforming_in_lot`]); `None` for the other two models, whose
+    /// quality is a process's and not a whole number of units.
+    pub fn nonconforming_in_lot(&self, p: f64) -> Option<u64> {
+        match (self.kind, self.lot_size) {
+            (ModelKind::Hypergeometric, Some(lot)) => Some(nonconforming_in_lot(p, lot)),
+            _ => None,
+        }
+    }
+
+    /// The quality every measure is computed at when the asked quality is
+    /// `p`: the lot's own quality `D / N` under the hypergeometric model (a
+    /// finite lot holds a whole number of nonconforming units), `p` itself
+    /// under the other two.
+    ///
+    /// Pa, AOQ, ATI and ASN all take it, so that two qualities that mean
+    /// the same lot (the same `D`) get the same figures, and no AOQ exceeds
+    /// the AOQL, which is the largest AOQ over the lot qualities `D / N`.
+    ///
+    /// # Example
+    /// ```
+    /// use lotsman::{Model, ModelKind};
+    /// let m = Model::new(ModelKind::Hypergeometric, Some(300)).unwrap();
+    /// assert_eq!(m.nonconforming_in_lot(0.0065), Some(2));
+    /// assert_eq!(m.lot_quality(0.0065), 2.0 / 300.0);
+    /// ```
+    pub fn lot_quality(&self, p: f64) -> f64 {
+        match (self.nonconforming_in_lot(p), self.lot_size) {
+            (Some(d), Some(lot)) => d as f64 / lot as f64,
+            _ => p,
         }
     }
 
     /// Whether `p` is a quality this model can take: `0 < p < 1` for a
-    /// fraction nonconforming, `p > 0` (finite) for nonconformities per unit.
+    /// fraction nonconforming; for nonconformities per unit `p > 0` up to
+    /// [`MAX_RATE`], so that the rate per 100 units, which reports print
+    /// beside it, is a number too.
     pub fn accepts_quality(&self, p: f64) -> bool {
         match self.kind {
-            ModelKind::Poisson => p.is_finite() && p > 0.0,
+            ModelKind::Poisson => p > 0.0 && p <= MAX_RATE,
             _ => p > 0.0 && p < 1.0,
+        }
+    }
+
+    /// The valid qualities of this model, in words, for refusals.
+    pub(crate) fn quality_range(&self) -> &'static str {
+        match self.kind {
+            ModelKind::Poisson => {
+                "above 0 (nonconformities per unit) and at most 1.7e306, so that the rate per 100 units is a number"
+            }
+            _ => "between 0 and 1 (exclusive), e.g. 0.01 or 1%",
         }
     }
 
@@ -158,6 +273,7 @@ impl Model {
             Count::Poisson(d) => tails(&d, c),
             Count::Hypergeometric(d) => tails(&d, c),
             Count::Impossible => Tails::ALL_BELOW,
+            Count::Endless => Tails::ALL_ABOVE,
         }
     }
 
@@ -168,6 +284,7 @@ impl Model {
             Count::Poisson(d) => d.ln_pmf(k).exp(),
             Count::Hypergeometric(d) => d.ln_pmf(k).exp(),
             Count::Impossible => f64::from(u8::from(k == 0)),
+            Count::Endless => 0.0,
         }
     }
 
@@ -194,6 +311,7 @@ impl Model {
             Count::Poisson(d) => window(&d, lo, hi),
             Count::Hypergeometric(d) => window(&d, lo, hi),
             Count::Impossible => Window::at_zero(),
+            Count::Endless => Window::beyond_every_count(),
         }
     }
 
@@ -246,7 +364,11 @@ impl Model {
     fn count(&self, m: u64, p: f64, drawn: u64, found: u64) -> Count {
         match self.kind {
             ModelKind::Binomial => Count::Binomial(Binomial::new(m, p)),
-            ModelKind::Poisson => Count::Poisson(Poisson::new(m as f64 * p)),
+            ModelKind::Poisson => match m as f64 * p {
+                // A mean beyond the largest double: every count is exceeded.
+                lambda if lambda.is_infinite() => Count::Endless,
+                lambda => Count::Poisson(Poisson::new(lambda)),
+            },
             ModelKind::Hypergeometric => {
                 let lot = self.lot_size.unwrap_or(u64::MAX);
                 let bad = nonconforming_in_lot(p, lot);
@@ -268,4 +390,6 @@ enum Count {
     Poisson(Poisson),
     Hypergeometric(Hypergeometric),
     Impossible,
+    /// A Poisson count whose mean overflows: above every cut.
+    Endless,
 }

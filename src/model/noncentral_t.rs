@@ -83,10 +83,34 @@ impl NoncentralT {
     /// significant digits. The smaller tail is matched on the log scale,
     /// so a quantile at `1e-12` is as good as one at `0.5`.
     pub fn quantile(&self, prob: f64) -> f64 {
+        let z = normal::quantile(prob);
+        if prob <= 0.5 {
+            self.tail_quantile(Tail::Lower, prob, z)
+        } else {
+            self.tail_quantile(Tail::Upper, 1.0 - prob, z)
+        }
+    }
+
+    /// The `t` with `P(T' > t) = prob` (`0 < prob < 1`), matched on the
+    /// upper tail itself for `prob <= 1/2`: the quantile of `1 - prob`
+    /// would lose a `prob` below about `1e-16` (it rounds to 1), this one
+    /// keeps `1e-30` as well as `0.05`.
+    pub fn upper_quantile(&self, prob: f64) -> f64 {
+        let z = normal::upper_quantile(prob);
+        if prob <= 0.5 {
+            self.tail_quantile(Tail::Upper, prob, z)
+        } else {
+            self.tail_quantile(Tail::Lower, 1.0 - prob, z)
+        }
+    }
+
+    /// The `t` at which `tail` holds the probability `mass` (at most 1/2),
+    /// by Brent's method on the log of that tail, started near the normal
+    /// quantile `z` of the same point.
+    fn tail_quantile(&self, tail: Tail, mass: f64, z: f64) -> f64 {
         // Start from the normal approximation of N. L. Johnson and B. L.
         // Welch (Biometrika 31, 1940): T'(1 - 1/(4 nu)) - delta is roughly
         // N(0, 1 + T'^2/(2 nu)).
-        let z = normal::quantile(prob);
         let c = 1.0 - 0.25 / self.scale.nu;
         let guess = {
             let a = c * c - z * z / (2.0 * self.scale.nu);
@@ -97,11 +121,7 @@ impl NoncentralT {
                 self.delta + z
             }
         };
-        let (tail, target) = if prob <= 0.5 {
-            (Tail::Lower, prob.ln())
-        } else {
-            (Tail::Upper, (1.0 - prob).ln())
-        };
+        let target = mass.ln();
         // g rises with t in both cases.
         let g = |t: f64| match tail {
             Tail::Lower => self.ln_tail(t, Tail::Lower) - target,

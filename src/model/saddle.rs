@@ -84,7 +84,16 @@ pub(crate) fn bd0(x: f64, m: f64) -> f64 {
     if x == 0.0 {
         return m;
     }
-    x * (x / m).ln() + m - x
+    // x / m overflows for a subnormal m (a quality of 1e-310): then the
+    // logarithm is taken as a difference, which is exact enough there
+    // (ln(x / m) is above 700 and the rounding of each term is relative).
+    let ratio = x / m;
+    let log_ratio = if ratio.is_finite() {
+        ratio.ln()
+    } else {
+        x.ln() - m.ln()
+    };
+    x * log_ratio + m - x
 }
 
 /// `ln P(X = k)` for `X ~ Binomial(n, p)`, with `q = 1 - p` passed separately
@@ -154,6 +163,18 @@ mod tests {
         // loses only a digit to cancellation.
         let x = 1.2 * m;
         assert!((bd0(x, m) - (x * (x / m).ln() + m - x)).abs() < 1e-11 * m);
+    }
+
+    /// Issue 14, item 4: at a subnormal quality the mean n p is subnormal
+    /// too, and x / (n p) overflows; P(X = 1) for n = 4, p = 1e-310 is
+    /// 4 p (1 - p)^3 = 4e-310 (hand computation), not 0.
+    #[test]
+    fn a_subnormal_quality_keeps_its_probabilities() {
+        let p = 1e-310;
+        let pmf = ln_binomial_pmf(1, 4, p, 1.0 - p).exp();
+        assert!((pmf - 4e-310).abs() <= 1e-323, "{pmf:e}");
+        let poisson = ln_poisson_pmf(1, 4.0 * p).exp();
+        assert!((poisson - 4e-310).abs() <= 1e-323, "{poisson:e}");
     }
 
     #[test]

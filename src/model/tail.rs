@@ -57,12 +57,19 @@ pub(crate) fn tails<T: Terms>(d: &T, c: u64) -> Tails {
         return Tails::ALL_BELOW;
     }
     if c < d.mode() {
-        let cdf = (d.ln_pmf(c) + sum_down(d, c, lo).ln()).exp().min(1.0);
+        let cdf = at_most_one((d.ln_pmf(c) + sum_down(d, c, lo).ln()).exp());
         Tails { cdf, sf: 1.0 - cdf }
     } else {
-        let sf = (d.ln_pmf(c + 1) + sum_up(d, c + 1, hi).ln()).exp().min(1.0);
+        let sf = at_most_one((d.ln_pmf(c + 1) + sum_up(d, c + 1, hi).ln()).exp());
         Tails { cdf: 1.0 - sf, sf }
     }
+}
+
+/// `x`, or 1 where rounding put a probability above 1. A NaN stays a NaN
+/// (`f64::min` would turn it into 1, a quiet wrong answer), so that the
+/// reports' numerical guard sees and refuses it.
+pub(crate) fn at_most_one(x: f64) -> f64 {
+    if x > 1.0 { 1.0 } else { x }
 }
 
 /// `sum_{k = lo}^{start} P(X = k) / P(X = start)` for `start` below the mode.

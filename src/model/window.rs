@@ -11,7 +11,7 @@
 //! terms. Neither `P(X <= k)` nor `P(X > k)` is ever formed as `1 -` the
 //! other, so a small producer's risk keeps its relative accuracy.
 
-use super::tail::{Terms, tails};
+use super::tail::{Terms, at_most_one, tails};
 
 /// `P(X = k)` for `k` in `lo..=hi`, with `below = P(X < lo)` and
 /// `above = P(X > hi)`; terms outside the distribution's support are left
@@ -32,20 +32,26 @@ impl Window {
         Self::from_terms(0, vec![1.0], 0.0, 0.0)
     }
 
+    /// Every count above any cut: a Poisson mean that overflows to
+    /// infinity (a rate near the largest double times the units).
+    pub(crate) fn beyond_every_count() -> Self {
+        Self::from_terms(0, Vec::new(), 0.0, 1.0)
+    }
+
     fn from_terms(lo: u64, pmf: Vec<f64>, below: f64, above: f64) -> Self {
         let mut cdf = Vec::with_capacity(pmf.len() + 1);
         let mut acc = below;
         cdf.push(acc);
         for &t in &pmf {
             acc += t;
-            cdf.push(acc.min(1.0));
+            cdf.push(at_most_one(acc));
         }
         let mut sf = vec![0.0; pmf.len() + 1];
         let mut acc = above;
         sf[pmf.len()] = acc;
         for (i, &t) in pmf.iter().enumerate().rev() {
             acc += t;
-            sf[i] = acc.min(1.0);
+            sf[i] = at_most_one(acc);
         }
         Window { lo, pmf, cdf, sf }
     }

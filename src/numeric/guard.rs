@@ -1,17 +1,73 @@
-//! Guards on computed numbers: a probability must be finite and within
-//! `[0, 1]`, a count of units finite and not negative. The reports check
-//! every such number before anything is printed, so a numerical failure
-//! (a NaN from an overflow, a tail summed past its range) stops the command
+//! Guards on computed numbers, by the kind of quantity each one is: a
+//! probability and a fraction nonconforming must be finite and within
+//! `[0, 1]`; a rate of nonconformities per unit and an amount (units, a
+//! cost) finite and not negative, a rate possibly above 1. The reports check
+//! every such number before anything is printed, so a numerical failure (a
+//! NaN from an overflow, a tail summed past its range) stops the command
 //! with a message instead of printing a wrong plan quietly.
+//!
+//! The kind is a value ([`Quantity`]) that goes with the number, and a
+//! quality's kind comes from the model ([`Quantity::quality`]): a caller
+//! cannot hold an AOQ of 1.4 nonconformities per unit to a probability's
+//! range by choosing the wrong function.
 
-use std::fmt::Display;
+use std::fmt::{self, Display};
 
 use thiserror::Error;
+
+use crate::model::ModelKind;
+
+/// What a computed number is, and so which values it may take.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Quantity {
+    /// A probability: finite, within `[0, 1]`.
+    Probability,
+    /// A fraction nonconforming (a quality, AOQ or AOQL under the binomial
+    /// or hypergeometric model): finite, within `[0, 1]`.
+    Fraction,
+    /// Nonconformities per unit (a quality, AOQ or AOQL under the Poisson
+    /// model): finite and not negative; it may exceed 1.
+    Rate,
+    /// A number of units or a cost: finite and not negative.
+    Amount,
+}
+
+impl Quantity {
+    /// The kind of a quality (and of an AOQ and AOQL) under `model`: a
+    /// rate for the Poisson model, a fraction otherwise.
+    pub fn quality(model: ModelKind) -> Self {
+        match model {
+            ModelKind::Poisson => Quantity::Rate,
+            ModelKind::Binomial | ModelKind::Hypergeometric => Quantity::Fraction,
+        }
+    }
+
+    /// Whether `x` is a value of this kind, up to a rounding of `1e-12`.
+    pub fn allows(self, x: f64) -> bool {
+        x.is_finite()
+            && x >= -ROUNDING
+            && match self {
+                Quantity::Probability | Quantity::Fraction => x <= 1.0 + ROUNDING,
+                Quantity::Rate | Quantity::Amount => true,
+            }
+    }
+
+    /// What a value of this kind must be, in words.
+    pub fn expected(self) -> &'static str {
+        match self {
+            Quantity::Probability => "a probability (finite, between 0 and 1)",
+            Quantity::Fraction => "a fraction nonconforming (finite, between 0 and 1)",
+            Quantity::Rate => "a rate of nonconformities per unit (finite, not negative)",
+            Quantity::Amount => "a finite number, not negative",
+        }
+    }
+}
 
 /// A computed number that its kind does not allow.
 #[derive(Debug, Clone, PartialEq, Error)]
 #[error(
-    "numerical failure: {quantity} = {value} is not {expected}; the result is withheld rather than printed wrong (please report the input that led here)"
+    "numerical failure: {quantity} = {} is not {expected}; the result is withheld rather than printed wrong (please report the input that led here)",
+    Short(*.value)
 )]
 pub struct NumericalError {
     /// What the number is, e.g. "Pa at quality 0.01".
@@ -22,13 +78,12 @@ pub struct NumericalError {
     pub expected: &'static str,
 }
 
-/// Rounding allowed outside `[0, 1]`: a probability summed from terms or
+/// Rounding allowed outside the range: a probability summed from terms or
 /// found as `1 - x` can land a few units in the last place beyond its
 /// range without being wrong.
 const ROUNDING: f64 = 1e-12;
 
-/// Checks that `p` is a probability (finite, within `[0, 1]` up to
-/// rounding of `1e-12`).
+/// Checks that `x` is a value of `kind` (up to rounding of `1e-12`).
 ///
 /// `quantity` is only written out when the check fails: a report of a
 /// 500 x 500 grid checks over a million numbers, and naming each one up
@@ -36,33 +91,42 @@ const ROUNDING: f64 = 1e-12;
 /// name built from values.
 ///
 /// # Errors
-/// [`NumericalError`] naming `quantity`.
-pub fn check_probability(quantity: impl Display, p: f64) -> Result<(), NumericalError> {
-    if p.is_finite() && (-ROUNDING..=1.0 + ROUNDING).contains(&p) {
-        return Ok(());
-    }
-    Err(NumericalError {
-        quantity: quantity.to_string(),
-        value: p,
-        expected: "a probability (finite, between 0 and 1)",
-    })
-}
-
-/// Checks that `x` is finite and not negative (a number of units, a
-/// quality, a cost); `quantity` is written out only on failure, as in
-/// [`check_probability`].
+/// [`NumericalError`] naming `quantity` and what its kind allows.
 ///
-/// # Errors
-/// [`NumericalError`] naming `quantity`.
-pub fn check_amount(quantity: impl Display, x: f64) -> Result<(), NumericalError> {
-    if x.is_finite() && x >= -ROUNDING {
+/// # Example
+/// ```
+/// use lotsman::{Quantity, check};
+/// // 1.44 nonconformities per unit is a rate, not a probability.
+/// assert!(check(Quantity::Rate, "AOQ", 1.44).is_ok());
+/// assert!(check(Quantity::Fraction, "AOQ", 1.44).is_err());
+/// ```
+pub fn check(kind: Quantity, quantity: impl Display, x: f64) -> Result<(), NumericalError> {
+    if kind.allows(x) {
         return Ok(());
     }
     Err(NumericalError {
         quantity: quantity.to_string(),
         value: x,
-        expected: "a finite number, not negative",
+        expected: kind.expected(),
     })
+}
+
+/// A number as messages write it: the shortest decimal that reads back as
+/// the same double, in scientific form below `1e-6` and from `1e15` on,
+/// so that a subnormal quality (`1e-310`) is not written with three
+/// hundred zeros.
+#[derive(Clone, Copy, Debug)]
+pub struct Short(pub f64);
+
+impl Display for Short {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let x = self.0;
+        if x != 0.0 && x.is_finite() && !(1e-6..1e15).contains(&x.abs()) {
+            write!(f, "{x:e}")
+        } else {
+            write!(f, "{x}")
+        }
+    }
 }
 
 /// Relative distance below which an achieved risk counts as on its limit:
@@ -82,14 +146,43 @@ mod tests {
     #[test]
     fn probabilities_outside_their_range_are_refused_with_their_name() {
         for p in [0.0, 1.0, 0.5, 1.0 + 1e-13, -1e-13] {
-            assert!(check_probability("Pa", p).is_ok(), "{p}");
+            assert!(check(Quantity::Probability, "Pa", p).is_ok(), "{p}");
         }
         for p in [f64::NAN, f64::INFINITY, -0.01, 1.001] {
-            let e = check_probability("Pa at quality 0.01", p).unwrap_err();
+            let e = check(Quantity::Probability, "Pa at quality 0.01", p).unwrap_err();
             assert!(e.to_string().contains("Pa at quality 0.01"), "{e}");
         }
-        assert!(check_amount("ATI", f64::NAN).is_err());
-        assert!(check_amount("ATI", 12.5).is_ok());
+        assert!(check(Quantity::Amount, "ATI", f64::NAN).is_err());
+        assert!(check(Quantity::Amount, "ATI", 12.5).is_ok());
+    }
+
+    /// Issue 14, item 1: an AOQ of 1.44 nonconformities per unit is a rate;
+    /// a fraction of 1.44 is a numerical failure.
+    #[test]
+    fn each_kind_keeps_its_own_range() {
+        assert!(check(Quantity::Rate, "AOQ", 1.44).is_ok());
+        assert!(check(Quantity::Rate, "AOQ", -0.5).is_err());
+        assert!(check(Quantity::Rate, "AOQ", f64::INFINITY).is_err());
+        let e = check(Quantity::Fraction, "AOQ", 1.44).unwrap_err();
+        assert!(
+            e.to_string().contains("is not a fraction nonconforming"),
+            "{e}"
+        );
+        assert_eq!(Quantity::quality(ModelKind::Poisson), Quantity::Rate);
+        assert_eq!(Quantity::quality(ModelKind::Binomial), Quantity::Fraction);
+        assert_eq!(
+            Quantity::quality(ModelKind::Hypergeometric),
+            Quantity::Fraction
+        );
+    }
+
+    #[test]
+    fn tiny_and_huge_numbers_print_short() {
+        assert_eq!(Short(1e-310).to_string(), "1e-310");
+        assert_eq!(Short(0.05).to_string(), "0.05");
+        assert_eq!(Short(1.5e20).to_string(), "1.5e20");
+        assert_eq!(Short(f64::NAN).to_string(), "NaN");
+        assert_eq!(Short(0.0).to_string(), "0");
     }
 
     #[test]

@@ -9,6 +9,6 @@ mod quadrature;
 mod root;
 
 pub(crate) use decimal::round_significant;
-pub use guard::{NEAR_LIMIT, NumericalError, check_amount, check_probability, near_limit};
+pub use guard::{NEAR_LIMIT, NumericalError, Quantity, Short, check, near_limit};
 pub(crate) use quadrature::integrate;
 pub(crate) use root::{brent, expand_bracket};

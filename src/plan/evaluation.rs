@@ -2,7 +2,7 @@
 //! table plus the curve's AOQL and indifference quality.
 
 use crate::error::InputError;
-use crate::model::{Model, ModelKind};
+use crate::model::Model;
 use crate::plan::{
     Aoql, Measures, StagedPlan, acceptance_probability, aoql, measures, stage_outcomes,
 };
@@ -38,11 +38,11 @@ pub fn evaluate(
 ) -> Result<Evaluation, InputError> {
     for &q in qualities {
         if !model.accepts_quality(q) {
-            let range = match model.kind() {
-                ModelKind::Poisson => "above 0 (nonconformities per unit)",
-                _ => "between 0 and 1 (exclusive)",
-            };
-            return Err(InputError::out_of_range("quality", q, range));
+            return Err(InputError::out_of_range(
+                "quality",
+                crate::numeric::Short(q),
+                model.quality_range(),
+            ));
         }
     }
     Ok(Evaluation {
@@ -77,7 +77,10 @@ pub fn quality_at_pa(plan: &StagedPlan, model: &Model, target: f64) -> f64 {
 /// With risk points: eight levels that bracket them, `p1/4, p1/2, p1,
 /// sqrt(p1 p2), p2, 1.5 p2, 2 p2, 3 p2` (kept within the model's range).
 /// Without: ten even steps up to the quality where `Pa = 0.05`. For the
-/// hypergeometric model each is moved to the nearest lot quality `D / N`.
+/// hypergeometric model the qualities stay as they are (each row of an
+/// evaluation carries the lot's `D` and `D / N` beside it), but those whose
+/// lot holds no nonconforming unit, or the same `D` as an earlier one, are
+/// dropped: they would repeat a row.
 pub fn default_qualities(plan: &StagedPlan, model: &Model, risks: Option<&RiskPair>) -> Vec<f64> {
     let mut qs: Vec<f64> = match risks {
         Some(r) => bracketing_qualities(r),
@@ -86,14 +89,17 @@ pub fn default_qualities(plan: &StagedPlan, model: &Model, risks: Option<&RiskPa
             (1..=10).map(|i| top * i as f64 / 10.0).collect()
         }
     };
-    if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {
-        // A finite lot can only be at D / N: show the qualities it really has.
-        qs = qs
-            .iter()
-            .map(|&q| crate::model::nonconforming_in_lot(q, lot) as f64 / lot as f64)
-            .collect();
-    }
     qs.retain(|&q| model.accepts_quality(q));
+    // The qualities rise, so D never falls: keep the first of each D > 0.
+    let mut last_d = 0;
+    qs.retain(|&q| match model.nonconforming_in_lot(q) {
+        Some(d) if d <= last_d => false,
+        Some(d) => {
+            last_d = d;
+            true
+        }
+        None => true,
+    });
     qs.dedup();
     qs
 }

@@ -9,8 +9,15 @@ use crate::plan::{StageOutcomes, StagedPlan, curtailed_outcomes, stage_outcomes}
 /// The measures of a plan at one quality.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct Measures {
-    /// The quality `p`.
+    /// The quality `p` asked for.
     pub quality: f64,
+    /// Hypergeometric model: the number of nonconforming units
+    /// `D = round(p N)` that a lot of quality `p` holds; `None` otherwise.
+    pub lot_nonconforming: Option<u64>,
+    /// Hypergeometric model: the lot's own quality `D / N`, at which every
+    /// measure below is computed; `None` otherwise (the measures are at
+    /// `p`).
+    pub lot_quality: Option<f64>,
     /// Probability of acceptance `Pa(p)`.
     pub pa: f64,
     /// Average outgoing quality under rectifying inspection (rejected lots
@@ -26,7 +33,9 @@ pub struct Measures {
     pub asn_curtailed: Option<f64>,
 }
 
-/// The measures of `plan` at quality `p`.
+/// The measures of `plan` at quality `p`; under the hypergeometric model at
+/// the lot's quality `D / N` ([`Model::lot_quality`]), which the result
+/// carries beside `p`.
 ///
 /// With `a_j` the probability of acceptance at stage `j` and `n_j` the
 /// cumulative sample size, lot size `N`:
@@ -42,7 +51,8 @@ pub struct Measures {
 /// `ATI = n + (1 - Pa)(N - n)` (Montgomery, *Introduction to Statistical
 /// Quality Control*, the chapter on lot-by-lot acceptance sampling for
 /// attributes, from memory).
-pub fn measures(plan: &StagedPlan, model: &Model, p: f64) -> Measures {
+pub fn measures(plan: &StagedPlan, model: &Model, asked: f64) -> Measures {
+    let p = model.lot_quality(asked);
     let outcomes = curtailed_outcomes(plan, model, p);
     let stages = plan.stages();
     let asn = stages
@@ -58,8 +68,11 @@ pub fn measures(plan: &StagedPlan, model: &Model, p: f64) -> Measures {
             .sum();
         inspected + (1.0 - outcomes.pa()) * lot as f64
     });
+    let lot_nonconforming = model.nonconforming_in_lot(asked);
     Measures {
-        quality: p,
+        quality: asked,
+        lot_nonconforming,
+        lot_quality: lot_nonconforming.map(|_| p),
         pa: outcomes.pa(),
         aoq: aoq_from(&outcomes, plan, model, p),
         ati,
@@ -86,9 +99,11 @@ fn aoq_from(outcomes: &StageOutcomes, plan: &StagedPlan, model: &Model, p: f64) 
     }
 }
 
-/// The AOQ of `plan` at quality `p`, without the other measures (the AOQL
-/// search evaluates it a hundred times per curve).
+/// The AOQ of `plan` at quality `p` (at the lot quality `D / N` under the
+/// hypergeometric model, as [`measures`]), without the other measures (the
+/// AOQL search evaluates it a hundred times per curve).
 pub fn average_outgoing_quality(plan: &StagedPlan, model: &Model, p: f64) -> f64 {
+    let p = model.lot_quality(p);
     aoq_from(&stage_outcomes(plan, model, p), plan, model, p)
 }
 
@@ -113,7 +128,10 @@ pub struct Aoql {
 
 /// Largest quality the curve searches need: where `Pa` has fallen below
 /// `1e-12`, found by doubling from `r / n` (the quality at which the expected
-/// count reaches the last rejection number).
+/// count reaches the last rejection number), or halving the distance to a
+/// fraction's end at 1. A plan on a few units still accepts lots above 50%
+/// nonconforming, and its AOQ can peak there: the ceiling goes on up to
+/// within `1e-12` of 1 rather than stop at one half.
 fn quality_ceiling(plan: &StagedPlan, model: &Model) -> f64 {
     let last = plan.stages()[plan.stages().len() - 1];
     let top = match model.kind() {
@@ -121,11 +139,8 @@ fn quality_ceiling(plan: &StagedPlan, model: &Model) -> f64 {
         _ => 1.0,
     };
     let mut p = (last.reject as f64 / last.n as f64).min(0.5 * top);
-    while acceptance_probability(plan, model, p) > 1e-12 && p < 0.5 * top {
+    while acceptance_probability(plan, model, p) > 1e-12 && top - p > 1e-12 {
         p = (2.0 * p).min(0.5 * (p + top));
-        if top - p < 1e-12 {
-            break;
-        }
     }
     p
 }

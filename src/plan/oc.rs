@@ -21,7 +21,7 @@ pub struct StageOutcomes {
 impl StageOutcomes {
     /// Probability of acceptance `Pa`, the OC at this quality.
     pub fn pa(&self) -> f64 {
-        self.accept.iter().sum::<f64>().min(1.0)
+        crate::model::at_most_one(self.accept.iter().sum::<f64>())
     }
 
     /// Probability that the lot is decided at stage `j`: the distribution of

@@ -141,13 +141,14 @@ impl SequentialLines {
                 "above 0 (and below 1 for a fraction nonconforming)",
             ));
         }
-        if self.truncation == 0 || self.truncation > MAX_ITEMS.min(model.max_sample()) {
+        if self.truncation == 0 || self.truncation > MAX_ITEMS {
             return Err(InputError::out_of_range(
                 "sequential truncation",
                 self.truncation,
-                &format!("1 to {} items", MAX_ITEMS.min(model.max_sample())),
+                &format!("1 to {MAX_ITEMS} items"),
             ));
         }
+        model.check_sample("sequential truncation", self.truncation)?;
         let lowest = self.acceptance_number(self.truncation).unwrap_or(0);
         let highest = self.rejection_number(self.truncation).saturating_sub(1);
         if self.final_acceptance < lowest || self.final_acceptance > highest {

@@ -56,7 +56,8 @@ pub struct Stage {
 /// (`reject = accept + 1`); no stage leaves more than [`MAX_OPEN_COUNTS`]
 /// counts undecided; and, for the unit-count models, every acceptance
 /// number is below its cumulative sample size (otherwise the stage accepts
-/// every lot) and, for the hypergeometric model, the sample fits in the lot;
+/// every lot); whenever the model knows the lot size, under every model,
+/// no stage takes more units than the lot holds ([`Model::check_sample`]);
 /// and every plan stays within the designers' limits, samples of at most
 /// [`MAX_SAMPLE_SIZE`] units and acceptance numbers of at most
 /// [`MAX_ACCEPTANCE_NUMBER`] (beyond them a plan's measures cost minutes and
@@ -233,14 +234,7 @@ fn check_stages(stages: &[Stage], model: &Model) -> Result<(), InputError> {
                     ),
                 ));
             }
-            if s.n > model.max_sample() {
-                return Err(InputError::Inconsistent(format!(
-                    "{} {} exceeds the lot size {}",
-                    name("cumulative sample size"),
-                    s.n,
-                    model.max_sample()
-                )));
-            }
+            model.check_sample(name("cumulative sample size"), s.n)?;
             if let Some(a) = s.accept {
                 if a >= s.reject {
                     return Err(InputError::Inconsistent(format!(

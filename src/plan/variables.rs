@@ -364,6 +364,52 @@ impl VariablesPlan {
         }
     }
 
+    /// `1 - Pa(p)`, the probability of rejection, from the rejection tails
+    /// themselves rather than as `1 -` the OC: where `Pa` rounds to 1 (a
+    /// producer's risk of `5e-17` or `1e-30`) it keeps its digits. For two
+    /// limits with sigma unknown this is the one-sided configuration, as
+    /// [`VariablesPlan::pa`].
+    ///
+    /// ```text
+    /// sigma known, one limit:    Phi(-sqrt(n) (z_p - k))
+    /// sigma unknown, one limit:  P(T'(n - 1, z_p sqrt(n)) < k sqrt(n))
+    /// sigma known, two limits:   Phi(-sqrt(n) (h - y)) + Phi(-sqrt(n) (h + y))
+    /// ```
+    pub fn reject(&self, p: f64) -> f64 {
+        let nf = self.n as f64;
+        let z = normal::upper_quantile(p);
+        match (self.spec.limit, self.spec.sigma, self.spec.half_width()) {
+            (LimitKind::Both, Some(_), Some(d)) => match self.derived {
+                None => 1.0,
+                Some(h) => {
+                    let y = mean_offset(d, p);
+                    let root = nf.sqrt();
+                    (normal::cdf(-root * (h - y)) + normal::cdf(-root * (h + y))).min(1.0)
+                }
+            },
+            (LimitKind::Both, None, _) => {
+                let k = self.derived.unwrap_or(f64::INFINITY);
+                NoncentralT::new(self.n - 1, z * nf.sqrt()).cdf(k * nf.sqrt())
+            }
+            (_, Some(_), _) => normal::sf(nf.sqrt() * (z - self.constant)),
+            (_, None, _) => {
+                NoncentralT::new(self.n - 1, z * nf.sqrt()).cdf(self.constant * nf.sqrt())
+            }
+        }
+    }
+
+    /// The producer's and consumer's risks the plan achieves at the
+    /// qualities `p1` and `p2`: the larger probability of rejection at
+    /// `p1` and the larger `Pa` at `p2` over the configurations the plan
+    /// is held to, each from its own tail ([`VariablesPlan::reject`]).
+    pub fn achieved_risks(&self, p1: f64, p2: f64) -> (f64, f64) {
+        let producer = match self.pa_centred(p1) {
+            Some(centred) => self.reject(p1).max(1.0 - centred),
+            None => self.reject(p1),
+        };
+        (producer, self.pa_bounds(p2).1)
+    }
+
     /// Two limits, sigma unknown: `Pa(p)` with the mean centred between the
     /// limits and `p/2` beyond each. `None` for the other plans, whose OC
     /// depends on `p` alone.

@@ -1,62 +1,75 @@
 //! The numerical guard of every report: before a report is written, each
-//! probability in it must be finite and within `[0, 1]`, and each count of
-//! units, quality and cost finite and not negative
-//! ([`check_probability`], [`check_amount`]). A report that fails is not
-//! printed; the command stops with the [`NumericalError`] instead.
+//! number in it must be a value of its kind ([`Quantity`]): a probability
+//! within `[0, 1]`; a quality, AOQ or AOQL a fraction within `[0, 1]` under
+//! the binomial and hypergeometric models and a rate (finite, not negative,
+//! possibly above 1) under the Poisson model; a count of units or a cost
+//! finite and not negative. A report that fails is not printed; the
+//! command stops with the [`NumericalError`] instead.
 
 use super::{
     DesignReport, EvaluationReport, PointReport, RectifyingReport, TradeoffReport,
     VariablesDesignReport, VariablesEvaluationReport,
 };
-use crate::numeric::{NumericalError, check_amount, check_probability};
+use crate::numeric::{NumericalError, Quantity, Short, check};
 use crate::plan::{Aoql, MeasurementJudgement, Measures, VariablesPoint};
 
 type Checked = Result<(), NumericalError>;
+
+use Quantity::{Amount, Probability};
 
 /// `NAME at quality Q`, written out only when a check fails.
 fn at(name: &str, quality: f64) -> impl std::fmt::Display + '_ {
     struct At<'a>(&'a str, f64);
     impl std::fmt::Display for At<'_> {
         fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-            write!(f, "{} at quality {}", self.0, self.1)
+            write!(f, "{} at quality {}", self.0, Short(self.1))
         }
     }
     At(name, quality)
 }
 
-fn aoql(a: &Aoql) -> Checked {
-    check_probability("AOQL", a.value)?;
-    check_amount("quality of the AOQL", a.quality)
+/// The AOQL and its quality, both of the model's quality kind.
+fn aoql(a: &Aoql, quality: Quantity) -> Checked {
+    check(quality, "AOQL", a.value)?;
+    check(quality, "quality of the AOQL", a.quality)
 }
 
-fn measures(m: &Measures) -> Checked {
-    check_probability(at("Pa", m.quality), m.pa)?;
-    check_probability(at("AOQ", m.quality), m.aoq)?;
-    check_amount(at("ASN", m.quality), m.asn)?;
+fn measures(m: &Measures, quality: Quantity) -> Checked {
+    check(Probability, at("Pa", m.quality), m.pa)?;
+    check(quality, at("AOQ", m.quality), m.aoq)?;
+    check(Amount, at("ASN", m.quality), m.asn)?;
     if let Some(ati) = m.ati {
-        check_amount(at("ATI", m.quality), ati)?;
+        check(Amount, at("ATI", m.quality), ati)?;
     }
     if let Some(asn) = m.asn_curtailed {
-        check_amount(at("curtailed ASN", m.quality), asn)?;
+        check(Amount, at("curtailed ASN", m.quality), asn)?;
     }
     Ok(())
 }
 
 fn variables_point(p: &VariablesPoint) -> Checked {
-    check_probability(at("Pa", p.quality), p.pa)?;
+    check(Probability, at("Pa", p.quality), p.pa)?;
     if let Some(pa) = p.pa_centred {
-        check_probability(at("Pa (mean centred)", p.quality), pa)?;
+        check(Probability, at("Pa (mean centred)", p.quality), pa)?;
     }
-    check_probability(at("AOQ", p.quality), p.aoq)?;
+    check(Quantity::Fraction, at("AOQ", p.quality), p.aoq)?;
     if let Some(ati) = p.ati {
-        check_amount(at("ATI", p.quality), ati)?;
+        check(Amount, at("ATI", p.quality), ati)?;
     }
     Ok(())
 }
 
 fn achieved(producer: &PointReport, consumer: &PointReport) -> Checked {
-    check_probability("achieved producer's risk", producer.achieved_risk)?;
-    check_probability("achieved consumer's risk", consumer.achieved_risk)
+    check(
+        Probability,
+        "achieved producer's risk",
+        producer.achieved_risk,
+    )?;
+    check(
+        Probability,
+        "achieved consumer's risk",
+        consumer.achieved_risk,
+    )
 }
 
 impl DesignReport {
@@ -72,7 +85,7 @@ impl DesignReport {
                 ("ASN at the RQL", a.at_rql),
                 ("largest ASN", a.max),
             ] {
-                check_amount(name, v)?;
+                check(Amount, name, v)?;
             }
         }
         Ok(())
@@ -81,21 +94,26 @@ impl DesignReport {
 
 impl EvaluationReport {
     /// Checks every point, the stage shares, the AOQL and the indifference
-    /// quality.
+    /// quality; qualities and AOQs by the model's kind.
     ///
     /// # Errors
     /// [`NumericalError`] naming the first number out of its range.
     pub fn check(&self) -> Checked {
+        let quality = Quantity::quality(self.model);
         for m in &self.points {
-            measures(m)?;
+            measures(m, quality)?;
         }
         for (m, shares) in self.points.iter().zip(&self.decided_at) {
             for &share in shares {
-                check_probability(at("share decided at a stage", m.quality), share)?;
+                check(
+                    Probability,
+                    at("share decided at a stage", m.quality),
+                    share,
+                )?;
             }
         }
-        aoql(&self.aoql)?;
-        check_amount("indifference quality", self.indifference_quality)
+        aoql(&self.aoql, quality)?;
+        check(quality, "indifference quality", self.indifference_quality)
     }
 }
 
@@ -110,7 +128,8 @@ impl VariablesDesignReport {
 }
 
 impl VariablesEvaluationReport {
-    /// Checks every point, the AOQL and the indifference quality.
+    /// Checks every point, the AOQL and the indifference quality (fractions
+    /// beyond the limits).
     ///
     /// # Errors
     /// [`NumericalError`] naming the first number out of its range.
@@ -118,8 +137,12 @@ impl VariablesEvaluationReport {
         for p in &self.points {
             variables_point(p)?;
         }
-        aoql(&self.aoql)?;
-        check_amount("indifference quality", self.indifference_quality)
+        aoql(&self.aoql, Quantity::Fraction)?;
+        check(
+            Quantity::Fraction,
+            "indifference quality",
+            self.indifference_quality,
+        )
     }
 }
 
@@ -130,24 +153,25 @@ impl TradeoffReport {
     /// [`NumericalError`] naming the first number out of its range.
     pub fn check(&self) -> Checked {
         for c in &self.cells {
-            for (name, v) in [
-                ("achieved producer's risk", c.producer_risk),
-                ("achieved consumer's risk", c.consumer_risk),
-                ("Pa at the process average", c.pa_at_process.flatten()),
+            for (kind, name, v) in [
+                (Probability, "achieved producer's risk", c.producer_risk),
+                (Probability, "achieved consumer's risk", c.consumer_risk),
+                (
+                    Probability,
+                    "Pa at the process average",
+                    c.pa_at_process.flatten(),
+                ),
+                (Amount, "ASN at the AQL", c.asn_at_aql),
+                (Amount, "ATI", c.ati.flatten()),
+                (Amount, "cost", c.cost.flatten()),
             ] {
                 if let Some(v) = v {
-                    let cell = format_args!("{name} of the cell AQL {}, RQL {}", c.aql, c.rql);
-                    check_probability(cell, v)?;
-                }
-            }
-            for (name, v) in [
-                ("ASN at the AQL", c.asn_at_aql),
-                ("ATI", c.ati.flatten()),
-                ("cost", c.cost.flatten()),
-            ] {
-                if let Some(v) = v {
-                    let cell = format_args!("{name} of the cell AQL {}, RQL {}", c.aql, c.rql);
-                    check_amount(cell, v)?;
+                    let cell = format_args!(
+                        "{name} of the cell AQL {}, RQL {}",
+                        Short(c.aql),
+                        Short(c.rql)
+                    );
+                    check(kind, cell, v)?;
                 }
             }
         }
@@ -161,19 +185,20 @@ impl RectifyingReport {
     /// # Errors
     /// [`NumericalError`] naming the first number out of its range.
     pub fn check(&self) -> Checked {
+        let quality = Quantity::quality(self.model);
         for p in self.plan.iter().chain(&self.single_plan) {
-            check_probability("Pa at the process average", p.pa)?;
-            check_amount("ATI at the process average", p.ati)?;
-            check_amount("ASN at the process average", p.asn)?;
-            aoql(&p.aoql)?;
-            check_amount("LTPD", p.ltpd)?;
+            check(Probability, "Pa at the process average", p.pa)?;
+            check(Amount, "ATI at the process average", p.ati)?;
+            check(Amount, "ASN at the process average", p.asn)?;
+            aoql(&p.aoql, quality)?;
+            check(quality, "LTPD", p.ltpd)?;
             if let Some(pa) = p.pa_at_ltpd {
-                check_probability("Pa at the agreed LTPD", pa)?;
+                check(Probability, "Pa at the agreed LTPD", pa)?;
             }
         }
         for row in &self.by_acceptance_number {
             if let Some(ati) = row.ati {
-                check_amount(format_args!("ATI of c = {}", row.c), ati)?;
+                check(Amount, format_args!("ATI of c = {}", row.c), ati)?;
             }
         }
         Ok(())
@@ -188,17 +213,17 @@ impl MeasurementJudgement {
     pub fn check(&self) -> Checked {
         for side in self.lower.iter().chain(&self.upper) {
             if let Some(e) = side.estimate {
-                check_probability("estimated fraction beyond a limit", e)?;
+                check(Quantity::Fraction, "estimated fraction beyond a limit", e)?;
             }
         }
         if let Some(e) = self.estimate {
-            check_probability("estimated fraction nonconforming", e)?;
+            check(Quantity::Fraction, "estimated fraction nonconforming", e)?;
         }
         if let Some(ad) = &self.normality {
-            check_probability("Anderson-Darling p-value", ad.p_value)?;
+            check(Probability, "Anderson-Darling p-value", ad.p_value)?;
         }
         if let Some(p) = self.sigma_p_value {
-            check_probability("chi-square p-value of s", p)?;
+            check(Probability, "chi-square p-value of s", p)?;
         }
         Ok(())
     }

@@ -10,12 +10,35 @@ use super::{
     VerificationReport,
 };
 
+use crate::model::ModelKind;
+use crate::numeric::Short;
+
 /// Comma-separated values, for spreadsheets.
 #[derive(Clone, Copy, Debug, Default)]
 pub struct Csv;
 
 fn cell<T: ToString>(v: Option<T>) -> String {
     v.map_or(String::new(), |x| x.to_string())
+}
+
+/// A number in full precision, in scientific form when tiny or huge
+/// ([`Short`]): `1e-310`, not three hundred zeros.
+fn num(x: f64) -> String {
+    Short(x).to_string()
+}
+
+/// An optional number as [`num`] writes it; empty when absent.
+fn opt(v: Option<f64>) -> String {
+    v.map_or(String::new(), num)
+}
+
+/// The head of a column of qualities named `name`: the name alone for a
+/// fraction nonconforming, with `_per_unit` for nonconformities per unit.
+fn quality_column(name: &str, model: ModelKind) -> String {
+    match model {
+        ModelKind::Poisson => format!("{name}_per_unit"),
+        _ => name.to_string(),
+    }
 }
 
 /// Quotes a text cell when it holds a comma, a quote or a line break.
@@ -45,17 +68,35 @@ impl ReportFormat for Csv {
     }
 
     fn evaluation(&self, out: &mut dyn Write, report: &EvaluationReport) -> io::Result<()> {
-        writeln!(out, "quality,pa,aoq,ati,asn,asn_curtailed")?;
+        // Under the hypergeometric model each row carries the lot's D and
+        // the lot quality D/N its measures are at.
+        let lot = report.model == ModelKind::Hypergeometric;
+        writeln!(
+            out,
+            "{}{},pa,{},ati,asn,asn_curtailed",
+            quality_column("quality", report.model),
+            if lot {
+                ",lot_nonconforming,lot_quality"
+            } else {
+                ""
+            },
+            quality_column("aoq", report.model)
+        )?;
         for p in &report.points {
+            let lot_cells = if lot {
+                format!(",{},{}", cell(p.lot_nonconforming), opt(p.lot_quality))
+            } else {
+                String::new()
+            };
             writeln!(
                 out,
-                "{},{},{},{},{},{}",
-                p.quality,
-                p.pa,
-                p.aoq,
-                cell(p.ati),
-                p.asn,
-                cell(p.asn_curtailed)
+                "{}{lot_cells},{},{},{},{},{}",
+                num(p.quality),
+                num(p.pa),
+                num(p.aoq),
+                opt(p.ati),
+                num(p.asn),
+                opt(p.asn_curtailed)
             )?;
         }
         Ok(())
@@ -92,11 +133,14 @@ impl ReportFormat for Csv {
     /// One header for attributes and variables sources alike: a variables
     /// row leaves `asn_curtailed` empty and gives `asn = n` (every lot
     /// measures n units), an attributes row leaves `pa_centred` empty, and
-    /// an invalid source has one row with its `message`.
+    /// an invalid source has one row with its `message`. `quality_unit`
+    /// says what the row's quality and AOQ are (`fraction` or `per_unit`);
+    /// `lot_nonconforming` and `lot_quality` are the lot's D and D/N under
+    /// the hypergeometric model, empty otherwise.
     fn evaluations(&self, out: &mut dyn Write, report: &EvaluationBatchReport) -> io::Result<()> {
         writeln!(
             out,
-            "source,status,quality,pa,pa_centred,aoq,ati,asn,asn_curtailed,message"
+            "source,status,quality,quality_unit,lot_nonconforming,lot_quality,pa,pa_centred,aoq,ati,asn,asn_curtailed,message"
         )?;
         for e in &report.results {
             let lead = format!("{},{}", text(&e.path), e.status.name());
@@ -105,13 +149,16 @@ impl ReportFormat for Csv {
                     for p in &r.points {
                         writeln!(
                             out,
-                            "{lead},{},{},,{},{},{},{},",
-                            p.quality,
-                            p.pa,
-                            p.aoq,
-                            cell(p.ati),
-                            p.asn,
-                            cell(p.asn_curtailed)
+                            "{lead},{},{},{},{},{},,{},{},{},{},",
+                            num(p.quality),
+                            r.model.quality_unit(),
+                            cell(p.lot_nonconforming),
+                            opt(p.lot_quality),
+                            num(p.pa),
+                            num(p.aoq),
+                            opt(p.ati),
+                            num(p.asn),
+                            opt(p.asn_curtailed)
                         )?;
                     }
                 }
@@ -119,19 +166,19 @@ impl ReportFormat for Csv {
                     for p in &r.points {
                         writeln!(
                             out,
-                            "{lead},{},{},{},{},{},{},,",
-                            p.quality,
-                            p.pa,
-                            cell(p.pa_centred),
-                            p.aoq,
-                            cell(p.ati),
+                            "{lead},{},fraction,,,{},{},{},{},{},,",
+                            num(p.quality),
+                            num(p.pa),
+                            opt(p.pa_centred),
+                            num(p.aoq),
+                            opt(p.ati),
                             r.variables.n
                         )?;
                     }
                 }
                 None => writeln!(
                     out,
-                    "{lead},,,,,,,,{}",
+                    "{lead},,,,,,,,,,,{}",
                     text(e.message.as_deref().unwrap_or(""))
                 )?,
             }
@@ -150,12 +197,12 @@ impl ReportFormat for Csv {
             out,
             "{},{},{},{},{},{},{},{},{}",
             v.n,
-            cell(v.k),
-            cell(v.m),
-            cell(range.map(|x| x[0])),
-            cell(range.map(|x| x[1])),
-            r.producer.achieved_risk,
-            r.consumer.achieved_risk,
+            opt(v.k),
+            opt(v.m),
+            opt(range.map(|x| x[0])),
+            opt(range.map(|x| x[1])),
+            num(r.producer.achieved_risk),
+            num(r.consumer.achieved_risk),
             cell(r.attributes_plan.map(|a| a.n)),
             cell(r.attributes_plan.map(|a| a.c))
         )
@@ -171,11 +218,11 @@ impl ReportFormat for Csv {
             writeln!(
                 out,
                 "{},{},{},{},{}",
-                p.quality,
-                p.pa,
-                cell(p.pa_centred),
-                p.aoq,
-                cell(p.ati)
+                num(p.quality),
+                num(p.pa),
+                opt(p.pa_centred),
+                num(p.aoq),
+                opt(p.ati)
             )?;
         }
         Ok(())
@@ -184,7 +231,9 @@ impl ReportFormat for Csv {
     fn tradeoff(&self, out: &mut dyn Write, r: &TradeoffReport) -> io::Result<()> {
         writeln!(
             out,
-            "aql,rql,n,c,asn_at_aql,producer_risk,consumer_risk,stages,pa_at_process,ati,cost,reason"
+            "{},{},n,c,asn_at_aql,producer_risk,consumer_risk,stages,pa_at_process,ati,cost,full_inspection,reason",
+            quality_column("aql", r.model),
+            quality_column("rql", r.model)
         )?;
         for c in &r.cells {
             let stages = c.stages.as_ref().map(|s| {
@@ -195,18 +244,19 @@ impl ReportFormat for Csv {
             });
             writeln!(
                 out,
-                "{},{},{},{},{},{},{},{},{},{},{},{}",
-                c.aql,
-                c.rql,
+                "{},{},{},{},{},{},{},{},{},{},{},{},{}",
+                num(c.aql),
+                num(c.rql),
                 cell(c.n),
                 cell(c.c),
-                cell(c.asn_at_aql),
-                cell(c.producer_risk),
-                cell(c.consumer_risk),
+                opt(c.asn_at_aql),
+                opt(c.producer_risk),
+                opt(c.consumer_risk),
                 cell(stages),
-                cell(c.pa_at_process.flatten()),
-                cell(c.ati.flatten()),
-                cell(c.cost.flatten()),
+                opt(c.pa_at_process.flatten()),
+                opt(c.ati.flatten()),
+                opt(c.cost.flatten()),
+                c.full_inspection,
                 text(c.reason.as_deref().unwrap_or(""))
             )?;
         }

@@ -33,6 +33,7 @@ pub use self::variables::{
 };
 use crate::design::{Alternative, AsnSummary, Scheme, Sensitivity, Solution, WaldApproximation};
 use crate::model::ModelKind;
+use crate::numeric::Short;
 use crate::plan::{Aoql, Evaluation, ItemRun, Measures, SequentialLines, Stage, StagedPlan};
 use crate::risk::RiskPair;
 use crate::source::{Difference, tool_version};
@@ -111,7 +112,8 @@ fn achieved_points(
         if point.near_limit {
             notes.push(format!(
                 "the achieved {side} risk {} lies within 1e-9 of {greek} = {}: the plan meets the point only at the limit of the computation's precision; a plan one step larger keeps a margin",
-                point.achieved_risk, point.risk
+                Short(point.achieved_risk),
+                Short(point.risk)
             ));
         }
     }
@@ -197,6 +199,9 @@ pub struct DesignReport {
     pub scheme: &'static str,
     /// Model name.
     pub model: ModelKind,
+    /// The unit of the qualities: `fraction` or `per_unit`
+    /// ([`ModelKind::quality_unit`]).
+    pub quality_unit: &'static str,
     /// Lot size, `null` when absent.
     pub lot_size: Option<u64>,
     /// The plan (for the formats; JSON carries its stages).
@@ -275,6 +280,7 @@ impl DesignReport {
             title: title.to_string(),
             scheme: r.scheme.name(),
             model: r.model.kind(),
+            quality_unit: r.model.kind().quality_unit(),
             lot_size: r.model.lot_size(),
             plan: d.plan.clone(),
             stages: d.plan.stages().to_vec(),
@@ -312,6 +318,9 @@ impl DesignReport {
 pub struct EvaluationReport {
     /// Model name.
     pub model: ModelKind,
+    /// The unit of the qualities, AOQ and AOQL: `fraction` or `per_unit`
+    /// ([`ModelKind::quality_unit`]).
+    pub quality_unit: &'static str,
     /// Lot size, `null` when absent.
     pub lot_size: Option<u64>,
     /// The plan's stages.
@@ -338,6 +347,7 @@ impl From<&Evaluation> for EvaluationReport {
     fn from(e: &Evaluation) -> Self {
         EvaluationReport {
             model: e.model.kind(),
+            quality_unit: e.model.kind().quality_unit(),
             lot_size: e.model.lot_size(),
             stages: e.plan.stages().to_vec(),
             sequential: e
@@ -400,13 +410,52 @@ pub struct VerificationReport {
     pub every_source: bool,
 }
 
-/// A quality in percent with four significant digits, as reports print it
-/// (`1.000%`, `0.06500%`); nonconformities per unit print as a plain number.
+/// A quality as a report's sentences print it: a fraction nonconforming
+/// in percent with four significant digits (`1.000%`, `0.06500%`);
+/// nonconformities per unit per unit and per 100 units, the unit contracts
+/// often state (`1.5 per unit (150 per 100 units)`).
+///
+/// # Example
+/// ```
+/// use lotsman::format_quality;
+/// assert_eq!(format_quality(0.0065, false), "0.6500%");
+/// assert_eq!(format_quality(1.5, true), "1.5 per unit (150 per 100 units)");
+/// ```
 pub fn format_quality(q: f64, per_unit: bool) -> String {
     if per_unit {
-        return format_significant(q, 4);
+        return format!(
+            "{} per unit ({} per 100 units)",
+            format_short(q, 4),
+            format_short(100.0 * q, 4)
+        );
     }
     format!("{}%", format_significant(q * 100.0, 4))
+}
+
+/// A quality in a table cell, four significant digits: a fraction in
+/// percent as [`format_quality`] prints it; nonconformities per unit as
+/// `1.500 (150.0)`, per unit and, in brackets, per 100 units, under a
+/// column head that names both (`Quality per unit (per 100 units)`).
+pub fn format_quality_cell(q: f64, per_unit: bool) -> String {
+    if per_unit {
+        return format!(
+            "{} ({})",
+            format_significant(q, 4),
+            format_significant(100.0 * q, 4)
+        );
+    }
+    format_quality(q, false)
+}
+
+/// The head of a table column of qualities (or AOQs) named `name`: the
+/// name alone for fractions, which print with their `%`; with both units
+/// for nonconformities ([`format_quality_cell`]).
+pub(crate) fn quality_head(name: &str, per_unit: bool) -> String {
+    if per_unit {
+        format!("{name} per unit (per 100 units)")
+    } else {
+        name.to_string()
+    }
 }
 
 /// [`format_significant`] without trailing zeros: `1.5`, not `1.500`;
@@ -431,7 +480,9 @@ pub fn format_significant(x: f64, digits: usize) -> String {
     }
     let magnitude = x.abs().log10().floor() as i64;
     let decimals = (digits as i64 - 1 - magnitude).max(0) as usize;
-    if magnitude < -6 {
+    // Tiny and huge values in scientific form: a subnormal quality of
+    // 1e-310 or a rate of 1e300 per unit in a few characters, not hundreds.
+    if !(-6..15).contains(&magnitude) {
         return format!("{:.*e}", digits - 1, x);
     }
     format!("{x:.decimals$}")

@@ -12,6 +12,7 @@ use super::table::{grid, plan_headline, write_stage_table};
 use super::{format_quality, format_significant, words};
 use crate::design::{Protection, RectifyingDesign, RectifyingPlan, RectifyingRow};
 use crate::model::{ModelKind, nonconforming_in_lot};
+use crate::numeric::Short;
 use crate::plain::escape_controls;
 use crate::plan::{Aoql, Stage, StagedPlan};
 use crate::source::tool_version;
@@ -79,6 +80,9 @@ pub struct RectifyingReport {
     pub scheme: &'static str,
     /// Model name.
     pub model: ModelKind,
+    /// The unit of the qualities, AOQL and LTPD: `fraction` or `per_unit`
+    /// ([`ModelKind::quality_unit`]).
+    pub quality_unit: &'static str,
     /// The lot size `N`.
     pub lot_size: u64,
     /// The process average.
@@ -169,6 +173,7 @@ impl RectifyingReport {
             title: title.to_string(),
             scheme: r.scheme().name(),
             model: r.model().kind(),
+            quality_unit: r.model().kind().quality_unit(),
             lot_size: lot,
             process_average: r.process_average(),
             protection,
@@ -213,8 +218,9 @@ pub(super) fn write_table(out: &mut dyn Write, r: &RectifyingReport) -> io::Resu
     )?;
     let protection = match r.protection.beta {
         Some(beta) => format!(
-            "LTPD {} with consumer's risk {beta}",
-            q(r.protection.quality)
+            "LTPD {} with consumer's risk {}",
+            q(r.protection.quality),
+            Short(beta)
         ),
         None => format!("AOQL {}", q(r.protection.quality)),
     };

@@ -10,10 +10,11 @@ use super::{
     DesignReport, EvaluationBatchReport, EvaluationReport, PointReport, ReportFormat,
     SequentialReport, SourceEvaluation, TradeoffCellReport, TradeoffReport, VariablesDesignReport,
     VariablesEvaluationReport, VariablesReport, VerificationReport, format_quality,
-    format_significant, variables_rule,
+    format_quality_cell, format_significant, quality_head, variables_rule,
 };
 use crate::design::{Input, Moved};
 use crate::model::ModelKind;
+use crate::numeric::Short;
 use crate::plain::escape_controls;
 use crate::plan::{Stage, StagedPlan};
 
@@ -26,6 +27,11 @@ const RULED: TableStyle = TableStyle::new()
     .top_border(LineStyle::none().fill('─').junction('─'))
     .header_separator(LineStyle::none().fill('─').junction('─'))
     .bottom_border(LineStyle::none().fill('─').junction('─'));
+
+/// Heads of the lot columns of an evaluation under the hypergeometric
+/// model.
+const LOT_D: &str = "D in the lot";
+const LOT_QUALITY: &str = "Lot quality D/N";
 
 /// How many rows of alternatives a terminal table shows.
 const ALTERNATIVE_ROWS: usize = 12;
@@ -113,7 +119,7 @@ fn write_risk_points(
         g.add_row(vec![
             name.to_string(),
             format_quality(p.quality, per_unit),
-            format!("{greek} {}", p.risk),
+            format!("{greek} {}", Short(p.risk)),
             format_significant(p.achieved_risk, 4),
         ]);
     }
@@ -266,26 +272,65 @@ impl ReportFormat for Table {
                 )?
             }
         }
-        let mut g = grid(&["Quality", "Pa", "AOQ", "ATI", "ASN", "ASN curtailed"]);
+        let (quality, aoq) = (
+            quality_head("Quality", per_unit),
+            quality_head("AOQ", per_unit),
+        );
+        // A finite lot holds a whole number D of nonconforming units: each
+        // row says which, and the lot quality D/N its measures are at.
+        let lot = r.points.iter().any(|p| p.lot_nonconforming.is_some());
+        let mut header = vec![quality.as_str()];
+        if lot {
+            header.extend([LOT_D, LOT_QUALITY]);
+        }
+        header.extend(["Pa", &aoq, "ATI", "ASN", "ASN curtailed"]);
+        let mut g = grid(&header);
         for p in &r.points {
-            g.add_row(vec![
-                format_quality(p.quality, per_unit),
+            let mut row = vec![format_quality_cell(p.quality, per_unit)];
+            if lot {
+                row.push(
+                    p.lot_nonconforming
+                        .map_or("-".to_string(), |d| d.to_string()),
+                );
+                row.push(
+                    p.lot_quality
+                        .map_or("-".to_string(), |q| format_quality_cell(q, per_unit)),
+                );
+            }
+            row.extend([
                 format!("{:.4}", p.pa),
-                format_quality(p.aoq, per_unit),
+                format_quality_cell(p.aoq, per_unit),
                 p.ati.map_or("-".to_string(), |v| format!("{v:.1}")),
                 format!("{:.1}", p.asn),
                 p.asn_curtailed
                     .map_or("-".to_string(), |v| format!("{v:.1}")),
             ]);
+            g.add_row(row);
         }
         writeln!(out, "{g}")?;
+        // Both are lot qualities D/N under the hypergeometric model.
+        let with_d = |q: f64| match r.lot_size {
+            Some(n) if lot => format!(
+                "{} (D = {})",
+                format_quality(q, per_unit),
+                crate::model::nonconforming_in_lot(q, n)
+            ),
+            _ => format_quality(q, per_unit),
+        };
         writeln!(
             out,
-            "AOQL {} at quality {}; indifference quality (Pa = 0.5) {}",
+            "AOQL {} at {}quality {}; indifference quality (Pa = 0.5) {}",
             format_quality(r.aoql.value, per_unit),
-            format_quality(r.aoql.quality, per_unit),
-            format_quality(r.indifference_quality, per_unit)
+            if lot { "lot " } else { "" },
+            with_d(r.aoql.quality),
+            with_d(r.indifference_quality)
         )?;
+        if lot {
+            writeln!(
+                out,
+                "A lot of N units holds D = round(p N) nonconforming units: every measure of a row is at its lot quality D/N."
+            )?;
+        }
         if r.lot_size.is_none() {
             writeln!(
                 out,
@@ -454,8 +499,17 @@ impl ReportFormat for Table {
         writeln!(
             out,
             "{} plans, {} model, {lot}; alpha {} and beta {} in every cell",
-            r.scheme, r.model, r.alpha, r.beta
+            r.scheme,
+            r.model,
+            Short(r.alpha),
+            Short(r.beta)
         )?;
+        if per_unit {
+            writeln!(
+                out,
+                "AQL and RQL in nonconformities per unit (per 100 units in brackets)"
+            )?;
+        }
         writeln!(out)?;
         let double = r.criterion.is_some();
         if double {
@@ -471,6 +525,7 @@ impl ReportFormat for Table {
             )?;
         }
         write_matrix(out, r, per_unit, |c| match (c.n, c.c) {
+            _ if c.full_inspection => "100%".to_string(),
             (Some(n), Some(_)) if double => {
                 format!("{:.1} ({n})", c.asn_at_aql.unwrap_or(f64::NAN))
             }
@@ -491,8 +546,23 @@ impl ReportFormat for Table {
                     .map_or("-".to_string(), |v| format!("{v:.2}"))
             })?;
         }
-        let failed: Vec<&TradeoffCellReport> =
-            r.cells.iter().filter(|c| c.reason.is_some()).collect();
+        let whole = r.cells.iter().filter(|c| c.full_inspection).count();
+        if let (true, Some(lot)) = (whole > 0, r.lot_size) {
+            writeln!(
+                out,
+                "- 100% in {whole} of {} cells: their points need a sample larger than the lot of {lot} units, so every unit is inspected (ATI {lot}{})",
+                r.cells.len(),
+                r.cost.as_ref().map_or(String::new(), |k| format!(
+                    ", cost {:.2} per lot",
+                    k.per_unit * lot as f64
+                ))
+            )?;
+        }
+        let failed: Vec<&TradeoffCellReport> = r
+            .cells
+            .iter()
+            .filter(|c| c.reason.is_some() && !c.full_inspection)
+            .collect();
         if let Some(first) = failed.first() {
             writeln!(
                 out,
@@ -524,8 +594,14 @@ fn write_sensitivity(out: &mut dyn Write, r: &DesignReport, per_unit: bool) -> i
     writeln!(out)?;
     writeln!(
         out,
-        "What one step of each input does to the single plan (n = {}, c = {}), the other three as agreed",
-        r.single_plan.n, r.single_plan.c
+        "What one step of each input does to the single plan (n = {}, c = {}), the other three as agreed{}",
+        r.single_plan.n,
+        r.single_plan.c,
+        if per_unit {
+            " (AQL and RQL per unit, per 100 units in brackets)"
+        } else {
+            ""
+        }
     )?;
     let mut g = grid(&[
         "Input",
@@ -540,7 +616,8 @@ fn write_sensitivity(out: &mut dyn Write, r: &DesignReport, per_unit: bool) -> i
     // written, with no padding digits.
     let decimal = |v: f64| format!("{}", format!("{v:.11e}").parse::<f64>().unwrap_or(v));
     let value = |input: Input, v: f64| match input {
-        Input::Aql | Input::Rql if !per_unit => format!("{}%", decimal(100.0 * v)),
+        Input::Aql | Input::Rql if per_unit => format!("{} ({})", decimal(v), decimal(100.0 * v)),
+        Input::Aql | Input::Rql => format!("{}%", decimal(100.0 * v)),
         _ => decimal(v),
     };
     let n = |m: &Moved| match (m.n, m.change) {
@@ -596,7 +673,7 @@ fn write_matrix(
         header.extend(
             r.rql[first..last]
                 .iter()
-                .map(|&q| format_quality(q, per_unit)),
+                .map(|&q| format_quality_cell(q, per_unit)),
         );
         let mut g = Grid::new();
         g.load_style(RULED)
@@ -608,7 +685,7 @@ fn write_matrix(
             }
         }
         for (i, &aql) in r.aql.iter().enumerate() {
-            let mut row = vec![format_quality(aql, per_unit)];
+            let mut row = vec![format_quality_cell(aql, per_unit)];
             row.extend((first..last).map(|j| text(r.cell(i, j))));
             g.add_row(row);
         }

@@ -47,6 +47,11 @@ pub struct TradeoffCellReport {
     /// With a cost: cost per unit times `ati`.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub cost: Option<Option<f64>>,
+    /// Whether the cell's answer is 100% inspection: its points need a
+    /// sample larger than the lot. `n` and `asn_at_aql` are then the lot
+    /// size (every unit is inspected), `ati` too and `cost` the cost of
+    /// inspecting the whole lot; `reason` says why.
+    pub full_inspection: bool,
     /// Why the cell has no plan; `null` when it has one.
     pub reason: Option<String>,
 }
@@ -60,6 +65,9 @@ pub struct TradeoffReport {
     pub scheme: &'static str,
     /// Model name.
     pub model: ModelKind,
+    /// The unit of the AQL and RQL values: `fraction` or `per_unit`
+    /// ([`ModelKind::quality_unit`]).
+    pub quality_unit: &'static str,
     /// Lot size, `null` when absent.
     pub lot_size: Option<u64>,
     /// The producer's risk of every cell.
@@ -94,18 +102,21 @@ impl TradeoffReport {
                 let costed = |f: fn(&crate::design::CellCost) -> f64| {
                     priced.then(|| plan.and_then(|p| p.cost.as_ref()).map(f))
                 };
+                let whole = cell.full_inspection();
+                let lot = whole.map(|n| n as f64);
                 TradeoffCellReport {
                     aql: cell.aql,
                     rql: cell.rql,
-                    n: plan.map(|p| p.n()),
+                    n: plan.map(|p| p.n()).or(whole),
                     c: plan.map(|p| p.c()),
                     stages: plan.filter(|_| double).map(|p| p.plan.stages().to_vec()),
-                    asn_at_aql: plan.map(|p| p.asn_at_aql),
+                    asn_at_aql: plan.map(|p| p.asn_at_aql).or(lot),
                     producer_risk: plan.map(|p| p.producer_risk),
                     consumer_risk: plan.map(|p| p.consumer_risk),
                     pa_at_process: costed(|c| c.pa),
-                    ati: costed(|c| c.ati),
-                    cost: costed(|c| c.cost),
+                    ati: costed(|c| c.ati).map(|v| v.or(lot)),
+                    cost: costed(|c| c.cost).map(|v| v.or(grid.full_inspection_cost(cell))),
+                    full_inspection: whole.is_some(),
                     reason: cell.outcome.as_ref().err().map(|e| e.to_string()),
                 }
             })
@@ -114,6 +125,7 @@ impl TradeoffReport {
             title: title.map(str::to_string),
             scheme: r.scheme().name(),
             model: r.model().kind(),
+            quality_unit: r.model().kind().quality_unit(),
             lot_size: r.model().lot_size(),
             alpha: r.alpha(),
             beta: r.beta(),

@@ -33,11 +33,13 @@ use crate::atomic::{Overwrite, write_atomic};
 use crate::design::{Protection, RectifyingPlan, RectifyingRequest, design_single};
 use crate::error::{Error, InputError};
 use crate::model::{Model, ModelKind};
-use crate::numeric::{NumericalError, check_amount, check_probability};
+use crate::numeric::Quantity::{Amount, Probability};
+use crate::numeric::{NumericalError, Quantity, Short, check};
 use crate::plan::{
-    Evaluation, SequentialLines, StagedPlan, aoql, evaluate, largest_asn, measures, quality_at_pa,
+    Evaluation, Measures, SequentialLines, StagedPlan, aoql, evaluate, largest_asn, measures,
+    quality_at_pa,
 };
-use crate::report::{EvaluationReport, format_quality, format_significant, words};
+use crate::report::{EvaluationReport, format_quality, format_short, format_significant, words};
 use crate::risk::RiskPair;
 use crate::source::{
     Audited, Discrepancy, PlanSource, RecordedPlan, attributes_risks, tool_version,
@@ -185,9 +187,18 @@ impl<'a> Common<'a> {
         })
     }
 
-    /// A quality as the sheet prints it (percent, or per unit for Poisson).
+    /// A quality as the sheet prints it: percent; for nonconformities per
+    /// unit the number per unit, with the number per 100 units in brackets
+    /// (`1.5 (150 per 100)`; heads and axes say "per unit").
     fn q(&self, v: f64) -> String {
-        format_quality(v, self.per_unit)
+        if self.per_unit {
+            return format!(
+                "{} ({} per 100)",
+                format_short(v, 4),
+                format_short(100.0 * v, 4)
+            );
+        }
+        format_quality(v, false)
     }
 }
 
@@ -271,9 +282,22 @@ fn curve_points(f: &Facts) -> Result<(f64, Vec<CurvePoint>), NumericalError> {
         // range stops the sheet rather than bend a curve.
         .map(|p| {
             let m = measures(&f.plan, &f.model, p);
-            check_probability(format_args!("Pa at quality {p} on the OC curve"), m.pa)?;
-            check_probability(format_args!("AOQ at quality {p} on the AOQ curve"), m.aoq)?;
-            check_amount(format_args!("ASN at quality {p} on the ASN curve"), m.asn)?;
+            let (p_short, quality) = (Short(p), Quantity::quality(f.model.kind()));
+            check(
+                Probability,
+                format_args!("Pa at quality {p_short} on the OC curve"),
+                m.pa,
+            )?;
+            check(
+                quality,
+                format_args!("AOQ at quality {p_short} on the AOQ curve"),
+                m.aoq,
+            )?;
+            check(
+                Amount,
+                format_args!("ASN at quality {p_short} on the ASN curve"),
+                m.asn,
+            )?;
             Ok(CurvePoint {
                 p,
                 pa: m.pa,
@@ -1817,7 +1841,7 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
         (
             text::PRODUCER_POINT,
             f.q(producer.quality),
-            format!("α ≤ {}", producer.risk),
+            format!("α ≤ {}", Short(producer.risk)),
             format!(
                 "α = {}  (Pa = {:.4})",
                 format_significant(alpha, 3),
@@ -1827,7 +1851,7 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
         (
             text::CONSUMER_POINT,
             f.q(consumer.quality),
-            format!("β ≤ {}", consumer.risk),
+            format!("β ≤ {}", Short(consumer.risk)),
             format!("β = {}  (Pa = {:.4})", format_significant(beta, 3), beta),
         ),
     ];
@@ -1979,7 +2003,69 @@ fn measures_height(evaluation: &Evaluation, pitch: f64) -> f64 {
     8.0 + pitch * (evaluation.points.len() as f64 + 1.0)
 }
 
-/// The measures table: Pa, AOQ, ATI and ASN at the default qualities.
+/// One column of the measures table: its head and its cells.
+struct MeasureColumn {
+    head: &'static str,
+    cells: Vec<String>,
+}
+
+/// The columns of the measures table of `evaluation`: the quality asked
+/// (for nonconformities per unit, per unit and per 100 units); under the
+/// hypergeometric model the lot's `D` and `D / N`, at which every measure
+/// is computed; then Pa, AOQ (per unit and per 100 units for
+/// nonconformities), ATI and ASN.
+fn measure_columns(f: &Facts, evaluation: &Evaluation) -> Vec<MeasureColumn> {
+    let per_unit = f.common.per_unit;
+    let points = &evaluation.points;
+    let column = |head: &'static str, cell: &dyn Fn(&Measures) -> String| MeasureColumn {
+        head,
+        cells: points.iter().map(cell).collect(),
+    };
+    let short = |v: f64| format_short(v, 4);
+    let percent = |v: f64| format!("{:.4}%", v * 100.0);
+    let mut columns = Vec::new();
+    if per_unit {
+        columns.push(column(text::PER_UNIT, &|m| short(m.quality)));
+        columns.push(column(text::PER_100_UNITS, &|m| short(100.0 * m.quality)));
+    } else {
+        columns.push(column(text::MEASURE_HEADS[0], &|m| f.common.q(m.quality)));
+    }
+    if points.iter().any(|m| m.lot_nonconforming.is_some()) {
+        columns.push(column(text::LOT_D, &|m| {
+            m.lot_nonconforming
+                .map_or(text::NOT_GIVEN.to_string(), |d| d.to_string())
+        }));
+        columns.push(column(text::LOT_QUALITY, &|m| {
+            m.lot_quality
+                .map_or(text::NOT_GIVEN.to_string(), |q| f.common.q(q))
+        }));
+    }
+    columns.push(column(text::MEASURE_HEADS[1], &|m| format!("{:.4}", m.pa)));
+    if per_unit {
+        columns.push(column(text::AOQ_PER_UNIT, &|m| short(m.aoq)));
+        columns.push(column(text::AOQ_PER_100_UNITS, &|m| short(100.0 * m.aoq)));
+    } else {
+        columns.push(column(text::MEASURE_HEADS[2], &|m| percent(m.aoq)));
+    }
+    columns.push(column(text::MEASURE_HEADS[3], &|m| {
+        m.ati
+            .map_or(text::NOT_GIVEN.to_string(), |v| format!("{v:.0}"))
+    }));
+    let single = f.plan.as_single().is_some();
+    columns.push(column(text::MEASURE_HEADS[4], &|m| {
+        if single {
+            format!("{:.0}", m.asn)
+        } else {
+            format!("{:.1}", m.asn)
+        }
+    }));
+    columns
+}
+
+/// The measures table: Pa, AOQ, ATI and ASN at the default qualities, in
+/// the columns of [`measure_columns`]. The first column is left-aligned,
+/// the others right-aligned; each is as wide as its widest text, and the
+/// room left over is shared between the gaps.
 fn measures_table(
     c: &mut Canvas,
     f: &Facts,
@@ -1989,16 +2075,80 @@ fn measures_table(
     table_w: f64,
     table_h: f64,
 ) {
+    const SIZE: f64 = 7.0;
     let black = || grey(0.0);
     c.claim("measures", left, top - table_h, table_w, table_h);
     c.heading(left, top - 3.5, text::MEASURES);
-    let tcols = [left + 24.0, left + 46.0, left + 72.0, left + 96.0];
-    let heads = text::MEASURE_HEADS;
+    let columns = measure_columns(f, evaluation);
+    let widths: Vec<f64> = columns
+        .iter()
+        .map(|col| {
+            col.cells
+                .iter()
+                .map(|t| c.width(t, Face::Regular, SIZE))
+                .fold(c.width(col.head, Face::Bold, SIZE), f64::max)
+        })
+        .collect();
+    // The rule ends 10 mm short of the table's width, as the rows do.
+    let inner = table_w - 11.0;
+    let gap = ((inner - widths.iter().sum::<f64>()) / (columns.len() - 1) as f64).min(8.0);
     let pitch = (table_h - 8.0) / (evaluation.points.len() as f64 + 1.0);
     let ty = |i: usize| top - 8.0 - pitch * i as f64;
-    c.text(left + 1.0, ty(0), heads[0], Face::Bold, 7.0, black());
-    for (j, h) in heads[1..].iter().enumerate() {
-        c.text_right(tcols[j], ty(0), h, Face::Bold, 7.0, black());
+    let mut x = left + 1.0;
+    for (k, (col, &w)) in columns.iter().zip(&widths).enumerate() {
+        if k == 0 {
+            c.cell(
+                "measures table",
+                x,
+                w,
+                ty(0),
+                col.head,
+                Face::Bold,
+                SIZE,
+                black(),
+            );
+        } else {
+            c.cell_right(
+                "measures table",
+                x + w,
+                w,
+                ty(0),
+                col.head,
+                Face::Bold,
+                SIZE,
+                black(),
+            );
+        }
+        for (i, cell) in col.cells.iter().enumerate() {
+            if k == 0 {
+                c.cell(
+                    "measures table",
+                    x,
+                    w,
+                    ty(i + 1),
+                    cell,
+                    Face::Regular,
+                    SIZE,
+                    black(),
+                );
+            } else {
+                c.cell_right(
+                    "measures table",
+                    x + w,
+                    w,
+                    ty(i + 1),
+                    cell,
+                    Face::Regular,
+                    SIZE,
+                    black(),
+                );
+            }
+        }
+        x += w + gap;
+    }
+    if x - gap > left + 1.0 + inner + 1e-6 {
+        c.faults
+            .push("measures table: its columns are wider than the table".to_string());
     }
     c.line(
         &[(left, ty(0) - 1.3), (left + table_w - 10.0, ty(0) - 1.3)],
@@ -2006,46 +2156,6 @@ fn measures_table(
         black(),
         None,
     );
-    for (i, m) in evaluation.points.iter().enumerate() {
-        let y = ty(i + 1);
-        c.cell(
-            "measures table",
-            left + 1.0,
-            22.0,
-            y,
-            &f.common.q(m.quality),
-            Face::Regular,
-            7.0,
-            black(),
-        );
-        let cells = [
-            format!("{:.4}", m.pa),
-            if f.common.per_unit {
-                format!("{:.5}", m.aoq)
-            } else {
-                format!("{:.4}%", m.aoq * 100.0)
-            },
-            m.ati
-                .map_or(text::NOT_GIVEN.to_string(), |v| format!("{v:.0}")),
-            if f.plan.as_single().is_some() {
-                format!("{:.0}", m.asn)
-            } else {
-                format!("{:.1}", m.asn)
-            },
-        ];
-        for (j, cell) in cells.iter().enumerate() {
-            c.cell_right(
-                "measures table",
-                tcols[j],
-                20.0,
-                y,
-                cell,
-                Face::Regular,
-                7.0,
-                black(),
-            );
-        }
-    }
 }
 
 /// The signature block: who prepared and who approved the plan, with lines

@@ -50,7 +50,7 @@ pub const CONSUMER_POINT: &str = "Consumer's point (RQL, p₂)";
 /// The head of a column of qualities.
 pub fn quality_head(per_unit: bool) -> &'static str {
     if per_unit {
-        "Quality (per unit)"
+        "Quality per unit"
     } else {
         "Quality"
     }
@@ -86,6 +86,19 @@ pub const AOQ_AXIS: &str = "AOQ";
 /// Heading and column heads of the measures table.
 pub const MEASURES: &str = "WHAT THE PLAN DOES AT OTHER QUALITIES";
 pub const MEASURE_HEADS: [&str; 5] = ["Quality", "Pa", "AOQ", "ATI", "ASN"];
+
+/// Heads of the measures table's columns of nonconformities: the quality
+/// and the AOQ per unit and per 100 units.
+pub const PER_UNIT: &str = "Per unit";
+pub const PER_100_UNITS: &str = "Per 100 units";
+pub const AOQ_PER_UNIT: &str = "AOQ per unit";
+pub const AOQ_PER_100_UNITS: &str = "per 100 units";
+
+/// Heads of the measures table's lot columns (hypergeometric model): the
+/// nonconforming units a lot of the asked quality holds, and the lot
+/// quality `D / N` every measure of the row is computed at.
+pub const LOT_D: &str = "D in the lot";
+pub const LOT_QUALITY: &str = "Lot quality D/N";
 
 /// The signature block.
 pub const PREPARED_BY: &str = "Prepared by";

@@ -31,7 +31,7 @@ use super::{
 use crate::design::{SingleDesign, design_single};
 use crate::error::Error;
 use crate::model::Model;
-use crate::numeric::{NumericalError, check_probability};
+use crate::numeric::{NumericalError, Quantity, Short, check};
 use crate::plan::{VariablesPlan, measures, quality_at_pa};
 use crate::report::words::CAUTION;
 use crate::source::{PlanSource, variables_risks};
@@ -105,7 +105,7 @@ impl<'a> Facts<'a> {
         file_name: &'a str,
     ) -> Result<Self, Error> {
         let request = source.variables_request()?;
-        let plan = source.recorded_variables_plan(request.spec())?;
+        let plan = source.recorded_variables_plan(&request)?;
         let scheme = words::scheme(request.spec().sigma_kind());
         let agreement = super::Agreement::Points {
             risks: *request.risks(),
@@ -704,7 +704,11 @@ fn oc_chart(
         ("attributes OC", &attributes_curve),
     ] {
         for &(p, pa) in curve.iter() {
-            check_probability(format_args!("Pa at quality {p} on the {name} curve"), pa)?;
+            check(
+                Quantity::Probability,
+                format_args!("Pa at quality {} on the {name} curve", Short(p)),
+                pa,
+            )?;
         }
     }
     let axis = quality_tick(false);

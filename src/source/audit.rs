@@ -183,9 +183,7 @@ pub fn audit(source: &PlanSource, path: &Path) -> Result<Audit, Error> {
     }
     let (risks, achieved, per_unit) = if source.is_variables() {
         let request = source.variables_request().map_err(invalid)?;
-        let plan = source
-            .recorded_variables_plan(request.spec())
-            .map_err(invalid)?;
+        let plan = source.recorded_variables_plan(&request).map_err(invalid)?;
         (
             *request.risks(),
             variables_risks(&plan, request.risks()),
@@ -342,7 +340,5 @@ pub(crate) fn attributes_risks(plan: &StagedPlan, model: &Model, risks: &RiskPai
 /// each in the configuration that is worse for that party (as the designer
 /// holds them).
 pub(crate) fn variables_risks(plan: &VariablesPlan, risks: &RiskPair) -> (f64, f64) {
-    let (at_aql, _) = plan.pa_bounds(risks.producer().quality);
-    let (_, at_rql) = plan.pa_bounds(risks.consumer().quality);
-    (1.0 - at_aql, at_rql)
+    plan.achieved_risks(risks.producer().quality, risks.consumer().quality)
 }

@@ -366,20 +366,23 @@ impl PlanSource {
         let request = audited.source.variables_request().map_err(invalid)?;
         let plan = audited
             .source
-            .recorded_variables_plan(request.spec())
+            .recorded_variables_plan(&request)
             .map_err(invalid)?;
         Ok((audited, request, plan))
     }
 
-    /// The recorded variables plan, validated for `spec`.
+    /// The recorded variables plan, validated for the request's
+    /// specification and lot.
     ///
     /// # Errors
     /// [`InputError`] when the source records no variables plan, gives `k`
-    /// where `m` belongs (or the reverse), or an invalid `n` or constant.
+    /// where `m` belongs (or the reverse), an invalid `n` or constant, or
+    /// an `n` larger than the lot ([`Model::check_sample`]).
     pub fn recorded_variables_plan(
         &self,
-        spec: &Specification,
+        request: &VariablesRequest,
     ) -> Result<VariablesPlan, InputError> {
+        let spec = request.spec();
         let plan = self.plan.as_ref().ok_or_else(not_solved)?;
         let recorded = plan
             .variables
@@ -388,9 +391,7 @@ impl PlanSource {
                 why: "the recorded plan is not a variables plan (plan: variables: with n, and k or m)"
                     .to_string(),
             })?;
-        if let Some(plan) = &self.plan {
-            self.check_recorded_figures(plan)?;
-        }
+        self.check_recorded_figures(plan)?;
         let two = spec.limit() == crate::plan::LimitKind::Both;
         let constant = match (recorded.k, recorded.m, two) {
             (Some(k), None, false) => k,
@@ -408,6 +409,9 @@ impl PlanSource {
                 )));
             }
         };
+        request
+            .model()
+            .check_sample("the recorded plan's sample size n", recorded.n)?;
         VariablesPlan::new(*spec, recorded.n, constant)
     }
 

@@ -4,7 +4,7 @@
 use serde::Serialize;
 
 use super::{PlanSource, RecordedPlan, RecordedVariables};
-use crate::design::{RectifyingPlan, design_for, design_rectifying, design_variables};
+use crate::design::{RectifyingPlan, design_for, design_rectifying};
 use crate::error::Error;
 use crate::plan::{SequentialLines, Stage};
 
@@ -146,7 +146,7 @@ fn verify_rectifying(source: &PlanSource) -> Result<Verdict, Error> {
 fn verify_variables(source: &PlanSource) -> Result<Verdict, Error> {
     let request = source.variables_request()?;
     let recorded = source.plan.as_ref().ok_or_else(super::not_solved)?;
-    let design = design_variables(request.spec(), request.risks())?;
+    let design = request.design()?;
     let plan = &design.plan;
     let resolved = RecordedVariables {
         n: plan.n(),

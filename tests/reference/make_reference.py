@@ -389,6 +389,50 @@ class DesignProblem:
                     n_mins=n_mins, ties=scored)
 
 
+class TailDesignProblem(DesignProblem):
+    """A design problem whose every test is on its own tail at 50 digits.
+
+    DesignProblem tests the producer's point as Pa >= 1 - alpha in double
+    precision, where 1 - alpha rounds to 1 for a risk below about 1e-16.
+    Here the producer's point is P(X > c) <= alpha and the consumer's
+    P(X <= c) <= beta, both with mpmath, so risks of 5e-17 and 1e-30 are
+    met as such (issue 14, item 4). The search itself (n_min by galloping
+    and bisection, the scan over c, the tie rule) is DesignProblem's.
+    """
+
+    def _tails(self, n, c, p):
+        return mp_tails(self.model, n, c, p, self.lot_size)
+
+    def pa1(self, n, c):
+        return self._tails(n, c, self.p1)[0]
+
+    def pa2(self, n, c):
+        return self._tails(n, c, self.p2)[0]
+
+    def producer_risk(self, n, c):
+        return self._tails(n, c, self.p1)[1]
+
+    def producer_ok(self, n, c):
+        return self.producer_risk(n, c) <= mpf(self.alpha)
+
+    def consumer_ok(self, n, c):
+        return self.pa2(n, c) <= mpf(self.beta)
+
+
+def extreme_design_row(model, p1, alpha, p2, beta, lot):
+    """The smallest single plan for risks far below 1e-16, by
+    TailDesignProblem, with its achieved risks at 50 digits, and a check
+    that one unit less meets no acceptance number."""
+    prob = TailDesignProblem(model, p1, alpha, p2, beta, lot)
+    res = prob.solve()
+    n, c = res["n"], res["c"]
+    cs = range(4 * n + 50) if model == POI else range(n - 1)
+    assert not any(prob.producer_ok(n - 1, k) and prob.consumer_ok(n - 1, k) for k in cs)
+    return dict(model=model, p1=p1, alpha=alpha, p2=p2, beta=beta, lot_size=lot, n=n, c=c,
+                producer_risk=to_float(res["producer_risk"]),
+                consumer_risk=to_float(res["consumer_risk"]))
+
+
 def naive_design(prob: DesignProblem, n_limit: int):
     """Reference-of-the-reference: scan every n = 1.. and every c = 0..n-1.
 
@@ -497,9 +541,17 @@ def mp_asn_curtailed(model, n, c, p, lot_size=None):
 
 
 def measures_row(model, n, c, lot_size, p):
-    """pa, AOQ, ATI, ASN and curtailed ASN of plan (n, c) at quality p."""
+    """pa, AOQ, ATI, ASN and curtailed ASN of plan (n, c) at quality p.
+
+    A finite lot (hypergeometric) holds D = round(p N) nonconforming units,
+    so its quality is D/N: every measure, the AOQ's quality factor
+    included, is taken there, and the row gives D and D/N beside p (issue
+    14, item 2: a quality as typed in the AOQ made two qualities of one lot
+    differ, and an AOQ exceed the AOQL).
+    """
     cdf, sf = mp_tails(model, n, c, p, lot_size)
-    P = mpf(p)
+    lot_d = lot_defectives(p, lot_size) if model == HYP else None
+    P = mpf(p) if lot_d is None else mpf(lot_d) / lot_size
     if lot_size is None:
         aoq, ati = cdf * P, None
     else:
@@ -507,6 +559,8 @@ def measures_row(model, n, c, lot_size, p):
         ati = n + sf * (lot_size - n)  # n + (1 - pa)(N - n), 1 - pa taken as sf
     asn_c = mp_asn_curtailed(model, n, c, p, lot_size)
     return dict(model=model, n=n, c=c, lot_size=lot_size, p=p,
+                lot_nonconforming=lot_d,
+                lot_quality=None if lot_d is None else to_float(P),
                 pa=to_float(cdf), aoq=to_float(aoq),
                 ati=None if ati is None else to_float(ati), asn=n,
                 asn_curtailed=None if asn_c is None else to_float(asn_c))
@@ -784,7 +838,27 @@ MEASURE_CASES = (
     + [(HYP, 13, 0, 500, 0.05), (HYP, 125, 3, 2000, 0.02), (HYP, 48, 1, 50, 0.04),
        (HYP, 49, 2, 50, 0.9), (HYP, 80, 2, 1000, 0.0005), (HYP, 200, 5, 100000, 0.01),
        (HYP, 10, 2, 50, 0.03), (HYP, 10, 0, 50, 0.01)]
+    # Issue 14, item 2: 2.29% to 2.33% in a lot of 2000 (D = 46, 46, 46, 46,
+    # 47); item 8: the AQL 0.65% in a lot of 300 (D = 2, D/N = 0.6667%).
+    + [(HYP, 125, 3, 2000, p) for p in (0.0229, 0.023, 0.0231, 0.0232, 0.0233)]
+    + [(HYP, 94, 2, 300, 0.0065), (HYP, 94, 2, 300, 0.018027756377319945)]
 )
+
+# Risks at the end of double precision (issue 14, item 4): 1 - alpha
+# rounds to 1 below about 1e-16. (binomial, 1%, 5e-17; 99%, 0.10) is n = 9,
+# c = 8 by hand: P(X = 9) = 0.01^9 = 1e-18 <= 5e-17, while n = 8, c = 7
+# gives 1e-16.
+EXTREME_DESIGN_CASES = [
+    (BIN, 0.01, 5e-17, 0.99, 0.10, None),
+    (BIN, 0.01, 1e-30, 0.99, 1e-30, None),
+    (BIN, 0.01, 1e-30, 0.90, 1e-30, None),
+    (BIN, 0.05, 1e-30, 0.95, 1e-30, None),
+    (BIN, 0.01, 1e-30, 0.50, 1e-30, None),
+    (POI, 0.1, 1e-30, 2.0, 1e-30, None),
+    (POI, 0.01, 5e-17, 1.5, 0.10, None),
+    (HYP, 0.05, 1e-30, 0.5, 1e-30, 1000),
+    (HYP, 0.05, 5e-17, 0.3, 0.10, 200),
+]
 
 # (model, n, c, lot_size)
 AOQL_CASES = [
@@ -792,7 +866,7 @@ AOQL_CASES = [
     (BIN, 1000, 10, None), (BIN, 2000000, 220, None),
     (POI, 50, 1, None), (POI, 125, 3, 2000), (POI, 13, 0, None), (POI, 1000, 10, None),
     (HYP, 10, 1, 50), (HYP, 13, 0, 500), (HYP, 125, 3, 2000), (HYP, 200, 4, 10000),
-    (HYP, 48, 1, 50),
+    (HYP, 48, 1, 50), (HYP, 94, 2, 300),
 ]
 
 INDIFFERENCE_CASES = [
@@ -907,6 +981,7 @@ def build_fixture(notes, margins):
         "indifference": [dict(model=m, n=n, c=c, lot_size=L, quality=mp_indifference(m, n, c, L))
                          for m, n, c, L in INDIFFERENCE_CASES],
         "poisson_unity": [poisson_unity_row(c, 0.05, 0.10) for c in range(16)],
+        "extreme_designs": [extreme_design_row(*case) for case in EXTREME_DESIGN_CASES],
     }
 
 

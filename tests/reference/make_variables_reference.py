@@ -968,6 +968,29 @@ def _design_rows(point):
     return rows, notes, cache
 
 
+#: Risks at the end of double precision (issue 14, item 4), sigma known,
+#: one limit: 1 - alpha rounds to 1 in double precision below about 1e-16,
+#: and the interval of k here is taken from the upper quantiles at 50 digits.
+EXTREME_POINTS = (
+    (0.01, 5e-17, 0.10, 0.10),
+    (0.01, 1e-30, 0.10, 1e-30),
+    (0.001, 1e-30, 0.01, 5e-17),
+)
+
+
+def build_extreme_designs(notes):
+    """Sigma-known, one-limit designs for EXTREME_POINTS: the exact smallest
+    n and the interval of k at it (design_known_one, at 50 digits)."""
+    rows = []
+    for p1, alpha, p2, beta in EXTREME_POINTS:
+        n, (lo, hi) = design_known_one(p1, alpha, p2, beta, notes)
+        rows.append(dict(kind=KNOWN_ONE, p1=p1, alpha=alpha, p2=p2, beta=beta, n=n,
+                         range=_interval(lo, hi), near_tie=_rel_width(lo, hi) < NEAR_TIE,
+                         half_width=None, n_approx=None, n_known=None, range_one=None,
+                         range_centred=None, binding=None))
+    return rows
+
+
 def build_designs(notes, cache, results):
     """Assemble the design rows from _design_rows(point) for every point."""
     rows = []
@@ -1203,7 +1226,8 @@ def build_fixture(notes, timings):
     for name, fn in (("oc", lambda: build_oc(cache)),
                      ("split_check", lambda: build_split(notes, cache)),
                      ("mvu", build_mvu),
-                     ("anderson", lambda: build_anderson(notes))):
+                     ("anderson", lambda: build_anderson(notes)),
+                     ("extreme_designs", lambda: build_extreme_designs(notes))):
         t = time.perf_counter()
         out[name] = fn()
         timings[name] = time.perf_counter() - t

@@ -29,6 +29,9 @@ pub enum Gap {
     /// No plan meets both points (a finite lot too small to tell them
     /// apart, or no double plan of the family).
     NoPlan,
+    /// 100% inspection: the points need a sample larger than the lot. In
+    /// a cost panel such a cell has a value, the cost of the whole lot.
+    WholeLot,
 }
 
 /// A panel's values, row-major like the grid (rows are AQL values).
@@ -60,6 +63,14 @@ impl Field {
                     }
                 }
                 Err(_) if cell.aql >= cell.rql => Err(Gap::NotBelow),
+                Err(DesignError::WholeLot { .. }) => match quantity {
+                    // Every unit inspected: the cost of the whole lot.
+                    MapQuantity::CostPerLot => grid
+                        .full_inspection_cost(cell)
+                        .filter(|v| v.is_finite() && *v > 0.0)
+                        .ok_or(Gap::WholeLot),
+                    _ => Err(Gap::WholeLot),
+                },
                 Err(DesignError::BeyondCap { .. }) => Err(Gap::BeyondCap),
                 Err(DesignError::NoPlan { .. } | DesignError::NoRectifyingPlan { .. }) => {
                     Err(Gap::NoPlan)

@@ -179,12 +179,14 @@ enum Paint {
     Gap(Gap),
 }
 
-/// The fill of a cell without a plan: mid grey where the AQL is not below
-/// the RQL (nothing to negotiate there), white under hatching for the
-/// other reasons.
+/// The fill of a cell without a plan: light grey where the AQL is not
+/// below the RQL (nothing to negotiate there), dark grey where the answer
+/// is 100% inspection (the points need more units than the lot holds),
+/// white under hatching for the other reasons.
 fn gap_fill(g: Gap) -> Color {
     match g {
         Gap::NotBelow => grey(0.78),
+        Gap::WholeLot => grey(0.45),
         Gap::BeyondCap | Gap::NoPlan => grey(1.0),
     }
 }
@@ -193,7 +195,7 @@ fn gap_fill(g: Gap) -> Color {
 /// ones when no plan meets both points, none for an AQL not below the RQL.
 fn hatch_direction(g: Gap) -> Option<f64> {
     match g {
-        Gap::NotBelow => None,
+        Gap::NotBelow | Gap::WholeLot => None,
         Gap::BeyondCap => Some(1.0),
         Gap::NoPlan => Some(-1.0),
     }

@@ -4,6 +4,7 @@
 
 use crate::design::{Criterion, Scheme};
 use crate::model::ModelKind;
+use crate::numeric::Short;
 use crate::report::format_short;
 
 use super::field::{Gap, MapQuantity};
@@ -12,16 +13,24 @@ use super::field::{Gap, MapQuantity};
 pub const KICKER: &str =
     "TRADE-OFF MAP OF RISK POINTS  ·  A NEGOTIATION AID, NOT AN INSPECTION PLAN";
 
-/// A quality as the map prints it: percent (or per unit for the Poisson
-/// model) with at most four significant digits and no trailing zeros.
+/// A quality as the map prints it, with at most four significant digits
+/// and no trailing zeros: percent, or for the Poisson model per unit with
+/// the number per 100 units in brackets (`0.5 (50 per 100)`), as the sheet
+/// prints it.
 pub fn quality(q: f64, per_unit: bool) -> String {
-    let (v, suffix) = if per_unit { (q, "") } else { (q * 100.0, "%") };
-    format!("{}{suffix}", format_short(v, 4))
+    if per_unit {
+        return format!(
+            "{} ({} per 100)",
+            format_short(q, 4),
+            format_short(100.0 * q, 4)
+        );
+    }
+    format!("{}%", format_short(q * 100.0, 4))
 }
 
 /// A risk or a cost as given: the shortest decimal that reads back as it.
 pub fn number(v: f64) -> String {
-    format!("{v}")
+    Short(v).to_string()
 }
 
 /// The scheme field.
@@ -157,6 +166,7 @@ pub fn gap(g: Gap) -> &'static str {
         Gap::NotBelow => "No plan: the AQL is not below the RQL",
         Gap::BeyondCap => "No plan: the points are too close for the designer's limits",
         Gap::NoPlan => "No plan meets both points (for example, the lot is too small)",
+        Gap::WholeLot => "100% inspection: the points need a larger sample than the lot",
     }
 }
 
