@@ -433,7 +433,13 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
                 .title
                 .as_deref()
                 .unwrap_or("Trade-off of the risk points");
-            render_tradeoff_map(&grid, title, Some(&command_line()), paper_from(args.paper))?.pdf
+            render_tradeoff_map(
+                &grid,
+                title,
+                Some(&regenerate_command()),
+                paper_from(args.paper),
+            )?
+            .pdf
         }
         format => {
             let mut text = Vec::new();
@@ -456,22 +462,15 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
     Ok(ExitCode::SUCCESS)
 }
 
-/// This run's command line, as a shell would take it back: every argument
-/// that holds anything but plain characters is single-quoted.
-fn command_line() -> String {
-    let plain = |a: &str| {
-        !a.is_empty()
-            && a.chars()
-                .all(|ch| ch.is_ascii_alphanumeric() || "%-_.,:/=+".contains(ch))
-    };
+/// This run's command line, as a shell would take it back (each argument
+/// a shell word), with `--force` added when it is not there: the command
+/// printed on a map regenerates it over the file it wrote.
+fn regenerate_command() -> String {
+    let args: Vec<String> = std::env::args().skip(1).collect();
+    let force = (!args.iter().any(|a| a == "--force")).then(|| "--force".to_string());
     std::iter::once("lotsman".to_string())
-        .chain(std::env::args().skip(1).map(|a| {
-            if plain(&a) {
-                a
-            } else {
-                format!("'{}'", a.replace('\'', "'\\''"))
-            }
-        }))
+        .chain(args.iter().map(|a| shell_word(a)))
+        .chain(force)
         .collect::<Vec<_>>()
         .join(" ")
 }

@@ -210,7 +210,7 @@ fn accept_recorded_prints_the_discrepancy_on_the_sheet_and_says_so() {
         for needle in [
             "PRINTED AS RECORDED AT THE USER'S REQUEST, NOT AS RE-SOLVED:",
             &format!("Recorded plan differs from a re-solve: {field}"),
-            &format!("Regenerate with: lotsman sheet {name} --accept-recorded"),
+            &format!("Regenerate with: lotsman sheet {name} --force --accept-recorded"),
         ] {
             assert!(words.contains(needle), "{name}: no {needle:?} in:\n{words}");
         }

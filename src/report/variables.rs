@@ -136,7 +136,7 @@ impl VariablesDesignReport {
             );
         }
         notes.push(
-            "the rule rests on normally distributed measurements: judge lots with lotsman judge --measurements, which tests normality".to_string(),
+            "the rule rests on normally distributed measurements: judge each lot from its readings (judge with --measurements), which also tests them for normality".to_string(),
         );
         let (producer, consumer) =
             super::achieved_points(risks, (d.producer_risk, d.consumer_risk), &mut notes);
