@@ -231,6 +231,10 @@ pub struct EvaluateArgs {
     /// Evenly spaced qualities LO:HI:COUNT (0.5%:8%:50)
     #[arg(long, value_name = "LO:HI:COUNT", allow_hyphen_values = true)]
     pub range: Option<String>,
+    /// JSON only: add decided_at, the probability that a lot is decided at each stage
+    /// (one number per stage and quality)
+    #[arg(long)]
+    pub decided_at: bool,
     /// Output format
     #[arg(long, value_enum, default_value = "table")]
     pub format: ReportFormatArg,

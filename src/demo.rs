@@ -10,7 +10,8 @@
 use std::path::{Path, PathBuf};
 
 use crate::atomic::{Overwrite, write_atomic};
-use crate::error::{Error, SourceError};
+use crate::budget::{SourceJob, Work, source_work};
+use crate::error::{Error, InputError, SourceError};
 use crate::plan::{
     Decision, aoql, default_qualities, evaluate, evaluate_variables, judge_measurements,
     parse_measurements, variables_qualities,
@@ -91,6 +92,7 @@ pub struct DemoRow {
 /// exists and `overwrite` refuses ([`SourceError::Exists`], naming the
 /// first), or a file cannot be written.
 pub fn run_demo(dir: &Path, overwrite: Overwrite) -> Result<Vec<DemoRow>, Error> {
+    check_demo()?;
     std::fs::create_dir_all(dir).map_err(|e| SourceError::Io {
         path: dir.to_path_buf(),
         source: if dir.exists() && !dir.is_dir() {
@@ -136,6 +138,32 @@ pub fn run_demo(dir: &Path, overwrite: Overwrite) -> Result<Vec<DemoRow>, Error>
         write_atomic(path, bytes, overwrite)?;
     }
     Ok(rows)
+}
+
+/// The demo's work, estimated from its plans before it starts (verify,
+/// evaluate at the default qualities and print the sheet of each): a
+/// fraction of a second, held to the budget like every command's.
+fn check_demo() -> Result<(), Error> {
+    let mut work = Work::default();
+    for (name, text) in DEMO_PLANS {
+        let source = PlanSource::from_yaml(text, Path::new(name))?;
+        for job in [
+            SourceJob::Verify,
+            SourceJob::Sheet,
+            SourceJob::Evaluate {
+                points: None,
+                decided_at: false,
+            },
+        ] {
+            work = work.and(source_work(&source, job));
+        }
+    }
+    work.check(
+        "the demo",
+        "report this as a bug: the demo's plans are built in",
+    )
+    .map_err(InputError::from)?;
+    Ok(())
 }
 
 /// The row and OC table of an attributes plan.

@@ -37,6 +37,11 @@ pub enum InputError {
     /// Values that are each valid but do not fit together.
     #[error("{0}")]
     Inconsistent(String),
+    /// A request whose work passes the budget
+    /// ([`TIME_BUDGET`](crate::TIME_BUDGET),
+    /// [`MEMORY_BUDGET`](crate::MEMORY_BUDGET)).
+    #[error(transparent)]
+    OverBudget(#[from] crate::budget::OverBudget),
 }
 
 impl InputError {
@@ -89,6 +94,10 @@ pub enum DesignError {
         /// What the user can do.
         suggestion: String,
     },
+    /// A search whose work passes the budget
+    /// ([`TIME_BUDGET`](crate::TIME_BUDGET)).
+    #[error(transparent)]
+    OverBudget(#[from] crate::budget::OverBudget),
 }
 
 /// A plan source that cannot be read, parsed or written.

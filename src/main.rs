@@ -32,14 +32,14 @@ use lotsman::{
     MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Overwrite, Paper, PlanSource,
     Protection, QualityRange, RectifyingReport, RectifyingRequest, ReportFormat, RiskPair,
     RiskPoint, Scheme, SchemeOptions, SheetOptions, SigmaKind, SourceError, SourceEvaluation,
-    SourceFile, Specification, StagedPlan, Steps, Table, TradeoffReport, TradeoffRequest,
-    VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry, VerifyStatus,
-    default_qualities, design_rectifying, evaluate, evaluate_source, expand_paths, judge,
-    judge_cumulative, judge_measurements, parse_count, parse_fraction, parse_fraction_list,
-    parse_measurements, parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo,
-    run_in_parallel, sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve,
-    solve_variables, source_hash, template, template_kinds, tradeoff, verify_file, write_atomic,
-    write_sheet,
+    SourceFile, SourceJob, Specification, StagedPlan, Steps, Table, TradeoffReport,
+    TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry,
+    VerifyStatus, check_batch, default_qualities, design_rectifying, evaluate, evaluate_source,
+    evaluate_with_decided, expand_paths, judge, judge_cumulative, judge_measurements, parse_count,
+    parse_fraction, parse_fraction_list, parse_measurements, parse_number, parse_stage,
+    read_limited, render_tradeoff_map, run_demo, run_in_parallel, sensitivity, sheet_source_hash,
+    sheet_target, sheet_targets, solve, solve_variables, source_hash, template, template_kinds,
+    tradeoff, verify_file, write_atomic, write_sheet,
 };
 use progress::Progress;
 
@@ -538,12 +538,19 @@ fn asked_qualities(args: &cli::EvaluateArgs) -> Result<Vec<f64>, InputError> {
 }
 
 fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
+    if args.decided_at && args.format != ReportFormatArg::Json {
+        return Err(InputError::Inconsistent(
+            "--decided-at adds the per-stage distribution to the JSON report; give --format json"
+                .to_string(),
+        )
+        .into());
+    }
     match args.sources.as_slice() {
         [] => evaluate_plan_cmd(&args),
         [one] if !one.is_dir() => {
             let qualities = asked_qualities(&args)?;
             let mut text = Vec::new();
-            match evaluate_source(one, &qualities)? {
+            match evaluate_source(one, &qualities, args.decided_at)? {
                 SourceEvaluation::Attributes(r) => {
                     formatter(args.format).evaluation(&mut text, &r)?
                 }
@@ -586,7 +593,11 @@ fn evaluate_plan_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
     if qualities.is_empty() {
         qualities = default_qualities(&plan, &model, None);
     }
-    let evaluation = evaluate(&plan, &model, &qualities)?;
+    let evaluation = if args.decided_at {
+        evaluate_with_decided(&plan, &model, &qualities)?
+    } else {
+        evaluate(&plan, &model, &qualities)?
+    };
     let report = EvaluationReport::from(&evaluation);
     report.check()?;
     let mut text = Vec::new();
@@ -600,10 +611,15 @@ fn evaluate_plan_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
 fn evaluate_batch_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
     let qualities = asked_qualities(args)?;
     let found = expand_paths(&args.sources);
+    let job = SourceJob::Evaluate {
+        points: (!qualities.is_empty()).then_some(qualities.len()),
+        decided_at: args.decided_at,
+    };
+    check_batch(found.iter().flatten().map(|s| s.path.as_path()), job).map_err(InputError::from)?;
     let results = run_batch(&found, "sources evaluated", |entry| match entry {
         Ok(s) => EvaluationEntry::new(
             s.path.display().to_string(),
-            evaluate_source(&s.path, &qualities).map_err(|e| e.to_string()),
+            evaluate_source(&s.path, &qualities, args.decided_at).map_err(|e| e.to_string()),
         ),
         Err(e) => EvaluationEntry::new(e.path().display().to_string(), Err(e.to_string())),
     });
@@ -699,6 +715,11 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
         }
     }
     let found = expand_paths(&args.sources);
+    check_batch(
+        found.iter().flatten().map(|s| s.path.as_path()),
+        SourceJob::Verify,
+    )
+    .map_err(InputError::from)?;
     if !args.sheet.is_empty() && found.len() != args.sources.len() {
         return Err(InputError::Inconsistent(
             "--sheet pairs sheets with sources in order, and a source is named twice; name each source once".to_string(),
@@ -925,6 +946,11 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
         .into());
     }
     let planned = sheet_targets(expand_paths(&args.sources), output_dir);
+    check_batch(
+        planned.iter().flatten().map(|(s, _)| s.path.as_path()),
+        SourceJob::Sheet,
+    )
+    .map_err(InputError::from)?;
     let results = run_batch(&planned, "sheets written", |entry| match entry {
         Ok((source, target)) => (
             source.path.clone(),

@@ -2021,7 +2021,8 @@ pub struct SheetOptions {
 /// [`SheetOptions::accept_recorded`] states, for the caller to report too.
 ///
 /// # Errors
-/// [`Error`] for an unreadable or invalid source;
+/// [`Error`] for an unreadable or invalid source, or one whose audit and
+/// sheet would pass the work budget ([`source_work`](crate::source_work));
 /// [`SourceError::Unconfirmed`](crate::SourceError::Unconfirmed), naming the
 /// first differing field with both values, when the audit finds a
 /// discrepancy and `accept_recorded` is off; a sheet that cannot be laid
@@ -2035,6 +2036,8 @@ pub fn write_sheet(
 ) -> Result<Option<Discrepancy>, Error> {
     let text = PlanSource::read_text(source_path)?;
     let source = PlanSource::from_yaml(&text, source_path)?;
+    crate::budget::check_source(&source, source_path, crate::budget::SourceJob::Sheet)
+        .map_err(crate::error::InputError::from)?;
     let name = source_path
         .file_name()
         .map_or_else(|| "source.yaml".into(), |n| n.to_string_lossy().to_string());

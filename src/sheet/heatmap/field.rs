@@ -60,7 +60,11 @@ impl Field {
                     }
                 }
                 Err(_) if cell.aql >= cell.rql => Err(Gap::NotBelow),
-                Err(DesignError::BeyondCap { .. }) => Err(Gap::BeyondCap),
+                // A cell whose search passes the work budget is beyond the
+                // designer's limits as well.
+                Err(DesignError::BeyondCap { .. } | DesignError::OverBudget(_)) => {
+                    Err(Gap::BeyondCap)
+                }
                 Err(DesignError::NoPlan { .. } | DesignError::NoRectifyingPlan { .. }) => {
                     Err(Gap::NoPlan)
                 }
