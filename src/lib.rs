@@ -52,6 +52,8 @@ mod budget;
 mod demo;
 mod design;
 mod error;
+mod folder;
+mod leftovers;
 mod model;
 mod numeric;
 mod plan;
@@ -63,7 +65,7 @@ mod sheet;
 mod source;
 mod templates;
 
-pub use atomic::{Overwrite, write_atomic};
+pub use atomic::{Overwrite, write_atomic, write_set};
 pub use batch::{
     SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target, sheet_targets,
     verify_file,
@@ -87,6 +89,7 @@ pub use design::{
     wald_lines,
 };
 pub use error::{BatchError, DesignError, Error, InputError, SourceError};
+pub use folder::normalise_folder;
 pub use model::{MAX_LOT_SIZE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot};
 pub use numeric::{NEAR_LIMIT, NumericalError, check_amount, check_probability, near_limit};
 pub use plan::{

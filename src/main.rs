@@ -35,11 +35,11 @@ use lotsman::{
     SourceFile, SourceJob, Specification, StagedPlan, Steps, Table, TradeoffReport,
     TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry,
     VerifyStatus, check_batch, default_qualities, design_rectifying, evaluate, evaluate_source,
-    evaluate_with_decided, expand_paths, judge, judge_cumulative, judge_measurements, parse_count,
-    parse_fraction, parse_fraction_list, parse_measurements, parse_number, parse_stage,
-    read_limited, render_tradeoff_map, run_demo, run_in_parallel, sensitivity, sheet_source_hash,
-    sheet_target, sheet_targets, solve, solve_variables, source_hash, template, template_kinds,
-    tradeoff, verify_file, write_atomic, write_sheet,
+    evaluate_with_decided, expand_paths, judge, judge_cumulative, judge_measurements,
+    normalise_folder, parse_count, parse_fraction, parse_fraction_list, parse_measurements,
+    parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo, run_in_parallel,
+    sensitivity, sheet_source_hash, sheet_target, sheet_targets, solve, solve_variables,
+    source_hash, template, template_kinds, tradeoff, verify_file, write_atomic, write_sheet,
 };
 use progress::Progress;
 
@@ -919,7 +919,9 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
         accept_recorded: args.accept_recorded,
         overwrite: Overwrite::from_force(args.force),
     };
-    let output_dir = args.output_dir.as_deref();
+    // `x/../y/../z` creates `z` only, never the folders it steps out of.
+    let output_dir = args.output_dir.as_deref().map(normalise_folder);
+    let output_dir = output_dir.as_deref();
     let batch = args.sources.len() > 1 || args.sources.iter().any(|p| p.is_dir());
     if !batch {
         let source = &args.sources[0];
