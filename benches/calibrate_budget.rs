@@ -5,7 +5,7 @@
 //! Run it (a release build) on an otherwise idle machine:
 //!
 //! ```text
-//! cargo bench --bench calibrate_budget             # every case, about five minutes
+//! cargo bench --bench calibrate_budget             # every case, a few minutes
 //! cargo bench --bench calibrate_budget -- double   # cases whose name holds "double"
 //! cargo bench --bench calibrate_budget -- walks    # one walk of each kind, alone
 //! ```
@@ -126,7 +126,7 @@ fn evaluations(cases: &mut Vec<Case>) {
             "ten wide stages poisson".into(),
             StagedPlan::new(wide, &poisson).unwrap(),
             poisson,
-            200,
+            20,
         ),
         (
             "item by item 0.1%/0.3% binomial".into(),

@@ -1663,7 +1663,7 @@ plan:
 ";
 
 /// A double plan at 0.5% against 0.9% in a lot of 10^6, minimising the
-/// largest ASN: about a minute and a half of search, not solved yet.
+/// largest ASN: about a minute of search, not solved yet.
 const HEAVY_DOUBLE: &str = "schema: 1
 title: Budget suite, double in a large lot
 scheme: double

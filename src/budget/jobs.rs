@@ -6,9 +6,9 @@
 use std::path::Path;
 
 use super::estimate::{
-    Approximation, ROW_OUTPUT, design_work, double_work, evaluation_advice, evaluation_advice_for,
-    evaluation_work, most_variables_qualities, single_cell_seconds, tail_terms,
-    variables_design_work, variables_evaluation_work, walk_parts,
+    Approximation, ROW_OUTPUT, design_work, double_cpu_seconds, double_work, evaluation_advice,
+    evaluation_advice_for, evaluation_work, most_variables_qualities, single_cell_seconds,
+    tail_terms, variables_design_work, variables_evaluation_work, walk_parts,
 };
 use super::{OverBudget, TIME_BUDGET, Work};
 use crate::design::{
@@ -41,12 +41,15 @@ pub fn tradeoff_work(request: &TradeoffRequest) -> Work {
             };
             let cell = match request.scheme() {
                 Scheme::Double if c <= MAX_DOUBLE_SINGLE_C => {
-                    double_work(model, n, c, request.criterion(), None).seconds
+                    double_cpu_seconds(model, n, c, request.criterion(), None)
                 }
                 Scheme::Double => 0.0,
                 _ => single_cell_seconds(model, n, c),
             };
-            if cell <= TIME_BUDGET {
+            // A cell whose own search passes the budget (shared over the
+            // threads as a design of its own would be) is refused at once.
+            let threads = rayon::current_num_threads().max(1) as f64;
+            if cell / threads <= TIME_BUDGET {
                 row += cell;
             }
         }
