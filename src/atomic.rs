@@ -2,16 +2,20 @@
 //! own folder, flushed to disk, then renamed over the target, and the folder
 //! flushed after the rename. A failed or killed run leaves the target as it
 //! was, never half-written; the only trace a killed run can leave is a hidden
-//! temporary file (`.lotsman-*.tmp`), which the batch commands skip.
+//! temporary file (`.lotsman-<pid>-XXXXXX.tmp`), which the batch commands
+//! skip and the next run writing into that folder removes
+//! ([`leftovers`](crate::leftovers)). A set of files that belong together
+//! (the demo's) is written as one with [`write_set`].
 //!
 //! No other code of the crate opens a file for writing (`tests/writes.rs`
 //! scans the source tree for it).
 
 use std::fs::File;
 use std::io::Write;
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 use crate::error::SourceError;
+use crate::leftovers::{TEMPORARY_SUFFIX, sweep, temporary_prefix};
 
 /// Whether a write may replace a file that is already at its target.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -85,13 +89,10 @@ fn write_with(
         Some(d) if !d.as_os_str().is_empty() => d,
         _ => Path::new("."),
     };
-    let mut builder = tempfile::Builder::new();
-    builder.prefix(".lotsman-").suffix(".tmp");
+    sweep(dir);
     // A temporary file is private (0600) by default; the file it becomes
     // gets the permissions any new file gets (0666 less the umask).
-    #[cfg(unix)]
-    builder.permissions(std::os::unix::fs::PermissionsExt::from_mode(0o666));
-    let mut tmp = builder
+    let mut tmp = temporary(0o666)
         .tempfile_in(dir)
         .map_err(|e| io(folder_error(dir, e)))?;
     fill(tmp.as_file_mut()).map_err(io)?;
@@ -116,6 +117,139 @@ fn write_with(
             format!("written, but its folder could not be synced to disk: {e}"),
         ))
     })
+}
+
+/// The builder of this process's temporary names,
+/// `.lotsman-<pid>-XXXXXX.tmp`, made with `mode` (less the umask) where
+/// the platform has modes.
+fn temporary(mode: u32) -> tempfile::Builder<'static, 'static> {
+    let mut builder = tempfile::Builder::new();
+    builder
+        .prefix(temporary_prefix())
+        .suffix(TEMPORARY_SUFFIX)
+        .rand_bytes(6);
+    #[cfg(unix)]
+    builder.permissions(std::os::unix::fs::PermissionsExt::from_mode(mode));
+    #[cfg(not(unix))]
+    let _ = mode;
+    builder
+}
+
+/// Writes the files of a set (`(name, bytes)`, names relative to `dir`,
+/// one level) into `dir` as one: every byte of the set is written and
+/// synced in a hidden temporary folder first, and only then moved into
+/// place, so that a full disk or any other failure of the writing leaves
+/// `dir` as it was, never with part of the set.
+///
+/// * When `dir` does not exist, the temporary folder is made beside it
+///   (its parents are created as needed) and renamed to `dir` whole: `dir`
+///   appears complete or not at all.
+/// * When `dir` exists, the temporary folder is made inside it (on the same
+///   file system), and each file is then moved onto its target: renames,
+///   which take no space, so they cannot run out of it. With
+///   [`Overwrite::Refuse`] each move fails when its target exists, and the
+///   files already moved are taken back, leaving `dir` as it was; with
+///   [`Overwrite::Replace`] only a process killed between two of those
+///   renames could leave part of the new set beside the old (each file
+///   whole).
+///
+/// # Errors
+/// [`SourceError::Exists`] when a target exists and `overwrite` refuses;
+/// [`SourceError::Io`] when `dir` is a file, a target is a folder, or the
+/// writing fails (naming the file).
+pub fn write_set(
+    dir: &Path,
+    files: &[(String, Vec<u8>)],
+    overwrite: Overwrite,
+) -> Result<(), SourceError> {
+    let io = |path: &Path, source| SourceError::Io {
+        path: path.to_path_buf(),
+        source,
+    };
+    let targets: Vec<PathBuf> = files.iter().map(|(name, _)| dir.join(name)).collect();
+    if dir.exists() && !dir.is_dir() {
+        return Err(io(
+            dir,
+            std::io::Error::new(
+                std::io::ErrorKind::NotADirectory,
+                "this is a file; give a folder",
+            ),
+        ));
+    }
+    for target in &targets {
+        if target.is_dir() {
+            return Err(io(
+                target,
+                std::io::Error::new(
+                    std::io::ErrorKind::IsADirectory,
+                    "is a folder; it cannot be replaced by a file",
+                ),
+            ));
+        }
+        if overwrite == Overwrite::Refuse && target.exists() {
+            return Err(SourceError::Exists {
+                path: target.clone(),
+            });
+        }
+    }
+    let fresh = !dir.exists();
+    let home = if fresh {
+        let parent = match dir.parent() {
+            Some(p) if !p.as_os_str().is_empty() => p,
+            _ => Path::new("."),
+        };
+        std::fs::create_dir_all(parent).map_err(|e| io(parent, e))?;
+        parent.to_path_buf()
+    } else {
+        dir.to_path_buf()
+    };
+    sweep(&home);
+    // The folder gets the permissions of any new folder (0777 less the
+    // umask) once it is renamed into place.
+    let staging = temporary(0o777)
+        .tempdir_in(&home)
+        .map_err(|e| io(dir, folder_error(&home, e)))?;
+    for (name, bytes) in files {
+        let path = staging.path().join(name);
+        let mut file = File::create(&path).map_err(|e| io(&dir.join(name), e))?;
+        file.write_all(bytes)
+            .and_then(|()| file.sync_all())
+            .map_err(|e| io(&dir.join(name), e))?;
+    }
+    sync_folder(staging.path()).map_err(|e| io(dir, e))?;
+    if fresh {
+        // One rename puts the whole set in place; the guard must not
+        // remove what is now `dir`.
+        let staged = staging.keep();
+        if let Err(e) = std::fs::rename(&staged, dir) {
+            let _ = std::fs::remove_dir_all(&staged);
+            return Err(io(dir, e));
+        }
+        return sync_folder(&home).map_err(|e| io(dir, e));
+    }
+    let mut placed = Vec::new();
+    for ((name, _), target) in files.iter().zip(&targets) {
+        let staged = staging.path().join(name);
+        let moved = match overwrite {
+            Overwrite::Replace => std::fs::rename(&staged, target),
+            // A link fails when the target exists, so nothing that
+            // appeared meanwhile is replaced.
+            Overwrite::Refuse => std::fs::hard_link(&staged, target),
+        };
+        if let Err(e) = moved {
+            for done in &placed {
+                let _ = std::fs::remove_file(done);
+            }
+            return Err(match e.kind() {
+                std::io::ErrorKind::AlreadyExists => SourceError::Exists {
+                    path: target.clone(),
+                },
+                _ => io(target, e),
+            });
+        }
+        placed.push(target.clone());
+    }
+    sync_folder(dir).map_err(|e| io(dir, e))
 }
 
 /// Flushes a folder's entries (the rename just made) to disk.

@@ -271,6 +271,10 @@ pub struct EvaluateArgs {
     /// points, the discrepancy stated in the output (without it, such a source is refused)
     #[arg(long, requires = "sources")]
     pub accept_recorded: bool,
+    /// JSON only: add decided_at, the probability that a lot is decided at each stage
+    /// (one number per stage and quality)
+    #[arg(long)]
+    pub decided_at: bool,
     /// Output format
     #[arg(long, value_enum, ignore_case = true, default_value = "table")]
     pub format: ReportFormatArg,

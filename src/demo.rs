@@ -9,8 +9,10 @@
 
 use std::path::{Path, PathBuf};
 
-use crate::atomic::{Overwrite, write_atomic};
-use crate::error::{Error, SourceError};
+use crate::atomic::{Overwrite, write_set};
+use crate::budget::{SourceJob, Work, source_work};
+use crate::error::{Error, InputError, SourceError};
+use crate::folder::normalise_folder;
 use crate::plan::{
     Decision, aoql, default_qualities, evaluate, evaluate_variables, judge_measurements,
     parse_measurements, variables_qualities,
@@ -82,23 +84,30 @@ pub struct DemoRow {
     pub judged: Option<String>,
 }
 
-/// Runs the demo into `dir` (created if missing). Every file is made
-/// before the first is written, and with [`Overwrite::Refuse`] the demo
-/// writes nothing when any of them exists already.
+/// Runs the demo into `dir` (created if missing, from the path with its
+/// `..` steps taken out where they can be: [`normalise_folder`]). Every
+/// file is made before the first is written, and the set is written as one
+/// ([`write_set`]): a failure (a full disk) leaves the folder as it was;
+/// with [`Overwrite::Refuse`] the demo writes nothing when any of its
+/// files exists already.
 ///
 /// # Errors
 /// [`Error`] when a demo source does not load (a build defect), a file
 /// exists and `overwrite` refuses ([`SourceError::Exists`], naming the
 /// first), or a file cannot be written.
 pub fn run_demo(dir: &Path, overwrite: Overwrite) -> Result<Vec<DemoRow>, Error> {
-    std::fs::create_dir_all(dir).map_err(|e| SourceError::Io {
-        path: dir.to_path_buf(),
-        source: if dir.exists() && !dir.is_dir() {
-            std::io::Error::new(e.kind(), "this is a file; give --output-dir a folder")
-        } else {
-            e
-        },
-    })?;
+    check_demo()?;
+    let dir = &normalise_folder(dir);
+    if dir.exists() && !dir.is_dir() {
+        return Err(SourceError::Io {
+            path: dir.clone(),
+            source: std::io::Error::new(
+                std::io::ErrorKind::NotADirectory,
+                "this is a file; give --output-dir a folder",
+            ),
+        }
+        .into());
+    }
     let mut rows = Vec::new();
     let mut files = Vec::new();
     for (name, text) in DEMO_PLANS {
@@ -121,21 +130,37 @@ pub fn run_demo(dir: &Path, overwrite: Overwrite) -> Result<Vec<DemoRow>, Error>
         }
         row.verified = verified;
         row.written = mine.iter().map(|(file, _)| dir.join(file)).collect();
-        files.extend(
-            mine.into_iter()
-                .map(|(file, bytes)| (dir.join(file), bytes)),
-        );
+        files.extend(mine);
         rows.push(row);
     }
-    if overwrite == Overwrite::Refuse
-        && let Some((path, _)) = files.iter().find(|(path, _)| path.exists())
-    {
-        return Err(SourceError::Exists { path: path.clone() }.into());
-    }
-    for (path, bytes) in &files {
-        write_atomic(path, bytes, overwrite)?;
-    }
+    write_set(dir, &files, overwrite)?;
     Ok(rows)
+}
+
+/// The demo's work, estimated from its plans before it starts (verify,
+/// evaluate at the default qualities and print the sheet of each): a
+/// fraction of a second, held to the budget like every command's.
+fn check_demo() -> Result<(), Error> {
+    let mut work = Work::default();
+    for (name, text) in DEMO_PLANS {
+        let source = PlanSource::from_yaml(text, Path::new(name))?;
+        for job in [
+            SourceJob::Verify,
+            SourceJob::Sheet,
+            SourceJob::Evaluate {
+                points: None,
+                decided_at: false,
+            },
+        ] {
+            work = work.and(source_work(&source, job));
+        }
+    }
+    work.check(
+        "the demo",
+        "report this as a bug: the demo's plans are built in",
+    )
+    .map_err(InputError::from)?;
+    Ok(())
 }
 
 /// The row and OC table of an attributes plan.

@@ -47,6 +47,11 @@ pub enum InputError {
         /// no plan`.
         why: String,
     },
+    /// A request whose work passes the budget
+    /// ([`TIME_BUDGET`](crate::TIME_BUDGET),
+    /// [`MEMORY_BUDGET`](crate::MEMORY_BUDGET)).
+    #[error(transparent)]
+    OverBudget(#[from] crate::budget::OverBudget),
 }
 
 impl InputError {
@@ -113,6 +118,10 @@ pub enum DesignError {
         /// What the user can do.
         suggestion: String,
     },
+    /// A search whose work passes the budget
+    /// ([`TIME_BUDGET`](crate::TIME_BUDGET)).
+    #[error(transparent)]
+    OverBudget(#[from] crate::budget::OverBudget),
 }
 
 /// A plan source that cannot be read, parsed or written.

@@ -48,9 +48,12 @@
 
 mod atomic;
 mod batch;
+mod budget;
 mod demo;
 mod design;
 mod error;
+mod folder;
+mod leftovers;
 mod model;
 mod numeric;
 mod plain;
@@ -63,17 +66,22 @@ mod sheet;
 mod source;
 mod templates;
 
-pub use atomic::{Overwrite, write_atomic};
+pub use atomic::{Overwrite, write_atomic, write_set};
 pub use batch::{
     SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target, sheet_targets,
     verify_file,
+};
+pub use budget::{
+    Limit, MEMORY_BUDGET, OverBudget, SourceJob, TIME_BUDGET, Work, check_batch, check_source,
+    design_work, double_work, evaluation_work, minimum_work, multiple_work, sequential_work,
+    single_work, source_work, tradeoff_work, variables_design_work, variables_evaluation_work,
+    walk_seconds,
 };
 pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
 pub use design::{
     AOQL_PLAN_LTPD_RISK, Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design,
     DesignRequest, Input, InspectionCost, MAX_ACCEPTANCE_NUMBER, MAX_AOQL_ACCEPTANCE_NUMBER,
-    MAX_DESIGN_STAGES, MAX_DOUBLE_SEARCH, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS,
-    MAX_MULTIPLE_SINGLE_N, MAX_SAMPLE_SIZE, MAX_SEQUENTIAL_SEARCH, Moved, Protection,
+    MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, MAX_SAMPLE_SIZE, Moved, Protection,
     RectifyingDesign, RectifyingPlan, RectifyingRequest, RectifyingRow, Scheme, SchemeOptions,
     Sensitivity, SingleDesign, Solution, Steps, TradeoffCell, TradeoffGrid, TradeoffRequest,
     VariablesDesign, VariablesRequest, VariablesSolution, WaldApproximation, design_double,
@@ -82,6 +90,7 @@ pub use design::{
     wald_lines,
 };
 pub use error::{BatchError, DesignError, Error, InputError, SourceError};
+pub use folder::normalise_folder;
 pub use model::{
     MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot,
 };
@@ -93,10 +102,10 @@ pub use plan::{
     NORMALITY_LEVEL, SIGMA_LEVEL, SequentialLines, SideStatistic, SigmaKind, Specification, Stage,
     StageOutcomes, StagedPlan, VariablesEvaluation, VariablesPlan, VariablesPoint,
     acceptance_probability, anderson_darling, aoql, average_outgoing_quality, curtailed_outcomes,
-    curve_maximum, default_qualities, evaluate, evaluate_variables, fraction_beyond_known,
-    fraction_beyond_unknown, indifference_quality, judge, judge_cumulative, judge_measurements,
-    largest_asn, mean_and_sd, measures, parse_measurements, quality_at_pa, stage_outcomes,
-    statistic_for_fraction, variables_point, variables_qualities,
+    curve_maximum, default_qualities, evaluate, evaluate_variables, evaluate_with_decided,
+    fraction_beyond_known, fraction_beyond_unknown, indifference_quality, judge, judge_cumulative,
+    judge_measurements, largest_asn, mean_and_sd, measures, parse_measurements, quality_at_pa,
+    stage_outcomes, statistic_for_fraction, variables_point, variables_qualities,
 };
 pub use quantity::{
     BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, QualityRange, bare_fraction_note, parse_count,

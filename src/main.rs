@@ -33,13 +33,14 @@ use lotsman::{
     MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Overwrite, Paper, PlanSource,
     Protection, RectifyingReport, RectifyingRequest, ReportFormat, RiskPair, RiskPoint, Scheme,
     SchemeOptions, SheetNotes, SheetOptions, SheetVerdict, SigmaKind, SourceError,
-    SourceEvaluation, SourceFile, Specification, StagedPlan, Steps, Table, TradeoffReport,
-    TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry,
-    VerifyStatus, check_sheet, default_qualities, design_rectifying, evaluate, evaluate_source,
-    expand_paths, judge, judge_cumulative, judge_measurements, parse_count, parse_fraction,
-    parse_measurements, parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo,
-    run_in_parallel, sensitivity, sheet_target, sheet_targets, solve, solve_variables, template,
-    template_kinds, tradeoff, verify_file, write_atomic, write_sheet,
+    SourceEvaluation, SourceFile, SourceJob, Specification, StagedPlan, Steps, Table,
+    TradeoffReport, TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport,
+    VerifyEntry, VerifyStatus, check_batch, check_sheet, default_qualities, design_rectifying,
+    evaluate, evaluate_source, evaluate_with_decided, expand_paths, judge, judge_cumulative,
+    judge_measurements, normalise_folder, parse_count, parse_fraction, parse_measurements,
+    parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo, run_in_parallel,
+    sensitivity, sheet_target, sheet_targets, solve, solve_variables, template, template_kinds,
+    tradeoff, verify_file, write_atomic, write_sheet,
 };
 use lotsman::{escape_controls, shell_path, shell_word};
 use progress::Progress;
@@ -742,13 +743,25 @@ fn source_models<'a>(paths: impl IntoIterator<Item = &'a Path>) -> Vec<ModelKind
 }
 
 fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
+    if args.decided_at && args.format != ReportFormatArg::Json {
+        return Err(InputError::Inconsistent(
+            "--decided-at adds the per-stage distribution to the JSON report; give --format json"
+                .to_string(),
+        )
+        .into());
+    }
     match args.sources.as_slice() {
         [] => evaluate_plan_cmd(&args),
         [one] if !one.is_dir() => {
             let qualities = asked_qualities(&args, source_models([one.as_path()]))?;
             let mut text = Vec::new();
-            let evaluation =
-                evaluate_source(one, &qualities, source_lot(&args)?, args.accept_recorded)?;
+            let evaluation = evaluate_source(
+                one,
+                &qualities,
+                source_lot(&args)?,
+                args.accept_recorded,
+                args.decided_at,
+            )?;
             match &evaluation {
                 SourceEvaluation::Attributes(r) => {
                     formatter(args.format).evaluation(&mut text, r)?
@@ -802,7 +815,11 @@ fn evaluate_plan_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
     if qualities.is_empty() {
         qualities = default_qualities(&plan, &model, None);
     }
-    let evaluation = evaluate(&plan, &model, &qualities)?;
+    let evaluation = if args.decided_at {
+        evaluate_with_decided(&plan, &model, &qualities)?
+    } else {
+        evaluate(&plan, &model, &qualities)?
+    };
     let report = EvaluationReport::from(&evaluation);
     report.check()?;
     let mut text = Vec::new();
@@ -823,11 +840,22 @@ fn evaluate_batch_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
     );
     let qualities = asked_qualities(args, kinds)?;
     let lot = source_lot(args)?;
+    let job = SourceJob::Evaluate {
+        points: (!qualities.is_empty()).then_some(qualities.len()),
+        decided_at: args.decided_at,
+    };
+    check_batch(found.iter().flatten().map(|s| s.path.as_path()), job).map_err(InputError::from)?;
     let results = run_batch(&found, "sources evaluated", |entry| match entry {
         Ok(s) => EvaluationEntry::new(
             s.path.display().to_string(),
-            evaluate_source(&s.path, &qualities, lot, args.accept_recorded)
-                .map_err(|e| e.to_string()),
+            evaluate_source(
+                &s.path,
+                &qualities,
+                lot,
+                args.accept_recorded,
+                args.decided_at,
+            )
+            .map_err(|e| e.to_string()),
         ),
         Err(e) => EvaluationEntry::new(e.path().display().to_string(), Err(e.to_string())),
     });
@@ -922,6 +950,11 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
         }
     }
     let found = expand_paths(&args.sources);
+    check_batch(
+        found.iter().flatten().map(|s| s.path.as_path()),
+        SourceJob::Verify,
+    )
+    .map_err(InputError::from)?;
     if !args.sheet.is_empty() && found.len() != args.sources.len() {
         return Err(InputError::Inconsistent(
             "--sheet pairs sheets with sources in order, and a source is named twice; name each source once".to_string(),
@@ -954,8 +987,11 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
 const MAX_MEASUREMENTS_BYTES: u64 = 10 << 20;
 
 fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode, Error> {
-    let (audited, request, plan) =
-        PlanSource::load_with_variables_plan(&args.source, args.accept_recorded)?;
+    let (audited, request, plan) = PlanSource::load_with_variables_plan(
+        &args.source,
+        args.accept_recorded,
+        judge_budget(&args.source),
+    )?;
     let accepted = audited.accepted.map(|d| d.to_string());
     let io = |e: std::io::Error| SourceError::Io {
         path: csv.to_path_buf(),
@@ -1045,11 +1081,24 @@ fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode,
     Ok(ExitCode::SUCCESS)
 }
 
+/// The work-budget check of `judge` on the source at `path`: its audit
+/// re-solves the source before the lot is decided.
+fn judge_budget(path: &Path) -> impl FnOnce(&PlanSource) -> Result<(), Error> + '_ {
+    move |source| {
+        lotsman::check_source(source, path, SourceJob::Judge)
+            .map_err(|e| InputError::from(e).into())
+    }
+}
+
 fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
     if let Some(csv) = &args.measurements {
         return judge_measurements_cmd(&args, csv);
     }
-    let (audited, model, plan) = PlanSource::load_with_plan(&args.source, args.accept_recorded)?;
+    let (audited, model, plan) = PlanSource::load_with_plan(
+        &args.source,
+        args.accept_recorded,
+        judge_budget(&args.source),
+    )?;
     let accepted = audited.accepted.map(|d| d.to_string());
     let found = args
         .found
@@ -1123,7 +1172,9 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
         accept_recorded: args.accept_recorded,
         overwrite: Overwrite::from_force(args.force),
     };
-    let output_dir = args.output_dir.as_deref();
+    // `x/../y/../z` creates `z` only, never the folders it steps out of.
+    let output_dir = args.output_dir.as_deref().map(normalise_folder);
+    let output_dir = output_dir.as_deref();
     let batch = args.sources.len() > 1 || args.sources.iter().any(|p| p.is_dir());
     if !batch {
         let source = &args.sources[0];
@@ -1150,6 +1201,11 @@ fn sheet_cmd(args: cli::SheetArgs) -> Result<ExitCode, Error> {
         .into());
     }
     let planned = sheet_targets(expand_paths(&args.sources), output_dir);
+    check_batch(
+        planned.iter().flatten().map(|(s, _)| s.path.as_path()),
+        SourceJob::Sheet,
+    )
+    .map_err(InputError::from)?;
     let results = run_batch(&planned, "sheets written", |entry| match entry {
         Ok((source, target)) => (
             source.path.clone(),

@@ -564,7 +564,7 @@ fn evaluate_reads_staged_and_sequential_sources() {
         "plans/tpw-impeller-porosity.yaml",
         "plans/tpw-sleeve-hardness.yaml",
     ] {
-        let v = json_of(&["evaluate", source, "--format", "json"]);
+        let v = json_of(&["evaluate", source, "--format", "json", "--decided-at"]);
         let points = v["points"].as_array().unwrap();
         assert!(!points.is_empty());
         for (p, decided) in points.iter().zip(v["decided_at"].as_array().unwrap()) {

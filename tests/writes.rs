@@ -495,3 +495,276 @@ fn a_run_stopped_by_the_file_size_limit_keeps_the_existing_pdf() {
         );
     }
 }
+
+/// The names in `dir` (not below it), sorted.
+fn names(dir: &Path) -> Vec<String> {
+    let mut v: Vec<String> = std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+        .collect();
+    v.sort();
+    v
+}
+
+/// The pid of a process that has ended (a `true` run to its end).
+#[cfg(unix)]
+fn ended_pid() -> u32 {
+    let mut child = std::process::Command::new("true").spawn().unwrap();
+    let pid = child.id();
+    child.wait().unwrap();
+    pid
+}
+
+#[cfg(unix)]
+#[test]
+fn the_next_run_into_a_folder_removes_what_a_killed_run_left_and_nothing_else() {
+    const SOURCES: usize = 120;
+    let dir = tempfile::tempdir().unwrap();
+    let input = dir.path().join("in");
+    let out = dir.path().join("out");
+    std::fs::create_dir(&input).unwrap();
+    std::fs::create_dir(&out).unwrap();
+    for i in 0..SOURCES {
+        std::fs::copy(SEAL, input.join(format!("s{i:03}.yaml"))).unwrap();
+    }
+    let sheet = |force: bool| {
+        let mut command = std::process::Command::new(assert_cmd::cargo::cargo_bin("lotsman"));
+        command
+            .args(["sheet", input.to_str().unwrap(), "--output-dir"])
+            .arg(&out)
+            .stdout(std::process::Stdio::null())
+            .stderr(std::process::Stdio::null());
+        if force {
+            command.arg("--force");
+        }
+        command
+    };
+    // A batch killed (SIGKILL) once three sheets have appeared.
+    let mut child = sheet(false).spawn().unwrap();
+    let start = Instant::now();
+    while names(&out).iter().filter(|n| n.ends_with(".pdf")).count() < 3 {
+        assert!(start.elapsed() < Duration::from_secs(300), "no sheets");
+        std::thread::sleep(Duration::from_millis(5));
+    }
+    child.kill().unwrap();
+    assert_eq!(
+        child.wait().unwrap().code(),
+        None,
+        "the batch was not killed"
+    );
+    // What a kill leaves (the kill may or may not have caught a write in
+    // the act, so one such file is made for certain): the killed run's
+    // temporary file, and one of an earlier version's form.
+    let killed = child.id();
+    let left = [
+        format!(".lotsman-{killed}-Qz81Kd.tmp"),
+        ".lotsman-Ab3xYz.tmp".to_string(),
+    ];
+    for name in &left {
+        std::fs::write(out.join(name), b"half of a sheet").unwrap();
+    }
+    // Not leftovers: a concurrent run's temporary file (its process is
+    // running: this test), one made after the next run started (its date
+    // in the future), names the writer never gives, and a folder.
+    let running = format!(".lotsman-{}-Rn5Wq2.tmp", std::process::id());
+    let future = format!(".lotsman-{}-Fu7Tr3.tmp", ended_pid());
+    let kept = [
+        running.as_str(),
+        future.as_str(),
+        ".lotsman-notes",
+        ".lotsman-12-Ab3xYz.tmp.bak",
+        "lotsman-12-Ab3xYz.tmp",
+    ];
+    for name in kept {
+        std::fs::write(out.join(name), b"not a leftover").unwrap();
+    }
+    let touched = std::process::Command::new("touch")
+        .args(["-d", "+1 hour"])
+        .arg(out.join(&future))
+        .status()
+        .unwrap();
+    assert!(touched.success());
+    std::thread::sleep(Duration::from_millis(50));
+
+    assert!(sheet(true).status().unwrap().success());
+    let after = names(&out);
+    for name in &left {
+        assert!(!after.contains(name), "{name} was left: {after:?}");
+    }
+    for name in kept {
+        assert!(after.contains(&name.to_string()), "{name} was removed");
+        assert_eq!(std::fs::read(out.join(name)).unwrap(), b"not a leftover");
+    }
+    // Nothing else hidden, and every sheet complete.
+    let seal = std::fs::read_to_string(SEAL).unwrap();
+    for name in &after {
+        if name.starts_with('.') || name.starts_with("lotsman-") {
+            assert!(kept.contains(&name.as_str()), "left behind: {name}");
+        } else {
+            assert_complete_sheet(&std::fs::read(out.join(name)).unwrap(), &seal, name);
+        }
+    }
+    assert_eq!(after.len(), SOURCES + kept.len());
+}
+
+/// A small tmpfs mounted on a folder: a disk that fills at `size`,
+/// unmounted when dropped. `None` where mounting is not allowed (not root,
+/// or a container without the right).
+#[cfg(target_os = "linux")]
+struct SmallDisk(PathBuf);
+
+#[cfg(target_os = "linux")]
+impl SmallDisk {
+    fn mount(at: &Path, size: &str) -> Option<SmallDisk> {
+        std::fs::create_dir_all(at).unwrap();
+        let mounted = std::process::Command::new("mount")
+            .args(["-t", "tmpfs", "-o", &format!("size={size}"), "tmpfs"])
+            .arg(at)
+            .stderr(std::process::Stdio::null())
+            .status()
+            .is_ok_and(|s| s.success());
+        mounted.then(|| SmallDisk(at.to_path_buf()))
+    }
+}
+
+#[cfg(target_os = "linux")]
+impl Drop for SmallDisk {
+    fn drop(&mut self) {
+        let _ = std::process::Command::new("umount").arg(&self.0).status();
+    }
+}
+
+/// The demo under a file-size limit (`ulimit -f`, which binds root too):
+/// stopped (SIGXFSZ) at its first sheet, as a full disk would stop it.
+#[cfg(unix)]
+fn demo_with_a_small_limit(out: &Path, force: bool) -> std::process::ExitStatus {
+    let mut command = std::process::Command::new("sh");
+    command
+        .args(["-c", "ulimit -f 8 && exec \"$0\" \"$@\""])
+        .arg(assert_cmd::cargo::cargo_bin("lotsman"))
+        .args(["demo", "--output-dir"])
+        .arg(out)
+        .stdout(std::process::Stdio::null())
+        .stderr(std::process::Stdio::null());
+    if force {
+        command.arg("--force");
+    }
+    command.status().unwrap()
+}
+
+#[cfg(target_os = "linux")]
+#[test]
+fn a_demo_that_runs_out_of_space_leaves_no_partial_set() {
+    let dir = tempfile::tempdir().unwrap();
+    // The demo's files take about 430 kB (some 120 pages of 4 kB).
+    match SmallDisk::mount(&dir.path().join("small"), "200k") {
+        Some(disk) => {
+            let out = disk.0.join("demo");
+            lotsman()
+                .args(["demo", "--output-dir"])
+                .arg(&out)
+                .assert()
+                .code(2)
+                .stderr(predicate::str::contains("the disk is full"));
+            assert!(names(&disk.0).is_empty(), "{:?}", names(&disk.0));
+        }
+        None => {
+            eprintln!("no tmpfs can be mounted here: the full disk is a file-size limit");
+            let parent = dir.path().join("small");
+            std::fs::create_dir(&parent).unwrap();
+            let out = parent.join("demo");
+            assert!(!demo_with_a_small_limit(&out, false).success());
+            assert!(!out.exists());
+            // The killed run's temporary folder is all it left, and the
+            // next run into the folder removes it.
+            for name in names(&parent) {
+                assert!(is_temporary(&name), "left behind: {name}");
+            }
+            lotsman()
+                .args(["demo", "--output-dir"])
+                .arg(&out)
+                .assert()
+                .success();
+            assert_eq!(names(&parent), ["demo"]);
+        }
+    }
+}
+
+#[cfg(target_os = "linux")]
+#[test]
+fn a_demo_forced_over_its_folder_on_a_full_disk_replaces_nothing() {
+    let dir = tempfile::tempdir().unwrap();
+    // Room for one set of the demo's files, not for a second beside it.
+    let disk = SmallDisk::mount(&dir.path().join("small"), "800k");
+    let out = match &disk {
+        Some(disk) => disk.0.join("demo"),
+        None => dir.path().join("demo"),
+    };
+    lotsman()
+        .args(["demo", "--output-dir"])
+        .arg(&out)
+        .assert()
+        .success();
+    // An older demo set: every file differs from what the demo writes (at
+    // the same size, so that the disk fills at the same point), so that a
+    // file replaced before the disk filled would show.
+    for (name, bytes) in snapshot(&out) {
+        std::fs::write(out.join(name), vec![b'o'; bytes.len()]).unwrap();
+    }
+    let before = snapshot(&out);
+    if disk.is_some() {
+        lotsman()
+            .args(["demo", "--force", "--output-dir"])
+            .arg(&out)
+            .assert()
+            .code(2)
+            .stderr(predicate::str::contains("the disk is full"));
+        assert_eq!(snapshot(&out), before);
+    } else {
+        eprintln!("no tmpfs can be mounted here: the full disk is a file-size limit");
+        assert!(!demo_with_a_small_limit(&out, true).success());
+        // Every file as it was; what the killed run left is hidden.
+        let after: BTreeMap<_, _> = snapshot(&out)
+            .into_iter()
+            .filter(|(p, _)| !p.to_string_lossy().starts_with(".lotsman-"))
+            .collect();
+        assert_eq!(after, before);
+    }
+}
+
+#[test]
+fn an_output_folder_written_with_steps_back_creates_only_the_folder_meant() {
+    let dir = tempfile::tempdir().unwrap();
+    lotsman()
+        .current_dir(dir.path())
+        .args(["demo", "--output-dir", "x/../y/../z"])
+        .assert()
+        .success()
+        .stdout(predicate::str::contains("wrote z/tpw-seal-visual.yaml"));
+    assert_eq!(names(dir.path()), ["z"]);
+    assert!(dir.path().join("z/tpw-seal-visual.pdf").is_file());
+    let seal = std::fs::canonicalize(SEAL).unwrap();
+    lotsman()
+        .current_dir(dir.path())
+        .arg("sheet")
+        .arg(&seal)
+        .args(["--output-dir", "a/../b/./c/../d"])
+        .assert()
+        .success()
+        .stderr(predicate::str::contains(
+            "wrote sheet b/d/tpw-seal-visual.pdf",
+        ));
+    assert_eq!(names(dir.path()), ["b", "z"]);
+    assert_eq!(names(&dir.path().join("b")), ["d"]);
+    // A step back out of the folder the command runs in stays one.
+    let inner = dir.path().join("inner");
+    std::fs::create_dir(&inner).unwrap();
+    lotsman()
+        .current_dir(&inner)
+        .arg("sheet")
+        .arg(&seal)
+        .args(["--output-dir", "../up"])
+        .assert()
+        .success();
+    assert!(dir.path().join("up/tpw-seal-visual.pdf").is_file());
+}

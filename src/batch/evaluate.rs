@@ -3,8 +3,11 @@
 
 use std::path::Path;
 
+use crate::budget::{SourceJob, check_source};
 use crate::error::{Error, InputError, SourceError};
-use crate::plan::{default_qualities, evaluate, evaluate_variables, variables_qualities};
+use crate::plan::{
+    default_qualities, evaluate, evaluate_variables, evaluate_with_decided, variables_qualities,
+};
 use crate::report::{EvaluationReport, SourceEvaluation, VariablesEvaluationReport};
 use crate::source::{Audited, PlanSource};
 
@@ -12,7 +15,10 @@ use crate::source::{Audited, PlanSource};
 /// `qualities`, or, when `qualities` is empty, at the default qualities of
 /// its kind of plan: eight levels bracketing the risk points (for a
 /// minimum-inspection plan, the process average and the LTPD)
-/// ([`default_qualities`], [`variables_qualities`]).
+/// ([`default_qualities`], [`variables_qualities`]); with `decided_at`, an
+/// attributes plan's report holds the per-stage distribution of the
+/// stage at which each lot is decided (a variables plan decides on its
+/// one sample).
 ///
 /// `lot_size` is the size of the lots the plan is used on, for a source
 /// that gives none (`evaluate FILE --lot-size N`): the source's model is
@@ -28,26 +34,34 @@ use crate::source::{Audited, PlanSource};
 /// [`SourceError`] when the file cannot be read, parsed or validated,
 /// records no plan, records one the audit does not confirm (without
 /// `accept_recorded`), or when `lot_size` is given for a source that has
-/// one; [`Error::Input`] for a quality outside the model's range;
+/// one; [`Error::Input`] for a quality outside the model's range, or an
+/// evaluation whose estimated work (the audit's re-solve included) passes
+/// the budget;
 /// [`Error::Numerical`] when a computed measure is out of its range.
 ///
 /// ```
 /// use lotsman::{SourceEvaluation, evaluate_source};
 /// let path = std::path::Path::new("plans/tpw-cover-fit.yaml");
-/// let e = evaluate_source(path, &[0.01], None, false).unwrap();
+/// let e = evaluate_source(path, &[0.01], None, false, false).unwrap();
 /// let SourceEvaluation::Attributes(report) = e else { panic!("an attributes plan") };
 /// assert_eq!(report.points.len(), 1);
 /// assert_eq!(report.accepted_recorded, None);
+/// assert!(report.decided_at.is_none());
 /// ```
 pub fn evaluate_source(
     path: &Path,
     qualities: &[f64],
     lot_size: Option<u64>,
     accept_recorded: bool,
+    decided_at: bool,
 ) -> Result<SourceEvaluation, Error> {
+    let points = (!qualities.is_empty()).then_some(qualities.len());
     let Audited {
         source, accepted, ..
-    } = Audited::load(path, accept_recorded)?;
+    } = Audited::load_checked(path, accept_recorded, |source| {
+        check_source(source, path, SourceJob::Evaluate { points, decided_at })
+            .map_err(|e| InputError::from(e).into())
+    })?;
     let source = in_lot(source, path, lot_size)?;
     let accepted = accepted.map(|d| d.to_string());
     let invalid = |e| SourceError::Invalid {
@@ -95,7 +109,11 @@ pub fn evaluate_source(
     } else {
         qualities
     };
-    let evaluation = evaluate(&plan, &model, at)?;
+    let evaluation = if decided_at {
+        evaluate_with_decided(&plan, &model, at)?
+    } else {
+        evaluate(&plan, &model, at)?
+    };
     let report = EvaluationReport {
         accepted_recorded: accepted,
         ..EvaluationReport::from(&evaluation)

@@ -35,11 +35,11 @@
 //! after the last one that improved the best plan, and not before the
 //! single plan's acceptance number plus three. That stopping rule is the
 //! search's one limit: tests/reference checks it against an exhaustive
-//! search over a box twice as wide. The search grows with the cube of the
-//! acceptance numbers, so it serves points whose single plan has
-//! `c <= 25` ([`MAX_DOUBLE_SINGLE_C`]; about 3 s there on two cores), and
-//! with the single plan's `n`, so it also refuses points whose single plan
-//! has `n (c + 3)^3` above `10^8` ([`MAX_DOUBLE_SEARCH`]).
+//! search over a box twice as wide. The search serves points whose single
+//! plan has `c <= 25` ([`MAX_DOUBLE_SINGLE_C`]). It grows with the cube of
+//! the acceptance numbers and with the single plan's `n`: its work,
+//! `n (c + 3)^3` steps ([`double_work`](crate::double_work)), is estimated
+//! before it starts and held to the work budget.
 //!
 //! # Tie rule
 //!
@@ -51,30 +51,16 @@
 use super::double_sweep::{Candidate, DoubleProblem, FirstStage, Numbers, search};
 use super::request::{Criterion, Design};
 use super::single::Solver;
+use crate::budget::double_work;
 use crate::error::DesignError;
 use crate::model::{Model, ModelKind};
 use crate::plan::{Stage, StagedPlan, whole_argmax};
 use crate::risk::RiskPair;
 
 /// The largest single-plan acceptance number for which the double designer
-/// searches: the search grows with the cube of the acceptance numbers, and
-/// at 25 it takes about 3 s on two cores.
+/// searches: the range its stopping rule serves (the search's time is held
+/// by the work budget, [`double_work`](crate::double_work)).
 pub const MAX_DOUBLE_SINGLE_C: u64 = 25;
-
-/// The largest double search served, measured as `n (c + 3)^3` for the
-/// single plan's `n` and `c`: about 10 s on two cores. Beyond it (points a
-/// few parts per million apart, where the single plan inspects a million
-/// units) the sweep would run for minutes or hours.
-pub const MAX_DOUBLE_SEARCH: f64 = 1e8;
-
-/// The work of a double search whose first samples run up to `n` around
-/// the acceptance number `c`: `n (c + 3)^3`. The sweep tests each first
-/// sample about once for each of the number sets `(c1, r1, c2)`, which grow
-/// with the cube of the acceptance numbers searched (up to `c + 3`);
-/// measured, the time is about `1.3e-7 s` times this size on two cores.
-pub(crate) fn double_search_size(n: f64, c: u64) -> f64 {
-    n * ((c + 3) as f64).powi(3)
-}
 
 struct DoubleSearch<'a> {
     model: &'a Model,
@@ -218,8 +204,9 @@ fn ln_choose(n: u64, k: u64) -> f64 {
 /// no single plan; [`DesignError::NoPlan`] when no double plan meets both
 /// points with a criterion below the single plan's sample size;
 /// [`DesignError::BeyondCap`] when the single plan's acceptance number
-/// passes [`MAX_DOUBLE_SINGLE_C`] or its search size passes
-/// [`MAX_DOUBLE_SEARCH`].
+/// passes [`MAX_DOUBLE_SINGLE_C`]; [`DesignError::OverBudget`] when the
+/// search's estimated work ([`double_work`](crate::double_work)) passes
+/// the budget.
 ///
 /// # Example
 /// ```
@@ -250,16 +237,19 @@ pub fn design_double(
             cap: format!("{MAX_DOUBLE_SINGLE_C} (use the single or the sequential plan)"),
         });
     }
-    let size = double_search_size(single.n as f64, single.c);
-    if size > MAX_DOUBLE_SEARCH {
-        return Err(DesignError::BeyondCap {
-            what: format!(
-                "a double search around the single plan n = {}, c = {} of size n (c + 3)^3 = {size:.2e}",
-                single.n, single.c
-            ),
-            cap: format!("{MAX_DOUBLE_SEARCH:.0e} (use the single or the sequential plan)"),
-        });
-    }
+    double_work(model, single.n as f64, single.c, criterion, second_ratio).check(
+        &format!(
+            "the double plan's search around the single plan n = {}, c = {} ({} model{}, {})",
+            single.n,
+            single.c,
+            model.kind(),
+            model
+                .lot_size()
+                .map_or(String::new(), |lot| format!(", lot of {lot}")),
+            criterion.name()
+        ),
+        "use the single plan, or points further apart",
+    )?;
     let (producer, consumer) = (risks.producer(), risks.consumer());
     let problem = DoubleSearch {
         model,

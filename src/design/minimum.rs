@@ -75,6 +75,7 @@ use super::search::first_true;
 use super::single::{
     MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, smallest_sample, smallest_sample_with_pa_at_most,
 };
+use crate::budget::minimum_work;
 use crate::error::{DesignError, InputError};
 use crate::model::{MAX_LOT_SIZE, Model, ModelKind, nonconforming_in_lot};
 use crate::plan::{
@@ -496,7 +497,10 @@ impl<'a> SingleSearch<'a> {
 /// larger lot (so that whether sampling beats 100% inspection is not
 /// known), when a double request's best single plan has an acceptance
 /// number above [`MAX_DOUBLE_SINGLE_C`](super::double::MAX_DOUBLE_SINGLE_C),
-/// or when no double plan has a smaller ATI than the best single plan.
+/// or when no double plan has a smaller ATI than the best single plan;
+/// [`DesignError::OverBudget`] when the scan's or the double search's
+/// estimated work ([`minimum_work`](crate::minimum_work)) passes the
+/// budget.
 ///
 /// # Example
 /// ```
@@ -512,6 +516,13 @@ impl<'a> SingleSearch<'a> {
 /// assert!(chosen.ati < 930.0);
 /// ```
 pub fn design_rectifying(request: &RectifyingRequest) -> Result<RectifyingDesign, DesignError> {
+    minimum_work(request).check(
+        &format!(
+            "the scan over acceptance numbers in a lot of {}",
+            request.lot_size
+        ),
+        "give a smaller lot, or a process average further below the protection's quality",
+    )?;
     let search = SingleSearch::new(request);
     let Scan { rows, best } = search.scan()?;
     let single = best

@@ -50,10 +50,10 @@
 //! before the best single plan's `c` plus three; the reference script's
 //! exhaustive search over a wider box checks that rule. Like the two-point
 //! double designer, it serves requests whose best single plan has
-//! `c <= 25` ([`MAX_DOUBLE_SINGLE_C`]), and searches of size
-//! `n (c + 3)^3` up to [`MAX_DOUBLE_SEARCH`], with `n` the best single
-//! plan's ATI (the sweep's reach); a tenth of that for an AOQL, whose every
-//! test scans the AOQ curve.
+//! `c <= 25` ([`MAX_DOUBLE_SINGLE_C`]); its work, `n (c + 3)^3` steps with
+//! `n` the best single plan's ATI (the sweep's reach), ten times that for
+//! an AOQL, whose every test scans the AOQ curve, is estimated before it
+//! starts and held to the work budget.
 //!
 //! # Ties
 //!
@@ -64,9 +64,10 @@ use std::collections::HashMap;
 use std::ops::RangeInclusive;
 use std::sync::Mutex;
 
-use super::double::{MAX_DOUBLE_SEARCH, MAX_DOUBLE_SINGLE_C, double_search_size};
+use super::double::MAX_DOUBLE_SINGLE_C;
 use super::double_sweep::{Candidate, DoubleProblem, FirstStage, Numbers, search};
 use super::minimum::{Protection, RectifyingPlan, RectifyingRow, SingleSearch};
+use crate::budget::minimum_double_work;
 use crate::error::DesignError;
 use crate::model::Model;
 use crate::plan::{StagedPlan, curve_maximum};
@@ -226,9 +227,9 @@ impl DoubleProblem for DoubleRectifying<'_> {
 ///
 /// # Errors
 /// [`DesignError::NoRectifyingPlan`] when `start` passes
-/// [`MAX_DOUBLE_SINGLE_C`], when the search would pass
-/// [`MAX_DOUBLE_SEARCH`] (a tenth of it for an AOQL), or when no double
-/// plan beats the best single plan.
+/// [`MAX_DOUBLE_SINGLE_C`], or when no double plan beats the best single
+/// plan; [`DesignError::OverBudget`] when the search's estimated work
+/// passes the budget.
 pub(super) fn design_double_rectifying(
     single: &SingleSearch<'_>,
     rows: &[RectifyingRow],
@@ -250,19 +251,16 @@ pub(super) fn design_double_rectifying(
     let reach = best_single
         .map_or(request.lot_size() as f64, |s| s.ati)
         .min(single.limit as f64);
-    let (cap, kind) = match request.protection() {
-        Protection::Ltpd(_) => (MAX_DOUBLE_SEARCH, "an LTPD"),
-        Protection::Aoql(_) => (MAX_DOUBLE_SEARCH / 10.0, "an AOQL"),
-    };
-    let size = double_search_size(reach, start);
-    if size > cap {
-        return Err(DesignError::NoRectifyingPlan {
-            reason: format!(
-                "the double search around the single plans up to n = {reach:.0} with acceptance number {start} has size n (c + 3)^3 = {size:.2e}, beyond the designer's limit of {cap:.0e} for {kind}"
-            ),
-            suggestion: "use the single plan".to_string(),
-        });
-    }
+    minimum_double_work(request, reach, start).check(
+        &format!(
+            "the double search around the single plans up to n = {reach:.0} with acceptance number {start} ({} protection)",
+            match request.protection() {
+                Protection::Ltpd(_) => "LTPD",
+                Protection::Aoql(_) => "AOQL",
+            }
+        ),
+        "use the single plan (--scheme single)",
+    )?;
     let problem = DoubleRectifying {
         single,
         n_min: Mutex::new(rows.iter().map(|r| (r.c, r.n_min)).collect()),

@@ -14,18 +14,21 @@ mod single;
 mod tradeoff;
 mod variables;
 
-pub use double::{MAX_DOUBLE_SEARCH, MAX_DOUBLE_SINGLE_C, design_double};
+pub(crate) use bracket::{
+    acceptance_number_for_ratio, aoql_factor, poisson_mean_at, sample_for_mean, z_upper,
+};
+pub use double::{MAX_DOUBLE_SINGLE_C, design_double};
 pub use minimum::{
     AOQL_PLAN_LTPD_RISK, MAX_AOQL_ACCEPTANCE_NUMBER, Protection, RectifyingDesign, RectifyingPlan,
     RectifyingRequest, RectifyingRow, design_rectifying,
 };
-pub use multiple::{MAX_MULTIPLE_SINGLE_N, design_multiple};
+pub use multiple::design_multiple;
 pub use request::{
     AsnSummary, Criterion, Design, DesignRequest, MAX_DESIGN_STAGES, Scheme, SchemeOptions,
     Solution, VariablesRequest, VariablesSolution, design_for, solve, solve_variables,
 };
 pub use sensitivity::{Input, Moved, Sensitivity, Steps, sensitivity};
-pub use sequential::{MAX_SEQUENTIAL_SEARCH, WaldApproximation, design_sequential, wald_lines};
+pub use sequential::{WaldApproximation, design_sequential, wald_lines};
 pub use single::{
     Alternative, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, SingleDesign, design_single,
     single_alternatives,

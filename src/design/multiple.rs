@@ -35,6 +35,7 @@
 use super::request::{Criterion, Design};
 use super::sequential::wald_lines;
 use super::single::design_single;
+use crate::budget::multiple_work;
 use crate::error::DesignError;
 use crate::model::{Model, ModelKind};
 use crate::plan::{Stage, StagedPlan, Walk};
@@ -109,19 +110,14 @@ impl Candidate {
     }
 }
 
-/// The largest single-plan sample around which the multiple designer
-/// searches: its stage size `m` runs up from 1 towards the single plan's
-/// `n`, at about half a millisecond per `m` on two cores, so `20000` takes
-/// about 10 s.
-pub const MAX_MULTIPLE_SINGLE_N: u64 = 20_000;
-
 /// Designs the `k`-stage plan of the family above that meets both risk
 /// points and minimises `criterion` (`asn-aql` or `asn-rql`).
 ///
 /// # Errors
 /// As [`design_single`] for points without a single plan;
-/// [`DesignError::BeyondCap`] when the single plan's `n` passes
-/// [`MAX_MULTIPLE_SINGLE_N`]; [`DesignError::NoPlan`] when no plan of the
+/// [`DesignError::OverBudget`] when the search's estimated work
+/// ([`multiple_work`](crate::multiple_work)) passes the budget;
+/// [`DesignError::NoPlan`] when no plan of the
 /// family meets both points with an ASN below the single plan's sample
 /// size.
 ///
@@ -145,15 +141,17 @@ pub fn design_multiple(
     criterion: Criterion,
 ) -> Result<Design, DesignError> {
     let single = design_single(model, risks)?;
-    if single.n > MAX_MULTIPLE_SINGLE_N {
-        return Err(DesignError::BeyondCap {
-            what: format!(
-                "a multiple plan around the single plan's sample n = {}",
-                single.n
-            ),
-            cap: format!("{MAX_MULTIPLE_SINGLE_N} units (use the single or the sequential plan)"),
-        });
-    }
+    multiple_work(model, single.n as f64, k).check(
+        &format!(
+            "the {k}-stage plan's search around the single plan's sample n = {} ({} model{})",
+            single.n,
+            model.kind(),
+            model
+                .lot_size()
+                .map_or(String::new(), |lot| format!(", lot of {lot}"))
+        ),
+        "use the single plan, or points further apart",
+    )?;
     let (pr, co) = (risks.producer(), risks.consumer());
     let (p1, alpha, p2, beta) = (pr.quality, pr.risk, co.quality, co.risk);
     let slope = wald_lines(model, risks).2;

@@ -10,6 +10,7 @@ use super::multiple::design_multiple;
 use super::sequential::{WaldApproximation, design_sequential};
 use super::single::{Alternative, SingleDesign, design_single, single_alternatives};
 use super::variables::{VariablesDesign, design_variables};
+use crate::budget::single_work;
 use crate::error::{DesignError, InputError};
 use crate::model::{Model, ModelKind};
 use crate::plan::{Specification, StagedPlan, measures, stage_outcomes};
@@ -284,8 +285,23 @@ pub fn design_for(request: &DesignRequest) -> Result<Design, DesignError> {
 /// comparison, and for the single scheme the nearby alternatives.
 ///
 /// # Errors
-/// As [`design_for`].
+/// As [`design_for`]; [`DesignError::OverBudget`] when listing the single
+/// plan's alternatives (one pair of searches per acceptance number up to
+/// the plan's) would pass the work budget.
 pub fn solve(request: &DesignRequest) -> Result<Solution, DesignError> {
+    if request.scheme == Scheme::Single {
+        single_work(&request.model, &request.risks, true).check(
+            &format!(
+                "the single plan and its alternatives ({} model{})",
+                request.model.kind(),
+                request
+                    .model
+                    .lot_size()
+                    .map_or(String::new(), |lot| format!(", lot of {lot}"))
+            ),
+            "give points further apart (raise the RQL or lower the AQL), or relax alpha or beta",
+        )?;
+    }
     let single = design_single(&request.model, &request.risks)?;
     let (design, wald) = match request.scheme {
         Scheme::Single => (single.clone().into(), None),

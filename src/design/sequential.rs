@@ -52,6 +52,7 @@ use serde::Serialize;
 
 use super::request::Design;
 use super::single::design_single;
+use crate::budget::sequential_work;
 use crate::error::DesignError;
 use crate::model::{Model, ModelKind};
 use crate::plan::{MAX_ITEMS, SequentialLines, Stage, StagedPlan, Walk};
@@ -148,19 +149,15 @@ const NOMINAL_SCALES: [f64; 11] = [1.0, 0.95, 0.9, 0.85, 0.8, 0.75, 0.7, 0.65, 0
 /// The truncation window, in multiples of the single plan's sample size.
 const TRUNCATION_WINDOW: u64 = 4;
 
-/// The largest truncation search served, as the single plan's `n (c + 1)`:
-/// the search steps item by item up to a few times `n`, and each step
-/// costs about the square of the counts between the lines, which grows
-/// like `c`; `10^7` takes about 10 s on two cores.
-pub const MAX_SEQUENTIAL_SEARCH: u64 = 10_000_000;
-
 /// Designs the truncated sequential plan for the two risk points (see the
 /// module documentation), with Wald's approximations beside it.
 ///
 /// # Errors
 /// As [`design_single`] for points without a single plan;
 /// [`DesignError::BeyondCap`] when the truncation would pass [`MAX_ITEMS`]
-/// items or the single plan's `n (c + 1)` passes [`MAX_SEQUENTIAL_SEARCH`];
+/// items; [`DesignError::OverBudget`] when the truncation search's
+/// estimated work ([`sequential_work`](crate::sequential_work)) passes the
+/// budget;
 /// [`DesignError::NoPlan`] when the lines close before the exact plan meets
 /// both points.
 ///
@@ -191,16 +188,18 @@ pub fn design_sequential(
             cap: format!("{limit} items"),
         });
     }
-    let size = single.n.saturating_mul(single.c + 1);
-    if size > MAX_SEQUENTIAL_SEARCH {
-        return Err(DesignError::BeyondCap {
-            what: format!(
-                "a truncation search around the single plan n = {}, c = {} of size n (c + 1) = {size}",
-                single.n, single.c
-            ),
-            cap: format!("{MAX_SEQUENTIAL_SEARCH} (use the single plan)"),
-        });
-    }
+    sequential_work(model, single.n as f64, single.c).check(
+        &format!(
+            "the sequential plan's truncation search around the single plan n = {}, c = {} ({} model{})",
+            single.n,
+            single.c,
+            model.kind(),
+            model
+                .lot_size()
+                .map_or(String::new(), |lot| format!(", lot of {lot}"))
+        ),
+        "use the single plan, or points further apart",
+    )?;
     let last = (TRUNCATION_WINDOW * single.n).min(limit);
     for scale in NOMINAL_SCALES {
         let (alpha, beta) = (scale * pr.risk, scale * co.risk);

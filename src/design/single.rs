@@ -38,6 +38,7 @@ use serde::Serialize;
 
 use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z_upper};
 use super::search::first_true;
+use crate::budget::single_work;
 use crate::error::DesignError;
 use crate::model::{Model, ModelKind, nonconforming_in_lot};
 use crate::plan::StagedPlan;
@@ -350,6 +351,14 @@ pub(crate) fn design_single_with(
                 suggestion: "inspect 100% of the lot, or widen the pair of points so that they differ by at least one unit in this lot".to_string(),
             });
         }
+    }
+    if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {
+        // A finite lot's tails grow with the share of the lot sampled: the
+        // only single designs that can pass the work budget.
+        single_work(model, risks, false).check(
+            &format!("the single plan's search in a lot of {lot} (hypergeometric model)"),
+            "give points further apart, or use the binomial model",
+        )?;
     }
     let ratio = match model.kind() {
         ModelKind::Poisson => s.p2 / s.p1,

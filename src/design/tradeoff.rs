@@ -45,6 +45,7 @@ use rayon::prelude::*;
 use super::double::design_double;
 use super::request::{Criterion, Scheme, SchemeOptions};
 use super::single::{Memo, design_single_with};
+use crate::budget::tradeoff_work;
 use crate::error::{DesignError, InputError};
 use crate::model::Model;
 use crate::plan::{StagedPlan, measures};
@@ -97,7 +98,8 @@ impl TradeoffRequest {
     /// # Errors
     /// [`InputError`] for an empty axis, a quality the model cannot take,
     /// a risk outside `(0, 1)` or `alpha + beta >= 1`, more than
-    /// [`MAX_GRID_CELLS`] cells, a scheme other than single or double, a
+    /// [`MAX_GRID_CELLS`] cells, a grid whose estimated work
+    /// ([`tradeoff_work`](crate::tradeoff_work)) passes the budget, a scheme other than single or double, a
     /// criterion the scheme does not take, a cost that is not a positive
     /// number, or a cost without a lot size.
     #[allow(clippy::too_many_arguments)]
@@ -167,7 +169,7 @@ impl TradeoffRequest {
                 })
             }
         };
-        Ok(TradeoffRequest {
+        let request = TradeoffRequest {
             aql,
             rql,
             alpha,
@@ -176,7 +178,20 @@ impl TradeoffRequest {
             scheme,
             criterion,
             cost,
-        })
+        };
+        let advice = match scheme {
+            Scheme::Double => "give fewer or coarser AQL and RQL values, or use the single scheme",
+            _ => "give fewer or coarser AQL and RQL values",
+        };
+        tradeoff_work(&request).check(
+            &format!(
+                "solving the {} x {} grid of {scheme} plans",
+                request.aql.len(),
+                request.rql.len()
+            ),
+            advice,
+        )?;
+        Ok(request)
     }
 
     /// The producer's qualities, one per row.

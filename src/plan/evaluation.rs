@@ -1,6 +1,7 @@
 //! The evaluation of a plan over a set of qualities: the rows of an OC
 //! table plus the curve's AOQL and indifference quality.
 
+use crate::budget::{evaluation_advice, evaluation_work};
 use crate::error::InputError;
 use crate::model::Model;
 use crate::plan::{
@@ -19,22 +20,50 @@ pub struct Evaluation {
     pub points: Vec<Measures>,
     /// `decided[i][j]`: the probability that a lot of quality `points[i]`
     /// is decided at stage `j`, after `stages[j].n` units. This is the
-    /// distribution of the number of units inspected without curtailment.
-    pub decided: Vec<Vec<f64>>,
+    /// distribution of the number of units inspected without curtailment;
+    /// computed only when asked for ([`evaluate_with_decided`]), since it
+    /// holds one number per stage and quality.
+    pub decided: Option<Vec<Vec<f64>>>,
     /// The AOQL and where it occurs.
     pub aoql: Aoql,
     /// The quality at which `Pa = 0.5`.
     pub indifference_quality: f64,
 }
 
-/// Evaluates `plan` under `model` at `qualities`.
+/// Evaluates `plan` under `model` at `qualities`: the measures at each,
+/// the AOQL and the indifference quality.
 ///
 /// # Errors
-/// [`InputError::OutOfRange`] for a quality the model cannot take.
+/// [`InputError::OutOfRange`] for a quality the model cannot take;
+/// [`InputError::OverBudget`] when the evaluation's estimated work
+/// ([`evaluation_work`]) passes the budget.
 pub fn evaluate(
     plan: &StagedPlan,
     model: &Model,
     qualities: &[f64],
+) -> Result<Evaluation, InputError> {
+    evaluate_as(plan, model, qualities, false)
+}
+
+/// [`evaluate`], with the distribution of the stage at which each lot is
+/// decided ([`Evaluation::decided`]): one more OC walk per quality, and
+/// one number per stage and quality.
+///
+/// # Errors
+/// As [`evaluate`].
+pub fn evaluate_with_decided(
+    plan: &StagedPlan,
+    model: &Model,
+    qualities: &[f64],
+) -> Result<Evaluation, InputError> {
+    evaluate_as(plan, model, qualities, true)
+}
+
+fn evaluate_as(
+    plan: &StagedPlan,
+    model: &Model,
+    qualities: &[f64],
+    decided_at: bool,
 ) -> Result<Evaluation, InputError> {
     for &q in qualities {
         if !model.accepts_quality(q) {
@@ -45,6 +74,7 @@ pub fn evaluate(
             ));
         }
     }
+    check_evaluation(plan, model, qualities.len(), decided_at)?;
     Ok(Evaluation {
         plan: plan.clone(),
         model: *model,
@@ -52,13 +82,49 @@ pub fn evaluate(
             .iter()
             .map(|&q| measures(plan, model, q))
             .collect(),
-        decided: qualities
-            .iter()
-            .map(|&q| stage_outcomes(plan, model, q).decided())
-            .collect(),
+        decided: decided_at.then(|| {
+            qualities
+                .iter()
+                .map(|&q| stage_outcomes(plan, model, q).decided())
+                .collect()
+        }),
         aoql: aoql(plan, model),
         indifference_quality: quality_at_pa(plan, model, 0.5),
     })
+}
+
+/// Refuses an evaluation of `plan` at `points` qualities whose estimated
+/// work passes the budget, saying how many qualities would fit.
+fn check_evaluation(
+    plan: &StagedPlan,
+    model: &Model,
+    points: usize,
+    decided_at: bool,
+) -> Result<(), InputError> {
+    let work = evaluation_work(plan, model, points, decided_at);
+    if work.fits() {
+        return Ok(());
+    }
+    let advice = evaluation_advice(plan, model, points, decided_at);
+    let what = match (plan.sequential_lines(), plan.as_single()) {
+        (Some(lines), _) => format!("the item-by-item plan of up to {} items", lines.truncation),
+        (None, Some(_)) => format!("the plan {plan}"),
+        (None, None) => format!("the {}-stage plan {plan}", plan.stages().len()),
+    };
+    work.check(
+        &format!(
+            "evaluating {what} ({} model) at {points} qualit{}{}",
+            model.kind(),
+            if points == 1 { "y" } else { "ies" },
+            if decided_at {
+                " with the per-stage distribution"
+            } else {
+                ""
+            }
+        ),
+        &advice,
+    )?;
+    Ok(())
 }
 
 /// The quality at which the OC falls to `target` (`0 < target < 1`).

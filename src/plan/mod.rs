@@ -12,7 +12,9 @@ mod variables;
 mod variables_evaluation;
 
 pub use estimate::{fraction_beyond_known, fraction_beyond_unknown, statistic_for_fraction};
-pub use evaluation::{Evaluation, default_qualities, evaluate, quality_at_pa};
+pub use evaluation::{
+    Evaluation, default_qualities, evaluate, evaluate_with_decided, quality_at_pa,
+};
 pub use judge::{Decision, Judgement, judge, judge_cumulative};
 pub use measurements::{
     AndersonDarling, MeasurementJudgement, NORMALITY_LEVEL, SIGMA_LEVEL, SideStatistic,

@@ -19,6 +19,7 @@ use serde::Serialize;
 use super::evaluation::bracketing_qualities;
 use super::measures::{Aoql, bisect_quality, smooth_maximum};
 use super::variables::VariablesPlan;
+use crate::budget::{evaluation_advice_for, most_variables_qualities, variables_evaluation_work};
 use crate::error::InputError;
 use crate::risk::RiskPair;
 
@@ -80,7 +81,8 @@ pub fn variables_point(plan: &VariablesPlan, lot_size: Option<u64>, p: f64) -> V
 /// # Errors
 /// [`InputError::OutOfRange`] for a quality outside
 /// `(lowest_quality, 1)`, the fractions a process can have under the
-/// specification.
+/// specification; [`InputError::OverBudget`] when the evaluation's
+/// estimated work passes the budget.
 pub fn evaluate_variables(
     plan: &VariablesPlan,
     lot_size: Option<u64>,
@@ -97,6 +99,13 @@ pub fn evaluate_variables(
             return Err(InputError::out_of_range("quality", q, &range));
         }
     }
+    variables_evaluation_work(plan.spec(), qualities.len()).check(
+        &format!(
+            "evaluating the variables plan {plan} at {} qualities",
+            qualities.len()
+        ),
+        &evaluation_advice_for(most_variables_qualities(plan.spec()), false),
+    )?;
     let ceiling = quality_ceiling(plan);
     let aoq = |p: f64| variables_point(plan, lot_size, p).aoq;
     let quality = smooth_maximum(&aoq, lowest, ceiling);

@@ -103,7 +103,7 @@ impl EvaluationReport {
         for m in &self.points {
             measures(m, quality)?;
         }
-        for (m, shares) in self.points.iter().zip(&self.decided_at) {
+        for (m, shares) in self.points.iter().zip(self.decided_at.iter().flatten()) {
             for &share in shares {
                 check(
                     Probability,
@@ -233,19 +233,20 @@ impl MeasurementJudgement {
 mod tests {
     use super::*;
     use crate::model::{Model, ModelKind};
-    use crate::plan::{StagedPlan, evaluate};
+    use crate::plan::{StagedPlan, evaluate_with_decided};
 
     #[test]
     fn a_report_with_a_nan_or_an_impossible_probability_is_withheld() {
         let model = Model::new(ModelKind::Binomial, Some(1000)).unwrap();
         let plan = StagedPlan::single(50, 1, &model).unwrap();
-        let mut report = EvaluationReport::from(&evaluate(&plan, &model, &[0.01, 0.05]).unwrap());
+        let evaluation = evaluate_with_decided(&plan, &model, &[0.01, 0.05]).unwrap();
+        let mut report = EvaluationReport::from(&evaluation);
         assert!(report.check().is_ok());
         report.points[1].pa = f64::NAN;
         let e = report.check().unwrap_err().to_string();
         assert!(e.contains("Pa at quality 0.05 = NaN"), "{e}");
         report.points[1].pa = 0.3;
-        report.decided_at[0][0] = 1.5;
+        report.decided_at.as_mut().unwrap()[0][0] = 1.5;
         assert!(report.check().is_err());
     }
 }

@@ -330,8 +330,10 @@ pub struct EvaluationReport {
     /// The measures at each quality.
     pub points: Vec<Measures>,
     /// `decided_at[i][j]`: probability that a lot of quality `points[i]` is
-    /// decided at stage `j` (the distribution of units inspected).
-    pub decided_at: Vec<Vec<f64>>,
+    /// decided at stage `j` (the distribution of units inspected); only
+    /// when asked for (`evaluate --decided-at`), and then in JSON only.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub decided_at: Option<Vec<Vec<f64>>>,
     /// The AOQL and where it occurs.
     pub aoql: Aoql,
     /// The quality where `Pa = 0.5`.

@@ -2300,7 +2300,8 @@ pub struct SheetNotes {
 /// a template's placeholder ([`placeholders`]), for the caller to report.
 ///
 /// # Errors
-/// [`Error`] for an unreadable or invalid source;
+/// [`Error`] for an unreadable or invalid source, or one whose audit and
+/// sheet would pass the work budget ([`source_work`](crate::source_work));
 /// [`SourceError::Unconfirmed`](crate::SourceError::Unconfirmed), naming the
 /// first differing field with both values, when the audit finds a
 /// discrepancy and `accept_recorded` is off; a sheet that cannot be laid
@@ -2312,7 +2313,10 @@ pub fn write_sheet(
     target: &std::path::Path,
     options: &SheetOptions,
 ) -> Result<SheetNotes, Error> {
-    let audited = Audited::load(source_path, options.accept_recorded)?;
+    let audited = Audited::load_checked(source_path, options.accept_recorded, |source| {
+        crate::budget::check_source(source, source_path, crate::budget::SourceJob::Sheet)
+            .map_err(|e| crate::error::InputError::from(e).into())
+    })?;
     let name = source_path
         .file_name()
         .map_or_else(|| "source.yaml".into(), |n| n.to_string_lossy().to_string());

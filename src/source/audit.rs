@@ -257,8 +257,23 @@ impl Audited {
     /// both values, when the audit finds a discrepancy and
     /// `accept_recorded` is off.
     pub fn load(path: &Path, accept_recorded: bool) -> Result<Self, Error> {
+        Self::load_checked(path, accept_recorded, |_| Ok(()))
+    }
+
+    /// [`Audited::load`], with `check` run on the parsed source before the
+    /// audit's re-solve: the caller's work-budget check, so that a source
+    /// whose work passes the budget is refused before any of it is done.
+    ///
+    /// # Errors
+    /// As [`Audited::load`], and whatever `check` returns.
+    pub fn load_checked(
+        path: &Path,
+        accept_recorded: bool,
+        check: impl FnOnce(&PlanSource) -> Result<(), Error>,
+    ) -> Result<Self, Error> {
         let text = PlanSource::read_text(path)?;
         let source = PlanSource::from_yaml(&text, path)?;
+        check(&source)?;
         let accepted = audit(&source, path)?.discrepancy;
         match accepted {
             Some(discrepancy) if !accept_recorded => Err(SourceError::Unconfirmed {

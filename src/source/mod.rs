@@ -138,13 +138,15 @@ impl PlanSource {
     /// its validated plan: what `judge FILE --found K` starts from.
     ///
     /// # Errors
-    /// As [`Audited::load`]; [`SourceError::Invalid`] when the source
-    /// records no plan or an invalid one.
+    /// As [`Audited::load_checked`] (`check` runs on the parsed source before
+    /// the audit); [`SourceError::Invalid`] when the source records no plan
+    /// or an invalid one.
     pub fn load_with_plan(
         path: &Path,
         accept_recorded: bool,
+        check: impl FnOnce(&PlanSource) -> Result<(), Error>,
     ) -> Result<(Audited, Model, StagedPlan), Error> {
-        let audited = Audited::load(path, accept_recorded)?;
+        let audited = Audited::load_checked(path, accept_recorded, check)?;
         let invalid = |e| SourceError::Invalid {
             path: path.to_path_buf(),
             source: e,
@@ -352,13 +354,15 @@ impl PlanSource {
     /// `evaluate FILE` and `judge FILE` start from.
     ///
     /// # Errors
-    /// As [`Audited::load`]; [`SourceError::Invalid`] when the source
-    /// records no plan or an invalid one.
+    /// As [`Audited::load_checked`] (`check` runs on the parsed source before
+    /// the audit); [`SourceError::Invalid`] when the source records no plan
+    /// or an invalid one.
     pub fn load_with_variables_plan(
         path: &Path,
         accept_recorded: bool,
+        check: impl FnOnce(&PlanSource) -> Result<(), Error>,
     ) -> Result<(Audited, VariablesRequest, VariablesPlan), Error> {
-        let audited = Audited::load(path, accept_recorded)?;
+        let audited = Audited::load_checked(path, accept_recorded, check)?;
         let invalid = |e| SourceError::Invalid {
             path: path.to_path_buf(),
             source: e,

@@ -71,7 +71,11 @@ impl Field {
                         .ok_or(Gap::WholeLot),
                     _ => Err(Gap::WholeLot),
                 },
-                Err(DesignError::BeyondCap { .. }) => Err(Gap::BeyondCap),
+                // A cell whose search passes the work budget is beyond the
+                // designer's limits as well.
+                Err(DesignError::BeyondCap { .. } | DesignError::OverBudget(_)) => {
+                    Err(Gap::BeyondCap)
+                }
                 Err(DesignError::NoPlan { .. } | DesignError::NoRectifyingPlan { .. }) => {
                     Err(Gap::NoPlan)
                 }
