@@ -1,7 +1,7 @@
 //! Variables plans against textbook formulas and worked numbers, and the
 //! designer's minimality as a property.
 
-mod common;
+use crate::common;
 use lotsman::{
     LimitKind, Model, ModelKind, NoncentralT, RiskPair, SigmaKind, Specification, design_variables,
 };

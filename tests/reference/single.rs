@@ -17,11 +17,11 @@ use lotsman::{
 };
 use serde_json::Value;
 
-mod common;
-use common::{close, f, model, risks, rows, u};
+use crate::fixtures;
+use fixtures::{close, f, model, risks, rows, u};
 
 fn fixture() -> Value {
-    common::fixture("tests/data/reference.json")
+    fixtures::fixture("tests/data/reference.json")
 }
 
 #[test]

@@ -6,7 +6,7 @@
 //! tests/properties.rs; the values against scipy and mpmath in
 //! tests/reference.rs.
 
-mod common;
+use crate::common;
 use common::{json_of, lotsman, pdf_text, stdout_of};
 
 /// Runs `args` in `dir` and returns stdout; the run must succeed.

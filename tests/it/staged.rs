@@ -2,7 +2,7 @@
 //! staged designers promise. The exact values against an independent
 //! reference are in tests/reference.rs (staged_reference.json).
 
-mod common;
+use crate::common;
 use common::pair;
 use lotsman::{
     Criterion, Decision, Model, ModelKind, Stage, StagedPlan, curtailed_outcomes, design_double,

@@ -3,7 +3,7 @@
 //! `evaluate` commands for the same points, which tests/reference.rs and
 //! tests/staged_reference.rs check against the reference scripts.
 
-mod common;
+use crate::common;
 use common::{json_of, lotsman, pdf_text, stdout_of};
 
 use predicates::prelude::*;

@@ -10,7 +10,7 @@
 //! each described where it is made; the plan sources in `plans/` serve as
 //! the valid sources they are edited from.
 
-mod common;
+use crate::common;
 use common::lotsman;
 
 use std::path::PathBuf;

@@ -4,7 +4,7 @@
 //! every field of every scheme that differs; and the YAML the tool writes
 //! loads and saves back to the same bytes.
 
-mod common;
+use crate::common;
 use common::{lotsman, page_sizes, pdf_text, stdout_of};
 
 use std::path::{Path, PathBuf};

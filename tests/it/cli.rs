@@ -1,6 +1,6 @@
 //! The command-line contract: flags, JSON keys, exit codes and messages.
 
-mod common;
+use crate::common;
 use common::{json_of, lotsman};
 
 use predicates::prelude::*;

@@ -3,7 +3,7 @@
 //! stable order, sheets in mirrored folders, and a quiet stderr off a
 //! terminal.
 
-mod common;
+use crate::common;
 use common::lotsman;
 
 use std::path::{Path, PathBuf};

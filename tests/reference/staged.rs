@@ -15,11 +15,11 @@ use lotsman::{
 };
 use serde_json::Value;
 
-mod common;
-use common::{close, f, model, risks, rows, u};
+use crate::fixtures;
+use fixtures::{close, f, model, risks, rows, u};
 
 fn fixture() -> Value {
-    common::fixture("tests/data/staged_reference.json")
+    fixtures::fixture("tests/data/staged_reference.json")
 }
 
 fn stages(row: &Value) -> Vec<Stage> {

@@ -3,9 +3,9 @@
 //! for the noncentral t, exhaustive upward scans for the designs; see
 //! tests/data/README.md).
 
-mod common;
+use crate::fixtures;
 
-use common::{close, f, fixture, rows, u};
+use fixtures::{close, f, fixture, rows, u};
 use lotsman::{
     LimitKind, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, SigmaKind, Specification,
     VariablesPlan, anderson_darling, design_variables, fraction_beyond_known,

@@ -2,7 +2,7 @@
 //! reported as such, and the designer's answer agrees across the models
 //! where probability theory says they agree.
 
-mod common;
+use crate::common;
 use common::json_of;
 use lotsman::{Model, ModelKind, RiskPair, design_single};
 

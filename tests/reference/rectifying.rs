@@ -17,11 +17,11 @@ use lotsman::{
 };
 use serde_json::Value;
 
-mod common;
-use common::{close, f, model, rows, u};
+use crate::fixtures;
+use fixtures::{close, f, model, rows, u};
 
 fn fixture() -> Value {
-    common::fixture("tests/data/minimum_reference.json")
+    fixtures::fixture("tests/data/minimum_reference.json")
 }
 
 fn request(row: &Value, scheme: Scheme) -> RectifyingRequest {

@@ -1,7 +1,7 @@
 //! The command-line contract of variables plans: design flags and JSON
 //! keys, evaluate, verify, and judging a lot from its measurements.
 
-mod common;
+use crate::common;
 use common::lotsman;
 
 use predicates::prelude::*;

@@ -3,7 +3,7 @@
 //! read), a batch killed part-way leaves only complete sheets beside the
 //! files that were there, and a write that fails keeps the existing file.
 
-mod common;
+use crate::common;
 use common::lotsman;
 
 use std::collections::BTreeMap;

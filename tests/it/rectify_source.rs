@@ -7,7 +7,7 @@
 //! (tests/data/minimum_reference.json): n = 766, c = 4 for a lot of 5000 at
 //! a process average of 0.25% with an LTPD of 1%.
 
-mod common;
+use crate::common;
 use common::{json_of, lotsman, stdout_of};
 
 use std::path::{Path, PathBuf};

@@ -5,9 +5,9 @@
 //! 50 digits; and the sensitivity of the sample size, each moved point
 //! designed on its own by the same reference design.
 
-mod common;
+use crate::fixtures;
 
-use common::{close, fixture, model, risks, rows};
+use fixtures::{close, fixture, model, risks, rows};
 use lotsman::{Criterion, Scheme, Steps, TradeoffRequest, design_single, sensitivity, tradeoff};
 use serde_json::Value;
 

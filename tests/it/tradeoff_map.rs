@@ -2,7 +2,7 @@
 //! plan, the cost panel, grid sizes, and the contours against a brute-force
 //! design.
 
-mod common;
+use crate::common;
 use common::{page_sizes, pdf_text};
 
 use lotsman::{

@@ -1,7 +1,7 @@
 //! The plan sheet: page, text, determinism, layout and audit hash.
 
-mod common;
-use common::{page_sizes, pdf_text};
+use crate::common;
+use common::{page_sizes, pdf_lines, pdf_text};
 
 use std::path::Path;
 use std::process::Command as Process;
@@ -218,24 +218,6 @@ fn source_at(path: &str) -> (String, PlanSource) {
     let text = std::fs::read_to_string(path).unwrap();
     let source = PlanSource::from_yaml(&text, Path::new(path)).unwrap();
     (text, source)
-}
-
-/// The text of a PDF by `pdftotext -layout`, one line per printed line,
-/// each with its runs of spaces folded to one: a table row reads as its
-/// cells in order.
-fn pdf_lines(pdf: &[u8]) -> Vec<String> {
-    let dir = tempfile::tempdir().unwrap();
-    let path = dir.path().join("s.pdf");
-    std::fs::write(&path, pdf).unwrap();
-    let out = Process::new("pdftotext")
-        .args(["-layout", path.to_str().unwrap(), "-"])
-        .output()
-        .expect("pdftotext (poppler-utils) is installed");
-    String::from_utf8(out.stdout)
-        .unwrap()
-        .lines()
-        .map(|l| l.split_whitespace().collect::<Vec<_>>().join(" "))
-        .collect()
 }
 
 /// All the text with every run of white space folded to one space, so that
@@ -599,7 +581,7 @@ fn recorded(v: &Variables) -> (u64, Option<f64>, Option<f64>) {
     (r.n, r.k, r.m)
 }
 
-/// The readings table's row numbers: on each line of `pdftotext -layout`,
+/// The readings table's row numbers: on each printed line,
 /// the run of whole numbers it starts with (a row of the table, one number
 /// per column), 0 left out (the chart's axis).
 fn reading_rows(lines: &[String]) -> Vec<Vec<u64>> {
@@ -1131,7 +1113,6 @@ fn verify_passes_the_genuine_sheet_of_every_kind_of_plan() {
 
 const SEAL: &str = DEMO;
 const HOUSING: &str = "plans/tpw-housing-finish.yaml";
-const COVER_THICKNESS: &str = "plans/tpw-cover-thickness.yaml";
 
 #[test]
 fn every_attribute_sheet_has_a_lot_record_beside_the_measures_on_either_paper() {
@@ -1194,80 +1175,6 @@ fn every_attribute_sheet_has_a_lot_record_beside_the_measures_on_either_paper() 
     let words = folded(&pdf_text(&sheet.pdf));
     assert!(words.contains("Decided at unit") && words.contains("running count"));
     assert!(!words.contains("Found at stage"), "{words}");
-}
-
-/// The heights in points of the boxes pdftotext gives the words `word` of
-/// a PDF: the font size times 1.164 for the sheet's font (DejaVu Sans's
-/// ascent plus descent), so 8 pt gives 9.31 and 7 pt 8.15.
-fn word_heights(pdf: &[u8], word: &str) -> Vec<f64> {
-    let dir = tempfile::tempdir().unwrap();
-    let path = dir.path().join("s.pdf");
-    std::fs::write(&path, pdf).unwrap();
-    let out = Process::new("pdftotext")
-        .args(["-bbox", path.to_str().unwrap(), "-"])
-        .output()
-        .expect("pdftotext (poppler-utils) is installed");
-    let attr = |line: &str, key: &str| -> f64 {
-        let at = line.find(&format!("{key}=\"")).unwrap() + key.len() + 2;
-        line[at..].split('"').next().unwrap().parse().unwrap()
-    };
-    String::from_utf8(out.stdout)
-        .unwrap()
-        .lines()
-        .filter(|l| l.trim_end().ends_with(&format!(">{word}</word>")))
-        .map(|l| attr(l, "yMax") - attr(l, "yMin"))
-        .collect()
-}
-
-/// A characteristic of some 320 characters, with a word found nowhere
-/// else on a sheet.
-const LONG_CHARACTERISTIC: &str = "Bore diameter 12.000 +0.018/-0.000 mm, measured with the \
-    air gauge TPW-AG-12 at three heights and in two orientations ninety degrees apart; a \
-    unit is nonconforming when any of the six readings lies outside the tolerance, or when \
-    the bore shows a scratch deeper than 0.01 mm under the profilometer (Quillfeather method)";
-
-#[test]
-fn a_long_characteristic_wraps_onto_more_lines_and_never_prints_below_7_points() {
-    for path in [SEAL, DOUBLE, SEQUENTIAL, MULTIPLE, COVER_THICKNESS] {
-        let (text, mut source) = source_at(path);
-        source.characteristic = Some(LONG_CHARACTERISTIC.to_string());
-        for paper in [Paper::A4, Paper::Letter] {
-            let sheet = render_sheet(&text, &source, "s.yaml", paper)
-                .unwrap_or_else(|e| panic!("{path} {paper:?}: {e}"));
-            assert_laid_out(&sheet, paper);
-            let page = folded(&pdf_text(&sheet.pdf));
-            assert!(
-                page.contains(LONG_CHARACTERISTIC),
-                "{path} {paper:?}: {page}"
-            );
-            let heights = word_heights(&sheet.pdf, "(Quillfeather");
-            assert_eq!(heights.len(), 1, "{path} {paper:?}");
-            assert!(
-                heights[0] >= 8.1,
-                "{path} {paper:?}: {heights:?} (7 pt is 8.15)"
-            );
-        }
-    }
-    // One that does not fit at 7 points in five lines is refused, with
-    // the field named.
-    let (text, mut source) = source_at(SEAL);
-    source.characteristic = Some(LONG_CHARACTERISTIC.repeat(2));
-    let err = render_sheet(&text, &source, "s.yaml", Paper::A4)
-        .unwrap_err()
-        .to_string();
-    assert!(
-        err.contains("cannot be laid out") && err.contains("Characteristic: 'Bore diameter"),
-        "{err}"
-    );
-}
-
-#[test]
-fn a_short_characteristic_keeps_8_points() {
-    let (text, source) = demo_source();
-    let sheet = render_sheet(&text, &source, "s.yaml", Paper::A4).unwrap();
-    let heights = word_heights(&sheet.pdf, "magnification");
-    assert_eq!(heights.len(), 1);
-    assert!((heights[0] - 9.31).abs() < 0.05, "{heights:?}");
 }
 
 #[test]

@@ -2,7 +2,7 @@
 //! codes and messages. The plans it prints are the exhaustive scipy search's
 //! (tests/data/minimum_reference.json) at the same conditions.
 
-mod common;
+use crate::common;
 use common::{lotsman, stdout_of};
 
 use predicates::prelude::*;

@@ -1,0 +1,33 @@
+//! The cargo suite: everything `cargo test` checks beyond the unit tests
+//! and the reference suite, in one binary (one link after a change to the
+//! library), one module per topic. It needs nothing outside cargo: PDFs
+//! are read with lopdf (tests/common/pdf.rs). What needs other programs
+//! (poppler's word boxes and renders) is in the system suite,
+//! tests/system.
+
+// A failed check is the point of a test: unwrap, expect and panic are
+// allowed here (the `[lints]` table of Cargo.toml denies them elsewhere).
+#![allow(clippy::unwrap_used, clippy::expect_used, clippy::panic)]
+
+#[path = "../common/mod.rs"]
+mod common;
+
+mod audit;
+mod batch;
+mod cli;
+mod guards;
+mod no_panics;
+mod numbers;
+mod plain_words;
+mod properties;
+mod rectify_cli;
+mod rectify_source;
+mod rectifying;
+mod refusals;
+mod sheet;
+mod staged;
+mod tradeoff_cli;
+mod tradeoff_map;
+mod variables;
+mod variables_cli;
+mod writes;
