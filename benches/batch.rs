@@ -5,6 +5,10 @@
 //! parses, re-solves and compares every source, over all cores and, for
 //! comparison, on one.
 
+// A bench may stop at an unexpected error: unwrap, expect and panic are
+// allowed here (the `[lints]` table of Cargo.toml denies them elsewhere).
+#![allow(clippy::unwrap_used, clippy::expect_used, clippy::panic)]
+
 use std::hint::black_box;
 use std::path::PathBuf;
 

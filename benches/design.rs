@@ -2,6 +2,10 @@
 //! <= 20 us median; p1 = 0.01%, p2 = 0.0125% <= 5 ms; hypergeometric with
 //! N = 10^6 <= 20 ms; 1,001-point OC curve <= 1 ms).
 
+// A bench may stop at an unexpected error: unwrap, expect and panic are
+// allowed here (the `[lints]` table of Cargo.toml denies them elsewhere).
+#![allow(clippy::unwrap_used, clippy::expect_used, clippy::panic)]
+
 use std::hint::black_box;
 
 mod common;

@@ -3,6 +3,10 @@
 //! of 5,000 (the conditions of the published table entries in
 //! tests/minimum.rs).
 
+// A bench may stop at an unexpected error: unwrap, expect and panic are
+// allowed here (the `[lints]` table of Cargo.toml denies them elsewhere).
+#![allow(clippy::unwrap_used, clippy::expect_used, clippy::panic)]
+
 use std::hint::black_box;
 
 use criterion::{Criterion, criterion_group, criterion_main};

@@ -3,6 +3,10 @@
 //! designer <= 100 ms at p1 = 1%, p2 = 6% and <= 2 s at p1 = 0.1%,
 //! p2 = 0.3%; the sequential plan's exact OC at 1,001 qualities <= 50 ms).
 
+// A bench may stop at an unexpected error: unwrap, expect and panic are
+// allowed here (the `[lints]` table of Cargo.toml denies them elsewhere).
+#![allow(clippy::unwrap_used, clippy::expect_used, clippy::panic)]
+
 use std::hint::black_box;
 
 mod common;

@@ -1,6 +1,10 @@
 //! Speed of the trade-off grid (issue figure: a 100 x 100 single-plan grid,
 //! p1 0.2% to 2% and p2 3% to 12%, in <= 0.2 s including the JSON output).
 
+// A bench may stop at an unexpected error: unwrap, expect and panic are
+// allowed here (the `[lints]` table of Cargo.toml denies them elsewhere).
+#![allow(clippy::unwrap_used, clippy::expect_used, clippy::panic)]
+
 use std::hint::black_box;
 
 use criterion::{Criterion, criterion_group, criterion_main};

@@ -31,20 +31,9 @@
 //! characteristics need the inspection that the applicable contract,
 //! regulation or licensed practice requires.
 
-#![forbid(unsafe_code)]
-#![warn(missing_docs)]
-// No panic on anything a user can feed in: outside the unit tests, errors
-// are values, never unwrap, expect or panic.
-#![cfg_attr(
-    not(test),
-    deny(
-        clippy::unwrap_used,
-        clippy::expect_used,
-        clippy::panic,
-        clippy::todo,
-        clippy::unimplemented
-    )
-)]
+// The lints (no unsafe code, documented public items, no unwrap, expect
+// or panic outside the unit tests) are set for every target in the
+// `[lints]` table of Cargo.toml and in clippy.toml.
 
 mod atomic;
 mod batch;

@@ -2,18 +2,6 @@
 //! library requests, call the library, print, and map the outcome to an exit
 //! code (0 ok, 1 verify mismatch, 2 invalid input or no plan).
 
-#![forbid(unsafe_code)]
-#![cfg_attr(
-    not(test),
-    deny(
-        clippy::unwrap_used,
-        clippy::expect_used,
-        clippy::panic,
-        clippy::todo,
-        clippy::unimplemented
-    )
-)]
-
 mod cli;
 mod progress;
 mod quality_flags;
