@@ -25,6 +25,7 @@ mod rectify_source;
 mod rectifying;
 mod refusals;
 mod sheet;
+mod snapshots;
 mod staged;
 mod tradeoff_cli;
 mod tradeoff_map;
