@@ -15,6 +15,7 @@ mod common;
 mod audit;
 mod batch;
 mod cli;
+mod docs;
 mod guards;
 mod no_panics;
 mod numbers;
