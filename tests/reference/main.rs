@@ -1,9 +1,8 @@
 //! The reference suite: lotsman's numbers against values computed outside
 //! the project. The fixtures in tests/data/ are written by the Python
 //! scripts beside this file (mpmath at 50 digits, scipy.stats; see
-//! tests/data/README.md and docs/methods.md); `.ci/run` checks that the
-//! scripts reproduce them. The published worked examples and tables are in
-//! `published`.
+//! docs/validation.md); `.ci/run` checks that the scripts reproduce them.
+//! The published worked examples and tables are in `published`.
 //!
 //! Run it alone with `cargo test --test reference`.
 

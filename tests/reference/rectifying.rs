@@ -3,7 +3,7 @@
 //! `tests/reference/make_minimum_reference.py`: exhaustive searches with
 //! scipy.stats over every sample size of small lots (single plans) and over
 //! a box of Dodge and Romig double plans, with every stored measure at 50
-//! digits (mpmath). See `tests/data/README.md`.
+//! digits (mpmath). See `docs/validation.md`.
 //!
 //! Tolerances: plan numbers and the rows' smallest n exactly; ATI, Pa, AOQL
 //! and the LTPD of the continuous models relative 1e-9 (the models'

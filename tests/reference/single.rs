@@ -1,6 +1,6 @@
 //! Comparison with the reference fixture `tests/data/reference.json`, made
 //! by `tests/reference/make_reference.py` with mpmath (50 digits) and
-//! scipy.stats. See `tests/data/README.md` for the versions.
+//! scipy.stats. See `docs/validation.md` for the versions.
 //!
 //! Tolerances, per kind of value:
 //! - tails, OC, AOQ, ATI, curtailed ASN, indifference quality, Poisson unity

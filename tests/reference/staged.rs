@@ -3,7 +3,7 @@
 //! digits): item-level dynamic programmes for OC, ASN and curtailed ASN,
 //! brute-force searches for the double and multiple designs, and the
 //! sequential truncation rule replayed from scratch. See
-//! `tests/data/README.md`.
+//! `docs/validation.md`.
 //!
 //! Tolerances: probabilities, ASN, AOQ and ATI relative 1e-9 (the models'
 //! accuracy); plan numbers exactly; the sequential lines to 1e-15 relative

@@ -1,7 +1,7 @@
 //! Variables plans against tests/data/variables_reference.json, written by
 //! tests/reference/make_variables_reference.py (mpmath at high precision
 //! for the noncentral t, exhaustive upward scans for the designs; see
-//! tests/data/README.md).
+//! docs/validation.md).
 
 use crate::fixtures;
 
