@@ -28,6 +28,14 @@
 //!   comment (`<!-- ... -->`) runs too but is not shown: it makes the files
 //!   an example needs without cluttering the page.
 //!
+//! A table whose header has an `Example` column and a `Message` column
+//! (the refusals page) is run too: each row's example, one inline code
+//! span, is run as `lotsman EXAMPLE` after the page's console blocks, must
+//! fail (exit code 2, or 1 when the row says `exit 1`), and must print the
+//! row's message, one inline code span, as a whole line (after
+//! `lotsman: error: ` when it is an error), where `(...)` stands for any
+//! characters. A row without an example shows `—` in its place.
+//!
 //! Any other fenced block that shows a `lotsman` command fails the test, so
 //! no example can escape it. To bring a page up to date after a change of
 //! output, run `LOTSMAN_DOCS=overwrite cargo test --test it docs`: each
@@ -123,6 +131,100 @@ fn examples(page: &str, lines: &[&str]) -> Vec<Example> {
     examples
 }
 
+/// One row of a refusals table: where it stands, the arguments after
+/// `lotsman`, the exit code and the message it must print.
+struct Refusal {
+    line: usize,
+    example: String,
+    code: i32,
+    message: String,
+}
+
+/// The cells of a table row, split at the `|` that are not escaped.
+fn cells(line: &str) -> Vec<String> {
+    let inner = line.trim().trim_start_matches('|').trim_end_matches('|');
+    let mut cells = vec![String::new()];
+    let mut chars = inner.chars().peekable();
+    while let Some(ch) = chars.next() {
+        match ch {
+            '\\' if chars.peek() == Some(&'|') => {
+                cells.last_mut().unwrap().push('|');
+                chars.next();
+            }
+            '|' => cells.push(String::new()),
+            _ => cells.last_mut().unwrap().push(ch),
+        }
+    }
+    cells.iter().map(|c| c.trim().to_string()).collect()
+}
+
+/// The text of a cell that is exactly one inline code span.
+fn code_span(cell: &str) -> Option<&str> {
+    let inner = cell.strip_prefix('`')?.strip_suffix('`')?;
+    (!inner.contains('`')).then_some(inner)
+}
+
+/// The rows of the page's tables headed `Example` and `Message ...`;
+/// panics on a row whose example or message is not one code span.
+fn refusal_rows(page: &str, lines: &[&str]) -> Vec<Refusal> {
+    let mut rows = Vec::new();
+    let mut columns: Option<(usize, usize)> = None;
+    for (i, line) in lines.iter().enumerate() {
+        if !line.starts_with('|') {
+            columns = None;
+            continue;
+        }
+        let row = cells(line);
+        if columns.is_none() {
+            let example = row.iter().position(|c| c == "Example");
+            let message = row.iter().position(|c| c.starts_with("Message"));
+            if let (Some(e), Some(m)) = (example, message) {
+                columns = Some((e, m));
+            }
+            continue;
+        }
+        let Some((e, m)) = columns else { continue };
+        if row[e].starts_with("---") || row[e] == "—" {
+            continue;
+        }
+        let (Some(example), Some(message)) = (code_span(&row[e]), code_span(&row[m])) else {
+            panic!(
+                "{page}:{}: a refusal row needs its example and its message as one code span each: {line}",
+                i + 1
+            );
+        };
+        rows.push(Refusal {
+            line: i + 1,
+            example: example.to_string(),
+            code: if line.contains("exit 1") { 1 } else { 2 },
+            message: message.to_string(),
+        });
+    }
+    rows
+}
+
+/// Whether the printed `line` says `message`, after `lotsman: error: ` or
+/// on its own, with `(...)` in the message standing for any characters.
+fn says(line: &str, message: &str) -> bool {
+    let line = line.strip_prefix("lotsman: error: ").unwrap_or(line);
+    let parts: Vec<&str> = message.split("(...)").collect();
+    let (first, last) = (parts[0], parts[parts.len() - 1]);
+    if parts.len() == 1 {
+        return line == message;
+    }
+    if !line.starts_with(first) || !line[first.len()..].ends_with(last) {
+        return false;
+    }
+    let mut rest = &line[first.len()..line.len() - last.len()];
+    for part in &parts[1..parts.len() - 1] {
+        match rest.find(part) {
+            Some(at) => rest = &rest[at + part.len()..],
+            None => return false,
+        }
+    }
+    true
+}
+
 /// `text` with the trailing spaces of each line and the trailing blank
 /// lines taken off.
 fn trimmed(text: &str) -> String {
@@ -165,19 +267,22 @@ fn run_page(path: &Path) -> Vec<String> {
     let overwrite = std::env::var("LOTSMAN_DOCS").is_ok_and(|v| v == "overwrite");
     let mut failures = Vec::new();
     let mut replacements: Vec<(std::ops::Range<usize>, String)> = Vec::new();
-    for example in &examples {
-        let out = Command::new("sh")
+    let run = |command: &str| {
+        let out = Command::new("bash")
             .arg("-c")
-            .arg(format!("exec 2>&1\n{}", example.command))
+            .arg(format!("exec 2>&1\n{command}"))
             .current_dir(dir.path())
             .env("PATH", &path_var)
             .env("LC_ALL", "C.UTF-8")
             .output()
             .unwrap();
         let printed = trimmed(&String::from_utf8_lossy(&out.stdout));
+        (out.status.code().unwrap_or(-1), printed)
+    };
+    for example in &examples {
+        let (code, printed) = run(&example.command);
         let shown = trimmed(&lines[example.output.clone()].join("\n"));
         let where_ = format!("{page}:{}: $ {}", example.line, example.command);
-        let code = out.status.code().unwrap_or(-1);
         if code != example.code {
             failures.push(format!(
                 "{where_}\nexit code {code}, the page says {} (add '? {code}' after the command if that is right); it printed:\n{printed}",
@@ -193,6 +298,21 @@ fn run_page(path: &Path) -> Vec<String> {
         if let Err(diff) = compared {
             failures.push(format!("{where_}\n{diff}"));
             replacements.push((example.output.clone(), printed));
+        }
+    }
+    for row in refusal_rows(&page, &lines) {
+        let (code, printed) = run(&format!("lotsman {}", row.example));
+        let where_ = format!("{page}:{}: lotsman {}", row.line, row.example);
+        if code != row.code {
+            failures.push(format!(
+                "{where_}\nexit code {code}, the row says {}; it printed:\n{printed}",
+                row.code
+            ));
+        } else if !printed.lines().any(|l| says(l, &row.message)) {
+            failures.push(format!(
+                "{where_}\nno line says the row's message\n  {}\nit printed:\n{printed}",
+                row.message
+            ));
         }
     }
     if overwrite && !replacements.is_empty() {
@@ -230,6 +350,7 @@ fn every_command_example_in_the_docs_prints_what_the_page_shows() {
         let text = std::fs::read_to_string(&page).unwrap();
         let lines: Vec<&str> = text.lines().collect();
         count += examples(&page.display().to_string(), &lines).len();
+        count += refusal_rows(&page.display().to_string(), &lines).len();
         failures.extend(run_page(&page));
     }
     assert!(count > 0, "no examples found");
@@ -292,4 +413,30 @@ fn a_cut_matches_any_lines_and_nothing_else_passes() {
             .try_eq(None, printed.into_data(), "a\nc 12 d\ne".into_data())
             .is_err()
     );
+}
+
+#[test]
+fn a_refusal_row_is_read_and_its_message_matched_with_cuts() {
+    let page = "\
+| Input | Example | Message (after `lotsman: error: `) |
+| --- | --- | --- |
+| Crossed points | `design --aql 6% --rql 1%` | `the AQL 0.06 (...) RQL 0.01` |
+| A forged sheet (exit 1) | `verify s.yaml --sheet f.pdf` | `mismatch  s.yaml: f.pdf` |
+| A numerical failure | — | `numerical failure` |
+";
+    let lines: Vec<&str> = page.lines().collect();
+    let rows = refusal_rows("page", &lines);
+    assert_eq!(rows.len(), 2);
+    assert_eq!(rows[0].example, "design --aql 6% --rql 1%");
+    assert_eq!((rows[0].code, rows[1].code), (2, 1));
+    assert!(says(
+        "lotsman: error: the AQL 0.06 must be below the RQL 0.01",
+        &rows[0].message
+    ));
+    assert!(!says(
+        "lotsman: error: the AQL 0.06 must be below the RQL 0.02",
+        &rows[0].message
+    ));
+    assert!(says("mismatch  s.yaml: f.pdf", &rows[1].message));
+    assert!(!says("mismatch  s.yaml: f.pdf and more", &rows[1].message));
 }
