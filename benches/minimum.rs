@@ -1,7 +1,7 @@
 //! Speed of the minimum-inspection designer (rectifying inspection): a
 //! typical single and double design, for an LTPD and for an AOQL, in lots
 //! of 5,000 (the conditions of the published table entries in
-//! tests/minimum.rs).
+//! tests/it/rectifying.rs).
 
 // A bench may stop at an unexpected error: unwrap, expect and panic are
 // allowed here (the `[lints]` table of Cargo.toml denies them elsewhere).
