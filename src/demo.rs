@@ -9,10 +9,10 @@
 
 use std::path::{Path, PathBuf};
 
-use crate::atomic::{Overwrite, write_set};
 use crate::budget::{SourceJob, Work, source_work};
 use crate::error::{Error, InputError, SourceError};
-use crate::folder::normalise_folder;
+use crate::fs::normalise_folder;
+use crate::fs::{Overwrite, write_set};
 use crate::plan::{
     Decision, aoql, default_qualities, evaluate, evaluate_variables, judge_measurements,
     parse_measurements, variables_qualities,

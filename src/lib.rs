@@ -46,27 +46,20 @@
     )
 )]
 
-mod atomic;
 mod batch;
 mod budget;
 mod demo;
 mod design;
 mod error;
-mod folder;
-mod leftovers;
+mod fs;
 mod model;
 mod numeric;
 mod plain;
 mod plan;
-mod quantity;
-mod read;
 mod report;
-mod risk;
 mod sheet;
 mod source;
-mod templates;
 
-pub use atomic::{Overwrite, write_atomic, write_set};
 pub use batch::{
     SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target, sheet_targets,
     verify_file,
@@ -90,9 +83,14 @@ pub use design::{
     wald_lines,
 };
 pub use error::{BatchError, DesignError, Error, InputError, SourceError};
-pub use folder::normalise_folder;
+pub use fs::{Overwrite, normalise_folder, read_limited, write_atomic, write_set};
 pub use model::{
     MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot,
+};
+pub use model::{RiskPair, RiskPoint};
+pub use numeric::{
+    BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, QualityRange, bare_fraction_note, parse_count,
+    parse_fraction, parse_fraction_list, parse_number, parse_stage,
 };
 pub use numeric::{NEAR_LIMIT, NumericalError, Quantity, Short, check, near_limit};
 pub use plain::{escape_controls, io_message, io_reason, is_unsafe_char, shell_path, shell_word};
@@ -107,11 +105,6 @@ pub use plan::{
     judge_measurements, largest_asn, mean_and_sd, measures, parse_measurements, quality_at_pa,
     stage_outcomes, statistic_for_fraction, variables_point, variables_qualities,
 };
-pub use quantity::{
-    BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, QualityRange, bare_fraction_note, parse_count,
-    parse_fraction, parse_fraction_list, parse_number, parse_stage,
-};
-pub use read::read_limited;
 pub use report::{
     AlternativeReport, BatchSummary, CostReport, Csv, DesignReport, EvaluationBatchReport,
     EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ProtectionReport,
@@ -120,7 +113,6 @@ pub use report::{
     VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, format_quality,
     format_quality_cell, format_significant, variables_rule, words,
 };
-pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{
     ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity, Paper,
     SOURCE_NAME_KEY, Sheet, SheetNotes, SheetOptions, SheetVerdict, TradeoffMap, check_sheet,
@@ -132,4 +124,4 @@ pub use source::{
     PlanSource, PointSource, RISK_TOLERANCE, RecordedPlan, RecordedVariables, SCHEMA_VERSION,
     UnmetPoint, VariablesSource, Verdict, audit, tool_version, verify,
 };
-pub use templates::{Placeholder, TEMPLATES, placeholders, template, template_kinds};
+pub use source::{Placeholder, TEMPLATES, placeholders, template, template_kinds};

@@ -53,9 +53,9 @@ use super::request::{Criterion, Design};
 use super::single::Solver;
 use crate::budget::double_work;
 use crate::error::DesignError;
+use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::plan::{Stage, StagedPlan, whole_argmax};
-use crate::risk::RiskPair;
 
 /// The largest single-plan acceptance number for which the double designer
 /// searches: the range its stopping rule serves (the search's time is held

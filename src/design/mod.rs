@@ -3,9 +3,8 @@
 mod bracket;
 mod double;
 mod double_sweep;
-mod minimum;
-mod minimum_double;
 mod multiple;
+mod rectifying;
 mod request;
 mod search;
 mod sensitivity;
@@ -18,11 +17,11 @@ pub(crate) use bracket::{
     acceptance_number_for_ratio, aoql_factor, poisson_mean_at, sample_for_mean, z_upper,
 };
 pub use double::{MAX_DOUBLE_SINGLE_C, design_double};
-pub use minimum::{
+pub use multiple::design_multiple;
+pub use rectifying::{
     AOQL_PLAN_LTPD_RISK, MAX_AOQL_ACCEPTANCE_NUMBER, Protection, RectifyingDesign, RectifyingPlan,
     RectifyingRequest, RectifyingRow, design_rectifying,
 };
-pub use multiple::design_multiple;
 pub use request::{
     AsnSummary, Criterion, Design, DesignRequest, MAX_DESIGN_STAGES, Scheme, SchemeOptions,
     Solution, VariablesRequest, VariablesSolution, design_for, solve, solve_variables,

@@ -12,9 +12,9 @@ use super::single::{Alternative, SingleDesign, design_single, single_alternative
 use super::variables::{VariablesDesign, design_variables};
 use crate::budget::single_work;
 use crate::error::{DesignError, InputError};
+use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::plan::{Specification, StagedPlan, measures, stage_outcomes};
-use crate::risk::RiskPair;
 
 /// The sampling scheme of a plan.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]

@@ -40,9 +40,9 @@ use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_me
 use super::search::first_true;
 use crate::budget::single_work;
 use crate::error::DesignError;
+use crate::model::RiskPair;
 use crate::model::{Model, ModelKind, nonconforming_in_lot};
 use crate::plan::StagedPlan;
-use crate::risk::RiskPair;
 
 /// The largest sample size the designer will propose (`10^9`); whenever a
 /// lot size is known, under every model, the lot caps it too (a design

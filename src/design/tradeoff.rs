@@ -48,8 +48,8 @@ use super::single::{Memo, design_single_with};
 use crate::budget::tradeoff_work;
 use crate::error::{DesignError, InputError};
 use crate::model::Model;
+use crate::model::{RiskPair, RiskPoint, check_quality, check_risks};
 use crate::plan::{StagedPlan, measures};
-use crate::risk::{RiskPair, RiskPoint, check_quality, check_risks};
 
 /// The most cells a grid may have (`250,000`, e.g. 500 x 500).
 pub const MAX_GRID_CELLS: usize = 250_000;

@@ -44,12 +44,12 @@
 
 use super::search::first_true;
 use crate::error::DesignError;
+use crate::model::RiskPair;
 use crate::model::{NoncentralT, normal};
 use crate::numeric::{Short, brent};
 use crate::plan::{
     LimitKind, MAX_VARIABLES_SAMPLE, Specification, VariablesPlan, fraction_beyond_unknown,
 };
-use crate::risk::RiskPair;
 
 /// A designed variables plan with the risks it achieves.
 #[derive(Clone, Debug, PartialEq)]

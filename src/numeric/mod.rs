@@ -5,10 +5,15 @@
 
 mod decimal;
 mod guard;
+mod parse;
 mod quadrature;
 mod root;
 
 pub(crate) use decimal::round_significant;
 pub use guard::{NEAR_LIMIT, NumericalError, Quantity, Short, check, near_limit};
+pub use parse::{
+    BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, QualityRange, bare_fraction_note, parse_count,
+    parse_fraction, parse_fraction_list, parse_number, parse_stage,
+};
 pub(crate) use quadrature::integrate;
 pub(crate) use root::{brent, expand_bracket};

@@ -4,10 +4,10 @@
 use crate::budget::{evaluation_advice, evaluation_work};
 use crate::error::InputError;
 use crate::model::Model;
+use crate::model::RiskPair;
 use crate::plan::{
     Aoql, Measures, StagedPlan, acceptance_probability, aoql, measures, stage_outcomes,
 };
-use crate::risk::RiskPair;
 
 /// A plan evaluated at a list of qualities.
 #[derive(Clone, Debug, PartialEq)]

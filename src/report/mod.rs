@@ -33,9 +33,9 @@ pub use self::variables::{
 };
 use crate::design::{Alternative, AsnSummary, Scheme, Sensitivity, Solution, WaldApproximation};
 use crate::model::ModelKind;
+use crate::model::RiskPair;
 use crate::numeric::Short;
 use crate::plan::{Aoql, Evaluation, ItemRun, Measures, SequentialLines, Stage, StagedPlan};
-use crate::risk::RiskPair;
 use crate::source::{Difference, tool_version};
 
 /// One output format.

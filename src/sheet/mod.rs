@@ -29,9 +29,10 @@ mod variables_text;
 
 use sha2::{Digest, Sha256};
 
-use crate::atomic::{Overwrite, write_atomic};
 use crate::design::{Protection, RectifyingPlan, RectifyingRequest, design_single};
 use crate::error::{Error, InputError};
+use crate::fs::{Overwrite, write_atomic};
+use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::numeric::Quantity::{Amount, Probability};
 use crate::numeric::{NumericalError, Quantity, Short, check};
@@ -40,11 +41,10 @@ use crate::plan::{
     quality_at_pa,
 };
 use crate::report::{EvaluationReport, format_quality, format_short, format_significant, words};
-use crate::risk::RiskPair;
 use crate::source::{
     Audited, Discrepancy, PlanSource, RecordedPlan, attributes_risks, tool_version,
 };
-use crate::templates::{Placeholder, placeholders};
+use crate::source::{Placeholder, placeholders};
 use canvas::{BOLD_ID, Canvas, Face, MM_PER_PT, Page, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
 pub use check::{MAX_SHEET_BYTES, SOURCE_NAME_KEY, SheetVerdict, check_sheet};

@@ -10,10 +10,10 @@ use std::path::Path;
 use super::{Difference, PlanSource, RISK_TOLERANCE, Verdict, verify};
 use crate::design::{Design, Protection, RectifyingPlan};
 use crate::error::{Error, InputError, SourceError};
+use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::plan::{StagedPlan, VariablesPlan};
 use crate::report::{format_quality, format_significant};
-use crate::risk::RiskPair;
 
 /// What the audit of a source found.
 #[derive(Clone, Debug, PartialEq)]

@@ -7,6 +7,7 @@ mod describe;
 mod keys;
 mod rectifying;
 mod schema;
+mod templates;
 mod verify;
 mod yaml_words;
 
@@ -19,6 +20,7 @@ pub use schema::{
     PlanSource, PointSource, RecordedPlan, RecordedVariables, RectifyingSource, SCHEMA_VERSION,
     VariablesSource,
 };
+pub use templates::{Placeholder, TEMPLATES, placeholders, template, template_kinds};
 pub use verify::{Difference, RISK_TOLERANCE, Verdict, verify};
 
 use crate::design::{
@@ -26,8 +28,8 @@ use crate::design::{
 };
 use crate::error::{Error, InputError, SourceError};
 use crate::model::Model;
+use crate::model::{RiskPair, RiskPoint};
 use crate::plan::{Specification, StagedPlan, VariablesPlan};
-use crate::risk::{RiskPair, RiskPoint};
 
 /// The largest plan source read: 1 MiB, refused by size before parsing.
 pub const MAX_SOURCE_BYTES: u64 = 1 << 20;
@@ -119,8 +121,7 @@ impl PlanSource {
             path: path.to_path_buf(),
             source,
         };
-        let bytes =
-            crate::read::read_limited(path, MAX_SOURCE_BYTES, "a plan source").map_err(io)?;
+        let bytes = crate::fs::read_limited(path, MAX_SOURCE_BYTES, "a plan source").map_err(io)?;
         String::from_utf8(bytes).map_err(|e| {
             io(std::io::Error::new(
                 std::io::ErrorKind::InvalidData,

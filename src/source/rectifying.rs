@@ -28,7 +28,7 @@ use super::{PlanSource, RecordedPlan, RectifyingSource, SCHEMA_VERSION, tool_ver
 use crate::design::{Protection, RectifyingDesign, RectifyingRequest, Scheme};
 use crate::error::InputError;
 use crate::model::Model;
-use crate::risk::RiskPoint;
+use crate::model::RiskPoint;
 
 /// The consumer's risk at the LTPD when a source gives none, as `rectify`
 /// takes it without `--beta`.

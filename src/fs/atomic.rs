@@ -4,7 +4,7 @@
 //! was, never half-written; the only trace a killed run can leave is a hidden
 //! temporary file (`.lotsman-<pid>-XXXXXX.tmp`), which the batch commands
 //! skip and the next run writing into that folder removes
-//! ([`leftovers`](crate::leftovers)). A set of files that belong together
+//! ([`leftovers`](super::leftovers)). A set of files that belong together
 //! (the demo's) is written as one with [`write_set`].
 //!
 //! No other code of the crate opens a file for writing (`tests/writes.rs`
@@ -14,8 +14,8 @@ use std::fs::File;
 use std::io::Write;
 use std::path::{Path, PathBuf};
 
+use super::leftovers::{TEMPORARY_SUFFIX, sweep, temporary_prefix};
 use crate::error::SourceError;
-use crate::leftovers::{TEMPORARY_SUFFIX, sweep, temporary_prefix};
 
 /// Whether a write may replace a file that is already at its target.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]

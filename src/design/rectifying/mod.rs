@@ -55,7 +55,7 @@
 //! beyond the final acceptance number, `r1 = c2 + 1`) and are searched with
 //! the two-point double designer's sweep
 //! ([`double_sweep`](super::double_sweep)); see
-//! [`minimum_double`](super::minimum_double).
+//! [`double`](self::double).
 //!
 //! # Ties and 100% inspection
 //!
@@ -65,11 +65,13 @@
 //! otherwise, or when no plan gives the protection within the lot, the
 //! answer is to inspect every unit, and the design says so.
 
+mod double;
+
 use serde::Serialize;
 
+use self::double::design_double_rectifying;
 use super::bracket::aoql_factor;
 use super::double_sweep::TIE;
-use super::minimum_double::design_double_rectifying;
 use super::request::Scheme;
 use super::search::first_true;
 use super::single::{
@@ -78,10 +80,10 @@ use super::single::{
 use crate::budget::minimum_work;
 use crate::error::{DesignError, InputError};
 use crate::model::{MAX_LOT_SIZE, Model, ModelKind, nonconforming_in_lot};
+use crate::model::{RiskPair, RiskPoint, check_quality, check_risk};
 use crate::plan::{
     Aoql, StagedPlan, acceptance_probability, aoql, default_qualities, measures, quality_at_pa,
 };
-use crate::risk::{RiskPair, RiskPoint, check_quality, check_risk};
 
 /// The largest acceptance number the scan reaches for an AOQL: each step
 /// is an exact threshold search on the AOQL, whose every evaluation scans

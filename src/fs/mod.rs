@@ -1,0 +1,12 @@
+//! The file system, the one way the crate touches it: the atomic writer
+//! (one file, or a set of files as one), the size-limited reader, the
+//! folders made for outputs, and the leftovers a killed run leaves.
+
+mod atomic;
+mod folder;
+pub(crate) mod leftovers;
+mod read;
+
+pub use atomic::{Overwrite, write_atomic, write_set};
+pub use folder::normalise_folder;
+pub use read::read_limited;
