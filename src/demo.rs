@@ -10,14 +10,15 @@
 use std::path::{Path, PathBuf};
 
 use crate::budget::{SourceJob, Work, source_work};
-use crate::error::{Error, InputError, SourceError};
 use crate::fs::normalise_folder;
 use crate::fs::{Overwrite, write_set};
+use crate::input::InputError;
 use crate::plan::{
     Decision, aoql, default_qualities, evaluate, evaluate_variables, judge_measurements,
     parse_measurements, variables_qualities,
 };
 use crate::report::{Csv, EvaluationReport, ReportFormat, VariablesEvaluationReport};
+use crate::source::{Error, SourceError};
 use crate::source::{PlanSource, Verdict, verify};
 
 /// `(file name, text)` of every demo plan source.

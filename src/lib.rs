@@ -50,8 +50,8 @@ mod batch;
 mod budget;
 mod demo;
 mod design;
-mod error;
 mod fs;
+mod input;
 mod model;
 mod numeric;
 mod plain;
@@ -60,6 +60,7 @@ mod report;
 mod sheet;
 mod source;
 
+pub use batch::BatchError;
 pub use batch::{
     SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target, sheet_targets,
     verify_file,
@@ -71,47 +72,50 @@ pub use budget::{
     walk_seconds,
 };
 pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
+pub use design::DesignError;
 pub use design::{
     AOQL_PLAN_LTPD_RISK, Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design,
-    DesignRequest, Input, InspectionCost, MAX_ACCEPTANCE_NUMBER, MAX_AOQL_ACCEPTANCE_NUMBER,
-    MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, MAX_SAMPLE_SIZE, Moved, Protection,
-    RectifyingDesign, RectifyingPlan, RectifyingRequest, RectifyingRow, Scheme, SchemeOptions,
-    Sensitivity, SingleDesign, Solution, Steps, TradeoffCell, TradeoffGrid, TradeoffRequest,
-    VariablesDesign, VariablesRequest, VariablesSolution, WaldApproximation, design_double,
-    design_for, design_multiple, design_rectifying, design_sequential, design_single,
-    design_variables, sensitivity, single_alternatives, solve, solve_variables, tradeoff,
-    wald_lines,
+    DesignRequest, Input, InspectionCost, MAX_AOQL_ACCEPTANCE_NUMBER, MAX_DESIGN_STAGES,
+    MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, Moved, Protection, RectifyingDesign, RectifyingPlan,
+    RectifyingRequest, RectifyingRow, Scheme, SchemeOptions, Sensitivity, SingleDesign, Solution,
+    Steps, TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign, VariablesRequest,
+    VariablesSolution, WaldApproximation, design_double, design_for, design_multiple,
+    design_rectifying, design_sequential, design_single, design_variables, sensitivity,
+    single_alternatives, solve, solve_variables, tradeoff, wald_lines,
 };
-pub use error::{BatchError, DesignError, Error, InputError, SourceError};
-pub use fs::{Overwrite, normalise_folder, read_limited, write_atomic, write_set};
+pub use fs::{FileError, Overwrite, normalise_folder, read_limited, write_atomic, write_set};
+pub use input::InputError;
 pub use model::{
     MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot,
 };
 pub use model::{RiskPair, RiskPoint};
 pub use numeric::{
     BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, QualityRange, bare_fraction_note, parse_count,
-    parse_fraction, parse_fraction_list, parse_number, parse_stage,
+    parse_fraction, parse_fraction_list, parse_number,
 };
-pub use numeric::{NEAR_LIMIT, NumericalError, Quantity, Short, check, near_limit};
+pub use numeric::{
+    NEAR_LIMIT, NumericalError, Quantity, Short, check, format_quality, format_quality_cell,
+    format_significant, near_limit,
+};
 pub use plain::{escape_controls, io_message, io_reason, is_unsafe_char, shell_path, shell_word};
 pub use plan::{
-    AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS,
-    MAX_OPEN_COUNTS, MAX_STAGES, MAX_VARIABLES_SAMPLE, MeasurementJudgement, Measures,
-    NORMALITY_LEVEL, SIGMA_LEVEL, SequentialLines, SideStatistic, SigmaKind, Specification, Stage,
-    StageOutcomes, StagedPlan, VariablesEvaluation, VariablesPlan, VariablesPoint,
-    acceptance_probability, anderson_darling, aoql, average_outgoing_quality, curtailed_outcomes,
-    curve_maximum, default_qualities, evaluate, evaluate_variables, evaluate_with_decided,
-    fraction_beyond_known, fraction_beyond_unknown, indifference_quality, judge, judge_cumulative,
-    judge_measurements, largest_asn, mean_and_sd, measures, parse_measurements, quality_at_pa,
-    stage_outcomes, statistic_for_fraction, variables_point, variables_qualities,
+    AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind,
+    MAX_ACCEPTANCE_NUMBER, MAX_ITEMS, MAX_OPEN_COUNTS, MAX_SAMPLE_SIZE, MAX_STAGES,
+    MAX_VARIABLES_SAMPLE, MeasurementJudgement, Measures, NORMALITY_LEVEL, SIGMA_LEVEL,
+    SequentialLines, SideStatistic, SigmaKind, Specification, Stage, StageOutcomes, StagedPlan,
+    VariablesEvaluation, VariablesPlan, VariablesPoint, acceptance_probability, anderson_darling,
+    aoql, average_outgoing_quality, curtailed_outcomes, curve_maximum, default_qualities, evaluate,
+    evaluate_variables, evaluate_with_decided, fraction_beyond_known, fraction_beyond_unknown,
+    indifference_quality, judge, judge_cumulative, judge_measurements, largest_asn, mean_and_sd,
+    measures, parse_measurements, parse_stage, quality_at_pa, stage_outcomes,
+    statistic_for_fraction, variables_point, variables_qualities,
 };
 pub use report::{
     AlternativeReport, BatchSummary, CostReport, Csv, DesignReport, EvaluationBatchReport,
     EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ProtectionReport,
     RectifyingPlanReport, RectifyingReport, ReportFormat, SourceEvaluation, Table,
     TradeoffCellReport, TradeoffReport, VariablesDesignReport, VariablesEvaluationReport,
-    VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, format_quality,
-    format_quality_cell, format_significant, variables_rule, words,
+    VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words,
 };
 pub use sheet::{
     ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity, Paper,
@@ -124,4 +128,5 @@ pub use source::{
     PlanSource, PointSource, RISK_TOLERANCE, RecordedPlan, RecordedVariables, SCHEMA_VERSION,
     UnmetPoint, VariablesSource, Verdict, audit, tool_version, verify,
 };
+pub use source::{Error, SourceError};
 pub use source::{Placeholder, TEMPLATES, placeholders, template, template_kinds};

@@ -11,12 +11,12 @@
 
 use super::{MEMORY_BUDGET, TIME_BUDGET, Work};
 use crate::design::{
-    Criterion, DesignRequest, MAX_ACCEPTANCE_NUMBER, MAX_DOUBLE_SINGLE_C, Scheme,
-    acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z_upper,
+    Criterion, DesignRequest, MAX_DOUBLE_SINGLE_C, Scheme, acceptance_number_for_ratio,
+    poisson_mean_at, sample_for_mean, z_upper,
 };
 use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
-use crate::plan::{LimitKind, Specification, StagedPlan};
+use crate::plan::{LimitKind, MAX_ACCEPTANCE_NUMBER, Specification, StagedPlan};
 
 /// Seconds per cell of the OC recursion (one open state carried into one
 /// next state): 3 ns, from the item-by-item walks of the calibration.

@@ -87,7 +87,7 @@ pub fn minimum_work(request: &RectifyingRequest) -> Work {
     let lot = request.lot_size() as f64;
     let p = request.process_average();
     let (last, per_term) = match request.protection() {
-        Protection::Ltpd(_) => (crate::design::MAX_ACCEPTANCE_NUMBER, LTPD_SCAN_TERM),
+        Protection::Ltpd(_) => (crate::plan::MAX_ACCEPTANCE_NUMBER, LTPD_SCAN_TERM),
         Protection::Aoql(_) => (crate::design::MAX_AOQL_ACCEPTANCE_NUMBER, AOQL_SCAN_TERM),
     };
     let z_beta = match request.protection() {

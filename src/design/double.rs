@@ -52,7 +52,7 @@ use super::double_sweep::{Candidate, DoubleProblem, FirstStage, Numbers, search}
 use super::request::{Criterion, Design};
 use super::single::Solver;
 use crate::budget::double_work;
-use crate::error::DesignError;
+use crate::design::DesignError;
 use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::plan::{Stage, StagedPlan, whole_argmax};

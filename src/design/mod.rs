@@ -3,6 +3,7 @@
 mod bracket;
 mod double;
 mod double_sweep;
+mod error;
 mod multiple;
 mod rectifying;
 mod request;
@@ -17,6 +18,7 @@ pub(crate) use bracket::{
     acceptance_number_for_ratio, aoql_factor, poisson_mean_at, sample_for_mean, z_upper,
 };
 pub use double::{MAX_DOUBLE_SINGLE_C, design_double};
+pub use error::DesignError;
 pub use multiple::design_multiple;
 pub use rectifying::{
     AOQL_PLAN_LTPD_RISK, MAX_AOQL_ACCEPTANCE_NUMBER, Protection, RectifyingDesign, RectifyingPlan,
@@ -28,10 +30,7 @@ pub use request::{
 };
 pub use sensitivity::{Input, Moved, Sensitivity, Steps, sensitivity};
 pub use sequential::{WaldApproximation, design_sequential, wald_lines};
-pub use single::{
-    Alternative, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, SingleDesign, design_single,
-    single_alternatives,
-};
+pub use single::{Alternative, SingleDesign, design_single, single_alternatives};
 pub use tradeoff::{
     CellCost, CellPlan, InspectionCost, MAX_GRID_CELLS, TradeoffCell, TradeoffGrid,
     TradeoffRequest, tradeoff,

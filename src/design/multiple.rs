@@ -36,7 +36,7 @@ use super::request::{Criterion, Design};
 use super::sequential::wald_lines;
 use super::single::design_single;
 use crate::budget::multiple_work;
-use crate::error::DesignError;
+use crate::design::DesignError;
 use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::plan::{Stage, StagedPlan, Walk};

@@ -14,7 +14,7 @@
 use serde::Serialize;
 
 use super::single::design_single;
-use crate::error::InputError;
+use crate::input::InputError;
 use crate::model::Model;
 use crate::model::RiskPair;
 use crate::numeric::round_significant;

@@ -53,7 +53,7 @@ use serde::Serialize;
 use super::request::Design;
 use super::single::design_single;
 use crate::budget::sequential_work;
-use crate::error::DesignError;
+use crate::design::DesignError;
 use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::plan::{MAX_ITEMS, SequentialLines, Stage, StagedPlan, Walk};

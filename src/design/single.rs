@@ -39,18 +39,10 @@ use serde::Serialize;
 use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z_upper};
 use super::search::first_true;
 use crate::budget::single_work;
-use crate::error::DesignError;
+use crate::design::DesignError;
 use crate::model::RiskPair;
 use crate::model::{Model, ModelKind, nonconforming_in_lot};
-use crate::plan::StagedPlan;
-
-/// The largest sample size the designer will propose (`10^9`); whenever a
-/// lot size is known, under every model, the lot caps it too (a design
-/// that needs more is refused with [`DesignError::WholeLot`]).
-pub const MAX_SAMPLE_SIZE: u64 = 1_000_000_000;
-
-/// The largest acceptance number the designer will propose (`10^5`).
-pub const MAX_ACCEPTANCE_NUMBER: u64 = 100_000;
+use crate::plan::{MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, StagedPlan};
 
 /// The most acceptance numbers a design lists as fitting at its `n`.
 const MAX_FITTING_LISTED: usize = 1000;

@@ -3,10 +3,12 @@
 //! folders made for outputs, and the leftovers a killed run leaves.
 
 mod atomic;
+mod error;
 mod folder;
 pub(crate) mod leftovers;
 mod read;
 
 pub use atomic::{Overwrite, write_atomic, write_set};
+pub use error::FileError;
 pub use folder::normalise_folder;
 pub use read::read_limited;

@@ -2,7 +2,7 @@
 //! table plus the curve's AOQL and indifference quality.
 
 use crate::budget::{evaluation_advice, evaluation_work};
-use crate::error::InputError;
+use crate::input::InputError;
 use crate::model::Model;
 use crate::model::RiskPair;
 use crate::plan::{

@@ -5,26 +5,11 @@ use std::fmt;
 
 use serde::{Deserialize, Serialize};
 
-use crate::design::{MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE};
-use crate::error::InputError;
+use super::limits::{MAX_ACCEPTANCE_NUMBER, MAX_OPEN_COUNTS, MAX_SAMPLE_SIZE, MAX_STAGES};
+use super::sequential::SequentialLines;
+use crate::input::InputError;
 use crate::model::{Model, ModelKind};
-use crate::plan::SequentialLines;
-
-/// The most stages a plan given as a list of stages may have.
-pub const MAX_STAGES: usize = 10;
-
-/// The most items an item-by-item (sequential) plan may inspect before its
-/// truncation: `10^5`, where the exact OC of one quality still costs well
-/// under a millisecond.
-pub const MAX_ITEMS: u64 = 100_000;
-
-/// The most counts a stage may leave undecided (`reject - accept - 1`).
-/// The exact recursion carries every open count into the next stage, so a
-/// stage's work is the product of the open counts before and after it:
-/// `500` keeps a ten-stage plan to about `2 10^6` steps a quality. The
-/// designers' plans leave far fewer open (a sequential plan within its
-/// designer's limits, at most about 200).
-pub const MAX_OPEN_COUNTS: u64 = 500;
+use crate::numeric::parse_count;
 
 /// One stage of a staged plan, on cumulative figures.
 ///
@@ -313,4 +298,29 @@ impl fmt::Display for StagedPlan {
         let parts: Vec<String> = self.stages.iter().map(Stage::to_string).collect();
         f.write_str(&parts.join(" "))
     }
+}
+/// Parses a stage `N:AC:RE` (cumulative sample size, acceptance number or
+/// `-` for none, rejection number), the notation of `evaluate --stage`.
+///
+/// # Errors
+/// [`InputError::Unparsable`] for a malformed text.
+pub fn parse_stage(text: &str) -> Result<Stage, InputError> {
+    let bad = || {
+        InputError::unparsable(
+            "--stage",
+            text,
+            "N:AC:RE, for example 50:1:4 (AC may be '-')",
+        )
+    };
+    let parts: Vec<&str> = text.split(':').collect();
+    let [n, ac, re] = parts.as_slice() else {
+        return Err(bad());
+    };
+    let n = parse_count("--stage sample size", n, u64::MAX).map_err(|_| bad())?;
+    let accept = match ac.trim() {
+        "-" => None,
+        a => Some(parse_count("--stage acceptance number", a, u64::MAX).map_err(|_| bad())?),
+    };
+    let reject = parse_count("--stage rejection number", re, u64::MAX).map_err(|_| bad())?;
+    Ok(Stage { n, accept, reject })
 }

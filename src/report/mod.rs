@@ -412,43 +412,6 @@ pub struct VerificationReport {
     pub every_source: bool,
 }
 
-/// A quality as a report's sentences print it: a fraction nonconforming
-/// in percent with four significant digits (`1.000%`, `0.06500%`);
-/// nonconformities per unit per unit and per 100 units, the unit contracts
-/// often state (`1.5 per unit (150 per 100 units)`).
-///
-/// # Example
-/// ```
-/// use lotsman::format_quality;
-/// assert_eq!(format_quality(0.0065, false), "0.6500%");
-/// assert_eq!(format_quality(1.5, true), "1.5 per unit (150 per 100 units)");
-/// ```
-pub fn format_quality(q: f64, per_unit: bool) -> String {
-    if per_unit {
-        return format!(
-            "{} per unit ({} per 100 units)",
-            format_short(q, 4),
-            format_short(100.0 * q, 4)
-        );
-    }
-    format!("{}%", format_significant(q * 100.0, 4))
-}
-
-/// A quality in a table cell, four significant digits: a fraction in
-/// percent as [`format_quality`] prints it; nonconformities per unit as
-/// `1.500 (150.0)`, per unit and, in brackets, per 100 units, under a
-/// column head that names both (`Quality per unit (per 100 units)`).
-pub fn format_quality_cell(q: f64, per_unit: bool) -> String {
-    if per_unit {
-        return format!(
-            "{} ({})",
-            format_significant(q, 4),
-            format_significant(100.0 * q, 4)
-        );
-    }
-    format_quality(q, false)
-}
-
 /// The head of a table column of qualities (or AOQs) named `name`: the
 /// name alone for fractions, which print with their `%`; with both units
 /// for nonconformities ([`format_quality_cell`]).
@@ -458,34 +421,4 @@ pub(crate) fn quality_head(name: &str, per_unit: bool) -> String {
     } else {
         name.to_string()
     }
-}
-
-/// [`format_significant`] without trailing zeros: `1.5`, not `1.500`;
-/// `9`, not `9.00000`; an exponent is kept as it is (`1e-10` stays, and
-/// `1.500e-10` becomes `1.5e-10`).
-pub(crate) fn format_short(x: f64, digits: usize) -> String {
-    let s = format_significant(x, digits);
-    let (mantissa, exponent) = s.split_at(s.find('e').unwrap_or(s.len()));
-    let mantissa = if mantissa.contains('.') {
-        mantissa.trim_end_matches('0').trim_end_matches('.')
-    } else {
-        mantissa
-    };
-    format!("{mantissa}{exponent}")
-}
-
-/// `x` with `digits` significant digits, without exponent for the sizes
-/// reports meet.
-pub fn format_significant(x: f64, digits: usize) -> String {
-    if x == 0.0 || !x.is_finite() {
-        return format!("{x}");
-    }
-    let magnitude = x.abs().log10().floor() as i64;
-    let decimals = (digits as i64 - 1 - magnitude).max(0) as usize;
-    // Tiny and huge values in scientific form: a subnormal quality of
-    // 1e-310 or a rate of 1e300 per unit in a few characters, not hundreds.
-    if !(-6..15).contains(&magnitude) {
-        return format!("{:.*e}", digits - 1, x);
-    }
-    format!("{x:.decimals$}")
 }

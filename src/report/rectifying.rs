@@ -9,10 +9,11 @@ use std::io::{self, Write};
 use serde::Serialize;
 
 use super::table::{grid, plan_headline, write_stage_table};
-use super::{format_quality, format_significant, words};
+use super::words;
 use crate::design::{Protection, RectifyingDesign, RectifyingPlan, RectifyingRow};
 use crate::model::{ModelKind, nonconforming_in_lot};
 use crate::numeric::Short;
+use crate::numeric::{format_quality, format_significant};
 use crate::plain::escape_controls;
 use crate::plan::{Aoql, Stage, StagedPlan};
 use crate::source::tool_version;

@@ -9,12 +9,11 @@ use super::words;
 use super::{
     DesignReport, EvaluationBatchReport, EvaluationReport, PointReport, ReportFormat,
     SequentialReport, SourceEvaluation, TradeoffCellReport, TradeoffReport, VariablesDesignReport,
-    VariablesEvaluationReport, VariablesReport, VerificationReport, format_quality,
-    format_quality_cell, format_significant, quality_head, variables_rule,
+    VariablesEvaluationReport, VariablesReport, VerificationReport, quality_head, variables_rule,
 };
 use crate::design::{Input, Moved};
 use crate::model::ModelKind;
-use crate::numeric::Short;
+use crate::numeric::{Short, format_quality, format_quality_cell, format_significant};
 use crate::plain::escape_controls;
 use crate::plan::{Stage, StagedPlan};
 

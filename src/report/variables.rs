@@ -3,9 +3,10 @@
 
 use serde::Serialize;
 
-use super::{PointReport, SinglePlanReport, format_significant};
+use super::{PointReport, SinglePlanReport};
 use crate::design::VariablesSolution;
 use crate::model::ModelKind;
+use crate::numeric::format_significant;
 use crate::plan::{Aoql, LimitKind, SigmaKind, VariablesEvaluation, VariablesPlan, VariablesPoint};
 use crate::source::tool_version;
 
@@ -105,8 +106,8 @@ impl VariablesDesignReport {
         let (name, lo, hi) = if two {
             (
                 "M",
-                super::format_quality(d.range.0, false),
-                super::format_quality(d.range.1, false),
+                crate::numeric::format_quality(d.range.0, false),
+                crate::numeric::format_quality(d.range.1, false),
             )
         } else {
             (
@@ -248,7 +249,7 @@ pub fn variables_rule(plan: &VariablesPlan) -> Vec<String> {
             ));
             lines.push(format!(
                 "ACCEPT the lot when p_hat_L + p_hat_U <= M = {}, otherwise REJECT.",
-                super::format_quality(m, false)
+                crate::numeric::format_quality(m, false)
             ));
         }
         _ => {}

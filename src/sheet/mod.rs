@@ -30,17 +30,19 @@ mod variables_text;
 use sha2::{Digest, Sha256};
 
 use crate::design::{Protection, RectifyingPlan, RectifyingRequest, design_single};
-use crate::error::{Error, InputError};
 use crate::fs::{Overwrite, write_atomic};
+use crate::input::InputError;
 use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::numeric::Quantity::{Amount, Probability};
 use crate::numeric::{NumericalError, Quantity, Short, check};
+use crate::numeric::{format_quality, format_short, format_significant};
 use crate::plan::{
     Evaluation, Measures, SequentialLines, StagedPlan, aoql, evaluate, largest_asn, measures,
     quality_at_pa,
 };
-use crate::report::{EvaluationReport, format_quality, format_short, format_significant, words};
+use crate::report::{EvaluationReport, words};
+use crate::source::Error;
 use crate::source::{
     Audited, Discrepancy, PlanSource, RecordedPlan, attributes_risks, tool_version,
 };
@@ -2315,7 +2317,7 @@ pub fn write_sheet(
 ) -> Result<SheetNotes, Error> {
     let audited = Audited::load_checked(source_path, options.accept_recorded, |source| {
         crate::budget::check_source(source, source_path, crate::budget::SourceJob::Sheet)
-            .map_err(|e| crate::error::InputError::from(e).into())
+            .map_err(|e| crate::input::InputError::from(e).into())
     })?;
     let name = source_path
         .file_name()

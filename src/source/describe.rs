@@ -4,7 +4,7 @@
 //! printed straight from a design is ready to sign.
 
 use super::{PlanSource, check_date};
-use crate::error::InputError;
+use crate::input::InputError;
 
 /// The document fields of a plan source, each under the YAML key of the
 /// same name; `None` leaves a field as it is.

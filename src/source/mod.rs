@@ -4,6 +4,8 @@
 
 mod audit;
 mod describe;
+mod discrepancy;
+mod error;
 mod keys;
 mod rectifying;
 mod schema;
@@ -13,20 +15,22 @@ mod yaml_words;
 
 use std::path::Path;
 
-pub use audit::{Audit, Audited, Discrepancy, UnmetPoint, audit};
+pub use audit::{Audit, Audited, audit};
 pub(crate) use audit::{attributes_risks, variables_risks};
 pub use describe::Description;
+pub use discrepancy::{Difference, Discrepancy, UnmetPoint};
+pub use error::{Error, SourceError};
 pub use schema::{
     PlanSource, PointSource, RecordedPlan, RecordedVariables, RectifyingSource, SCHEMA_VERSION,
     VariablesSource,
 };
 pub use templates::{Placeholder, TEMPLATES, placeholders, template, template_kinds};
-pub use verify::{Difference, RISK_TOLERANCE, Verdict, verify};
+pub use verify::{RISK_TOLERANCE, Verdict, verify};
 
 use crate::design::{
     DesignRequest, Scheme, SchemeOptions, Solution, VariablesRequest, VariablesSolution,
 };
-use crate::error::{Error, InputError, SourceError};
+use crate::input::InputError;
 use crate::model::Model;
 use crate::model::{RiskPair, RiskPoint};
 use crate::plan::{Specification, StagedPlan, VariablesPlan};

@@ -26,7 +26,7 @@
 
 use super::{PlanSource, RecordedPlan, RectifyingSource, SCHEMA_VERSION, tool_version};
 use crate::design::{Protection, RectifyingDesign, RectifyingRequest, Scheme};
-use crate::error::InputError;
+use crate::input::InputError;
 use crate::model::Model;
 use crate::model::RiskPoint;
 

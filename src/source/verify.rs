@@ -1,11 +1,10 @@
 //! Verification: re-solve a source from its risk points and compare with the
 //! plan it records.
 
-use serde::Serialize;
-
+use super::discrepancy::Difference;
+use super::error::Error;
 use super::{PlanSource, RecordedPlan, RecordedVariables};
 use crate::design::{RectifyingPlan, design_for, design_rectifying};
-use crate::error::Error;
 use crate::plan::{SequentialLines, Stage};
 
 /// Relative tolerance for recorded achieved risks. The plan numbers must
@@ -13,29 +12,6 @@ use crate::plan::{SequentialLines, Stage};
 /// difference above `1e-9` (relative) means the model, not the printing,
 /// changed.
 pub const RISK_TOLERANCE: f64 = 1e-9;
-
-/// One field whose recorded value differs from the re-solved one.
-#[derive(Clone, Debug, PartialEq, Serialize)]
-pub struct Difference {
-    /// The field, e.g. `stage 1 n` (stages counted from 1) or
-    /// `plan.producer_risk`.
-    pub field: String,
-    /// As recorded in the source.
-    pub recorded: String,
-    /// As re-solved now.
-    pub resolved: String,
-}
-
-impl std::fmt::Display for Difference {
-    /// `FIELD: recorded X, re-solved Y`.
-    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        write!(
-            f,
-            "{}: recorded {}, re-solved {}",
-            self.field, self.recorded, self.resolved
-        )
-    }
-}
 
 /// The result of verifying one source.
 #[derive(Clone, Debug, PartialEq)]

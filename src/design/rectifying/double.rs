@@ -66,9 +66,9 @@ use std::sync::Mutex;
 
 use super::{Protection, RectifyingPlan, RectifyingRow, SingleSearch};
 use crate::budget::minimum_double_work;
+use crate::design::DesignError;
 use crate::design::double::MAX_DOUBLE_SINGLE_C;
 use crate::design::double_sweep::{Candidate, DoubleProblem, FirstStage, Numbers, search};
-use crate::error::DesignError;
 use crate::model::Model;
 use crate::plan::{StagedPlan, curve_maximum};
 

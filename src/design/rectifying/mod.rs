@@ -74,15 +74,15 @@ use super::bracket::aoql_factor;
 use super::double_sweep::TIE;
 use super::request::Scheme;
 use super::search::first_true;
-use super::single::{
-    MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, smallest_sample, smallest_sample_with_pa_at_most,
-};
+use super::single::{smallest_sample, smallest_sample_with_pa_at_most};
 use crate::budget::minimum_work;
-use crate::error::{DesignError, InputError};
+use crate::design::DesignError;
+use crate::input::InputError;
 use crate::model::{MAX_LOT_SIZE, Model, ModelKind, nonconforming_in_lot};
 use crate::model::{RiskPair, RiskPoint, check_quality, check_risk};
 use crate::plan::{
-    Aoql, StagedPlan, acceptance_probability, aoql, default_qualities, measures, quality_at_pa,
+    Aoql, MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, StagedPlan, acceptance_probability, aoql,
+    default_qualities, measures, quality_at_pa,
 };
 
 /// The largest acceptance number the scan reaches for an AOQL: each step
