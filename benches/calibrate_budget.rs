@@ -18,8 +18,8 @@ use std::time::Instant;
 use lotsman::{
     Criterion, DesignRequest, Model, ModelKind, PlanSource, Protection, RectifyingRequest,
     RiskPair, RiskPoint, Scheme, SchemeOptions, SourceJob, Stage, StagedPlan, TradeoffRequest,
-    Work, aoql, design_rectifying, design_single, design_work, measures, minimum_work,
-    quality_at_pa, solve, source_work, stage_outcomes, tradeoff, tradeoff_work, walk_seconds,
+    Work, aoql, design_rectifying, design_single, design_work, measures, quality_at_pa,
+    rectifying_work, solve, source_work, stage_outcomes, tradeoff, tradeoff_work, walk_seconds,
 };
 
 /// One case: its name, its estimate, and the job to time.
@@ -322,7 +322,7 @@ fn commands(cases: &mut Vec<Case>) {
         .unwrap();
         cases.push(Case {
             name: format!("rectify lot {lot} at {average} {}", protection.name()),
-            estimate: minimum_work(&request),
+            estimate: rectifying_work(&request),
             job: Box::new(move || design_rectifying(&request).is_ok()),
         });
     }

@@ -9,7 +9,7 @@
 
 use std::path::{Path, PathBuf};
 
-use crate::budget::{SourceJob, Work, source_work};
+use crate::budget::Work;
 use crate::fs::normalise_folder;
 use crate::fs::{Overwrite, write_set};
 use crate::input::InputError;
@@ -20,6 +20,7 @@ use crate::plan::{
 use crate::report::{Csv, EvaluationReport, ReportFormat, VariablesEvaluationReport};
 use crate::source::{Error, SourceError};
 use crate::source::{PlanSource, Verdict, verify};
+use crate::source::{SourceJob, source_work};
 
 /// `(file name, text)` of every demo plan source.
 pub const DEMO_PLANS: &[(&str, &str)] = &[

@@ -65,12 +65,7 @@ pub use batch::{
     SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target, sheet_targets,
     verify_file,
 };
-pub use budget::{
-    Limit, MEMORY_BUDGET, OverBudget, SourceJob, TIME_BUDGET, Work, check_batch, check_source,
-    design_work, double_work, evaluation_work, minimum_work, multiple_work, sequential_work,
-    single_work, source_work, tradeoff_work, variables_design_work, variables_evaluation_work,
-    walk_seconds,
-};
+pub use budget::{Limit, MEMORY_BUDGET, OverBudget, TIME_BUDGET, Work};
 pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
 pub use design::DesignError;
 pub use design::{
@@ -82,6 +77,10 @@ pub use design::{
     VariablesSolution, WaldApproximation, design_double, design_for, design_multiple,
     design_rectifying, design_sequential, design_single, design_variables, sensitivity,
     single_alternatives, solve, solve_variables, tradeoff, wald_lines,
+};
+pub use design::{
+    design_work, double_work, multiple_work, rectifying_work, sequential_work, single_work,
+    tradeoff_work, variables_design_work,
 };
 pub use fs::{FileError, Overwrite, normalise_folder, read_limited, write_atomic, write_set};
 pub use input::InputError;
@@ -110,6 +109,7 @@ pub use plan::{
     measures, parse_measurements, parse_stage, quality_at_pa, stage_outcomes,
     statistic_for_fraction, variables_point, variables_qualities,
 };
+pub use plan::{evaluation_work, variables_evaluation_work, walk_seconds};
 pub use report::{
     AlternativeReport, BatchSummary, CostReport, Csv, DesignReport, EvaluationBatchReport,
     EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ProtectionReport,
@@ -130,3 +130,4 @@ pub use source::{
 };
 pub use source::{Error, SourceError};
 pub use source::{Placeholder, TEMPLATES, placeholders, template, template_kinds};
+pub use source::{SourceJob, check_batch, check_source, source_work};

@@ -35,7 +35,7 @@
 use super::request::{Criterion, Design};
 use super::sequential::wald_lines;
 use super::single::design_single;
-use crate::budget::multiple_work;
+use super::work::multiple_work;
 use crate::design::DesignError;
 use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};

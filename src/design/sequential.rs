@@ -52,7 +52,7 @@ use serde::Serialize;
 
 use super::request::Design;
 use super::single::design_single;
-use crate::budget::sequential_work;
+use super::work::sequential_work;
 use crate::design::DesignError;
 use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};

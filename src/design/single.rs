@@ -37,8 +37,9 @@ use std::collections::HashMap;
 use serde::Serialize;
 
 use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z_upper};
+use super::request::Design;
 use super::search::first_true;
-use crate::budget::single_work;
+use super::work::single_work;
 use crate::design::DesignError;
 use crate::model::RiskPair;
 use crate::model::{Model, ModelKind, nonconforming_in_lot};
@@ -434,4 +435,15 @@ pub(crate) fn design_single_with(
 pub fn single_alternatives(model: &Model, risks: &RiskPair, c_last: u64) -> Vec<Alternative> {
     let s = Solver::new(model, risks);
     (0..=c_last).map(|c| s.alternative(c)).collect()
+}
+
+/// The single designer's answer as a staged design.
+impl From<SingleDesign> for Design {
+    fn from(d: SingleDesign) -> Self {
+        Design {
+            plan: d.plan,
+            producer_risk: d.producer_risk,
+            consumer_risk: d.consumer_risk,
+        }
+    }
 }

@@ -1,7 +1,7 @@
 //! The evaluation of a plan over a set of qualities: the rows of an OC
 //! table plus the curve's AOQL and indifference quality.
 
-use crate::budget::{evaluation_advice, evaluation_work};
+use super::work::{evaluation_advice, evaluation_work};
 use crate::input::InputError;
 use crate::model::Model;
 use crate::model::RiskPair;

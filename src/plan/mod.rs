@@ -8,9 +8,11 @@ mod measurements;
 mod measures;
 mod oc;
 mod sequential;
+mod stage;
 mod staged;
 mod variables;
 mod variables_evaluation;
+mod work;
 
 pub use estimate::{fraction_beyond_known, fraction_beyond_unknown, statistic_for_fraction};
 pub use evaluation::{
@@ -33,8 +35,14 @@ pub use measures::{
 pub(crate) use oc::Walk;
 pub use oc::{StageOutcomes, curtailed_outcomes, stage_outcomes};
 pub use sequential::{ItemRun, SequentialLines};
-pub use staged::{Stage, StagedPlan, parse_stage};
+pub use stage::{Stage, parse_stage};
+pub use staged::StagedPlan;
 pub use variables::{LimitKind, SigmaKind, Specification, VariablesPlan};
 pub use variables_evaluation::{
     VariablesEvaluation, VariablesPoint, evaluate_variables, variables_point, variables_qualities,
 };
+pub(crate) use work::{
+    ROW_OUTPUT, evaluation_advice, evaluation_advice_for, most_variables_qualities, tail_terms,
+    walk_parts,
+};
+pub use work::{evaluation_work, variables_evaluation_work, walk_seconds};

@@ -5,7 +5,7 @@
 use serde::{Deserialize, Serialize};
 
 use super::limits::MAX_ITEMS;
-use super::staged::Stage;
+use super::stage::Stage;
 use crate::input::InputError;
 use crate::model::{Model, ModelKind};
 

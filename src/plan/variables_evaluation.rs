@@ -19,7 +19,7 @@ use serde::Serialize;
 use super::evaluation::bracketing_qualities;
 use super::measures::{Aoql, bisect_quality, smooth_maximum};
 use super::variables::VariablesPlan;
-use crate::budget::{evaluation_advice_for, most_variables_qualities, variables_evaluation_work};
+use super::work::{evaluation_advice_for, most_variables_qualities, variables_evaluation_work};
 use crate::input::InputError;
 use crate::model::RiskPair;
 

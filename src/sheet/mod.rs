@@ -2316,7 +2316,7 @@ pub fn write_sheet(
     options: &SheetOptions,
 ) -> Result<SheetNotes, Error> {
     let audited = Audited::load_checked(source_path, options.accept_recorded, |source| {
-        crate::budget::check_source(source, source_path, crate::budget::SourceJob::Sheet)
+        crate::source::check_source(source, source_path, crate::source::SourceJob::Sheet)
             .map_err(|e| crate::input::InputError::from(e).into())
     })?;
     let name = source_path

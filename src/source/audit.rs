@@ -8,8 +8,9 @@ use std::path::Path;
 
 use super::discrepancy::{Difference, Discrepancy, UnmetPoint};
 use super::error::{Error, SourceError};
-use super::{PlanSource, RISK_TOLERANCE, Verdict, verify};
-use crate::design::{Design, Protection, RectifyingPlan};
+use super::schema::PlanSource;
+use super::verify::{RISK_TOLERANCE, Verdict, verify};
+use crate::design::{Design, Protection, RectifyingPlan, VariablesRequest};
 use crate::input::InputError;
 use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
@@ -174,6 +175,58 @@ impl Audited {
                 accepted,
             }),
         }
+    }
+}
+
+impl PlanSource {
+    /// Loads and audits a source that must record a staged plan
+    /// ([`Audited::load`]): an attributes plan designed from two risk
+    /// points, or a minimum-inspection plan. Returns it with its model and
+    /// its validated plan: what `judge FILE --found K` starts from.
+    ///
+    /// # Errors
+    /// As [`Audited::load_checked`] (`check` runs on the parsed source before
+    /// the audit); [`SourceError::Invalid`] when the source records no plan
+    /// or an invalid one.
+    pub fn load_with_plan(
+        path: &Path,
+        accept_recorded: bool,
+        check: impl FnOnce(&PlanSource) -> Result<(), Error>,
+    ) -> Result<(Audited, Model, StagedPlan), Error> {
+        let audited = Audited::load_checked(path, accept_recorded, check)?;
+        let invalid = |e| SourceError::Invalid {
+            path: path.to_path_buf(),
+            source: e,
+        };
+        let model = audited.source.staged_model().map_err(invalid)?;
+        let plan = audited.source.recorded_plan(&model).map_err(invalid)?;
+        Ok((audited, model, plan))
+    }
+
+    /// Loads and audits a variables source that must record a plan
+    /// ([`Audited::load`]), with its request and validated plan: what
+    /// `evaluate FILE` and `judge FILE` start from.
+    ///
+    /// # Errors
+    /// As [`Audited::load_checked`] (`check` runs on the parsed source before
+    /// the audit); [`SourceError::Invalid`] when the source records no plan
+    /// or an invalid one.
+    pub fn load_with_variables_plan(
+        path: &Path,
+        accept_recorded: bool,
+        check: impl FnOnce(&PlanSource) -> Result<(), Error>,
+    ) -> Result<(Audited, VariablesRequest, VariablesPlan), Error> {
+        let audited = Audited::load_checked(path, accept_recorded, check)?;
+        let invalid = |e| SourceError::Invalid {
+            path: path.to_path_buf(),
+            source: e,
+        };
+        let request = audited.source.variables_request().map_err(invalid)?;
+        let plan = audited
+            .source
+            .recorded_variables_plan(&request)
+            .map_err(invalid)?;
+        Ok((audited, request, plan))
     }
 }
 

@@ -111,6 +111,13 @@ impl From<FileError> for Error {
     }
 }
 
+/// The refusal of a source that records no plan: it has not been solved.
+pub(crate) fn not_solved() -> InputError {
+    InputError::NotSolved {
+        why: "not solved yet: the source records no plan".to_string(),
+    }
+}
+
 /// The message of [`SourceError::Invalid`]: the path, then what is wrong;
 /// the advice of [`InputError::NotSolved`] names the source itself.
 fn invalid_message(path: &std::path::Path, source: &InputError) -> String {

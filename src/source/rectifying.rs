@@ -24,7 +24,8 @@
 //! fewest units on average; the consumer by the protection. So `producer`
 //! and `consumer` are absent, and so is the recorded producer's risk.
 
-use super::{PlanSource, RecordedPlan, RectifyingSource, SCHEMA_VERSION, tool_version};
+use super::record::tool_version;
+use super::schema::{PlanSource, RecordedPlan, RectifyingSource, SCHEMA_VERSION};
 use crate::design::{Protection, RectifyingDesign, RectifyingRequest, Scheme};
 use crate::input::InputError;
 use crate::model::Model;

@@ -2,8 +2,8 @@
 //! plan it records.
 
 use super::discrepancy::Difference;
-use super::error::Error;
-use super::{PlanSource, RecordedPlan, RecordedVariables};
+use super::error::{Error, not_solved};
+use super::schema::{PlanSource, RecordedPlan, RecordedVariables};
 use crate::design::{RectifyingPlan, design_for, design_rectifying};
 use crate::plan::{SequentialLines, Stage};
 
@@ -38,7 +38,7 @@ pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
     let request = source.request()?;
     // A source that records no plan is not solved yet: invalid, not a
     // mismatch, and refused before the work of a re-solve.
-    let recorded = source.plan.as_ref().ok_or_else(super::not_solved)?;
+    let recorded = source.plan.as_ref().ok_or_else(not_solved)?;
     let design = design_for(&request)?;
     let mut diffs = Vec::new();
     match (&recorded.sequential, design.plan.sequential_lines()) {
@@ -76,7 +76,7 @@ fn verify_rectifying(source: &PlanSource) -> Result<Verdict, Error> {
     let request = source.rectifying_request()?;
     // Not solved yet: invalid, not a mismatch (as for the other schemes).
     if source.plan.is_none() {
-        return Err(super::not_solved().into());
+        return Err(not_solved().into());
     }
     let design = design_rectifying(&request)?;
     let resolved = |plan: Option<&RectifyingPlan>| {
@@ -121,7 +121,7 @@ fn verify_rectifying(source: &PlanSource) -> Result<Verdict, Error> {
 /// [`RISK_TOLERANCE`].
 fn verify_variables(source: &PlanSource) -> Result<Verdict, Error> {
     let request = source.variables_request()?;
-    let recorded = source.plan.as_ref().ok_or_else(super::not_solved)?;
+    let recorded = source.plan.as_ref().ok_or_else(not_solved)?;
     let design = request.design()?;
     let plan = &design.plan;
     let resolved = RecordedVariables {
