@@ -82,7 +82,10 @@ pub use design::{
     design_work, double_work, multiple_work, rectifying_work, sequential_work, single_work,
     tradeoff_work, variables_design_work,
 };
-pub use fs::{FileError, Overwrite, normalise_folder, read_limited, write_atomic, write_set};
+pub use fs::{
+    FileError, Overwrite, normalise_folder, read_limited, refuse_overwriting_input, same_file,
+    write_atomic, write_set,
+};
 pub use input::InputError;
 pub use model::{
     MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot,

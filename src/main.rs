@@ -38,9 +38,9 @@ use lotsman::{
     VerifyEntry, VerifyStatus, check_batch, check_sheet, default_qualities, design_rectifying,
     evaluate, evaluate_source, evaluate_with_decided, expand_paths, judge, judge_cumulative,
     judge_measurements, normalise_folder, parse_count, parse_fraction, parse_measurements,
-    parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo, run_in_parallel,
-    sensitivity, sheet_target, sheet_targets, solve, solve_variables, template, template_kinds,
-    tradeoff, verify_file, write_atomic, write_sheet,
+    parse_number, parse_stage, read_limited, refuse_overwriting_input, render_tradeoff_map,
+    run_demo, run_in_parallel, sensitivity, sheet_target, sheet_targets, solve, solve_variables,
+    template, template_kinds, tradeoff, verify_file, write_atomic, write_sheet,
 };
 use lotsman::{escape_controls, shell_path, shell_word};
 use progress::Progress;
@@ -668,51 +668,6 @@ fn refuse_variables_flags(args: &cli::DesignArgs) -> Result<(), InputError> {
         }
     }
     Ok(())
-}
-
-/// `--output` never replaces the source that was read, even with
-/// `--force`; `in_place` names the flag that does (for `design`).
-fn refuse_overwriting_input(
-    target: &Path,
-    input: Option<&Path>,
-    in_place: bool,
-) -> Result<(), InputError> {
-    let Some(input) = input else { return Ok(()) };
-    if same_file(target, input) {
-        let advice = if in_place {
-            format!(
-                ", or re-solve it in place with: lotsman design {} --in-place",
-                shell_path(input)
-            )
-        } else {
-            String::new()
-        };
-        return Err(InputError::Inconsistent(format!(
-            "the output {} is the plan source being read; write to a new file and compare before replacing it{advice}",
-            target.display()
-        )));
-    }
-    Ok(())
-}
-
-/// Whether two paths name one existing file: through links, and on Unix
-/// through another hard link too (the same device and inode).
-fn same_file(a: &Path, b: &Path) -> bool {
-    #[cfg(unix)]
-    {
-        use std::os::unix::fs::MetadataExt;
-        match (std::fs::metadata(a), std::fs::metadata(b)) {
-            (Ok(x), Ok(y)) => x.dev() == y.dev() && x.ino() == y.ino(),
-            _ => false,
-        }
-    }
-    #[cfg(not(unix))]
-    {
-        match (std::fs::canonicalize(a), std::fs::canonicalize(b)) {
-            (Ok(x), Ok(y)) => x == y,
-            _ => false,
-        }
-    }
 }
 
 /// The qualities of `--at` and `--range`, in that order, for plans whose
