@@ -5,8 +5,8 @@ use std::hint::black_box;
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use lotsman::{
-    Criterion as Minimised, Json, Model, ModelKind, QualityRange, ReportFormat, Scheme,
-    TradeoffReport, TradeoffRequest, tradeoff,
+    Criterion as Minimised, Format, Model, ModelKind, QualityRange, Scheme, TradeoffReport,
+    TradeoffRequest, tradeoff, write_report,
 };
 
 fn benches(c: &mut Criterion) {
@@ -32,8 +32,7 @@ fn benches(c: &mut Criterion) {
         b.iter(|| {
             let grid = tradeoff(&request, &|| {});
             let mut out = Vec::with_capacity(3 << 20);
-            Json.tradeoff(&mut out, &TradeoffReport::new(None, &grid))
-                .unwrap();
+            write_report(&TradeoffReport::new(None, &grid), Format::Json, &mut out).unwrap();
             black_box(out)
         })
     });

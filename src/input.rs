@@ -40,8 +40,8 @@ pub enum InputError {
     Inconsistent(String),
     /// A plan source without the solved plan the work needs, or with a
     /// plan of the wrong kind: solving it is the fix. Inside a
-    /// [`SourceError::Invalid`], `FILE.yaml` in the advice is the source's
-    /// own name.
+    /// [`SourceError::Invalid`](crate::SourceError::Invalid), `FILE.yaml`
+    /// in the advice is the source's own name.
     #[error("{why}; solve it with: lotsman design FILE.yaml --in-place")]
     NotSolved {
         /// What the source lacks, e.g. `not solved yet: the source records

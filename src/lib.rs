@@ -66,7 +66,7 @@ pub use batch::{
     verify_file,
 };
 pub use budget::{Limit, MEMORY_BUDGET, OverBudget, TIME_BUDGET, Work};
-pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
+pub use demo::{DEMO_PLANS, DEMO_READINGS, run_demo};
 pub use design::DesignError;
 pub use design::{
     AOQL_PLAN_LTPD_RISK, Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design,
@@ -114,11 +114,12 @@ pub use plan::{
 };
 pub use plan::{evaluation_work, variables_evaluation_work, walk_seconds};
 pub use report::{
-    AlternativeReport, BatchSummary, CostReport, Csv, DesignReport, EvaluationBatchReport,
-    EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ProtectionReport,
-    RectifyingPlanReport, RectifyingReport, ReportFormat, SourceEvaluation, Table,
-    TradeoffCellReport, TradeoffReport, VariablesDesignReport, VariablesEvaluationReport,
-    VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words,
+    AlternativeReport, BatchSummary, CostReport, DemoReport, DemoRow, DesignReport,
+    EvaluationBatchReport, EvaluationEntry, EvaluationReport, Failure, Format, JudgeReport,
+    MeasurementJudgeReport, Outcome, PointReport, ProtectionReport, RectifyingPlanReport,
+    RectifyingReport, Report, SourceEvaluation, TradeoffCellReport, TradeoffReport,
+    VariablesDesignReport, VariablesEvaluationReport, VariablesReport, VerificationReport,
+    VerifyEntry, VerifyStatus, variables_rule, words, write_report,
 };
 pub use sheet::{
     ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity, Paper,

@@ -39,7 +39,7 @@ impl std::fmt::Display for Difference {
 /// stage 1 n: recorded 150, re-solved 166; ...`, then each unmet point.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Discrepancy {
-    /// The fields that differ, as [`verify`] names them.
+    /// The fields that differ, as [`verify`](crate::verify) names them.
     pub differences: Vec<Difference>,
     /// The agreed risk points the recorded plan does not meet.
     pub unmet: Vec<UnmetPoint>,
