@@ -72,11 +72,11 @@ pub use design::{
     AOQL_PLAN_LTPD_RISK, Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design,
     DesignRequest, Input, InspectionCost, MAX_AOQL_ACCEPTANCE_NUMBER, MAX_DESIGN_STAGES,
     MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, Moved, Protection, RectifyingDesign, RectifyingPlan,
-    RectifyingRequest, RectifyingRow, Scheme, SchemeOptions, Sensitivity, SingleDesign, Solution,
-    Steps, TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign, VariablesRequest,
-    VariablesSolution, WaldApproximation, design_double, design_for, design_multiple,
-    design_rectifying, design_sequential, design_single, design_variables, sensitivity,
-    single_alternatives, solve, solve_variables, tradeoff, wald_lines,
+    RectifyingRequest, RectifyingRow, RiskGrid, Scheme, SchemeOptions, Sensitivity, SingleDesign,
+    Solution, Steps, TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign,
+    VariablesRequest, VariablesSolution, WaldApproximation, design_double, design_for,
+    design_multiple, design_rectifying, design_sequential, design_single, design_variables,
+    sensitivity, single_alternatives, solve, solve_variables, tradeoff, wald_lines,
 };
 pub use design::{
     design_work, double_work, multiple_work, rectifying_work, sequential_work, single_work,

@@ -31,8 +31,8 @@ use lotsman::{
     BatchSummary, Criterion, DemoReport, Description, DesignReport, DesignRequest, Error,
     EvaluationBatchReport, EvaluationEntry, EvaluationReport, Format, InputError, JudgeReport,
     LimitKind, MAX_LOT_SIZE, MeasurementJudgeReport, Model, ModelKind, Outcome, Overwrite, Paper,
-    PlanSource, Protection, RectifyingReport, RectifyingRequest, RiskPair, RiskPoint, Scheme,
-    SchemeOptions, SheetNotes, SheetOptions, SheetVerdict, SigmaKind, SourceError,
+    PlanSource, Protection, RectifyingReport, RectifyingRequest, RiskGrid, RiskPair, RiskPoint,
+    Scheme, SchemeOptions, SheetNotes, SheetOptions, SheetVerdict, SigmaKind, SourceError,
     SourceEvaluation, SourceFile, SourceJob, Specification, StagedPlan, Steps, TradeoffReport,
     TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry,
     VerifyStatus, check_batch, check_sheet, default_qualities, design_rectifying, evaluate,
@@ -405,10 +405,12 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
         _ => None,
     };
     let request = TradeoffRequest::new(
-        qualities.axis("--aql", &args.aql)?,
-        qualities.axis("--rql", &args.rql)?,
-        parse_fraction("--alpha", &args.alpha)?,
-        parse_fraction("--beta", &args.beta)?,
+        RiskGrid {
+            aql: qualities.axis("--aql", &args.aql)?,
+            rql: qualities.axis("--rql", &args.rql)?,
+            alpha: parse_fraction("--alpha", &args.alpha)?,
+            beta: parse_fraction("--beta", &args.beta)?,
+        },
         model,
         scheme,
         criterion_from(args.criterion),

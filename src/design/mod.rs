@@ -39,8 +39,8 @@ pub use sensitivity::{Input, Moved, Sensitivity, Steps, sensitivity};
 pub use sequential::{WaldApproximation, design_sequential, wald_lines};
 pub use single::{Alternative, SingleDesign, design_single, single_alternatives};
 pub use tradeoff::{
-    CellCost, CellPlan, InspectionCost, TradeoffCell, TradeoffGrid, TradeoffRequest, tradeoff,
-    tradeoff_work,
+    CellCost, CellPlan, InspectionCost, RiskGrid, TradeoffCell, TradeoffGrid, TradeoffRequest,
+    tradeoff, tradeoff_work,
 };
 pub use variables::{VariablesDesign, design_variables};
 pub use work::{

@@ -44,7 +44,7 @@ use rayon::prelude::*;
 
 mod request;
 
-pub use self::request::{InspectionCost, TradeoffRequest, tradeoff_work};
+pub use self::request::{InspectionCost, RiskGrid, TradeoffRequest, tradeoff_work};
 
 use super::double::design_double;
 use super::request::Scheme;
@@ -144,12 +144,10 @@ impl TradeoffGrid {
 ///
 /// # Example
 /// ```
-/// use lotsman::{Criterion, Model, ModelKind, Scheme, TradeoffRequest, tradeoff};
+/// use lotsman::{Criterion, Model, ModelKind, RiskGrid, Scheme, TradeoffRequest, tradeoff};
 /// let model = Model::new(ModelKind::Binomial, None).unwrap();
-/// let request = TradeoffRequest::new(
-///     vec![0.005, 0.01], vec![0.04, 0.06], 0.05, 0.10,
-///     model, Scheme::Single, Criterion::AsnAql, None,
-/// ).unwrap();
+/// let grid = RiskGrid { aql: vec![0.005, 0.01], rql: vec![0.04, 0.06], alpha: 0.05, beta: 0.10 };
+/// let request = TradeoffRequest::new(grid, model, Scheme::Single, Criterion::AsnAql, None).unwrap();
 /// let grid = tradeoff(&request, &|| {});
 /// let cell = grid.cell(1, 1).outcome.as_ref().unwrap();
 /// assert_eq!((cell.n(), cell.c()), (110, 3)); // as `lotsman design --aql 1% --rql 6%`
@@ -241,10 +239,12 @@ mod tests {
     fn grid(kind: ModelKind, lot: Option<u64>, aql: Vec<f64>, rql: Vec<f64>) -> TradeoffGrid {
         let model = Model::new(kind, lot).unwrap();
         let request = TradeoffRequest::new(
-            aql,
-            rql,
-            0.05,
-            0.10,
+            RiskGrid {
+                aql,
+                rql,
+                alpha: 0.05,
+                beta: 0.10,
+            },
             model,
             Scheme::Single,
             Criterion::AsnAql,
@@ -302,10 +302,12 @@ mod tests {
     fn the_cost_view_needs_a_lot_size() {
         let model = Model::new(ModelKind::Binomial, None).unwrap();
         let err = TradeoffRequest::new(
-            vec![0.01],
-            vec![0.05],
-            0.05,
-            0.10,
+            RiskGrid {
+                aql: vec![0.01],
+                rql: vec![0.05],
+                alpha: 0.05,
+                beta: 0.10,
+            },
             model,
             Scheme::Single,
             Criterion::AsnAql,

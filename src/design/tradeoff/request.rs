@@ -28,6 +28,21 @@ impl InspectionCost {
     }
 }
 
+/// The risk points of a trade-off grid: a producer's quality (AQL) per row,
+/// a consumer's quality (RQL) per column, and one pair of risks for every
+/// cell.
+#[derive(Clone, Debug, PartialEq)]
+pub struct RiskGrid {
+    /// The producer's qualities, one per row.
+    pub aql: Vec<f64>,
+    /// The consumer's qualities, one per column.
+    pub rql: Vec<f64>,
+    /// The producer's risk alpha, the same in every cell.
+    pub alpha: f64,
+    /// The consumer's risk beta, the same in every cell.
+    pub beta: f64,
+}
+
 /// What to solve: the grid of qualities, the two risks, the model, the
 /// scheme and optionally the cost of inspection. It exists only when valid.
 #[derive(Clone, Debug, PartialEq)]
@@ -45,10 +60,10 @@ pub struct TradeoffRequest {
 impl TradeoffRequest {
     /// Validates a grid request.
     ///
-    /// `aql` are the producer's qualities (rows), `rql` the consumer's
-    /// (columns); a cell whose AQL is not below its RQL is valid input and
-    /// reports that it has no plan. `cost` is `(cost per unit inspected,
-    /// process average)`.
+    /// The grid's `aql` are the producer's qualities (rows), its `rql` the
+    /// consumer's (columns); a cell whose AQL is not below its RQL is valid
+    /// input and reports that it has no plan. `cost` is `(cost per unit
+    /// inspected, process average)`.
     ///
     /// # Errors
     /// [`InputError`] for an empty axis, a quality the model cannot take,
@@ -57,17 +72,19 @@ impl TradeoffRequest {
     /// ([`tradeoff_work`](crate::tradeoff_work)) passes the budget, a scheme other than single or double, a
     /// criterion the scheme does not take, a cost that is not a positive
     /// number, or a cost without a lot size.
-    #[allow(clippy::too_many_arguments)]
     pub fn new(
-        aql: Vec<f64>,
-        rql: Vec<f64>,
-        alpha: f64,
-        beta: f64,
+        grid: RiskGrid,
         model: Model,
         scheme: Scheme,
         criterion: Criterion,
         cost: Option<(f64, f64)>,
     ) -> Result<Self, InputError> {
+        let RiskGrid {
+            aql,
+            rql,
+            alpha,
+            beta,
+        } = grid;
         for (name, axis) in [("AQL values", &aql), ("RQL values", &rql)] {
             if axis.is_empty() {
                 return Err(InputError::out_of_range(
