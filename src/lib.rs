@@ -46,41 +46,55 @@
     )
 )]
 
-mod batch;
+// The layers, lowest first: a module imports only from its own layer or a
+// lower one (tests/layers.rs checks it).
+//
+// 0, the base: numbers, plain words, files, input errors, the budget's core.
 mod budget;
-mod demo;
-mod design;
 mod fs;
 mod input;
-mod model;
 mod numeric;
 mod plain;
+
+// 1, likelihood models and risk points.
+mod model;
+
+// 2, plans and their measures.
 mod plan;
-mod report;
-mod sheet;
+
+// 3, designers.
+mod design;
+
+// 4, plan sources.
 mod source;
 
-pub use batch::BatchError;
+// 5, reports.
+mod report;
+
+// 6, sheets and maps.
+mod sheet;
+
+// 7, work over many sources, and the demo.
+mod batch;
+mod demo;
+
 pub use batch::{
-    SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target, sheet_targets,
-    verify_file,
+    BatchError, SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target,
+    sheet_targets, verify_file,
 };
 pub use budget::{Limit, MEMORY_BUDGET, OverBudget, TIME_BUDGET, Work};
 pub use demo::{DEMO_PLANS, DEMO_READINGS, run_demo};
-pub use design::DesignError;
 pub use design::{
     AOQL_PLAN_LTPD_RISK, Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design,
-    DesignRequest, Input, InspectionCost, MAX_AOQL_ACCEPTANCE_NUMBER, MAX_DESIGN_STAGES,
-    MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, Moved, Protection, RectifyingDesign, RectifyingPlan,
-    RectifyingRequest, RectifyingRow, RiskGrid, Scheme, SchemeOptions, Sensitivity, SingleDesign,
-    Solution, Steps, TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign,
+    DesignError, DesignRequest, Input, InspectionCost, MAX_AOQL_ACCEPTANCE_NUMBER,
+    MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, Moved, Protection, RectifyingDesign,
+    RectifyingPlan, RectifyingRequest, RectifyingRow, RiskGrid, Scheme, SchemeOptions, Sensitivity,
+    SingleDesign, Solution, Steps, TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign,
     VariablesRequest, VariablesSolution, WaldApproximation, design_double, design_for,
     design_multiple, design_rectifying, design_sequential, design_single, design_variables,
-    sensitivity, single_alternatives, solve, solve_variables, tradeoff, wald_lines,
-};
-pub use design::{
-    design_work, double_work, multiple_work, rectifying_work, sequential_work, single_work,
-    tradeoff_work, variables_design_work,
+    design_work, double_work, multiple_work, rectifying_work, sensitivity, sequential_work,
+    single_alternatives, single_work, solve, solve_variables, tradeoff, tradeoff_work,
+    variables_design_work, wald_lines,
 };
 pub use fs::{
     FileError, Overwrite, normalise_folder, read_limited, refuse_overwriting_input, same_file,
@@ -88,16 +102,13 @@ pub use fs::{
 };
 pub use input::InputError;
 pub use model::{
-    MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot,
-};
-pub use model::{RiskPair, RiskPoint};
-pub use numeric::{
-    BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, QualityRange, bare_fraction_note, parse_count,
-    parse_fraction, parse_fraction_list, parse_number,
+    MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, Tails,
+    nonconforming_in_lot,
 };
 pub use numeric::{
-    NEAR_LIMIT, NumericalError, Quantity, Short, check, format_quality, format_quality_cell,
-    format_significant, near_limit,
+    BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, NEAR_LIMIT, NumericalError, QualityRange, Quantity,
+    Short, bare_fraction_note, check, format_quality, format_quality_cell, format_significant,
+    near_limit, parse_count, parse_fraction, parse_fraction_list, parse_number,
 };
 pub use plain::{escape_controls, io_message, io_reason, is_unsafe_char, shell_path, shell_word};
 pub use plan::{
@@ -107,12 +118,12 @@ pub use plan::{
     SequentialLines, SideStatistic, SigmaKind, Specification, Stage, StageOutcomes, StagedPlan,
     VariablesEvaluation, VariablesPlan, VariablesPoint, acceptance_probability, anderson_darling,
     aoql, average_outgoing_quality, curtailed_outcomes, curve_maximum, default_qualities, evaluate,
-    evaluate_variables, evaluate_with_decided, fraction_beyond_known, fraction_beyond_unknown,
-    indifference_quality, judge, judge_cumulative, judge_measurements, largest_asn, mean_and_sd,
-    measures, parse_measurements, parse_stage, quality_at_pa, stage_outcomes,
-    statistic_for_fraction, variables_point, variables_qualities,
+    evaluate_variables, evaluate_with_decided, evaluation_work, fraction_beyond_known,
+    fraction_beyond_unknown, indifference_quality, judge, judge_cumulative, judge_measurements,
+    largest_asn, mean_and_sd, measures, parse_measurements, parse_stage, quality_at_pa,
+    stage_outcomes, statistic_for_fraction, variables_evaluation_work, variables_point,
+    variables_qualities, walk_seconds,
 };
-pub use plan::{evaluation_work, variables_evaluation_work, walk_seconds};
 pub use report::{
     AlternativeReport, BatchSummary, CostReport, DemoReport, DemoRow, DesignReport,
     EvaluationBatchReport, EvaluationEntry, EvaluationReport, Failure, Format, JudgeReport,
@@ -128,10 +139,9 @@ pub use sheet::{
     write_sheet,
 };
 pub use source::{
-    Audit, Audited, Description, Difference, Discrepancy, MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES,
-    PlanSource, PointSource, RISK_TOLERANCE, RecordedPlan, RecordedVariables, SCHEMA_VERSION,
-    UnmetPoint, VariablesSource, Verdict, audit, tool_version, verify,
+    Audit, Audited, Description, Difference, Discrepancy, Error, MAX_BRACKET_DEPTH,
+    MAX_SOURCE_BYTES, Placeholder, PlanSource, PointSource, RISK_TOLERANCE, RecordedPlan,
+    RecordedVariables, SCHEMA_VERSION, SourceError, SourceJob, TEMPLATES, UnmetPoint,
+    VariablesSource, Verdict, audit, check_batch, check_source, placeholders, source_work,
+    template, template_kinds, tool_version, verify,
 };
-pub use source::{Error, SourceError};
-pub use source::{Placeholder, TEMPLATES, placeholders, template, template_kinds};
-pub use source::{SourceJob, check_batch, check_source, source_work};
