@@ -1,6 +1,6 @@
 //! How far the designers search: the limits of the designers themselves,
-//! beside the size limits every plan keeps
-//! ([`plan` limits](crate::MAX_SAMPLE_SIZE)).
+//! beside the size limits every plan keeps (such as
+//! [`MAX_SAMPLE_SIZE`](crate::MAX_SAMPLE_SIZE)).
 
 /// The most stages the multiple designer builds.
 pub const MAX_DESIGN_STAGES: u32 = 7;
@@ -17,5 +17,5 @@ pub const MAX_DOUBLE_SINGLE_C: u64 = 25;
 /// to [`MAX_ACCEPTANCE_NUMBER`](crate::MAX_ACCEPTANCE_NUMBER).)
 pub const MAX_AOQL_ACCEPTANCE_NUMBER: u64 = 2_000;
 
-/// The most cells a grid may have (`250,000`, e.g. 500 x 500).
+/// The most cells a trade-off grid may have (`250,000`, e.g. 500 x 500).
 pub const MAX_GRID_CELLS: usize = 250_000;
