@@ -21,9 +21,10 @@ use std::time::Instant;
 
 use lotsman::{
     Criterion, DesignRequest, Model, ModelKind, PlanSource, Protection, RectifyingRequest,
-    RiskPair, RiskPoint, Scheme, SchemeOptions, SourceJob, Stage, StagedPlan, TradeoffRequest,
-    Work, aoql, design_rectifying, design_single, design_work, measures, minimum_work,
-    quality_at_pa, solve, source_work, stage_outcomes, tradeoff, tradeoff_work, walk_seconds,
+    RiskGrid, RiskPair, RiskPoint, Scheme, SchemeOptions, SourceJob, Stage, StagedPlan,
+    TradeoffRequest, Work, aoql, design_rectifying, design_single, design_work, measures,
+    quality_at_pa, rectifying_work, solve, source_work, stage_outcomes, tradeoff, tradeoff_work,
+    walk_seconds,
 };
 
 /// One case: its name, its estimate, and the job to time.
@@ -279,12 +280,14 @@ fn commands(cases: &mut Vec<Case>) {
     let binomial = model(ModelKind::Binomial, None);
     for (scheme, rows, cols) in [(Scheme::Single, 200, 200), (Scheme::Double, 5, 5)] {
         let request = TradeoffRequest::new(
-            qualities(rows, 0.02),
-            (1..=cols)
-                .map(|i| 0.025 + 0.075 * i as f64 / cols as f64)
-                .collect(),
-            0.05,
-            0.10,
+            RiskGrid {
+                aql: qualities(rows, 0.02),
+                rql: (1..=cols)
+                    .map(|i| 0.025 + 0.075 * i as f64 / cols as f64)
+                    .collect(),
+                alpha: 0.05,
+                beta: 0.10,
+            },
             binomial,
             scheme,
             Criterion::AsnAql,
@@ -326,7 +329,7 @@ fn commands(cases: &mut Vec<Case>) {
         .unwrap();
         cases.push(Case {
             name: format!("rectify lot {lot} at {average} {}", protection.name()),
-            estimate: minimum_work(&request),
+            estimate: rectifying_work(&request),
             job: Box::new(move || design_rectifying(&request).is_ok()),
         });
     }

@@ -9,18 +9,20 @@ use std::hint::black_box;
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use lotsman::{
-    Criterion as Minimised, Json, Model, ModelKind, QualityRange, ReportFormat, Scheme,
-    TradeoffReport, TradeoffRequest, tradeoff,
+    Criterion as Minimised, Format, Model, ModelKind, QualityRange, RiskGrid, Scheme,
+    TradeoffReport, TradeoffRequest, tradeoff, write_report,
 };
 
 fn benches(c: &mut Criterion) {
     let axis = |text: &str| QualityRange::parse("axis", text).unwrap().points();
     let model = Model::new(ModelKind::Binomial, None).unwrap();
     let request = TradeoffRequest::new(
-        axis("0.2%:2%:100"),
-        axis("3%:12%:100"),
-        0.05,
-        0.10,
+        RiskGrid {
+            aql: axis("0.2%:2%:100"),
+            rql: axis("3%:12%:100"),
+            alpha: 0.05,
+            beta: 0.10,
+        },
         model,
         Scheme::Single,
         Minimised::AsnAql,
@@ -36,8 +38,7 @@ fn benches(c: &mut Criterion) {
         b.iter(|| {
             let grid = tradeoff(&request, &|| {});
             let mut out = Vec::with_capacity(3 << 20);
-            Json.tradeoff(&mut out, &TradeoffReport::new(None, &grid))
-                .unwrap();
+            write_report(&TradeoffReport::new(None, &grid), Format::Json, &mut out).unwrap();
             black_box(out)
         })
     });

@@ -10,7 +10,7 @@ use std::hint::black_box;
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use lotsman::{
-    Criterion as DesignCriterion, Model, ModelKind, Paper, Scheme, TradeoffRequest,
+    Criterion as DesignCriterion, Model, ModelKind, Paper, RiskGrid, Scheme, TradeoffRequest,
     render_tradeoff_map, tradeoff,
 };
 
@@ -24,10 +24,12 @@ fn range(lo: f64, hi: f64, count: usize) -> Vec<f64> {
 fn benches(c: &mut Criterion) {
     let model = Model::new(ModelKind::Binomial, None).unwrap();
     let request = TradeoffRequest::new(
-        range(0.002, 0.02, 100),
-        range(0.03, 0.12, 100),
-        0.05,
-        0.10,
+        RiskGrid {
+            aql: range(0.002, 0.02, 100),
+            rql: range(0.03, 0.12, 100),
+            alpha: 0.05,
+            beta: 0.10,
+        },
         model,
         Scheme::Single,
         DesignCriterion::AsnAql,

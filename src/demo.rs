@@ -7,18 +7,20 @@
 //! and write the source, its OC table (CSV) and its plan sheet (PDF) into
 //! the output folder.
 
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
-use crate::atomic::{Overwrite, write_set};
-use crate::budget::{SourceJob, Work, source_work};
-use crate::error::{Error, InputError, SourceError};
-use crate::folder::normalise_folder;
+use crate::budget::Work;
+use crate::fs::normalise_folder;
+use crate::fs::{Overwrite, write_set};
+use crate::input::InputError;
 use crate::plan::{
     Decision, aoql, default_qualities, evaluate, evaluate_variables, judge_measurements,
     parse_measurements, variables_qualities,
 };
-use crate::report::{Csv, EvaluationReport, ReportFormat, VariablesEvaluationReport};
+use crate::report::{DemoRow, EvaluationReport, Report, VariablesEvaluationReport};
+use crate::source::{Error, SourceError};
 use crate::source::{PlanSource, Verdict, verify};
+use crate::source::{SourceJob, source_work};
 
 /// `(file name, text)` of every demo plan source.
 pub const DEMO_PLANS: &[(&str, &str)] = &[
@@ -59,30 +61,6 @@ pub const DEMO_READINGS: (&str, &str, &str) = (
     include_str!("../plans/tpw-cover-thickness-readings.csv"),
     "thickness_mm",
 );
-
-/// What the demo did with one plan.
-#[derive(Clone, Debug, PartialEq)]
-pub struct DemoRow {
-    /// The source's file name.
-    pub file: String,
-    /// The source's title.
-    pub title: String,
-    /// The model name.
-    pub model: crate::model::ModelKind,
-    /// The recorded plan, as text.
-    pub plan: String,
-    /// Achieved producer's and consumer's risks.
-    pub risks: (f64, f64),
-    /// The AOQL, with its quality.
-    pub aoql: (f64, f64),
-    /// Whether the recorded plan equals a fresh solve.
-    pub verified: bool,
-    /// The files written.
-    pub written: Vec<PathBuf>,
-    /// Variables plans: the decision on the demo lot's readings, with
-    /// its rule and any warnings.
-    pub judged: Option<String>,
-}
 
 /// Runs the demo into `dir` (created if missing, from the path with its
 /// `..` steps taken out where they can be: [`normalise_folder`]). Every
@@ -172,7 +150,7 @@ fn attributes_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>),
     let mut csv = Vec::new();
     let report = EvaluationReport::from(&evaluation);
     report.check()?;
-    Csv.evaluation(&mut csv, &report)?;
+    report.write_csv(&mut csv)?;
     let limit = aoql(&recorded, &request.model);
     Ok((
         DemoRow {
@@ -200,7 +178,7 @@ fn variables_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>), 
     let mut csv = Vec::new();
     let report = VariablesEvaluationReport::from(&evaluation);
     report.check()?;
-    Csv.variables_evaluation(&mut csv, &report)?;
+    report.write_csv(&mut csv)?;
     let (readings_name, readings, column) = DEMO_READINGS;
     let mut judged = None;
     if readings_name.starts_with(&name.replace(".yaml", "")) {

@@ -35,81 +35,92 @@
 // or panic outside the unit tests) are set for every target in the
 // `[lints]` table of Cargo.toml and in clippy.toml.
 
-mod atomic;
-mod batch;
+// The layers, lowest first: a module imports only from its own layer or a
+// lower one (tests/layers.rs checks it).
+//
+// 0, the base: numbers, plain words, files, input errors, the budget's core.
 mod budget;
-mod demo;
-mod design;
-mod error;
-mod folder;
-mod leftovers;
-mod model;
+mod fs;
+mod input;
 mod numeric;
 mod plain;
-mod plan;
-mod quantity;
-mod read;
-mod report;
-mod risk;
-mod sheet;
-mod source;
-mod templates;
 
-pub use atomic::{Overwrite, write_atomic, write_set};
+// 1, likelihood models and risk points.
+mod model;
+
+// 2, plans and their measures.
+mod plan;
+
+// 3, designers.
+mod design;
+
+// 4, plan sources.
+mod source;
+
+// 5, reports.
+mod report;
+
+// 6, sheets and maps.
+mod sheet;
+
+// 7, work over many sources, and the demo.
+mod batch;
+mod demo;
+
 pub use batch::{
-    SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target, sheet_targets,
-    verify_file,
+    BatchError, SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target,
+    sheet_targets, verify_file,
 };
-pub use budget::{
-    Limit, MEMORY_BUDGET, OverBudget, SourceJob, TIME_BUDGET, Work, check_batch, check_source,
-    design_work, double_work, evaluation_work, minimum_work, multiple_work, sequential_work,
-    single_work, source_work, tradeoff_work, variables_design_work, variables_evaluation_work,
-    walk_seconds,
-};
-pub use demo::{DEMO_PLANS, DEMO_READINGS, DemoRow, run_demo};
+pub use budget::{Limit, MEMORY_BUDGET, OverBudget, TIME_BUDGET, Work};
+pub use demo::{DEMO_PLANS, DEMO_READINGS, run_demo};
 pub use design::{
     AOQL_PLAN_LTPD_RISK, Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design,
-    DesignRequest, Input, InspectionCost, MAX_ACCEPTANCE_NUMBER, MAX_AOQL_ACCEPTANCE_NUMBER,
-    MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, MAX_SAMPLE_SIZE, Moved, Protection,
-    RectifyingDesign, RectifyingPlan, RectifyingRequest, RectifyingRow, Scheme, SchemeOptions,
-    Sensitivity, SingleDesign, Solution, Steps, TradeoffCell, TradeoffGrid, TradeoffRequest,
-    VariablesDesign, VariablesRequest, VariablesSolution, WaldApproximation, design_double,
-    design_for, design_multiple, design_rectifying, design_sequential, design_single,
-    design_variables, sensitivity, single_alternatives, solve, solve_variables, tradeoff,
-    wald_lines,
+    DesignError, DesignRequest, Input, InspectionCost, MAX_AOQL_ACCEPTANCE_NUMBER,
+    MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, Moved, Protection, RectifyingDesign,
+    RectifyingPlan, RectifyingRequest, RectifyingRow, RiskGrid, Scheme, SchemeOptions, Sensitivity,
+    SingleDesign, Solution, Steps, TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign,
+    VariablesRequest, VariablesSolution, WaldApproximation, design_double, design_for,
+    design_multiple, design_rectifying, design_sequential, design_single, design_variables,
+    design_work, double_work, multiple_work, rectifying_work, sensitivity, sequential_work,
+    single_alternatives, single_work, solve, solve_variables, tradeoff, tradeoff_work,
+    variables_design_work, wald_lines,
 };
-pub use error::{BatchError, DesignError, Error, InputError, SourceError};
-pub use folder::normalise_folder;
+pub use fs::{
+    FileError, Overwrite, normalise_folder, read_limited, refuse_overwriting_input, same_file,
+    write_atomic, write_set,
+};
+pub use input::InputError;
 pub use model::{
-    MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, Tails, nonconforming_in_lot,
+    MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, Tails,
+    nonconforming_in_lot,
 };
-pub use numeric::{NEAR_LIMIT, NumericalError, Quantity, Short, check, near_limit};
+pub use numeric::{
+    BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, NEAR_LIMIT, NumericalError, QualityRange, Quantity,
+    Short, bare_fraction_note, check, format_quality, format_quality_cell, format_significant,
+    near_limit, parse_count, parse_fraction, parse_fraction_list, parse_number,
+};
 pub use plain::{escape_controls, io_message, io_reason, is_unsafe_char, shell_path, shell_word};
 pub use plan::{
-    AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind, MAX_ITEMS,
-    MAX_OPEN_COUNTS, MAX_STAGES, MAX_VARIABLES_SAMPLE, MeasurementJudgement, Measures,
-    NORMALITY_LEVEL, SIGMA_LEVEL, SequentialLines, SideStatistic, SigmaKind, Specification, Stage,
-    StageOutcomes, StagedPlan, VariablesEvaluation, VariablesPlan, VariablesPoint,
-    acceptance_probability, anderson_darling, aoql, average_outgoing_quality, curtailed_outcomes,
-    curve_maximum, default_qualities, evaluate, evaluate_variables, evaluate_with_decided,
-    fraction_beyond_known, fraction_beyond_unknown, indifference_quality, judge, judge_cumulative,
-    judge_measurements, largest_asn, mean_and_sd, measures, parse_measurements, quality_at_pa,
-    stage_outcomes, statistic_for_fraction, variables_point, variables_qualities,
+    AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind,
+    MAX_ACCEPTANCE_NUMBER, MAX_ITEMS, MAX_OPEN_COUNTS, MAX_SAMPLE_SIZE, MAX_STAGES,
+    MAX_VARIABLES_SAMPLE, MeasurementJudgement, Measures, NORMALITY_LEVEL, SIGMA_LEVEL,
+    SequentialLines, SideStatistic, SigmaKind, Specification, Stage, StageOutcomes, StagedPlan,
+    VariablesEvaluation, VariablesPlan, VariablesPoint, acceptance_probability, anderson_darling,
+    aoql, average_outgoing_quality, curtailed_outcomes, curve_maximum, default_qualities, evaluate,
+    evaluate_variables, evaluate_with_decided, evaluation_work, fraction_beyond_known,
+    fraction_beyond_unknown, indifference_quality, judge, judge_cumulative, judge_measurements,
+    largest_asn, mean_and_sd, measures, parse_measurements, parse_stage, quality_at_pa,
+    stage_outcomes, statistic_for_fraction, variables_evaluation_work, variables_point,
+    variables_qualities, walk_seconds,
 };
-pub use quantity::{
-    BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, QualityRange, bare_fraction_note, parse_count,
-    parse_fraction, parse_fraction_list, parse_number, parse_stage,
-};
-pub use read::read_limited;
 pub use report::{
-    AlternativeReport, BatchSummary, CostReport, Csv, DesignReport, EvaluationBatchReport,
-    EvaluationEntry, EvaluationReport, Failure, Json, Outcome, PointReport, ProtectionReport,
-    RectifyingPlanReport, RectifyingReport, ReportFormat, SourceEvaluation, Table,
-    TradeoffCellReport, TradeoffReport, VariablesDesignReport, VariablesEvaluationReport,
-    VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, format_quality,
-    format_quality_cell, format_significant, variables_rule, words,
+    AlternativeReport, BatchSummary, CostReport, DemoReport, DemoRow, DesignReport,
+    EvaluationBatchReport, EvaluationEntry, EvaluationReport, Failure, Format, JudgeReport,
+    MeasurementJudgeReport, Outcome, PointReport, ProtectionReport, RectifyingPlanReport,
+    RectifyingReport, Report, SourceEvaluation, TradeoffCellReport, TradeoffReport,
+    VariablesDesignReport, VariablesEvaluationReport, VariablesReport, VerificationReport,
+    VerifyEntry, VerifyStatus, variables_rule, words, write_report,
 };
-pub use risk::{RiskPair, RiskPoint};
 pub use sheet::{
     ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity, Paper,
     SOURCE_NAME_KEY, Sheet, SheetNotes, SheetOptions, SheetVerdict, TradeoffMap, check_sheet,
@@ -117,8 +128,9 @@ pub use sheet::{
     write_sheet,
 };
 pub use source::{
-    Audit, Audited, Description, Difference, Discrepancy, MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES,
-    PlanSource, PointSource, RISK_TOLERANCE, RecordedPlan, RecordedVariables, SCHEMA_VERSION,
-    UnmetPoint, VariablesSource, Verdict, audit, tool_version, verify,
+    Audit, Audited, Description, Difference, Discrepancy, Error, MAX_BRACKET_DEPTH,
+    MAX_SOURCE_BYTES, Placeholder, PlanSource, PointSource, RISK_TOLERANCE, RecordedPlan,
+    RecordedVariables, SCHEMA_VERSION, SourceError, SourceJob, TEMPLATES, UnmetPoint,
+    VariablesSource, Verdict, audit, check_batch, check_source, placeholders, source_work,
+    template, template_kinds, tool_version, verify,
 };
-pub use templates::{Placeholder, TEMPLATES, placeholders, template, template_kinds};

@@ -16,19 +16,19 @@ use cli::{
     ReportFormatArg, SchemeArg, SigmaArg, SingleOrDoubleArg, TradeoffFormat,
 };
 use lotsman::{
-    BatchSummary, Criterion, Csv, Decision, Description, DesignReport, DesignRequest, Error,
-    EvaluationBatchReport, EvaluationEntry, EvaluationReport, InputError, Json, LimitKind,
-    MAX_LOT_SIZE, Model, ModelKind, NORMALITY_LEVEL, Outcome, Overwrite, Paper, PlanSource,
-    Protection, RectifyingReport, RectifyingRequest, ReportFormat, RiskPair, RiskPoint, Scheme,
-    SchemeOptions, SheetNotes, SheetOptions, SheetVerdict, SigmaKind, SourceError,
-    SourceEvaluation, SourceFile, SourceJob, Specification, StagedPlan, Steps, Table,
-    TradeoffReport, TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport,
-    VerifyEntry, VerifyStatus, check_batch, check_sheet, default_qualities, design_rectifying,
-    evaluate, evaluate_source, evaluate_with_decided, expand_paths, judge, judge_cumulative,
+    BatchSummary, Criterion, DemoReport, Description, DesignReport, DesignRequest, Error,
+    EvaluationBatchReport, EvaluationEntry, EvaluationReport, Format, InputError, JudgeReport,
+    LimitKind, MAX_LOT_SIZE, MeasurementJudgeReport, Model, ModelKind, Outcome, Overwrite, Paper,
+    PlanSource, Protection, RectifyingReport, RectifyingRequest, RiskGrid, RiskPair, RiskPoint,
+    Scheme, SchemeOptions, SheetNotes, SheetOptions, SheetVerdict, SigmaKind, SourceError,
+    SourceEvaluation, SourceFile, SourceJob, Specification, StagedPlan, Steps, TradeoffReport,
+    TradeoffRequest, VariablesDesignReport, VariablesRequest, VerificationReport, VerifyEntry,
+    VerifyStatus, check_batch, check_sheet, default_qualities, design_rectifying, evaluate,
+    evaluate_source, evaluate_with_decided, expand_paths, judge, judge_cumulative,
     judge_measurements, normalise_folder, parse_count, parse_fraction, parse_measurements,
-    parse_number, parse_stage, read_limited, render_tradeoff_map, run_demo, run_in_parallel,
-    sensitivity, sheet_target, sheet_targets, solve, solve_variables, template, template_kinds,
-    tradeoff, verify_file, write_atomic, write_sheet,
+    parse_number, parse_stage, read_limited, refuse_overwriting_input, render_tradeoff_map,
+    run_demo, run_in_parallel, sensitivity, sheet_target, sheet_targets, solve, solve_variables,
+    template, template_kinds, tradeoff, verify_file, write_atomic, write_report, write_sheet,
 };
 use lotsman::{escape_controls, shell_path, shell_word};
 use progress::Progress;
@@ -132,11 +132,11 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
     }
 }
 
-fn formatter(format: ReportFormatArg) -> &'static dyn ReportFormat {
+fn format_of(format: ReportFormatArg) -> Format {
     match format {
-        ReportFormatArg::Table => &Table,
-        ReportFormatArg::Json => &Json,
-        ReportFormatArg::Csv => &Csv,
+        ReportFormatArg::Table => Format::Table,
+        ReportFormatArg::Json => Format::Json,
+        ReportFormatArg::Csv => Format::Csv,
     }
 }
 
@@ -301,8 +301,8 @@ fn design(args: cli::DesignArgs) -> Result<ExitCode, Error> {
     write_source(&args, &source)?;
     let mut text = Vec::new();
     match args.format {
-        DesignFormat::Table => Table.design(&mut text, &report)?,
-        DesignFormat::Json => Json.design(&mut text, &report)?,
+        DesignFormat::Table => write_report(&report, Format::Table, &mut text)?,
+        DesignFormat::Json => write_report(&report, Format::Json, &mut text)?,
         DesignFormat::Yaml => text = source.to_yaml().into_bytes(),
     }
     print_out(&text)?;
@@ -336,8 +336,8 @@ fn design_rectifying_source(
     write_source(args, &source)?;
     let mut text = Vec::new();
     match args.format {
-        DesignFormat::Table => Table.rectifying(&mut text, &report)?,
-        DesignFormat::Json => Json.rectifying(&mut text, &report)?,
+        DesignFormat::Table => write_report(&report, Format::Table, &mut text)?,
+        DesignFormat::Json => write_report(&report, Format::Json, &mut text)?,
         DesignFormat::Yaml => text = source.to_yaml().into_bytes(),
     }
     print_out(&text)?;
@@ -393,10 +393,12 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
         _ => None,
     };
     let request = TradeoffRequest::new(
-        qualities.axis("--aql", &args.aql)?,
-        qualities.axis("--rql", &args.rql)?,
-        parse_fraction("--alpha", &args.alpha)?,
-        parse_fraction("--beta", &args.beta)?,
+        RiskGrid {
+            aql: qualities.axis("--aql", &args.aql)?,
+            rql: qualities.axis("--rql", &args.rql)?,
+            alpha: parse_fraction("--alpha", &args.alpha)?,
+            beta: parse_fraction("--beta", &args.beta)?,
+        },
         model,
         scheme,
         criterion_from(args.criterion),
@@ -432,12 +434,12 @@ fn tradeoff_cmd(args: cli::TradeoffArgs) -> Result<ExitCode, Error> {
         }
         format => {
             let mut text = Vec::new();
-            let format: &dyn ReportFormat = match format {
-                TradeoffFormat::Json => &Json,
-                TradeoffFormat::Csv => &Csv,
-                _ => &Table,
+            let format = match format {
+                TradeoffFormat::Json => Format::Json,
+                TradeoffFormat::Csv => Format::Csv,
+                _ => Format::Table,
             };
-            format.tradeoff(&mut text, &report)?;
+            write_report(&report, format, &mut text)?;
             text
         }
     };
@@ -563,8 +565,8 @@ fn design_variables_cmd(
     write_source(args, &source)?;
     let mut text = Vec::new();
     match args.format {
-        DesignFormat::Table => Table.variables_design(&mut text, &report)?,
-        DesignFormat::Json => Json.variables_design(&mut text, &report)?,
+        DesignFormat::Table => write_report(&report, Format::Table, &mut text)?,
+        DesignFormat::Json => write_report(&report, Format::Json, &mut text)?,
         DesignFormat::Yaml => text = source.to_yaml().into_bytes(),
     }
     print_out(&text)?;
@@ -658,51 +660,6 @@ fn refuse_variables_flags(args: &cli::DesignArgs) -> Result<(), InputError> {
     Ok(())
 }
 
-/// `--output` never replaces the source that was read, even with
-/// `--force`; `in_place` names the flag that does (for `design`).
-fn refuse_overwriting_input(
-    target: &Path,
-    input: Option<&Path>,
-    in_place: bool,
-) -> Result<(), InputError> {
-    let Some(input) = input else { return Ok(()) };
-    if same_file(target, input) {
-        let advice = if in_place {
-            format!(
-                ", or re-solve it in place with: lotsman design {} --in-place",
-                shell_path(input)
-            )
-        } else {
-            String::new()
-        };
-        return Err(InputError::Inconsistent(format!(
-            "the output {} is the plan source being read; write to a new file and compare before replacing it{advice}",
-            target.display()
-        )));
-    }
-    Ok(())
-}
-
-/// Whether two paths name one existing file: through links, and on Unix
-/// through another hard link too (the same device and inode).
-fn same_file(a: &Path, b: &Path) -> bool {
-    #[cfg(unix)]
-    {
-        use std::os::unix::fs::MetadataExt;
-        match (std::fs::metadata(a), std::fs::metadata(b)) {
-            (Ok(x), Ok(y)) => x.dev() == y.dev() && x.ino() == y.ino(),
-            _ => false,
-        }
-    }
-    #[cfg(not(unix))]
-    {
-        match (std::fs::canonicalize(a), std::fs::canonicalize(b)) {
-            (Ok(x), Ok(y)) => x == y,
-            _ => false,
-        }
-    }
-}
-
 /// The qualities of `--at` and `--range`, in that order, for plans whose
 /// models are `kinds`.
 fn asked_qualities(
@@ -752,10 +709,10 @@ fn evaluate_cmd(args: cli::EvaluateArgs) -> Result<ExitCode, Error> {
             )?;
             match &evaluation {
                 SourceEvaluation::Attributes(r) => {
-                    formatter(args.format).evaluation(&mut text, r)?
+                    write_report(r, format_of(args.format), &mut text)?
                 }
                 SourceEvaluation::Variables(r) => {
-                    formatter(args.format).variables_evaluation(&mut text, r)?
+                    write_report(r, format_of(args.format), &mut text)?
                 }
             }
             warn_accepted(one, evaluation.accepted_recorded(), EVALUATED_AS_RECORDED);
@@ -811,7 +768,7 @@ fn evaluate_plan_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
     let report = EvaluationReport::from(&evaluation);
     report.check()?;
     let mut text = Vec::new();
-    formatter(args.format).evaluation(&mut text, &report)?;
+    write_report(&report, format_of(args.format), &mut text)?;
     print_out(&text)?;
     Ok(ExitCode::SUCCESS)
 }
@@ -855,7 +812,7 @@ fn evaluate_batch_cmd(args: &cli::EvaluateArgs) -> Result<ExitCode, Error> {
     }
     let report = EvaluationBatchReport { results };
     let mut text = Vec::new();
-    formatter(args.format).evaluations(&mut text, &report)?;
+    write_report(&report, format_of(args.format), &mut text)?;
     print_out(&text)?;
     Ok(finish_batch(&report.summary(), args.format))
 }
@@ -966,7 +923,7 @@ fn verify_cmd(args: cli::VerifyArgs) -> Result<ExitCode, Error> {
         every_source: args.list,
     };
     let mut text = Vec::new();
-    formatter(args.format).verification(&mut text, &report)?;
+    write_report(&report, format_of(args.format), &mut text)?;
     print_out(&text)?;
     Ok(finish_batch(&report.summary(), args.format))
 }
@@ -995,77 +952,16 @@ fn judge_measurements_cmd(args: &cli::JudgeArgs, csv: &Path) -> Result<ExitCode,
     let values = parse_measurements(&text, args.column.as_deref())?;
     let j = judge_measurements(&plan, &values, request.risks().producer().quality)?;
     j.check()?;
-    let text = match args.format {
-        cli::JudgeFormat::Json => judgement_json(&j, accepted.as_deref())?,
-        cli::JudgeFormat::Table => {
-            let mut t = accepted_line(accepted.as_deref());
-            for w in &j.warnings {
-                t.push_str(&format!("WARNING: {w}\n"));
-            }
-            let verdict = match (j.decision, j.warnings.is_empty()) {
-                (Decision::Accept, true) => "ACCEPT the lot",
-                (Decision::Accept, false) => {
-                    "ACCEPT the lot by the variables rule, but read the warnings above before releasing it"
-                }
-                _ => "REJECT the lot",
-            };
-            t.push_str(&format!("{verdict}: {}\n", j.rule));
-            t.push_str(&format!(
-                "  n = {}, mean = {:.6}, s = {:.6}{}\n",
-                j.n,
-                j.mean,
-                j.s,
-                plan.spec().sigma().map_or(String::new(), |s| format!(
-                    " (statistics use the known sigma {s})"
-                ))
-            ));
-            let by = if plan.spec().sigma().is_some() {
-                "sigma"
-            } else {
-                "s"
-            };
-            for (name, side) in [("Q_L = (xbar - L)", j.lower), ("Q_U = (U - xbar)", j.upper)] {
-                if let Some(sd) = side {
-                    t.push_str(&format!(
-                        "  {name} / {by} = {:.4} (limit {}){}\n",
-                        sd.q,
-                        sd.limit,
-                        sd.estimate.map_or(String::new(), |e| format!(
-                            ", estimated {:.4}% beyond",
-                            100.0 * e
-                        ))
-                    ));
-                }
-            }
-            if let Some(e) = j.estimate {
-                t.push_str(&format!(
-                    "  estimated fraction nonconforming {:.4}%\n",
-                    100.0 * e
-                ));
-            }
-            if let Some(ad) = j.normality {
-                t.push_str(&format!(
-                    "  normality: Anderson-Darling A*^2 = {:.3}, p = {:.4}{}\n",
-                    ad.a2_star,
-                    ad.p_value,
-                    if ad.p_value < NORMALITY_LEVEL {
-                        " (contradicts the normal model)"
-                    } else {
-                        " (no evidence against the normal model)"
-                    }
-                ));
-            }
-            if let Some(p) = j.sigma_p_value {
-                t.push_str(&format!(
-                    "  spread against the known sigma: chi-square p = {p:.4}\n"
-                ));
-            }
-            t.push_str(&format!("  plan {} from {}\n", plan, shown(&args.source)));
-            t
-        }
+    let report = MeasurementJudgeReport {
+        judgement: j,
+        plan,
+        source: args.source.clone(),
+        accepted_recorded: accepted.clone(),
     };
+    let mut text = Vec::new();
+    write_report(&report, judge_format(args.format), &mut text)?;
     warn_accepted(&args.source, accepted.as_deref(), DECIDED_AS_RECORDED);
-    print_out(text.as_bytes())?;
+    print_out(&text)?;
     Ok(ExitCode::SUCCESS)
 }
 
@@ -1110,47 +1006,16 @@ fn judge_cmd(args: cli::JudgeArgs) -> Result<ExitCode, Error> {
         }
         None => judge(&plan, &model, &found)?,
     };
-    let item_by_item = plan.sequential_lines().is_some();
-    let text = match args.format {
-        cli::JudgeFormat::Json => judgement_json(&j, accepted.as_deref())?,
-        cli::JudgeFormat::Table => {
-            let rule = match j.decision {
-                Decision::Accept => format!(
-                    "{} <= acceptance number {}",
-                    j.cumulative_count,
-                    j.accept.unwrap_or(0)
-                ),
-                Decision::Reject => {
-                    format!("{} >= rejection number {}", j.cumulative_count, j.reject)
-                }
-                Decision::Continue => format!(
-                    "{} lies between the acceptance number {} and the rejection number {}; inspect {} more unit{}",
-                    j.cumulative_count,
-                    j.accept.map_or("(none yet)".to_string(), |a| a.to_string()),
-                    j.reject,
-                    j.next_units.unwrap_or(0),
-                    if j.next_units == Some(1) { "" } else { "s" }
-                ),
-            };
-            let verdict = match (j.decision, item_by_item) {
-                (Decision::Accept, _) => "ACCEPT the lot",
-                (Decision::Reject, _) => "REJECT the lot",
-                (Decision::Continue, true) => "GO ON to the next item",
-                (Decision::Continue, false) => "GO ON to the next stage",
-            };
-            let place = if item_by_item { "item" } else { "stage" };
-            format!(
-                "{}{verdict}\n  {place} {}: {} units inspected in all, cumulative count {rule}\n  plan {} from {}\n",
-                accepted_line(accepted.as_deref()),
-                j.stage,
-                j.inspected,
-                plan,
-                shown(&args.source)
-            )
-        }
+    let report = JudgeReport {
+        judgement: j,
+        plan,
+        source: args.source.clone(),
+        accepted_recorded: accepted.clone(),
     };
+    let mut text = Vec::new();
+    write_report(&report, judge_format(args.format), &mut text)?;
     warn_accepted(&args.source, accepted.as_deref(), DECIDED_AS_RECORDED);
-    print_out(text.as_bytes())?;
+    print_out(&text)?;
     Ok(ExitCode::SUCCESS)
 }
 
@@ -1253,22 +1118,12 @@ fn warn_sheet_notes(source: &Path, notes: &SheetNotes) {
     }
 }
 
-/// The first line of a decision by a plan used as recorded although the
-/// audit does not confirm it; empty otherwise.
-fn accepted_line(accepted: Option<&str>) -> String {
-    accepted.map_or(String::new(), |d| {
-        format!("DECIDED BY THE PLAN AS RECORDED (--accept-recorded): {d}\n")
-    })
-}
-
-/// A judgement as JSON, with the discrepancy of a plan used as recorded
-/// under `accepted_recorded`.
-fn judgement_json(j: &impl serde::Serialize, accepted: Option<&str>) -> Result<String, Error> {
-    let mut value = serde_json::to_value(j).map_err(std::io::Error::other)?;
-    if let (Some(d), serde_json::Value::Object(map)) = (accepted, &mut value) {
-        map.insert("accepted_recorded".into(), d.into());
+/// The format of a judgement: a table, or JSON.
+fn judge_format(format: cli::JudgeFormat) -> Format {
+    match format {
+        cli::JudgeFormat::Table => Format::Table,
+        cli::JudgeFormat::Json => Format::Json,
     }
-    Ok(serde_json::to_string_pretty(&value).map_err(std::io::Error::other)? + "\n")
 }
 
 /// Writes the sheet of `source` to `target`, never over the source itself;
@@ -1291,32 +1146,13 @@ fn write_one_sheet(
 }
 
 fn demo(dir: &Path, overwrite: Overwrite) -> Result<ExitCode, Error> {
-    let rows = run_demo(dir, overwrite)?;
-    let mut out = String::new();
-    out.push_str(
-        "lotsman demo: Tarnwick Pump Works, receiving inspection (an invented scenario)\n\n",
-    );
-    for r in &rows {
-        let per_unit = r.model == ModelKind::Poisson;
-        out.push_str(&format!(
-            "{}\n  {}  [{} model]\n  plan {}; achieved alpha {:.4}, beta {:.4}; AOQL {} at quality {}\n  verify: {}\n{}  wrote {}\n\n",
-            r.title,
-            r.file,
-            r.model,
-            r.plan,
-            r.risks.0,
-            r.risks.1,
-            lotsman::format_quality(r.aoql.0, per_unit),
-            lotsman::format_quality(r.aoql.1, per_unit),
-            if r.verified { "the recorded plan matches a fresh solve" } else { "MISMATCH" },
-            r.judged.as_ref().map_or(String::new(), |j| format!("  judged the demo lot's readings: {j}\n")),
-            r.written.iter().map(|p| p.display().to_string()).collect::<Vec<_>>().join(", "),
-        ));
-    }
-    out.push_str(lotsman::words::CAUTION);
-    out.push('\n');
-    print_out(out.as_bytes())?;
-    Ok(if rows.iter().all(|r| r.verified) {
+    let report = DemoReport {
+        rows: run_demo(dir, overwrite)?,
+    };
+    let mut text = Vec::new();
+    write_report(&report, Format::Table, &mut text)?;
+    print_out(&text)?;
+    Ok(if report.verified() {
         ExitCode::SUCCESS
     } else {
         ExitCode::from(1)
@@ -1373,7 +1209,7 @@ fn rectify_cmd(args: cli::RectifyArgs) -> Result<ExitCode, Error> {
         eprintln!("lotsman: wrote plan source {}", target.display());
     }
     let mut text = Vec::new();
-    formatter(args.format).rectifying(&mut text, &report)?;
+    write_report(&report, format_of(args.format), &mut text)?;
     print_out(&text)?;
     Ok(ExitCode::SUCCESS)
 }

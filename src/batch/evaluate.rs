@@ -3,13 +3,14 @@
 
 use std::path::Path;
 
-use crate::budget::{SourceJob, check_source};
-use crate::error::{Error, InputError, SourceError};
+use crate::input::InputError;
 use crate::plan::{
     default_qualities, evaluate, evaluate_variables, evaluate_with_decided, variables_qualities,
 };
 use crate::report::{EvaluationReport, SourceEvaluation, VariablesEvaluationReport};
 use crate::source::{Audited, PlanSource};
+use crate::source::{Error, SourceError};
+use crate::source::{SourceJob, check_source};
 
 /// The evaluation of the plan recorded in the source at `path`, at
 /// `qualities`, or, when `qualities` is empty, at the default qualities of

@@ -21,12 +21,14 @@
 //! [`BatchSummary`](crate::BatchSummary) adds them up; the worst one decides
 //! the exit status. One bad file never stops the others.
 
+mod error;
 mod evaluate;
 mod paths;
 mod run;
 mod targets;
 mod verify;
 
+pub use error::BatchError;
 pub use evaluate::evaluate_source;
 pub use paths::{SourceFile, expand_paths};
 pub use run::run_in_parallel;

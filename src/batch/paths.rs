@@ -23,7 +23,7 @@ use std::collections::HashSet;
 use std::fs;
 use std::path::{Path, PathBuf};
 
-use crate::error::BatchError;
+use crate::batch::BatchError;
 
 /// One plan source of a batch.
 #[derive(Clone, Debug, PartialEq, Eq)]

@@ -6,7 +6,7 @@ use std::fs;
 use std::path::{Path, PathBuf};
 
 use super::SourceFile;
-use crate::error::BatchError;
+use crate::batch::BatchError;
 
 /// The PDF of `source`: beside it with the extension `.pdf`, or with
 /// `output_dir` in the folder, below it at the path the source had below

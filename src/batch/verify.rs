@@ -3,7 +3,7 @@
 
 use std::path::Path;
 
-use crate::error::InputError;
+use crate::input::InputError;
 use crate::report::{VerifyEntry, VerifyStatus};
 use crate::source::{PlanSource, Verdict, verify};
 

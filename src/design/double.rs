@@ -49,18 +49,14 @@
 //! `(c2, c1, r1, n1)`.
 
 use super::double_sweep::{Candidate, DoubleProblem, FirstStage, Numbers, search};
+use super::limits::MAX_DOUBLE_SINGLE_C;
 use super::request::{Criterion, Design};
 use super::single::Solver;
-use crate::budget::double_work;
-use crate::error::DesignError;
+use super::work::double_work;
+use crate::design::DesignError;
+use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::plan::{Stage, StagedPlan, whole_argmax};
-use crate::risk::RiskPair;
-
-/// The largest single-plan acceptance number for which the double designer
-/// searches: the range its stopping rule serves (the search's time is held
-/// by the work budget, [`double_work`](crate::double_work)).
-pub const MAX_DOUBLE_SINGLE_C: u64 = 25;
 
 struct DoubleSearch<'a> {
     model: &'a Model,

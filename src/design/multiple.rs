@@ -35,11 +35,11 @@
 use super::request::{Criterion, Design};
 use super::sequential::wald_lines;
 use super::single::design_single;
-use crate::budget::multiple_work;
-use crate::error::DesignError;
+use super::work::multiple_work;
+use crate::design::DesignError;
+use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::plan::{Stage, StagedPlan, Walk};
-use crate::risk::RiskPair;
 
 /// The intercept grid, in counts.
 const INTERCEPTS: [f64; 8] = [0.5, 1.0, 1.5, 2.0, 2.5, 3.0, 3.5, 4.0];

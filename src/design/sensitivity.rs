@@ -14,10 +14,10 @@
 use serde::Serialize;
 
 use super::single::design_single;
-use crate::error::InputError;
+use crate::input::InputError;
 use crate::model::Model;
+use crate::model::RiskPair;
 use crate::numeric::round_significant;
-use crate::risk::RiskPair;
 
 /// One of the four agreed inputs.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]

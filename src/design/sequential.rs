@@ -52,11 +52,11 @@ use serde::Serialize;
 
 use super::request::Design;
 use super::single::design_single;
-use crate::budget::sequential_work;
-use crate::error::DesignError;
+use super::work::sequential_work;
+use crate::design::DesignError;
+use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::plan::{MAX_ITEMS, SequentialLines, Stage, StagedPlan, Walk};
-use crate::risk::RiskPair;
 
 /// Wald's approximations to the average sample number of the untruncated
 /// test, for comparison with the exact figures of the truncated plan.

@@ -37,20 +37,13 @@ use std::collections::HashMap;
 use serde::Serialize;
 
 use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z_upper};
+use super::request::Design;
 use super::search::first_true;
-use crate::budget::single_work;
-use crate::error::DesignError;
+use super::work::single_work;
+use crate::design::DesignError;
+use crate::model::RiskPair;
 use crate::model::{Model, ModelKind, nonconforming_in_lot};
-use crate::plan::StagedPlan;
-use crate::risk::RiskPair;
-
-/// The largest sample size the designer will propose (`10^9`); whenever a
-/// lot size is known, under every model, the lot caps it too (a design
-/// that needs more is refused with [`DesignError::WholeLot`]).
-pub const MAX_SAMPLE_SIZE: u64 = 1_000_000_000;
-
-/// The largest acceptance number the designer will propose (`10^5`).
-pub const MAX_ACCEPTANCE_NUMBER: u64 = 100_000;
+use crate::plan::{MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE, StagedPlan};
 
 /// The most acceptance numbers a design lists as fitting at its `n`.
 const MAX_FITTING_LISTED: usize = 1000;
@@ -442,4 +435,15 @@ pub(crate) fn design_single_with(
 pub fn single_alternatives(model: &Model, risks: &RiskPair, c_last: u64) -> Vec<Alternative> {
     let s = Solver::new(model, risks);
     (0..=c_last).map(|c| s.alternative(c)).collect()
+}
+
+/// The single designer's answer as a staged design.
+impl From<SingleDesign> for Design {
+    fn from(d: SingleDesign) -> Self {
+        Design {
+            plan: d.plan,
+            producer_risk: d.producer_risk,
+            consumer_risk: d.consumer_risk,
+        }
+    }
 }

@@ -43,13 +43,13 @@
 //! the plan uses.
 
 use super::search::first_true;
-use crate::error::DesignError;
+use crate::design::DesignError;
+use crate::model::RiskPair;
 use crate::model::{NoncentralT, normal};
 use crate::numeric::{Short, brent};
 use crate::plan::{
     LimitKind, MAX_VARIABLES_SAMPLE, Specification, VariablesPlan, fraction_beyond_unknown,
 };
-use crate::risk::RiskPair;
 
 /// A designed variables plan with the risks it achieves.
 #[derive(Clone, Debug, PartialEq)]
@@ -148,8 +148,8 @@ pub fn design_variables(
             return Err(DesignError::NoPlan {
                 reason: format!(
                     "the limits are too close for sigma: even with its mean centred the process has {} beyond them (2 Phi(-(U - L) / (2 sigma))), not below the {name} {}",
-                    crate::report::format_quality(lowest, false),
-                    crate::report::format_quality(q, false)
+                    crate::numeric::format_quality(lowest, false),
+                    crate::numeric::format_quality(q, false)
                 ),
                 suggestion:
                     "reduce the process spread, widen the limits, or agree the risk points again"

@@ -19,6 +19,7 @@ mod hypergeometric;
 pub(crate) mod noncentral_t;
 pub(crate) mod normal;
 mod poisson;
+mod risk;
 mod saddle;
 mod tail;
 mod window;
@@ -27,12 +28,15 @@ use std::fmt;
 
 use serde::{Deserialize, Serialize};
 
-use crate::error::{DesignError, InputError};
+use crate::input::InputError;
+use crate::numeric::Quantity;
 use binomial::Binomial;
 use hypergeometric::Hypergeometric;
 pub use hypergeometric::nonconforming_in_lot;
 pub use noncentral_t::NoncentralT;
 use poisson::Poisson;
+pub use risk::{RiskPair, RiskPoint};
+pub(crate) use risk::{check_quality, check_risk, check_risks};
 pub use tail::Tails;
 pub(crate) use tail::at_most_one;
 use tail::{Terms, tails};
@@ -189,19 +193,6 @@ impl Model {
             Some(lot) if n > lot => Err(InputError::Inconsistent(format!(
                 "{what} {n} exceeds the lot size {lot}: a sample cannot be larger than its lot; inspect all {lot} units (100%), or give a plan whose samples fit the lot"
             ))),
-            _ => Ok(()),
-        }
-    }
-
-    /// The designers' check of their answer against the lot: `Ok` when a
-    /// sample of `needed` units (or measurements) fits it, otherwise the
-    /// refusal that states the answer, to inspect the whole lot, and why.
-    ///
-    /// # Errors
-    /// [`DesignError::WholeLot`] when `needed` exceeds the lot size.
-    pub fn fit_in_lot(&self, needed: u64, unit: &'static str) -> Result<(), DesignError> {
-        match self.lot_size {
-            Some(lot) if needed > lot => Err(DesignError::WholeLot { needed, lot, unit }),
             _ => Ok(()),
         }
     }
@@ -392,4 +383,17 @@ enum Count {
     Impossible,
     /// A Poisson count whose mean overflows: above every cut.
     Endless,
+}
+
+/// A quality's kind follows the model; it is told here, beside the model,
+/// so that the numeric guards need know nothing of models.
+impl Quantity {
+    /// The kind of a quality (and of an AOQ and AOQL) under `model`: a
+    /// rate for the Poisson model, a fraction otherwise.
+    pub fn quality(model: ModelKind) -> Self {
+        match model {
+            ModelKind::Poisson => Quantity::Rate,
+            ModelKind::Binomial | ModelKind::Hypergeometric => Quantity::Fraction,
+        }
+    }
 }

@@ -11,11 +11,11 @@
 //! cannot hold an AOQ of 1.4 nonconformities per unit to a probability's
 //! range by choosing the wrong function.
 
-use std::fmt::{self, Display};
+use std::fmt::Display;
 
 use thiserror::Error;
 
-use crate::model::ModelKind;
+use super::format::Short;
 
 /// What a computed number is, and so which values it may take.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -33,15 +33,6 @@ pub enum Quantity {
 }
 
 impl Quantity {
-    /// The kind of a quality (and of an AOQ and AOQL) under `model`: a
-    /// rate for the Poisson model, a fraction otherwise.
-    pub fn quality(model: ModelKind) -> Self {
-        match model {
-            ModelKind::Poisson => Quantity::Rate,
-            ModelKind::Binomial | ModelKind::Hypergeometric => Quantity::Fraction,
-        }
-    }
-
     /// Whether `x` is a value of this kind, up to a rounding of `1e-12`.
     pub fn allows(self, x: f64) -> bool {
         x.is_finite()
@@ -111,24 +102,6 @@ pub fn check(kind: Quantity, quantity: impl Display, x: f64) -> Result<(), Numer
     })
 }
 
-/// A number as messages write it: the shortest decimal that reads back as
-/// the same double, in scientific form below `1e-6` and from `1e15` on,
-/// so that a subnormal quality (`1e-310`) is not written with three
-/// hundred zeros.
-#[derive(Clone, Copy, Debug)]
-pub struct Short(pub f64);
-
-impl Display for Short {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        let x = self.0;
-        if x != 0.0 && x.is_finite() && !(1e-6..1e15).contains(&x.abs()) {
-            write!(f, "{x:e}")
-        } else {
-            write!(f, "{x}")
-        }
-    }
-}
-
 /// Relative distance below which an achieved risk counts as on its limit:
 /// the plan meets the point, but by less than the computation can vouch
 /// for, and the report says so.
@@ -142,6 +115,7 @@ pub fn near_limit(achieved: f64, limit: f64) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::model::ModelKind;
 
     #[test]
     fn probabilities_outside_their_range_are_refused_with_their_name() {
@@ -174,15 +148,6 @@ mod tests {
             Quantity::quality(ModelKind::Hypergeometric),
             Quantity::Fraction
         );
-    }
-
-    #[test]
-    fn tiny_and_huge_numbers_print_short() {
-        assert_eq!(Short(1e-310).to_string(), "1e-310");
-        assert_eq!(Short(0.05).to_string(), "0.05");
-        assert_eq!(Short(1.5e20).to_string(), "1.5e20");
-        assert_eq!(Short(f64::NAN).to_string(), "NaN");
-        assert_eq!(Short(0.0).to_string(), "0");
     }
 
     #[test]

@@ -1,13 +1,13 @@
 //! The evaluation of a plan over a set of qualities: the rows of an OC
 //! table plus the curve's AOQL and indifference quality.
 
-use crate::budget::{evaluation_advice, evaluation_work};
-use crate::error::InputError;
+use super::work::{evaluation_advice, evaluation_work};
+use crate::input::InputError;
 use crate::model::Model;
+use crate::model::RiskPair;
 use crate::plan::{
     Aoql, Measures, StagedPlan, acceptance_probability, aoql, measures, stage_outcomes,
 };
-use crate::risk::RiskPair;
 
 /// A plan evaluated at a list of qualities.
 #[derive(Clone, Debug, PartialEq)]

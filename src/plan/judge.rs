@@ -2,7 +2,7 @@
 
 use serde::Serialize;
 
-use crate::error::InputError;
+use crate::input::InputError;
 use crate::model::{Model, ModelKind};
 use crate::plan::StagedPlan;
 

@@ -24,7 +24,7 @@ use statrs::distribution::{ChiSquared, ContinuousCDF};
 use super::estimate::{fraction_beyond_known, fraction_beyond_unknown};
 use super::judge::Decision;
 use super::variables::{LimitKind, VariablesPlan};
-use crate::error::InputError;
+use crate::input::InputError;
 use crate::model::normal;
 
 /// Below this p-value the readings contradict the normal model.

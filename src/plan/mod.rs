@@ -3,19 +3,26 @@
 mod estimate;
 mod evaluation;
 mod judge;
+mod limits;
 mod measurements;
 mod measures;
 mod oc;
 mod sequential;
+mod stage;
 mod staged;
 mod variables;
 mod variables_evaluation;
+mod work;
 
 pub use estimate::{fraction_beyond_known, fraction_beyond_unknown, statistic_for_fraction};
 pub use evaluation::{
     Evaluation, default_qualities, evaluate, evaluate_with_decided, quality_at_pa,
 };
 pub use judge::{Decision, Judgement, judge, judge_cumulative};
+pub use limits::{
+    MAX_ACCEPTANCE_NUMBER, MAX_ITEMS, MAX_OPEN_COUNTS, MAX_SAMPLE_SIZE, MAX_STAGES,
+    MAX_VARIABLES_SAMPLE,
+};
 pub use measurements::{
     AndersonDarling, MeasurementJudgement, NORMALITY_LEVEL, SIGMA_LEVEL, SideStatistic,
     anderson_darling, judge_measurements, mean_and_sd, parse_measurements,
@@ -28,8 +35,14 @@ pub use measures::{
 pub(crate) use oc::Walk;
 pub use oc::{StageOutcomes, curtailed_outcomes, stage_outcomes};
 pub use sequential::{ItemRun, SequentialLines};
-pub use staged::{MAX_ITEMS, MAX_OPEN_COUNTS, MAX_STAGES, Stage, StagedPlan};
-pub use variables::{LimitKind, MAX_VARIABLES_SAMPLE, SigmaKind, Specification, VariablesPlan};
+pub use stage::{Stage, parse_stage};
+pub use staged::StagedPlan;
+pub use variables::{LimitKind, SigmaKind, Specification, VariablesPlan};
 pub use variables_evaluation::{
     VariablesEvaluation, VariablesPoint, evaluate_variables, variables_point, variables_qualities,
 };
+pub(crate) use work::{
+    ROW_OUTPUT, evaluation_advice, evaluation_advice_for, most_variables_qualities, tail_terms,
+    walk_parts,
+};
+pub use work::{evaluation_work, variables_evaluation_work, walk_seconds};

@@ -4,9 +4,10 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::error::InputError;
+use super::limits::MAX_ITEMS;
+use super::stage::Stage;
+use crate::input::InputError;
 use crate::model::{Model, ModelKind};
-use crate::plan::{MAX_ITEMS, Stage};
 
 /// The acceptance and rejection lines of a sequential plan and its
 /// truncation.

@@ -3,46 +3,11 @@
 
 use std::fmt;
 
-use serde::{Deserialize, Serialize};
-
-use crate::design::{MAX_ACCEPTANCE_NUMBER, MAX_SAMPLE_SIZE};
-use crate::error::InputError;
+use super::limits::{MAX_ACCEPTANCE_NUMBER, MAX_OPEN_COUNTS, MAX_SAMPLE_SIZE, MAX_STAGES};
+use super::sequential::SequentialLines;
+use super::stage::Stage;
+use crate::input::InputError;
 use crate::model::{Model, ModelKind};
-use crate::plan::SequentialLines;
-
-/// The most stages a plan given as a list of stages may have.
-pub const MAX_STAGES: usize = 10;
-
-/// The most items an item-by-item (sequential) plan may inspect before its
-/// truncation: `10^5`, where the exact OC of one quality still costs well
-/// under a millisecond.
-pub const MAX_ITEMS: u64 = 100_000;
-
-/// The most counts a stage may leave undecided (`reject - accept - 1`).
-/// The exact recursion carries every open count into the next stage, so a
-/// stage's work is the product of the open counts before and after it:
-/// `500` keeps a ten-stage plan to about `2 10^6` steps a quality. The
-/// designers' plans leave far fewer open (a sequential plan within its
-/// designer's limits, at most about 200).
-pub const MAX_OPEN_COUNTS: u64 = 500;
-
-/// One stage of a staged plan, on cumulative figures.
-///
-/// After `n` units in all have been inspected, the cumulative count `d` of
-/// nonconforming units (or nonconformities) decides: accept when
-/// `d <= accept`, reject when `d >= reject`, otherwise go on to the next
-/// stage. `accept = None` means the stage cannot accept (only reject or go
-/// on).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct Stage {
-    /// Cumulative sample size after this stage.
-    pub n: u64,
-    /// Acceptance number on the cumulative count, if the stage can accept.
-    pub accept: Option<u64>,
-    /// Rejection number on the cumulative count.
-    pub reject: u64,
-}
 
 /// A validated staged plan.
 ///
@@ -283,17 +248,6 @@ fn check_stages(stages: &[Stage], model: &Model) -> Result<(), InputError> {
         }
     }
     Ok(())
-}
-
-impl fmt::Display for Stage {
-    /// `N:AC:RE`, the notation of `evaluate --stage`; `-` for a stage that
-    /// cannot accept.
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        match self.accept {
-            Some(a) => write!(f, "{}:{}:{}", self.n, a, self.reject),
-            None => write!(f, "{}:-:{}", self.n, self.reject),
-        }
-    }
 }
 
 impl fmt::Display for StagedPlan {

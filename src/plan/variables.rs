@@ -53,15 +53,12 @@ use std::fmt;
 use serde::{Deserialize, Serialize};
 
 use super::estimate::{fraction_beyond_known, fraction_beyond_unknown, statistic_for_fraction};
-use crate::error::InputError;
+use super::limits::MAX_VARIABLES_SAMPLE;
+use crate::input::InputError;
 use crate::model::NoncentralT;
 use crate::model::noncentral_t::ScaleDensity;
 use crate::model::normal;
 use crate::numeric::{brent, integrate};
-
-/// The largest sample of a variables plan (`10^4`): the noncentral t is
-/// certified to that size.
-pub const MAX_VARIABLES_SAMPLE: u64 = 10_000;
 
 /// Whether the process standard deviation is known or estimated from each
 /// sample.

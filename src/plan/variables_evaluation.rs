@@ -19,9 +19,9 @@ use serde::Serialize;
 use super::evaluation::bracketing_qualities;
 use super::measures::{Aoql, bisect_quality, smooth_maximum};
 use super::variables::VariablesPlan;
-use crate::budget::{evaluation_advice_for, most_variables_qualities, variables_evaluation_work};
-use crate::error::InputError;
-use crate::risk::RiskPair;
+use super::work::{evaluation_advice_for, most_variables_qualities, variables_evaluation_work};
+use crate::input::InputError;
+use crate::model::RiskPair;
 
 /// The measures of a variables plan at one quality.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]

@@ -1,12 +1,11 @@
-//! The reports of batch runs: how each source ended, the evaluations of
-//! many sources, and the summary that counts them and gives one line per
-//! failure.
+//! How the sources of a batch run ended, and the summary that counts them
+//! and gives one line per failure: printed after a batch's table, or on
+//! stderr beside JSON and CSV.
 
 use std::fmt;
 
 use serde::Serialize;
 
-use super::{EvaluationReport, VariablesEvaluationReport, VerificationReport, VerifyStatus};
 use crate::plain::escape_controls;
 
 /// How one source of a batch ended, from best to worst; the worst of a run
@@ -29,16 +28,6 @@ impl Outcome {
             Outcome::Ok => "ok",
             Outcome::Mismatch => "mismatch",
             Outcome::Invalid => "invalid",
-        }
-    }
-}
-
-impl From<VerifyStatus> for Outcome {
-    fn from(status: VerifyStatus) -> Self {
-        match status {
-            VerifyStatus::Match => Outcome::Ok,
-            VerifyStatus::Mismatch => Outcome::Mismatch,
-            VerifyStatus::Invalid => Outcome::Invalid,
         }
     }
 }
@@ -165,154 +154,9 @@ impl fmt::Display for BatchSummary {
     }
 }
 
-impl VerificationReport {
-    /// The summary of the verification: a mismatch is explained by its
-    /// first differing field with the recorded and re-solved values (and
-    /// how many more fields differ), an invalid source by its error.
-    pub fn summary(&self) -> BatchSummary {
-        let mut summary = BatchSummary::new("match", true);
-        for e in &self.results {
-            let reason = match (&e.message, e.differences.first()) {
-                (Some(message), _) => message.clone(),
-                (None, Some(d)) => {
-                    let more = match e.differences.len() - 1 {
-                        0 => String::new(),
-                        1 => " (and 1 more difference)".to_string(),
-                        n => format!(" (and {n} more differences)"),
-                    };
-                    format!("{d}{more}")
-                }
-                (None, None) => String::new(),
-            };
-            summary.push(&e.path, e.status.into(), &reason);
-        }
-        summary
-    }
-}
-
-/// The evaluation of one source: of an attributes plan or of a variables
-/// plan, each in the shape `evaluate FILE.yaml` gives it alone.
-#[derive(Clone, Debug, PartialEq, Serialize)]
-#[serde(untagged)]
-pub enum SourceEvaluation {
-    /// An attributes plan (single, double, multiple, sequential).
-    Attributes(EvaluationReport),
-    /// A variables plan.
-    Variables(VariablesEvaluationReport),
-}
-
-impl SourceEvaluation {
-    /// The discrepancy of a plan evaluated as recorded at the user's
-    /// request, if any.
-    pub fn accepted_recorded(&self) -> Option<&str> {
-        match self {
-            SourceEvaluation::Attributes(r) => r.accepted_recorded.as_deref(),
-            SourceEvaluation::Variables(r) => r.accepted_recorded.as_deref(),
-        }
-    }
-}
-
-/// One source of `evaluate` over many: its evaluation, or why there is
-/// none. In JSON exactly one of `evaluation` and `message` is present.
-#[derive(Clone, Debug, PartialEq, Serialize)]
-pub struct EvaluationEntry {
-    /// The source's path as given or found.
-    pub path: String,
-    /// [`Outcome::Ok`] or [`Outcome::Invalid`].
-    pub status: Outcome,
-    /// The evaluation, when there is one.
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub evaluation: Option<SourceEvaluation>,
-    /// The error, when there is no evaluation.
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub message: Option<String>,
-}
-
-impl EvaluationEntry {
-    /// The entry of the source at `path` from its evaluation or error.
-    pub fn new(path: String, result: Result<SourceEvaluation, String>) -> Self {
-        match result {
-            Ok(evaluation) => EvaluationEntry {
-                path,
-                status: Outcome::Ok,
-                evaluation: Some(evaluation),
-                message: None,
-            },
-            Err(message) => EvaluationEntry {
-                path,
-                status: Outcome::Invalid,
-                evaluation: None,
-                message: Some(message),
-            },
-        }
-    }
-}
-
-/// What `evaluate` reports for several sources or a folder.
-#[derive(Clone, Debug, PartialEq, Serialize)]
-pub struct EvaluationBatchReport {
-    /// One entry per source, in input order.
-    pub results: Vec<EvaluationEntry>,
-}
-
-impl EvaluationBatchReport {
-    /// The summary: evaluated and invalid sources.
-    pub fn summary(&self) -> BatchSummary {
-        let mut summary = BatchSummary::new("evaluated", false);
-        for e in &self.results {
-            summary.push(&e.path, e.status, e.message.as_deref().unwrap_or(""));
-        }
-        summary
-    }
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::report::VerifyEntry;
-    use crate::source::Difference;
-
-    fn entry(path: &str, status: VerifyStatus, diffs: usize, message: Option<&str>) -> VerifyEntry {
-        VerifyEntry {
-            path: path.to_string(),
-            status,
-            differences: (0..diffs)
-                .map(|i| Difference {
-                    field: format!("field{i}"),
-                    recorded: format!("{i}"),
-                    resolved: format!("{}", i + 1),
-                })
-                .collect(),
-            message: message.map(str::to_string),
-        }
-    }
-
-    #[test]
-    fn a_mismatch_line_gives_the_first_field_and_counts_the_rest() {
-        let report = VerificationReport {
-            results: vec![
-                entry("a.yaml", VerifyStatus::Match, 0, None),
-                entry("b.yaml", VerifyStatus::Mismatch, 3, None),
-                entry("c.yaml", VerifyStatus::Mismatch, 1, None),
-                entry(
-                    "d.yaml",
-                    VerifyStatus::Invalid,
-                    0,
-                    Some("d.yaml: unknown field `lotsize`\n  at line 3"),
-                ),
-            ],
-            every_source: false,
-        };
-        let s = report.summary();
-        assert_eq!(
-            s.to_string(),
-            "mismatch  b.yaml: field0: recorded 0, re-solved 1 (and 2 more differences)\n\
-             mismatch  c.yaml: field0: recorded 0, re-solved 1\n\
-             invalid   d.yaml: unknown field `lotsize` at line 3\n\
-             1 match, 2 mismatch, 1 invalid\n"
-        );
-        assert_eq!(s.worst(), Outcome::Invalid);
-    }
 
     #[test]
     fn the_worst_outcome_decides() {
@@ -325,14 +169,5 @@ mod tests {
         s.push("c", Outcome::Invalid, "y");
         assert_eq!(s.worst(), Outcome::Invalid);
         assert_eq!(s.counts(), "1 match, 1 mismatch, 1 invalid");
-    }
-
-    #[test]
-    fn an_entry_has_an_evaluation_or_a_message_never_both() {
-        let e = EvaluationEntry::new("x.yaml".into(), Err("x.yaml: gone".into()));
-        let json = serde_json::to_value(&e).unwrap();
-        assert_eq!(json["status"], "invalid");
-        assert_eq!(json["message"], "x.yaml: gone");
-        assert!(json.get("evaluation").is_none());
     }
 }

@@ -6,10 +6,13 @@
 //! finite and not negative. A report that fails is not printed; the
 //! command stops with the [`NumericalError`] instead.
 
-use super::{
-    DesignReport, EvaluationReport, PointReport, RectifyingReport, TradeoffReport,
-    VariablesDesignReport, VariablesEvaluationReport,
-};
+use super::design::DesignReport;
+use super::evaluation::EvaluationReport;
+use super::parts::PointReport;
+use super::rectifying::RectifyingReport;
+use super::tradeoff::TradeoffReport;
+use super::variables_design::VariablesDesignReport;
+use super::variables_evaluation::VariablesEvaluationReport;
 use crate::numeric::{NumericalError, Quantity, Short, check};
 use crate::plan::{Aoql, MeasurementJudgement, Measures, VariablesPoint};
 

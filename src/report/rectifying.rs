@@ -1,18 +1,19 @@
 //! The report of a minimum-inspection design (`lotsman rectify`): the plan
 //! with the smallest average total inspection at the process average, what
 //! it does under rectifying inspection, and the single plans it was chosen
-//! from. The terminal table and the CSV rows are written here; JSON is the
-//! report as it is.
+//! from.
 
 use std::io::{self, Write};
 
 use serde::Serialize;
 
-use super::table::{grid, plan_headline, write_stage_table};
-use super::{format_quality, format_significant, words};
+use super::format::{Report, csv_writer};
+use super::table_kit::{grid, plan_headline, write_stage_table};
+use super::words;
 use crate::design::{Protection, RectifyingDesign, RectifyingPlan, RectifyingRow};
 use crate::model::{ModelKind, nonconforming_in_lot};
 use crate::numeric::Short;
+use crate::numeric::{format_quality, format_significant};
 use crate::plain::escape_controls;
 use crate::plan::{Aoql, Stage, StagedPlan};
 use crate::source::tool_version;
@@ -206,60 +207,79 @@ impl RectifyingReport {
 /// How many rows of the acceptance-number table a terminal shows.
 const ROWS: usize = 14;
 
-/// The terminal table of a minimum-inspection design.
-pub(super) fn write_table(out: &mut dyn Write, r: &RectifyingReport) -> io::Result<()> {
-    let per_unit = r.model == ModelKind::Poisson;
-    let q = |x: f64| format_quality(x, per_unit);
-    writeln!(out, "{}", escape_controls(&r.title))?;
-    writeln!(
-        out,
-        "minimum-inspection {} plan (Dodge and Romig's method), {} model, lot of {} units",
-        r.scheme, r.model, r.lot_size
-    )?;
-    let protection = match r.protection.beta {
-        Some(beta) => format!(
-            "LTPD {} with consumer's risk {}",
-            q(r.protection.quality),
-            Short(beta)
-        ),
-        None => format!("AOQL {}", q(r.protection.quality)),
-    };
-    writeln!(
-        out,
-        "process average {}; protection: {protection}",
-        q(r.process_average)
-    )?;
-    writeln!(out)?;
-    match &r.plan {
-        None => {
-            writeln!(
-                out,
-                "  PLAN  inspect every unit of the lot (100% inspection), {} units per lot",
-                r.lot_size
-            )?;
-        }
-        Some(p) => {
-            let plan = &p.plan;
-            writeln!(out, "{}", plan_headline(plan))?;
-            for step in words::rectifying_procedure(plan, per_unit) {
-                writeln!(out, "  {step}")?;
-            }
-            if plan.as_single().is_none() {
-                writeln!(out)?;
-                write_stage_table(out, &p.stages)?;
-            }
-            writeln!(out)?;
-            write_measures(out, r, p)?;
-        }
-    }
-    for note in &r.notes {
-        writeln!(out, "Note: {note}")?;
-    }
-    if r.scheme == "single" {
+impl Report for RectifyingReport {
+    fn write_table(&self, out: &mut dyn Write) -> io::Result<()> {
+        let r = self;
+        let per_unit = r.model == ModelKind::Poisson;
+        let q = |x: f64| format_quality(x, per_unit);
+        writeln!(out, "{}", escape_controls(&r.title))?;
+        writeln!(
+            out,
+            "minimum-inspection {} plan (Dodge and Romig's method), {} model, lot of {} units",
+            r.scheme, r.model, r.lot_size
+        )?;
+        let protection = match r.protection.beta {
+            Some(beta) => format!(
+                "LTPD {} with consumer's risk {}",
+                q(r.protection.quality),
+                Short(beta)
+            ),
+            None => format!("AOQL {}", q(r.protection.quality)),
+        };
+        writeln!(
+            out,
+            "process average {}; protection: {protection}",
+            q(r.process_average)
+        )?;
         writeln!(out)?;
-        write_rows(out, r)?;
+        match &r.plan {
+            None => {
+                writeln!(
+                    out,
+                    "  PLAN  inspect every unit of the lot (100% inspection), {} units per lot",
+                    r.lot_size
+                )?;
+            }
+            Some(p) => {
+                let plan = &p.plan;
+                writeln!(out, "{}", plan_headline(plan))?;
+                for step in words::rectifying_procedure(plan, per_unit) {
+                    writeln!(out, "  {step}")?;
+                }
+                if plan.as_single().is_none() {
+                    writeln!(out)?;
+                    write_stage_table(out, &p.stages)?;
+                }
+                writeln!(out)?;
+                write_measures(out, r, p)?;
+            }
+        }
+        for note in &r.notes {
+            writeln!(out, "Note: {note}")?;
+        }
+        if r.scheme == "single" {
+            writeln!(out)?;
+            write_rows(out, r)?;
+        }
+        writeln!(out, "{}", words::CAUTION)
     }
-    writeln!(out, "{}", words::CAUTION)
+
+    /// The single plans by acceptance number: `c, n_min, ati,
+    /// best_single`.
+    fn write_csv(&self, out: &mut dyn Write) -> io::Result<()> {
+        let mut w = csv_writer(out);
+        w.write_record(["c", "n_min", "ati", "best_single"])?;
+        let best = self.best_single_c();
+        for row in &self.by_acceptance_number {
+            w.write_record([
+                row.c.to_string(),
+                row.n_min.map_or(String::new(), |n| n.to_string()),
+                row.ati.map_or(String::new(), |a| a.to_string()),
+                (best == Some(row.c)).to_string(),
+            ])?;
+        }
+        w.flush()
+    }
 }
 
 /// Pa, ATI and ASN at the process average against 100% inspection (and the
@@ -364,21 +384,4 @@ fn write_rows(out: &mut dyn Write, r: &RectifyingReport) -> io::Result<()> {
         ),
         None => Ok(()),
     }
-}
-
-/// The CSV rows: the single plans by acceptance number.
-pub(super) fn write_csv(out: &mut dyn Write, r: &RectifyingReport) -> io::Result<()> {
-    writeln!(out, "c,n_min,ati,best_single")?;
-    let best = r.best_single_c();
-    for row in &r.by_acceptance_number {
-        writeln!(
-            out,
-            "{},{},{},{}",
-            row.c,
-            row.n_min.map_or(String::new(), |n| n.to_string()),
-            row.ati.map_or(String::new(), |a| a.to_string()),
-            best == Some(row.c)
-        )?;
-    }
-    Ok(())
 }

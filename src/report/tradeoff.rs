@@ -1,9 +1,19 @@
-//! The report of a trade-off grid: what `tradeoff` prints.
+//! The report of a trade-off grid: what `tradeoff` prints, a matrix of
+//! plans (and costs) by AQL and RQL.
 
+use std::io::{self, Write};
+
+use comfy_table::{CellAlignment, ContentArrangement, Table as Grid};
 use serde::Serialize;
+
+use super::format::{Report, cell, csv_writer, num, opt, quality_column};
+use super::table_kit::RULED;
+use super::words;
 
 use crate::design::{Scheme, TradeoffGrid};
 use crate::model::ModelKind;
+use crate::numeric::{Short, format_quality, format_quality_cell};
+use crate::plain::escape_controls;
 use crate::plan::Stage;
 use crate::source::tool_version;
 
@@ -145,4 +155,189 @@ impl TradeoffReport {
     pub fn cell(&self, i: usize, j: usize) -> &TradeoffCellReport {
         &self.cells[i * self.rql.len() + j]
     }
+}
+
+impl Report for TradeoffReport {
+    fn write_table(&self, out: &mut dyn Write) -> io::Result<()> {
+        let r = self;
+        let per_unit = r.model == ModelKind::Poisson;
+        if let Some(title) = &r.title {
+            writeln!(out, "{}", escape_controls(title))?;
+        }
+        let lot = r
+            .lot_size
+            .map_or("no lot size".to_string(), |n| format!("lot of {n} units"));
+        writeln!(
+            out,
+            "{} plans, {} model, {lot}; alpha {} and beta {} in every cell",
+            r.scheme,
+            r.model,
+            Short(r.alpha),
+            Short(r.beta)
+        )?;
+        if per_unit {
+            writeln!(
+                out,
+                "AQL and RQL in nonconformities per unit (per 100 units in brackets)"
+            )?;
+        }
+        writeln!(out)?;
+        let double = r.criterion.is_some();
+        if double {
+            writeln!(
+                out,
+                "ASN at the AQL (largest sample n1 + n2) of the double plan minimising {} for each AQL (row) and RQL (column)",
+                r.criterion.unwrap_or_default()
+            )?;
+        } else {
+            writeln!(
+                out,
+                "Sample size and acceptance number n/c of the smallest single plan for each AQL (row) and RQL (column)"
+            )?;
+        }
+        write_matrix(out, r, per_unit, |c| match (c.n, c.c) {
+            _ if c.full_inspection => "100%".to_string(),
+            (Some(n), Some(_)) if double => {
+                format!("{:.1} ({n})", c.asn_at_aql.unwrap_or(f64::NAN))
+            }
+            (Some(n), Some(acc)) => format!("{n}/{acc}"),
+            _ => "-".to_string(),
+        })?;
+        if let Some(k) = &r.cost {
+            writeln!(out)?;
+            writeln!(
+                out,
+                "Expected inspection cost per lot at the process average {} ({} per unit inspected; ATI: sample, plus the whole lot when rejected)",
+                format_quality(k.process_average, per_unit),
+                k.per_unit
+            )?;
+            write_matrix(out, r, per_unit, |c| {
+                c.cost
+                    .flatten()
+                    .map_or("-".to_string(), |v| format!("{v:.2}"))
+            })?;
+        }
+        let whole = r.cells.iter().filter(|c| c.full_inspection).count();
+        if let (true, Some(lot)) = (whole > 0, r.lot_size) {
+            writeln!(
+                out,
+                "- 100% in {whole} of {} cells: their points need a sample larger than the lot of {lot} units, so every unit is inspected (ATI {lot}{})",
+                r.cells.len(),
+                r.cost.as_ref().map_or(String::new(), |k| format!(
+                    ", cost {:.2} per lot",
+                    k.per_unit * lot as f64
+                ))
+            )?;
+        }
+        let failed: Vec<&TradeoffCellReport> = r
+            .cells
+            .iter()
+            .filter(|c| c.reason.is_some() && !c.full_inspection)
+            .collect();
+        if let Some(first) = failed.first() {
+            writeln!(
+                out,
+                "- no plan in {} of {} cells (--format json gives each reason), e.g. at AQL {}, RQL {}: {}",
+                failed.len(),
+                r.cells.len(),
+                format_quality(first.aql, per_unit),
+                format_quality(first.rql, per_unit),
+                first.reason.as_deref().unwrap_or_default()
+            )?;
+        }
+        writeln!(
+            out,
+            "The grid is a negotiation aid: record the agreed plan with `lotsman design ... --output FILE.yaml`."
+        )?;
+        writeln!(out, "{}", words::CAUTION)
+    }
+
+    /// One row per cell, row by row.
+    fn write_csv(&self, out: &mut dyn Write) -> io::Result<()> {
+        let r = self;
+        let mut w = csv_writer(out);
+        let mut header = vec![
+            quality_column("aql", r.model),
+            quality_column("rql", r.model),
+        ];
+        header.extend(
+            [
+                "n",
+                "c",
+                "asn_at_aql",
+                "producer_risk",
+                "consumer_risk",
+                "stages",
+                "pa_at_process",
+                "ati",
+                "cost",
+                "full_inspection",
+                "reason",
+            ]
+            .map(String::from),
+        );
+        w.write_record(&header)?;
+        for c in &r.cells {
+            let stages = c.stages.as_ref().map(|s| {
+                s.iter()
+                    .map(ToString::to_string)
+                    .collect::<Vec<_>>()
+                    .join(" ")
+            });
+            w.write_record([
+                num(c.aql),
+                num(c.rql),
+                cell(c.n),
+                cell(c.c),
+                opt(c.asn_at_aql),
+                opt(c.producer_risk),
+                opt(c.consumer_risk),
+                cell(stages),
+                opt(c.pa_at_process.flatten()),
+                opt(c.ati.flatten()),
+                opt(c.cost.flatten()),
+                c.full_inspection.to_string(),
+                c.reason.clone().unwrap_or_default(),
+            ])?;
+        }
+        w.flush()
+    }
+}
+
+/// How many RQL columns one block of a grid shows.
+const GRID_COLUMNS: usize = 8;
+
+/// The grid as blocks of at most [`GRID_COLUMNS`] RQL columns, one row per
+/// AQL, each cell as `text` writes it.
+fn write_matrix(
+    out: &mut dyn Write,
+    r: &TradeoffReport,
+    per_unit: bool,
+    text: impl Fn(&TradeoffCellReport) -> String,
+) -> io::Result<()> {
+    for first in (0..r.rql.len()).step_by(GRID_COLUMNS) {
+        let last = (first + GRID_COLUMNS).min(r.rql.len());
+        let mut header = vec!["AQL \\ RQL".to_string()];
+        header.extend(
+            r.rql[first..last]
+                .iter()
+                .map(|&q| format_quality_cell(q, per_unit)),
+        );
+        let mut g = Grid::new();
+        g.load_style(RULED)
+            .set_content_arrangement(ContentArrangement::Disabled);
+        g.set_header(header);
+        for i in 1..=last - first {
+            if let Some(col) = g.column_mut(i) {
+                col.set_cell_alignment(CellAlignment::Right);
+            }
+        }
+        for (i, &aql) in r.aql.iter().enumerate() {
+            let mut row = vec![format_quality_cell(aql, per_unit)];
+            row.extend((first..last).map(|j| text(r.cell(i, j))));
+            g.add_row(row);
+        }
+        writeln!(out, "{g}")?;
+    }
+    Ok(())
 }

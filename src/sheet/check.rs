@@ -69,7 +69,7 @@ pub enum SheetVerdict {
 /// ```
 pub fn check_sheet(source: &Path, pdf: &Path) -> SheetVerdict {
     let unreadable = |why: String| SheetVerdict::Unreadable(format!("{}: {why}", pdf.display()));
-    let bytes = match crate::read::read_limited(pdf, MAX_SHEET_BYTES, "a plan sheet") {
+    let bytes = match crate::fs::read_limited(pdf, MAX_SHEET_BYTES, "a plan sheet") {
         Ok(b) => b,
         Err(e) => return SheetVerdict::Unreadable(crate::plain::io_message(pdf, &e)),
     };

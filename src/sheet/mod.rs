@@ -29,22 +29,24 @@ mod variables_text;
 
 use sha2::{Digest, Sha256};
 
-use crate::atomic::{Overwrite, write_atomic};
 use crate::design::{Protection, RectifyingPlan, RectifyingRequest, design_single};
-use crate::error::{Error, InputError};
+use crate::fs::{Overwrite, write_atomic};
+use crate::input::InputError;
+use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
 use crate::numeric::Quantity::{Amount, Probability};
 use crate::numeric::{NumericalError, Quantity, Short, check};
+use crate::numeric::{format_quality, format_short, format_significant};
 use crate::plan::{
     Evaluation, Measures, SequentialLines, StagedPlan, aoql, evaluate, largest_asn, measures,
     quality_at_pa,
 };
-use crate::report::{EvaluationReport, format_quality, format_short, format_significant, words};
-use crate::risk::RiskPair;
+use crate::report::{EvaluationReport, words};
+use crate::source::Error;
 use crate::source::{
     Audited, Discrepancy, PlanSource, RecordedPlan, attributes_risks, tool_version,
 };
-use crate::templates::{Placeholder, placeholders};
+use crate::source::{Placeholder, placeholders};
 use canvas::{BOLD_ID, Canvas, Face, MM_PER_PT, Page, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
 pub use check::{MAX_SHEET_BYTES, SOURCE_NAME_KEY, SheetVerdict, check_sheet};
@@ -2314,8 +2316,8 @@ pub fn write_sheet(
     options: &SheetOptions,
 ) -> Result<SheetNotes, Error> {
     let audited = Audited::load_checked(source_path, options.accept_recorded, |source| {
-        crate::budget::check_source(source, source_path, crate::budget::SourceJob::Sheet)
-            .map_err(|e| crate::error::InputError::from(e).into())
+        crate::source::check_source(source, source_path, crate::source::SourceJob::Sheet)
+            .map_err(|e| crate::input::InputError::from(e).into())
     })?;
     let name = source_path
         .file_name()

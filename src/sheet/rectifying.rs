@@ -9,8 +9,8 @@ use super::Common;
 use super::canvas::{Canvas, Face, grey};
 use super::chart::Mark;
 use crate::design::{Protection, RectifyingPlan, RectifyingRequest};
+use crate::numeric::format_significant;
 use crate::plan::acceptance_probability;
-use crate::report::format_significant;
 
 /// The protection table: the process average with the ATI there, and the
 /// LTPD with the consumer's risk achieved, or the AOQL with the plan's.

@@ -29,11 +29,11 @@ use super::{
     text, title_block,
 };
 use crate::design::{SingleDesign, design_single};
-use crate::error::Error;
 use crate::model::Model;
 use crate::numeric::{NumericalError, Quantity, Short, check};
 use crate::plan::{VariablesPlan, measures, quality_at_pa};
 use crate::report::words::CAUTION;
+use crate::source::Error;
 use crate::source::{PlanSource, variables_risks};
 
 /// The most readings the sheet's table holds (see the module docs).

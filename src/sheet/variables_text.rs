@@ -9,8 +9,8 @@
 //! plan uses, not a rounding of them.
 
 use crate::design::SingleDesign;
+use crate::numeric::{format_short, format_significant};
 use crate::plan::{LimitKind, SigmaKind, Specification, VariablesPlan};
-use crate::report::{format_short, format_significant};
 
 /// A number as recorded: the shortest decimal that reads back as `v`.
 pub fn number(v: f64) -> String {

@@ -4,16 +4,18 @@
 //! agreement, so a plan edited by hand, or solved by a tool that has since
 //! changed, must not reach one unnoticed.
 
-use std::fmt;
 use std::path::Path;
 
-use super::{Difference, PlanSource, RISK_TOLERANCE, Verdict, verify};
-use crate::design::{Design, Protection, RectifyingPlan};
-use crate::error::{Error, InputError, SourceError};
+use super::discrepancy::{Difference, Discrepancy, UnmetPoint};
+use super::error::{Error, SourceError};
+use super::schema::PlanSource;
+use super::verify::{RISK_TOLERANCE, Verdict, verify};
+use crate::design::{Design, Protection, RectifyingPlan, VariablesRequest};
+use crate::input::InputError;
+use crate::model::RiskPair;
 use crate::model::{Model, ModelKind};
+use crate::numeric::format_quality;
 use crate::plan::{StagedPlan, VariablesPlan};
-use crate::report::{format_quality, format_significant};
-use crate::risk::RiskPair;
 
 /// What the audit of a source found.
 #[derive(Clone, Debug, PartialEq)]
@@ -27,120 +29,6 @@ pub struct Audit {
     pub achieved: (f64, f64),
     /// What is wrong with the recorded plan; `None` when it is confirmed.
     pub discrepancy: Option<Discrepancy>,
-}
-
-/// Why a recorded plan is not confirmed: the fields in which it differs
-/// from a re-solve, and the risk points it no longer meets. At least one of
-/// the two lists is not empty.
-///
-/// Displayed, it is one line: `recorded plan differs from a re-solve:
-/// stage 1 n: recorded 150, re-solved 166; ...`, then each unmet point.
-#[derive(Clone, Debug, PartialEq)]
-pub struct Discrepancy {
-    /// The fields that differ, as [`verify`] names them.
-    pub differences: Vec<Difference>,
-    /// The agreed risk points the recorded plan does not meet.
-    pub unmet: Vec<UnmetPoint>,
-}
-
-/// An agreed risk point, or a minimum-inspection plan's protection, that a
-/// recorded plan does not meet.
-#[derive(Clone, Debug, PartialEq)]
-pub struct UnmetPoint {
-    /// `producer's` or `consumer's`.
-    pub party: &'static str,
-    /// The point's quality, as reports print it (`4.000%`); for an AOQL
-    /// protection, the agreed AOQL.
-    pub quality: String,
-    /// `alpha`, `beta`, or `AOQL` for an AOQL protection.
-    pub risk_name: &'static str,
-    /// The agreed largest risk (or AOQL).
-    pub agreed: f64,
-    /// The risk (or AOQL) the recorded plan achieves.
-    pub achieved: f64,
-    /// Whether qualities are nonconformities per unit (Poisson model), for
-    /// an AOQL printed as a quality.
-    pub per_unit: bool,
-}
-
-impl fmt::Display for UnmetPoint {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        if self.risk_name == "AOQL" {
-            return write!(
-                f,
-                "the recorded plan does not meet the consumer's protection: its AOQL is {}, above the agreed {}",
-                format_quality(self.achieved, self.per_unit),
-                self.quality
-            );
-        }
-        write!(
-            f,
-            "the recorded plan does not meet the {} point: {} at {} is {}, above the agreed {}",
-            self.party,
-            self.risk_name,
-            self.quality,
-            format_significant(self.achieved, 4),
-            self.agreed
-        )
-    }
-}
-
-impl Discrepancy {
-    /// The discrepancy in one line, with at most `fields` of the differing
-    /// fields and the number of the others (a sheet has room for a few;
-    /// `verify` lists them all, and the line says how to run it on
-    /// `source`, a file name as the shell takes it).
-    ///
-    /// ```
-    /// use lotsman::{Difference, Discrepancy};
-    /// let field = |name: &str| Difference {
-    ///     field: name.into(),
-    ///     recorded: "1".into(),
-    ///     resolved: "2".into(),
-    /// };
-    /// let d = Discrepancy {
-    ///     differences: vec![field("plan.sequential.slope"), field("plan.sequential.truncation")],
-    ///     unmet: Vec::new(),
-    /// };
-    /// assert_eq!(
-    ///     d.brief(1, "sleeve.yaml"),
-    ///     "recorded plan differs from a re-solve: plan.sequential.slope: recorded 1, re-solved 2; and 1 more field (listed by: lotsman verify sleeve.yaml)"
-    /// );
-    /// assert_eq!(d.brief(2, "sleeve.yaml"), d.to_string());
-    /// ```
-    pub fn brief(&self, fields: usize, source: &str) -> String {
-        let mut parts = Vec::new();
-        if !self.differences.is_empty() {
-            let mut shown: Vec<String> = self
-                .differences
-                .iter()
-                .take(fields)
-                .map(|d| d.to_string())
-                .collect();
-            match self.differences.len().saturating_sub(fields) {
-                0 => {}
-                1 => shown.push(format!(
-                    "and 1 more field (listed by: lotsman verify {source})"
-                )),
-                more => shown.push(format!(
-                    "and {more} more fields (listed by: lotsman verify {source})"
-                )),
-            }
-            parts.push(format!(
-                "recorded plan differs from a re-solve: {}",
-                shown.join("; ")
-            ));
-        }
-        parts.extend(self.unmet.iter().map(|u| u.to_string()));
-        parts.join("; ")
-    }
-}
-
-impl fmt::Display for Discrepancy {
-    /// Every differing field, then every unmet point.
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(f, "{}", self.brief(usize::MAX, ""))
-    }
 }
 
 /// Audits the plan that `source` (read from `path`) records: computes the
@@ -287,6 +175,58 @@ impl Audited {
                 accepted,
             }),
         }
+    }
+}
+
+impl PlanSource {
+    /// Loads and audits a source that must record a staged plan
+    /// ([`Audited::load`]): an attributes plan designed from two risk
+    /// points, or a minimum-inspection plan. Returns it with its model and
+    /// its validated plan: what `judge FILE --found K` starts from.
+    ///
+    /// # Errors
+    /// As [`Audited::load_checked`] (`check` runs on the parsed source before
+    /// the audit); [`SourceError::Invalid`] when the source records no plan
+    /// or an invalid one.
+    pub fn load_with_plan(
+        path: &Path,
+        accept_recorded: bool,
+        check: impl FnOnce(&PlanSource) -> Result<(), Error>,
+    ) -> Result<(Audited, Model, StagedPlan), Error> {
+        let audited = Audited::load_checked(path, accept_recorded, check)?;
+        let invalid = |e| SourceError::Invalid {
+            path: path.to_path_buf(),
+            source: e,
+        };
+        let model = audited.source.staged_model().map_err(invalid)?;
+        let plan = audited.source.recorded_plan(&model).map_err(invalid)?;
+        Ok((audited, model, plan))
+    }
+
+    /// Loads and audits a variables source that must record a plan
+    /// ([`Audited::load`]), with its request and validated plan: what
+    /// `evaluate FILE` and `judge FILE` start from.
+    ///
+    /// # Errors
+    /// As [`Audited::load_checked`] (`check` runs on the parsed source before
+    /// the audit); [`SourceError::Invalid`] when the source records no plan
+    /// or an invalid one.
+    pub fn load_with_variables_plan(
+        path: &Path,
+        accept_recorded: bool,
+        check: impl FnOnce(&PlanSource) -> Result<(), Error>,
+    ) -> Result<(Audited, VariablesRequest, VariablesPlan), Error> {
+        let audited = Audited::load_checked(path, accept_recorded, check)?;
+        let invalid = |e| SourceError::Invalid {
+            path: path.to_path_buf(),
+            source: e,
+        };
+        let request = audited.source.variables_request().map_err(invalid)?;
+        let plan = audited
+            .source
+            .recorded_variables_plan(&request)
+            .map_err(invalid)?;
+        Ok((audited, request, plan))
     }
 }
 

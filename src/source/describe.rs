@@ -3,8 +3,9 @@
 //! characteristic, who prepared and who approved it), so that a sheet
 //! printed straight from a design is ready to sign.
 
-use super::{PlanSource, check_date};
-use crate::error::InputError;
+use super::load::check_date;
+use super::schema::PlanSource;
+use crate::input::InputError;
 
 /// The document fields of a plan source, each under the YAML key of the
 /// same name; `None` leaves a field as it is.

@@ -24,11 +24,12 @@
 //! fewest units on average; the consumer by the protection. So `producer`
 //! and `consumer` are absent, and so is the recorded producer's risk.
 
-use super::{PlanSource, RecordedPlan, RectifyingSource, SCHEMA_VERSION, tool_version};
+use super::record::tool_version;
+use super::schema::{PlanSource, RecordedPlan, RectifyingSource, SCHEMA_VERSION};
 use crate::design::{Protection, RectifyingDesign, RectifyingRequest, Scheme};
-use crate::error::InputError;
+use crate::input::InputError;
 use crate::model::Model;
-use crate::risk::RiskPoint;
+use crate::model::RiskPoint;
 
 /// The consumer's risk at the LTPD when a source gives none, as `rectify`
 /// takes it without `--beta`.

@@ -224,7 +224,7 @@ fn fraction<'de, D: Deserializer<'de>>(d: D) -> Result<f64, D::Error> {
             f.write_str("a fraction (0.01) or a percent (\"1%\")")
         }
         fn visit_str<E: serde::de::Error>(self, text: &str) -> Result<f64, E> {
-            crate::quantity::parse_fraction("value", text).map_err(E::custom)
+            crate::numeric::parse_fraction("value", text).map_err(E::custom)
         }
     }
     d.deserialize_str(Fraction)

@@ -1,11 +1,10 @@
 //! Verification: re-solve a source from its risk points and compare with the
 //! plan it records.
 
-use serde::Serialize;
-
-use super::{PlanSource, RecordedPlan, RecordedVariables};
+use super::discrepancy::Difference;
+use super::error::{Error, not_solved};
+use super::schema::{PlanSource, RecordedPlan, RecordedVariables};
 use crate::design::{RectifyingPlan, design_for, design_rectifying};
-use crate::error::Error;
 use crate::plan::{SequentialLines, Stage};
 
 /// Relative tolerance for recorded achieved risks. The plan numbers must
@@ -13,29 +12,6 @@ use crate::plan::{SequentialLines, Stage};
 /// difference above `1e-9` (relative) means the model, not the printing,
 /// changed.
 pub const RISK_TOLERANCE: f64 = 1e-9;
-
-/// One field whose recorded value differs from the re-solved one.
-#[derive(Clone, Debug, PartialEq, Serialize)]
-pub struct Difference {
-    /// The field, e.g. `stage 1 n` (stages counted from 1) or
-    /// `plan.producer_risk`.
-    pub field: String,
-    /// As recorded in the source.
-    pub recorded: String,
-    /// As re-solved now.
-    pub resolved: String,
-}
-
-impl std::fmt::Display for Difference {
-    /// `FIELD: recorded X, re-solved Y`.
-    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
-        write!(
-            f,
-            "{}: recorded {}, re-solved {}",
-            self.field, self.recorded, self.resolved
-        )
-    }
-}
 
 /// The result of verifying one source.
 #[derive(Clone, Debug, PartialEq)]
@@ -62,7 +38,7 @@ pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
     let request = source.request()?;
     // A source that records no plan is not solved yet: invalid, not a
     // mismatch, and refused before the work of a re-solve.
-    let recorded = source.plan.as_ref().ok_or_else(super::not_solved)?;
+    let recorded = source.plan.as_ref().ok_or_else(not_solved)?;
     let design = design_for(&request)?;
     let mut diffs = Vec::new();
     match (&recorded.sequential, design.plan.sequential_lines()) {
@@ -100,7 +76,7 @@ fn verify_rectifying(source: &PlanSource) -> Result<Verdict, Error> {
     let request = source.rectifying_request()?;
     // Not solved yet: invalid, not a mismatch (as for the other schemes).
     if source.plan.is_none() {
-        return Err(super::not_solved().into());
+        return Err(not_solved().into());
     }
     let design = design_rectifying(&request)?;
     let resolved = |plan: Option<&RectifyingPlan>| {
@@ -145,7 +121,7 @@ fn verify_rectifying(source: &PlanSource) -> Result<Verdict, Error> {
 /// [`RISK_TOLERANCE`].
 fn verify_variables(source: &PlanSource) -> Result<Verdict, Error> {
     let request = source.variables_request()?;
-    let recorded = source.plan.as_ref().ok_or_else(super::not_solved)?;
+    let recorded = source.plan.as_ref().ok_or_else(not_solved)?;
     let design = request.design()?;
     let plan = &design.plan;
     let resolved = RecordedVariables {

@@ -17,6 +17,7 @@ mod batch;
 mod cli;
 mod docs;
 mod guards;
+mod layers;
 mod no_panics;
 mod numbers;
 mod plain_words;

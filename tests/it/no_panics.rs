@@ -13,8 +13,8 @@ use std::path::Path;
 
 use lotsman::{
     Criterion, LimitKind, Model, ModelKind, PlanSource, Protection, QualityRange,
-    RectifyingRequest, RiskPair, RiskPoint, Scheme, SigmaKind, Specification, Stage, StagedPlan,
-    TradeoffRequest, VariablesPlan, design_double, design_multiple, design_rectifying,
+    RectifyingRequest, RiskGrid, RiskPair, RiskPoint, Scheme, SigmaKind, Specification, Stage,
+    StagedPlan, TradeoffRequest, VariablesPlan, design_double, design_multiple, design_rectifying,
     design_sequential, design_single, design_variables, evaluate, judge, judge_cumulative,
     judge_measurements, parse_count, parse_fraction, parse_fraction_list, parse_measurements,
     parse_number, parse_stage, tradeoff, verify,
@@ -148,7 +148,7 @@ proptest! {
         let apart = |v: &[f64]| v.iter().all(|&q| q.is_nan() || q <= 0.0 || q >= 1e-4);
         if apart(&aql) && apart(&rql)
             && let Some(request) = said(TradeoffRequest::new(
-                aql, rql, alpha, beta, model, Scheme::Single, Criterion::AsnAql, cost,
+                RiskGrid { aql, rql, alpha, beta }, model, Scheme::Single, Criterion::AsnAql, cost,
             )) {
                 tradeoff(&request, &|| {});
             }

@@ -194,8 +194,8 @@ fn a_risk_where_one_minus_alpha_rounds_to_one_gets_its_smallest_plan() {
 #[test]
 fn every_designer_meets_risks_of_1e_30() {
     use lotsman::{
-        Criterion, LimitKind, Model, ModelKind, Protection, RectifyingRequest, RiskPoint, Scheme,
-        SigmaKind, Specification, TradeoffRequest, VariablesRequest, design_double,
+        Criterion, LimitKind, Model, ModelKind, Protection, RectifyingRequest, RiskGrid, RiskPoint,
+        Scheme, SigmaKind, Specification, TradeoffRequest, VariablesRequest, design_double,
         design_multiple, design_rectifying, design_sequential, design_single, stage_outcomes,
         tradeoff,
     };
@@ -251,10 +251,12 @@ fn every_designer_meets_risks_of_1e_30() {
     // The grid: every cell a plan.
     let grid = tradeoff(
         &TradeoffRequest::new(
-            vec![0.01, 0.05],
-            vec![0.9, 0.99],
-            1e-30,
-            1e-30,
+            RiskGrid {
+                aql: vec![0.01, 0.05],
+                rql: vec![0.9, 0.99],
+                alpha: 1e-30,
+                beta: 1e-30,
+            },
             model,
             Scheme::Single,
             Criterion::AsnAql,

@@ -6,7 +6,7 @@ use crate::common;
 use common::{page_sizes, pdf_text};
 
 use lotsman::{
-    Criterion, MapQuantity, Model, ModelKind, Paper, Scheme, TradeoffGrid, TradeoffMap,
+    Criterion, MapQuantity, Model, ModelKind, Paper, RiskGrid, Scheme, TradeoffGrid, TradeoffMap,
     TradeoffRequest, render_tradeoff_map, tool_version, tradeoff,
 };
 
@@ -31,8 +31,19 @@ fn grid_with(
     cost: Option<(f64, f64)>,
 ) -> TradeoffGrid {
     let model = Model::new(kind, lot).unwrap();
-    let request =
-        TradeoffRequest::new(aql, rql, 0.05, 0.10, model, scheme, Criterion::AsnAql, cost).unwrap();
+    let request = TradeoffRequest::new(
+        RiskGrid {
+            aql,
+            rql,
+            alpha: 0.05,
+            beta: 0.10,
+        },
+        model,
+        scheme,
+        Criterion::AsnAql,
+        cost,
+    )
+    .unwrap();
     tradeoff(&request, &|| {})
 }
 

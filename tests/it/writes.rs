@@ -35,7 +35,7 @@ fn snapshot(dir: &Path) -> BTreeMap<PathBuf, Vec<u8>> {
 }
 
 /// The calls that open a file for writing, create one, or move one into
-/// place. Only `src/atomic.rs` may make them.
+/// place. Only `src/fs/atomic.rs` may make them.
 const WRITING_CALLS: &[&str] = &[
     "fs::write",
     "File::create",
@@ -82,7 +82,7 @@ fn only_the_atomic_writer_opens_files_for_writing() {
             if path.is_dir() {
                 folders.push(path);
             } else if path.extension().is_some_and(|e| e == "rs")
-                && path != Path::new("src/atomic.rs")
+                && path != Path::new("src/fs/atomic.rs")
             {
                 scanned += 1;
                 let text = std::fs::read_to_string(&path).unwrap();
@@ -97,11 +97,11 @@ fn only_the_atomic_writer_opens_files_for_writing() {
     assert!(scanned > 50, "only {scanned} source files found");
     assert!(
         found.is_empty(),
-        "files written outside src/atomic.rs:\n{}",
+        "files written outside src/fs/atomic.rs:\n{}",
         found.join("\n")
     );
     // The scan sees the writer's own calls, so it would see them elsewhere.
-    let atomic = std::fs::read_to_string("src/atomic.rs").unwrap();
+    let atomic = std::fs::read_to_string("src/fs/atomic.rs").unwrap();
     let own = writing_calls(&atomic);
     for call in ["tempfile", "persist"] {
         assert!(own.iter().any(|hit| hit.ends_with(call)), "{own:?}");

@@ -8,7 +8,9 @@
 use crate::fixtures;
 
 use fixtures::{close, fixture, model, risks, rows};
-use lotsman::{Criterion, Scheme, Steps, TradeoffRequest, design_single, sensitivity, tradeoff};
+use lotsman::{
+    Criterion, RiskGrid, Scheme, Steps, TradeoffRequest, design_single, sensitivity, tradeoff,
+};
 use serde_json::Value;
 
 fn floats(v: &Value) -> Vec<f64> {
@@ -27,14 +29,15 @@ fn every_cell_is_the_reference_design() {
         let m = model(g);
         let process = g["process_quality"].as_f64();
         let request = TradeoffRequest::new(
-            floats(&g["aql"]),
-            floats(&g["rql"]),
-            g["alpha"].as_f64().unwrap(),
-            g["beta"].as_f64().unwrap(),
+            RiskGrid {
+                aql: floats(&g["aql"]),
+                rql: floats(&g["rql"]),
+                alpha: g["alpha"].as_f64().unwrap(),
+                beta: g["beta"].as_f64().unwrap(),
+            },
             m,
             Scheme::Single,
-            Criterion::AsnAql,
-            // A cost of 1 per unit makes the cost the ATI itself.
+            Criterion::AsnAql, // A cost of 1 per unit makes the cost the ATI itself.
             process.map(|p| (1.0, p)),
         )
         .unwrap();

@@ -3,8 +3,8 @@
 //! cell has none; the log scale of the colours; the contour levels; and
 //! the blocks of cells drawn as one when the grid is finer than the page.
 
+use crate::design::DesignError;
 use crate::design::TradeoffGrid;
-use crate::error::DesignError;
 use crate::numeric::round_significant;
 
 /// What a panel of the map shows.
@@ -211,7 +211,7 @@ pub fn value_label(v: f64) -> String {
         }
         return out;
     }
-    crate::report::format_short(v, 3)
+    crate::numeric::format_short(v, 3)
 }
 
 /// The blocks of at most `most` that `count` cells are drawn as: each cell

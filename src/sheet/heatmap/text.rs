@@ -5,7 +5,7 @@
 use crate::design::{Criterion, Scheme};
 use crate::model::ModelKind;
 use crate::numeric::Short;
-use crate::report::format_short;
+use crate::numeric::format_short;
 
 use super::field::{Gap, MapQuantity};
 

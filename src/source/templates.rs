@@ -11,17 +11,23 @@ use crate::source::PlanSource;
 
 /// `(kind, text)` of every template.
 pub const TEMPLATES: &[(&str, &str)] = &[
-    ("binomial", include_str!("../templates/binomial.yaml")),
+    ("binomial", include_str!("../../templates/binomial.yaml")),
     (
         "hypergeometric",
-        include_str!("../templates/hypergeometric.yaml"),
+        include_str!("../../templates/hypergeometric.yaml"),
     ),
-    ("poisson", include_str!("../templates/poisson.yaml")),
-    ("double", include_str!("../templates/double.yaml")),
-    ("multiple", include_str!("../templates/multiple.yaml")),
-    ("sequential", include_str!("../templates/sequential.yaml")),
-    ("variables", include_str!("../templates/variables.yaml")),
-    ("rectifying", include_str!("../templates/rectifying.yaml")),
+    ("poisson", include_str!("../../templates/poisson.yaml")),
+    ("double", include_str!("../../templates/double.yaml")),
+    ("multiple", include_str!("../../templates/multiple.yaml")),
+    (
+        "sequential",
+        include_str!("../../templates/sequential.yaml"),
+    ),
+    ("variables", include_str!("../../templates/variables.yaml")),
+    (
+        "rectifying",
+        include_str!("../../templates/rectifying.yaml"),
+    ),
 ];
 
 /// The template of `kind`, or `None` for an unknown kind.

@@ -42,203 +42,16 @@
 
 use rayon::prelude::*;
 
+mod request;
+
+pub use self::request::{InspectionCost, RiskGrid, TradeoffRequest, tradeoff_work};
+
 use super::double::design_double;
-use super::request::{Criterion, Scheme, SchemeOptions};
+use super::request::Scheme;
 use super::single::{Memo, design_single_with};
-use crate::budget::tradeoff_work;
-use crate::error::{DesignError, InputError};
-use crate::model::Model;
+use crate::design::DesignError;
+use crate::model::{RiskPair, RiskPoint};
 use crate::plan::{StagedPlan, measures};
-use crate::risk::{RiskPair, RiskPoint, check_quality, check_risks};
-
-/// The most cells a grid may have (`250,000`, e.g. 500 x 500).
-pub const MAX_GRID_CELLS: usize = 250_000;
-
-/// The cost of inspection, for the cost view of a grid.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub struct InspectionCost {
-    per_unit: f64,
-    process_average: f64,
-}
-
-impl InspectionCost {
-    /// The cost of inspecting one unit, in the user's currency.
-    pub fn per_unit(&self) -> f64 {
-        self.per_unit
-    }
-
-    /// The process average `p̄` at which the cost is taken.
-    pub fn process_average(&self) -> f64 {
-        self.process_average
-    }
-}
-
-/// What to solve: the grid of qualities, the two risks, the model, the
-/// scheme and optionally the cost of inspection. It exists only when valid.
-#[derive(Clone, Debug, PartialEq)]
-pub struct TradeoffRequest {
-    aql: Vec<f64>,
-    rql: Vec<f64>,
-    alpha: f64,
-    beta: f64,
-    model: Model,
-    scheme: Scheme,
-    criterion: Criterion,
-    cost: Option<InspectionCost>,
-}
-
-impl TradeoffRequest {
-    /// Validates a grid request.
-    ///
-    /// `aql` are the producer's qualities (rows), `rql` the consumer's
-    /// (columns); a cell whose AQL is not below its RQL is valid input and
-    /// reports that it has no plan. `cost` is `(cost per unit inspected,
-    /// process average)`.
-    ///
-    /// # Errors
-    /// [`InputError`] for an empty axis, a quality the model cannot take,
-    /// a risk outside `(0, 1)` or `alpha + beta >= 1`, more than
-    /// [`MAX_GRID_CELLS`] cells, a grid whose estimated work
-    /// ([`tradeoff_work`](crate::tradeoff_work)) passes the budget, a scheme other than single or double, a
-    /// criterion the scheme does not take, a cost that is not a positive
-    /// number, or a cost without a lot size.
-    #[allow(clippy::too_many_arguments)]
-    pub fn new(
-        aql: Vec<f64>,
-        rql: Vec<f64>,
-        alpha: f64,
-        beta: f64,
-        model: Model,
-        scheme: Scheme,
-        criterion: Criterion,
-        cost: Option<(f64, f64)>,
-    ) -> Result<Self, InputError> {
-        for (name, axis) in [("AQL values", &aql), ("RQL values", &rql)] {
-            if axis.is_empty() {
-                return Err(InputError::out_of_range(
-                    &format!("number of {name}"),
-                    0,
-                    "at least 1",
-                ));
-            }
-        }
-        for &q in &aql {
-            check_quality(&model, "producer's quality (AQL)", q)?;
-        }
-        for &q in &rql {
-            check_quality(&model, "consumer's quality (RQL)", q)?;
-        }
-        check_risks(alpha, beta)?;
-        let cells = aql.len().saturating_mul(rql.len());
-        if cells > MAX_GRID_CELLS {
-            return Err(InputError::out_of_range(
-                "number of grid cells",
-                cells,
-                &format!("at most {MAX_GRID_CELLS} (AQL count x RQL count)"),
-            ));
-        }
-        if !matches!(scheme, Scheme::Single | Scheme::Double) {
-            return Err(InputError::Inconsistent(format!(
-                "a trade-off grid is drawn for single or double plans, not for {scheme} plans"
-            )));
-        }
-        SchemeOptions {
-            criterion,
-            ..SchemeOptions::default()
-        }
-        .check(scheme)?;
-        let cost = match cost {
-            None => None,
-            Some((per_unit, process_average)) => {
-                if !(per_unit.is_finite() && per_unit > 0.0) {
-                    return Err(InputError::out_of_range(
-                        "cost per unit inspected",
-                        per_unit,
-                        "a positive number",
-                    ));
-                }
-                check_quality(&model, "process average", process_average)?;
-                if model.lot_size().is_none() {
-                    return Err(InputError::Inconsistent(
-                        "the cost view needs a lot size: it counts the 100% inspection of rejected lots (ATI); give --lot-size N".to_string(),
-                    ));
-                }
-                Some(InspectionCost {
-                    per_unit,
-                    process_average,
-                })
-            }
-        };
-        let request = TradeoffRequest {
-            aql,
-            rql,
-            alpha,
-            beta,
-            model,
-            scheme,
-            criterion,
-            cost,
-        };
-        let advice = match scheme {
-            Scheme::Double => "give fewer or coarser AQL and RQL values, or use the single scheme",
-            _ => "give fewer or coarser AQL and RQL values",
-        };
-        tradeoff_work(&request).check(
-            &format!(
-                "solving the {} x {} grid of {scheme} plans",
-                request.aql.len(),
-                request.rql.len()
-            ),
-            advice,
-        )?;
-        Ok(request)
-    }
-
-    /// The producer's qualities, one per row.
-    pub fn aql(&self) -> &[f64] {
-        &self.aql
-    }
-
-    /// The consumer's qualities, one per column.
-    pub fn rql(&self) -> &[f64] {
-        &self.rql
-    }
-
-    /// The producer's risk alpha, the same in every cell.
-    pub fn alpha(&self) -> f64 {
-        self.alpha
-    }
-
-    /// The consumer's risk beta, the same in every cell.
-    pub fn beta(&self) -> f64 {
-        self.beta
-    }
-
-    /// The model.
-    pub fn model(&self) -> &Model {
-        &self.model
-    }
-
-    /// The scheme: single or double.
-    pub fn scheme(&self) -> Scheme {
-        self.scheme
-    }
-
-    /// What the double designer minimises.
-    pub fn criterion(&self) -> Criterion {
-        self.criterion
-    }
-
-    /// The cost of inspection, when given.
-    pub fn cost(&self) -> Option<&InspectionCost> {
-        self.cost.as_ref()
-    }
-
-    /// The number of cells.
-    pub fn cell_count(&self) -> usize {
-        self.aql.len() * self.rql.len()
-    }
-}
 
 /// The expected inspection at the process average.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -313,7 +126,7 @@ pub struct TradeoffGrid {
 impl TradeoffGrid {
     /// The cell at row `i` (AQL) and column `j` (RQL).
     pub fn cell(&self, i: usize, j: usize) -> &TradeoffCell {
-        &self.cells[i * self.request.rql.len() + j]
+        &self.cells[i * self.request.rql().len() + j]
     }
 
     /// The cost per lot of a cell whose answer is 100% inspection, when
@@ -322,7 +135,7 @@ impl TradeoffGrid {
     /// `k ATI <= k N`.
     pub fn full_inspection_cost(&self, cell: &TradeoffCell) -> Option<f64> {
         let lot = cell.full_inspection()?;
-        self.request.cost.map(|k| k.per_unit * lot as f64)
+        self.request.cost().map(|k| k.per_unit() * lot as f64)
     }
 }
 
@@ -331,24 +144,22 @@ impl TradeoffGrid {
 ///
 /// # Example
 /// ```
-/// use lotsman::{Criterion, Model, ModelKind, Scheme, TradeoffRequest, tradeoff};
+/// use lotsman::{Criterion, Model, ModelKind, RiskGrid, Scheme, TradeoffRequest, tradeoff};
 /// let model = Model::new(ModelKind::Binomial, None).unwrap();
-/// let request = TradeoffRequest::new(
-///     vec![0.005, 0.01], vec![0.04, 0.06], 0.05, 0.10,
-///     model, Scheme::Single, Criterion::AsnAql, None,
-/// ).unwrap();
+/// let grid = RiskGrid { aql: vec![0.005, 0.01], rql: vec![0.04, 0.06], alpha: 0.05, beta: 0.10 };
+/// let request = TradeoffRequest::new(grid, model, Scheme::Single, Criterion::AsnAql, None).unwrap();
 /// let grid = tradeoff(&request, &|| {});
 /// let cell = grid.cell(1, 1).outcome.as_ref().unwrap();
 /// assert_eq!((cell.n(), cell.c()), (110, 3)); // as `lotsman design --aql 1% --rql 6%`
 /// ```
 pub fn tradeoff(request: &TradeoffRequest, progress: &(dyn Fn() + Sync)) -> TradeoffGrid {
     let rows: Vec<Vec<TradeoffCell>> = request
-        .aql
+        .aql()
         .par_iter()
         .map(|&aql| {
             let mut memo = Memo::default();
             request
-                .rql
+                .rql()
                 .iter()
                 .map(|&rql| {
                     let outcome = solve_cell(request, aql, rql, &mut memo);
@@ -370,15 +181,15 @@ fn solve_cell(
     rql: f64,
     memo: &mut Memo,
 ) -> Result<CellPlan, DesignError> {
-    let model = &request.model;
+    let model = request.model();
     let risks = RiskPair::new(
         RiskPoint {
             quality: aql,
-            risk: request.alpha,
+            risk: request.alpha(),
         },
         RiskPoint {
             quality: rql,
-            risk: request.beta,
+            risk: request.beta(),
         },
         model,
     )
@@ -386,9 +197,9 @@ fn solve_cell(
         reason: e.to_string(),
         suggestion: "choose an RQL above the AQL".to_string(),
     })?;
-    let (plan, producer_risk, consumer_risk) = match request.scheme {
+    let (plan, producer_risk, consumer_risk) = match request.scheme() {
         Scheme::Double => {
-            let d = design_double(model, &risks, request.criterion, None)?;
+            let d = design_double(model, &risks, request.criterion(), None)?;
             (d.plan, d.producer_risk, d.consumer_risk)
         }
         _ => {
@@ -400,14 +211,14 @@ fn solve_cell(
         Some((n, _)) => n as f64,
         None => measures(&plan, model, aql).asn,
     };
-    let cost = request.cost.map(|k| {
-        let m = measures(&plan, model, k.process_average);
+    let cost = request.cost().map(|k| {
+        let m = measures(&plan, model, k.process_average());
         // The request holds a lot size whenever it holds a cost.
         let ati = m.ati.unwrap_or(f64::NAN);
         CellCost {
             pa: m.pa,
             ati,
-            cost: k.per_unit * ati,
+            cost: k.per_unit() * ati,
         }
     });
     Ok(CellPlan {
@@ -422,15 +233,18 @@ fn solve_cell(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::model::ModelKind;
+    use crate::design::Criterion;
+    use crate::model::{Model, ModelKind};
 
     fn grid(kind: ModelKind, lot: Option<u64>, aql: Vec<f64>, rql: Vec<f64>) -> TradeoffGrid {
         let model = Model::new(kind, lot).unwrap();
         let request = TradeoffRequest::new(
-            aql,
-            rql,
-            0.05,
-            0.10,
+            RiskGrid {
+                aql,
+                rql,
+                alpha: 0.05,
+                beta: 0.10,
+            },
             model,
             Scheme::Single,
             Criterion::AsnAql,
@@ -450,7 +264,7 @@ mod tests {
             (ModelKind::Hypergeometric, Some(1500)),
         ] {
             let g = grid(kind, lot, aql.clone(), rql.clone());
-            let model = g.request.model;
+            let model = *g.request.model();
             for cell in &g.cells {
                 let risks = RiskPair::new(
                     RiskPoint {
@@ -488,10 +302,12 @@ mod tests {
     fn the_cost_view_needs_a_lot_size() {
         let model = Model::new(ModelKind::Binomial, None).unwrap();
         let err = TradeoffRequest::new(
-            vec![0.01],
-            vec![0.05],
-            0.05,
-            0.10,
+            RiskGrid {
+                aql: vec![0.01],
+                rql: vec![0.05],
+                alpha: 0.05,
+                beta: 0.10,
+            },
             model,
             Scheme::Single,
             Criterion::AsnAql,

@@ -19,8 +19,8 @@
 //! With `S = a1 (N - n1) + a2 (N - n1 - n2)` the units a lot saves against
 //! 100% inspection (`a_j` the chance of acceptance at stage `j`),
 //! `ATI = N - S` and `AOQ(p) = p S(p) / N`. As the module
-//! [`minimum`](super::minimum) shows, `S`, `Pa` and `AOQ` fall as `n1` or
-//! `n2` grows, so the shared sweep ([`double_sweep`](super::double_sweep))
+//! [`rectifying`](super) shows, `S`, `Pa` and `AOQ` fall as `n1` or
+//! `n2` grows, so the shared sweep ([`double_sweep`](crate::design::double_sweep))
 //! applies as it is:
 //!
 //! * for fixed `(c1, r1, c2)` and `n1` only the smallest `n2` that gives
@@ -64,11 +64,13 @@ use std::collections::HashMap;
 use std::ops::RangeInclusive;
 use std::sync::Mutex;
 
-use super::double::MAX_DOUBLE_SINGLE_C;
-use super::double_sweep::{Candidate, DoubleProblem, FirstStage, Numbers, search};
-use super::minimum::{Protection, RectifyingPlan, RectifyingRow, SingleSearch};
-use crate::budget::minimum_double_work;
-use crate::error::DesignError;
+use super::design::{RectifyingPlan, RectifyingRow};
+use super::request::Protection;
+use super::single::SingleSearch;
+use crate::design::DesignError;
+use crate::design::double_sweep::{Candidate, DoubleProblem, FirstStage, Numbers, search};
+use crate::design::limits::MAX_DOUBLE_SINGLE_C;
+use crate::design::work::rectifying_double_work;
 use crate::model::Model;
 use crate::plan::{StagedPlan, curve_maximum};
 
@@ -251,7 +253,7 @@ pub(super) fn design_double_rectifying(
     let reach = best_single
         .map_or(request.lot_size() as f64, |s| s.ati)
         .min(single.limit as f64);
-    minimum_double_work(request, reach, start).check(
+    rectifying_double_work(request, reach, start).check(
         &format!(
             "the double search around the single plans up to n = {reach:.0} with acceptance number {start} ({} protection)",
             match request.protection() {

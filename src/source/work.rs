@@ -1,152 +1,17 @@
-//! The work of whole commands, from the estimates of their parts: a
-//! trade-off grid, a minimum-inspection design, one plan source under
-//! `verify`, `evaluate` or `sheet`, and a batch of them; and the checks
-//! that refuse a command before it starts.
+//! The work of the commands on plan sources, from the estimates of their
+//! parts: one plan source under `verify`, `evaluate`, `sheet` or `judge`,
+//! and a batch of them; and the checks that refuse a command before it
+//! starts.
 
 use std::path::Path;
 
-use super::estimate::{
-    Approximation, ROW_OUTPUT, design_work, double_cpu_seconds, double_work, evaluation_advice,
-    evaluation_advice_for, evaluation_work, most_variables_qualities, single_cell_seconds,
-    tail_terms, variables_design_work, variables_evaluation_work, walk_parts,
+use super::schema::PlanSource;
+use crate::budget::{OverBudget, TIME_BUDGET, Work, duration};
+use crate::design::{design_work, variables_design_work};
+use crate::plan::{
+    evaluation_advice, evaluation_advice_for, evaluation_work, most_variables_qualities,
+    variables_evaluation_work, walk_parts,
 };
-use super::{OverBudget, TIME_BUDGET, Work};
-use crate::design::{
-    MAX_DOUBLE_SINGLE_C, Protection, RectifyingRequest, Scheme, TradeoffRequest, aoql_factor,
-    poisson_mean_at, sample_for_mean, z_upper,
-};
-use crate::model::ModelKind;
-use crate::source::PlanSource;
-
-/// Bytes one cell of a grid holds: its plan and risks, and its text.
-const CELL_BYTES: f64 = 800.0;
-
-/// The work of solving every cell of `request`'s grid, shared over the
-/// threads that solve its rows (at least its heaviest row, which one
-/// thread solves): each cell's design estimated from its
-/// approximate single plan (a cell whose own design passes the budget is
-/// refused at once in its place, and costs nothing), and the grid's rows.
-pub fn tradeoff_work(request: &TradeoffRequest) -> Work {
-    let model = request.model();
-    let approximation = Approximation::new(request.alpha(), request.beta());
-    let (mut seconds, mut heaviest_row) = (0.0, 0.0f64);
-    for &p1 in request.aql() {
-        let mut row = 0.0;
-        for &p2 in request.rql() {
-            if p1 >= p2 {
-                continue;
-            }
-            let Some((n, c)) = approximation.single(model, p1, p2) else {
-                continue;
-            };
-            let cell = match request.scheme() {
-                Scheme::Double if c <= MAX_DOUBLE_SINGLE_C => {
-                    double_cpu_seconds(model, n, c, request.criterion(), None)
-                }
-                Scheme::Double => 0.0,
-                _ => single_cell_seconds(model, n, c),
-            };
-            // A cell whose own search passes the budget (shared over the
-            // threads as a design of its own would be) is refused at once.
-            let threads = rayon::current_num_threads().max(1) as f64;
-            if cell / threads <= TIME_BUDGET {
-                row += cell;
-            }
-        }
-        seconds += row;
-        heaviest_row = heaviest_row.max(row);
-    }
-    // A row is solved on one thread: the grid takes its share of the
-    // threads, and never less than its heaviest row.
-    let threads = rayon::current_num_threads().max(1) as f64;
-    let cells = request.cell_count() as f64;
-    Work {
-        seconds: (seconds / threads).max(heaviest_row) + cells * ROW_OUTPUT,
-        bytes: cells * CELL_BYTES,
-    }
-}
-
-/// Seconds per tail term of the minimum-inspection scan for an LTPD (each
-/// acceptance number costs one threshold search of a few dozen tails):
-/// the scan of a lot of 10^12 at 0.99% against 1%, which reaches the
-/// largest acceptance number.
-const LTPD_SCAN_TERM: f64 = 1.4e-7;
-
-/// The same for an AOQL, whose every step of the threshold search scans
-/// the AOQ curve (about 130 walks): the scan to 2000 takes about 10 s.
-const AOQL_SCAN_TERM: f64 = 2.7e-5;
-
-/// The work of a minimum-inspection design's scan over acceptance numbers
-/// ([`design_rectifying`](crate::design_rectifying)), from where the
-/// closed-form approximations say it stops: the scan runs up `c` while
-/// the smallest sample giving the protection stays below the best ATI
-/// found. The double search that follows is estimated from the scan's
-/// answer before it starts.
-pub fn minimum_work(request: &RectifyingRequest) -> Work {
-    let model = request.model();
-    let lot = request.lot_size() as f64;
-    let p = request.process_average();
-    let (last, per_term) = match request.protection() {
-        Protection::Ltpd(_) => (crate::design::MAX_ACCEPTANCE_NUMBER, LTPD_SCAN_TERM),
-        Protection::Aoql(_) => (crate::design::MAX_AOQL_ACCEPTANCE_NUMBER, AOQL_SCAN_TERM),
-    };
-    let z_beta = match request.protection() {
-        Protection::Ltpd(point) => z_upper(point.risk),
-        Protection::Aoql(_) => 0.0,
-    };
-    let mut best_ati = lot;
-    let mut terms = 0.0;
-    for c in 0..=last {
-        terms += tail_terms(c);
-        let n = match request.protection() {
-            Protection::Ltpd(point) => sample_for_mean(
-                poisson_mean_at(c, z_beta),
-                point.quality,
-                model.kind(),
-                Some(request.lot_size()),
-            ),
-            Protection::Aoql(limit) => {
-                let y = aoql_factor(c);
-                y / (limit + y / lot)
-            }
-        };
-        if !n.is_finite() || n >= lot {
-            break;
-        }
-        // Pa at the process average by the normal approximation to the
-        // Poisson count; the ATI it gives only steers the estimate.
-        let mean = n * p;
-        let pa = crate::model::normal::cdf((c as f64 + 0.5 - mean) / mean.sqrt().max(1e-300));
-        best_ati = best_ati.min(n + (1.0 - pa) * (lot - n));
-        if n >= best_ati {
-            break;
-        }
-    }
-    let scale = if model.kind() == ModelKind::Hypergeometric {
-        1.0
-    } else {
-        0.5
-    };
-    Work::time(scale * per_term * terms)
-}
-
-/// The work of the minimum-inspection double search around the single
-/// plans up to `reach` units with acceptance numbers from `start`: the
-/// double sweep's size, as for [`double_work`], and ten times that for an
-/// AOQL, whose every test scans the AOQ curve.
-pub(crate) fn minimum_double_work(request: &RectifyingRequest, reach: f64, start: u64) -> Work {
-    let search = double_work(
-        request.model(),
-        reach,
-        start,
-        crate::design::Criterion::AsnAql,
-        None,
-    );
-    match request.protection() {
-        Protection::Ltpd(_) => search,
-        Protection::Aoql(_) => Work::time(10.0 * search.seconds),
-    }
-}
 
 /// What a command does with a plan source.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -327,7 +192,7 @@ pub fn check_batch<'a>(
         Some((path, seconds)) if seconds > TIME_BUDGET => format!(
             "leave out {}, which alone would take about {}, or give fewer sources at a time",
             path.display(),
-            super::duration(seconds)
+            duration(seconds)
         ),
         _ => "give fewer sources at a time".to_string(),
     };

@@ -1,7 +1,7 @@
 //! Parsing of the numbers a user types: qualities and risks as a fraction
 //! (`0.01`) or a percent (`1%`), ranges `LO:HI:COUNT` and lists `p,p,...`.
 
-use crate::error::InputError;
+use crate::input::InputError;
 use crate::numeric::round_significant;
 
 /// Parses a fraction written as a decimal (`0.015`, `1.5e-2`) or a percent
@@ -111,32 +111,6 @@ pub fn parse_count(parameter: &str, text: &str, max: u64) -> Result<u64, InputEr
             &format!("at most {max}"),
         )),
     }
-}
-
-/// Parses a stage `N:AC:RE` (cumulative sample size, acceptance number or
-/// `-` for none, rejection number), the notation of `evaluate --stage`.
-///
-/// # Errors
-/// [`InputError::Unparsable`] for a malformed text.
-pub fn parse_stage(text: &str) -> Result<crate::plan::Stage, InputError> {
-    let bad = || {
-        InputError::unparsable(
-            "--stage",
-            text,
-            "N:AC:RE, for example 50:1:4 (AC may be '-')",
-        )
-    };
-    let parts: Vec<&str> = text.split(':').collect();
-    let [n, ac, re] = parts.as_slice() else {
-        return Err(bad());
-    };
-    let n = parse_count("--stage sample size", n, u64::MAX).map_err(|_| bad())?;
-    let accept = match ac.trim() {
-        "-" => None,
-        a => Some(parse_count("--stage acceptance number", a, u64::MAX).map_err(|_| bad())?),
-    };
-    let reject = parse_count("--stage rejection number", re, u64::MAX).map_err(|_| bad())?;
-    Ok(crate::plan::Stage { n, accept, reject })
 }
 
 /// Parses a comma-separated list of fractions.

@@ -2,7 +2,7 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::error::InputError;
+use crate::input::InputError;
 use crate::model::Model;
 
 /// One point of the OC curve that the plan is held to: at `quality`, the

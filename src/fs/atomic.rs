@@ -4,7 +4,7 @@
 //! was, never half-written; the only trace a killed run can leave is a hidden
 //! temporary file (`.lotsman-<pid>-XXXXXX.tmp`), which the batch commands
 //! skip and the next run writing into that folder removes
-//! ([`leftovers`](crate::leftovers)). A set of files that belong together
+//! ([`leftovers`](super::leftovers)). A set of files that belong together
 //! (the demo's) is written as one with [`write_set`].
 //!
 //! No other code of the crate opens a file for writing (`tests/writes.rs`
@@ -14,14 +14,14 @@ use std::fs::File;
 use std::io::Write;
 use std::path::{Path, PathBuf};
 
-use crate::error::SourceError;
-use crate::leftovers::{TEMPORARY_SUFFIX, sweep, temporary_prefix};
+use super::error::FileError;
+use super::leftovers::{TEMPORARY_SUFFIX, sweep, temporary_prefix};
 
 /// Whether a write may replace a file that is already at its target.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Overwrite {
     /// Write only where nothing exists yet; an existing target is
-    /// [`SourceError::Exists`] (the command-line default).
+    /// [`FileError::Exists`] (the command-line default).
     Refuse,
     /// Replace an existing file (`--force`).
     Replace,
@@ -56,13 +56,13 @@ impl Overwrite {
 /// ```
 ///
 /// # Errors
-/// [`SourceError::Exists`] when `path` exists and `overwrite` is
-/// [`Overwrite::Refuse`]; [`SourceError::Io`] (naming `path`) when the
+/// [`FileError::Exists`] when `path` exists and `overwrite` is
+/// [`Overwrite::Refuse`]; [`FileError::Io`] (naming `path`) when the
 /// temporary file cannot be created, written, synced or renamed. In these
 /// cases the target is untouched and the temporary file is removed. When
 /// only the final sync of the folder fails, the target already holds the
 /// new bytes and the error says that the rename may not be on disk yet.
-pub fn write_atomic(path: &Path, bytes: &[u8], overwrite: Overwrite) -> Result<(), SourceError> {
+pub fn write_atomic(path: &Path, bytes: &[u8], overwrite: Overwrite) -> Result<(), FileError> {
     write_with(path, overwrite, |file| file.write_all(bytes))
 }
 
@@ -72,8 +72,8 @@ fn write_with(
     path: &Path,
     overwrite: Overwrite,
     fill: impl FnOnce(&mut File) -> std::io::Result<()>,
-) -> Result<(), SourceError> {
-    let io = |source| SourceError::Io {
+) -> Result<(), FileError> {
+    let io = |source| FileError::Io {
         path: path.to_path_buf(),
         source,
     };
@@ -104,11 +104,9 @@ fn write_with(
     // A failed rename drops the temporary file with the error, which
     // removes it.
     persisted.map_err(|e| match e.error.kind() {
-        std::io::ErrorKind::AlreadyExists if overwrite == Overwrite::Refuse => {
-            SourceError::Exists {
-                path: path.to_path_buf(),
-            }
-        }
+        std::io::ErrorKind::AlreadyExists if overwrite == Overwrite::Refuse => FileError::Exists {
+            path: path.to_path_buf(),
+        },
         _ => io(e.error),
     })?;
     sync_folder(dir).map_err(|e| {
@@ -154,15 +152,15 @@ fn temporary(mode: u32) -> tempfile::Builder<'static, 'static> {
 ///   whole).
 ///
 /// # Errors
-/// [`SourceError::Exists`] when a target exists and `overwrite` refuses;
-/// [`SourceError::Io`] when `dir` is a file, a target is a folder, or the
+/// [`FileError::Exists`] when a target exists and `overwrite` refuses;
+/// [`FileError::Io`] when `dir` is a file, a target is a folder, or the
 /// writing fails (naming the file).
 pub fn write_set(
     dir: &Path,
     files: &[(String, Vec<u8>)],
     overwrite: Overwrite,
-) -> Result<(), SourceError> {
-    let io = |path: &Path, source| SourceError::Io {
+) -> Result<(), FileError> {
+    let io = |path: &Path, source| FileError::Io {
         path: path.to_path_buf(),
         source,
     };
@@ -187,7 +185,7 @@ pub fn write_set(
             ));
         }
         if overwrite == Overwrite::Refuse && target.exists() {
-            return Err(SourceError::Exists {
+            return Err(FileError::Exists {
                 path: target.clone(),
             });
         }
@@ -241,7 +239,7 @@ pub fn write_set(
                 let _ = std::fs::remove_file(done);
             }
             return Err(match e.kind() {
-                std::io::ErrorKind::AlreadyExists => SourceError::Exists {
+                std::io::ErrorKind::AlreadyExists => FileError::Exists {
                     path: target.clone(),
                 },
                 _ => io(target, e),
@@ -302,7 +300,7 @@ mod tests {
             })
             .unwrap_err();
             assert!(
-                matches!(&err, SourceError::Io { path, .. } if *path == target),
+                matches!(&err, FileError::Io { path, .. } if *path == target),
                 "{err}"
             );
             assert!(err.to_string().contains("injected"), "{err}");
@@ -317,7 +315,7 @@ mod tests {
         let target = dir.path().join("plan.yaml");
         std::fs::write(&target, b"kept").unwrap();
         let err = write_atomic(&target, b"new", Overwrite::Refuse).unwrap_err();
-        assert!(matches!(err, SourceError::Exists { .. }), "{err}");
+        assert!(matches!(err, FileError::Exists { .. }), "{err}");
         assert!(err.to_string().contains("--force"), "{err}");
         assert_eq!(std::fs::read(&target).unwrap(), b"kept");
         assert_eq!(names(dir.path()), ["plan.yaml"]);
