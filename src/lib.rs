@@ -58,11 +58,11 @@ mod model;
 mod numeric;
 mod plain;
 mod plan;
+mod print;
 mod quantity;
 mod read;
 mod report;
 mod risk;
-mod sheet;
 mod source;
 mod templates;
 
@@ -107,6 +107,12 @@ pub use plan::{
     judge_measurements, largest_asn, mean_and_sd, measures, parse_measurements, quality_at_pa,
     stage_outcomes, statistic_for_fraction, variables_point, variables_qualities,
 };
+pub use print::{
+    ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity, Paper,
+    SOURCE_NAME_KEY, Sheet, SheetNotes, SheetOptions, SheetVerdict, TradeoffMap, check_sheet,
+    render_sheet, render_sheet_noting, render_tradeoff_map, sheet_source_hash, source_hash,
+    write_sheet,
+};
 pub use quantity::{
     BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, QualityRange, bare_fraction_note, parse_count,
     parse_fraction, parse_fraction_list, parse_number, parse_stage,
@@ -121,12 +127,6 @@ pub use report::{
     format_quality_cell, format_significant, variables_rule, words,
 };
 pub use risk::{RiskPair, RiskPoint};
-pub use sheet::{
-    ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity, Paper,
-    SOURCE_NAME_KEY, Sheet, SheetNotes, SheetOptions, SheetVerdict, TradeoffMap, check_sheet,
-    render_sheet, render_sheet_noting, render_tradeoff_map, sheet_source_hash, source_hash,
-    write_sheet,
-};
 pub use source::{
     Audit, Audited, Description, Difference, Discrepancy, MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES,
     PlanSource, PointSource, RISK_TOLERANCE, RecordedPlan, RecordedVariables, SCHEMA_VERSION,

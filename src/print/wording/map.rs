@@ -7,7 +7,7 @@ use crate::model::ModelKind;
 use crate::numeric::Short;
 use crate::report::format_short;
 
-use super::field::{Gap, MapQuantity};
+use crate::print::map::field::{Gap, MapQuantity};
 
 /// The line above the title.
 pub const KICKER: &str =
@@ -56,7 +56,7 @@ pub fn model(kind: ModelKind) -> String {
 /// The lot size field.
 pub fn lot_size(lot: Option<u64>) -> String {
     lot.map_or_else(
-        || crate::sheet::text::NO_LOT_SIZE.to_string(),
+        || crate::print::wording::sheet::NO_LOT_SIZE.to_string(),
         |n| format!("{n} units"),
     )
 }

@@ -10,7 +10,7 @@
 
 use printpdf::Color;
 
-use crate::sheet::canvas::rgb;
+use crate::print::canvas::rgb;
 
 /// The number of colours the ramp is cut into: steps of under 1% of the
 /// ramp, finer than the eye separates on a projector, coarse enough that

@@ -70,8 +70,8 @@ pub const OC_TITLE: &str = "Operating characteristic (OC) curve";
 pub const OC_TITLE_SHORT: &str = "OC curve";
 
 /// The OC chart's title, short when the long one is wider than `w` mm.
-pub fn oc_title(c: &super::canvas::Canvas, w: f64) -> &'static str {
-    if c.width(OC_TITLE, super::canvas::Face::Bold, 8.0) <= w {
+pub fn oc_title(c: &crate::print::canvas::Canvas, w: f64) -> &'static str {
+    if c.width(OC_TITLE, crate::print::canvas::Face::Bold, 8.0) <= w {
         OC_TITLE
     } else {
         OC_TITLE_SHORT

@@ -2,7 +2,7 @@
 //! steps, the decision rule with the plan's numbers filled in, the result
 //! lines, the chart's legend and the caution the rule adds.
 //!
-//! Formulas use the markup of [`Canvas::formula`](super::canvas::Canvas::formula):
+//! Formulas use the markup of [`Canvas::formula`](crate::print::canvas::Canvas::formula):
 //! `_` starts a subscript (`Q_U`, `p̂_L`, `I_x`). The numbers are printed
 //! as the source records them (the shortest decimal that reads back as the
 //! same value), so that the sheet shows the limits and the constant the

@@ -22,7 +22,7 @@
 
 use super::canvas::{Canvas, Face, MM_PER_PT, grey, rgb};
 use super::chart::{self, Axes, LegendEntry, Plot, nice_ceiling};
-use super::variables_text::{self as words, RuleLine};
+use super::wording::variables::{self as words, RuleLine};
 use super::{
     Common, Frame, GAP, MIN_CHART_H, PROCEDURE_SIZES, accept_colour, notice_block, plan_frame,
     quality_tick, reject_colour, risk_marks, risk_table, signatures, steps_block, steps_height,

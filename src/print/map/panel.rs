@@ -9,9 +9,10 @@ use printpdf::Color;
 
 use super::contour::{Lattice, Path};
 use super::field::{Field, Gap, LogScale, MapQuantity, blocks, levels, tiles, value_label};
-use super::{ContourLabel, MapContour, MapPanel, ramp, text};
-use crate::sheet::canvas::{Canvas, Face, MM_PER_PT, Region, grey};
-use crate::sheet::chart::{next_step, nice_step, segment_hits, tick_label};
+use super::{ContourLabel, MapContour, MapPanel, ramp};
+use crate::print::canvas::{Canvas, Face, MM_PER_PT, Region, grey};
+use crate::print::chart::{next_step, nice_step, segment_hits, tick_label};
+use crate::print::wording::map as text;
 
 /// Type sizes, points: large enough to read across a meeting room.
 const TITLE: f64 = 10.5;
@@ -783,7 +784,7 @@ mod tests {
     /// Places the labels of `paths` (one path per level, levels 10, 20,
     /// ...) on a plot from (0, 0) to (200, 100) mm.
     fn labels_of(paths: &[Path]) -> Vec<Vec<Rect>> {
-        let (regular, bold) = crate::sheet::embedded_fonts().unwrap();
+        let (regular, bold) = crate::print::embedded_fonts().unwrap();
         let c = Canvas::new(&regular, &bold);
         let levels: Vec<f64> = (1..=paths.len()).map(|k| 10.0 * k as f64).collect();
         let per_level: Vec<Vec<Path>> = paths.iter().map(|p| vec![p.clone()]).collect();

@@ -5,10 +5,10 @@
 //! plans), drawing primitives ([`canvas`]) and charts ([`chart`]) are kept
 //! apart from the numbers, which come from the library (`evaluate`,
 //! `aoql`, `quality_at_pa`, `VariablesPlan::pa`). The fonts are DejaVu Sans and
-//! DejaVu Sans Bold (libre; licence in `src/sheet/fonts/`), embedded so that
+//! DejaVu Sans Bold (libre; licence in `src/print/fonts/`), embedded so that
 //! alpha, beta, <= and subscripts print as themselves.
 //!
-//! The trade-off map ([`heatmap`]) is drawn with the same canvas, fonts and
+//! The trade-off map ([`map`]) is drawn with the same canvas, fonts and
 //! page checks.
 //!
 //! Determinism: the date comes from the source, never the clock; fonts are
@@ -19,13 +19,12 @@
 mod canvas;
 mod chart;
 mod check;
-mod heatmap;
+mod map;
 mod names;
 mod record;
 mod rectifying;
-mod text;
 mod variables;
-mod variables_text;
+mod wording;
 
 use sha2::{Digest, Sha256};
 
@@ -48,9 +47,8 @@ use crate::templates::{Placeholder, placeholders};
 use canvas::{BOLD_ID, Canvas, Face, MM_PER_PT, Page, REGULAR_ID, Region, grey, rgb};
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
 pub use check::{MAX_SHEET_BYTES, SOURCE_NAME_KEY, SheetVerdict, check_sheet};
-pub use heatmap::{
-    ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map,
-};
+pub use map::{ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map};
+use wording::sheet as text;
 
 const REGULAR_TTF: &[u8] = include_bytes!("fonts/DejaVuSans.ttf");
 const BOLD_TTF: &[u8] = include_bytes!("fonts/DejaVuSans-Bold.ttf");

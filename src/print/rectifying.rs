@@ -39,7 +39,7 @@ pub(super) fn protection_table(
     let row_y = |i: usize| top - 8.5 - 5.0 * i as f64;
     let heads = [
         "Point",
-        super::text::quality_head(f.per_unit),
+        super::wording::sheet::quality_head(f.per_unit),
         "Agreed",
         "Achieved by this plan",
     ];

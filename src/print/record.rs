@@ -12,7 +12,7 @@
 
 use super::canvas::{Canvas, Face, grey};
 use super::variables::{decision_row, field};
-use super::variables_text as words;
+use super::wording::variables as words;
 use super::{Common, Facts, given, text};
 
 /// Height of the approval block, and the gap above it.

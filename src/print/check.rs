@@ -4,7 +4,7 @@
 //! A sheet's metadata can be written by anyone, so the source hash in its
 //! subject proves nothing by itself: a hand-made PDF can carry it, and so
 //! can another plan's sheet with its subject swapped. Sheets are
-//! byte-reproducible (see the module docs of [`crate::sheet`]), so the
+//! byte-reproducible (see the module docs of [`crate::print`]), so the
 //! check prints the sheet again from the source, with the options the
 //! sheet was printed with, and compares the bytes. The options come from
 //! the PDF itself: the paper from its page size, the source's file name

@@ -30,14 +30,14 @@
 //! from a SHA-256 of those inputs.
 
 mod contour;
-mod field;
+pub(crate) mod field;
 mod panel;
 mod ramp;
-mod text;
 
 use sha2::{Digest, Sha256};
 
 use super::canvas::{Canvas, Face, Page, Region, grey};
+use super::wording::map as text;
 use super::{Paper, embedded_fonts, save_page};
 use crate::design::{Scheme, TradeoffGrid};
 use crate::error::{Error, InputError};
