@@ -2,9 +2,9 @@
 //! labelled markers. Kept apart from the numbers: the caller hands in the
 //! points already computed.
 
-use printpdf::Color;
-
-use super::canvas::{Canvas, Face, grey, rgb};
+use super::canvas::Canvas;
+use super::draw::{Colour as Color, Face, grey, rgb};
+use super::geometry::Rect;
 
 /// One labelled point on a chart.
 pub struct Mark {
@@ -149,7 +149,7 @@ impl Plot {
 /// labels, axes and axis labels of `axes` on `plot`.
 pub fn frame(c: &mut Canvas, name: &str, plot: &Plot, axes: &Axes) {
     let (x, y, w, h) = (plot.x, plot.y, plot.w, plot.h);
-    c.claim(name, x, y, w, h);
+    c.claim(name, Rect::new(x, y, w, h));
     let (left, bottom, right, top) = (plot.left, plot.bottom, plot.right, plot.top);
     let pw = right - left;
     c.text(x, y + h - 3.5, axes.title, Face::Bold, 8.0, grey(0.0));
@@ -229,8 +229,7 @@ pub fn frame(c: &mut Canvas, name: &str, plot: &Plot, axes: &Axes) {
         (axes.y_label, Face::Regular, 7.0),
     ] {
         if c.width(label, face, size) > w {
-            c.faults
-                .push(format!("{name}: '{label}' is wider than the chart"));
+            c.fault(format!("{name}: '{label}' is wider than the chart"));
         }
     }
 }
@@ -288,8 +287,7 @@ pub fn vertical_guide(c: &mut Canvas, plot: &Plot, gx: f64, label: &str) -> Labe
         c.text(lx, y, line, Face::Regular, 6.5, grey(0.3));
     }
     if lx + lw > plot.x + plot.w {
-        c.faults
-            .push(format!("chart guide '{label}' leaves its chart"));
+        c.fault(format!("chart guide '{label}' leaves its chart"));
     }
     lines_box(lx, ly, lw, lines.len())
 }
@@ -308,8 +306,7 @@ pub fn horizontal_guide(c: &mut Canvas, plot: &Plot, gy: f64, label: &str) -> La
     let lx = plot.right - lw - 0.5;
     c.text(lx, y + 1.0, label, Face::Regular, 6.5, grey(0.25));
     if lx < plot.left {
-        c.faults
-            .push(format!("chart guide '{label}' leaves its chart"));
+        c.fault(format!("chart guide '{label}' leaves its chart"));
     }
     label_box(lx, y + 1.0, lw)
 }
@@ -538,7 +535,7 @@ pub fn marks(
         };
         let b = lines_box(lx, ly, lw, lines.len());
         if !in_box((lx, ly), lw, lines.len()) || !free(&(lx, ly), lw, lines.len()) {
-            c.faults.push(format!(
+            c.fault(format!(
                 "chart label '{}' has no room in its chart",
                 m.label
             ));
@@ -655,24 +652,24 @@ pub fn legend(
     ];
     let at = corners.iter().copied().find(|&p| clear(p));
     if at.is_none() || w > plot.right - plot.left - 2.0 {
-        c.faults.push(format!(
+        c.fault(format!(
             "{name}: the legend has no room clear of the curves"
         ));
     }
     let (x0, y0) = at.unwrap_or(corners[0]);
-    c.rect_fill(x0, y0, w, h, grey(1.0));
-    c.rect_stroke(x0, y0, w, h, 0.3, grey(0.6));
+    c.rect_fill(Rect::new(x0, y0, w, h), grey(1.0));
+    c.rect_stroke(Rect::new(x0, y0, w, h), 0.3, grey(0.6));
     for (i, e) in entries.iter().enumerate() {
         let base = y0 + h - 0.9 - LEGEND_PITCH * (i as f64 + 1.0) + 0.9;
         let mid = base + 0.8;
         let sx = x0 + 1.2;
         if e.block {
-            c.rect_fill(sx, mid - 1.1, sample, 2.2, e.color.clone());
+            c.rect_fill(Rect::new(sx, mid - 1.1, sample, 2.2), e.color);
         } else {
             c.line(
                 &[(sx, mid), (sx + sample, mid)],
                 e.thickness,
-                e.color.clone(),
+                e.color,
                 e.dash,
             );
         }

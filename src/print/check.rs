@@ -200,7 +200,10 @@ fn first_page_paper(doc: &lopdf::Document) -> Option<Paper> {
     let [x0, y0, x1, y1] = corners.as_slice() else {
         return None;
     };
-    let (w, h) = ((x1 - x0) * super::MM_PER_PT, (y1 - y0) * super::MM_PER_PT);
+    let (w, h) = (
+        (x1 - x0) * super::geometry::MM_PER_PT,
+        (y1 - y0) * super::geometry::MM_PER_PT,
+    );
     [Paper::A4, Paper::Letter].into_iter().find(|p| {
         let (pw, ph) = p.size();
         // Half a point, in millimetres.
@@ -215,14 +218,4 @@ fn printable(text: &str) -> String {
         .take(80)
         .map(|ch| if ch.is_control() { '?' } else { ch })
         .collect()
-}
-
-/// A text as a PDF text string: UTF-16BE after a byte-order mark, the form
-/// the document information's other texts take.
-pub(super) fn text_object(text: &str) -> lopdf::Object {
-    let bytes = [0xFE, 0xFF]
-        .into_iter()
-        .chain(text.encode_utf16().flat_map(u16::to_be_bytes))
-        .collect();
-    lopdf::Object::String(bytes, lopdf::StringFormat::Hexadecimal)
 }

@@ -19,10 +19,15 @@
 mod canvas;
 mod chart;
 mod check;
+mod draw;
+mod fonts;
+mod geometry;
 mod map;
 mod names;
+mod pdf;
 mod record;
 mod rectifying;
+mod text;
 mod variables;
 mod wording;
 
@@ -44,14 +49,16 @@ use crate::source::{
     Audited, Discrepancy, PlanSource, RecordedPlan, attributes_risks, tool_version,
 };
 use crate::templates::{Placeholder, placeholders};
-use canvas::{BOLD_ID, Canvas, Face, MM_PER_PT, Page, REGULAR_ID, Region, grey, rgb};
+use canvas::Canvas;
 use chart::{Axes, Chart, Mark, Plot, nice_ceiling, nice_step};
 pub use check::{MAX_SHEET_BYTES, SOURCE_NAME_KEY, SheetVerdict, check_sheet};
+use draw::{Colour, Face, Font, grey, rgb};
+use fonts::Fonts;
+use geometry::{MM_PER_PT, Rect, Region};
 pub use map::{ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map};
-use wording::sheet as text;
-
-const REGULAR_TTF: &[u8] = include_bytes!("fonts/DejaVuSans.ttf");
-const BOLD_TTF: &[u8] = include_bytes!("fonts/DejaVuSans-Bold.ttf");
+use pdf::{Document, PdfPage, text_string};
+use text::Shrink;
+use wording::sheet as sheet_words;
 
 /// Paper sizes.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -239,7 +246,8 @@ impl Facts<'_> {
 
 /// A field of the source, or a dash.
 fn given(v: &Option<String>) -> String {
-    v.clone().unwrap_or_else(|| text::NOT_GIVEN.to_string())
+    v.clone()
+        .unwrap_or_else(|| sheet_words::NOT_GIVEN.to_string())
 }
 
 /// The printable part of the page.
@@ -357,12 +365,13 @@ fn render(
     paper: Paper,
     discrepancy: Option<&Discrepancy>,
 ) -> Result<Sheet, Error> {
-    let (regular, bold) = embedded_fonts()?;
-    let shown = names::printed_name(file_name, &regular);
+    let fonts = Fonts::embedded()?;
+    let shown = names::printed_name(file_name, &fonts);
     let file_name = shown.as_str();
     let notice = discrepancy.map(|d| names::notice_of(d, file_name, NOTICE_FIELDS));
     let (pw, ph) = paper.size();
-    let mut c = Canvas::new(&regular, &bold);
+    let mut page = PdfPage::new();
+    let mut c = Canvas::new(&mut page, &fonts);
     let margin = 14.0;
     let frame = Frame {
         left: margin,
@@ -376,11 +385,13 @@ fn render(
         measured = variables::Facts::gather(source, text, file_name)?;
         measured.common.notice = notice;
         variables::layout(&mut c, &measured, frame, ph - margin)?;
-        if measured.common.notice.is_some() && !c.faults.is_empty() && !measured.on_log() {
+        if measured.common.notice.is_some() && c.has_faults() && !measured.on_log() {
             // The notice can leave the readings table no room: the
             // readings then go on a separate log, as a large sample's do.
             measured.displaced = true;
-            c = Canvas::new(&regular, &bold);
+            drop(c);
+            page = PdfPage::new();
+            c = Canvas::new(&mut page, &fonts);
             variables::layout(&mut c, &measured, frame, ph - margin)?;
         }
         &measured.common
@@ -420,28 +431,23 @@ fn render(
         }
         &attributes.common
     };
-    let Page {
-        ops,
-        regions,
-        overflows,
-        faults,
-    } = c.finish(pw, ph);
-    if !overflows.is_empty() || !faults.is_empty() {
+    let laid = c.finish(pw, ph);
+    if !laid.is_clean() {
         let mut parts = Vec::new();
-        if !overflows.is_empty() {
+        if !laid.overflows.is_empty() {
             parts.push(format!(
                 "{}; shorten the text in the source",
-                overflows.join("; ")
+                laid.overflows.join("; ")
             ));
         }
-        if !faults.is_empty() {
+        if !laid.faults.is_empty() {
             let paper_hint = match paper {
                 Paper::Letter => " (A4 is taller: try --paper a4)",
                 Paper::A4 => "",
             };
             parts.push(format!(
                 "{}; the plan is too long for one page{paper_hint}, and the terminal and JSON reports give its tables in full",
-                faults.join("; ")
+                laid.faults.join("; ")
             ));
         }
         return Err(InputError::Inconsistent(format!(
@@ -450,106 +456,19 @@ fn render(
         ))
         .into());
     }
-    let pdf = save(common, &regular, &bold, pw, ph, ops)?;
+    let subject = format!("{HASH_PREFIX}{}", common.hash);
+    let doc = Document {
+        title: &common.source.title,
+        subject: &subject,
+        hash: &common.hash,
+        extra: &[(SOURCE_NAME_KEY, common.file_name)],
+    };
+    let pdf = pdf::save(&doc, &fonts, (pw, ph), page.into_ops())?;
     Ok(Sheet {
         pdf,
         source_sha256: common.hash.clone(),
-        regions,
+        regions: laid.regions,
     })
-}
-
-/// The two embedded faces, regular and bold, parsed for a canvas.
-///
-/// # Errors
-/// [`InputError::Inconsistent`] when they do not parse (a build defect).
-fn embedded_fonts() -> Result<(printpdf::ParsedFont, printpdf::ParsedFont), InputError> {
-    let parse = |bytes| printpdf::ParsedFont::from_bytes(bytes, 0, &mut Vec::new());
-    match (parse(REGULAR_TTF), parse(BOLD_TTF)) {
-        (Some(regular), Some(bold)) => Ok((regular, bold)),
-        _ => Err(InputError::Inconsistent(
-            "the embedded fonts do not parse (a defect of this build)".into(),
-        )),
-    }
-}
-
-/// The PDF of one page of `ops`, with the fonts, the source hash in the
-/// subject, the source's file name (as printed in the footer) under
-/// [`SOURCE_NAME_KEY`], and the document ID set from the hash.
-fn save(
-    f: &Common,
-    regular: &printpdf::ParsedFont,
-    bold: &printpdf::ParsedFont,
-    pw: f64,
-    ph: f64,
-    ops: Vec<printpdf::Op>,
-) -> Result<Vec<u8>, Error> {
-    let subject = format!("{HASH_PREFIX}{}", f.hash);
-    save_page(
-        &f.source.title,
-        &subject,
-        &f.hash,
-        &[(SOURCE_NAME_KEY, f.file_name)],
-        regular,
-        bold,
-        pw,
-        ph,
-        ops,
-    )
-}
-
-/// The PDF of one page of `ops` titled `title`, with the fonts; in the
-/// metadata `subject`, this tool's version as the creator, and the `extra`
-/// entries; the document ID made from the hex `hash`, so that the same
-/// inputs give the same bytes in any process.
-#[allow(clippy::too_many_arguments)]
-fn save_page(
-    title: &str,
-    subject: &str,
-    hash: &str,
-    extra: &[(&str, &str)],
-    regular: &printpdf::ParsedFont,
-    bold: &printpdf::ParsedFont,
-    pw: f64,
-    ph: f64,
-    ops: Vec<printpdf::Op>,
-) -> Result<Vec<u8>, Error> {
-    let mut warnings = Vec::new();
-    let mut doc = printpdf::PdfDocument::new(title);
-    doc.metadata.info.subject = subject.to_string();
-    doc.metadata.info.creator = tool_version();
-    doc.resources.fonts.map.insert(
-        printpdf::FontId(REGULAR_ID.to_string()),
-        printpdf::PdfFont::new(regular.clone()),
-    );
-    doc.resources.fonts.map.insert(
-        printpdf::FontId(BOLD_ID.to_string()),
-        printpdf::PdfFont::new(bold.clone()),
-    );
-    doc.with_pages(vec![printpdf::PdfPage::new(
-        printpdf::Mm(pw as f32),
-        printpdf::Mm(ph as f32),
-        ops,
-    )]);
-    let mut lo = doc.to_lopdf_document(&printpdf::PdfSaveOptions::default(), &mut warnings);
-    let id = lopdf::Object::String(hash.as_bytes()[..32].to_vec(), lopdf::StringFormat::Literal);
-    lo.trailer
-        .set("ID", lopdf::Object::Array(vec![id.clone(), id]));
-    if !extra.is_empty() {
-        let info = lo
-            .trailer
-            .get(b"Info")
-            .and_then(|o| o.as_reference())
-            .and_then(|r| lo.get_dictionary_mut(r))
-            .map_err(|e| Error::Output(std::io::Error::other(e.to_string())))?;
-        for (key, value) in extra {
-            info.set(*key, check::text_object(value));
-        }
-    }
-    lo.compress();
-    let mut pdf = Vec::new();
-    lo.save_to(&mut pdf)
-        .map_err(|e| Error::Output(std::io::Error::other(e.to_string())))?;
-    Ok(pdf)
 }
 
 /// The single plan's page: title block, plan box, risk table, OC and AOQ
@@ -615,8 +534,7 @@ fn single_layout(
     record::record_column(c, f, sig_x, top, right - sig_x, table_h);
     footer(c, &f.common, frame, foot_h, words::CAUTION, "");
     if chart_h < MIN_CHART_H || top - table_h < foot_top + 2.0 {
-        c.faults
-            .push("the page is too short for its blocks".to_string());
+        c.fault("the page is too short for its blocks".to_string());
     }
     Ok(())
 }
@@ -643,11 +561,17 @@ fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, min_
     // Measured first, for the characteristic's size and the block's
     // height: the title and item above it, and the room they leave.
     let title_h = c
-        .fit(&source.title, Face::Bold, title_w, 13.0, 14.0, 8.0)
+        .fit(
+            &source.title,
+            Face::Bold,
+            title_w,
+            13.0,
+            Shrink::new(14.0, 8.0),
+        )
         .height;
     let item = given(&source.item);
     let item_h = c
-        .fit(&item, Face::Regular, field_w, 9.0, 8.0, 5.5)
+        .fit(&item, Face::Regular, field_w, 9.0, Shrink::new(8.0, 5.5))
         .height
         .max(3.5);
     let above = 8.5 + title_h + item_h + 1.5;
@@ -663,33 +587,32 @@ fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, min_
         .unwrap_or(CHARACTERISTIC_SIZES[CHARACTERISTIC_SIZES.len() - 1]);
     let characteristic_h = height_at(c, size);
     let block_h = min_h.max(above + characteristic_h.max(3.5) + 2.0);
-    c.claim("title block", left, top - block_h, width, block_h);
-    c.rect_stroke(left, top - block_h, width, block_h, 0.8, black());
+    c.claim(
+        "title block",
+        Rect::new(left, top - block_h, width, block_h),
+    );
+    c.rect_stroke(Rect::new(left, top - block_h, width, block_h), 0.8, black());
     c.text(
         left + 3.0,
         top - 4.5,
-        text::KICKER,
+        sheet_words::KICKER,
         Face::Bold,
         6.5,
         grey(0.35),
     );
     let title_used = c.paragraph(
         "title",
-        left + 3.0,
-        top - 6.5,
-        title_w,
-        13.0,
+        Rect::from_top(left + 3.0, top - 6.5, title_w, 13.0),
         &source.title,
         Face::Bold,
-        14.0,
-        8.0,
+        Shrink::new(14.0, 8.0),
     );
     let fields = [
-        (text::ITEM, item, 9.0, 8.0, 5.5),
+        (sheet_words::ITEM, item, 9.0, 8.0, 5.5),
         // Room for the lines at the size chosen; more lines than that are
         // the paragraph's overflow, and a refusal.
         (
-            text::CHARACTERISTIC,
+            sheet_words::CHARACTERISTIC,
             characteristic,
             characteristic_h + 1e-6,
             size,
@@ -701,14 +624,10 @@ fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, min_
         c.text(left + 3.0, fy - 2.5, label, Face::Bold, 6.5, grey(0.35));
         let used = c.paragraph(
             label,
-            left + 26.0,
-            fy,
-            field_w,
-            room,
+            Rect::from_top(left + 26.0, fy, field_w, room),
             &value,
             Face::Regular,
-            size,
-            min_size,
+            Shrink::new(size, min_size),
         );
         fy -= used.max(3.5) + 1.5;
     }
@@ -721,13 +640,15 @@ fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, min_
     );
     let lot = f
         .lot_size
-        .map_or(text::NO_LOT_SIZE.to_string(), |n| format!("{n} units"));
+        .map_or(sheet_words::NO_LOT_SIZE.to_string(), |n| {
+            format!("{n} units")
+        });
     let meta = [
-        (text::PLAN_ID, given(&source.id)),
-        (text::REVISION, given(&source.revision)),
-        (text::DATE, given(&source.date)),
-        (text::LOT_SIZE, lot),
-        (text::SCHEME, f.scheme.clone()),
+        (sheet_words::PLAN_ID, given(&source.id)),
+        (sheet_words::REVISION, given(&source.revision)),
+        (sheet_words::DATE, given(&source.date)),
+        (sheet_words::LOT_SIZE, lot),
+        (sheet_words::SCHEME, f.scheme.clone()),
     ];
     // Five rows spread over the block's height.
     let pitch = (block_h - 5.0) / 5.0;
@@ -736,14 +657,10 @@ fn title_block(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, min_
         c.text(meta_x, y, label, Face::Bold, 6.5, grey(0.35));
         c.paragraph(
             label,
-            meta_x + 17.0,
-            y + 2.6,
-            meta_w - 17.0,
-            4.0,
+            Rect::from_top(meta_x + 17.0, y + 2.6, meta_w - 17.0, 4.0),
             value,
             Face::Regular,
-            8.0,
-            5.5,
+            Shrink::new(8.0, 5.5),
         );
     }
     block_h
@@ -776,7 +693,7 @@ fn notice_block(
     };
     let pad = 1.8;
     let text_w = width - 2.0 * pad;
-    let head_w = c.width(text::NOTICE, Face::Bold, NOTICE_SIZE) + 1.2;
+    let head_w = c.width(sheet_words::NOTICE, Face::Bold, NOTICE_SIZE) + 1.2;
     // The first line: the heading, then the words that fit beside it.
     let words: Vec<&str> = notice.split_whitespace().collect();
     let mut first = String::new();
@@ -798,14 +715,14 @@ fn notice_block(
     // More lines than the box holds are the paragraph's overflow below.
     let lines = 1 + c.wrap(&rest, Face::Regular, NOTICE_SIZE, text_w).len();
     let h = 2.0 * pad + lead * lines.min(max_lines) as f64;
-    c.claim("notice", left, top - h, width, h);
-    c.rect_fill(left, top - h, width, h, rgb(0.99, 0.92, 0.90));
-    c.rect_stroke(left, top - h, width, h, 1.4, reject_colour());
+    c.claim("notice", Rect::new(left, top - h, width, h));
+    c.rect_fill(Rect::new(left, top - h, width, h), rgb(0.99, 0.92, 0.90));
+    c.rect_stroke(Rect::new(left, top - h, width, h), 1.4, reject_colour());
     let baseline = top - pad - NOTICE_SIZE * MM_PER_PT;
     c.text(
         left + pad,
         baseline,
-        text::NOTICE,
+        sheet_words::NOTICE,
         Face::Bold,
         NOTICE_SIZE,
         reject_colour(),
@@ -820,38 +737,39 @@ fn notice_block(
     );
     c.paragraph(
         "notice",
-        left + pad,
-        top - pad - lead,
-        text_w,
-        lead * max_lines.saturating_sub(1) as f64,
+        Rect::from_top(
+            left + pad,
+            top - pad - lead,
+            text_w,
+            lead * max_lines.saturating_sub(1) as f64,
+        ),
         &rest,
         Face::Regular,
-        NOTICE_SIZE,
-        NOTICE_SIZE,
+        Shrink::fixed(NOTICE_SIZE),
     );
     h + GAP
 }
 
 /// The plan box's frame: a tinted box with a blue rule.
 fn plan_frame(c: &mut Canvas, left: f64, top: f64, width: f64, plan_h: f64) {
-    c.claim("plan", left, top - plan_h, width, plan_h);
-    c.rect_fill(left, top - plan_h, width, plan_h, rgb(0.93, 0.95, 0.98));
+    c.claim("plan", Rect::new(left, top - plan_h, width, plan_h));
+    c.rect_fill(
+        Rect::new(left, top - plan_h, width, plan_h),
+        rgb(0.93, 0.95, 0.98),
+    );
     c.rect_stroke(
-        left,
-        top - plan_h,
-        width,
-        plan_h,
+        Rect::new(left, top - plan_h, width, plan_h),
         1.2,
         rgb(0.05, 0.25, 0.55),
     );
 }
 
 /// Green for accepting, red for rejecting.
-fn accept_colour() -> printpdf::Color {
+fn accept_colour() -> Colour {
     rgb(0.0, 0.4, 0.1)
 }
 
-fn reject_colour() -> printpdf::Color {
+fn reject_colour() -> Colour {
     rgb(0.6, 0.1, 0.05)
 }
 
@@ -874,7 +792,7 @@ fn single_plan_box(
 ) {
     plan_frame(c, left, top, width, plan_h);
     let col = SINGLE_PLAN_COL;
-    c.heading(left + 4.0, top - 7.0, text::SAMPLE_SIZE);
+    c.heading(left + 4.0, top - 7.0, sheet_words::SAMPLE_SIZE);
     c.text(
         left + 4.0,
         top - 19.0,
@@ -898,7 +816,7 @@ fn single_plan_box(
     ];
     for (line, y, color) in decisions {
         if c.width(&line, Face::Bold, 9.5) > col - 6.0 {
-            c.overflows.push(format!("plan box: '{line}'"));
+            c.overflow(format!("plan box: '{line}'"));
         }
         c.text(left + 4.0, y, &line, Face::Bold, 9.5, color);
     }
@@ -928,19 +846,15 @@ fn procedure(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, bottom: f64, s
 /// Numbered steps under the procedure heading at `(x, top)`, one paragraph
 /// per step, each in what the earlier steps left above `bottom`.
 fn steps_block(c: &mut Canvas, steps: &[String], x: f64, top: f64, w: f64, bottom: f64, size: f64) {
-    c.heading(x, top - 7.0, text::PROCEDURE);
+    c.heading(x, top - 7.0, sheet_words::PROCEDURE);
     let mut step_top = top - 9.0;
     for step in steps {
         let used = c.paragraph(
             "procedure",
-            x,
-            step_top,
-            w,
-            step_top - bottom,
+            Rect::from_top(x, step_top, w, step_top - bottom),
             step,
             Face::Regular,
-            size,
-            7.0,
+            Shrink::new(size, 7.0),
         );
         step_top -= used + 0.8;
     }
@@ -956,7 +870,10 @@ fn procedure_height(c: &Canvas, f: &Facts, w: f64, size: f64) -> f64 {
 fn steps_height(c: &Canvas, steps: &[String], w: f64, size: f64) -> f64 {
     let text: f64 = steps
         .iter()
-        .map(|s| c.fit(s, Face::Regular, w, f64::INFINITY, size, size).height)
+        .map(|s| {
+            c.fit(s, Face::Regular, w, f64::INFINITY, Shrink::fixed(size))
+                .height
+        })
         .sum();
     11.0 + text + 0.8 * (steps.len() as f64 - 1.0)
 }
@@ -997,12 +914,12 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
     // chart height.
     let below_plan = GAP + risk_h + GAP + MIN_CHART_H + GAP + table_h + GAP;
     let plan_max = top - below_plan - foot_top;
-    let faults = c.overflows.len() + c.faults.len();
+    let faults = c.problems();
     let plan_h = match f.plan.sequential_lines() {
         Some(lines) => item_plan_box(c, f, lines, left, top, width, plan_max),
         None => stage_plan_box(c, f, left, top, width, plan_max),
     };
-    if c.overflows.len() + c.faults.len() > faults {
+    if c.problems() > faults {
         // The rest would be laid out in what is not there; the plan box's
         // own message says why.
         return Ok(());
@@ -1060,8 +977,7 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
     record::record_column(c, f, sig_x, top, right - sig_x, table_h);
     footer(c, &f.common, frame, STAGED_FOOT_H, words::CAUTION, "");
     if chart_h < MIN_CHART_H - 1e-9 || top - table_h < foot_top + 2.0 {
-        c.faults
-            .push("the page is too short for its blocks".to_string());
+        c.fault("the page is too short for its blocks".to_string());
     }
     Ok(())
 }
@@ -1070,7 +986,7 @@ fn staged_layout(c: &mut Canvas, f: &Facts, frame: Frame, mut top: f64) -> Resul
 struct Cell {
     text: String,
     face: Face,
-    color: printpdf::Color,
+    color: Colour,
 }
 
 impl Cell {
@@ -1084,7 +1000,7 @@ impl Cell {
 
     fn accept(number: Option<u64>) -> Self {
         Cell {
-            text: number.map_or(text::CANNOT_ACCEPT.to_string(), |a| a.to_string()),
+            text: number.map_or(sheet_words::CANNOT_ACCEPT.to_string(), |a| a.to_string()),
             face: Face::Bold,
             color: accept_colour(),
         }
@@ -1201,15 +1117,17 @@ fn plan_table<const K: usize>(
     for (i, row) in rows.iter().enumerate() {
         let row_top = first - pitch * i as f64;
         if i % 2 == 1 {
-            c.rect_fill(x, row_top - pitch, total, pitch, rgb(0.85, 0.89, 0.95));
+            c.rect_fill(
+                Rect::new(x, row_top - pitch, total, pitch),
+                rgb(0.85, 0.89, 0.95),
+            );
         }
         let y = row_top - pitch * 0.5 - size * MM_PER_PT * 0.36;
         let mut cx = x;
         for (cell, w) in row.iter().zip(widths) {
             let tw = c.width(&cell.text, cell.face, size);
             if tw > w - 1.0 {
-                c.faults
-                    .push(format!("{name}: '{}' is wider than its column", cell.text));
+                c.fault(format!("{name}: '{}' is wider than its column", cell.text));
             }
             c.text(
                 cx + (w - tw) / 2.0,
@@ -1217,7 +1135,7 @@ fn plan_table<const K: usize>(
                 &cell.text,
                 cell.face,
                 size,
-                cell.color.clone(),
+                cell.color,
             );
             cx += w;
         }
@@ -1263,12 +1181,12 @@ fn stage_plan_box(
             row
         })
         .collect();
-    let heads = &text::STAGE_HEADS;
+    let heads = &sheet_words::STAGE_HEADS;
     let form = match &f.common.agreement {
         Agreement::Rectifying { request, .. } => request.scheme(),
         Agreement::Points { .. } => f.common.source.scheme,
     };
-    let heading = text::stages_heading(form.name(), stages.len(), f.plan.max_sample());
+    let heading = sheet_words::stages_heading(form.name(), stages.len(), f.plan.max_sample());
     // The box for each row type: (procedure size, height, (type, widths,
     // left column, procedure width)).
     let layout = |c: &mut Canvas, rows_in: RowType| {
@@ -1321,7 +1239,7 @@ fn stage_plan_box(
         &rows,
         rows_in,
     );
-    let note = text::stage_note(stages.iter().any(|s| s.accept.is_none()));
+    let note = sheet_words::stage_note(stages.iter().any(|s| s.accept.is_none()));
     table_box_rest(
         c,
         f,
@@ -1366,14 +1284,15 @@ fn table_box_rest(c: &mut Canvas, f: &Facts, b: TableBox, region: &str, note: &s
     } = b;
     c.paragraph(
         region,
-        left + 4.0,
-        top - TABLE_TOP - used - 1.0,
-        col - 6.0,
-        plan_h - TABLE_TOP - used - 2.0,
+        Rect::from_top(
+            left + 4.0,
+            top - TABLE_TOP - used - 1.0,
+            col - 6.0,
+            plan_h - TABLE_TOP - used - 2.0,
+        ),
         note,
         Face::Regular,
-        6.5,
-        5.5,
+        Shrink::new(6.5, 5.5),
     );
     procedure(
         c,
@@ -1419,7 +1338,7 @@ fn choose_box<T: Copy>(
     }
     let lowest = options.iter().min_by(|a, b| a.1.total_cmp(&b.1)).copied();
     if let Some((_, h, _)) = lowest {
-        c.faults.push(format!(
+        c.fault(format!(
             "{what} need {h:.0} mm and the page leaves {plan_max:.0} mm"
         ));
     }
@@ -1454,16 +1373,16 @@ fn item_plan_box(
         .iter()
         .map(|r| {
             [
-                Cell::plain(text::units(r.first, r.last)),
+                Cell::plain(sheet_words::units(r.first, r.last)),
                 Cell::accept(r.accept),
                 Cell::reject(r.reject),
             ]
         })
         .collect();
-    let heads = &text::ITEM_HEADS;
-    let heading = text::items_heading(lines.truncation);
+    let heads = &sheet_words::ITEM_HEADS;
+    let heading = sheet_words::items_heading(lines.truncation);
     let gutter = 4.0;
-    let note = text::item_note(lines.h_accept, lines.h_reject, lines.slope);
+    let note = sheet_words::item_note(lines.h_accept, lines.h_reject, lines.slope);
     // Every split that leaves the procedure its width, at every procedure
     // size; the tighter row type only when the first fits nowhere.
     let splits = |c: &mut Canvas, rows_in: RowType| {
@@ -1483,7 +1402,13 @@ fn item_plan_box(
                 continue;
             }
             let note_h = c
-                .fit(&note, Face::Regular, col - 6.0, f64::INFINITY, 6.5, 6.5)
+                .fit(
+                    &note,
+                    Face::Regular,
+                    col - 6.0,
+                    f64::INFINITY,
+                    Shrink::fixed(6.5),
+                )
                 .height;
             let table_need =
                 TABLE_TOP + TABLE_HEAD_H + rows_in.pitch * per as f64 + 2.0 + note_h + 2.0;
@@ -1505,7 +1430,7 @@ fn item_plan_box(
     let Some((size, plan_h, (col, proc_w, per, rows_in, widths))) =
         choose_box(c, &what, &options, plan_max)
     else {
-        c.faults.push(format!(
+        c.fault(format!(
             "the item table ({} rows) leaves the procedure no room",
             runs.len()
         ));
@@ -1577,9 +1502,9 @@ fn asn_chart(
         "ASN chart",
         &plot,
         &Axes {
-            title: text::ASN_TITLE,
-            x_label: text::quality_axis(f.common.per_unit),
-            y_label: text::ASN_AXIS,
+            title: sheet_words::ASN_TITLE,
+            x_label: sheet_words::quality_axis(f.common.per_unit),
+            y_label: sheet_words::ASN_AXIS,
             x_max,
             y_max,
             x_tick: &axis,
@@ -1590,21 +1515,21 @@ fn asn_chart(
     );
     let avoid: Vec<chart::LabelBox> = single_n
         .iter()
-        .map(|&n| chart::horizontal_guide(c, &plot, n as f64, &text::single_reference(n)))
+        .map(|&n| chart::horizontal_guide(c, &plot, n as f64, &sheet_words::single_reference(n)))
         .collect();
     chart::curve(c, &plot, &asn, 1.3, chart::curve_colour(), None);
     let marks = [
         Mark {
             x: p1,
             y: at_p1,
-            label: text::asn_at_p1(at_p1).join(" "),
-            stacked: Some(text::asn_at_p1(at_p1)),
+            label: sheet_words::asn_at_p1(at_p1).join(" "),
+            stacked: Some(sheet_words::asn_at_p1(at_p1)),
         },
         Mark {
             x: q_max,
             y: asn_max,
-            label: text::largest_asn(asn_max, &f.common.q(q_max)).join(" "),
-            stacked: Some(text::largest_asn(asn_max, &f.common.q(q_max))),
+            label: sheet_words::largest_asn(asn_max, &f.common.q(q_max)).join(" "),
+            stacked: Some(sheet_words::largest_asn(asn_max, &f.common.q(q_max))),
         },
     ];
     let guide_y = single_n.map(|n| plot.sy(n as f64));
@@ -1661,14 +1586,14 @@ fn decision_chart(
         chart::zone(c, &plot, &accept_zone, rgb(0.84, 0.94, 0.85));
     }
     let count = |v: f64, step: f64| chart::tick_label(v, step, 1.0, "");
-    let y_label = text::decision_y(f.common.per_unit);
+    let y_label = sheet_words::decision_y(f.common.per_unit);
     chart::frame(
         c,
         "decision chart",
         &plot,
         &Axes {
-            title: text::DECISION_TITLE,
-            x_label: text::DECISION_X,
+            title: sheet_words::DECISION_TITLE,
+            x_label: sheet_words::DECISION_X,
             y_label: &y_label,
             x_max: t,
             y_max,
@@ -1737,25 +1662,25 @@ fn decision_chart(
     let accept_at = |n: u64| lines.acceptance_number(n).map_or(0.0, |a| a as f64);
     let reject_at = |n: u64| lines.rejection_number(n) as f64;
     let last_open = (t - 1.0).max(0.0);
-    let zone_label = |c: &mut Canvas, lx: f64, ly: f64, label: &str, color: printpdf::Color| {
+    let zone_label = |c: &mut Canvas, lx: f64, ly: f64, label: &str, color: Colour| {
         c.text(lx, ly, label, Face::Bold, size, color);
     };
     // Reject: top left, above the rejection numbers.
-    let rw = c.width(text::REJECT_ZONE, Face::Bold, size);
+    let rw = c.width(sheet_words::REJECT_ZONE, Face::Bold, size);
     let (rx, ry) = (plot.left + 1.5, plot.top - 1.0 - label_h);
     if plot.sy(reject_at(unit_at(rx + rw))) + pad <= ry - 0.3 {
-        zone_label(c, rx, ry, text::REJECT_ZONE, reject_colour());
+        zone_label(c, rx, ry, sheet_words::REJECT_ZONE, reject_colour());
     }
     // Accept: bottom right, below the acceptance numbers, clear of the
     // truncation item.
-    let aw = c.width(text::ACCEPT_ZONE, Face::Bold, size);
+    let aw = c.width(sheet_words::ACCEPT_ZONE, Face::Bold, size);
     let (ax, ay) = (plot.sx(last_open) - 1.5 - aw, plot.bottom + 1.0);
     if ax > plot.left && plot.sy(accept_at(unit_at(ax))) >= ay + label_h + pad {
-        zone_label(c, ax, ay, text::ACCEPT_ZONE, accept_colour());
+        zone_label(c, ax, ay, sheet_words::ACCEPT_ZONE, accept_colour());
     }
     // Go on: where the open counts leave the most room, away from the
     // other two labels.
-    let cw = c.width(text::CONTINUE_ZONE, Face::Bold, size);
+    let cw = c.width(sheet_words::CONTINUE_ZONE, Face::Bold, size);
     let room = |lx: f64| {
         let (n0, n1) = (unit_at(lx), unit_at(lx + cw));
         (plot.sy(reject_at(n0)), plot.sy(accept_at(n1)))
@@ -1777,12 +1702,12 @@ fn decision_chart(
             c,
             lx,
             mid_y - label_h / 2.0,
-            text::CONTINUE_ZONE,
+            sheet_words::CONTINUE_ZONE,
             rgb(0.45, 0.35, 0.05),
         );
     }
     // The truncation, on the title's line at the right, above its bar.
-    let trunc = text::truncation(lines.truncation, lines.final_acceptance);
+    let trunc = sheet_words::truncation(lines.truncation, lines.final_acceptance);
     let tw = c.width(&trunc, Face::Regular, size);
     c.text(
         tx - tw,
@@ -1792,10 +1717,9 @@ fn decision_chart(
         size,
         grey(0.15),
     );
-    let title_w = c.width(text::DECISION_TITLE, Face::Bold, 8.0);
+    let title_w = c.width(sheet_words::DECISION_TITLE, Face::Bold, 8.0);
     if title_w + 2.0 + tw > tx - x {
-        c.faults
-            .push(format!("decision chart: '{trunc}' has no room"));
+        c.fault(format!("decision chart: '{trunc}' has no room"));
     }
 }
 
@@ -1811,20 +1735,21 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
     let right = left + width;
     let black = || grey(0.0);
     let (producer, consumer) = (risks.producer(), risks.consumer());
-    c.claim("risks", left, top - risk_h, width, risk_h);
-    c.heading(left, top - 3.5, text::RISKS);
+    c.claim("risks", Rect::new(left, top - risk_h, width, risk_h));
+    c.heading(left, top - 3.5, sheet_words::RISKS);
     let cols = [left, left + 52.0, left + 84.0, left + 128.0, right];
     let row_y = |i: usize| top - 8.5 - 5.0 * i as f64;
-    for (i, h) in text::risk_heads(f.per_unit).iter().enumerate() {
+    for (i, h) in sheet_words::risk_heads(f.per_unit).iter().enumerate() {
         let w = cols[i + 1] - cols[i] - 2.0;
         c.cell(
             "risk table",
-            cols[i] + 1.0,
+            (cols[i] + 1.0, row_y(0)),
             w,
-            row_y(0),
             h,
-            Face::Bold,
-            7.5,
+            Font {
+                face: Face::Bold,
+                size: 7.5,
+            },
             black(),
         );
     }
@@ -1837,7 +1762,7 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
     let (alpha, beta) = *achieved;
     let rows = [
         (
-            text::PRODUCER_POINT,
+            sheet_words::PRODUCER_POINT,
             f.q(producer.quality),
             format!("α ≤ {}", Short(producer.risk)),
             format!(
@@ -1847,7 +1772,7 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
             ),
         ),
         (
-            text::CONSUMER_POINT,
+            sheet_words::CONSUMER_POINT,
             f.q(consumer.quality),
             format!("β ≤ {}", Short(consumer.risk)),
             format!("β = {}  (Pa = {:.4})", format_significant(beta, 3), beta),
@@ -1859,12 +1784,13 @@ fn risk_table(c: &mut Canvas, f: &Common, left: f64, top: f64, width: f64, risk_
             let w = cols[j + 1] - cols[j] - 2.0;
             c.cell(
                 "risk table",
-                cols[j] + 1.0,
+                (cols[j] + 1.0, y),
                 w,
-                y,
                 cell,
-                Face::Regular,
-                7.5,
+                Font {
+                    face: Face::Regular,
+                    size: 7.5,
+                },
                 black(),
             );
         }
@@ -1936,9 +1862,9 @@ fn oc_chart(
         w,
         h,
         &Chart {
-            title: text::oc_title(c, w),
-            x_label: text::quality_axis(f.common.per_unit),
-            y_label: text::OC_AXIS,
+            title: sheet_words::oc_title(c, w),
+            x_label: sheet_words::quality_axis(f.common.per_unit),
+            y_label: sheet_words::OC_AXIS,
             x_max,
             y_max: 1.0,
             x_tick: &axis,
@@ -1982,9 +1908,9 @@ fn aoq_chart(
         w,
         h,
         &Chart {
-            title: text::AOQ_TITLE,
-            x_label: text::quality_axis(f.common.per_unit),
-            y_label: text::AOQ_AXIS,
+            title: sheet_words::AOQ_TITLE,
+            x_label: sheet_words::quality_axis(f.common.per_unit),
+            y_label: sheet_words::AOQ_AXIS,
             x_max,
             y_max: nice_ceiling(limit.value * 1.25),
             x_tick: &axis,
@@ -2023,34 +1949,42 @@ fn measure_columns(f: &Facts, evaluation: &Evaluation) -> Vec<MeasureColumn> {
     let percent = |v: f64| format!("{:.4}%", v * 100.0);
     let mut columns = Vec::new();
     if per_unit {
-        columns.push(column(text::PER_UNIT, &|m| short(m.quality)));
-        columns.push(column(text::PER_100_UNITS, &|m| short(100.0 * m.quality)));
+        columns.push(column(sheet_words::PER_UNIT, &|m| short(m.quality)));
+        columns.push(column(sheet_words::PER_100_UNITS, &|m| {
+            short(100.0 * m.quality)
+        }));
     } else {
-        columns.push(column(text::MEASURE_HEADS[0], &|m| f.common.q(m.quality)));
+        columns.push(column(sheet_words::MEASURE_HEADS[0], &|m| {
+            f.common.q(m.quality)
+        }));
     }
     if points.iter().any(|m| m.lot_nonconforming.is_some()) {
-        columns.push(column(text::LOT_D, &|m| {
+        columns.push(column(sheet_words::LOT_D, &|m| {
             m.lot_nonconforming
-                .map_or(text::NOT_GIVEN.to_string(), |d| d.to_string())
+                .map_or(sheet_words::NOT_GIVEN.to_string(), |d| d.to_string())
         }));
-        columns.push(column(text::LOT_QUALITY, &|m| {
+        columns.push(column(sheet_words::LOT_QUALITY, &|m| {
             m.lot_quality
-                .map_or(text::NOT_GIVEN.to_string(), |q| f.common.q(q))
+                .map_or(sheet_words::NOT_GIVEN.to_string(), |q| f.common.q(q))
         }));
     }
-    columns.push(column(text::MEASURE_HEADS[1], &|m| format!("{:.4}", m.pa)));
+    columns.push(column(sheet_words::MEASURE_HEADS[1], &|m| {
+        format!("{:.4}", m.pa)
+    }));
     if per_unit {
-        columns.push(column(text::AOQ_PER_UNIT, &|m| short(m.aoq)));
-        columns.push(column(text::AOQ_PER_100_UNITS, &|m| short(100.0 * m.aoq)));
+        columns.push(column(sheet_words::AOQ_PER_UNIT, &|m| short(m.aoq)));
+        columns.push(column(sheet_words::AOQ_PER_100_UNITS, &|m| {
+            short(100.0 * m.aoq)
+        }));
     } else {
-        columns.push(column(text::MEASURE_HEADS[2], &|m| percent(m.aoq)));
+        columns.push(column(sheet_words::MEASURE_HEADS[2], &|m| percent(m.aoq)));
     }
-    columns.push(column(text::MEASURE_HEADS[3], &|m| {
+    columns.push(column(sheet_words::MEASURE_HEADS[3], &|m| {
         m.ati
-            .map_or(text::NOT_GIVEN.to_string(), |v| format!("{v:.0}"))
+            .map_or(sheet_words::NOT_GIVEN.to_string(), |v| format!("{v:.0}"))
     }));
     let single = f.plan.as_single().is_some();
-    columns.push(column(text::MEASURE_HEADS[4], &|m| {
+    columns.push(column(sheet_words::MEASURE_HEADS[4], &|m| {
         if single {
             format!("{:.0}", m.asn)
         } else {
@@ -2075,8 +2009,8 @@ fn measures_table(
 ) {
     const SIZE: f64 = 7.0;
     let black = || grey(0.0);
-    c.claim("measures", left, top - table_h, table_w, table_h);
-    c.heading(left, top - 3.5, text::MEASURES);
+    c.claim("measures", Rect::new(left, top - table_h, table_w, table_h));
+    c.heading(left, top - 3.5, sheet_words::MEASURES);
     let columns = measure_columns(f, evaluation);
     let widths: Vec<f64> = columns
         .iter()
@@ -2097,23 +2031,25 @@ fn measures_table(
         if k == 0 {
             c.cell(
                 "measures table",
-                x,
+                (x, ty(0)),
                 w,
-                ty(0),
                 col.head,
-                Face::Bold,
-                SIZE,
+                Font {
+                    face: Face::Bold,
+                    size: SIZE,
+                },
                 black(),
             );
         } else {
             c.cell_right(
                 "measures table",
-                x + w,
+                (x + w, ty(0)),
                 w,
-                ty(0),
                 col.head,
-                Face::Bold,
-                SIZE,
+                Font {
+                    face: Face::Bold,
+                    size: SIZE,
+                },
                 black(),
             );
         }
@@ -2121,23 +2057,25 @@ fn measures_table(
             if k == 0 {
                 c.cell(
                     "measures table",
-                    x,
+                    (x, ty(i + 1)),
                     w,
-                    ty(i + 1),
                     cell,
-                    Face::Regular,
-                    SIZE,
+                    Font {
+                        face: Face::Regular,
+                        size: SIZE,
+                    },
                     black(),
                 );
             } else {
                 c.cell_right(
                     "measures table",
-                    x + w,
+                    (x + w, ty(i + 1)),
                     w,
-                    ty(i + 1),
                     cell,
-                    Face::Regular,
-                    SIZE,
+                    Font {
+                        face: Face::Regular,
+                        size: SIZE,
+                    },
                     black(),
                 );
             }
@@ -2145,8 +2083,7 @@ fn measures_table(
         x += w + gap;
     }
     if x - gap > left + 1.0 + inner + 1e-6 {
-        c.faults
-            .push("measures table: its columns are wider than the table".to_string());
+        c.fault("measures table: its columns are wider than the table".to_string());
     }
     c.line(
         &[(left, ty(0) - 1.3), (left + table_w - 10.0, ty(0) - 1.3)],
@@ -2160,11 +2097,18 @@ fn measures_table(
 /// for the signature and the date.
 fn signatures(c: &mut Canvas, f: &Common, sig_x: f64, top: f64, sig_w: f64, table_h: f64) {
     let black = || grey(0.0);
-    c.claim("signatures", sig_x, top - table_h, sig_w, table_h);
-    c.rect_stroke(sig_x, top - table_h, sig_w, table_h, 0.5, black());
+    c.claim(
+        "signatures",
+        Rect::new(sig_x, top - table_h, sig_w, table_h),
+    );
+    c.rect_stroke(
+        Rect::new(sig_x, top - table_h, sig_w, table_h),
+        0.5,
+        black(),
+    );
     for (i, (label, name)) in [
-        (text::PREPARED_BY, given(&f.source.prepared_by)),
-        (text::APPROVED_BY, given(&f.source.approved_by)),
+        (sheet_words::PREPARED_BY, given(&f.source.prepared_by)),
+        (sheet_words::APPROVED_BY, given(&f.source.approved_by)),
     ]
     .iter()
     .enumerate()
@@ -2173,14 +2117,10 @@ fn signatures(c: &mut Canvas, f: &Common, sig_x: f64, top: f64, sig_w: f64, tabl
         c.text(sig_x + 2.0, y, label, Face::Bold, 7.0, grey(0.3));
         c.paragraph(
             label,
-            sig_x + 2.0,
-            y - 1.0,
-            sig_w - 4.0,
-            4.0,
+            Rect::from_top(sig_x + 2.0, y - 1.0, sig_w - 4.0, 4.0),
             name,
             Face::Regular,
-            7.5,
-            5.5,
+            Shrink::new(7.5, 5.5),
         );
         c.line(
             &[(sig_x + 2.0, y - 12.0), (sig_x + sig_w - 26.0, y - 12.0)],
@@ -2191,7 +2131,7 @@ fn signatures(c: &mut Canvas, f: &Common, sig_x: f64, top: f64, sig_w: f64, tabl
         c.text(
             sig_x + 2.0,
             y - 14.5,
-            text::SIGNATURE,
+            sheet_words::SIGNATURE,
             Face::Regular,
             6.0,
             grey(0.4),
@@ -2208,7 +2148,7 @@ fn signatures(c: &mut Canvas, f: &Common, sig_x: f64, top: f64, sig_w: f64, tabl
         c.text(
             sig_x + sig_w - 23.0,
             y - 14.5,
-            text::SIGNED_ON,
+            sheet_words::SIGNED_ON,
             Face::Regular,
             6.0,
             grey(0.4),
@@ -2226,18 +2166,14 @@ fn footer(c: &mut Canvas, f: &Common, frame: Frame, foot_h: f64, caution: &str, 
         margin,
     } = frame;
     let foot_top = margin + foot_h;
-    c.claim("footer", left, margin, width, foot_h);
+    c.claim("footer", Rect::new(left, margin, width, foot_h));
     c.line(&[(left, foot_top), (right, foot_top)], 0.6, grey(0.0), None);
     let used = c.paragraph(
         "caution",
-        left,
-        foot_top - 1.5,
-        width,
-        10.0,
+        Rect::from_top(left, foot_top - 1.5, width, 10.0),
         caution,
         Face::Regular,
-        7.0,
-        5.5,
+        Shrink::new(7.0, 5.5),
     );
     let provenance = format!(
         "Generated by {} from {name} (SHA-256 {hash}). Plan solved by {}. \
@@ -2254,14 +2190,10 @@ fn footer(c: &mut Canvas, f: &Common, frame: Frame, foot_h: f64, caution: &str, 
     );
     c.paragraph(
         "provenance",
-        left,
-        foot_top - 3.0 - used,
-        width,
-        10.0,
+        Rect::from_top(left, foot_top - 3.0 - used, width, 10.0),
         &provenance,
         Face::Regular,
-        6.0,
-        5.0,
+        Shrink::new(6.0, 5.0),
     );
 }
 
@@ -2352,19 +2284,4 @@ pub fn sheet_source_hash(pdf: &[u8]) -> Result<Option<String>, String> {
         _ => return Ok(None),
     };
     Ok(subject.strip_prefix(HASH_PREFIX).map(str::to_string))
-}
-
-/// A PDF text string: UTF-16BE after a byte-order mark, else PDFDocEncoding
-/// (ASCII for the hex digits this module writes).
-pub(crate) fn text_string(bytes: &[u8]) -> String {
-    match bytes.strip_prefix(&[0xFE, 0xFF]) {
-        Some(utf16) => {
-            let units: Vec<u16> = utf16
-                .chunks_exact(2)
-                .map(|p| u16::from_be_bytes([p[0], p[1]]))
-                .collect();
-            String::from_utf16_lossy(&units)
-        }
-        None => String::from_utf8_lossy(bytes).to_string(),
-    }
 }

@@ -1,6 +1,8 @@
 //! How a sheet names its source: in its commands ("Regenerate with: lotsman
 //! sheet NAME") and in the notice of a plan printed as recorded.
 
+use super::draw::Face;
+use super::fonts::Fonts;
 use crate::plain::{is_unsafe_char, shell_word};
 use crate::source::Discrepancy;
 
@@ -18,8 +20,8 @@ pub(super) fn notice_of(discrepancy: &Discrepancy, file_name: &str, fields: usiz
 /// font cannot draw (or a control character) written as an unquoted `?`,
 /// the shell's wildcard for one character, so that a name in another
 /// script neither blocks the sheet nor breaks its commands.
-pub(super) fn printed_name(file_name: &str, font: &printpdf::ParsedFont) -> String {
-    let drawable = |ch: char| !is_unsafe_char(ch) && font.lookup_glyph_index(ch as u32).is_some();
+pub(super) fn printed_name(file_name: &str, fonts: &Fonts) -> String {
+    let drawable = |ch: char| !is_unsafe_char(ch) && fonts.has_glyph(Face::Regular, ch);
     if file_name.chars().all(drawable) {
         return shell_word(file_name);
     }

@@ -10,10 +10,13 @@
 //! running count there, the two figures `lotsman judge --inspected N
 //! --found K` takes.
 
-use super::canvas::{Canvas, Face, grey};
+use super::canvas::Canvas;
+use super::draw::{Face, grey};
+use super::geometry::Rect;
+use super::text::Shrink;
 use super::variables::{decision_row, field};
 use super::wording::variables as words;
-use super::{Common, Facts, given, text};
+use super::{Common, Facts, given, sheet_words};
 
 /// Height of the approval block, and the gap above it.
 const APPROVAL_H: f64 = 17.0;
@@ -44,9 +47,9 @@ pub(super) fn record_column(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64,
 /// The lot record: lot number, the count found, the decision, inspector
 /// and date, one row each.
 fn record_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, h: f64) {
-    c.claim("record", x, top - h, w, h);
-    c.rect_stroke(x, top - h, w, h, 0.5, grey(0.0));
-    c.heading(x + 2.0, top - 3.8, text::RECORD);
+    c.claim("record", Rect::new(x, top - h, w, h));
+    c.rect_stroke(Rect::new(x, top - h, w, h), 0.5, grey(0.0));
+    c.heading(x + 2.0, top - 3.8, sheet_words::RECORD);
     let (inner, end) = (x + 2.0, x + w - 2.0);
     let pitch = (h - RECORD_HEAD_H) / RECORD_ROWS as f64;
     // Each row's baseline sits a little above its foot.
@@ -71,37 +74,35 @@ fn counts_row(c: &mut Canvas, f: &Facts, x: f64, end: f64, y: f64, box_h: f64) {
     };
     let bottom = y - 1.2;
     if f.plan.sequential_lines().is_some() {
-        let bx = label(c, x, text::DECIDED_AT_UNIT);
-        c.rect_stroke(bx, bottom, 9.0, box_h, 0.5, grey(0.2));
-        let bx = label(c, bx + 11.0, text::RUNNING_COUNT);
-        c.rect_stroke(bx, bottom, 8.0, box_h, 0.5, grey(0.2));
+        let bx = label(c, x, sheet_words::DECIDED_AT_UNIT);
+        c.rect_stroke(Rect::new(bx, bottom, 9.0, box_h), 0.5, grey(0.2));
+        let bx = label(c, bx + 11.0, sheet_words::RUNNING_COUNT);
+        c.rect_stroke(Rect::new(bx, bottom, 8.0, box_h), 0.5, grey(0.2));
         if bx + 8.0 > end {
-            c.faults
-                .push("lot record: the count fields leave no room".to_string());
+            c.fault("lot record: the count fields leave no room".to_string());
         }
         return;
     }
     let stages = f.plan.stages().len();
     if stages == 1 {
-        let bx = label(c, x, &text::found(f.common.per_unit));
-        c.rect_stroke(bx, bottom, 12.0, box_h, 0.5, grey(0.2));
+        let bx = label(c, x, &sheet_words::found(f.common.per_unit));
+        c.rect_stroke(Rect::new(bx, bottom, 12.0, box_h), 0.5, grey(0.2));
         if bx + 12.0 > end {
-            c.faults
-                .push("lot record: the count field leaves no room".to_string());
+            c.fault("lot record: the count field leaves no room".to_string());
         }
         return;
     }
-    let start = label(c, x, text::FOUND_AT_STAGE);
+    let start = label(c, x, sheet_words::FOUND_AT_STAGE);
     let gap = 1.2;
     let box_w = ((end - start + gap) / stages as f64 - gap).min(9.0);
     if box_w < MIN_BOX_W {
-        c.faults.push(format!(
+        c.fault(format!(
             "lot record: {stages} stage boxes leave {box_w:.1} mm to write each count in"
         ));
     }
     for i in 0..stages {
         let bx = start + (box_w + gap) * i as f64;
-        c.rect_stroke(bx, bottom, box_w, box_h, 0.5, grey(0.2));
+        c.rect_stroke(Rect::new(bx, bottom, box_w, box_h), 0.5, grey(0.2));
         c.text(
             bx + 0.5,
             bottom + box_h - 1.7,
@@ -116,8 +117,8 @@ fn counts_row(c: &mut Canvas, f: &Facts, x: f64, end: f64, y: f64, box_h: f64) {
 /// The approval of the plan: who prepared it and who approved it, side by
 /// side, each with a line to sign and one to date.
 fn approval_block(c: &mut Canvas, f: &Common, x: f64, top: f64, w: f64, h: f64) {
-    c.claim("approval", x, top - h, w, h);
-    c.rect_stroke(x, top - h, w, h, 0.5, grey(0.0));
+    c.claim("approval", Rect::new(x, top - h, w, h));
+    c.rect_stroke(Rect::new(x, top - h, w, h), 0.5, grey(0.0));
     let half = w / 2.0;
     c.line(
         &[(x + half, top - 2.0), (x + half, top - h + 2.0)],
@@ -126,14 +127,20 @@ fn approval_block(c: &mut Canvas, f: &Common, x: f64, top: f64, w: f64, h: f64) 
         None,
     );
     let people = [
-        (text::PREPARED_BY, given(&f.source.prepared_by)),
-        (text::APPROVED_BY, given(&f.source.approved_by)),
+        (sheet_words::PREPARED_BY, given(&f.source.prepared_by)),
+        (sheet_words::APPROVED_BY, given(&f.source.approved_by)),
     ];
     for (i, (label, name)) in people.iter().enumerate() {
         let hx = x + half * i as f64 + 2.0;
         let hw = half - 4.0;
         c.text(hx, top - 3.5, label, Face::Bold, 7.0, grey(0.3));
-        c.paragraph(label, hx, top - 4.3, hw, 6.4, name, Face::Regular, 7.0, 5.5);
+        c.paragraph(
+            label,
+            Rect::from_top(hx, top - 4.3, hw, 6.4),
+            name,
+            Face::Regular,
+            Shrink::new(7.0, 5.5),
+        );
         let line_y = top - h + 4.2;
         let date_w = 10.0;
         c.line(
@@ -151,7 +158,7 @@ fn approval_block(c: &mut Canvas, f: &Common, x: f64, top: f64, w: f64, h: f64) 
         c.text(
             hx,
             line_y - 2.4,
-            text::SIGNATURE,
+            sheet_words::SIGNATURE,
             Face::Regular,
             6.0,
             grey(0.4),
@@ -159,7 +166,7 @@ fn approval_block(c: &mut Canvas, f: &Common, x: f64, top: f64, w: f64, h: f64) 
         c.text(
             hx + hw - date_w,
             line_y - 2.4,
-            text::SIGNED_ON,
+            sheet_words::SIGNED_ON,
             Face::Regular,
             6.0,
             grey(0.4),

@@ -6,8 +6,10 @@
 //! is screened) and, for a double plan, the AOQ chart beside the OC.
 
 use super::Common;
-use super::canvas::{Canvas, Face, grey};
+use super::canvas::Canvas;
 use super::chart::Mark;
+use super::draw::{Face, Font, grey};
+use super::geometry::Rect;
 use crate::design::{Protection, RectifyingPlan, RectifyingRequest};
 use crate::plan::acceptance_probability;
 use crate::report::format_significant;
@@ -26,7 +28,7 @@ pub(super) fn protection_table(
 ) {
     let right = left + width;
     let black = || grey(0.0);
-    c.claim("protection", left, top - h, width, h);
+    c.claim("protection", Rect::new(left, top - h, width, h));
     c.heading(
         left,
         top - 3.5,
@@ -39,7 +41,7 @@ pub(super) fn protection_table(
     let row_y = |i: usize| top - 8.5 - 5.0 * i as f64;
     let heads = [
         "Point",
-        super::wording::sheet::quality_head(f.per_unit),
+        super::sheet_words::quality_head(f.per_unit),
         "Agreed",
         "Achieved by this plan",
     ];
@@ -80,12 +82,13 @@ pub(super) fn protection_table(
         let w = cols[i + 1] - cols[i] - 2.0;
         c.cell(
             "protection table",
-            cols[i] + 1.0,
+            (cols[i] + 1.0, row_y(0)),
             w,
-            row_y(0),
             head,
-            Face::Bold,
-            7.5,
+            Font {
+                face: Face::Bold,
+                size: 7.5,
+            },
             black(),
         );
     }
@@ -100,12 +103,13 @@ pub(super) fn protection_table(
             let w = cols[j + 1] - cols[j] - 2.0;
             c.cell(
                 "protection table",
-                cols[j] + 1.0,
+                (cols[j] + 1.0, row_y(i + 1)),
                 w,
-                row_y(i + 1),
                 cell,
-                Face::Regular,
-                7.5,
+                Font {
+                    face: Face::Regular,
+                    size: 7.5,
+                },
                 black(),
             );
         }

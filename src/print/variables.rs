@@ -20,13 +20,16 @@
 //! paper. A larger sample is written on a separate readings log; the sheet
 //! says so and keeps the result lines.
 
-use super::canvas::{Canvas, Face, MM_PER_PT, grey, rgb};
+use super::canvas::Canvas;
 use super::chart::{self, Axes, LegendEntry, Plot, nice_ceiling};
+use super::draw::{Face, grey, rgb};
+use super::geometry::{MM_PER_PT, Rect};
+use super::text::Shrink;
 use super::wording::variables::{self as words, RuleLine};
 use super::{
     Common, Frame, GAP, MIN_CHART_H, PROCEDURE_SIZES, accept_colour, notice_block, plan_frame,
-    quality_tick, reject_colour, risk_marks, risk_table, signatures, steps_block, steps_height,
-    text, title_block,
+    quality_tick, reject_colour, risk_marks, risk_table, sheet_words, signatures, steps_block,
+    steps_height, title_block,
 };
 use crate::design::{SingleDesign, design_single};
 use crate::error::Error;
@@ -167,7 +170,7 @@ pub(super) fn layout(
     let room = results_top - results_h - GAP - band_bottom;
     let sig_h = room.min(SIGNATURES_H + 8.0);
     if room < SIGNATURES_H {
-        c.faults.push(format!(
+        c.fault(format!(
             "the decision rule and the results leave the signatures {room:.0} mm of the {SIGNATURES_H:.0} they need"
         ));
     }
@@ -190,8 +193,7 @@ pub(super) fn layout(
     let readings_h = readings_block(c, f, left, top, left_w, band_h);
     let chart_h = (band_h - readings_h - GAP).min(CHART_MAX_H);
     if chart_h < MIN_CHART_H - 1e-9 {
-        c.faults
-            .push("the page is too short for its blocks".to_string());
+        c.fault("the page is too short for its blocks".to_string());
     }
     oc_chart(
         c,
@@ -210,7 +212,13 @@ pub(super) fn layout(
 /// the provenance line with the judge command (three lines at 6 points).
 fn footer_height(c: &Canvas, caution: &str, width: f64) -> f64 {
     let caution_h = c
-        .fit(caution, Face::Regular, width, f64::INFINITY, 7.0, 7.0)
+        .fit(
+            caution,
+            Face::Regular,
+            width,
+            f64::INFINITY,
+            Shrink::fixed(7.0),
+        )
         .height;
     1.5 + caution_h + 1.5 + 3.0 * 6.0 * MM_PER_PT * 1.25 + 0.5
 }
@@ -238,7 +246,7 @@ fn plan_box(c: &mut Canvas, f: &Facts, left: f64, top: f64, width: f64) -> f64 {
     let small_h: f64 = small
         .iter()
         .map(|t| {
-            c.fit(t, Face::Regular, col_w, f64::INFINITY, 7.0, 7.0)
+            c.fit(t, Face::Regular, col_w, f64::INFINITY, Shrink::fixed(7.0))
                 .height
                 + 0.6
         })
@@ -260,28 +268,24 @@ fn plan_box(c: &mut Canvas, f: &Facts, left: f64, top: f64, width: f64) -> f64 {
     c.heading(x, top - 7.0, words::plan_heading(spec));
     let blue = rgb(0.05, 0.25, 0.55);
     if one_line {
-        c.text(x, top - 14.0, &n_line, Face::Bold, 18.0, blue.clone());
+        c.text(x, top - 14.0, &n_line, Face::Bold, 18.0, blue);
         c.text(x + n_w + 6.0, top - 14.0, &constant, Face::Bold, 14.0, blue);
     } else {
         for (line, y, size) in [(&n_line, top - 14.0, 18.0), (&constant, top - 20.5, 14.0)] {
             if c.width(line, Face::Bold, size) > col_w {
-                c.overflows.push(format!("plan box: '{line}'"));
+                c.overflow(format!("plan box: '{line}'"));
             }
-            c.text(x, y, line, Face::Bold, size, blue.clone());
+            c.text(x, y, line, Face::Bold, size, blue);
         }
     }
     let mut y = top - small_top;
     for t in &small {
         let used = c.paragraph(
             "plan box",
-            x,
-            y,
-            col_w,
-            y - (top - plan_h + 1.5),
+            Rect::from_top(x, y, col_w, y - (top - plan_h + 1.5)),
             t,
             Face::Regular,
-            7.0,
-            6.0,
+            Shrink::new(7.0, 6.0),
         );
         y -= used + 0.6;
     }
@@ -343,8 +347,7 @@ fn rule_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
         .find(|&s| widest(s) <= inner)
         .unwrap_or(FORMULA_SIZES[FORMULA_SIZES.len() - 1]);
     if widest(size) > inner {
-        c.overflows
-            .push("decision rule: a formula is wider than its block".to_string());
+        c.overflow("decision rule: a formula is wider than its block".to_string());
     }
     let side_by_side = |c: &Canvas, a: &str, b: &str| {
         c.formula_width(a, Face::Regular, size) + pair_gap + c.formula_width(b, Face::Regular, size)
@@ -356,8 +359,14 @@ fn rule_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
         .iter()
         .map(|l| match l {
             RuleLine::Note(t) => {
-                c.fit(t, Face::Regular, inner, f64::INFINITY, note_size, note_size)
-                    .height
+                c.fit(
+                    t,
+                    Face::Regular,
+                    inner,
+                    f64::INFINITY,
+                    Shrink::fixed(note_size),
+                )
+                .height
                     + 1.2
             }
             RuleLine::Pair(a, b) if !side_by_side(c, a, b) => 2.0 * lead,
@@ -365,8 +374,8 @@ fn rule_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
         })
         .collect();
     let h = 7.5 + heights.iter().sum::<f64>() + 1.0;
-    c.claim("decision rule", x, top - h, w, h);
-    c.rect_stroke(x, top - h, w, h, 0.8, rgb(0.05, 0.25, 0.55));
+    c.claim("decision rule", Rect::new(x, top - h, w, h));
+    c.rect_stroke(Rect::new(x, top - h, w, h), 0.8, rgb(0.05, 0.25, 0.55));
     c.heading(x + 2.0, top - 4.0, words::RULE_HEADING);
     c.text_right(
         x + w - 2.0,
@@ -398,14 +407,10 @@ fn rule_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
             RuleLine::Note(t) => {
                 c.paragraph(
                     "decision rule note",
-                    x + 2.0,
-                    y - 0.6,
-                    inner,
-                    lh + 0.5,
+                    Rect::from_top(x + 2.0, y - 0.6, inner, lh + 0.5),
                     t,
                     Face::Regular,
-                    note_size,
-                    note_size,
+                    Shrink::fixed(note_size),
                 );
             }
         }
@@ -426,8 +431,7 @@ pub(super) fn field(c: &mut Canvas, x: f64, x_end: f64, y: f64, label: &str, equ
     c.formula(x, y, &label, Face::Regular, size, grey(0.1));
     let start = x + c.formula_width(&label, Face::Regular, size) + 1.0;
     if x_end - start < 10.0 {
-        c.faults
-            .push(format!("results: '{label}' leaves no room to write"));
+        c.fault(format!("results: '{label}' leaves no room to write"));
     }
     c.line(&[(start, y - 0.8), (x_end, y - 0.8)], 0.4, grey(0.35), None);
 }
@@ -437,7 +441,7 @@ pub(super) fn field(c: &mut Canvas, x: f64, x_end: f64, y: f64, label: &str, equ
 fn results_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64) -> f64 {
     let rows = words::result_rows(&f.plan);
     let h = 5.5 + RESULT_PITCH * (rows.len() + 2) as f64;
-    c.claim("results", x, top - h, w, h);
+    c.claim("results", Rect::new(x, top - h, w, h));
     c.heading(x, top - 3.5, words::RESULTS_HEADING);
     let row_y = |i: usize| top - 5.5 - RESULT_PITCH * (i as f64 + 1.0) + 1.5;
     let gutter = 3.0;
@@ -465,7 +469,7 @@ pub(super) fn decision_row(c: &mut Canvas, x: f64, y: f64) {
         (words::ACCEPT_BOX, accept_colour()),
         (words::REJECT_BOX, reject_colour()),
     ] {
-        c.rect_stroke(bx, y - 0.8, 3.6, 3.6, 0.6, color.clone());
+        c.rect_stroke(Rect::new(bx, y - 0.8, 3.6, 3.6), 0.6, color);
         c.text(bx + 5.0, y, label, Face::Bold, 7.5, color);
         bx += 5.0 + c.width(label, Face::Bold, 7.5) + 6.0;
     }
@@ -499,27 +503,29 @@ fn readings_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, band_h: f
             words::readings_displaced(n)
         };
         let note_h = c
-            .fit(&note, Face::Regular, w - 4.0, f64::INFINITY, 7.5, 7.5)
+            .fit(
+                &note,
+                Face::Regular,
+                w - 4.0,
+                f64::INFINITY,
+                Shrink::fixed(7.5),
+            )
             .height;
         let h = 6.0 + note_h + 3.0;
-        c.claim("readings", x, top - h, w, h);
-        c.rect_fill(x, top - h, w, h - 5.5, rgb(0.97, 0.95, 0.88));
+        c.claim("readings", Rect::new(x, top - h, w, h));
+        c.rect_fill(Rect::new(x, top - h, w, h - 5.5), rgb(0.97, 0.95, 0.88));
         c.paragraph(
             "readings note",
-            x + 2.0,
-            top - 7.0,
-            w - 4.0,
-            note_h + 0.5,
+            Rect::from_top(x + 2.0, top - 7.0, w - 4.0, note_h + 0.5),
             &note,
             Face::Regular,
-            7.5,
-            7.5,
+            Shrink::fixed(7.5),
         );
         return h;
     }
     let (cols, rows, pitch) = readings_grid(c, n, band_h);
     let h = READINGS_HEAD_H + rows as f64 * pitch;
-    c.claim("readings", x, top - h, w, h);
+    c.claim("readings", Rect::new(x, top - h, w, h));
     let gutter = 3.0;
     let group_w = ((w - gutter * (cols as f64 - 1.0)) / cols as f64).min(40.0);
     let number_w = 8.0;
@@ -551,7 +557,10 @@ fn readings_block(c: &mut Canvas, f: &Facts, x: f64, top: f64, w: f64, band_h: f
             }
             let row_top = first - pitch * i as f64;
             if i % 2 == 1 {
-                c.rect_fill(gx, row_top - pitch, group_w, pitch, rgb(0.92, 0.94, 0.97));
+                c.rect_fill(
+                    Rect::new(gx, row_top - pitch, group_w, pitch),
+                    rgb(0.92, 0.94, 0.97),
+                );
             }
             c.text_right(
                 gx + number_w - 1.5,
@@ -613,7 +622,7 @@ fn readings_grid(c: &mut Canvas, n: u64, band_h: f64) -> (u64, u64, f64) {
     }
     let pitch = (room(MIN_CHART_H) / rows as f64).min(COMFORT_PITCH);
     if pitch < MIN_PITCH - 1e-9 {
-        c.faults.push(format!(
+        c.fault(format!(
             "the readings table ({n} rows) needs {:.0} mm and the page leaves {:.0} mm",
             rows as f64 * MIN_PITCH + READINGS_HEAD_H,
             room(MIN_CHART_H) + READINGS_HEAD_H
@@ -722,9 +731,9 @@ fn oc_chart(
         "OC chart",
         &plot,
         &Axes {
-            title: text::oc_title(c, w),
-            x_label: text::quality_axis(false),
-            y_label: text::OC_AXIS,
+            title: sheet_words::oc_title(c, w),
+            x_label: sheet_words::quality_axis(false),
+            y_label: sheet_words::OC_AXIS,
             x_max,
             y_max,
             x_tick: &axis,
@@ -742,7 +751,7 @@ fn oc_chart(
             c,
             &plot,
             &[(0.0, 0.0), (lowest, 0.0), (lowest, y_max), (0.0, y_max)],
-            unreachable.clone(),
+            unreachable,
         );
     }
     let attributes_colour = rgb(0.62, 0.38, 0.08);
@@ -758,7 +767,7 @@ fn oc_chart(
         });
         entries.push(LegendEntry {
             label: words::CENTRED_CURVE.to_string(),
-            color: centred_colour.clone(),
+            color: centred_colour,
             thickness: 1.3,
             dash: Some(0.9),
             block: false,
@@ -775,7 +784,7 @@ fn oc_chart(
     if let Some(a) = &f.attributes {
         entries.push(LegendEntry {
             label: words::attributes_curve(a),
-            color: attributes_colour.clone(),
+            color: attributes_colour,
             thickness: 0.9,
             dash: Some(2.2),
             block: false,

@@ -36,9 +36,14 @@ mod ramp;
 
 use sha2::{Digest, Sha256};
 
-use super::canvas::{Canvas, Face, Page, Region, grey};
+use super::Paper;
+use super::canvas::Canvas;
+use super::draw::{Face, grey};
+use super::fonts::Fonts;
+use super::geometry::{Rect, Region};
+use super::pdf::{Document, PdfPage};
+use super::text::Shrink;
 use super::wording::map as text;
-use super::{Paper, embedded_fonts, save_page};
 use crate::design::{Scheme, TradeoffGrid};
 use crate::error::{Error, InputError};
 use crate::model::ModelKind;
@@ -167,20 +172,16 @@ pub fn render_tradeoff_map(
             .into());
         }
     }
-    let (regular, bold) = embedded_fonts()?;
+    let fonts = Fonts::embedded()?;
     // Landscape: the paper turned.
     let (ph, pw) = paper.size();
     let hash = inputs_hash(grid, title, command, paper);
-    let mut c = Canvas::new(&regular, &bold);
+    let mut page = PdfPage::new();
+    let mut c = Canvas::new(&mut page, &fonts);
     let panels = layout(&mut c, grid, title, command, &hash, pw, ph);
-    let Page {
-        ops,
-        regions,
-        overflows,
-        faults,
-    } = c.finish(pw, ph);
-    if !overflows.is_empty() || !faults.is_empty() {
-        let all: Vec<String> = overflows.into_iter().chain(faults).collect();
+    let laid = c.finish(pw, ph);
+    if !laid.is_clean() {
+        let all: Vec<String> = laid.overflows.into_iter().chain(laid.faults).collect();
         return Err(InputError::Inconsistent(format!(
             "the trade-off map cannot be laid out: {}",
             all.join("; ")
@@ -188,7 +189,14 @@ pub fn render_tradeoff_map(
         .into());
     }
     let subject = format!("lotsman trade-off map, inputs SHA-256 {hash}");
-    let pdf = save_page(title, &subject, &hash, &[], &regular, &bold, pw, ph, ops)?;
+    let doc = Document {
+        title,
+        subject: &subject,
+        hash: &hash,
+        extra: &[],
+    };
+    let pdf = super::pdf::save(&doc, &fonts, (pw, ph), page.into_ops())?;
+    let regions = laid.regions;
     Ok(TradeoffMap {
         pdf,
         inputs_sha256: hash,
@@ -284,7 +292,7 @@ fn layout(
             panel::draw(
                 c,
                 name,
-                (x, panels_bottom, panel_w, panels_top - panels_bottom),
+                Rect::new(x, panels_bottom, panel_w, panels_top - panels_bottom),
                 &Panel {
                     quantity,
                     title: text::panel_title(quantity, &process),
@@ -329,34 +337,34 @@ fn title_block(
     let rows = fields.len().div_ceil(2);
     let row_h = 8.0;
     let block_h = 6.0 + rows as f64 * row_h + 1.0;
-    c.claim("title block", left, top - block_h, width, block_h);
+    c.claim(
+        "title block",
+        Rect::new(left, top - block_h, width, block_h),
+    );
     c.text(left, top - 3.5, text::KICKER, Face::Bold, 7.5, grey(0.35));
     if c.width(text::KICKER, Face::Bold, 7.5) > width {
-        c.faults.push("the kicker is wider than the page".into());
+        c.fault("the kicker is wider than the page".into());
     }
     let fields_w = 150.0;
     let text_w = width - fields_w - 6.0;
     let title_used = c.paragraph(
         "title",
-        left,
-        top - 5.5,
-        text_w,
-        9.0,
+        Rect::from_top(left, top - 5.5, text_w, 9.0),
         title,
         Face::Bold,
-        17.0,
-        10.0,
+        Shrink::new(17.0, 10.0),
     );
     c.paragraph(
         "how to read",
-        left,
-        top - 7.0 - title_used,
-        text_w,
-        block_h - 9.0 - title_used,
+        Rect::from_top(
+            left,
+            top - 7.0 - title_used,
+            text_w,
+            block_h - 9.0 - title_used,
+        ),
         text::how_to_read(r.scheme()),
         Face::Regular,
-        8.0,
-        6.5,
+        Shrink::new(8.0, 6.5),
     );
     let fx = left + width - fields_w;
     let col_w = fields_w / 2.0;
@@ -365,9 +373,15 @@ fn title_block(
         let x = fx + col as f64 * col_w;
         let y = top - 6.0 - row as f64 * row_h;
         c.text(x, y - 2.4, label, Face::Bold, 6.5, grey(0.35));
-        let fit = c.fit(value, Face::Regular, col_w - 3.0, 4.0, 9.0, 6.5);
+        let fit = c.fit(
+            value,
+            Face::Regular,
+            col_w - 3.0,
+            4.0,
+            Shrink::new(9.0, 6.5),
+        );
         if !fit.fits {
-            c.overflows.push(format!("{label}: '{value}'"));
+            c.overflow(format!("{label}: '{value}'"));
         }
         c.text(x, y - 6.2, value, Face::Regular, fit.size, grey(0.0));
     }
@@ -424,7 +438,7 @@ fn key(
             x = 0.0;
         }
         if w > width {
-            c.overflows.push(format!("key: '{label}'"));
+            c.overflow(format!("key: '{label}'"));
         }
         if let Some(line) = lines.last_mut() {
             line.push((x, k));
@@ -432,7 +446,7 @@ fn key(
         x += w + 6.0;
     }
     let h = KEY_PITCH * lines.len() as f64;
-    c.claim("key", left, bottom, width, h);
+    c.claim("key", Rect::new(left, bottom, width, h));
     for (row, line) in lines.iter().enumerate() {
         let base = bottom + h - KEY_PITCH * (row as f64 + 1.0) + 1.2;
         for &(at, k) in line {
@@ -459,30 +473,22 @@ fn key(
 /// cautions, and the provenance.
 fn footer(c: &mut Canvas, hash: &str, command: Option<&str>, left: f64, width: f64) {
     let top = MARGIN + FOOT_H;
-    c.claim("footer", left, MARGIN, width, FOOT_H);
+    c.claim("footer", Rect::new(left, MARGIN, width, FOOT_H));
     c.line(&[(left, top), (left + width, top)], 0.6, grey(0.0), None);
     let cautions = format!("{} {}", text::NOT_A_PLAN, words::CAUTION);
     let used = c.paragraph(
         "cautions",
-        left,
-        top - 1.5,
-        width,
-        9.0,
+        Rect::from_top(left, top - 1.5, width, 9.0),
         &cautions,
         Face::Regular,
-        7.5,
-        6.0,
+        Shrink::new(7.5, 6.0),
     );
     let provenance = text::provenance(&tool_version(), hash, command);
     c.paragraph(
         "provenance",
-        left,
-        top - 2.5 - used,
-        width,
-        FOOT_H - 3.0 - used,
+        Rect::from_top(left, top - 2.5 - used, width, FOOT_H - 3.0 - used),
         &provenance,
         Face::Regular,
-        6.5,
-        5.0,
+        Shrink::new(6.5, 5.0),
     );
 }

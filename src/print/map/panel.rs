@@ -5,13 +5,14 @@
 
 use std::collections::BTreeMap;
 
-use printpdf::Color;
-
 use super::contour::{Lattice, Path};
 use super::field::{Field, Gap, LogScale, MapQuantity, blocks, levels, tiles, value_label};
 use super::{ContourLabel, MapContour, MapPanel, ramp};
-use crate::print::canvas::{Canvas, Face, MM_PER_PT, Region, grey};
-use crate::print::chart::{next_step, nice_step, segment_hits, tick_label};
+use crate::print::canvas::Canvas;
+use crate::print::chart::{next_step, nice_step, tick_label};
+use crate::print::draw::{Colour as Color, Face, grey};
+use crate::print::geometry::{Corners, MM_PER_PT, Rect, Region, segment_hits};
+use crate::print::text::Shrink;
 use crate::print::wording::map as text;
 
 /// Type sizes, points: large enough to read across a meeting room.
@@ -62,9 +63,6 @@ const FRACTIONS: [f64; 9] = [0.5, 0.38, 0.62, 0.26, 0.74, 0.15, 0.85, 0.07, 0.93
 /// Simplification tolerance of the drawn lines, mm: far below the width of
 /// the line.
 const SIMPLIFY: f64 = 0.05;
-
-/// A rectangle on the page, `(x0, y0, x1, y1)`.
-type Rect = (f64, f64, f64, f64);
 
 /// What a panel shows.
 pub struct Panel<'a> {
@@ -204,7 +202,7 @@ fn hatch_direction(g: Gap) -> Option<f64> {
 
 /// Hatching lines at 45 degrees over the rectangle `r`, rising
 /// (`dir > 0`) or falling, on a lattice fixed to the rectangle's corner.
-fn hatch_lines(r: Rect, dir: f64) -> Vec<Path> {
+fn hatch_lines(r: Corners, dir: f64) -> Vec<Path> {
     let (x0, y0, x1, y1) = r;
     let h = y1 - y0;
     let count = ((x1 - x0 + h) / HATCH).ceil() as usize + 1;
@@ -221,13 +219,13 @@ fn hatch_lines(r: Rect, dir: f64) -> Vec<Path> {
 }
 
 /// A sample of a reason's look in the box `r`, for the key.
-pub fn gap_swatch(c: &mut Canvas, g: Gap, r: Rect) {
+pub fn gap_swatch(c: &mut Canvas, g: Gap, r: Corners) {
     c.fill_rects(&[r], gap_fill(g));
     if let Some(dir) = hatch_direction(g) {
         let lines = hatch_lines(r, dir);
         c.clipped(&[r], |c| c.polylines(&lines, 0.5, grey(0.4)));
     }
-    c.rect_stroke(r.0, r.1, r.2 - r.0, r.3 - r.1, 0.3, grey(0.5));
+    c.rect_stroke(Rect::new(r.0, r.1, r.2 - r.0, r.3 - r.1), 0.3, grey(0.5));
 }
 
 /// A sample of a contour line from `(x, y)`, `w` mm long, for the key.
@@ -244,8 +242,9 @@ fn contour_strokes(c: &mut Canvas, paths: &[Path]) {
 
 /// Draws panel `p` in the box `(x, y, w, h)` (mm, bottom-left corner),
 /// claimed as `name`, and returns what it placed.
-pub fn draw(c: &mut Canvas, name: &str, (x, y, w, h): Rect, p: &Panel) -> MapPanel {
-    c.claim(name, x, y, w, h);
+pub fn draw(c: &mut Canvas, name: &str, area: Rect, p: &Panel) -> MapPanel {
+    let (x, y, w, h) = (area.x, area.y, area.w, area.h);
+    c.claim(name, area);
     let range = p.field.range();
     let scale = range.map(|(lo, hi)| LogScale::new(lo, hi));
     let levels = range.map_or_else(Vec::new, |(lo, hi)| levels(lo, hi));
@@ -277,8 +276,7 @@ pub fn draw(c: &mut Canvas, name: &str, (x, y, w, h): Rect, p: &Panel) -> MapPan
         p1: right,
     };
     if right - left < 30.0 || top - bottom < 30.0 {
-        c.faults
-            .push(format!("{name}: the plot has no room (under 30 mm)"));
+        c.fault(format!("{name}: the plot has no room (under 30 mm)"));
     }
     cells(c, p, &xs, &ys, &col_edges, &row_edges, scale);
     let (lattice_xs, lattice_ys) = (bordered(p.rql, &col_edges), bordered(p.aql, &row_edges));
@@ -328,7 +326,7 @@ pub fn draw(c: &mut Canvas, name: &str, (x, y, w, h): Rect, p: &Panel) -> MapPan
             (cx - tw / 2.0 - 2.0, cy - 3.0, cx + tw / 2.0 + 2.0, cy + 3.0),
         );
     }
-    axes(c, name, p, &xs, &ys, &y_ticks, (x, y, w, h));
+    axes(c, name, p, &xs, &ys, &y_ticks, area);
     colour_bar(
         c,
         p.quantity,
@@ -401,7 +399,7 @@ fn cells(
             Err(g) => Paint::Gap(g),
         }
     };
-    let mut groups: BTreeMap<Paint, Vec<Rect>> = BTreeMap::new();
+    let mut groups: BTreeMap<Paint, Vec<Corners>> = BTreeMap::new();
     for t in tiles(row_blocks.len(), col_blocks.len(), paint) {
         let (x0, x1) = (
             xs.page(col_edges[col_blocks[t.j0].0]),
@@ -446,13 +444,13 @@ fn place_labels(
     levels: &[f64],
     on_page: &[Vec<Path>],
     drawn: &[Vec<Path>],
-    (left, bottom, right, top): Rect,
-) -> Vec<Vec<Rect>> {
-    let bounds: Vec<Vec<Rect>> = drawn
+    (left, bottom, right, top): Corners,
+) -> Vec<Vec<Corners>> {
+    let bounds: Vec<Vec<Corners>> = drawn
         .iter()
         .map(|paths| paths.iter().map(|p| bounding_box(p)).collect())
         .collect();
-    let crossed_by_another = |r: Rect, level: usize, path: usize| {
+    let crossed_by_another = |r: Corners, level: usize, path: usize| {
         drawn.iter().enumerate().any(|(li, paths)| {
             paths.iter().enumerate().any(|(k, pts)| {
                 let b = bounds[li][k];
@@ -465,7 +463,7 @@ fn place_labels(
             })
         })
     };
-    let mut placed: Vec<Rect> = Vec::new();
+    let mut placed: Vec<Corners> = Vec::new();
     let mut out = Vec::with_capacity(levels.len());
     let bh = DIGIT_HEIGHT * LABEL * MM_PER_PT + 2.0 * PAD_Y;
     for (li, &level) in levels.iter().enumerate() {
@@ -515,12 +513,12 @@ fn place_labels(
 
 /// A contour label: its value in bold on a white box that interrupts the
 /// line.
-fn draw_label(c: &mut Canvas, text: &str, r: Rect) {
+fn draw_label(c: &mut Canvas, text: &str, r: Corners) {
     draw_box_text(c, text, Face::Bold, LABEL, r);
 }
 
 /// `text` centred in a white box `r`.
-fn draw_box_text(c: &mut Canvas, text: &str, face: Face, size: f64, r: Rect) {
+fn draw_box_text(c: &mut Canvas, text: &str, face: Face, size: f64, r: Corners) {
     c.fill_rects(&[r], grey(1.0));
     let tw = c.width(text, face, size);
     let baseline = (r.1 + r.3) / 2.0 - DIGIT_HEIGHT * size * MM_PER_PT / 2.0;
@@ -535,7 +533,7 @@ fn draw_box_text(c: &mut Canvas, text: &str, face: Face, size: f64, r: Rect) {
 }
 
 /// The smallest rectangle holding `path`.
-fn bounding_box(path: &[(f64, f64)]) -> Rect {
+fn bounding_box(path: &[(f64, f64)]) -> Corners {
     path.iter().fold(
         (
             f64::INFINITY,
@@ -621,8 +619,9 @@ fn axes(
     xs: &AxisMap,
     ys: &AxisMap,
     y_ticks: &[(f64, String)],
-    (x, y, w, h): Rect,
+    area: Rect,
 ) {
+    let (x, y, w, h) = (area.x, area.y, area.w, area.h);
     let (left, bottom, right, top) = (xs.p0, ys.p0, xs.p1, ys.p1);
     let x_ticks = ticks(c, xs.lo, xs.hi, right - left, p.per_unit, true);
     let mut marks: Vec<Path> = Vec::new();
@@ -652,7 +651,11 @@ fn axes(
         );
     }
     c.polylines(&marks, 0.6, grey(0.0));
-    c.rect_stroke(left, bottom, right - left, top - bottom, 0.7, grey(0.0));
+    c.rect_stroke(
+        Rect::new(left, bottom, right - left, top - bottom),
+        0.7,
+        grey(0.0),
+    );
     let x_label = text::rql_axis(p.per_unit);
     let xw = c.width(x_label, Face::Regular, AXIS);
     c.text(
@@ -664,20 +667,25 @@ fn axes(
         grey(0.0),
     );
     if xw > w {
-        c.faults
-            .push(format!("{name}: '{x_label}' is wider than the panel"));
+        c.fault(format!("{name}: '{x_label}' is wider than the panel"));
     }
     let y_label = text::aql_axis(p.per_unit);
     c.text(x, top + 2.6, y_label, Face::Regular, AXIS, grey(0.0));
     let bar_title_x = right + BAR_GAP;
     if x + c.width(y_label, Face::Regular, AXIS) + 3.0 > bar_title_x {
-        c.faults.push(format!(
+        c.fault(format!(
             "{name}: '{y_label}' runs into the colour bar's title"
         ));
     }
-    let fit = c.fit(&p.title, Face::Bold, w, TITLE * MM_PER_PT * 1.3, TITLE, 7.5);
+    let fit = c.fit(
+        &p.title,
+        Face::Bold,
+        w,
+        TITLE * MM_PER_PT * 1.3,
+        Shrink::new(TITLE, 7.5),
+    );
     if !fit.fits {
-        c.overflows.push(format!("{name}: '{}'", p.title));
+        c.overflow(format!("{name}: '{}'", p.title));
     }
     c.text(x, y + h - 4.0, &p.title, Face::Bold, fit.size, grey(0.0));
 }
@@ -764,7 +772,7 @@ fn colour_bar(
         })
         .collect();
     contour_strokes(c, &marks);
-    c.rect_stroke(bx, bottom, BAR_W, span, 0.5, grey(0.0));
+    c.rect_stroke(Rect::new(bx, bottom, BAR_W, span), 0.5, grey(0.0));
     for (py, label, face, size) in labels {
         c.text(
             bx + BAR_W + TICK_LEN + 0.8,
@@ -783,9 +791,10 @@ mod tests {
 
     /// Places the labels of `paths` (one path per level, levels 10, 20,
     /// ...) on a plot from (0, 0) to (200, 100) mm.
-    fn labels_of(paths: &[Path]) -> Vec<Vec<Rect>> {
-        let (regular, bold) = crate::print::embedded_fonts().unwrap();
-        let c = Canvas::new(&regular, &bold);
+    fn labels_of(paths: &[Path]) -> Vec<Vec<Corners>> {
+        let fonts = crate::print::fonts::Fonts::embedded().unwrap();
+        let mut page = crate::print::draw::Recorder::default();
+        let c = Canvas::new(&mut page, &fonts);
         let levels: Vec<f64> = (1..=paths.len()).map(|k| 10.0 * k as f64).collect();
         let per_level: Vec<Vec<Path>> = paths.iter().map(|p| vec![p.clone()]).collect();
         place_labels(
@@ -797,7 +806,7 @@ mod tests {
         )
     }
 
-    fn gap_between(a: Rect, b: Rect) -> f64 {
+    fn gap_between(a: Corners, b: Corners) -> f64 {
         let dx = (b.0 - a.2).max(a.0 - b.2).max(0.0);
         let dy = (b.1 - a.3).max(a.1 - b.3).max(0.0);
         dx.max(dy)

@@ -8,9 +8,7 @@
 //! OKLab and its conversion to sRGB: B. Ottosson, "A perceptual color space
 //! for image processing" (2020), the matrices as published there.
 
-use printpdf::Color;
-
-use crate::print::canvas::rgb;
+use crate::print::draw::{Colour, rgb};
 
 /// The number of colours the ramp is cut into: steps of under 1% of the
 /// ramp, finer than the eye separates on a projector, coarse enough that
@@ -26,7 +24,7 @@ const HUE_LIGHT: f64 = 95.0;
 const HUE_DARK: f64 = 262.0;
 
 /// The colour of step `k` of [`STEPS`].
-pub fn colour(k: usize) -> Color {
+pub fn colour(k: usize) -> Colour {
     let (r, g, b) = srgb(k as f64 / (STEPS - 1) as f64);
     rgb(r as f32, g as f32, b as f32)
 }

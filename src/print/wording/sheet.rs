@@ -71,7 +71,7 @@ pub const OC_TITLE_SHORT: &str = "OC curve";
 
 /// The OC chart's title, short when the long one is wider than `w` mm.
 pub fn oc_title(c: &crate::print::canvas::Canvas, w: f64) -> &'static str {
-    if c.width(OC_TITLE, crate::print::canvas::Face::Bold, 8.0) <= w {
+    if c.width(OC_TITLE, crate::print::draw::Face::Bold, 8.0) <= w {
         OC_TITLE
     } else {
         OC_TITLE_SHORT
