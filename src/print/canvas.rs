@@ -5,7 +5,7 @@
 //! overflowing, overlapping or missing text ([`Canvas::finish`]).
 //!
 //! Typesetting (wrapping, fitting, paragraphs, table cells, formulas) is
-//! in [`super::text`].
+//! in `print/text.rs`.
 
 use super::draw::{Colour, Draw, Face, Font, Stroke, grey};
 use super::fonts::Fonts;

@@ -4,7 +4,7 @@
 //! A sheet's metadata can be written by anyone, so the source hash in its
 //! subject proves nothing by itself: a hand-made PDF can carry it, and so
 //! can another plan's sheet with its subject swapped. Sheets are
-//! byte-reproducible (see the module docs of [`crate::print`]), so the
+//! byte-reproducible (the document ID comes from the source's hash), so the
 //! check prints the sheet again from the source, with the options the
 //! sheet was printed with, and compares the bytes. The options come from
 //! the PDF itself: the paper from its page size, the source's file name
@@ -19,16 +19,16 @@
 
 use std::path::Path;
 
-use super::{HASH_PREFIX, Paper, audited_sheet, source_hash, text_string};
+use super::geometry::MM_PER_PT;
+use super::metadata::{HASH_PREFIX, SOURCE_NAME_KEY, source_hash};
+use super::page::Paper;
+use super::pdf::text_string;
+use super::sheet::audited_sheet;
 use crate::source::{Audited, PlanSource, tool_version};
 
 /// The largest sheet read by [`check_sheet`] (16 MiB; a sheet is about
 /// 100 kB), refused by size first.
 pub const MAX_SHEET_BYTES: u64 = 16 << 20;
-
-/// The key of the sheet's document information that holds the file name
-/// of the source it was printed from, as its footer prints it.
-pub const SOURCE_NAME_KEY: &str = "LotsmanSourceName";
 
 /// How a PDF compares with the sheet its source prints.
 #[derive(Clone, Debug, PartialEq, Eq)]
@@ -200,10 +200,7 @@ fn first_page_paper(doc: &lopdf::Document) -> Option<Paper> {
     let [x0, y0, x1, y1] = corners.as_slice() else {
         return None;
     };
-    let (w, h) = (
-        (x1 - x0) * super::geometry::MM_PER_PT,
-        (y1 - y0) * super::geometry::MM_PER_PT,
-    );
+    let (w, h) = ((x1 - x0) * MM_PER_PT, (y1 - y0) * MM_PER_PT);
     [Paper::A4, Paper::Letter].into_iter().find(|p| {
         let (pw, ph) = p.size();
         // Half a point, in millimetres.

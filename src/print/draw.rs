@@ -1,10 +1,10 @@
 //! The drawing backend: the few operations a page or a chart is made of,
 //! apart from where they go. Layout (blocks, charts, the map's panels)
-//! decides positions and sizes through a [`Canvas`](super::canvas::Canvas),
+//! decides positions and sizes through a canvas (`print/canvas.rs`),
 //! which measures text with the embedded fonts' metrics (the same for
 //! every backend) and hands each operation to a [`Draw`]: the PDF backend
-//! ([`super::pdf`]) writes it as PDF operators, the SVG backend
-//! ([`super::svg`]) as SVG elements.
+//! (`print/pdf.rs`) writes it as PDF operators, the SVG backend
+//! (`print/svg.rs`) as SVG elements.
 //!
 //! Positions are millimetres from the bottom-left corner, y upwards; type
 //! sizes and line widths are points.
@@ -155,6 +155,20 @@ pub enum Call {
     BeginClip(Vec<Corners>),
     /// [`Draw::end_clip`].
     EndClip,
+}
+
+#[cfg(test)]
+impl Recorder {
+    /// The texts drawn, in order.
+    pub fn texts(&self) -> Vec<&str> {
+        self.calls
+            .iter()
+            .filter_map(|c| match c {
+                Call::Text { text, .. } => Some(text.as_str()),
+                _ => None,
+            })
+            .collect()
+    }
 }
 
 #[cfg(test)]

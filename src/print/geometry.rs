@@ -47,14 +47,10 @@ impl Rect {
         }
     }
 
-    /// The rectangle between two corners.
-    pub fn from_corners((x0, y0, x1, y1): Corners) -> Self {
-        Rect {
-            x: x0,
-            y: y0,
-            w: x1 - x0,
-            h: y1 - y0,
-        }
+    /// A rectangle of no height along `top`, `w` wide from `x`: the top
+    /// edge of a block that takes the height it needs.
+    pub fn top_edge(x: f64, top: f64, w: f64) -> Self {
+        Rect::from_top(x, top, w, 0.0)
     }
 
     /// The top edge.
@@ -67,52 +63,31 @@ impl Rect {
         self.x + self.w
     }
 
-    /// The corners `(x0, y0, x1, y1)`.
-    pub fn corners(&self) -> Corners {
-        (self.x, self.y, self.x + self.w, self.y + self.h)
-    }
-
-    /// The band `h` tall along the top, and the rest below it.
-    pub fn split_top(&self, h: f64) -> (Rect, Rect) {
-        let top = self.top();
-        (
-            Rect::from_top(self.x, top, self.w, h),
-            Rect::new(self.x, self.y, self.w, self.h - h),
-        )
-    }
-
-    /// The band `h` tall along the bottom, and the rest above it.
-    pub fn split_bottom(&self, h: f64) -> (Rect, Rect) {
-        (
-            Rect::new(self.x, self.y, self.w, h),
-            Rect::new(self.x, self.y + h, self.w, self.h - h),
-        )
-    }
-
-    /// The column `w` wide on the left, and the rest right of it.
-    pub fn split_left(&self, w: f64) -> (Rect, Rect) {
+    /// The column `w` wide on the left, and the rest right of it after a
+    /// `gap`.
+    pub fn split_left(&self, w: f64, gap: f64) -> (Rect, Rect) {
         (
             Rect::new(self.x, self.y, w, self.h),
-            Rect::new(self.x + w, self.y, self.w - w, self.h),
+            Rect::new(self.x + w + gap, self.y, self.w - w - gap, self.h),
         )
     }
 
-    /// The column `w` wide on the right, and the rest left of it.
-    pub fn split_right(&self, w: f64) -> (Rect, Rect) {
+    /// The column `w` wide on the right, and the rest left of it before a
+    /// `gap`.
+    pub fn split_right(&self, w: f64, gap: f64) -> (Rect, Rect) {
         (
             Rect::new(self.right() - w, self.y, w, self.h),
-            Rect::new(self.x, self.y, self.w - w, self.h),
+            Rect::new(self.x, self.y, self.w - w - gap, self.h),
         )
     }
 
-    /// [`Rect::split_top`] by a fraction of the height.
-    pub fn split_top_fraction(&self, fraction: f64) -> (Rect, Rect) {
-        self.split_top(self.h * fraction)
-    }
-
-    /// [`Rect::split_left`] by a fraction of the width.
-    pub fn split_left_fraction(&self, fraction: f64) -> (Rect, Rect) {
-        self.split_left(self.w * fraction)
+    /// The band `h` tall along the bottom, and the rest above it after a
+    /// `gap`.
+    pub fn split_bottom(&self, h: f64, gap: f64) -> (Rect, Rect) {
+        (
+            Rect::new(self.x, self.y, self.w, h),
+            Rect::new(self.x, self.y + h + gap, self.w, self.h - h - gap),
+        )
     }
 
     /// The rectangle `by` mm inside this one on every side.
@@ -123,19 +98,6 @@ impl Rect {
             self.w - 2.0 * by,
             self.h - 2.0 * by,
         )
-    }
-
-    /// The same rectangle, `h` tall, keeping its top edge.
-    pub fn with_height(&self, h: f64) -> Rect {
-        Rect::from_top(self.x, self.top(), self.w, h)
-    }
-
-    /// The part of this rectangle below `gap` mm under `other`'s bottom
-    /// edge: what a layout working down the page has left after placing
-    /// `other` at its top.
-    pub fn below(&self, other: &Rect, gap: f64) -> Rect {
-        let top = other.y - gap;
-        Rect::new(self.x, self.y, self.w, top - self.y)
     }
 }
 
@@ -217,32 +179,26 @@ mod tests {
     use super::*;
 
     #[test]
-    fn splits_share_the_edge_and_keep_the_whole() {
+    fn splits_share_the_whole_between_the_parts_and_the_gap() {
         let r = Rect::new(10.0, 20.0, 100.0, 50.0);
-        let (top, rest) = r.split_top(15.0);
-        assert_eq!(top, Rect::new(10.0, 55.0, 100.0, 15.0));
-        assert_eq!(rest, Rect::new(10.0, 20.0, 100.0, 35.0));
-        let (left, rest) = r.split_left_fraction(0.25);
+        let (left, rest) = r.split_left(25.0, 5.0);
         assert_eq!(left, Rect::new(10.0, 20.0, 25.0, 50.0));
-        assert_eq!(rest.x, left.right());
-        assert_eq!(rest.w + left.w, r.w);
-        let (right, rest) = r.split_right(30.0);
-        assert_eq!(right.right(), r.right());
-        assert_eq!(rest.right(), right.x);
-        let (bottom, rest) = r.split_bottom(5.0);
-        assert_eq!(bottom.top(), rest.y);
+        assert_eq!(rest, Rect::new(40.0, 20.0, 70.0, 50.0));
+        let (right, rest) = r.split_right(30.0, 4.0);
+        assert_eq!(right, Rect::new(80.0, 20.0, 30.0, 50.0));
+        assert_eq!(rest.right() + 4.0, right.x);
+        let (bottom, rest) = r.split_bottom(15.0, 0.0);
+        assert_eq!(bottom, Rect::new(10.0, 20.0, 100.0, 15.0));
+        assert_eq!((rest.y, rest.top()), (35.0, 70.0));
         assert_eq!(r.inset(2.0), Rect::new(12.0, 22.0, 96.0, 46.0));
     }
 
     #[test]
     fn a_block_placed_by_its_top_edge_hangs_below_it() {
         let r = Rect::from_top(14.0, 283.0, 182.0, 40.0);
-        assert_eq!((r.y, r.top()), (243.0, 283.0));
-        assert_eq!(r.with_height(10.0).y, 273.0);
-        let page = Rect::new(14.0, 14.0, 182.0, 269.0);
-        let rest = page.below(&r, 4.0);
-        assert_eq!((rest.y, rest.top()), (14.0, 239.0));
-        assert_eq!(Rect::from_corners(r.corners()), r);
+        assert_eq!((r.y, r.top(), r.right()), (243.0, 283.0, 196.0));
+        let edge = Rect::top_edge(14.0, 239.0, 182.0);
+        assert_eq!((edge.y, edge.h, edge.top()), (239.0, 0.0, 239.0));
     }
 
     #[test]

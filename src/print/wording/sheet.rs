@@ -2,6 +2,8 @@
 //! labels. The inspector's steps and the cautions are not here: they come
 //! from [`crate::report::words`], which the terminal prints too.
 
+use crate::report::{format_quality, format_short};
+
 /// The line above the title.
 pub const KICKER: &str = "INCOMING INSPECTION PLAN";
 
@@ -16,6 +18,20 @@ pub const SCHEME: &str = "Scheme";
 
 /// A field the source leaves empty.
 pub const NOT_GIVEN: &str = "—";
+
+/// A quality as the sheet prints it: percent; for nonconformities per
+/// unit the number per unit, with the number per 100 units in brackets
+/// (`1.5 (150 per 100)`; heads and axes say "per unit").
+pub fn quality(v: f64, per_unit: bool) -> String {
+    if per_unit {
+        return format!(
+            "{} ({} per 100)",
+            format_short(v, 4),
+            format_short(100.0 * v, 4)
+        );
+    }
+    format_quality(v, false)
+}
 
 /// The lot size of a model without one.
 pub const NO_LOT_SIZE: &str = "not stated";
@@ -69,14 +85,6 @@ pub fn quality_axis(per_unit: bool) -> &'static str {
 pub const OC_TITLE: &str = "Operating characteristic (OC) curve";
 pub const OC_TITLE_SHORT: &str = "OC curve";
 
-/// The OC chart's title, short when the long one is wider than `w` mm.
-pub fn oc_title(c: &crate::print::canvas::Canvas, w: f64) -> &'static str {
-    if c.width(OC_TITLE, crate::print::draw::Face::Bold, 8.0) <= w {
-        OC_TITLE
-    } else {
-        OC_TITLE_SHORT
-    }
-}
 pub const OC_AXIS: &str = "Probability of acceptance Pa";
 
 /// The AOQ chart.
