@@ -108,10 +108,10 @@ pub use plan::{
     stage_outcomes, statistic_for_fraction, variables_point, variables_qualities,
 };
 pub use print::{
-    ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity, Paper,
-    SOURCE_NAME_KEY, Sheet, SheetNotes, SheetOptions, SheetVerdict, TradeoffMap, check_sheet,
-    render_sheet, render_sheet_noting, render_tradeoff_map, sheet_source_hash, source_hash,
-    write_sheet,
+    ChartKind, ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity,
+    Paper, SOURCE_NAME_KEY, Sheet, SheetNotes, SheetOptions, SheetVerdict, TradeoffMap, chart_svg,
+    check_sheet, render_sheet, render_sheet_noting, render_sheet_svg, render_tradeoff_map,
+    sheet_source_hash, source_hash, write_sheet,
 };
 pub use quantity::{
     BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, QualityRange, bare_fraction_note, parse_count,

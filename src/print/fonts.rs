@@ -12,6 +12,9 @@ use crate::error::InputError;
 const REGULAR_TTF: &[u8] = include_bytes!("fonts/DejaVuSans.ttf");
 const BOLD_TTF: &[u8] = include_bytes!("fonts/DejaVuSans-Bold.ttf");
 
+/// The family name of the embedded faces, as an SVG names it.
+pub const FAMILY: &str = "DejaVu Sans";
+
 /// The two embedded faces, parsed.
 pub struct Fonts {
     regular: ParsedFont,

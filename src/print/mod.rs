@@ -4,7 +4,8 @@
 //!
 //! Everything is laid out once and drawn through a small backend trait
 //! ([`draw`]): the PDF backend ([`pdf`]) writes the sheets and the map,
-//! the SVG backend the charts a web page inlines. Layout works
+//! the SVG backend ([`svg`]) the charts a web page inlines
+//! ([`chart_svg`]) and a sheet seen in a browser ([`render_sheet_svg`]). Layout works
 //! on areas ([`geometry`]): a layout ([`layouts`]) places the blocks
 //! ([`blocks`]) and charts ([`chart`]) of a page, each of which draws in
 //! the area it is given and claims it, so that a page whose blocks
@@ -30,11 +31,16 @@ pub(crate) mod page;
 pub(crate) mod palette;
 pub(crate) mod pdf;
 pub(crate) mod sheet;
+pub(crate) mod svg;
 pub(crate) mod text;
 pub(crate) mod wording;
 
+pub use chart::{ChartKind, chart_svg};
 pub use check::{MAX_SHEET_BYTES, SheetVerdict, check_sheet};
 pub use map::{ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map};
 pub use metadata::{HASH_PREFIX, SOURCE_NAME_KEY, sheet_source_hash, source_hash};
 pub use page::Paper;
-pub use sheet::{Sheet, SheetNotes, SheetOptions, render_sheet, render_sheet_noting, write_sheet};
+pub use sheet::{
+    Sheet, SheetNotes, SheetOptions, render_sheet, render_sheet_noting, render_sheet_svg,
+    write_sheet,
+};

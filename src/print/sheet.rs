@@ -4,8 +4,8 @@
 //! The numbers come from the library (`evaluate`, `aoql`,
 //! `quality_at_pa`, `VariablesPlan::pa`); the page is laid out by
 //! [`super::layouts`] from the blocks of [`super::blocks`] and the charts
-//! of [`super::chart`], and drawn through a backend: PDF here, SVG for
-//! `render_sheet_svg`.
+//! of [`super::chart`], and drawn through a backend: PDF for
+//! [`render_sheet`], SVG for [`render_sheet_svg`].
 //!
 //! Determinism: the date comes from the source, never the clock; fonts
 //! are registered under fixed resource names; the document `/ID` is set
@@ -26,6 +26,7 @@ use super::metadata::{HASH_PREFIX, SOURCE_NAME_KEY};
 use super::names::{notice_of, printed_name};
 use super::page::{Paper, printable};
 use super::pdf::{self, Document, PdfPage};
+use super::svg::SvgPage;
 use crate::atomic::{Overwrite, write_atomic};
 use crate::design::RectifyingPlan;
 use crate::error::{Error, InputError};
@@ -215,6 +216,38 @@ pub(crate) fn refusal(laid: &Laid, paper: Paper) -> Error {
         parts.join("; ")
     ))
     .into()
+}
+
+/// [`render_sheet`] as a standalone SVG document instead of a PDF: the
+/// same page, laid out by the same code and refused for the same reasons,
+/// with its text as SVG text in the sheet's face, for a browser to show.
+///
+/// # Errors
+/// As [`render_sheet`].
+///
+/// # Example
+/// ```
+/// use lotsman::{Paper, PlanSource, render_sheet_svg};
+/// let path = std::path::Path::new("plans/tpw-seal-visual.yaml");
+/// let text = std::fs::read_to_string(path).unwrap();
+/// let source = PlanSource::from_yaml(&text, path).unwrap();
+/// let svg = render_sheet_svg(&text, &source, "tpw-seal-visual.yaml", Paper::A4).unwrap();
+/// assert!(svg.contains("viewBox=\"0 0 210 297\""));
+/// ```
+pub fn render_sheet_svg(
+    text: &str,
+    source: &PlanSource,
+    file_name: &str,
+    paper: Paper,
+) -> Result<String, Error> {
+    let fonts = Fonts::embedded()?;
+    let shown = printed_name(file_name, &fonts);
+    let mut facts = SheetFacts::gather(source, text, &shown, None)?;
+    let (page, laid) = facts.lay_out(&fonts, paper, || SvgPage::new(paper.size()))?;
+    if !laid.is_clean() {
+        return Err(refusal(&laid, paper));
+    }
+    Ok(page.finish(&facts.common().source.title))
 }
 
 /// The sheet of `source`, with the notice of an unconfirmed plan's

@@ -15,5 +15,8 @@ pub(crate) mod marks;
 pub(crate) mod oc;
 pub(crate) mod plot;
 pub(crate) mod scale;
+pub(crate) mod standalone;
 pub(crate) mod subject;
 pub(crate) mod variables_oc;
+
+pub use standalone::{ChartKind, chart_svg};
