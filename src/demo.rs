@@ -96,7 +96,7 @@ pub fn run_demo(dir: &Path, overwrite: Overwrite) -> Result<Vec<DemoRow>, Error>
         } else {
             attributes_row(&source, name)?
         };
-        let sheet = crate::sheet::render_sheet(text, &source, name, crate::sheet::Paper::A4)?;
+        let sheet = crate::print::render_sheet(text, &source, name, crate::print::Paper::A4)?;
         let mut mine = vec![
             (name.to_string(), source.to_yaml().into_bytes()),
             (name.replace(".yaml", "-oc.csv"), csv),

@@ -60,8 +60,8 @@ mod source;
 // 5, reports.
 mod report;
 
-// 6, sheets and maps.
-mod sheet;
+// 6, sheets, maps and charts, drawn through one backend trait.
+mod print;
 
 // 7, work over many sources, and the demo.
 mod batch;
@@ -113,6 +113,12 @@ pub use plan::{
     stage_outcomes, statistic_for_fraction, variables_evaluation_work, variables_point,
     variables_qualities, walk_seconds,
 };
+pub use print::{
+    ChartKind, ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity,
+    Paper, SOURCE_NAME_KEY, Sheet, SheetNotes, SheetOptions, SheetVerdict, TradeoffMap, chart_svg,
+    check_sheet, render_sheet, render_sheet_noting, render_sheet_svg, render_tradeoff_map,
+    sheet_source_hash, source_hash, write_sheet,
+};
 pub use report::{
     AlternativeReport, BatchSummary, CostReport, DemoReport, DemoRow, DesignReport,
     EvaluationBatchReport, EvaluationEntry, EvaluationReport, Failure, Format, JudgeReport,
@@ -120,12 +126,6 @@ pub use report::{
     RectifyingReport, Report, SourceEvaluation, TradeoffCellReport, TradeoffReport,
     VariablesDesignReport, VariablesEvaluationReport, VariablesReport, VerificationReport,
     VerifyEntry, VerifyStatus, variables_rule, words, write_report,
-};
-pub use sheet::{
-    ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity, Paper,
-    SOURCE_NAME_KEY, Sheet, SheetNotes, SheetOptions, SheetVerdict, TradeoffMap, check_sheet,
-    render_sheet, render_sheet_noting, render_tradeoff_map, sheet_source_hash, source_hash,
-    write_sheet,
 };
 pub use source::{
     Audit, Audited, Description, Difference, Discrepancy, Error, MAX_BRACKET_DEPTH,

@@ -29,6 +29,7 @@ mod refusals;
 mod sheet;
 mod snapshots;
 mod staged;
+mod svg;
 mod tradeoff_cli;
 mod tradeoff_map;
 mod variables;

@@ -6,8 +6,8 @@
 use std::path::Path;
 
 use lotsman::{
-    Criterion, Model, ModelKind, Paper, PlanSource, Scheme, TradeoffRequest, render_sheet,
-    render_tradeoff_map, tradeoff,
+    Criterion, Model, ModelKind, Paper, PlanSource, RiskGrid, Scheme, TradeoffRequest,
+    render_sheet, render_tradeoff_map, tradeoff,
 };
 
 use crate::common;
@@ -26,17 +26,14 @@ fn pages() -> Vec<(String, Vec<u8>)> {
     }
     let step = |lo: f64, hi: f64| (0..6).map(|i| lo + (hi - lo) * i as f64 / 5.0).collect();
     let model = Model::new(ModelKind::Binomial, None).unwrap();
-    let request = TradeoffRequest::new(
-        step(0.002, 0.02),
-        step(0.03, 0.12),
-        0.05,
-        0.10,
-        model,
-        Scheme::Single,
-        Criterion::AsnAql,
-        None,
-    )
-    .unwrap();
+    let points = RiskGrid {
+        aql: step(0.002, 0.02),
+        rql: step(0.03, 0.12),
+        alpha: 0.05,
+        beta: 0.10,
+    };
+    let request =
+        TradeoffRequest::new(points, model, Scheme::Single, Criterion::AsnAql, None).unwrap();
     let map = render_tradeoff_map(&tradeoff(&request, &|| {}), "Seal rings", None, Paper::A4);
     pages.push(("trade-off map".into(), map.unwrap().pdf));
     pages

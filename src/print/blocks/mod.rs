@@ -1,0 +1,19 @@
+//! The blocks of a sheet, one file each: each draws itself in the area a
+//! layout gives it, claims that area for the overlap check, and returns
+//! the height it took when it sizes itself.
+
+pub(crate) mod fields;
+pub(crate) mod footer;
+pub(crate) mod measures;
+pub(crate) mod notice;
+pub(crate) mod plan_box;
+pub(crate) mod plan_table;
+pub(crate) mod procedure;
+pub(crate) mod readings;
+pub(crate) mod record;
+pub(crate) mod results;
+pub(crate) mod risks;
+pub(crate) mod rule;
+pub(crate) mod signatures;
+pub(crate) mod table_box;
+pub(crate) mod title;
