@@ -68,8 +68,8 @@ mod batch;
 mod demo;
 
 pub use batch::{
-    BatchError, SourceFile, evaluate_source, expand_paths, run_in_parallel, sheet_target,
-    sheet_targets, verify_file,
+    BatchError, SourceFile, check_sheet_entry, evaluate_source, evaluate_text, expand_paths,
+    run_in_parallel, sheet_target, sheet_targets, verify_file, verify_text, write_source_sheet,
 };
 pub use budget::{Limit, MEMORY_BUDGET, OverBudget, TIME_BUDGET, Work};
 pub use demo::{DEMO_PLANS, DEMO_READINGS, run_demo};
@@ -116,8 +116,8 @@ pub use plan::{
 pub use print::{
     ChartKind, ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity,
     Paper, SOURCE_NAME_KEY, Sheet, SheetNotes, SheetOptions, SheetVerdict, TradeoffMap, chart_svg,
-    check_sheet, render_sheet, render_sheet_noting, render_sheet_svg, render_tradeoff_map,
-    sheet_source_hash, source_hash, write_sheet,
+    check_sheet, check_sheet_text, render_sheet, render_sheet_noting, render_sheet_svg,
+    render_tradeoff_map, sheet_source_hash, source_hash, write_sheet, write_sheet_text,
 };
 pub use report::{
     AlternativeReport, BatchSummary, CostReport, DemoReport, DemoRow, DesignReport,
@@ -129,8 +129,8 @@ pub use report::{
 };
 pub use source::{
     Audit, Audited, Description, Difference, Discrepancy, Error, MAX_BRACKET_DEPTH,
-    MAX_SOURCE_BYTES, Placeholder, PlanSource, PointSource, RISK_TOLERANCE, RecordedPlan,
-    RecordedVariables, SCHEMA_VERSION, SourceError, SourceJob, TEMPLATES, UnmetPoint,
-    VariablesSource, Verdict, audit, check_batch, check_source, placeholders, source_work,
-    template, template_kinds, tool_version, verify,
+    MAX_MEASUREMENTS_BYTES, MAX_SOURCE_BYTES, Placeholder, PlanSource, PointSource, RISK_TOLERANCE,
+    RecordedPlan, RecordedVariables, SCHEMA_VERSION, SourceError, SourceJob, SourceText, TEMPLATES,
+    UnmetPoint, VariablesSource, Verdict, audit, check_batch, check_source, check_texts,
+    placeholders, read_measurements, source_work, template, template_kinds, tool_version, verify,
 };

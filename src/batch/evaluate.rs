@@ -8,7 +8,7 @@ use crate::plan::{
     default_qualities, evaluate, evaluate_variables, evaluate_with_decided, variables_qualities,
 };
 use crate::report::{EvaluationReport, SourceEvaluation, VariablesEvaluationReport};
-use crate::source::{Audited, PlanSource};
+use crate::source::{Audited, PlanSource, SourceText};
 use crate::source::{Error, SourceError};
 use crate::source::{SourceJob, check_source};
 
@@ -56,10 +56,27 @@ pub fn evaluate_source(
     accept_recorded: bool,
     decided_at: bool,
 ) -> Result<SourceEvaluation, Error> {
+    let read = SourceText::read(path)?;
+    evaluate_text(&read, qualities, lot_size, accept_recorded, decided_at)
+}
+
+/// [`evaluate_source`] of a source already read, so that the file is not
+/// read again.
+///
+/// # Errors
+/// As [`evaluate_source`], but for reading the file.
+pub fn evaluate_text(
+    read: &SourceText,
+    qualities: &[f64],
+    lot_size: Option<u64>,
+    accept_recorded: bool,
+    decided_at: bool,
+) -> Result<SourceEvaluation, Error> {
+    let path = read.path.as_path();
     let points = (!qualities.is_empty()).then_some(qualities.len());
     let Audited {
         source, accepted, ..
-    } = Audited::load_checked(path, accept_recorded, |source| {
+    } = Audited::from_text(read.clone(), accept_recorded, |source| {
         check_source(source, path, SourceJob::Evaluate { points, decided_at })
             .map_err(|e| InputError::from(e).into())
     })?;

@@ -4,8 +4,9 @@
 use std::path::Path;
 
 use crate::input::InputError;
+use crate::print::SheetVerdict;
 use crate::report::{VerifyEntry, VerifyStatus};
-use crate::source::{PlanSource, Verdict, verify};
+use crate::source::{Difference, PlanSource, SourceText, Verdict, verify};
 
 /// Reads, re-solves and compares the source at `path` (see
 /// [`verify`](crate::verify)). A file that cannot be read, parsed or
@@ -23,15 +24,25 @@ use crate::source::{PlanSource, Verdict, verify};
 /// assert!(entry.message.unwrap().contains("no-such-plan.yaml"));
 /// ```
 pub fn verify_file(path: &Path) -> VerifyEntry {
+    match SourceText::read(path) {
+        Ok(read) => verify_text(&read),
+        Err(e) => invalid(path, e.to_string()),
+    }
+}
+
+/// [`verify_file`] of a source already read, so that the file is not read
+/// again.
+pub fn verify_text(read: &SourceText) -> VerifyEntry {
+    let path = read.path.as_path();
     let entry = |status, differences, message| VerifyEntry {
         path: path.display().to_string(),
         status,
         differences,
         message,
     };
-    let source = match PlanSource::load(path) {
+    let source = match read.parse() {
         Ok(s) => s,
-        Err(e) => return entry(VerifyStatus::Invalid, Vec::new(), Some(e.to_string())),
+        Err(e) => return invalid(path, e.to_string()),
     };
     match verify(&source) {
         Ok(Verdict::Match) => entry(VerifyStatus::Match, Vec::new(), None),
@@ -53,9 +64,63 @@ pub fn verify_file(path: &Path) -> VerifyEntry {
                 path: path.to_path_buf(),
                 source: e,
             };
-            entry(VerifyStatus::Invalid, Vec::new(), Some(e.to_string()))
+            invalid(path, e.to_string())
         }
-        Err(e) => entry(VerifyStatus::Invalid, Vec::new(), Some(e.to_string())),
+        Err(e) => invalid(path, e.to_string()),
+    }
+}
+
+/// The entry of a source that cannot be verified, and why.
+fn invalid(path: &Path, message: String) -> VerifyEntry {
+    VerifyEntry {
+        path: path.display().to_string(),
+        status: VerifyStatus::Invalid,
+        differences: Vec::new(),
+        message: Some(message),
+    }
+}
+
+/// Adds to `entry`, the verification of a source, what the check of its
+/// sheet at `pdf` found ([`check_sheet`](crate::check_sheet)): a forged or
+/// foreign sheet makes a matching entry a mismatch, naming the differing
+/// hashes when the sheet carries another source's; a sheet that cannot be
+/// read or checked makes it invalid.
+///
+/// ```
+/// use lotsman::{SheetVerdict, VerifyStatus, check_sheet_entry, verify_file};
+/// let source = std::path::Path::new("plans/tpw-cover-fit.yaml");
+/// let mut entry = verify_file(source);
+/// let verdict = SheetVerdict::Foreign {
+///     reason: "fit.pdf: another source's sheet".to_string(),
+///     hashes: Some(("aa".to_string(), "bb".to_string())),
+/// };
+/// check_sheet_entry(&mut entry, std::path::Path::new("fit.pdf"), verdict);
+/// assert_eq!(entry.status, VerifyStatus::Mismatch);
+/// assert_eq!(entry.differences[0].field, "sheet fit.pdf source SHA-256");
+/// assert_eq!(entry.message.as_deref(), Some("fit.pdf: another source's sheet"));
+/// ```
+pub fn check_sheet_entry(entry: &mut VerifyEntry, pdf: &Path, verdict: SheetVerdict) {
+    match verdict {
+        SheetVerdict::Genuine => {}
+        SheetVerdict::Foreign { reason, hashes } => {
+            if entry.status == VerifyStatus::Match {
+                entry.status = VerifyStatus::Mismatch;
+            }
+            if let Some((recorded, resolved)) = hashes {
+                entry.differences.push(Difference {
+                    field: format!("sheet {} source SHA-256", pdf.display()),
+                    recorded,
+                    resolved,
+                });
+            }
+            if entry.message.is_none() {
+                entry.message = Some(reason);
+            }
+        }
+        SheetVerdict::Unreadable(message) => {
+            entry.status = VerifyStatus::Invalid;
+            entry.message = Some(message);
+        }
     }
 }
 

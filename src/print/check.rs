@@ -24,7 +24,7 @@ use super::metadata::{HASH_PREFIX, SOURCE_NAME_KEY, source_hash};
 use super::page::Paper;
 use super::pdf::text_string;
 use super::sheet::audited_sheet;
-use crate::source::{Audited, PlanSource, tool_version};
+use crate::source::{Audited, SourceError, SourceText, tool_version};
 
 /// The largest sheet read by [`check_sheet`] (16 MiB; a sheet is about
 /// 100 kB), refused by size first.
@@ -68,6 +68,28 @@ pub enum SheetVerdict {
 /// assert!(matches!(check_sheet(other, &pdf), SheetVerdict::Foreign { .. }));
 /// ```
 pub fn check_sheet(source: &Path, pdf: &Path) -> SheetVerdict {
+    check_against(pdf, || SourceText::read(source))
+}
+
+/// [`check_sheet`] against a source already read, so that the source is
+/// not read again.
+///
+/// ```
+/// use lotsman::{SheetVerdict, SourceText, check_sheet_text};
+/// let source = SourceText::read(std::path::Path::new("plans/tpw-seal-visual.yaml")).unwrap();
+/// let verdict = check_sheet_text(&source, std::path::Path::new("no-such.pdf"));
+/// assert!(matches!(verdict, SheetVerdict::Unreadable(_)));
+/// ```
+pub fn check_sheet_text(source: &SourceText, pdf: &Path) -> SheetVerdict {
+    check_against(pdf, || Ok(source.clone()))
+}
+
+/// The check of [`check_sheet`]: the PDF is read and looked at first, and
+/// the source, from `read`, only when the PDF is a lotsman sheet.
+fn check_against(
+    pdf: &Path,
+    read: impl FnOnce() -> Result<SourceText, SourceError>,
+) -> SheetVerdict {
     let unreadable = |why: String| SheetVerdict::Unreadable(format!("{}: {why}", pdf.display()));
     let bytes = match crate::fs::read_limited(pdf, MAX_SHEET_BYTES, "a plan sheet") {
         Ok(b) => b,
@@ -80,11 +102,11 @@ pub fn check_sheet(source: &Path, pdf: &Path) -> SheetVerdict {
     let Some(recorded) = info.hash.clone() else {
         return unreadable("not a lotsman sheet (no source hash)".into());
     };
-    let text = match PlanSource::read_text(source) {
-        Ok(t) => t,
+    let read = match read() {
+        Ok(read) => read,
         Err(e) => return SheetVerdict::Unreadable(e.to_string()),
     };
-    let actual = source_hash(&text);
+    let actual = source_hash(&read.text);
     let foreign = |what: String, hashes| SheetVerdict::Foreign {
         reason: format!(
             "{}: the sheet does not come from this source (or this tool version): {what}; {}",
@@ -103,13 +125,14 @@ pub fn check_sheet(source: &Path, pdf: &Path) -> SheetVerdict {
         return foreign("its page is neither A4 nor Letter".into(), None);
     };
     let name = info.source_name.clone().unwrap_or_else(|| {
-        source
+        read.path
             .file_name()
             .map_or_else(String::new, |n| n.to_string_lossy().to_string())
     });
     // A plan the audit does not confirm can only have been printed with
     // --accept-recorded; one it confirms prints the same either way.
-    let reprinted = Audited::load(source, true).and_then(|a| audited_sheet(&a, &name, paper));
+    let reprinted =
+        Audited::from_text(read, true, |_| Ok(())).and_then(|a| audited_sheet(&a, &name, paper));
     match reprinted {
         Ok(sheet) if sheet.pdf == bytes => SheetVerdict::Genuine,
         Ok(_) => foreign(

@@ -36,11 +36,11 @@ pub(crate) mod text;
 pub(crate) mod wording;
 
 pub use chart::{ChartKind, chart_svg};
-pub use check::{MAX_SHEET_BYTES, SheetVerdict, check_sheet};
+pub use check::{MAX_SHEET_BYTES, SheetVerdict, check_sheet, check_sheet_text};
 pub use map::{ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map};
 pub use metadata::{HASH_PREFIX, SOURCE_NAME_KEY, sheet_source_hash, source_hash};
 pub use page::Paper;
 pub use sheet::{
     Sheet, SheetNotes, SheetOptions, render_sheet, render_sheet_noting, render_sheet_svg,
-    write_sheet,
+    write_sheet, write_sheet_text,
 };

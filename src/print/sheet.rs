@@ -31,7 +31,7 @@ use crate::design::RectifyingPlan;
 use crate::fs::{Overwrite, write_atomic};
 use crate::input::InputError;
 use crate::source::Error;
-use crate::source::{Audited, Discrepancy, PlanSource};
+use crate::source::{Audited, Discrepancy, PlanSource, SourceText};
 use crate::source::{Placeholder, placeholders};
 
 /// The page margin of a sheet, mm.
@@ -330,13 +330,27 @@ pub fn write_sheet(
     target: &std::path::Path,
     options: &SheetOptions,
 ) -> Result<SheetNotes, Error> {
-    let audited = Audited::load_checked(source_path, options.accept_recorded, |source| {
-        crate::source::check_source(source, source_path, crate::source::SourceJob::Sheet)
-            .map_err(|e| crate::input::InputError::from(e).into())
-    })?;
-    let name = source_path
+    write_sheet_text(&SourceText::read(source_path)?, target, options)
+}
+
+/// [`write_sheet`] of a source already read, so that the file is not
+/// read again.
+///
+/// # Errors
+/// As [`write_sheet`], but for reading the source.
+pub fn write_sheet_text(
+    source: &SourceText,
+    target: &std::path::Path,
+    options: &SheetOptions,
+) -> Result<SheetNotes, Error> {
+    let name = source
+        .path
         .file_name()
         .map_or_else(|| "source.yaml".into(), |n| n.to_string_lossy().to_string());
+    let audited = Audited::from_text(source.clone(), options.accept_recorded, |parsed| {
+        crate::source::check_source(parsed, &source.path, crate::source::SourceJob::Sheet)
+            .map_err(|e| crate::input::InputError::from(e).into())
+    })?;
     let sheet = audited_sheet(&audited, &name, options.paper)?;
     write_atomic(target, &sheet.pdf, options.overwrite)?;
     Ok(SheetNotes {

@@ -9,6 +9,7 @@ use std::path::Path;
 use super::discrepancy::{Difference, Discrepancy, UnmetPoint};
 use super::error::{Error, SourceError};
 use super::schema::PlanSource;
+use super::text::SourceText;
 use super::verify::{RISK_TOLERANCE, Verdict, verify};
 use crate::design::{Design, Protection, RectifyingPlan, VariablesRequest};
 use crate::input::InputError;
@@ -159,16 +160,34 @@ impl Audited {
         accept_recorded: bool,
         check: impl FnOnce(&PlanSource) -> Result<(), Error>,
     ) -> Result<Self, Error> {
-        let text = PlanSource::read_text(path)?;
-        let source = PlanSource::from_yaml(&text, path)?;
+        Self::from_text(SourceText::read(path)?, accept_recorded, check)
+    }
+
+    /// [`Audited::load_checked`] of a source already read: parses it, runs
+    /// `check` on it and audits it, without reading the file again.
+    ///
+    /// ```
+    /// use lotsman::{Audited, SourceText};
+    /// let read = SourceText::read(std::path::Path::new("plans/tpw-seal-visual.yaml")).unwrap();
+    /// let audited = Audited::from_text(read, false, |_| Ok(())).unwrap();
+    /// assert_eq!(audited.accepted, None);
+    /// ```
+    ///
+    /// # Errors
+    /// As [`Audited::load_checked`], but for reading the file.
+    pub fn from_text(
+        read: SourceText,
+        accept_recorded: bool,
+        check: impl FnOnce(&PlanSource) -> Result<(), Error>,
+    ) -> Result<Self, Error> {
+        let source = read.parse()?;
         check(&source)?;
-        let accepted = audit(&source, path)?.discrepancy;
+        let SourceText { path, text } = read;
+        let accepted = audit(&source, &path)?.discrepancy;
         match accepted {
-            Some(discrepancy) if !accept_recorded => Err(SourceError::Unconfirmed {
-                path: path.to_path_buf(),
-                discrepancy,
+            Some(discrepancy) if !accept_recorded => {
+                Err(SourceError::Unconfirmed { path, discrepancy }.into())
             }
-            .into()),
             accepted => Ok(Audited {
                 text,
                 source,

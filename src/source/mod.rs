@@ -8,10 +8,12 @@ mod discrepancy;
 mod error;
 mod keys;
 mod load;
+mod measurements;
 mod record;
 mod rectifying;
 mod schema;
 mod templates;
+mod text;
 mod verify;
 mod work;
 mod yaml_words;
@@ -22,10 +24,12 @@ pub use describe::Description;
 pub use discrepancy::{Difference, Discrepancy, UnmetPoint};
 pub use error::{Error, SourceError};
 pub use load::{MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES};
+pub use measurements::{MAX_MEASUREMENTS_BYTES, read_measurements};
 pub use record::tool_version;
 pub use schema::{
     PlanSource, PointSource, RecordedPlan, RecordedVariables, SCHEMA_VERSION, VariablesSource,
 };
 pub use templates::{Placeholder, TEMPLATES, placeholders, template, template_kinds};
+pub use text::SourceText;
 pub use verify::{RISK_TOLERANCE, Verdict, verify};
-pub use work::{SourceJob, check_batch, check_source, source_work};
+pub use work::{SourceJob, check_batch, check_source, check_texts, source_work};

@@ -6,6 +6,7 @@
 use std::path::Path;
 
 use super::schema::PlanSource;
+use super::text::SourceText;
 use crate::budget::{OverBudget, TIME_BUDGET, Work, duration};
 use crate::design::{design_work, variables_design_work};
 use crate::plan::{
@@ -163,19 +164,47 @@ pub fn check_batch<'a>(
     job: SourceJob,
 ) -> Result<(), OverBudget> {
     let paths: Vec<&Path> = paths.into_iter().collect();
-    if let [path] = paths.as_slice() {
-        return match PlanSource::load(path) {
-            Ok(source) => check_source(&source, path, job),
-            Err(_) => Ok(()),
+    let sources = paths
+        .iter()
+        .filter_map(|path| Some((*path, PlanSource::load(path).ok()?)));
+    check_parsed(paths.len(), sources, job)
+}
+
+/// [`check_batch`] of sources already read, so that no file is read
+/// twice: one item per source file of the batch, `None` for a file that
+/// could not be read (it counts, and costs nothing). A text that does not
+/// parse costs nothing either: the batch reports it in its place.
+///
+/// # Errors
+/// As [`check_batch`].
+pub fn check_texts<'a>(
+    sources: impl IntoIterator<Item = Option<&'a SourceText>>,
+    job: SourceJob,
+) -> Result<(), OverBudget> {
+    let sources: Vec<Option<&SourceText>> = sources.into_iter().collect();
+    let parsed = sources
+        .iter()
+        .flatten()
+        .filter_map(|read| Some((read.path.as_path(), read.parse().ok()?)));
+    check_parsed(sources.len(), parsed, job)
+}
+
+/// The check of [`check_batch`] on the `count` source files of a batch,
+/// of which `sources` parsed.
+fn check_parsed<'a>(
+    count: usize,
+    mut sources: impl Iterator<Item = (&'a Path, PlanSource)>,
+    job: SourceJob,
+) -> Result<(), OverBudget> {
+    if count == 1 {
+        return match sources.next() {
+            Some((path, source)) => check_source(&source, path, job),
+            None => Ok(()),
         };
     }
     let mut total = Work::default();
     let mut heaviest: Option<(&Path, f64)> = None;
-    let count = paths.len();
-    for path in paths {
-        let Ok(source) = PlanSource::load(path) else {
-            continue;
-        };
+    for (path, source) in sources {
         let work = source_work(&source, job);
         total = total.and(work);
         if heaviest.is_none_or(|(_, s)| work.seconds > s) {
