@@ -48,10 +48,6 @@ const LAYERS: &[(&str, u8, &str)] = &[
     // The crate root re-exports every layer; nothing imports it.
     ("src/lib.rs", 7, "orchestration"),
     ("src/bin/", 8, "binary"),
-    ("src/main.rs", 8, "binary"),
-    ("src/cli.rs", 8, "binary"),
-    ("src/progress.rs", 8, "binary"),
-    ("src/quality_flags.rs", 8, "binary"),
 ];
 
 /// The layer of `path`, by the longest prefix in [`LAYERS`].

@@ -10,6 +10,8 @@ use lotsman::{
     parse_fraction_list,
 };
 
+use crate::out::say;
+
 /// Parses qualities for one model.
 pub struct Qualities {
     /// Whether qualities are fractions nonconforming (binomial,
@@ -67,7 +69,7 @@ impl Qualities {
     /// The note on stderr for bare fractions above a fifth, if any.
     fn note(&self, flag: &str, text: &str) {
         if let Some(note) = bare_fraction_note(flag, text).filter(|_| self.fractions) {
-            eprintln!("lotsman: note: {}", escape_controls(&note));
+            say(format_args!("note: {}", escape_controls(&note)));
         }
     }
 }

@@ -1,0 +1,90 @@
+//! `judge`: the arguments, and the counts found.
+
+use std::path::PathBuf;
+
+use clap::{Args, ValueEnum};
+use lotsman::{Format, InputError, parse_count};
+
+use super::groups::FormatFlag;
+
+#[derive(Debug, Args)]
+pub struct JudgeArgs {
+    /// The plan source whose recorded plan decides
+    #[arg(value_name = "FILE.yaml")]
+    pub source: PathBuf,
+    /// Count found in each stage's new units, in order (repeat per stage); with
+    /// --inspected, the one cumulative count so far
+    #[arg(
+        long,
+        value_name = "K",
+        required_unless_present = "measurements",
+        conflicts_with = "measurements",
+        allow_hyphen_values = true
+    )]
+    pub found: Vec<String>,
+    /// Variables plans: the sample's measurements, a CSV file with one value per row
+    /// (or a header row and --column)
+    #[arg(long, value_name = "FILE.csv")]
+    pub measurements: Option<PathBuf>,
+    /// The CSV column that holds the measurements, by its header name
+    #[arg(long, value_name = "NAME", requires = "measurements")]
+    pub column: Option<String>,
+    /// Units inspected so far, for one cumulative --found count (item-by-item plans)
+    #[arg(long, value_name = "N", allow_hyphen_values = true)]
+    pub inspected: Option<String>,
+    /// Decide by a recorded plan that differs from a re-solve or no longer meets its risk
+    /// points, the discrepancy stated beside the decision (without it, such a source is refused)
+    #[arg(long)]
+    pub accept_recorded: bool,
+    #[command(flatten)]
+    pub report: FormatFlag<JudgeFormat>,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum JudgeFormat {
+    /// The decision in words (`text`, its earlier name, is still read)
+    #[value(alias = "text")]
+    Table,
+    Json,
+}
+
+impl From<JudgeFormat> for Format {
+    fn from(format: JudgeFormat) -> Self {
+        match format {
+            JudgeFormat::Table => Format::Table,
+            JudgeFormat::Json => Format::Json,
+        }
+    }
+}
+
+/// What `--found` and `--inspected` say was found.
+pub enum Found {
+    /// The count in each stage's new units, in order.
+    Stages(Vec<u64>),
+    /// The one cumulative count in the units inspected so far.
+    Cumulative { inspected: u64, found: u64 },
+}
+
+impl TryFrom<&JudgeArgs> for Found {
+    type Error = InputError;
+
+    fn try_from(args: &JudgeArgs) -> Result<Self, InputError> {
+        let found = args
+            .found
+            .iter()
+            .map(|k| parse_count("--found", k, u64::MAX))
+            .collect::<Result<Vec<_>, _>>()?;
+        let Some(inspected) = &args.inspected else {
+            return Ok(Found::Stages(found));
+        };
+        let [count] = found.as_slice() else {
+            return Err(InputError::Inconsistent(
+                "with --inspected give one --found: the cumulative count so far".to_string(),
+            ));
+        };
+        Ok(Found::Cumulative {
+            inspected: parse_count("--inspected", inspected, u64::MAX)?,
+            found: *count,
+        })
+    }
+}

@@ -1,0 +1,11 @@
+//! `new`: the arguments.
+
+use clap::Args;
+
+#[derive(Debug, Args)]
+pub struct NewArgs {
+    /// Template kind: binomial, hypergeometric, poisson, double, multiple, sequential, variables
+    /// or rectifying
+    #[arg(value_name = "KIND")]
+    pub kind: String,
+}

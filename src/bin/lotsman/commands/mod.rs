@@ -1,0 +1,14 @@
+//! One file per command: each takes its parsed arguments, calls the
+//! library, prints, and returns the outcome that `main` turns into the exit
+//! code. What several batch commands share is in [`batch`].
+
+pub mod batch;
+pub mod demo;
+pub mod design;
+pub mod evaluate;
+pub mod judge;
+pub mod new;
+pub mod rectify;
+pub mod sheet;
+pub mod tradeoff;
+pub mod verify;
