@@ -2515,6 +2515,66 @@ fn output_that_cannot_be_written_is_exit_2_with_a_plain_message() {
     );
 }
 
+/// Issue 15: a stderr that cannot be written (a reader that went away, a
+/// full device) loses the lines meant for it, and nothing else: a refusal
+/// still exits 2, a note leaves the report on stdout, a sheet is still
+/// written and the run exits 0. No run panics (exit code 101).
+#[test]
+fn a_stderr_that_cannot_be_written_changes_no_outcome() {
+    let binary = assert_cmd::cargo::cargo_bin("lotsman");
+    let dir = tempfile::tempdir().unwrap();
+    let sheet = dir.path().join("fit.pdf");
+    for (what, full) in [
+        ("a pipe whose reader is gone", false),
+        ("a full device", true),
+    ] {
+        if unwritable_stderr(full).is_none() {
+            eprintln!("no /dev/full on this system: the full-device check is skipped");
+            continue;
+        }
+        let run = |args: &[&std::ffi::OsStr]| {
+            std::process::Command::new(&binary)
+                .args(args)
+                .stderr(unwritable_stderr(full).unwrap())
+                .output()
+                .unwrap()
+        };
+        // A refusal: one line on stderr, lost.
+        let out = run(&["new".as_ref(), "nosuch".as_ref()]);
+        assert_eq!(out.status.code(), Some(2), "refusal, stderr {what}");
+        assert!(out.stdout.is_empty(), "refusal, stderr {what}");
+        // A note on a bare fraction beside the report.
+        let out = run(&["design", "--aql", "0.5", "--rql", "0.9"].map(std::ffi::OsStr::new));
+        assert_eq!(out.status.code(), Some(0), "note, stderr {what}");
+        assert!(
+            String::from_utf8_lossy(&out.stdout).contains("PLAN  n = 11, c = 8"),
+            "note, stderr {what}"
+        );
+        // A sheet, and the line that says where it went.
+        let _ = std::fs::remove_file(&sheet);
+        let out = run(&[
+            "sheet".as_ref(),
+            "plans/tpw-cover-fit.yaml".as_ref(),
+            "--output".as_ref(),
+            sheet.as_os_str(),
+        ]);
+        assert_eq!(out.status.code(), Some(0), "sheet, stderr {what}");
+        assert!(sheet.exists(), "sheet, stderr {what}");
+    }
+}
+
+/// A stderr that cannot be written: the full device (where there is one),
+/// or a pipe whose reader is gone.
+fn unwritable_stderr(full: bool) -> Option<std::process::Stdio> {
+    if full {
+        let device = std::fs::OpenOptions::new().write(true).open("/dev/full");
+        return device.ok().map(Into::into);
+    }
+    let (reader, writer) = std::io::pipe().unwrap();
+    drop(reader);
+    Some(writer.into())
+}
+
 /// Issue 14, item 10: `design FILE --in-place` re-solves the source and
 /// replaces it; the file is the tool's own source afterwards.
 #[test]
