@@ -15,6 +15,7 @@ mod common;
 mod audit;
 mod batch;
 mod cli;
+mod commands_doc;
 mod docs;
 mod guards;
 mod layers;
