@@ -51,13 +51,13 @@ pub struct TradeoffMap {
 ///
 /// # Example
 /// ```
-/// use lotsman::{Criterion, Model, ModelKind, Paper, Scheme, TradeoffRequest};
+/// use lotsman::{Criterion, Model, ModelKind, Paper, RiskGrid, Scheme, TradeoffRequest};
 /// use lotsman::{render_tradeoff_map, tradeoff};
 /// let model = Model::new(ModelKind::Binomial, None).unwrap();
-/// let request = TradeoffRequest::new(
-///     vec![0.005, 0.01, 0.015], vec![0.04, 0.06, 0.08], 0.05, 0.10,
-///     model, Scheme::Single, Criterion::AsnAql, None,
-/// ).unwrap();
+/// let points = RiskGrid {
+///     aql: vec![0.005, 0.01, 0.015], rql: vec![0.04, 0.06, 0.08], alpha: 0.05, beta: 0.10,
+/// };
+/// let request = TradeoffRequest::new(points, model, Scheme::Single, Criterion::AsnAql, None).unwrap();
 /// let grid = tradeoff(&request, &|| {});
 /// let map = render_tradeoff_map(&grid, "Seal rings", None, Paper::A4).unwrap();
 /// assert!(map.pdf.starts_with(b"%PDF"));
