@@ -1,6 +1,7 @@
 //! Calibration of the work budget: times a range of real cases and prints
 //! each one's estimate beside the measured time, so that the constants of
-//! `src/budget/estimate.rs` can be fitted (or checked) on a machine.
+//! the estimates in the layers' `work.rs` files (src/plan, src/design,
+//! src/source) can be fitted (or checked) on a machine.
 //!
 //! Run it (a release build) on an otherwise idle machine:
 //!

@@ -98,16 +98,29 @@ pub fn design_for(request: &DesignRequest) -> Result<Design, DesignError> {
 /// As [`design_for`]; [`DesignError::OverBudget`] when listing the single
 /// plan's alternatives (one pair of searches per acceptance number up to
 /// the plan's) would pass the work budget.
+///
+/// # Example
+/// A double plan for AQL 1% (alpha 0.05) and RQL 6% (beta 0.10), with the
+/// single plan it is compared with:
+/// ```
+/// use lotsman::{DesignRequest, Model, ModelKind, RiskPair, RiskPoint, Scheme, SchemeOptions, solve};
+/// let model = Model::new(ModelKind::Binomial, None).unwrap();
+/// let risks = RiskPair::new(
+///     RiskPoint { quality: 0.01, risk: 0.05 },
+///     RiskPoint { quality: 0.06, risk: 0.10 },
+///     &model,
+/// ).unwrap();
+/// let request = DesignRequest { scheme: Scheme::Double, options: SchemeOptions::default(), model, risks };
+/// let solution = solve(&request).unwrap();
+/// assert_eq!(solution.design.plan.stages().len(), 2);
+/// assert!(solution.design.producer_risk <= 0.05 && solution.design.consumer_risk <= 0.10);
+/// ```
 pub fn solve(request: &DesignRequest) -> Result<Solution, DesignError> {
     if request.scheme == Scheme::Single {
         single_work(&request.model, &request.risks, true).check(
             &format!(
-                "the single plan and its alternatives ({} model{})",
-                request.model.kind(),
-                request
-                    .model
-                    .lot_size()
-                    .map_or(String::new(), |lot| format!(", lot of {lot}"))
+                "the single plan and its alternatives ({})",
+                request.model.described()
             ),
             "give points further apart (raise the RQL or lower the AQL), or relax alpha or beta",
         )?;

@@ -235,13 +235,10 @@ pub fn design_double(
     }
     double_work(model, single.n as f64, single.c, criterion, second_ratio).check(
         &format!(
-            "the double plan's search around the single plan n = {}, c = {} ({} model{}, {})",
+            "the double plan's search around the single plan n = {}, c = {} ({}, {})",
             single.n,
             single.c,
-            model.kind(),
-            model
-                .lot_size()
-                .map_or(String::new(), |lot| format!(", lot of {lot}")),
+            model.described(),
             criterion.name()
         ),
         "use the single plan, or points further apart",

@@ -143,12 +143,9 @@ pub fn design_multiple(
     let single = design_single(model, risks)?;
     multiple_work(model, single.n as f64, k).check(
         &format!(
-            "the {k}-stage plan's search around the single plan's sample n = {} ({} model{})",
+            "the {k}-stage plan's search around the single plan's sample n = {} ({})",
             single.n,
-            model.kind(),
-            model
-                .lot_size()
-                .map_or(String::new(), |lot| format!(", lot of {lot}"))
+            model.described()
         ),
         "use the single plan, or points further apart",
     )?;

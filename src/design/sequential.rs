@@ -190,13 +190,10 @@ pub fn design_sequential(
     }
     sequential_work(model, single.n as f64, single.c).check(
         &format!(
-            "the sequential plan's truncation search around the single plan n = {}, c = {} ({} model{})",
+            "the sequential plan's truncation search around the single plan n = {}, c = {} ({})",
             single.n,
             single.c,
-            model.kind(),
-            model
-                .lot_size()
-                .map_or(String::new(), |lot| format!(", lot of {lot}"))
+            model.described()
         ),
         "use the single plan, or points further apart",
     )?;

@@ -14,7 +14,7 @@ use super::bracket::{
     acceptance_number_for_ratio, aoql_factor, poisson_mean_at, sample_for_mean, z_upper,
 };
 use super::limits::{MAX_AOQL_ACCEPTANCE_NUMBER, MAX_DOUBLE_SINGLE_C};
-use super::rectifying::{Protection, RectifyingRequest};
+use super::rectifying::request::{Protection, RectifyingRequest};
 use super::request::{Criterion, DesignRequest, Scheme};
 use crate::budget::Work;
 use crate::model::{Model, ModelKind, RiskPair, normal};

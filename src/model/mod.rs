@@ -12,7 +12,7 @@
 //! prefactor `exp(a ln x + b ln(1 - x) - ln B(a, b))` subtracts log-gammas of
 //! size `n ln n`, which at `n = 10^7` costs about `3e-8` of relative accuracy,
 //! thirty times the `1e-9` this crate promises. The tail sums here cost
-//! `O(c)` at most and stay within about `1e-13` (tests/reference.rs).
+//! `O(c)` at most and stay within about `1e-13` (the reference suite, tests/reference/).
 
 mod binomial;
 mod hypergeometric;
@@ -146,6 +146,15 @@ impl Model {
     /// The lot size, when known.
     pub fn lot_size(&self) -> Option<u64> {
         self.lot_size
+    }
+
+    /// The model in words for messages: "binomial model", or
+    /// "hypergeometric model, lot of 2000" when the lot size is known.
+    pub fn described(&self) -> String {
+        match self.lot_size {
+            Some(lot) => format!("{} model, lot of {lot}", self.kind),
+            None => format!("{} model", self.kind),
+        }
     }
 
     /// The largest sample the model allows: the lot size whenever one is

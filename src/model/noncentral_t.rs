@@ -28,7 +28,7 @@
 //! (R. V. Lenth, Algorithm AS 243, *Applied Statistics* 38, 1989) loses
 //! the upper tail to cancellation and underflows for `|delta| > 37`; the
 //! integral does neither. Accuracy against a 50-digit reference for
-//! `nu <= 10^4`, `|delta| <= 40`: tests/variables_reference.rs.
+//! `nu <= 10^4`, `|delta| <= 40`: tests/reference/variables.rs.
 
 use statrs::function::gamma::ln_gamma;
 

@@ -37,6 +37,17 @@ pub struct Evaluation {
 /// [`InputError::OutOfRange`] for a quality the model cannot take;
 /// [`InputError::OverBudget`] when the evaluation's estimated work
 /// ([`evaluation_work`]) passes the budget.
+///
+/// # Example
+/// The plan n = 125, c = 3 at 1% nonconforming (binomial model):
+/// ```
+/// use lotsman::{Model, ModelKind, StagedPlan, evaluate};
+/// let model = Model::new(ModelKind::Binomial, None).unwrap();
+/// let plan = StagedPlan::single(125, 3, &model).unwrap();
+/// let evaluation = evaluate(&plan, &model, &[0.01]).unwrap();
+/// // Pa(1%) = P(X <= 3), X ~ Binomial(125, 0.01) = 0.962551 (scipy.stats.binom.cdf(3, 125, 0.01)).
+/// assert!((evaluation.points[0].pa - 0.962551).abs() < 1e-6);
+/// ```
 pub fn evaluate(
     plan: &StagedPlan,
     model: &Model,

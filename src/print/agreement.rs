@@ -67,37 +67,29 @@ impl Agreement {
                 let pa1 = 1.0 - achieved.0;
                 let beta = achieved.1;
                 [
-                    Mark {
-                        x: producer.quality,
-                        y: pa1,
-                        label: format!("p₁ = {}, Pa = {:.3}", q(producer.quality), pa1),
-                        stacked: Some([
-                            format!("p₁ = {}", q(producer.quality)),
-                            format!("Pa = {pa1:.3}"),
-                        ]),
-                    },
-                    Mark {
-                        x: consumer.quality,
-                        y: beta,
-                        label: format!("p₂ = {}, Pa = {:.3}", q(consumer.quality), beta),
-                        stacked: Some([
-                            format!("p₂ = {}", q(consumer.quality)),
-                            format!("Pa = {beta:.3}"),
-                        ]),
-                    },
+                    point_mark("p₁", producer.quality, pa1, &q),
+                    point_mark("p₂", consumer.quality, beta, &q),
                 ]
             }
             Agreement::Rectifying { request, figures } => {
                 let (average, ltpd) = self.qualities();
                 let pa_ltpd = acceptance_probability(&figures.plan, request.model(), ltpd);
-                let mark = |name: &str, x: f64, pa: f64| Mark {
-                    x,
-                    y: pa,
-                    label: format!("{name} = {}, Pa = {pa:.3}", q(x)),
-                    stacked: Some([format!("{name} = {}", q(x)), format!("Pa = {pa:.3}")]),
-                };
-                [mark("p̄", average, figures.pa), mark("LTPD", ltpd, pa_ltpd)]
+                [
+                    point_mark("p̄", average, figures.pa, &q),
+                    point_mark("LTPD", ltpd, pa_ltpd, &q),
+                ]
             }
         }
+    }
+}
+
+/// The mark of an agreed point `name` at `quality`, where the plan accepts
+/// with probability `pa`: one line, or two stacked when room is short.
+fn point_mark(name: &str, quality: f64, pa: f64, q: &dyn Fn(f64) -> String) -> Mark {
+    Mark {
+        x: quality,
+        y: pa,
+        label: format!("{name} = {}, Pa = {pa:.3}", q(quality)),
+        stacked: Some([format!("{name} = {}", q(quality)), format!("Pa = {pa:.3}")]),
     }
 }

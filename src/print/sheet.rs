@@ -63,6 +63,16 @@ pub struct Sheet {
 /// when a text does not fit its box even at the smallest size, holds a
 /// character the sheet font cannot draw, or two blocks would overlap (a
 /// sheet is never printed with overflowing, overlapping or missing text).
+///
+/// # Example
+/// ```
+/// use std::path::Path;
+/// use lotsman::{DEMO_PLANS, Paper, PlanSource, render_sheet};
+/// let (name, text) = DEMO_PLANS[0];
+/// let source = PlanSource::from_yaml(text, Path::new(name)).unwrap();
+/// let sheet = render_sheet(text, &source, name, Paper::A4).unwrap();
+/// assert!(sheet.pdf.starts_with(b"%PDF"));
+/// ```
 pub fn render_sheet(
     text: &str,
     source: &PlanSource,

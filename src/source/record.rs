@@ -5,7 +5,7 @@ use super::schema::{
     PlanSource, PointSource, RecordedPlan, RecordedVariables, SCHEMA_VERSION, VariablesSource,
 };
 use crate::design::{DesignRequest, Scheme, Solution, VariablesRequest, VariablesSolution};
-use crate::model::{Model, RiskPair};
+use crate::model::{Model, ModelKind, RiskPair};
 
 /// The first line of every source the tool writes.
 const HEADER: &str = "# lotsman plan source. Edit the inputs, then re-solve with: lotsman design THIS-FILE --in-place\n";
@@ -65,6 +65,26 @@ impl PlanSource {
     /// A source with the title, scheme, model and points, nothing else.
     fn blank(title: &str, scheme: Scheme, model: &Model, risks: &RiskPair) -> Self {
         let (producer, consumer) = (risks.producer(), risks.consumer());
+        let mut source = PlanSource::bare(title, scheme, model.kind(), model.lot_size());
+        source.producer = Some(PointSource {
+            quality: producer.quality,
+            risk: producer.risk,
+        });
+        source.consumer = Some(PointSource {
+            quality: consumer.quality,
+            risk: consumer.risk,
+        });
+        source
+    }
+
+    /// A source of this schema version with the title, scheme, model and lot
+    /// size, and every other field empty: the start of each new source.
+    pub(crate) fn bare(
+        title: &str,
+        scheme: Scheme,
+        model: ModelKind,
+        lot_size: Option<u64>,
+    ) -> Self {
         PlanSource {
             schema: SCHEMA_VERSION,
             title: title.to_string(),
@@ -82,16 +102,10 @@ impl PlanSource {
             stage_count: None,
             variables: None,
             rectifying: None,
-            model: model.kind(),
-            lot_size: model.lot_size(),
-            producer: Some(PointSource {
-                quality: producer.quality,
-                risk: producer.risk,
-            }),
-            consumer: Some(PointSource {
-                quality: consumer.quality,
-                risk: consumer.risk,
-            }),
+            model,
+            lot_size,
+            producer: None,
+            consumer: None,
             plan: None,
         }
     }

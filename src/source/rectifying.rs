@@ -25,7 +25,7 @@
 //! and `consumer` are absent, and so is the recorded producer's risk.
 
 use super::record::tool_version;
-use super::schema::{PlanSource, RecordedPlan, RectifyingSource, SCHEMA_VERSION};
+use super::schema::{PlanSource, RecordedPlan, RectifyingSource};
 use crate::design::{Protection, RectifyingDesign, RectifyingRequest, Scheme};
 use crate::input::InputError;
 use crate::model::Model;
@@ -189,35 +189,20 @@ impl PlanSource {
             Protection::Ltpd(point) => (Some(point.quality), Some(point.risk), None),
             Protection::Aoql(limit) => (None, None, Some(limit)),
         };
-        PlanSource {
-            schema: SCHEMA_VERSION,
-            title: title.to_string(),
-            id: None,
-            revision: None,
-            date: None,
-            item: None,
-            characteristic: None,
-            prepared_by: None,
-            approved_by: None,
-            notes: None,
-            scheme: Scheme::Rectifying,
-            criterion: None,
-            second_ratio: None,
-            stage_count: None,
-            variables: None,
-            rectifying: Some(RectifyingSource {
-                form: request.scheme(),
-                process_average: request.process_average(),
-                ltpd,
-                beta,
-                aoql,
-            }),
-            model: request.model().kind(),
-            lot_size: Some(request.lot_size()),
-            producer: None,
-            consumer: None,
-            plan: None,
-        }
+        let mut source = PlanSource::bare(
+            title,
+            Scheme::Rectifying,
+            request.model().kind(),
+            Some(request.lot_size()),
+        );
+        source.rectifying = Some(RectifyingSource {
+            form: request.scheme(),
+            process_average: request.process_average(),
+            ltpd,
+            beta,
+            aoql,
+        });
+        source
     }
 
     /// Records `design`'s plan with its figures, solved by this tool

@@ -28,6 +28,16 @@ pub enum Verdict {
 /// [`Error`] when the source's inputs are invalid, it records no plan
 /// ([`InputError::NotSolved`](crate::InputError::NotSolved)), or its risk
 /// points have no plan (the source is then invalid, not a mismatch).
+///
+/// # Example
+/// Each demo source records the plan its risk points give:
+/// ```
+/// use std::path::Path;
+/// use lotsman::{DEMO_PLANS, PlanSource, Verdict, verify};
+/// let (name, text) = DEMO_PLANS[0];
+/// let source = PlanSource::from_yaml(text, Path::new(name)).unwrap();
+/// assert_eq!(verify(&source).unwrap(), Verdict::Match);
+/// ```
 pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
     if source.is_variables() {
         return verify_variables(source);

@@ -4,7 +4,7 @@
 //! sample exceeds its lot, and the ends of the double range give true
 //! answers. Refusals are in tests/refusals.rs; the invariants in
 //! tests/properties.rs; the values against scipy and mpmath in
-//! tests/reference.rs.
+//! the reference suite, tests/reference/.
 
 use crate::common;
 use common::{json_of, lotsman, pdf_text, stdout_of};

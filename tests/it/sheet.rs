@@ -487,7 +487,7 @@ use lotsman::{
 };
 use std::sync::OnceLock;
 
-/// The most readings the sheet's table holds (src/sheet/variables.rs).
+/// The most readings the sheet's table holds (src/print/facts.rs).
 const SHEET_READINGS: u64 = 48;
 
 /// One variables source of the tests: its file name, YAML text and the

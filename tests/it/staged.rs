@@ -1,6 +1,6 @@
 //! Staged plans against published worked examples and the invariants the
 //! staged designers promise. The exact values against an independent
-//! reference are in tests/reference.rs (staged_reference.json).
+//! reference are in the reference suite, tests/reference/ (staged_reference.json).
 
 use crate::common;
 use common::pair;

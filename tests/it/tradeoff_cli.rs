@@ -1,7 +1,7 @@
 //! The `tradeoff` command: its flags, JSON and CSV keys, exit codes and
 //! messages. Each cell is cross-checked against the `design` and
-//! `evaluate` commands for the same points, which tests/reference.rs and
-//! tests/staged_reference.rs check against the reference scripts.
+//! `evaluate` commands for the same points, which the reference suite, tests/reference/ and
+//! tests/reference/staged.rs check against the reference scripts.
 
 use crate::common;
 use common::{json_of, lotsman, pdf_text, stdout_of};

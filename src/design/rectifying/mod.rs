@@ -67,7 +67,7 @@
 
 mod design;
 mod double;
-mod request;
+pub(super) mod request;
 mod single;
 
 pub use self::design::{RectifyingDesign, RectifyingPlan, RectifyingRow};

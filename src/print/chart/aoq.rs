@@ -2,6 +2,7 @@
 //! under rectifying inspection against lot quality, with its maximum, the
 //! AOQL, marked.
 
+use super::axes::Axes;
 use super::curve_chart::{Chart, draw};
 use super::marks::Mark;
 use super::scale::{nice_ceiling, quality_tick};
@@ -27,13 +28,17 @@ pub fn aoq_chart(c: &mut Canvas, s: &Subject, curves: &Curves, area: Rect) {
         "AOQ chart",
         area,
         &Chart {
-            title: sheet::AOQ_TITLE,
-            x_label: sheet::quality_axis(s.per_unit),
-            y_label: sheet::AOQ_AXIS,
-            x_max: curves.x_max,
-            y_max: nice_ceiling(limit.value * 1.25),
-            x_tick: &axis,
-            y_tick: &axis,
+            axes: Axes {
+                title: sheet::AOQ_TITLE,
+                x_label: sheet::quality_axis(s.per_unit),
+                y_label: sheet::AOQ_AXIS,
+                x_max: curves.x_max,
+                y_max: nice_ceiling(limit.value * 1.25),
+                x_tick: &axis,
+                y_tick: &axis,
+                x_step: None,
+                y_step: None,
+            },
             curve: &aoq,
             marks: &marks,
             guide: None,

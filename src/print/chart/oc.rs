@@ -3,6 +3,7 @@
 //! plan achieves there and the indifference quality (Pa = 0.5) as a
 //! dashed guide.
 
+use super::axes::Axes;
 use super::curve_chart::{Chart, draw};
 use super::scale::{plain_tick, quality_tick};
 use super::subject::{Curves, Subject};
@@ -33,13 +34,17 @@ pub fn oc_chart(c: &mut Canvas, s: &Subject, curves: &Curves, area: Rect) {
         "OC chart",
         area,
         &Chart {
-            title: oc_title(c, area.w),
-            x_label: sheet::quality_axis(s.per_unit),
-            y_label: sheet::OC_AXIS,
-            x_max: curves.x_max,
-            y_max: 1.0,
-            x_tick: &axis,
-            y_tick: &plain_tick,
+            axes: Axes {
+                title: oc_title(c, area.w),
+                x_label: sheet::quality_axis(s.per_unit),
+                y_label: sheet::OC_AXIS,
+                x_max: curves.x_max,
+                y_max: 1.0,
+                x_tick: &axis,
+                y_tick: &plain_tick,
+                x_step: None,
+                y_step: None,
+            },
             curve: &oc,
             marks: &marks,
             guide: Some((indifference, format!("Pa = 0.5 at {}", s.q(indifference)))),

@@ -54,14 +54,10 @@ pub struct TradeoffMap {
 /// use lotsman::{Criterion, Model, ModelKind, Paper, RiskGrid, Scheme, TradeoffRequest};
 /// use lotsman::{render_tradeoff_map, tradeoff};
 /// let model = Model::new(ModelKind::Binomial, None).unwrap();
-/// let grid = RiskGrid {
-///     aql: vec![0.005, 0.01, 0.015],
-///     rql: vec![0.04, 0.06, 0.08],
-///     alpha: 0.05,
-///     beta: 0.10,
+/// let points = RiskGrid {
+///     aql: vec![0.005, 0.01, 0.015], rql: vec![0.04, 0.06, 0.08], alpha: 0.05, beta: 0.10,
 /// };
-/// let request =
-///     TradeoffRequest::new(grid, model, Scheme::Single, Criterion::AsnAql, None).unwrap();
+/// let request = TradeoffRequest::new(points, model, Scheme::Single, Criterion::AsnAql, None).unwrap();
 /// let grid = tradeoff(&request, &|| {});
 /// let map = render_tradeoff_map(&grid, "Seal rings", None, Paper::A4).unwrap();
 /// assert!(map.pdf.starts_with(b"%PDF"));
