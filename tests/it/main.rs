@@ -29,6 +29,8 @@ mod refusals;
 mod sheet;
 mod snapshots;
 mod staged;
+mod standard;
+mod standard_tables;
 mod svg;
 mod tradeoff_cli;
 mod tradeoff_map;
