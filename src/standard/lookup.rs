@@ -214,8 +214,7 @@ impl Tables {
         let basis = match self.user_table(slot) {
             Some((file, sha)) => format!("the user table {file} (SHA-256 {sha})"),
             None => basis(table.file(), &row.to_string(), aql.label())
-                .unwrap_or("not recorded")
-                .to_string(),
+                .unwrap_or_else(|| "not recorded".to_string()),
         };
         let from_memory = basis.contains("memory");
         if let Some(last) = numbers.last()

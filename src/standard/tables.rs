@@ -161,11 +161,16 @@ pub fn load_user_table(
 }
 
 /// Table I, the nine master tables and Table VIII.
+///
+/// The built-in master tables are read when a lookup first needs them
+/// (reading all nine costs a few milliseconds, most of a command's start);
+/// Table I and Table VIII at once.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Tables {
     code_letters: CodeLetterTable,
-    /// Indexed by [`slot_index`].
-    masters: Vec<MasterTable>,
+    /// Indexed by [`slot_index`]; a built-in table is read on first use,
+    /// a user table is set when it is given.
+    masters: Vec<OnceLock<Result<MasterTable, StandardError>>>,
     limit_numbers: LimitNumberTable,
     /// The user tables in the set, in the order given.
     users: Vec<(TableSlot, String, String)>,
@@ -179,11 +184,12 @@ fn slot_index(severity: Severity, scheme: Scheme) -> Option<usize> {
 }
 
 impl Tables {
-    /// The built-in MIL-STD-105E tables, read once.
+    /// The built-in MIL-STD-105E tables, read once (the master tables on
+    /// first use).
     ///
     /// # Errors
-    /// [`StandardError::TableFile`] if a built-in file does not read (the
-    /// structural tests keep them readable).
+    /// [`StandardError::TableFile`] if the built-in Table I or VIII does
+    /// not read (the structural tests keep them readable).
     pub fn builtin() -> Result<&'static Tables, StandardError> {
         static BUILTIN: OnceLock<Result<Tables, StandardError>> = OnceLock::new();
         BUILTIN
@@ -200,7 +206,7 @@ impl Tables {
             Loaded::LimitNumbers(l) => t.limit_numbers = l.clone(),
             Loaded::Master(m) => {
                 if let Some(i) = slot_index(m.severity(), m.scheme()) {
-                    t.masters[i] = (**m).clone();
+                    t.masters[i] = OnceLock::from(Ok((**m).clone()));
                 }
             }
         }
@@ -238,17 +244,26 @@ impl Tables {
     ///
     /// # Errors
     /// [`StandardError::Scheme`] for a scheme without tables (sequential,
-    /// variables, rectifying).
+    /// variables, rectifying); [`StandardError::TableFile`] if a built-in
+    /// file does not read (the structural tests keep them readable).
     pub fn master(
         &self,
         severity: Severity,
         scheme: Scheme,
     ) -> Result<&MasterTable, StandardError> {
-        slot_index(severity, scheme)
-            .and_then(|i| self.masters.get(i))
-            .ok_or_else(|| StandardError::Scheme {
+        let Some((i, slot)) =
+            slot_index(severity, scheme).and_then(|i| Some((i, self.masters.get(i)?)))
+        else {
+            return Err(StandardError::Scheme {
                 given: scheme.name().to_string(),
-            })
+            });
+        };
+        slot.get_or_init(|| {
+            let (file, text) = MASTERS[i / 3].1[i % 3];
+            MasterTable::parse(file, &table_name(severity, scheme), text, severity, scheme)
+        })
+        .as_ref()
+        .map_err(Clone::clone)
     }
 
     /// Table VIII.
@@ -278,16 +293,9 @@ impl Tables {
 }
 
 fn read_builtin() -> Result<Tables, StandardError> {
-    let mut masters = Vec::with_capacity(9);
-    for (scheme, files) in MASTERS {
-        for (severity, (file, text)) in Severity::ALL.into_iter().zip(files) {
-            let name = table_name(severity, scheme);
-            masters.push(MasterTable::parse(file, &name, text, severity, scheme)?);
-        }
-    }
     Ok(Tables {
         code_letters: CodeLetterTable::parse(CODE_LETTERS.0, CODE_LETTERS.1)?,
-        masters,
+        masters: (0..9).map(|_| OnceLock::new()).collect(),
         limit_numbers: LimitNumberTable::parse(LIMIT_NUMBERS.0, LIMIT_NUMBERS.1)?,
         users: Vec::new(),
     })
