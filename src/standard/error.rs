@@ -59,19 +59,20 @@ pub enum StandardError {
         model: String,
     },
     /// A table cell that could not be transcribed ('?'), reached directly
-    /// or through an arrow.
+    /// or through an arrow, `*` or `++`.
     #[error(
-        "{table} has no transcribed plan for code letter {letter} at AQL {aql}{via}: the cell is marked '?' because no source available when the table was entered settles it, and lotsman never guesses a plan; give your own copy of the table as a user table file, or choose another scheme"
+        "{table} has no transcribed plan at code letter {letter}, AQL {aql}{via}: the cell is marked '?' because no source available when the table was entered settles it, and lotsman never guesses a plan; give your own copy of the table as a user table file, or choose another scheme"
     )]
     NotTranscribed {
-        /// The table, e.g. `Table II-C (single sampling, reduced inspection)`.
+        /// The table holding the cell, e.g. `Table II-C (single sampling,
+        /// reduced inspection)`.
         table: String,
-        /// The code letter the lookup started from.
+        /// The code letter of the cell.
         letter: String,
         /// The AQL as the standard prints it.
         aql: String,
-        /// How the lookup got there, e.g. ` (its arrow leads to code
-        /// letter B)`; empty when the code letter's own cell is '?'.
+        /// Where the lookup started when it is not that cell, e.g. `,
+        /// where the lookup for code letter C leads`; empty otherwise.
         via: String,
     },
     /// A table cell on which the table prints nothing.

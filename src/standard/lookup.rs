@@ -122,16 +122,20 @@ impl Tables {
                     table = self.master(severity, to)?;
                 }
                 TableCell::NotTranscribed => {
+                    let start = self.master(severity, scheme)?;
                     let via = if row == letter && table.scheme() == scheme {
                         String::new()
+                    } else if table.scheme() == scheme {
+                        format!(", where the lookup for code letter {letter} leads")
                     } else {
                         format!(
-                            ", reached from code letter {letter} (the cell at code letter {row})"
+                            ", where the lookup for code letter {letter} in {} leads",
+                            start.name()
                         )
                     };
                     return Err(StandardError::NotTranscribed {
                         table: table.name().to_string(),
-                        letter: letter.to_string(),
+                        letter: row.to_string(),
                         aql: aql.to_string(),
                         via,
                     });

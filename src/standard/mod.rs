@@ -16,7 +16,19 @@
 //!   say, and applies the 100 percent rule.
 //! - Several classes ([`Tables::classes_for_lot`], [`judge_classes`]):
 //!   each class of defects has its own AQL and so its own acceptance and
-//!   rejection numbers, read on the row of the lot's code letter.
+//!   rejection numbers, read on the row of the lot's code letter. Where
+//!   arrows send classes to rows of different sample sizes, each class
+//!   keeps its own plan by default and one draw of the largest sample
+//!   serves all ([`ClassRule`]; `classes.rs` argues the choice).
+//! - Reduced inspection's gap: a reduced plan may leave counts between Ac
+//!   and Re at its last stage; such a count accepts the lot and returns the
+//!   next lot to normal inspection (105E, 4.10.1.4). The last stage of a
+//!   [`StagedPlan`](crate::StagedPlan) decides every count, so a table
+//!   plan carries both: the table's numbers
+//!   ([`StandardPlan::table_numbers`]) and the plan that decides the lot,
+//!   accepting up to `Re - 1` ([`StandardPlan::stages`]).
+//! - Table VIII's limit numbers ([`Tables::limit_number`]), entered from
+//!   memory and unverified, for the switching rules.
 //! - True risks ([`true_risks`]): the exact OC of a table plan under the
 //!   binomial, Poisson or hypergeometric model, its producer's risk at the
 //!   AQL, the qualities at Pa 0.95, 0.50 and 0.10, and against a consumer's

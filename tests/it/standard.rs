@@ -372,7 +372,7 @@ fn refusals_say_what_and_how_to_fix() {
     let text = e.to_string();
     for part in [
         "Table II-C (single sampling, reduced inspection)",
-        "code letter A at AQL 25",
+        "has no transcribed plan at code letter A, AQL 25:",
         "marked '?'",
         "give your own copy of the table as a user table file, or choose another scheme",
     ] {
@@ -383,7 +383,7 @@ fn refusals_say_what_and_how_to_fix() {
         .unwrap_err()
         .to_string();
     assert!(
-        e.contains("reached from code letter C (the cell at code letter B)"),
+        e.contains("at code letter B, AQL 1000, where the lookup for code letter C leads:"),
         "{e}"
     );
     let e = t
@@ -615,4 +615,39 @@ fn limit_numbers_from_memory() {
     assert_eq!(t.limit_number(250, aql("0.65")), LimitNumber::TooFewUnits);
     assert_eq!(t.limit_number(10, aql("1.0")), LimitNumber::TooFewUnits);
     assert!(t.limit_numbers().source().contains("Table VIII"));
+}
+
+/// A '?' reached through '++' names the table where the lookup started:
+/// a user's multiple table for reduced inspection that says '++' (use the
+/// double plan) in row B leads into Table III-C, whose row B above AQL 10
+/// is not transcribed.
+#[test]
+fn an_untranscribed_cell_names_where_the_lookup_started() {
+    let path = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/data/standard/mil-std-105e/table-4c-multiple-reduced.csv"
+    );
+    let text: String = std::fs::read_to_string(path)
+        .unwrap()
+        .lines()
+        .map(|l| {
+            if l.starts_with("B,") {
+                format!("{}\n", l.replace(",?", ",++"))
+            } else {
+                format!("{l}\n")
+            }
+        })
+        .collect();
+    let user = load_user_table("mine.csv", &text, Severity::Reduced).unwrap();
+    let e = tables()
+        .with_user_table(&user)
+        .lookup(letter("B"), aql("25"), Severity::Reduced, Scheme::Multiple)
+        .unwrap_err()
+        .to_string();
+    assert!(
+        e.starts_with(
+            "Table III-C (double sampling, reduced inspection) has no transcribed plan at code letter B, AQL 25, where the lookup for code letter B in the user table mine.csv (multiple sampling, reduced inspection) leads:"
+        ),
+        "{e}"
+    );
 }
