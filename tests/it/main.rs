@@ -30,6 +30,8 @@ mod sheet;
 mod snapshots;
 mod staged;
 mod standard;
+mod standard_classes;
+mod standard_risks;
 mod standard_tables;
 mod svg;
 mod tradeoff_cli;

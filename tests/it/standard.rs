@@ -1,7 +1,8 @@
 //! Standard-indexed plans (issue 16): spot values of the MIL-STD-105E
-//! tables, the exact OC of table plans, refusals, user tables and several
-//! defect classes. The tables' structure is checked cell by cell in
-//! standard_tables.rs.
+//! tables, '*' and '++', the reduced gap, the 100 percent rule, refusals
+//! and user tables. The tables' structure is checked cell by cell in
+//! standard_tables.rs, the true risks in standard_risks.rs, several
+//! classes in standard_classes.rs.
 //!
 //! Sources, named per check: issue 16's own example; the notes on the
 //! standard (values read in excerpts of the legible 105E copy and a
@@ -10,38 +11,37 @@
 //! OC figures.
 
 use lotsman::{
-    Aql, ClassRule, CodeLetter, ConsumerPoint, Decision, InspectionLevel, LimitNumber, Model,
-    ModelKind, Scheme, Severity, Stage, StagedPlan, StandardAnswer, StandardError, StandardPlan,
-    Tables, evaluate, judge_classes, load_user_table, parse_classes, true_risks,
+    Aql, CodeLetter, InspectionLevel, LimitNumber, Model, ModelKind, Scheme, Severity,
+    StandardAnswer, StandardError, StandardPlan, Tables, load_user_table, true_risks,
 };
 
-fn tables() -> &'static Tables {
+pub(crate) fn tables() -> &'static Tables {
     Tables::builtin().unwrap()
 }
 
-fn aql(text: &str) -> Aql {
+pub(crate) fn aql(text: &str) -> Aql {
     text.parse().unwrap()
 }
 
-fn letter(text: &str) -> CodeLetter {
+pub(crate) fn letter(text: &str) -> CodeLetter {
     text.parse().unwrap()
 }
 
-fn plan(l: &str, a: &str, severity: Severity, scheme: Scheme) -> StandardPlan {
+pub(crate) fn plan(l: &str, a: &str, severity: Severity, scheme: Scheme) -> StandardPlan {
     tables()
         .lookup(letter(l), aql(a), severity, scheme)
         .unwrap()
 }
 
 /// `(n, Ac, Re)` of each stage as the table prints it.
-fn numbers(p: &StandardPlan) -> Vec<(u64, Option<u64>, u64)> {
+pub(crate) fn numbers(p: &StandardPlan) -> Vec<(u64, Option<u64>, u64)> {
     p.table_numbers
         .iter()
         .map(|s| (s.n, s.accept, s.reject))
         .collect()
 }
 
-fn model(kind: ModelKind, lot: Option<u64>) -> Model {
+pub(crate) fn model(kind: ModelKind, lot: Option<u64>) -> Model {
     Model::new(kind, lot).unwrap()
 }
 
@@ -173,139 +173,6 @@ fn the_reduced_gap_accepts_and_reinstates_normal() {
     assert!(p.notes.iter().any(|n| n.contains("4.10.1.4")));
     let normal = plan("K", "1.0", Severity::Normal, Scheme::Single);
     assert!(!normal.reinstates_normal(1, 3));
-}
-
-/// The table plans' OC through `true_risks` equals `evaluate` on the same
-/// stages written by hand, and both equal scipy.stats: binom.cdf(3, 125,
-/// p) for K at 1.0 single; for the double and multiple plans the stage
-/// recursion summed with scipy.stats.binom.pmf (values computed for this
-/// test, 16 digits); poisson.cdf(3, 1.25); hypergeom.cdf(3, 1500, 15,
-/// 125).
-#[test]
-fn table_plans_have_the_exact_oc_of_their_stages() {
-    let stage = |n, accept, reject| Stage { n, accept, reject };
-    let binomial = model(ModelKind::Binomial, None);
-    // (scheme, the stages by hand, (quality, Pa) from scipy)
-    type Case = (Scheme, Vec<Stage>, Vec<(f64, f64)>);
-    let cases: Vec<Case> = vec![
-        (
-            Scheme::Single,
-            vec![stage(125, Some(3), 4)],
-            vec![(0.01, 0.962_550_937_836_635_9)],
-        ),
-        (
-            Scheme::Double,
-            vec![stage(80, Some(1), 4), stage(160, Some(4), 5)],
-            vec![
-                (0.01, 0.977_391_952_305_540_7),
-                (0.05, 0.136_417_702_096_363_78),
-            ],
-        ),
-        (
-            Scheme::Multiple,
-            [
-                (None, 3),
-                (Some(0), 3),
-                (Some(1), 4),
-                (Some(2), 5),
-                (Some(3), 6),
-                (Some(4), 6),
-                (Some(6), 7),
-            ]
-            .iter()
-            .enumerate()
-            .map(|(i, &(a, r))| stage(32 * (i as u64 + 1), a, r))
-            .collect(),
-            vec![
-                (0.01, 0.961_652_921_725_059_8),
-                (0.03, 0.452_300_427_153_317_9),
-                (0.05, 0.099_296_648_718_851_95),
-            ],
-        ),
-    ];
-    for (scheme, stages, reference) in cases {
-        let p = plan("K", "1.0", Severity::Normal, scheme);
-        let qualities: Vec<f64> = reference.iter().map(|r| r.0).collect();
-        let risks = true_risks(&p, &binomial, &qualities, None).unwrap();
-        let by_hand = evaluate(
-            &StagedPlan::new(stages, &binomial).unwrap(),
-            &binomial,
-            &qualities,
-        )
-        .unwrap();
-        for ((got, hand), (q, pa)) in risks
-            .evaluation
-            .points
-            .iter()
-            .zip(&by_hand.points)
-            .zip(&reference)
-        {
-            assert_eq!(got.pa, hand.pa, "{scheme} at {q}");
-            assert!(
-                (got.pa - pa).abs() < 1e-12,
-                "{scheme} at {q}: {} vs {pa}",
-                got.pa
-            );
-        }
-        // The producer's risk is the OC's complement at the AQL, and the
-        // qualities at Pa 0.95, 0.50, 0.10 sit where the OC says.
-        let pa = |q: f64| lotsman::acceptance_probability(&p.stages, &binomial, q);
-        assert!((risks.producer_risk - (1.0 - pa(0.01))).abs() < 1e-15);
-        for (target, q) in [
-            (0.95, risks.quality_at_pa_95),
-            (0.50, risks.quality_at_pa_50),
-            (0.10, risks.quality_at_pa_10),
-        ] {
-            assert!(
-                (pa(q) - target).abs() < 1e-9,
-                "{scheme}: Pa({q}) = {}",
-                pa(q)
-            );
-        }
-    }
-    let p = plan("K", "1.0", Severity::Normal, Scheme::Single);
-    let poisson = true_risks(&p, &model(ModelKind::Poisson, None), &[0.01], None).unwrap();
-    assert!((poisson.evaluation.points[0].pa - 0.961_730_945_710_377_6).abs() < 1e-12);
-    let hyper = model(ModelKind::Hypergeometric, Some(1500));
-    let r = true_risks(&p, &hyper, &[0.01], None).unwrap();
-    assert!((r.evaluation.points[0].pa - 0.969_546_335_509_244_2).abs() < 1e-12);
-    assert!((r.producer_risk - (1.0 - 0.969_546_335_509_244_2)).abs() < 1e-12);
-}
-
-/// Against a consumer's point the table plan's risk there is reported
-/// with the two-point plan for the same points beside it: for K at 1.0
-/// (n = 125, Ac 3), Pa(5%) = binom.cdf(3, 125, 0.05) = 0.1238 (scipy), more
-/// than beta = 0.10; the designer's single plan for (1%, 0.05) and (5%,
-/// 0.10) is n = 132, c = 3 (scipy: binom.cdf(3, 132, 0.01) = 0.9557,
-/// binom.cdf(3, 132, 0.05) = 0.0992; n = 131 gives 0.1025 at 5%, and
-/// c = 2 needs n = 105, where the risk at 1% is 0.089).
-#[test]
-fn the_consumer_point_and_the_two_point_plan() {
-    let p = plan("K", "1.0", Severity::Normal, Scheme::Single);
-    let binomial = model(ModelKind::Binomial, None);
-    let point = ConsumerPoint {
-        rql: 0.05,
-        beta: 0.10,
-        alpha: 0.05,
-    };
-    let r = true_risks(&p, &binomial, &[], Some(point)).unwrap();
-    let c = r.consumer.unwrap();
-    assert!(
-        (c.consumer_risk - 0.123_784_7).abs() < 1e-7,
-        "{}",
-        c.consumer_risk
-    );
-    assert!(!c.meets_beta);
-    assert_eq!(c.table_n, 125);
-    let d = c.design.unwrap();
-    assert_eq!(d.design.plan.as_single(), Some((132, 3)));
-    assert_eq!(d.n, 132);
-    // An RQL not above the AQL is refused, not designed.
-    let bad = ConsumerPoint {
-        rql: 0.005,
-        ..point
-    };
-    assert!(true_risks(&p, &binomial, &[], Some(bad)).is_err());
 }
 
 /// The standard's 100 percent rule (footnote of its master tables): when
@@ -499,111 +366,6 @@ fn a_user_table_replaces_the_built_in_one() {
         .unwrap_err()
         .to_string();
     assert!(e.contains("the last stage must decide every count"), "{e}");
-}
-
-/// Several classes on one sample (issue 16's example classes, lot 1,500,
-/// level II, code letter K): critical 0.065 leads down to L (n = 200,
-/// Ac 0), major 1.0 is K's 3 4, minor 4.0 is K's 10 11. By default each
-/// class keeps its plan; with the largest sample's letter for all, major
-/// and minor are read at L: 5 6 and 14 15 (Table II-A, the excerpt's row
-/// L).
-#[test]
-fn several_classes_on_one_sample() {
-    let t = tables();
-    let classes = parse_classes(&["critical=0.065", "major=1.0", "minor=4.0"]).unwrap();
-    let own = t
-        .classes_for_lot(
-            1500,
-            InspectionLevel::II,
-            &classes,
-            Severity::Normal,
-            Scheme::Single,
-            ClassRule::OwnPlans,
-        )
-        .unwrap();
-    let singles = |p: &lotsman::ClassPlans| -> Vec<Option<(u64, u64)>> {
-        p.classes
-            .iter()
-            .map(|c| c.answer.plan().unwrap().stages.as_single())
-            .collect()
-    };
-    assert_eq!(
-        singles(&own),
-        [Some((200, 0)), Some((125, 3)), Some((125, 10))]
-    );
-    assert_eq!(own.sample_size(), 200);
-    let largest = t
-        .classes_for_lot(
-            1500,
-            InspectionLevel::II,
-            &classes,
-            Severity::Normal,
-            Scheme::Single,
-            ClassRule::LargestSample,
-        )
-        .unwrap();
-    assert_eq!(
-        singles(&largest),
-        [Some((200, 0)), Some((200, 5)), Some((200, 14))]
-    );
-    assert_eq!(
-        largest.classes[1].answer.plan().unwrap().code_letter,
-        letter("K")
-    );
-
-    // The lot: accepted only when every class accepts.
-    let verdict = |found: &[&[u64]]| {
-        let found: Vec<Vec<u64>> = found.iter().map(|f| f.to_vec()).collect();
-        judge_classes(&own, ModelKind::Binomial, &found)
-            .unwrap()
-            .decision
-    };
-    assert_eq!(verdict(&[&[0], &[3], &[10]]), Decision::Accept);
-    assert_eq!(verdict(&[&[1], &[0], &[0]]), Decision::Reject);
-    assert_eq!(verdict(&[&[0], &[3], &[11]]), Decision::Reject);
-    assert!(judge_classes(&own, ModelKind::Binomial, &[vec![0]]).is_err());
-}
-
-/// Double sampling with classes: go on while any class is undecided and
-/// none has rejected (K at 1.0 double: 80, Ac 1 Re 4; K at 4.0 double:
-/// 80, Ac 5 Re 9, then 160, Ac 12 Re 13, from memory).
-#[test]
-fn double_sampling_classes_go_on_while_one_is_undecided() {
-    let t = tables();
-    let classes = parse_classes(&["major=1.0", "minor=4.0"]).unwrap();
-    let plans = t
-        .classes_for_lot(
-            1500,
-            InspectionLevel::II,
-            &classes,
-            Severity::Normal,
-            Scheme::Double,
-            ClassRule::OwnPlans,
-        )
-        .unwrap();
-    let minor = plans.classes[1].answer.plan().unwrap();
-    assert_eq!(numbers(minor), [(80, Some(5), 9), (160, Some(12), 13)]);
-    let judge = |found: Vec<Vec<u64>>| judge_classes(&plans, ModelKind::Binomial, &found).unwrap();
-    let v = judge(vec![vec![0], vec![6]]);
-    assert_eq!(v.decision, Decision::Continue);
-    assert_eq!(v.classes[0].judgement.decision, Decision::Accept);
-    assert_eq!(judge(vec![vec![0], vec![6, 6]]).decision, Decision::Accept);
-    assert_eq!(judge(vec![vec![4], vec![6]]).decision, Decision::Reject);
-    // Reduced inspection: a count in the gap accepts and reinstates normal.
-    let reduced = t
-        .classes_for_lot(
-            1500,
-            InspectionLevel::II,
-            &classes,
-            Severity::Reduced,
-            Scheme::Single,
-            ClassRule::OwnPlans,
-        )
-        .unwrap();
-    let v = judge_classes(&reduced, ModelKind::Binomial, &[vec![2], vec![0]]).unwrap();
-    assert_eq!(v.decision, Decision::Accept);
-    assert!(v.classes[0].reinstates_normal);
-    assert!(!v.classes[1].reinstates_normal);
 }
 
 /// Table VIII (entered from memory only, unverified): the limit number
