@@ -413,3 +413,39 @@ fn an_untranscribed_cell_names_where_the_lookup_started() {
         "{e}"
     );
 }
+
+proptest::proptest! {
+    #![proptest_config(proptest::prelude::ProptestConfig { cases: 128, ..Default::default() })]
+
+    /// Any text given as a user table, the parsers of levels, AQLs and
+    /// classes, and a built-in table with one field replaced by anything:
+    /// a value or an error that says something, never a panic.
+    #[test]
+    fn user_text_never_panics(
+        text in "\\PC{0,120}|[A-S0-9,# ↓↑*+?\\n]{0,200}",
+        field in "\\PC{0,6}|[0-9 #↓↑*+?]{0,5}",
+        at in 0usize..4000,
+    ) {
+        for severity in Severity::ALL {
+            if let Err(e) = load_user_table("mine.csv", &text, severity) {
+                proptest::prop_assert!(!e.to_string().trim().is_empty());
+            }
+        }
+        let _ = InspectionLevel::parse(&text);
+        let _ = Aql::parse(&text);
+        let _ = lotsman::parse_classes(&[text.as_str(), "major=1.0"]);
+        let base = reduced_single_text();
+        let cuts: Vec<usize> = base.match_indices(',').map(|(i, _)| i).collect();
+        let i = cuts[at % cuts.len()];
+        let end = base[i + 1..].find([',', '\n']).map_or(base.len(), |j| i + 1 + j);
+        let mutated = format!("{}{field}{}", &base[..=i], &base[end..]);
+        if let Ok(user) = load_user_table("mine.csv", &mutated, Severity::Reduced) {
+            let t = tables().with_user_table(&user);
+            for l in CodeLetter::all() {
+                for a in Aql::all() {
+                    let _ = t.lookup(l, a, Severity::Reduced, Scheme::Single);
+                }
+            }
+        }
+    }
+}
