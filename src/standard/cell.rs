@@ -107,7 +107,7 @@ pub(crate) fn parse_token(text: &str) -> Result<Token, String> {
     }
     let bad = || {
         format!(
-            "'{t}' is not a cell of the tables: write the acceptance and rejection numbers as 'Ac Re' (for example '3 4', or '# 2' where a stage cannot accept), or one of ↓ ↑ * ++ ? (see the README of the built-in tables)"
+            "'{t}' is not a cell of the tables: write the acceptance and rejection numbers as 'Ac Re' (for example '3 4', or '# 2' where a stage cannot accept), or one of ↓ ↑ * ++ ? as in the built-in tables"
         )
     };
     let parts: Vec<&str> = t.split_whitespace().collect();

@@ -80,14 +80,14 @@ impl CodeLetterTable {
                 },
             };
             if let Some(previous) = rows.last()
-                && previous.lot_max.map(|m| m + 1) != Some(lot_min)
+                && previous.lot_max.map(|m| m.saturating_add(1)) != Some(lot_min)
             {
                 return Err(csv.fault(
                     *line,
                     Some(0),
                     format!(
                         "the ranges must follow each other without gap or overlap: this one should start at {}",
-                        previous.lot_max.map_or(0, |m| m + 1)
+                        previous.lot_max.map_or(0, |m| m.saturating_add(1))
                     ),
                 ));
             }

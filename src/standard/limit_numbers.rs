@@ -83,7 +83,7 @@ impl LimitNumberTable {
                 })?),
             };
             if let Some((_, previous, _)) = rows.last()
-                && previous.map(|m| m + 1) != Some(min)
+                && previous.map(|m| m.saturating_add(1)) != Some(min)
             {
                 return Err(csv.fault(
                     *line,

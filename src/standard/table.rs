@@ -27,7 +27,7 @@ use super::letter::CodeLetter;
 use super::severity::Severity;
 use crate::design::Scheme;
 use crate::model::{Model, ModelKind};
-use crate::plan::{Stage, StagedPlan};
+use crate::plan::{MAX_SAMPLE_SIZE, Stage, StagedPlan};
 
 /// The stage rows' names in the double and multiple files.
 const STAGE_NAMES: [&str; 7] = [
@@ -291,28 +291,36 @@ fn read_letter(
                 ),
             ));
         }
-        let size_column = first - if scheme == Scheme::Single { 1 } else { 2 };
-        let size = &fields[size_column];
-        if size.is_empty() && (scheme == Scheme::Single || fields[first - 1].is_empty()) {
+        // The sample size, and for double and multiple plans the
+        // cumulative one: both empty on a letter without plans.
+        let (size_column, cumulative_column) = match scheme {
+            Scheme::Single => (1, None),
+            _ => (2, Some(3)),
+        };
+        let size = fields[size_column].as_str();
+        let cumulative = cumulative_column.map(|c| fields[c].as_str());
+        if size.is_empty() && cumulative.is_none_or(str::is_empty) {
             continue;
         }
-        let (Some(n), cumulative) = (
-            count(size),
-            fields.get(first - 1).map(String::as_str).map(count),
-        ) else {
+        let Some(n) = count(size).filter(|n| (1..=MAX_SAMPLE_SIZE).contains(n)) else {
             return Err(csv.fault(
                 *l,
                 Some(size_column),
-                format!("'{size}' is not a sample size (a whole number of units)"),
+                format!(
+                    "'{size}' is not a sample size: give a whole number of units from 1 to {MAX_SAMPLE_SIZE}"
+                ),
             ));
         };
+        // Both at most 7 x 10^9: no overflow.
         let total = sizes.last().copied().unwrap_or(0) + n;
-        if n == 0 || (scheme != Scheme::Single && cumulative != Some(Some(total))) {
+        if let (Some(c), Some(column)) = (cumulative, cumulative_column)
+            && count(c) != Some(total)
+        {
             return Err(csv.fault(
                 *l,
-                Some(first - 1),
+                Some(column),
                 format!(
-                    "the sample size must be at least 1 and the cumulative sample size the sum of the sample sizes so far ({total})"
+                    "'{c}' is not the cumulative sample size: it must be the sum of the sample sizes so far, {total}"
                 ),
             ));
         }

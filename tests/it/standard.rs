@@ -361,6 +361,26 @@ fn a_user_table_replaces_the_built_in_one() {
         e.contains("runs off the table") || e.contains("reversed arrow"),
         "{e}"
     );
+    // Sample sizes beyond any plan, and cumulative sizes that do not add
+    // up, are refused with their line.
+    let double = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/data/standard/mil-std-105e/table-3a-double-normal.csv"
+    ))
+    .unwrap();
+    let huge = double.replace("K,second,80,160,", "K,second,18446744073709551615,160,");
+    let e = load_user_table("mine.csv", &huge, Severity::Normal)
+        .unwrap_err()
+        .to_string();
+    assert!(
+        e.contains("column 'sample_size': '18446744073709551615' is not a sample size"),
+        "{e}"
+    );
+    let sum = double.replace("K,second,80,160,", "K,second,80,161,");
+    let e = load_user_table("mine.csv", &sum, Severity::Normal)
+        .unwrap_err()
+        .to_string();
+    assert!(e.contains("'161' is not the cumulative sample size: it must be the sum of the sample sizes so far, 160"), "{e}");
     // A gap between Ac and Re outside reduced inspection is refused.
     let e = load_user_table("mine.csv", &reduced_single_text(), Severity::Normal)
         .unwrap_err()
@@ -423,7 +443,11 @@ proptest::proptest! {
     #[test]
     fn user_text_never_panics(
         text in "\\PC{0,120}|[A-S0-9,# ↓↑*+?\\n]{0,200}",
-        field in "\\PC{0,6}|[0-9 #↓↑*+?]{0,5}",
+        field in proptest::prop_oneof![
+            "\\PC{0,6}|[0-9 #↓↑*+?]{0,5}",
+            proptest::strategy::Just("18446744073709551615".to_string()),
+            proptest::strategy::Just("18446744073709551615 18446744073709551615".to_string()),
+        ],
         at in 0usize..4000,
     ) {
         for severity in Severity::ALL {
