@@ -51,8 +51,9 @@ mod model;
 // 2, plans and their measures.
 mod plan;
 
-// 3, designers.
+// 3, designers, and the standard's tables of plans.
 mod design;
+mod standard;
 
 // 4, plan sources.
 mod source;
@@ -133,4 +134,11 @@ pub use source::{
     RecordedPlan, RecordedVariables, SCHEMA_VERSION, SourceError, SourceJob, SourceText, TEMPLATES,
     UnmetPoint, VariablesSource, Verdict, audit, check_batch, check_source, check_texts,
     placeholders, read_measurements, source_work, template, template_kinds, tool_version, verify,
+};
+pub use standard::{
+    AQL_VALUES, Aql, ClassAql, ClassDecision, ClassPlan, ClassPlans, ClassRule, ClassVerdict,
+    CodeLetter, CodeLetterTable, ConsumerPoint, ConsumerRisk, InspectAll, InspectionLevel,
+    LimitNumber, LimitNumberTable, LotRange, MasterTable, Severity, StandardAnswer, StandardError,
+    StandardPlan, TableCell, TableSlot, Tables, TrueRisks, TwoPointPlan, UserTable, judge_classes,
+    load_user_table, parse_classes, table_name, true_risks,
 };

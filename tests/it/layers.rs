@@ -40,6 +40,7 @@ const LAYERS: &[(&str, u8, &str)] = &[
     ("src/model/", 1, "model"),
     ("src/plan/", 2, "plan"),
     ("src/design/", 3, "design"),
+    ("src/standard/", 3, "design"),
     ("src/source/", 4, "source"),
     ("src/report/", 5, "report"),
     ("src/print/", 6, "print"),
