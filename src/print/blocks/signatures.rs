@@ -71,6 +71,11 @@ pub fn signatures(c: &mut Canvas, f: &Common, area: Rect) {
 /// side in `area`, each with a line to sign and one to date (on an
 /// attributes sheet, under the lot record).
 pub fn approval_block(c: &mut Canvas, f: &Common, area: Rect) {
+    approval_of(c, [&f.source.prepared_by, &f.source.approved_by], area);
+}
+
+/// [`approval_block`] of the names `[prepared, approved]`.
+pub fn approval_of(c: &mut Canvas, [prepared, approved]: [&Option<String>; 2], area: Rect) {
     let (x, top, w, h) = (area.x, area.top(), area.w, area.h);
     c.claim("approval", area);
     c.rect_stroke(area, 0.5, grey(0.0));
@@ -82,8 +87,8 @@ pub fn approval_block(c: &mut Canvas, f: &Common, area: Rect) {
         None,
     );
     let people = [
-        (sheet::PREPARED_BY, given(&f.source.prepared_by)),
-        (sheet::APPROVED_BY, given(&f.source.approved_by)),
+        (sheet::PREPARED_BY, given(prepared)),
+        (sheet::APPROVED_BY, given(approved)),
     ];
     for (i, (label, name)) in people.iter().enumerate() {
         let hx = x + half * i as f64 + 2.0;

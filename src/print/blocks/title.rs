@@ -16,13 +16,57 @@ use crate::print::wording::sheet;
 const CHARACTERISTIC_SIZES: [f64; 3] = [8.0, 7.5, 7.0];
 const CHARACTERISTIC_LINES: usize = 5;
 
+/// What the title block prints: the document's fields, the lot size and
+/// the scheme, as the source of a sheet gives them.
+pub struct Heading<'a> {
+    /// The title.
+    pub title: &'a str,
+    /// The item inspected.
+    pub item: &'a Option<String>,
+    /// The characteristic inspected.
+    pub characteristic: &'a Option<String>,
+    /// The plan ID.
+    pub id: &'a Option<String>,
+    /// The revision.
+    pub revision: &'a Option<String>,
+    /// The revision's date.
+    pub date: &'a Option<String>,
+    /// The lot size field.
+    pub lot: String,
+    /// The scheme field.
+    pub scheme: &'a str,
+}
+
+impl<'a> Heading<'a> {
+    /// The heading of a plan source's sheet.
+    pub fn of(f: &'a Common) -> Self {
+        let source = f.source;
+        Heading {
+            title: &source.title,
+            item: &source.item,
+            characteristic: &source.characteristic,
+            id: &source.id,
+            revision: &source.revision,
+            date: &source.date,
+            lot: f
+                .lot_size
+                .map_or(sheet::NO_LOT_SIZE.to_string(), |n| format!("{n} units")),
+            scheme: &f.scheme,
+        }
+    }
+}
+
+/// The title block of a plan source's sheet (see [`heading_block`]).
+pub fn title_block(c: &mut Canvas, f: &Common, area: Rect) -> f64 {
+    heading_block(c, &Heading::of(f), area)
+}
+
 /// The title block: title, item and characteristic on the left; plan ID,
 /// revision, date, lot size and scheme on the right. The block hangs
 /// from the top of `area`, as wide and at least as tall, taller when a
 /// long characteristic needs the room; returns its height.
-pub fn title_block(c: &mut Canvas, f: &Common, area: Rect) -> f64 {
+pub fn heading_block(c: &mut Canvas, h: &Heading, area: Rect) -> f64 {
     let (left, top, width, min_h) = (area.x, area.top(), area.w, area.h);
-    let source = f.source;
     let right = left + width;
     let black = || grey(0.0);
     let meta_w = 52.0;
@@ -31,22 +75,16 @@ pub fn title_block(c: &mut Canvas, f: &Common, area: Rect) -> f64 {
     // Measured first, for the characteristic's size and the block's
     // height: the title and item above it, and the room they leave.
     let title_h = c
-        .fit(
-            &source.title,
-            Face::Bold,
-            title_w,
-            13.0,
-            Shrink::new(14.0, 8.0),
-        )
+        .fit(h.title, Face::Bold, title_w, 13.0, Shrink::new(14.0, 8.0))
         .height;
-    let item = given(&source.item);
+    let item = given(h.item);
     let item_h = c
         .fit(&item, Face::Regular, field_w, 9.0, Shrink::new(8.0, 5.5))
         .height
         .max(3.5);
     let above = 8.5 + title_h + item_h + 1.5;
     let room = min_h - above - 2.0;
-    let characteristic = given(&source.characteristic);
+    let characteristic = given(h.characteristic);
     let height_at = |c: &Canvas, size: f64| {
         let lines = c.wrap(&characteristic, Face::Regular, size, field_w).len();
         size * MM_PER_PT * 1.25 * lines.min(CHARACTERISTIC_LINES) as f64
@@ -71,7 +109,7 @@ pub fn title_block(c: &mut Canvas, f: &Common, area: Rect) -> f64 {
     let title_used = c.paragraph(
         "title",
         Rect::from_top(left + 3.0, top - 6.5, title_w, 13.0),
-        &source.title,
+        h.title,
         Face::Bold,
         Shrink::new(14.0, 8.0),
     );
@@ -106,15 +144,12 @@ pub fn title_block(c: &mut Canvas, f: &Common, area: Rect) -> f64 {
         black(),
         None,
     );
-    let lot = f
-        .lot_size
-        .map_or(sheet::NO_LOT_SIZE.to_string(), |n| format!("{n} units"));
     let meta = [
-        (sheet::PLAN_ID, given(&source.id)),
-        (sheet::REVISION, given(&source.revision)),
-        (sheet::DATE, given(&source.date)),
-        (sheet::LOT_SIZE, lot),
-        (sheet::SCHEME, f.scheme.clone()),
+        (sheet::PLAN_ID, given(h.id)),
+        (sheet::REVISION, given(h.revision)),
+        (sheet::DATE, given(h.date)),
+        (sheet::LOT_SIZE, h.lot.clone()),
+        (sheet::SCHEME, h.scheme.to_string()),
     ];
     // Five rows spread over the block's height.
     let pitch = (block_h - 5.0) / 5.0;
