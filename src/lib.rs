@@ -116,9 +116,11 @@ pub use plan::{
 };
 pub use print::{
     ChartKind, ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity,
-    Paper, SOURCE_NAME_KEY, Sheet, SheetNotes, SheetOptions, SheetVerdict, TradeoffMap, chart_svg,
-    check_sheet, check_sheet_text, render_sheet, render_sheet_noting, render_sheet_svg,
-    render_tradeoff_map, sheet_source_hash, source_hash, write_sheet, write_sheet_text,
+    Paper, ReducedLimit, SOURCE_NAME_KEY, SeverityPlan, Sheet, SheetDocument, SheetNotes,
+    SheetOptions, SheetVerdict, StandardClassFacts, StandardFacts, StandardSheetRequest,
+    TradeoffMap, chart_svg, check_sheet, check_sheet_text, render_sheet, render_sheet_noting,
+    render_sheet_svg, render_standard_sheet, render_standard_sheet_svg, render_tradeoff_map,
+    sheet_source_hash, source_hash, write_sheet, write_sheet_text,
 };
 pub use report::{
     AlternativeReport, BatchSummary, CostReport, DemoReport, DemoRow, DesignReport,

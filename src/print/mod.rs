@@ -31,6 +31,8 @@ pub(crate) mod page;
 pub(crate) mod palette;
 pub(crate) mod pdf;
 pub(crate) mod sheet;
+pub(crate) mod standard_facts;
+pub(crate) mod standard_sheet;
 pub(crate) mod svg;
 pub(crate) mod text;
 pub(crate) mod wording;
@@ -44,3 +46,8 @@ pub use sheet::{
     Sheet, SheetNotes, SheetOptions, render_sheet, render_sheet_noting, render_sheet_svg,
     write_sheet, write_sheet_text,
 };
+pub use standard_facts::{
+    ReducedLimit, SeverityPlan, SheetDocument, StandardClassFacts, StandardFacts,
+    StandardSheetRequest,
+};
+pub use standard_sheet::{render_standard_sheet, render_standard_sheet_svg};

@@ -2,8 +2,10 @@
 //! layout gives it, claims that area for the overlap check, and returns
 //! the height it took when it sizes itself.
 
+pub(crate) mod class_record;
 pub(crate) mod fields;
 pub(crate) mod footer;
+pub(crate) mod labelled;
 pub(crate) mod measures;
 pub(crate) mod notice;
 pub(crate) mod plan_box;
@@ -15,5 +17,9 @@ pub(crate) mod results;
 pub(crate) mod risks;
 pub(crate) mod rule;
 pub(crate) mod signatures;
+pub(crate) mod standard_notes;
+pub(crate) mod standard_plans;
+pub(crate) mod switching;
 pub(crate) mod table_box;
 pub(crate) mod title;
+pub(crate) mod true_risks;

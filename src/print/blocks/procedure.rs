@@ -14,8 +14,13 @@ pub const PROCEDURE_SIZES: [f64; 3] = [8.0, 7.5, 7.0];
 /// paragraph per step, each in what the earlier steps left above the
 /// bottom of `area`; `size` points, shrinking to 7 where a step needs it.
 pub fn steps_block(c: &mut Canvas, steps: &[String], area: Rect, size: f64) {
+    headed_steps(c, sheet::PROCEDURE, steps, area, size);
+}
+
+/// [`steps_block`] under the heading `heading`.
+pub fn headed_steps(c: &mut Canvas, heading: &str, steps: &[String], area: Rect, size: f64) {
     let (x, top, w, bottom) = (area.x, area.top(), area.w, area.y);
-    c.heading(x, top - 7.0, sheet::PROCEDURE);
+    c.heading(x, top - 7.0, heading);
     let mut step_top = top - 9.0;
     for step in steps {
         let used = c.paragraph(

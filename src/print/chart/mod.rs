@@ -16,6 +16,7 @@ pub(crate) mod oc;
 pub(crate) mod plot;
 pub(crate) mod scale;
 pub(crate) mod standalone;
+pub(crate) mod standard_oc;
 pub(crate) mod subject;
 pub(crate) mod variables_oc;
 

@@ -6,4 +6,5 @@ pub(crate) mod map;
 pub(crate) mod shared;
 pub(crate) mod single;
 pub(crate) mod staged;
+pub(crate) mod standard;
 pub(crate) mod variables;

@@ -5,4 +5,5 @@
 
 pub(crate) mod map;
 pub(crate) mod sheet;
+pub(crate) mod standard;
 pub(crate) mod variables;

@@ -1,0 +1,124 @@
+//! The sheet of a standard-indexed plan: one A4 or Letter page laid out
+//! by [`super::layouts::standard`] from [`StandardFacts`], drawn as a PDF
+//! ([`render_standard_sheet`]) or as SVG ([`render_standard_sheet_svg`]).
+//!
+//! Determinism as for the plan sheet: the date comes from the facts,
+//! fonts have fixed resource names, and the document ID, the subject and
+//! the source name come from the source's hash and file name, so the same
+//! facts and tool version give the same bytes.
+
+use super::canvas::{Canvas, Laid};
+use super::draw::Draw;
+use super::fonts::Fonts;
+use super::layouts::standard::standard_layout;
+use super::metadata::{HASH_PREFIX, SOURCE_NAME_KEY};
+use super::page::{Paper, printable};
+use super::pdf::{self, Document, PdfPage};
+use super::sheet::{Sheet, refusal};
+use super::standard_facts::StandardFacts;
+use super::svg::SvgPage;
+use crate::input::InputError;
+use crate::source::Error;
+
+/// The page margin, mm, as the plan sheet's.
+const MARGIN: f64 = 14.0;
+
+/// Renders the sheet of a standard-indexed plan: the code letter and how
+/// it was found, each class's table plans at normal, tightened and
+/// reduced inspection with the severity in force marked, the inspector's
+/// procedure, the switching rules, the OC curves of the first class
+/// sampled (and the switching scheme's when the facts carry it), the
+/// true risks with the two-point design beside them, the notes on how the
+/// plans were read (arrows, cells from memory), the lot record, the
+/// approval, the cautions and the provenance.
+///
+/// # Errors
+/// [`Error`] when the facts do not hang together
+/// ([`StandardFacts::check`]) or the source hash is not a SHA-256 in hex;
+/// when a plan does not fit its class's model or a curve point is out of
+/// range; when a text does not fit its box even at the smallest size,
+/// holds a character the sheet font cannot draw, or two blocks would
+/// overlap (a sheet is never printed with overflowing, overlapping or
+/// missing text).
+///
+/// # Example
+/// ```
+/// use lotsman::{ClassRule, InspectionLevel, ModelKind, Paper, Scheme, Severity, SheetDocument,
+///     StandardFacts, StandardSheetRequest, Tables, parse_classes, render_standard_sheet};
+/// let request = StandardSheetRequest {
+///     lot_size: 1500,
+///     level: InspectionLevel::II,
+///     classes: parse_classes(&["major=1.0", "minor=4.0"]).unwrap(),
+///     scheme: Scheme::Single,
+///     model: ModelKind::Binomial,
+///     severity: Severity::Normal,
+///     reduced: true,
+///     rule: ClassRule::OwnPlans,
+///     consumer: None,
+/// };
+/// let document = SheetDocument {
+///     title: "Cover plates, visual".into(),
+///     file_name: "cover.yaml".into(),
+///     source_sha256: "0".repeat(64),
+///     regenerate: "lotsman sheet cover.yaml --force".into(),
+///     ..SheetDocument::default()
+/// };
+/// let facts = StandardFacts::look_up(document, Tables::builtin().unwrap(), &request).unwrap();
+/// let sheet = render_standard_sheet(&facts, Paper::A4).unwrap();
+/// assert!(sheet.pdf.starts_with(b"%PDF"));
+/// ```
+pub fn render_standard_sheet(facts: &StandardFacts, paper: Paper) -> Result<Sheet, Error> {
+    let fonts = Fonts::embedded()?;
+    let (page, laid) = lay_out(facts, &fonts, paper, PdfPage::new())?;
+    let d = &facts.document;
+    let subject = format!("{HASH_PREFIX}{}", d.source_sha256);
+    let doc = Document {
+        title: &d.title,
+        subject: &subject,
+        hash: &d.source_sha256,
+        extra: &[(SOURCE_NAME_KEY, &d.file_name)],
+    };
+    let pdf = pdf::save(&doc, &fonts, paper.size(), page.into_ops())?;
+    Ok(Sheet {
+        pdf,
+        source_sha256: d.source_sha256.clone(),
+        regions: laid.regions,
+    })
+}
+
+/// [`render_standard_sheet`] as a standalone SVG document: the same page,
+/// laid out by the same code and refused for the same reasons.
+///
+/// # Errors
+/// As [`render_standard_sheet`].
+pub fn render_standard_sheet_svg(facts: &StandardFacts, paper: Paper) -> Result<String, Error> {
+    let fonts = Fonts::embedded()?;
+    let (page, _) = lay_out(facts, &fonts, paper, SvgPage::new(paper.size()))?;
+    Ok(page.finish(&facts.document.title))
+}
+
+/// The page of `facts` on `paper`, drawn on `backend`, with what the
+/// layout left to check; refused when it is not clean.
+fn lay_out<D: Draw>(
+    facts: &StandardFacts,
+    fonts: &Fonts,
+    paper: Paper,
+    mut backend: D,
+) -> Result<(D, Laid), Error> {
+    facts.check()?;
+    let hash = &facts.document.source_sha256;
+    if hash.len() != 64 || !hash.chars().all(|ch| ch.is_ascii_hexdigit()) {
+        return Err(InputError::Inconsistent(format!(
+            "the source hash '{hash}' is not a SHA-256 in hex (64 digits)"
+        ))
+        .into());
+    }
+    let (pw, ph) = paper.size();
+    let mut c = Canvas::new(&mut backend, fonts);
+    standard_layout(&mut c, facts, printable((pw, ph), MARGIN))?;
+    let laid = c.finish(pw, ph);
+    if !laid.is_clean() {
+        return Err(refusal(&laid, paper));
+    }
+    Ok((backend, laid))
+}
