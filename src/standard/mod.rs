@@ -41,6 +41,7 @@
 
 mod answer;
 mod aql;
+mod assessment;
 mod cell;
 mod classes;
 mod code_letters;
@@ -57,6 +58,9 @@ mod tables;
 
 pub use answer::{InspectAll, StandardAnswer, StandardPlan};
 pub use aql::{AQL_VALUES, Aql};
+pub use assessment::{
+    ClassAssessment, SeverityPa, StandardAssessment, StandardIndex, StandardRequest, assess,
+};
 pub use cell::TableCell;
 pub use classes::{
     ClassAql, ClassDecision, ClassPlan, ClassPlans, ClassRule, ClassVerdict, judge_classes,

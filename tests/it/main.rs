@@ -32,6 +32,7 @@ mod snapshots;
 mod staged;
 mod standard;
 mod standard_classes;
+mod standard_cli;
 mod standard_risks;
 mod standard_tables;
 mod svg;
