@@ -138,6 +138,12 @@ pub use source::{
     tool_version, verify,
 };
 pub use standard::{
+    ACCEPTED_TO_NORMAL, Counter, EXACT_STATES, LimitWindow, LotOutcomes, LotResult,
+    MAX_WINDOW_LOTS, MIN_WINDOW_LOTS, NOT_ACCEPTED_TO_STOP, REJECTION_SPAN, SchemeFigures,
+    SchemeOc, SwitchingError, SwitchingRules, SwitchingScheme, SwitchingState, WINDOW_STATE_BUDGET,
+    WindowAutomaton, WindowSolution, state_bound,
+};
+pub use standard::{
     AQL_VALUES, Aql, ClassAql, ClassAssessment, ClassDecision, ClassPlan, ClassPlans, ClassRule,
     ClassVerdict, CodeLetter, CodeLetterTable, ConsumerPoint, ConsumerRisk, InspectAll,
     InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable, Severity, SeverityPa,

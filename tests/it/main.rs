@@ -36,6 +36,8 @@ mod standard_cli;
 mod standard_risks;
 mod standard_tables;
 mod svg;
+mod switching_chain;
+mod switching_rules;
 mod tradeoff_cli;
 mod tradeoff_map;
 mod variables;
