@@ -16,6 +16,7 @@ mod format;
 mod judge;
 mod parts;
 mod rectifying;
+mod standard;
 mod table_kit;
 mod tradeoff;
 mod variables_design;
@@ -32,6 +33,10 @@ pub use self::format::{Format, Report, write_report};
 pub use self::judge::{JudgeReport, MeasurementJudgeReport};
 pub use self::parts::{PointReport, VariablesReport, variables_rule};
 pub use self::rectifying::{ProtectionReport, RectifyingPlanReport, RectifyingReport};
+pub use self::standard::{
+    ClassReport, ConsumerReport, EDITION, SeverityPlanReport, StandardPoint, StandardReport,
+    TrueRisksReport, TwoPointReport,
+};
 pub use self::tradeoff::{CostReport, TradeoffCellReport, TradeoffReport};
 pub use self::variables_design::VariablesDesignReport;
 pub use self::variables_evaluation::VariablesEvaluationReport;

@@ -14,6 +14,7 @@ mod rectifying;
 mod schema;
 mod templates;
 mod text;
+mod user_table;
 mod verify;
 mod work;
 mod yaml_words;
@@ -31,5 +32,6 @@ pub use schema::{
 };
 pub use templates::{Placeholder, TEMPLATES, placeholders, template, template_kinds};
 pub use text::SourceText;
+pub use user_table::read_user_table;
 pub use verify::{RISK_TOLERANCE, Verdict, verify};
 pub use work::{SourceJob, check_batch, check_source, check_texts, source_work};
