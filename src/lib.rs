@@ -116,11 +116,11 @@ pub use plan::{
 };
 pub use print::{
     ChartKind, ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity,
-    Paper, ReducedLimit, SOURCE_NAME_KEY, SeverityPlan, Sheet, SheetDocument, SheetNotes,
-    SheetOptions, SheetVerdict, StandardClassFacts, StandardFacts, StandardSheetRequest,
-    TradeoffMap, chart_svg, check_sheet, check_sheet_text, render_sheet, render_sheet_noting,
-    render_sheet_svg, render_standard_sheet, render_standard_sheet_svg, render_tradeoff_map,
-    sheet_source_hash, source_hash, write_sheet, write_sheet_text,
+    Paper, ReducedLimit, SCHEME_POINTS, SOURCE_NAME_KEY, SchemeCurve, Sheet, SheetDocument,
+    SheetNotes, SheetOptions, SheetVerdict, StandardClassFacts, StandardFacts, TradeoffMap,
+    chart_svg, check_sheet, check_sheet_text, render_sheet, render_sheet_noting, render_sheet_svg,
+    render_standard_sheet, render_standard_sheet_svg, render_tradeoff_map, sheet_source_hash,
+    source_hash, write_sheet, write_sheet_text,
 };
 pub use report::{
     AlternativeReport, BatchSummary, ClassReport, ConsumerReport, CostReport, DemoReport, DemoRow,
@@ -148,8 +148,8 @@ pub use standard::{
 pub use standard::{
     AQL_VALUES, Aql, ClassAql, ClassAssessment, ClassDecision, ClassPlan, ClassPlans, ClassRule,
     ClassVerdict, CodeLetter, CodeLetterTable, ConsumerPoint, ConsumerRisk, InspectAll,
-    InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable, Severity, SeverityPa,
-    StandardAnswer, StandardAssessment, StandardError, StandardIndex, StandardPlan,
+    InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable, SchemeRefusal, Severity,
+    SeverityPa, StandardAnswer, StandardAssessment, StandardError, StandardIndex, StandardPlan,
     StandardRequest, TableCell, TableSlot, Tables, TrueRisks, TwoPointPlan, UserTable, assess,
-    judge_classes, load_user_table, parse_classes, table_name, true_risks,
+    judge_classes, load_user_table, parse_classes, scheme_curve, table_name, true_risks,
 };

@@ -47,7 +47,6 @@ pub use sheet::{
     write_sheet, write_sheet_text,
 };
 pub use standard_facts::{
-    ReducedLimit, SeverityPlan, SheetDocument, StandardClassFacts, StandardFacts,
-    StandardSheetRequest,
+    ReducedLimit, SCHEME_POINTS, SchemeCurve, SheetDocument, StandardClassFacts, StandardFacts,
 };
 pub use standard_sheet::{render_standard_sheet, render_standard_sheet_svg};

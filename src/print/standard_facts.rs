@@ -1,18 +1,24 @@
 //! What the sheet of a standard-indexed plan prints from: the document's
 //! fields, the lot and its code letter, and for each class of defects
 //! its table plans at normal, tightened and reduced inspection with the
-//! risks each really gives ([`StandardFacts`]). The caller gathers them
-//! (from a source, or with [`StandardFacts::look_up`] from the tables);
+//! risks its plan in force really gives ([`StandardFacts`]). The caller
+//! answers the request with [`assess`](crate::standard::assess) and turns
+//! the answer into facts with [`StandardFacts::from_assessment`];
 //! the sheet computes nothing it could get wrong silently: it checks that
 //! the facts hang together and draws them.
 
 use crate::design::Scheme;
 use crate::input::InputError;
 use crate::model::{Model, ModelKind};
+use crate::plan::{StagedPlan, quality_at_pa};
+use crate::print::chart::scale::nice_ceiling;
 use crate::standard::{
-    Aql, ClassAql, ClassRule, CodeLetter, ConsumerPoint, InspectionLevel, LimitNumber, Severity,
-    StandardAnswer, StandardError, TableSlot, Tables, TrueRisks, true_risks,
+    Aql, ClassRule, CodeLetter, InspectionLevel, LimitNumber, Severity, StandardAnswer,
+    StandardAssessment, StandardError, StandardPlan, TableSlot, Tables, TrueRisks, scheme_curve,
 };
+
+/// The qualities at which the chart's scheme curve is computed.
+pub const SCHEME_POINTS: usize = 80;
 
 /// The fields of a sheet as a controlled document: what its title block,
 /// approval and footer print.
@@ -44,17 +50,6 @@ pub struct SheetDocument {
     pub regenerate: String,
 }
 
-/// One severity's answer for one class, with the risks its plan really
-/// gives.
-#[derive(Clone, Debug, PartialEq)]
-pub struct SeverityPlan {
-    /// The table plan, or every unit.
-    pub answer: StandardAnswer,
-    /// The true risks of the plan ([`true_risks`]); `None` when every unit
-    /// is inspected.
-    pub risks: Option<TrueRisks>,
-}
-
 /// What Table VIII gives a class for switching from normal to reduced
 /// inspection (105E, 4.7.3 b).
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -78,14 +73,15 @@ pub struct StandardClassFacts {
     pub name: String,
     /// Its AQL.
     pub aql: Aql,
-    /// The model its counts follow: the Poisson model above AQL 10.
+    /// The model its counts follow (the assessment's).
     pub model: Model,
-    /// Normal inspection.
-    pub normal: SeverityPlan,
-    /// Tightened inspection.
-    pub tightened: SeverityPlan,
-    /// Reduced inspection; `None` where the contract leaves it out.
-    pub reduced: Option<SeverityPlan>,
+    /// The answer at each severity of the scheme, in the order normal,
+    /// tightened, reduced (reduced left out where the contract leaves it
+    /// out), as [`ClassAssessment::answers`](crate::standard::ClassAssessment::answers).
+    pub answers: Vec<(Severity, StandardAnswer)>,
+    /// The true risks of the plan in force ([`true_risks`](crate::standard::true_risks));
+    /// `None` when it inspects every unit.
+    pub risks: Option<TrueRisks>,
     /// Table VIII's limit number for the move to reduced inspection;
     /// `None` with no reduced inspection or when normal inspection takes
     /// every unit.
@@ -93,19 +89,27 @@ pub struct StandardClassFacts {
 }
 
 impl StandardClassFacts {
-    /// The plan at `severity`, if the class has one.
-    pub fn at(&self, severity: Severity) -> Option<&SeverityPlan> {
-        match severity {
-            Severity::Normal => Some(&self.normal),
-            Severity::Tightened => Some(&self.tightened),
-            Severity::Reduced => self.reduced.as_ref(),
-        }
+    /// The answer at `severity`, if the class has one.
+    pub fn at(&self, severity: Severity) -> Option<&StandardAnswer> {
+        self.answers
+            .iter()
+            .find(|(s, _)| *s == severity)
+            .map(|(_, a)| a)
     }
 
     /// Whether its counts are nonconformities per unit.
     pub fn per_unit(&self) -> bool {
         self.model.kind() == ModelKind::Poisson
     }
+}
+
+/// The long-run OC of the switching scheme on the sheet's chart.
+#[derive(Clone, Debug, PartialEq)]
+pub enum SchemeCurve {
+    /// `(quality, Pa)` in the chart class's units.
+    Drawn(Vec<(f64, f64)>),
+    /// Why it is not drawn, in plain words: the chart says so in a note.
+    Refused(String),
 }
 
 /// What the sheet of a standard-indexed plan prints.
@@ -132,125 +136,123 @@ pub struct StandardFacts {
     /// The tables the user gave in place of the built-in ones: one line
     /// each, naming the table, the file and its SHA-256.
     pub user_tables: Vec<String>,
-    /// The long-run OC of the switching scheme for the chart's class,
-    /// `(quality, Pa)` in the class's units, when it has been computed.
-    pub scheme_oc: Option<Vec<(f64, f64)>>,
-}
-
-/// What [`StandardFacts::look_up`] reads from the tables.
-#[derive(Clone, Debug, PartialEq)]
-pub struct StandardSheetRequest {
-    /// The lot size.
-    pub lot_size: u64,
-    /// The inspection level.
-    pub level: InspectionLevel,
-    /// The classes with their AQLs, the most important first.
-    pub classes: Vec<ClassAql>,
-    /// Single, double or multiple.
-    pub scheme: Scheme,
-    /// The model of the counts (the Poisson model is taken for a class
-    /// above AQL 10 whatever this says).
-    pub model: ModelKind,
-    /// The severity in force.
-    pub severity: Severity,
-    /// Whether reduced inspection is part of the scheme.
-    pub reduced: bool,
-    /// How classes whose arrows lead to different rows are sampled.
-    pub rule: ClassRule,
-    /// A consumer's point to hold every class's plans against.
-    pub consumer: Option<ConsumerPoint>,
+    /// The long-run OC of the switching scheme for the chart's class.
+    pub scheme_oc: SchemeCurve,
 }
 
 impl StandardFacts {
-    /// The facts of `request` read from `tables`: each class's plans at
-    /// the three severities (two with no reduced inspection), their true
-    /// risks, and Table VIII's limit number for ten lots of the normal
-    /// plan's (first) sample.
+    /// The facts of the assessment `a` (from [`assess`](crate::standard::assess))
+    /// with the document's fields: each class's answers at each severity
+    /// and the true risks of its plan in force as `a` gives them, Table
+    /// VIII's limit number for ten lots of the normal plan's (first)
+    /// sample read from `tables` (the tables `a` was answered from), and
+    /// the switching scheme's long-run OC of the chart's class at
+    /// [`SCHEME_POINTS`] qualities across the chart
+    /// ([`StandardFacts::chart_reach`]), or why it is not drawn.
     ///
     /// # Errors
-    /// [`StandardError`] as [`Tables::classes_for_lot`] and
-    /// [`true_risks`] give it: a cell not transcribed, an AQL above 10
-    /// with a model of the fraction nonconforming, an RQL not above a
-    /// class's AQL.
-    pub fn look_up(
+    /// [`StandardError`] when a plan of the chart's class does not fit
+    /// the model.
+    pub fn from_assessment(
         document: SheetDocument,
+        a: &StandardAssessment,
         tables: &Tables,
-        request: &StandardSheetRequest,
     ) -> Result<StandardFacts, StandardError> {
-        let r = request;
-        let plans = |severity| {
-            tables.classes_for_lot(r.lot_size, r.level, &r.classes, severity, r.scheme, r.rule)
-        };
-        let normal = plans(Severity::Normal)?;
-        let tightened = plans(Severity::Tightened)?;
-        let reduced = if r.reduced {
-            Some(plans(Severity::Reduced)?)
-        } else {
-            None
-        };
+        let r = &a.request;
         let limit_from_memory = !tables
             .user_tables()
             .iter()
             .any(|(slot, _, _)| *slot == TableSlot::LimitNumbers);
-        let mut classes = Vec::with_capacity(r.classes.len());
-        for (k, class) in r.classes.iter().enumerate() {
-            let kind = if class.aql.per_hundred_units_only() {
-                ModelKind::Poisson
-            } else {
-                r.model
-            };
-            let model = Model::new(kind, Some(r.lot_size))?;
-            let at = |answer: &StandardAnswer| -> Result<SeverityPlan, StandardError> {
-                let risks = match answer.plan() {
-                    Some(plan) => Some(true_risks(plan, &model, &[], r.consumer)?),
-                    None => None,
+        let classes: Vec<StandardClassFacts> = a
+            .classes
+            .iter()
+            .map(|c| {
+                let limit = match (r.reduced(), c.at(Severity::Normal).and_then(|n| n.plan())) {
+                    (true, Some(plan)) => {
+                        let units = 10 * plan.stages.stages()[0].n;
+                        Some(ReducedLimit {
+                            units,
+                            number: tables.limit_number(units, c.class.aql),
+                            from_memory: limit_from_memory,
+                        })
+                    }
+                    _ => None,
                 };
-                Ok(SeverityPlan {
-                    answer: answer.clone(),
-                    risks,
-                })
-            };
-            let normal_answer = &normal.classes[k].answer;
-            let limit = match (r.reduced, normal_answer.plan()) {
-                (true, Some(plan)) => {
-                    let units = 10 * plan.stages.stages()[0].n;
-                    Some(ReducedLimit {
-                        units,
-                        number: tables.limit_number(units, class.aql),
-                        from_memory: limit_from_memory,
-                    })
+                StandardClassFacts {
+                    name: c.class.label(),
+                    aql: c.class.aql,
+                    model: *r.model(),
+                    answers: c.answers.clone(),
+                    risks: c.risks.clone(),
+                    limit,
                 }
-                _ => None,
-            };
-            classes.push(StandardClassFacts {
-                name: class.label(),
-                aql: class.aql,
-                model,
-                normal: at(normal_answer)?,
-                tightened: at(&tightened.classes[k].answer)?,
-                reduced: match &reduced {
-                    Some(p) => Some(at(&p.classes[k].answer)?),
-                    None => None,
-                },
-                limit,
-            });
-        }
-        Ok(StandardFacts {
+            })
+            .collect();
+        let mut facts = StandardFacts {
             document,
-            lot_size: r.lot_size,
-            level: r.level,
-            code_letter: normal.code_letter,
-            scheme: r.scheme,
-            severity: r.severity,
-            rule: r.rule,
+            lot_size: r.lot_size(),
+            level: r.level(),
+            code_letter: a.in_force().code_letter,
+            scheme: r.scheme(),
+            severity: r.severity(),
+            rule: r.rule(),
             classes,
             user_tables: tables
                 .user_tables()
                 .iter()
                 .map(|(slot, file, sha)| format!("{}: {file} (SHA-256 {sha})", slot_name(*slot)))
                 .collect(),
-            scheme_oc: None,
-        })
+            scheme_oc: SchemeCurve::Refused(String::new()),
+        };
+        facts.scheme_oc = match facts.chart_class() {
+            Some(k) => {
+                let reach = facts.chart_reach(k)?;
+                let qualities: Vec<f64> = (1..=SCHEME_POINTS)
+                    .map(|i| reach * i as f64 / SCHEME_POINTS as f64)
+                    .collect();
+                let limit = facts.classes[k].limit.map(|l| l.number);
+                match scheme_curve(a, k, limit, &qualities) {
+                    Ok(points) => SchemeCurve::Drawn(points),
+                    Err(why) => SchemeCurve::Refused(why),
+                }
+            }
+            None => SchemeCurve::Refused("every class inspects every unit".to_string()),
+        };
+        Ok(facts)
+    }
+
+    /// The plans of class `k` at the severities on the sheet, ready to
+    /// evaluate.
+    ///
+    /// # Errors
+    /// [`StandardError`] when a plan does not fit the class's model.
+    pub fn staged(
+        &self,
+        k: usize,
+    ) -> Result<Vec<(Severity, &StandardPlan, StagedPlan)>, StandardError> {
+        let cl = &self.classes[k];
+        let mut plans = Vec::new();
+        for s in self.severities() {
+            if let Some(p) = cl.at(s).and_then(StandardAnswer::plan) {
+                plans.push((s, p, p.plan_for(&cl.model)?));
+            }
+        }
+        Ok(plans)
+    }
+
+    /// The right end of the OC chart of class `k`: a round quality past
+    /// where every plan's `Pa` falls to 0.02, and past twice the AQL.
+    ///
+    /// # Errors
+    /// As [`StandardFacts::staged`].
+    pub fn chart_reach(&self, k: usize) -> Result<f64, StandardError> {
+        let cl = &self.classes[k];
+        let reach = self
+            .staged(k)?
+            .iter()
+            .map(|(_, _, staged)| quality_at_pa(staged, &cl.model, 0.02))
+            .fold(cl.aql.quality() * 2.0, f64::max);
+        Ok(nice_ceiling(reach))
     }
 
     /// The index of the class the OC chart shows: the first one sampled
@@ -260,7 +262,7 @@ impl StandardFacts {
         let sampled = |s: Severity| {
             self.classes
                 .iter()
-                .position(|c| c.at(s).is_some_and(|p| p.answer.plan().is_some()))
+                .position(|c| c.at(s).is_some_and(|p| p.plan().is_some()))
         };
         Severity::ALL.into_iter().find_map(sampled)
     }
@@ -276,7 +278,11 @@ impl StandardFacts {
         if self.classes.is_empty() {
             return bad("a standard-indexed sheet needs at least one class of defects".into());
         }
-        let with_reduced = self.classes.iter().filter(|c| c.reduced.is_some()).count();
+        let with_reduced = self
+            .classes
+            .iter()
+            .filter(|c| c.at(Severity::Reduced).is_some())
+            .count();
         if with_reduced != 0 && with_reduced != self.classes.len() {
             return bad(
                 "reduced inspection is given for some classes and not for others: give it for every class or for none"
@@ -293,7 +299,9 @@ impl StandardFacts {
 
     /// Whether reduced inspection is part of the scheme.
     pub fn has_reduced(&self) -> bool {
-        self.classes.iter().all(|c| c.reduced.is_some())
+        self.classes
+            .iter()
+            .all(|c| c.at(Severity::Reduced).is_some())
     }
 
     /// The severities on the sheet: normal and tightened, and reduced

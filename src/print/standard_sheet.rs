@@ -43,19 +43,18 @@ const MARGIN: f64 = 14.0;
 ///
 /// # Example
 /// ```
-/// use lotsman::{ClassRule, InspectionLevel, ModelKind, Paper, Scheme, Severity, SheetDocument,
-///     StandardFacts, StandardSheetRequest, Tables, parse_classes, render_standard_sheet};
-/// let request = StandardSheetRequest {
-///     lot_size: 1500,
-///     level: InspectionLevel::II,
+/// use lotsman::{ClassRule, InspectionLevel, Model, ModelKind, Paper, Scheme, Severity,
+///     SheetDocument, StandardFacts, StandardIndex, StandardRequest, Tables, assess,
+///     parse_classes, render_standard_sheet};
+/// let index = StandardIndex {
+///     lot_size: 1500, level: InspectionLevel::II,
 ///     classes: parse_classes(&["major=1.0", "minor=4.0"]).unwrap(),
-///     scheme: Scheme::Single,
-///     model: ModelKind::Binomial,
-///     severity: Severity::Normal,
-///     reduced: true,
-///     rule: ClassRule::OwnPlans,
-///     consumer: None,
+///     severity: Severity::Normal, scheme: Scheme::Single, reduced: true, rule: ClassRule::OwnPlans,
 /// };
+/// let model = Model::new(ModelKind::Binomial, None).unwrap();
+/// let request = StandardRequest::new(index, model).unwrap();
+/// let tables = Tables::builtin().unwrap();
+/// let assessment = assess(&request, tables, None, None).unwrap();
 /// let document = SheetDocument {
 ///     title: "Cover plates, visual".into(),
 ///     file_name: "cover.yaml".into(),
@@ -63,7 +62,7 @@ const MARGIN: f64 = 14.0;
 ///     regenerate: "lotsman sheet cover.yaml --force".into(),
 ///     ..SheetDocument::default()
 /// };
-/// let facts = StandardFacts::look_up(document, Tables::builtin().unwrap(), &request).unwrap();
+/// let facts = StandardFacts::from_assessment(document, &assessment, tables).unwrap();
 /// let sheet = render_standard_sheet(&facts, Paper::A4).unwrap();
 /// assert!(sheet.pdf.starts_with(b"%PDF"));
 /// ```

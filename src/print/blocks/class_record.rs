@@ -23,7 +23,7 @@ fn boxes(f: &StandardFacts, cl: &StandardClassFacts) -> usize {
     f.severities()
         .into_iter()
         .filter_map(|s| cl.at(s))
-        .filter_map(|p| p.answer.plan())
+        .filter_map(|p| p.plan())
         .map(|p| p.stages.stages().len())
         .max()
         .unwrap_or(1)

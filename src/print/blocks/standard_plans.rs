@@ -14,7 +14,7 @@ use crate::print::standard_facts::{StandardClassFacts, StandardFacts};
 use crate::print::text::Shrink;
 use crate::print::wording::sheet::CANNOT_ACCEPT;
 use crate::print::wording::standard as words;
-use crate::standard::{StandardAnswer, StandardPlan};
+use crate::standard::{Severity, StandardAnswer, StandardPlan};
 
 /// One cell: its text, face and colour.
 struct Cell {
@@ -107,7 +107,7 @@ fn group_cells(f: &StandardFacts, answer: &StandardAnswer) -> GroupCells {
 fn class_cells(f: &StandardFacts, c: &StandardClassFacts) -> Vec<GroupCells> {
     f.severities()
         .into_iter()
-        .filter_map(|s| c.at(s).map(|p| group_cells(f, &p.answer)))
+        .filter_map(|s| c.at(s).map(|a| group_cells(f, a)))
         .collect()
 }
 
@@ -157,9 +157,8 @@ pub fn standard_plan_box(c: &mut Canvas, f: &StandardFacts, at: Rect) -> f64 {
         .flatten()
         .any(|g| matches!(g, GroupCells::Plan(r) if r.len() > 1));
     let gap = f.classes.iter().any(|cl| {
-        cl.reduced.as_ref().is_some_and(|p| {
-            p.answer
-                .plan()
+        cl.at(Severity::Reduced).is_some_and(|p| {
+            p.plan()
                 .and_then(|p| p.table_numbers.last().copied())
                 .is_some_and(|s| s.accept.is_some_and(|a| a + 1 < s.reject))
         })

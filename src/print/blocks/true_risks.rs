@@ -1,5 +1,5 @@
-//! The true-risk table of a standard-indexed plan: for each class at each
-//! severity, the table plan's sample, its producer's risk at the AQL, the
+//! The true-risk table of a standard-indexed plan: for each class, the
+//! table plan in force: its sample, its producer's risk at the AQL, the
 //! qualities at which it accepts 95, 50 and 10 percent of lots and, given
 //! a consumer's point, its Pa there; beside it, when that point is given,
 //! the plan the two-point designer gives for the same points, with its n
@@ -29,21 +29,17 @@ const ROWS: usize = 2;
 const MIN_DESIGN_W: f64 = 52.0;
 
 /// The cells of one row: a class at one severity.
-fn row(cl: &StandardClassFacts, first: bool, s: Severity, risks: Option<&TrueRisks>) -> Vec<Cell> {
+fn row(cl: &StandardClassFacts, s: Severity, risks: Option<&TrueRisks>) -> Vec<Cell> {
     let q = |v: f64| quality(v, cl.per_unit());
     let mut cells = vec![
-        Cell::plain(if first {
-            cl.name.clone()
-        } else {
-            String::new()
-        }),
+        Cell::plain(cl.name.clone()),
         Cell::plain(s.name().to_string()),
     ];
     match risks {
         Some(r) => {
             let n = cl
                 .at(s)
-                .and_then(|p| p.answer.plan())
+                .and_then(|a| a.plan())
                 .map_or(0, |p| p.sample_size());
             cells.push(Cell::plain(n.to_string()));
             cells.push(Cell::plain(format_significant(r.producer_risk, 3)));
@@ -73,29 +69,24 @@ fn row(cl: &StandardClassFacts, first: bool, s: Severity, risks: Option<&TrueRis
     cells
 }
 
-/// Every row: each class at each severity shown.
+/// Every row: each class at the severity in force.
 fn rows(f: &StandardFacts, width: usize) -> Vec<Vec<Cell>> {
-    let mut out = Vec::new();
-    for cl in &f.classes {
-        for (i, s) in f.severities().into_iter().enumerate() {
-            let Some(plan) = cl.at(s) else { continue };
-            let mut cells = row(cl, i == 0, s, plan.risks.as_ref());
+    f.classes
+        .iter()
+        .map(|cl| {
+            let mut cells = row(cl, f.severity, cl.risks.as_ref());
             while cells.len() < width {
                 cells.push(Cell::plain(NOT_GIVEN.to_string()));
             }
-            out.push(cells);
-        }
-    }
-    out
+            cells
+        })
+        .collect()
 }
 
-/// The consumer's point of a class and what the table plan at normal
-/// inspection (else the first severity with risks) gives there.
+/// The consumer's point of a class and what its plan in force gives
+/// there.
 fn consumer(cl: &StandardClassFacts) -> Option<&ConsumerRisk> {
-    [Severity::Normal, Severity::Tightened, Severity::Reduced]
-        .into_iter()
-        .filter_map(|s| cl.at(s))
-        .find_map(|p| p.risks.as_ref().and_then(|r| r.consumer.as_ref()))
+    cl.risks.as_ref().and_then(|r| r.consumer.as_ref())
 }
 
 /// The table's rows and heads, with a consumer's point or without.
@@ -178,8 +169,7 @@ fn designs(f: &StandardFacts) -> Vec<String> {
         .iter()
         .filter_map(|cl| {
             let k = consumer(cl)?;
-            let table_n = cl.normal.answer.plan().map(|p| p.sample_size());
-            Some(words::two_point(cl, k, table_n))
+            Some(words::two_point(cl, k, f.severity))
         })
         .collect()
 }

@@ -7,14 +7,14 @@
 use super::axes::{Axes, frame};
 use super::legend::{LegendEntry, legend};
 use super::plot::Plot;
-use super::scale::{nice_ceiling, plain_tick, quality_tick};
+use super::scale::{plain_tick, quality_tick};
 use crate::numeric::{Quantity, Short, check};
-use crate::plan::{StagedPlan, measures, quality_at_pa};
+use crate::plan::measures;
 use crate::print::canvas::Canvas;
 use crate::print::draw::{Colour, Face, grey, rgb};
 use crate::print::geometry::Rect;
 use crate::print::palette::{ACCEPT, PLAN, REJECT};
-use crate::print::standard_facts::StandardFacts;
+use crate::print::standard_facts::{SchemeCurve, StandardFacts};
 use crate::print::wording::sheet;
 use crate::print::wording::standard as words;
 use crate::source::Error;
@@ -50,19 +50,9 @@ pub fn standard_oc_chart(
 ) -> Result<(), Error> {
     let cl = &f.classes[k];
     let model = cl.model;
-    let mut plans = Vec::new();
-    for s in f.severities() {
-        if let Some(p) = cl.at(s).and_then(|p| p.answer.plan()) {
-            let staged = StagedPlan::new(p.stages.stages().to_vec(), &model)?;
-            plans.push((s, p, staged));
-        }
-    }
+    let plans = f.staged(k)?;
     let aql = cl.aql.quality();
-    let reach = plans
-        .iter()
-        .map(|(_, _, staged)| quality_at_pa(staged, &model, 0.02))
-        .fold(aql * 2.0, f64::max);
-    let x_max = nice_ceiling(reach);
+    let x_max = f.chart_reach(k)?;
     let mut curves = Vec::new();
     for (s, _, staged) in &plans {
         let curve: Vec<(f64, f64)> = (0..=CURVE_POINTS)
@@ -79,7 +69,7 @@ pub fn standard_oc_chart(
         curves.push(curve);
     }
     let scheme: Vec<(f64, f64)> = match &f.scheme_oc {
-        Some(points) => {
+        SchemeCurve::Drawn(points) => {
             for &(p, pa) in points {
                 check(
                     Quantity::quality(model.kind()),
@@ -101,7 +91,7 @@ pub fn standard_oc_chart(
                 .filter(|&(p, _)| p <= x_max)
                 .collect()
         }
-        None => Vec::new(),
+        SchemeCurve::Refused(_) => Vec::new(),
     };
     let per_unit = cl.per_unit();
     let axis = quality_tick(per_unit);

@@ -93,7 +93,7 @@ pub fn procedure(f: &StandardFacts) -> Vec<String> {
     let plans: Vec<(&StandardClassFacts, &StandardAnswer)> = f
         .classes
         .iter()
-        .filter_map(|c| c.at(s).map(|p| (c, &p.answer)))
+        .filter_map(|c| c.at(s).map(|a| (c, a)))
         .collect();
     let sampled: Vec<_> = plans
         .iter()
@@ -227,9 +227,8 @@ pub fn switching_rules(f: &StandardFacts) -> Vec<(String, String)> {
     ];
     if f.has_reduced() {
         let staged = f.classes.iter().any(|c| {
-            c.normal
-                .answer
-                .plan()
+            c.at(Severity::Normal)
+                .and_then(StandardAnswer::plan)
                 .is_some_and(|p| p.stages.stages().len() > 1)
         });
         let limits: Vec<String> = f
@@ -296,7 +295,7 @@ fn per_class(f: &StandardFacts, pick: impl Fn(&StandardAnswer) -> Option<String>
             let items: Vec<(Severity, String)> = f
                 .severities()
                 .into_iter()
-                .filter_map(|s| c.at(s).and_then(|p| pick(&p.answer)).map(|w| (s, w)))
+                .filter_map(|s| c.at(s).and_then(&pick).map(|w| (s, w)))
                 .collect();
             (!items.is_empty()).then(|| at_severities(&c.name, &items))
         })
@@ -436,12 +435,12 @@ pub fn risk_heads_rql(per_unit: bool) -> [[&'static str; 2]; 8] {
 /// The heading of the two-point design beside the true-risk table.
 pub const TWO_POINT_HEADING: &str = "TWO-POINT DESIGN, SAME POINTS";
 
-/// A class's two-point design against its table plan at normal
-/// inspection (`table_n`, `None` when it inspects every unit).
+/// A class's two-point design against its table plan in force (at
+/// `severity`).
 pub fn two_point(
     cl: &StandardClassFacts,
     k: &crate::standard::ConsumerRisk,
-    table_n: Option<u64>,
+    severity: Severity,
 ) -> String {
     let per_unit = cl.per_unit();
     let q = |v: f64| crate::print::wording::sheet::quality(v, per_unit);
@@ -458,14 +457,14 @@ pub fn two_point(
         },
         Err(_) => "no plan within the designer's limits".to_string(),
     };
-    let table = table_n.map_or("every unit".to_string(), |n| format!("n = {n}"));
     format!(
-        "{}: AQL {} at α {}, RQL {} at β {}: {design}; the table plan at normal takes {table}.",
+        "{}: AQL {} at α {}, RQL {} at β {}: {design}; the table plan at {severity} takes n = {}.",
         cl.name,
         q(cl.aql.quality()),
         point.alpha,
         q(point.rql),
-        point.beta
+        point.beta,
+        k.table_n
     )
 }
 
