@@ -240,8 +240,9 @@ impl StandardFacts {
         Ok(plans)
     }
 
-    /// The right end of the OC chart of class `k`: a round quality past
-    /// where every plan's `Pa` falls to 0.02, and past twice the AQL.
+    /// The right end of the OC chart of class `k`: a round quality half as
+    /// far again as where every plan's `Pa` falls to 0.02 (and twice the
+    /// AQL), so that the top right corner is clear for the legend.
     ///
     /// # Errors
     /// As [`StandardFacts::staged`].
@@ -252,7 +253,7 @@ impl StandardFacts {
             .iter()
             .map(|(_, _, staged)| quality_at_pa(staged, &cl.model, 0.02))
             .fold(cl.aql.quality() * 2.0, f64::max);
-        Ok(nice_ceiling(reach))
+        Ok(nice_ceiling(reach * 1.5))
     }
 
     /// The index of the class the OC chart shows: the first one sampled

@@ -63,10 +63,12 @@ fn item_width(c: &Canvas, f: &StandardFacts, cl: &StandardClassFacts) -> f64 {
 /// The record's height `w` mm wide.
 pub fn class_record_height(c: &Canvas, f: &StandardFacts, w: f64) -> f64 {
     let counts = count_lines(c, f, w - 4.0).len();
-    HEAD_H + PITCH * (3 + counts) as f64 + 0.5
+    HEAD_H + PITCH * (4 + counts) as f64 + 0.5
 }
 
-/// The lot record in `area`.
+/// The lot record in `area`: the lot number and the date; the severity
+/// the lot was inspected on; each class's count; the decision; who
+/// inspected it.
 pub fn class_record(c: &mut Canvas, f: &StandardFacts, area: Rect) {
     let (x, top, w) = (area.x, area.top(), area.w);
     c.claim("record", area);
@@ -74,8 +76,7 @@ pub fn class_record(c: &mut Canvas, f: &StandardFacts, area: Rect) {
     c.heading(x + 2.0, top - 3.8, sheet::RECORD);
     let (inner, end) = (x + 2.0, x + w - 2.0);
     let row_y = |i: usize| top - HEAD_H - PITCH * (i as f64 + 1.0) + 1.5;
-    // The lot number, and the severity the lot was inspected on.
-    let split = inner + (end - inner) * 0.42;
+    let split = inner + (end - inner) * 0.6;
     field(
         c,
         inner,
@@ -84,81 +85,71 @@ pub fn class_record(c: &mut Canvas, f: &StandardFacts, area: Rect) {
         variables::LOT_NUMBER,
         false,
     );
-    let mut bx = split;
+    field(c, split, end, row_y(0), variables::INSPECTED_ON, false);
+    let mut bx = inner;
     c.text(
         bx,
-        row_y(0),
+        row_y(1),
         words::INSPECTION,
         Face::Regular,
         SIZE,
         grey(0.1),
     );
-    bx += c.width(words::INSPECTION, Face::Regular, SIZE) + 1.5;
+    bx += c.width(words::INSPECTION, Face::Regular, SIZE) + 2.0;
     for s in f.severities() {
-        c.rect_stroke(Rect::new(bx, row_y(0) - 0.8, 3.2, 3.2), 0.5, grey(0.2));
-        c.text(bx + 4.2, row_y(0), s.name(), Face::Regular, 6.5, grey(0.1));
-        bx += 4.2 + c.width(s.name(), Face::Regular, 6.5) + 2.5;
+        c.rect_stroke(Rect::new(bx, row_y(1) - 0.8, 3.2, 3.2), 0.5, grey(0.2));
+        c.text(bx + 4.2, row_y(1), s.name(), Face::Regular, SIZE, grey(0.1));
+        bx += 4.2 + c.width(s.name(), Face::Regular, SIZE) + 3.0;
     }
-    if bx - 2.5 > end {
+    if bx - 3.0 > end {
         c.fault("lot record: the severity boxes leave no room".to_string());
     }
-    // Each class's count.
     let lines = count_lines(c, f, end - inner);
     c.text(
         inner,
-        row_y(1),
+        row_y(2),
         words::FOUND,
         Face::Regular,
         SIZE,
         grey(0.1),
     );
     for (i, line) in lines.iter().enumerate() {
-        let y = row_y(1 + i);
+        let y = row_y(2 + i);
         for &(at, k) in line {
-            let cl = &f.classes[k];
-            let lx = inner + at;
-            c.text(lx, y, &cl.name, Face::Regular, SIZE, grey(0.1));
-            let mut b = lx + c.width(&cl.name, Face::Regular, SIZE) + 1.5;
-            let n = boxes(f, cl);
-            for stage in 0..n {
-                c.rect_stroke(Rect::new(b, y - 1.2, BOX_W, 4.4), 0.5, grey(0.2));
-                if n > 1 {
-                    c.text(
-                        b + 0.5,
-                        y + 1.5,
-                        &(stage + 1).to_string(),
-                        Face::Regular,
-                        4.5,
-                        grey(0.45),
-                    );
-                }
-                b += BOX_W + 1.0;
-            }
-            if b - 1.0 > end + 1e-6 {
-                c.fault(format!(
-                    "lot record: the count boxes of {} leave no room",
-                    cl.name
-                ));
-            }
+            count_boxes(c, f, k, (inner + at, y), end);
         }
     }
-    let after = 1 + lines.len();
+    let after = 2 + lines.len();
     decision_row(c, inner, row_y(after));
-    let split = inner + (end - inner) * 0.6;
     field(
         c,
         inner,
-        split - 3.0,
+        end,
         row_y(after + 1),
         variables::INSPECTED_BY,
         false,
     );
-    field(
-        c,
-        split,
-        end,
-        row_y(after + 1),
-        variables::INSPECTED_ON,
-        false,
-    );
+}
+
+/// The count field of class `k` from `(x, y)`: its name and a box per
+/// stage, numbered when there are several; a fault past `end`.
+fn count_boxes(c: &mut Canvas, f: &StandardFacts, k: usize, (x, y): (f64, f64), end: f64) {
+    let cl = &f.classes[k];
+    c.text(x, y, &cl.name, Face::Regular, SIZE, grey(0.1));
+    let mut b = x + c.width(&cl.name, Face::Regular, SIZE) + 1.5;
+    let n = boxes(f, cl);
+    for stage in 0..n {
+        c.rect_stroke(Rect::new(b, y - 1.2, BOX_W, 4.4), 0.5, grey(0.2));
+        if n > 1 {
+            let label = (stage + 1).to_string();
+            c.text(b + 0.5, y + 1.5, &label, Face::Regular, 4.5, grey(0.45));
+        }
+        b += BOX_W + 1.0;
+    }
+    if b - 1.0 > end + 1e-6 {
+        c.fault(format!(
+            "lot record: the count boxes of {} leave no room",
+            cl.name
+        ));
+    }
 }

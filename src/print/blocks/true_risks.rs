@@ -26,7 +26,7 @@ const TOP: f64 = 5.5;
 const ROWS: usize = 2;
 
 /// The narrowest the two-point design beside the table may be, mm.
-const MIN_DESIGN_W: f64 = 52.0;
+const MIN_DESIGN_W: f64 = 40.0;
 
 /// The cells of one row: a class at one severity.
 fn row(cl: &StandardClassFacts, s: Severity, risks: Option<&TrueRisks>) -> Vec<Cell> {

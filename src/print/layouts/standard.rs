@@ -1,11 +1,12 @@
 //! The page of a standard-indexed plan: title block; the plan box (the
 //! code letter and every class's table plans at each severity, the one
-//! in force shaded); the inspector's procedure for the severity in force
-//! beside the switching rules; the true-risk table with the two-point
-//! design beside it; the OC chart beside the notes, the lot record and
-//! the approval; the footer with the cautions and the provenance.
+//! in force shaded) with the notes on how the plans were read under it;
+//! the inspector's procedure for the severity in force beside the
+//! switching rules; the true-risk table with the two-point design beside
+//! it; the OC chart beside the lot record and the approval; the footer
+//! with the cautions and the provenance.
 //!
-//! The texts of the middle band (procedure, switching rules, notes) take
+//! The texts of the middle band (notes, procedure, switching rules) take
 //! one size, the largest at which the chart keeps its least height and
 //! the right column fits beside it.
 
@@ -86,21 +87,28 @@ pub fn standard_layout(c: &mut Canvas, f: &StandardFacts, page: Rect) -> Result<
     let sized = |size: f64| {
         let band =
             steps_height(c, &steps, proc_w - 4.0, size).max(switching_height(c, f, switch_w, size));
-        let notes = notes_height(c, f, RIGHT_W, size);
+        let notes = notes_height(c, f, width, size);
         Sized { size, band, notes }
     };
     // The row of the chart: what the blocks above leave.
-    let row_h = |s: &Sized| top - s.band - GAP - risks_h - GAP - GAP - foot_top;
-    let right_h = |s: &Sized| {
-        let notes = if s.notes > 0.0 { s.notes + GAP } else { 0.0 };
-        notes + record_h + GAP + APPROVAL_H
-    };
+    let notes_room = |s: &Sized| if s.notes > 0.0 { s.notes + GAP } else { 0.0 };
+    let row_h = |s: &Sized| top - notes_room(s) - s.band - GAP - risks_h - GAP - GAP - foot_top;
+    let right_h = record_h + GAP + APPROVAL_H;
     let options: Vec<Sized> = TEXT_SIZES.iter().map(|&s| sized(s)).collect();
     let chosen = options
         .iter()
-        .find(|s| row_h(s) >= MIN_CHART_H.max(right_h(s)))
+        .find(|s| row_h(s) >= MIN_CHART_H.max(right_h))
         .unwrap_or(&options[options.len() - 1]);
 
+    if chosen.notes > 0.0 {
+        notes_block(
+            c,
+            f,
+            Rect::from_top(left, top, width, chosen.notes),
+            chosen.size,
+        );
+        top -= chosen.notes + GAP;
+    }
     let band = Rect::from_top(left, top, width, chosen.band);
     let (procedure, switching) = band.split_left(proc_w, GAP);
     c.claim("procedure", procedure);
@@ -124,10 +132,10 @@ pub fn standard_layout(c: &mut Canvas, f: &StandardFacts, page: Rect) -> Result<
 
     let row = Rect::new(left, foot_top + GAP, width, top - foot_top - GAP);
     let (right, chart) = row.split_right(RIGHT_W, GAP + 1.0);
-    if row.h < MIN_CHART_H - 1e-9 || row.h < right_h(chosen) - 1e-9 {
+    if row.h < MIN_CHART_H.max(right_h) - 1e-9 {
         c.fault(format!(
             "the chart and the column beside it need {:.0} mm and the page leaves {:.0} mm",
-            MIN_CHART_H.max(right_h(chosen)),
+            MIN_CHART_H.max(right_h),
             row.h
         ));
     }
@@ -145,17 +153,11 @@ pub fn standard_layout(c: &mut Canvas, f: &StandardFacts, page: Rect) -> Result<
             );
         }
     }
-    let mut y = right.top();
-    if chosen.notes > 0.0 {
-        notes_block(
-            c,
-            f,
-            Rect::from_top(right.x, y, right.w, chosen.notes),
-            chosen.size,
-        );
-        y -= chosen.notes + GAP;
-    }
-    class_record(c, f, Rect::from_top(right.x, y, right.w, record_h));
+    class_record(
+        c,
+        f,
+        Rect::from_top(right.x, right.top(), right.w, record_h),
+    );
     approval_of(
         c,
         [&d.prepared_by, &d.approved_by],

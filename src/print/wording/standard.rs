@@ -6,7 +6,7 @@
 //! normal, tightened and reduced inspection, limit number) are the
 //! standard's.
 
-use crate::print::standard_facts::{ReducedLimit, StandardClassFacts, StandardFacts};
+use crate::print::standard_facts::{ReducedLimit, SchemeCurve, StandardClassFacts, StandardFacts};
 use crate::standard::{ClassRule, LimitNumber, Severity, StandardAnswer};
 
 /// The severity as the sheet heads it.
@@ -387,6 +387,12 @@ pub fn notes(f: &StandardFacts) -> Vec<(String, String)> {
                 "Tables given in place of the built-in ones: {}.",
                 f.user_tables.join("; ")
             ),
+        ));
+    }
+    if let SchemeCurve::Refused(why) = &f.scheme_oc {
+        notes.push((
+            "Scheme".to_string(),
+            format!("The switching scheme's long-run OC is not drawn on the chart: {why}."),
         ));
     }
     notes
