@@ -145,9 +145,9 @@ pub use standard::{
 };
 pub use standard::{
     AQL_VALUES, Aql, ClassAql, ClassAssessment, ClassDecision, ClassPlan, ClassPlans, ClassRule,
-    ClassVerdict, CodeLetter, CodeLetterTable, ConsumerPoint, ConsumerRisk, InspectAll,
-    InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable, Severity, SeverityPa,
-    StandardAnswer, StandardAssessment, StandardError, StandardIndex, StandardPlan,
+    ClassScheme, ClassVerdict, CodeLetter, CodeLetterTable, ConsumerPoint, ConsumerRisk,
+    InspectAll, InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable, Severity,
+    SeverityPa, StandardAnswer, StandardAssessment, StandardError, StandardIndex, StandardPlan,
     StandardRequest, TableCell, TableSlot, Tables, TrueRisks, TwoPointPlan, UserTable, assess,
     judge_classes, load_user_table, parse_classes, table_name, true_risks,
 };
