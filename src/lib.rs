@@ -147,9 +147,10 @@ pub use standard::{
 };
 pub use standard::{
     AQL_VALUES, Aql, ClassAql, ClassAssessment, ClassDecision, ClassPlan, ClassPlans, ClassRule,
-    ClassVerdict, CodeLetter, CodeLetterTable, ConsumerPoint, ConsumerRisk, InspectAll,
-    InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable, SchemeRefusal, Severity,
-    SeverityPa, StandardAnswer, StandardAssessment, StandardError, StandardIndex, StandardPlan,
-    StandardRequest, TableCell, TableSlot, Tables, TrueRisks, TwoPointPlan, UserTable, assess,
-    judge_classes, load_user_table, parse_classes, scheme_curve, table_name, true_risks,
+    ClassScheme, ClassVerdict, CodeLetter, CodeLetterTable, ConsumerPoint, ConsumerRisk,
+    InspectAll, InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable,
+    SchemeRefusal, Severity, SeverityPa, StandardAnswer, StandardAssessment, StandardError,
+    StandardIndex, StandardPlan, StandardRequest, TableCell, TableSlot, Tables, TrueRisks,
+    TwoPointPlan, UserTable, assess, judge_classes, load_user_table, parse_classes, scheme_curve,
+    table_name, true_risks,
 };

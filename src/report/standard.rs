@@ -5,7 +5,7 @@
 //!
 //! JSON keys (the contract with scripts, docs/json.md): `code_letter`,
 //! `plan_letter`, `severity`, `stages`, `points` (`quality`, `pa_normal`,
-//! `pa_tightened`, `pa_reduced`) and `true_risks` describe the first
+//! `pa_tightened`, `pa_reduced`, `scheme_pa`) and `true_risks` describe the first
 //! class's plan in force; `classes` gives every class the same way.
 
 use std::io::{self, Write};
@@ -38,6 +38,9 @@ pub struct StandardPoint {
     pub pa_tightened: Option<f64>,
     /// `Pa` on reduced inspection (`null` with --no-reduced).
     pub pa_reduced: Option<f64>,
+    /// The switching scheme's long-run `Pa` (`null` when it cannot be
+    /// given; the class's `scheme_note` says why).
+    pub scheme_pa: Option<f64>,
 }
 
 impl From<&SeverityPa> for StandardPoint {
@@ -47,6 +50,7 @@ impl From<&SeverityPa> for StandardPoint {
             pa_normal: p.normal,
             pa_tightened: p.tightened,
             pa_reduced: p.reduced,
+            scheme_pa: p.scheme,
         }
     }
 }
@@ -203,6 +207,9 @@ pub struct ClassReport {
     pub points: Vec<StandardPoint>,
     /// The true risks of the plan in force (`null` for every unit).
     pub true_risks: Option<TrueRisksReport>,
+    /// Why `scheme_pa` is `null`, or that it is bracketed rather than
+    /// exact; `null` when it is exact.
+    pub scheme_note: Option<String>,
 }
 
 impl ClassReport {
@@ -224,6 +231,7 @@ impl ClassReport {
             inspect_all: in_force.inspect_all,
             points: c.points.iter().map(StandardPoint::from).collect(),
             true_risks: c.risks.as_ref().map(TrueRisksReport::from),
+            scheme_note: c.scheme_note.clone(),
             plans,
         }
     }
@@ -392,6 +400,7 @@ impl StandardReport {
         if reduced {
             head.push("Pa reduced");
         }
+        head.push("Pa scheme");
         let mut g = grid(&head);
         let pa = |v: Option<f64>| v.map_or("-".to_string(), |x| format!("{x:.4}"));
         for p in &c.points {
@@ -399,9 +408,23 @@ impl StandardReport {
             if reduced {
                 row.push(pa(p.pa_reduced));
             }
+            row.push(pa(p.scheme_pa));
             g.add_row(row);
         }
-        writeln!(out, "{g}")
+        writeln!(out, "{g}")?;
+        writeln!(
+            out,
+            "Pa scheme: the long-run share of lots accepted under the switching rules{}, production steady and reduced inspection approved whenever the rules allow it.",
+            if reduced {
+                ""
+            } else {
+                " without reduced inspection"
+            }
+        )?;
+        if let Some(note) = &c.scheme_note {
+            writeln!(out, "  - {}", escape_controls(note))?;
+        }
+        Ok(())
     }
 }
 
@@ -442,6 +465,7 @@ impl Report for StandardReport {
             "pa_normal",
             "pa_tightened",
             "pa_reduced",
+            "scheme_pa",
         ])?;
         for c in &self.classes {
             let n = c.plans.iter().find(|p| p.severity == self.severity);
@@ -457,6 +481,7 @@ impl Report for StandardReport {
                     opt(p.pa_normal),
                     opt(p.pa_tightened),
                     opt(p.pa_reduced),
+                    opt(p.scheme_pa),
                 ])?;
             }
         }

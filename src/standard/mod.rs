@@ -43,6 +43,7 @@ mod answer;
 mod aql;
 mod assessment;
 mod cell;
+mod class_scheme;
 mod classes;
 mod code_letters;
 mod csv_text;
@@ -64,6 +65,7 @@ pub use assessment::{
     ClassAssessment, SeverityPa, StandardAssessment, StandardIndex, StandardRequest, assess,
 };
 pub use cell::TableCell;
+pub use class_scheme::ClassScheme;
 pub use classes::{
     ClassAql, ClassDecision, ClassPlan, ClassPlans, ClassRule, ClassVerdict, judge_classes,
     parse_classes,

@@ -131,6 +131,13 @@ fn points_give_pa_at_each_severity() {
         "--no-reduced",
     ]);
     assert!(point_at(&without, 0.01)["pa_reduced"].is_null());
+    // Without reduced inspection the scheme alternates normal and tightened
+    // spells (the closed form derived in tests/it/switching_chain.rs):
+    // m_N = (2 - a^4) / (rho (1 - a^4)), E_T = (1 - b^5) / ((1 - b) b^5),
+    // scheme Pa = (m_N a + E_T b) / (m_N + E_T), with a and b from scipy
+    // above: 0.9593069329401029 (python3 with scipy.stats.binom).
+    let scheme = point_at(&without, 0.01)["scheme_pa"].as_f64().unwrap();
+    assert!((scheme - 0.959_306_932_940_102_9).abs() < 1e-12, "{scheme}");
     let plans = without["classes"][0]["plans"].as_array().unwrap();
     assert_eq!(plans.len(), 2, "no reduced plan with --no-reduced");
 }
@@ -263,7 +270,7 @@ fn csv_has_one_row_per_class_and_quality() {
     let lines: Vec<&str> = text.lines().collect();
     assert_eq!(
         lines[0],
-        "class,aql,code_letter,plan_letter,severity,n,quality,pa_normal,pa_tightened,pa_reduced"
+        "class,aql,code_letter,plan_letter,severity,n,quality,pa_normal,pa_tightened,pa_reduced,scheme_pa"
     );
     assert_eq!(lines.len(), 5);
     assert!(

@@ -150,6 +150,48 @@ fn window_passes(accepted: &[f64], m: u32, limit: u32) -> f64 {
     h.iter().sum()
 }
 
+/// The rest of a run from the lots still in it, `v` (total `mass`), when
+/// one more lot takes them to `v_next` (`vQ`) and fires the window for
+/// `fired` of them: bounds from the Collatz-Wielandt ratios
+/// `lambda_min <= (vQ)_i / v_i <= lambda_max`. Since `vQ <= lambda_max v`
+/// elementwise and `Q` is nonnegative, `v Q^j <= lambda_max^j v`, so the
+/// expected lots left are at most `mass / (1 - lambda_max)` and the
+/// chance of firing at most `fired / (1 - lambda_max)`; `lambda_min` gives
+/// the lower ends (Seneta, *Non-negative Matrices and Markov Chains*, 2nd
+/// ed., 1981, 1.1, from memory). `None` while a state outside `v`'s
+/// support is reached (the ratio is unbounded) or `lambda_max >= 1`.
+fn geometric_rest(
+    v: &[f64],
+    v_next: &[f64],
+    mass: f64,
+    fired: f64,
+    rho: f64,
+) -> Option<(RunSummary, RunSummary)> {
+    let (mut lo, mut hi) = (f64::INFINITY, 0.0f64);
+    for (&a, &b) in v.iter().zip(v_next) {
+        if a > 0.0 {
+            let r = b / a;
+            lo = lo.min(r);
+            hi = hi.max(r);
+        } else if b > 0.0 {
+            return None;
+        }
+    }
+    // NaN ratios cannot occur (both vectors are finite and nonnegative).
+    if hi >= 1.0 {
+        return None;
+    }
+    let rest = |lambda: f64| {
+        let lots = mass / (1.0 - lambda);
+        RunSummary {
+            lots,
+            by_rejection: rho * lots,
+            by_window: fired / (1.0 - lambda),
+        }
+    };
+    Some((rest(lo), rest(hi)))
+}
+
 /// `G` and `phi` summed lot by lot, with a proven bound on the rest.
 fn sum_by_lots(
     w: &WindowAutomaton,
@@ -210,9 +252,8 @@ fn sum_by_lots(
         if k >= MAX_LOTS {
             return Err(SwitchingError::NotSettled { quality, steps: k });
         }
-        lots += mass;
-        by_rejection += rho * mass;
         v_next.iter_mut().for_each(|x| *x = 0.0);
+        let mut fired = 0.0;
         for (s, &vs) in v.iter().enumerate() {
             if vs == 0.0 {
                 continue;
@@ -220,12 +261,34 @@ fn sum_by_lots(
             let row = &next[s * arity..(s + 1) * arity];
             for (&t, &p) in row.iter().zip(accepted) {
                 if t == FIRE {
-                    by_window += vs * p;
+                    fired += vs * p;
                 } else {
                     v_next[t as usize] += vs * p;
                 }
             }
         }
+        if k >= u64::from(m)
+            && let Some((low, high)) = geometric_rest(&v, &v_next, mass, fired, rho)
+        {
+            let total = |rest: &RunSummary| RunSummary {
+                lots: lots + rest.lots,
+                by_rejection: by_rejection + rest.by_rejection,
+                by_window: by_window + rest.by_window,
+            };
+            let (low, high) = (total(&low), total(&high));
+            if high.lots - low.lots <= RELATIVE_TAIL * low.lots
+                && high.by_window - low.by_window <= RELATIVE_TAIL
+            {
+                return Ok(RunOutcome::Bracketed {
+                    low,
+                    high,
+                    lots_summed: k,
+                });
+            }
+        }
+        lots += mass;
+        by_rejection += rho * mass;
+        by_window += fired;
         std::mem::swap(&mut v, &mut v_next);
         k += 1;
     }
