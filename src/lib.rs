@@ -124,16 +124,20 @@ pub use report::{
     AlternativeReport, BatchSummary, CostReport, DemoReport, DemoRow, DesignReport,
     EvaluationBatchReport, EvaluationEntry, EvaluationReport, Failure, Format, JudgeReport,
     MeasurementJudgeReport, Outcome, PointReport, ProtectionReport, RectifyingPlanReport,
-    RectifyingReport, Report, SourceEvaluation, TradeoffCellReport, TradeoffReport,
-    VariablesDesignReport, VariablesEvaluationReport, VariablesReport, VerificationReport,
-    VerifyEntry, VerifyStatus, variables_rule, words, write_report,
+    RectifyingReport, Report, SourceEvaluation, StandardJudgeReport, StandardPlansReport,
+    TradeoffCellReport, TradeoffReport, VariablesDesignReport, VariablesEvaluationReport,
+    VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words,
+    write_report,
 };
 pub use source::{
-    Audit, Audited, Description, Difference, Discrepancy, Error, MAX_BRACKET_DEPTH,
-    MAX_MEASUREMENTS_BYTES, MAX_SOURCE_BYTES, Placeholder, PlanSource, PointSource, RISK_TOLERANCE,
-    RecordedPlan, RecordedVariables, SCHEMA_VERSION, SourceError, SourceJob, SourceText, TEMPLATES,
-    UnmetPoint, VariablesSource, Verdict, audit, check_batch, check_source, check_texts,
-    placeholders, read_measurements, source_work, template, template_kinds, tool_version, verify,
+    Audit, Audited, ClassSource, Description, Difference, Discrepancy, Edition, Error,
+    MAX_BRACKET_DEPTH, MAX_CLASSES, MAX_MEASUREMENTS_BYTES, MAX_SOURCE_BYTES, MAX_TABLE_BYTES,
+    Placeholder, PlanSource, PointSource, RISK_TOLERANCE, RecordedClass, RecordedPlan,
+    RecordedTablePlan, RecordedVariables, SCHEMA_VERSION, STANDARD_ALPHA, SourceError, SourceJob,
+    SourceText, StandardJudgement, StandardSource, StandardSourceRequest, TEMPLATES,
+    TableFileSource, UnmetPoint, VariablesSource, Verdict, audit, check_batch, check_source,
+    check_texts, parse_class_counts, placeholders, read_measurements, relative_table_path,
+    source_work, template, template_kinds, tool_version, verify, verify_at,
 };
 pub use standard::{
     AQL_VALUES, Aql, ClassAql, ClassDecision, ClassPlan, ClassPlans, ClassRule, ClassVerdict,

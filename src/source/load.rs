@@ -65,6 +65,8 @@ impl PlanSource {
             source.variables_request().map(drop)
         } else if source.is_rectifying() {
             source.rectifying_request().map(drop)
+        } else if source.is_standard() {
+            source.standard_request().map(drop)
         } else {
             source.request().map(drop)
         };
@@ -143,6 +145,12 @@ impl PlanSource {
                 self.title
             )));
         }
+        if self.is_standard() {
+            return Err(InputError::Inconsistent(format!(
+                "the source '{}' is a standard-indexed plan (scheme: standard), read from the standard's tables by its AQL, not designed from two risk points",
+                self.title
+            )));
+        }
         if self.variables.is_some() {
             return Err(InputError::Inconsistent(format!(
                 "'variables' applies to variables plans only, and this source's scheme is {}",
@@ -150,6 +158,7 @@ impl PlanSource {
             )));
         }
         self.refuse_rectifying_section()?;
+        self.refuse_standard_section()?;
         let (model, risks) = self.model_and_risks()?;
         let options = self.scheme_options()?;
         Ok(DesignRequest {
@@ -191,6 +200,7 @@ impl PlanSource {
             }
         }
         self.refuse_rectifying_section()?;
+        self.refuse_standard_section()?;
         let spec = Specification::new(v.sigma, v.sigma_value, v.limit, v.lower, v.upper)?;
         let (model, risks) = self.model_and_risks()?;
         VariablesRequest::new(spec, risks, model)

@@ -12,6 +12,7 @@ mod measurements;
 mod record;
 mod rectifying;
 mod schema;
+mod standard;
 mod templates;
 mod text;
 mod verify;
@@ -29,7 +30,12 @@ pub use record::tool_version;
 pub use schema::{
     PlanSource, PointSource, RecordedPlan, RecordedVariables, SCHEMA_VERSION, VariablesSource,
 };
+pub use standard::{
+    ClassSource, Edition, MAX_CLASSES, MAX_TABLE_BYTES, RecordedClass, RecordedTablePlan,
+    STANDARD_ALPHA, StandardJudgement, StandardSource, StandardSourceRequest, TableFileSource,
+    parse_class_counts, relative_table_path,
+};
 pub use templates::{Placeholder, TEMPLATES, placeholders, template, template_kinds};
 pub use text::SourceText;
-pub use verify::{RISK_TOLERANCE, Verdict, verify};
+pub use verify::{RISK_TOLERANCE, Verdict, verify, verify_at};
 pub use work::{SourceJob, check_batch, check_source, check_texts, source_work};
