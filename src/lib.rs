@@ -121,13 +121,14 @@ pub use print::{
     render_tradeoff_map, sheet_source_hash, source_hash, write_sheet, write_sheet_text,
 };
 pub use report::{
-    AlternativeReport, BatchSummary, CostReport, DemoReport, DemoRow, DesignReport,
-    EvaluationBatchReport, EvaluationEntry, EvaluationReport, Failure, Format, JudgeReport,
-    MeasurementJudgeReport, Outcome, PointReport, ProtectionReport, RectifyingPlanReport,
-    RectifyingReport, Report, SourceEvaluation, StandardJudgeReport, StandardPlansReport,
-    TradeoffCellReport, TradeoffReport, VariablesDesignReport, VariablesEvaluationReport,
-    VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words,
-    write_report,
+    AlternativeReport, BatchSummary, ClassReport, ConsumerReport, CostReport, DemoReport, DemoRow,
+    DesignReport, EDITION, EvaluationBatchReport, EvaluationEntry, EvaluationReport, Failure,
+    Format, JudgeReport, MeasurementJudgeReport, Outcome, PointReport, ProtectionReport,
+    RectifyingPlanReport, RectifyingReport, Report, SeverityPlanReport, SourceEvaluation,
+    StandardJudgeReport, StandardPlansReport, StandardPoint, StandardReport, TradeoffCellReport,
+    TradeoffReport, TrueRisksReport, TwoPointReport, VariablesDesignReport,
+    VariablesEvaluationReport, VariablesReport, VerificationReport, VerifyEntry, VerifyStatus,
+    variables_rule, words, write_report,
 };
 pub use source::{
     Audit, Audited, ClassSource, Description, Difference, Discrepancy, Edition, Error,
@@ -136,13 +137,20 @@ pub use source::{
     RecordedTablePlan, RecordedVariables, SCHEMA_VERSION, STANDARD_ALPHA, SourceError, SourceJob,
     SourceText, StandardJudgement, StandardSource, StandardSourceRequest, TEMPLATES,
     TableFileSource, UnmetPoint, VariablesSource, Verdict, audit, check_batch, check_source,
-    check_texts, parse_class_counts, placeholders, read_measurements, relative_table_path,
-    source_work, template, template_kinds, tool_version, verify, verify_at,
+    check_texts, parse_class_counts, placeholders, read_measurements, read_user_table,
+    relative_table_path, source_work, template, template_kinds, tool_version, verify, verify_at,
 };
 pub use standard::{
-    AQL_VALUES, Aql, ClassAql, ClassDecision, ClassPlan, ClassPlans, ClassRule, ClassVerdict,
-    CodeLetter, CodeLetterTable, ConsumerPoint, ConsumerRisk, InspectAll, InspectionLevel,
-    LimitNumber, LimitNumberTable, LotRange, MasterTable, Severity, StandardAnswer, StandardError,
-    StandardPlan, TableCell, TableSlot, Tables, TrueRisks, TwoPointPlan, UserTable, judge_classes,
-    load_user_table, parse_classes, table_name, true_risks,
+    ACCEPTED_TO_NORMAL, Counter, EXACT_STATES, LimitWindow, LotOutcomes, LotResult,
+    MAX_WINDOW_LOTS, MIN_WINDOW_LOTS, NOT_ACCEPTED_TO_STOP, REJECTION_SPAN, SchemeFigures,
+    SchemeOc, SwitchingError, SwitchingRules, SwitchingScheme, SwitchingState, WINDOW_STATE_BUDGET,
+    WindowAutomaton, WindowSolution, state_bound,
+};
+pub use standard::{
+    AQL_VALUES, Aql, ClassAql, ClassAssessment, ClassDecision, ClassPlan, ClassPlans, ClassRule,
+    ClassVerdict, CodeLetter, CodeLetterTable, ConsumerPoint, ConsumerRisk, InspectAll,
+    InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable, Severity, SeverityPa,
+    StandardAnswer, StandardAssessment, StandardError, StandardIndex, StandardPlan,
+    StandardRequest, TableCell, TableSlot, Tables, TrueRisks, TwoPointPlan, UserTable, assess,
+    judge_classes, load_user_table, parse_classes, table_name, true_risks,
 };

@@ -16,6 +16,7 @@ mod format;
 mod judge;
 mod parts;
 mod rectifying;
+mod standard;
 mod standard_judge;
 mod standard_plans;
 mod table_kit;
@@ -34,6 +35,10 @@ pub use self::format::{Format, Report, write_report};
 pub use self::judge::{JudgeReport, MeasurementJudgeReport};
 pub use self::parts::{PointReport, VariablesReport, variables_rule};
 pub use self::rectifying::{ProtectionReport, RectifyingPlanReport, RectifyingReport};
+pub use self::standard::{
+    ClassReport, ConsumerReport, EDITION, SeverityPlanReport, StandardPoint, StandardReport,
+    TrueRisksReport, TwoPointReport,
+};
 pub use self::standard_judge::StandardJudgeReport;
 pub use self::standard_plans::StandardPlansReport;
 pub use self::tradeoff::{CostReport, TradeoffCellReport, TradeoffReport};

@@ -85,6 +85,10 @@ pub enum Error {
     /// See [`SourceError`].
     #[error(transparent)]
     Source(#[from] SourceError),
+    /// A standard-indexed request without an answer; see
+    /// [`StandardError`](crate::StandardError).
+    #[error(transparent)]
+    Standard(#[from] crate::standard::StandardError),
     /// A computed number out of its range; see
     /// [`NumericalError`](crate::NumericalError).
     #[error(transparent)]

@@ -15,6 +15,7 @@ mod schema;
 mod standard;
 mod templates;
 mod text;
+mod user_table;
 mod verify;
 mod work;
 mod yaml_words;
@@ -37,5 +38,6 @@ pub use standard::{
 };
 pub use templates::{Placeholder, TEMPLATES, placeholders, template, template_kinds};
 pub use text::SourceText;
+pub use user_table::read_user_table;
 pub use verify::{RISK_TOLERANCE, Verdict, verify, verify_at};
 pub use work::{SourceJob, check_batch, check_source, check_texts, source_work};

@@ -61,7 +61,7 @@ pub enum StandardError {
     /// A table cell that could not be transcribed ('?'), reached directly
     /// or through an arrow, `*` or `++`.
     #[error(
-        "{table} has no transcribed plan at code letter {letter}, AQL {aql}{via}: the cell is marked '?' because no source available when the table was entered settles it, and lotsman never guesses a plan; give your own copy of the table as a user table file, or choose another scheme"
+        "{table} has no transcribed plan at code letter {letter}, AQL {aql}{via}: the cell is marked '?' because no source available when the table was entered settles it, and lotsman never guesses a plan; give your own copy of the table (lotsman standard --table SEVERITY=FILE.csv), leave reduced inspection out (--no-reduced) when the cell is on reduced inspection, or choose another scheme"
     )]
     NotTranscribed {
         /// The table holding the cell, e.g. `Table II-C (single sampling,

@@ -41,6 +41,7 @@
 
 mod answer;
 mod aql;
+mod assessment;
 mod cell;
 mod classes;
 mod code_letters;
@@ -52,11 +53,15 @@ mod lookup;
 mod provenance;
 mod risks;
 mod severity;
+mod switching;
 mod table;
 mod tables;
 
 pub use answer::{InspectAll, StandardAnswer, StandardPlan};
 pub use aql::{AQL_VALUES, Aql};
+pub use assessment::{
+    ClassAssessment, SeverityPa, StandardAssessment, StandardIndex, StandardRequest, assess,
+};
 pub use cell::TableCell;
 pub use classes::{
     ClassAql, ClassDecision, ClassPlan, ClassPlans, ClassRule, ClassVerdict, judge_classes,
@@ -68,5 +73,11 @@ pub use letter::{CodeLetter, InspectionLevel};
 pub use limit_numbers::{LimitNumber, LimitNumberTable};
 pub use risks::{ConsumerPoint, ConsumerRisk, TrueRisks, TwoPointPlan, true_risks};
 pub use severity::Severity;
+pub use switching::{
+    ACCEPTED_TO_NORMAL, Counter, EXACT_STATES, LimitWindow, LotOutcomes, LotResult,
+    MAX_WINDOW_LOTS, MIN_WINDOW_LOTS, NOT_ACCEPTED_TO_STOP, REJECTION_SPAN, SchemeFigures,
+    SchemeOc, SwitchingError, SwitchingRules, SwitchingScheme, SwitchingState, WINDOW_STATE_BUDGET,
+    WindowAutomaton, WindowSolution, state_bound,
+};
 pub use table::{MasterTable, table_name};
 pub use tables::{TableSlot, Tables, UserTable, load_user_table};

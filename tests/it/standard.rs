@@ -241,7 +241,7 @@ fn refusals_say_what_and_how_to_fix() {
         "Table II-C (single sampling, reduced inspection)",
         "has no transcribed plan at code letter A, AQL 25:",
         "marked '?'",
-        "give your own copy of the table as a user table file, or choose another scheme",
+        "give your own copy of the table (lotsman standard --table SEVERITY=FILE.csv), leave reduced inspection out (--no-reduced) when the cell is on reduced inspection, or choose another scheme",
     ] {
         assert!(text.contains(part), "{text}");
     }

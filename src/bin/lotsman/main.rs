@@ -41,6 +41,7 @@ fn run(command: Command) -> Result<Outcome, Error> {
         Command::New(args) => commands::new::run(&args),
         Command::Demo(args) => commands::demo::run(&args),
         Command::Rectify(args) => commands::rectify::run(args),
+        Command::Standard(args) => commands::standard::run(*args),
     }
 }
 

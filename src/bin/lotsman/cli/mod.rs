@@ -12,6 +12,7 @@ pub mod new;
 pub mod qualities;
 pub mod rectify;
 pub mod sheet;
+pub mod standard;
 pub mod tradeoff;
 pub mod values;
 pub mod verify;
@@ -48,6 +49,9 @@ pub enum Command {
     /// Design the plan with the least average total inspection at the process
     /// average (rectifying inspection, Dodge and Romig's method).
     Rectify(rectify::RectifyArgs),
+    /// Look a plan up in the AQL tables of MIL-STD-105E: code letter, the plan at each severity,
+    /// and the risks it really gives.
+    Standard(Box<standard::StandardArgs>),
 }
 
 impl Cli {

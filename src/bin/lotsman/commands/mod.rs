@@ -10,5 +10,6 @@ pub mod judge;
 pub mod new;
 pub mod rectify;
 pub mod sheet;
+pub mod standard;
 pub mod tradeoff;
 pub mod verify;
