@@ -132,13 +132,13 @@ pub use report::{
 };
 pub use source::{
     Audit, Audited, ClassSource, Description, Difference, Discrepancy, Edition, Error,
-    MAX_BRACKET_DEPTH, MAX_CLASSES, MAX_MEASUREMENTS_BYTES, MAX_SOURCE_BYTES, MAX_TABLE_BYTES,
-    Placeholder, PlanSource, PointSource, RISK_TOLERANCE, RecordedClass, RecordedPlan,
-    RecordedTablePlan, RecordedVariables, SCHEMA_VERSION, STANDARD_ALPHA, SourceError, SourceJob,
-    SourceText, StandardJudgement, StandardSource, StandardSourceRequest, TEMPLATES,
-    TableFileSource, UnmetPoint, VariablesSource, Verdict, audit, check_batch, check_source,
-    check_texts, parse_class_counts, placeholders, read_measurements, read_user_table,
-    relative_table_path, source_work, template, template_kinds, tool_version, verify, verify_at,
+    MAX_BRACKET_DEPTH, MAX_CLASSES, MAX_MEASUREMENTS_BYTES, MAX_SOURCE_BYTES, Placeholder,
+    PlanSource, PointSource, RISK_TOLERANCE, RecordedClass, RecordedPlan, RecordedTablePlan,
+    RecordedVariables, SCHEMA_VERSION, STANDARD_ALPHA, SourceError, SourceJob, SourceText,
+    StandardJudgement, StandardSource, StandardSourceRequest, TEMPLATES, TableFileSource,
+    UnmetPoint, VariablesSource, Verdict, audit, check_batch, check_source, check_texts,
+    parse_class_counts, placeholders, read_measurements, read_user_table, relative_table_path,
+    source_work, template, template_kinds, tool_version, verify, verify_at,
 };
 pub use standard::{
     ACCEPTED_TO_NORMAL, Counter, EXACT_STATES, LimitWindow, LotOutcomes, LotResult,
@@ -152,5 +152,6 @@ pub use standard::{
     InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable, Severity, SeverityPa,
     StandardAnswer, StandardAssessment, StandardError, StandardIndex, StandardPlan,
     StandardRequest, TableCell, TableSlot, Tables, TrueRisks, TwoPointPlan, UserTable, assess,
-    judge_classes, load_user_table, parse_classes, table_name, true_risks,
+    judge_classes, load_user_table, parse_classes, plans_by_severity, table_name, text_sha256,
+    true_risks,
 };

@@ -54,11 +54,11 @@ impl StandardPlansReport {
         Ok(StandardPlansReport {
             title: source.title.clone(),
             edition,
-            level: request.level,
-            lot_size: request.lot_size,
+            level: request.request.level(),
+            lot_size: request.request.lot_size(),
             code_letter: recorded.code_letter.unwrap_or_default(),
-            form: request.form,
-            severity: request.severity,
+            form: request.request.scheme(),
+            severity: request.request.severity(),
             classes: recorded.classes.clone(),
         })
     }

@@ -32,9 +32,9 @@ pub use schema::{
     PlanSource, PointSource, RecordedPlan, RecordedVariables, SCHEMA_VERSION, VariablesSource,
 };
 pub use standard::{
-    ClassSource, Edition, MAX_CLASSES, MAX_TABLE_BYTES, RecordedClass, RecordedTablePlan,
-    STANDARD_ALPHA, StandardJudgement, StandardSource, StandardSourceRequest, TableFileSource,
-    parse_class_counts, relative_table_path,
+    ClassSource, Edition, MAX_CLASSES, RecordedClass, RecordedTablePlan, STANDARD_ALPHA,
+    StandardJudgement, StandardSource, StandardSourceRequest, TableFileSource, parse_class_counts,
+    relative_table_path,
 };
 pub use templates::{Placeholder, TEMPLATES, placeholders, template, template_kinds};
 pub use text::SourceText;

@@ -8,7 +8,7 @@
 
 use std::path::Path;
 
-use super::record::plain;
+use super::request::plain;
 use super::tables::invalid;
 use crate::input::InputError;
 use crate::numeric::parse_count;
@@ -60,14 +60,15 @@ impl PlanSource {
         severity: Option<Severity>,
         found: &[&str],
     ) -> Result<StandardJudgement, Error> {
-        let request = self.standard_request().map_err(|e| invalid(path, e))?;
+        let source_request = self.standard_request().map_err(|e| invalid(path, e))?;
+        let request = &source_request.request;
         let plans = self
             .recorded_class_plans(severity)
             .map_err(|e| invalid(path, e))?;
-        let counts = parse_class_counts(found, &request.classes)?;
-        let verdict = judge_classes(&plans, request.model, &counts).map_err(plain)?;
+        let counts = parse_class_counts(found, request.classes())?;
+        let verdict = judge_classes(&plans, request.model().kind(), &counts).map_err(plain)?;
         Ok(StandardJudgement {
-            severity: severity.unwrap_or(request.severity),
+            severity: severity.unwrap_or(request.severity()),
             plans,
             verdict,
         })

@@ -65,5 +65,5 @@ pub(crate) use schema::some_code_letter;
 pub use schema::{
     ClassSource, Edition, RecordedClass, RecordedTablePlan, StandardSource, TableFileSource,
 };
-pub use tables::{MAX_TABLE_BYTES, relative_table_path};
+pub use tables::relative_table_path;
 pub(crate) use verify::standard_differences;

@@ -6,7 +6,7 @@
 //! numbers, so on reduced inspection a final count between Ac and Re
 //! accepts the lot (105E, 4.10.1.4), as a plan read from the tables does.
 
-use super::request::StandardSourceRequest;
+use super::request::{StandardSourceRequest, plain};
 use super::schema::RecordedTablePlan;
 use crate::design::Scheme;
 use crate::input::InputError;
@@ -15,7 +15,7 @@ use crate::plan::{Stage, StagedPlan, measures};
 use crate::source::{PlanSource, RecordedPlan};
 use crate::standard::{
     ClassAql, ClassPlan, ClassPlans, CodeLetter, InspectAll, Severity, StandardAnswer,
-    StandardPlan, table_name,
+    StandardPlan, StandardRequest, table_name,
 };
 
 /// What [`StandardPlan::basis`] says of a plan read back from a source.
@@ -57,7 +57,8 @@ impl PlanSource {
     /// of another kind; [`InputError`] naming the class, severity and what
     /// is wrong otherwise.
     pub fn recorded_standard(&self) -> Result<(&RecordedPlan, StandardSourceRequest), InputError> {
-        let request = self.standard_request()?;
+        let source_request = self.standard_request()?;
+        let request = &source_request.request;
         let recorded = self
             .plan
             .as_ref()
@@ -82,16 +83,16 @@ impl PlanSource {
                 )));
             }
         }
-        if recorded.classes.len() != request.classes.len() {
+        if recorded.classes.len() != request.classes().len() {
             return Err(InputError::NotSolved {
                 why: format!(
                     "the recorded plan has {} classes and the standard section {}",
                     recorded.classes.len(),
-                    request.classes.len()
+                    request.classes().len()
                 ),
             });
         }
-        for (i, (r, c)) in recorded.classes.iter().zip(&request.classes).enumerate() {
+        for (i, (r, c)) in recorded.classes.iter().zip(request.classes()).enumerate() {
             if r.name != c.name || r.aql != c.aql {
                 return Err(InputError::NotSolved {
                     why: format!(
@@ -104,13 +105,13 @@ impl PlanSource {
                     ),
                 });
             }
-            if r.reduced.is_some() == request.no_reduced {
+            if r.reduced.is_some() != request.reduced() {
                 return Err(InputError::NotSolved {
                     why: format!(
                         "class {} of the recorded plan {} a reduced plan, and the standard section {} reduced inspection",
                         r.label(),
-                        if request.no_reduced { "has" } else { "has no" },
-                        if request.no_reduced {
+                        if !request.reduced() { "has" } else { "has no" },
+                        if !request.reduced() {
                             "leaves out"
                         } else {
                             "keeps"
@@ -120,7 +121,7 @@ impl PlanSource {
             }
             for severity in request.severities() {
                 if let Some(plan) = r.at(severity) {
-                    check_table_plan(plan, severity, request.lot_size).map_err(|why| {
+                    check_table_plan(plan, severity, request.lot_size()).map_err(|why| {
                         InputError::Inconsistent(format!(
                             "the recorded {severity} plan of class {} is not a table plan: {why}",
                             r.label()
@@ -129,7 +130,7 @@ impl PlanSource {
                 }
             }
         }
-        Ok((recorded, request))
+        Ok((recorded, source_request))
     }
 
     /// The recorded plans of every class at `severity` (`None`: the
@@ -153,22 +154,23 @@ impl PlanSource {
         &self,
         severity: Option<Severity>,
     ) -> Result<ClassPlans, InputError> {
-        let (recorded, request) = self.recorded_standard()?;
-        let severity = severity.unwrap_or(request.severity);
+        let (recorded, source_request) = self.recorded_standard()?;
+        let request = &source_request.request;
+        let severity = severity.unwrap_or(request.severity());
         let code_letter = recorded.code_letter.unwrap_or_default();
         let mut classes = Vec::with_capacity(recorded.classes.len());
-        for (r, class) in recorded.classes.iter().zip(&request.classes) {
+        for (r, class) in recorded.classes.iter().zip(request.classes()) {
             let Some(plan) = r.at(severity) else {
                 return Err(InputError::Inconsistent(
                     "the source leaves reduced inspection out (no_reduced: true), so it records no reduced plan: choose normal or tightened inspection".to_string(),
                 ));
             };
-            classes.push(class_plan(class, plan, severity, code_letter, &request)?);
+            classes.push(class_plan(class, plan, severity, code_letter, request)?);
         }
         Ok(ClassPlans {
             code_letter,
-            lot_size: request.lot_size,
-            rule: request.class_rule,
+            lot_size: request.lot_size(),
+            rule: request.rule(),
             classes,
         })
     }
@@ -182,19 +184,19 @@ impl PlanSource {
     /// As [`PlanSource::recorded_class_plans`].
     pub(crate) fn standard_achieved(&self) -> Result<(f64, f64), InputError> {
         let plans = self.recorded_class_plans(None)?;
-        let request = self.standard_request()?;
+        let source_request = self.standard_request()?;
         let Some(first) = plans.classes.first() else {
             return Ok((0.0, 0.0));
         };
         let Some(plan) = first.answer.plan() else {
             return Ok((0.0, 0.0));
         };
-        let model = request.class_model(first.class.aql)?;
-        let staged = plan.plan_for(&model).map_err(super::record::plain)?;
-        let producer = 1.0 - measures(&staged, &model, first.class.aql.quality()).pa;
-        let consumer = match request.consumer {
-            Some(point) if model.accepts_quality(point.quality) => {
-                measures(&staged, &model, point.quality).pa
+        let model = source_request.request.model();
+        let staged = plan.plan_for(model).map_err(plain)?;
+        let producer = 1.0 - measures(&staged, model, first.class.aql.quality()).pa;
+        let consumer = match source_request.consumer {
+            Some(point) if model.accepts_quality(point.rql) => {
+                measures(&staged, model, point.rql).pa
             }
             _ => 0.10,
         };
@@ -208,7 +210,7 @@ fn class_plan(
     recorded: &RecordedTablePlan,
     severity: Severity,
     code_letter: CodeLetter,
-    request: &StandardSourceRequest,
+    request: &StandardRequest,
 ) -> Result<ClassPlan, InputError> {
     let loose = Model::new(ModelKind::Poisson, None)?;
     let table_scheme = form_of(recorded.stages.len());
@@ -217,7 +219,7 @@ fn class_plan(
         plan_letter: recorded.plan_letter,
         aql: class.aql,
         severity,
-        scheme: request.form,
+        scheme: request.scheme(),
         table_scheme,
         table: table_name(severity, table_scheme),
         table_numbers: recorded.stages.clone(),
@@ -228,7 +230,7 @@ fn class_plan(
     };
     let answer = if recorded.inspect_all {
         StandardAnswer::InspectAll(InspectAll {
-            lot_size: request.lot_size,
+            lot_size: request.lot_size(),
             plan,
         })
     } else {

@@ -6,93 +6,73 @@
 
 use std::path::Path;
 
-use super::request::StandardSourceRequest;
+use super::request::{StandardSourceRequest, plain};
 use super::schema::{RecordedClass, RecordedTablePlan};
 use super::tables::{Hashes, invalid, read_tables};
 use crate::input::InputError;
 use crate::source::{PlanSource, RecordedPlan, SourceError, tool_version};
-use crate::standard::{ClassPlans, CodeLetter, Severity, StandardAnswer, StandardError, Tables};
+use crate::standard::{
+    ClassPlans, CodeLetter, ConsumerPoint, Severity, StandardAnswer, StandardAssessment,
+    StandardError, Tables, plans_by_severity,
+};
 
-/// A refusal of the standard's tables as an input error of the source.
-pub(crate) fn plain(e: StandardError) -> InputError {
-    match e {
-        StandardError::Input(e) => e,
-        other => InputError::Inconsistent(other.to_string()),
-    }
-}
-
-/// The plans of every class at `severity` for `request`, from `tables`.
+/// The plans of every class at each severity the source records, looked
+/// up in `tables` as `lotsman standard` looks them up
+/// ([`plans_by_severity`]).
 ///
 /// # Errors
-/// [`InputError`] when a class has no plan there (a cell not transcribed,
-/// a cell with nothing printed); on reduced inspection the message adds
-/// that reduced inspection can be left out.
-pub(crate) fn plans_at(
-    request: &StandardSourceRequest,
-    tables: &Tables,
-    severity: Severity,
-) -> Result<ClassPlans, InputError> {
-    tables
-        .classes_for_lot(
-            request.lot_size,
-            request.level,
-            &request.classes,
-            severity,
-            request.form,
-            request.class_rule,
-        )
-        .map_err(|e| {
-            let reduced = severity == Severity::Reduced
-                && matches!(
-                    e,
-                    StandardError::NotTranscribed { .. } | StandardError::NoPlan { .. }
-                );
-            let mut e = plain(e);
-            if reduced && let InputError::Inconsistent(text) = &mut e {
-                text.push_str(
-                    "; or, where the contract leaves reduced inspection out, say so with no_reduced: true in the standard section",
-                );
-            }
-            e
-        })
-}
-
-/// The lot's code letter and each class's plans at every severity
-/// `request` records.
-///
-/// # Errors
-/// As [`plans_at`].
+/// [`InputError`] when a class has no plan at a severity (a cell not
+/// transcribed, nothing printed); on reduced inspection the message adds
+/// that the source can leave reduced inspection out.
 pub(crate) fn derive_plans(
     request: &StandardSourceRequest,
     tables: &Tables,
 ) -> Result<(CodeLetter, Vec<RecordedClass>), InputError> {
-    let normal = plans_at(request, tables, Severity::Normal)?;
-    let tightened = plans_at(request, tables, Severity::Tightened)?;
-    let reduced = if request.no_reduced {
-        None
-    } else {
-        Some(plans_at(request, tables, Severity::Reduced)?)
-    };
-    let reduced = |i: usize| {
-        reduced
-            .as_ref()
-            .and_then(|r| r.classes.get(i))
+    let plans = plans_by_severity(&request.request, tables).map_err(|e| {
+        let untranscribed = matches!(
+            e,
+            StandardError::NotTranscribed { .. } | StandardError::NoPlan { .. }
+        );
+        let mut e = plain(e);
+        if untranscribed
+            && request.request.reduced()
+            && let InputError::Inconsistent(text) = &mut e
+        {
+            text.push_str(
+                "; where the contract leaves reduced inspection out, say so with no_reduced: true in the standard section",
+            );
+        }
+        e
+    })?;
+    Ok(recorded_classes(&plans))
+}
+
+/// The code letter and each class's recorded plans from the plans at each
+/// severity (normal first, as [`plans_by_severity`] gives them).
+fn recorded_classes(plans: &[(Severity, ClassPlans)]) -> (CodeLetter, Vec<RecordedClass>) {
+    let at = |severity: Severity, i: usize| {
+        plans
+            .iter()
+            .find(|(s, _)| *s == severity)
+            .and_then(|(_, p)| p.classes.get(i))
             .map(|c| recorded(&c.answer))
     };
-    let classes = request
+    let first = &plans[0].1;
+    let classes = first
         .classes
         .iter()
-        .zip(normal.classes.iter().zip(&tightened.classes))
         .enumerate()
-        .map(|(i, (class, (n, t)))| RecordedClass {
-            name: class.name.clone(),
-            aql: class.aql,
-            normal: recorded(&n.answer),
-            tightened: recorded(&t.answer),
-            reduced: reduced(i),
+        .filter_map(|(i, c)| {
+            Some(RecordedClass {
+                name: c.class.name.clone(),
+                aql: c.class.aql,
+                normal: at(Severity::Normal, i)?,
+                tightened: at(Severity::Tightened, i)?,
+                reduced: at(Severity::Reduced, i),
+            })
         })
         .collect();
-    Ok((normal.code_letter, classes))
+    (first.code_letter, classes)
 }
 
 /// A table answer as recorded.
@@ -132,6 +112,45 @@ impl PlanSource {
             )));
         }
         let (letter, classes) = derive_plans(&request, tables)?;
+        self.record_classes(letter, classes);
+        Ok(())
+    }
+
+    /// The standard-indexed source of what `lotsman standard` answered:
+    /// the index and model of `assessment`, the consumer's point and the
+    /// user tables (by file relative to the source's folder, and SHA-256)
+    /// it was answered with, and its plans at every severity recorded.
+    ///
+    /// ```
+    /// use lotsman::{ClassRule, InspectionLevel, Model, ModelKind, PlanSource, Scheme, Severity,
+    ///     StandardIndex, StandardRequest, Tables, Verdict, assess, parse_classes, verify};
+    /// let index = StandardIndex {
+    ///     lot_size: 1500, level: InspectionLevel::II, classes: parse_classes(&["1.0"]).unwrap(),
+    ///     severity: Severity::Normal, scheme: Scheme::Double, reduced: true, rule: ClassRule::OwnPlans,
+    /// };
+    /// let request = StandardRequest::new(index, Model::new(ModelKind::Binomial, None).unwrap()).unwrap();
+    /// let answer = assess(&request, Tables::builtin().unwrap(), None, None).unwrap();
+    /// let source = PlanSource::from_assessment("Covers", &answer, None, Vec::new()).unwrap();
+    /// assert_eq!(verify(&source).unwrap(), Verdict::Match);
+    /// ```
+    ///
+    /// # Errors
+    /// As [`PlanSource::new_standard`].
+    pub fn from_assessment(
+        title: &str,
+        assessment: &StandardAssessment,
+        consumer: Option<ConsumerPoint>,
+        tables: Vec<super::TableFileSource>,
+    ) -> Result<PlanSource, InputError> {
+        let request = StandardSourceRequest::new(assessment.request.clone(), consumer, tables)?;
+        let mut source = PlanSource::new_standard(title, &request)?;
+        let (letter, classes) = recorded_classes(&assessment.plans);
+        source.record_classes(letter, classes);
+        Ok(source)
+    }
+
+    /// Records `classes` at code letter `letter` as this tool's plan.
+    fn record_classes(&mut self, letter: CodeLetter, classes: Vec<RecordedClass>) {
         self.plan = Some(RecordedPlan {
             stages: Vec::new(),
             sequential: None,
@@ -144,7 +163,6 @@ impl PlanSource {
             aoql: None,
             solved_by: tool_version(),
         });
-        Ok(())
     }
 
     /// Records the table plans of the standard-indexed source read from

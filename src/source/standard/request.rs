@@ -1,59 +1,44 @@
 //! What a standard-indexed plan source asks for, validated
-//! ([`StandardSourceRequest`]): from a source's keys
-//! ([`PlanSource::standard_request`]), or from the flags of
-//! `lotsman standard` into a new source ([`PlanSource::new_standard`]).
+//! ([`StandardSourceRequest`]): the index as `lotsman standard` checks it
+//! ([`StandardRequest`]), with the consumer's point and the user tables
+//! the source names; read from a source's keys
+//! ([`PlanSource::standard_request`]), or made into a new source
+//! ([`PlanSource::new_standard`], [`PlanSource::from_assessment`]).
 
 use crate::design::Scheme;
 use crate::input::InputError;
-use crate::model::{MAX_LOT_SIZE, Model, ModelKind, RiskPair, RiskPoint};
+use crate::model::{Model, ModelKind, RiskPair, RiskPoint};
 use crate::source::PlanSource;
 use crate::source::PointSource;
-use crate::standard::{Aql, ClassAql, ClassRule, InspectionLevel, Severity, UserTable};
+use crate::standard::{
+    ClassAql, ClassRule, ConsumerPoint, StandardError, StandardIndex, StandardRequest, TableSlot,
+    UserTable, parse_classes,
+};
 
 use super::schema::{ClassSource, Edition, StandardSource, TableFileSource};
 
-/// The producer's risk at the AQL that a two-point design compared with a
-/// table plan keeps (contracts indexed by the AQL name none; 0.05 is
-/// common practice, and the standard's plans give about that at the AQL).
+/// The producer's risk at the AQL that the two-point design compared with
+/// a source's table plans keeps: a source records no producer's risk (the
+/// AQL is its index, and the standard states none); 0.05 is common
+/// practice, and the default of `lotsman standard --alpha`.
 pub const STANDARD_ALPHA: f64 = 0.05;
 
 /// The most classes of defects a source may name.
 pub const MAX_CLASSES: usize = 20;
-
-/// The longest class name.
-const MAX_NAME: usize = 40;
 
 /// The most user tables a source may name: one per table of the standard
 /// (Table I, nine master tables, Table VIII).
 const MAX_TABLES: usize = 11;
 
 /// A standard-indexed plan as a source records it, validated by
-/// [`StandardSourceRequest::check`] (and by every constructor of a source
-/// from it).
+/// [`StandardSourceRequest::new`].
 #[derive(Clone, Debug, PartialEq)]
 pub struct StandardSourceRequest {
-    /// The lot size, which gives the code letter (Table I).
-    pub lot_size: u64,
-    /// The inspection level.
-    pub level: InspectionLevel,
-    /// The classes of defects with their AQLs, in order; one class without
-    /// a name for a single AQL.
-    pub classes: Vec<ClassAql>,
-    /// The severity of inspection in force.
-    pub severity: Severity,
-    /// The form of the table plans: single, double or multiple.
-    pub form: Scheme,
-    /// The model of the counts (a class whose AQL is above 10 is counted
-    /// as nonconformities per 100 units, Poisson, whatever this is).
-    pub model: ModelKind,
-    /// Reduced inspection left out.
-    pub no_reduced: bool,
-    /// How classes whose arrows lead to different rows are sampled.
-    pub class_rule: ClassRule,
-    /// The consumer's point (RQL and beta) the table plans are compared
-    /// with, if any; the two-point design keeps [`STANDARD_ALPHA`] at the
-    /// AQL.
-    pub consumer: Option<RiskPoint>,
+    /// The index and model, as `lotsman standard` checks them.
+    pub request: StandardRequest,
+    /// The consumer's point (RQL and beta) the table plans are held
+    /// against, if any, with [`STANDARD_ALPHA`] for the two-point design.
+    pub consumer: Option<ConsumerPoint>,
     /// The user's own tables, each replacing one built-in table.
     pub tables: Vec<TableFileSource>,
 }
@@ -67,105 +52,49 @@ impl TableFileSource {
             file,
             sha256: table.sha256.clone(),
             severity: match table.slot {
-                crate::standard::TableSlot::Master(severity, _) => Some(severity),
+                TableSlot::Master(severity, _) => Some(severity),
                 _ => None,
             },
         }
     }
 }
 
+/// A refusal of the standard's tables as an input error of the source.
+pub(crate) fn plain(e: StandardError) -> InputError {
+    match e {
+        StandardError::Input(e) => e,
+        other => InputError::Inconsistent(other.to_string()),
+    }
+}
+
 impl StandardSourceRequest {
-    /// The model that counts `class`'s defects: Poisson for an AQL above
-    /// 10 (nonconformities per 100 units only), the request's model
-    /// otherwise, in the request's lot.
-    ///
-    /// # Errors
-    /// [`InputError`] for a lot size out of range.
-    pub fn class_model(&self, aql: Aql) -> Result<Model, InputError> {
-        let kind = if aql.per_hundred_units_only() {
-            ModelKind::Poisson
-        } else {
-            self.model
-        };
-        Model::new(kind, Some(self.lot_size))
-    }
-
-    /// The severities whose plans a source records: normal, tightened and,
-    /// unless reduced inspection is left out, reduced.
-    pub fn severities(&self) -> Vec<Severity> {
-        Severity::ALL
-            .into_iter()
-            .filter(|&s| s != Severity::Reduced || !self.no_reduced)
-            .collect()
-    }
-
-    /// Checks the request: a lot size of 1 to 10^12; 1 to
-    /// [`MAX_CLASSES`] classes, a class without a name only alone, names of
-    /// 1 to 40 printable characters without `,` or `=` (the count of a
-    /// class is given as `NAME=K`), each name once (regardless of case);
-    /// the form single, double or multiple; reduced inspection in force
-    /// only when it is not left out; the consumer's point a quality of the
-    /// model above every class's AQL, with beta in (0, 1) and
+    /// Checks the parts a source adds to `request`: at most
+    /// [`MAX_CLASSES`] classes, names without `=` (the count of a class is
+    /// given as `NAME=K`); the consumer's point a quality of the model
+    /// above every class's AQL, with beta in (0, 1) and
     /// `STANDARD_ALPHA + beta < 1`; the table files named once each, by a
     /// relative path, with a SHA-256 of 64 hex digits.
     ///
     /// # Errors
     /// [`InputError`] naming the key and what it must hold.
-    pub fn check(&self) -> Result<(), InputError> {
-        if self.lot_size == 0 || self.lot_size > MAX_LOT_SIZE {
-            return Err(InputError::out_of_range(
-                "lot_size",
-                self.lot_size,
-                "1 to 10^12 units (the lot whose code letter Table I gives)",
-            ));
-        }
-        self.check_classes()?;
-        if !matches!(
-            self.form,
-            Scheme::Single | Scheme::Double | Scheme::Multiple
-        ) {
-            return Err(InputError::out_of_range(
-                "standard.form",
-                self.form,
-                "single, double or multiple (the standard's tables hold these)",
-            ));
-        }
-        if self.no_reduced && self.severity == Severity::Reduced {
-            return Err(InputError::Inconsistent(
-                "standard.severity is reduced, and standard.no_reduced leaves reduced inspection out: give severity normal or tightened, or remove no_reduced".to_string(),
-            ));
-        }
-        if let Some(point) = self.consumer {
-            for c in &self.classes {
-                let model = self.class_model(c.aql)?;
-                let producer = RiskPoint {
-                    quality: c.aql.quality(),
-                    risk: STANDARD_ALPHA,
-                };
-                RiskPair::new(producer, point, &model).map_err(|e| match e {
-                    InputError::Inconsistent(_) if point.quality <= producer.quality => {
-                        InputError::Inconsistent(format!(
-                            "the consumer's quality (RQL) {} must be above the AQL of every class, and class {} has AQL {} ({}); give a higher RQL, or leave the consumer's point out",
-                            point.quality,
-                            c.label(),
-                            c.aql,
-                            producer.quality
-                        ))
-                    }
-                    other => other,
-                })?;
-            }
-        }
-        self.check_tables()
+    pub fn new(
+        request: StandardRequest,
+        consumer: Option<ConsumerPoint>,
+        tables: Vec<TableFileSource>,
+    ) -> Result<Self, InputError> {
+        let made = StandardSourceRequest {
+            request,
+            consumer,
+            tables,
+        };
+        made.check_classes()?;
+        made.check_consumer()?;
+        made.check_tables()?;
+        Ok(made)
     }
 
     fn check_classes(&self) -> Result<(), InputError> {
-        let classes = &self.classes;
-        if classes.is_empty() {
-            return Err(InputError::Inconsistent(
-                "the standard section gives no AQL: give aql: (one AQL, e.g. aql: 1.0) or classes: (a name and an AQL for each class of defects)".to_string(),
-            ));
-        }
+        let classes = self.request.classes();
         if classes.len() > MAX_CLASSES {
             return Err(InputError::out_of_range(
                 "the number of classes",
@@ -173,37 +102,46 @@ impl StandardSourceRequest {
                 &format!("1 to {MAX_CLASSES}"),
             ));
         }
-        if classes.len() > 1 && classes.iter().any(|c| c.name.is_none()) {
-            return Err(InputError::Inconsistent(
-                "with several AQLs, name each one's class (critical, major, minor ...)".to_string(),
-            ));
-        }
         for (i, c) in classes.iter().enumerate() {
-            let Some(name) = &c.name else { continue };
-            if name.trim() != name
-                || name.is_empty()
-                || name.chars().count() > MAX_NAME
-                || name
-                    .chars()
-                    .any(|ch| ch.is_control() || ch == ',' || ch == '=')
+            if let Some(name) = &c.name
+                && (name.contains('=') || name.trim() != name)
             {
                 return Err(InputError::unparsable(
                     &format!("the name of class {}", i + 1),
                     &name.escape_debug().to_string(),
-                    &format!(
-                        "a name of 1 to {MAX_NAME} characters without commas, '=' or spaces at its ends, e.g. major"
-                    ),
+                    "a name without '=' or spaces at its ends, e.g. major (a count is given as --found major=K)",
                 ));
             }
-            let lower = name.to_lowercase();
-            if classes[..i]
-                .iter()
-                .any(|d| d.name.as_ref().is_some_and(|n| n.to_lowercase() == lower))
-            {
-                return Err(InputError::Inconsistent(format!(
-                    "the class '{name}' is named twice: give each class once"
-                )));
-            }
+        }
+        Ok(())
+    }
+
+    fn check_consumer(&self) -> Result<(), InputError> {
+        let Some(point) = self.consumer else {
+            return Ok(());
+        };
+        let model = self.request.model();
+        let consumer = RiskPoint {
+            quality: point.rql,
+            risk: point.beta,
+        };
+        for c in self.request.classes() {
+            let producer = RiskPoint {
+                quality: c.aql.quality(),
+                risk: point.alpha,
+            };
+            RiskPair::new(producer, consumer, model).map_err(|e| match e {
+                InputError::Inconsistent(_) if consumer.quality <= producer.quality => {
+                    InputError::Inconsistent(format!(
+                        "the consumer's quality (RQL) {} must be above the AQL of every class, and class {} has AQL {} ({}); give a higher RQL, or leave the consumer's point out",
+                        consumer.quality,
+                        c.label(),
+                        c.aql,
+                        producer.quality
+                    ))
+                }
+                other => other,
+            })?;
         }
         Ok(())
     }
@@ -264,23 +202,24 @@ impl PlanSource {
     }
 
     /// The validated request of a `scheme: standard` source: its
-    /// `standard` section, model, lot size and consumer's point.
+    /// `standard` section, model, lot size and consumer's point, checked
+    /// as `lotsman standard` checks its flags ([`StandardRequest::new`])
+    /// and by [`StandardSourceRequest::new`].
     ///
     /// ```
     /// use lotsman::{PlanSource, template};
     /// let text = template("standard").unwrap();
     /// let source = PlanSource::from_yaml(text, std::path::Path::new("s.yaml")).unwrap();
     /// let request = source.standard_request().unwrap();
-    /// assert_eq!(request.classes.len(), 3);
-    /// assert_eq!(request.lot_size, 1500);
+    /// assert_eq!(request.request.classes().len(), 3);
+    /// assert_eq!(request.request.lot_size(), 1500);
     /// ```
     ///
     /// # Errors
     /// [`InputError`] for a source of another scheme, a missing `standard`
     /// section or lot size, both or neither of `aql` and `classes`, a key
     /// that belongs to plans designed from two risk points (`producer`,
-    /// `criterion`, ...), or what [`StandardSourceRequest::check`]
-    /// refuses.
+    /// `criterion`, ...), or what the checks refuse.
     pub fn standard_request(&self) -> Result<StandardSourceRequest, InputError> {
         if !self.is_standard() {
             return Err(InputError::Inconsistent(format!(
@@ -318,15 +257,16 @@ impl PlanSource {
                 "a standard-indexed plan needs lot_size: the units in a lot, which give the code letter (Table I)".to_string(),
             ));
         };
-        let classes = match (s.aql, s.classes.as_slice()) {
-            (Some(aql), []) => vec![ClassAql { name: None, aql }],
-            (None, []) => Vec::new(),
+        let texts: Vec<String> = match (s.aql, s.classes.as_slice()) {
+            (Some(aql), []) => vec![aql.to_string()],
+            (None, []) => {
+                return Err(InputError::Inconsistent(
+                    "the standard section gives no AQL: give aql: (one AQL, e.g. aql: 1.0) or classes: (a name and an AQL for each class of defects)".to_string(),
+                ));
+            }
             (None, classes) => classes
                 .iter()
-                .map(|c| ClassAql {
-                    name: Some(c.name.clone()),
-                    aql: c.aql,
-                })
+                .map(|c| format!("{}={}", c.name, c.aql))
                 .collect(),
             (Some(_), _) => {
                 return Err(InputError::Inconsistent(
@@ -334,90 +274,107 @@ impl PlanSource {
                 ));
             }
         };
-        let request = StandardSourceRequest {
+        // A name with '=' or spaces at its ends would be read back as
+        // another name: refused before the names are parsed.
+        for (i, c) in s.classes.iter().enumerate() {
+            if c.name.contains('=') || c.name.trim() != c.name {
+                return Err(InputError::unparsable(
+                    &format!("standard.classes item {} name", i + 1),
+                    &c.name.escape_debug().to_string(),
+                    "a name without '=' or spaces at its ends, e.g. major (a count is given as --found major=K)",
+                ));
+            }
+        }
+        let texts: Vec<&str> = texts.iter().map(String::as_str).collect();
+        let classes = parse_classes(&texts).map_err(plain)?;
+        let index = StandardIndex {
             lot_size,
             level: s.level,
             classes,
             severity: s.severity,
-            form: s.form,
-            model: self.model,
-            no_reduced: s.no_reduced,
-            class_rule: s.class_rule.unwrap_or_default(),
-            consumer: self.consumer.map(|p| RiskPoint {
-                quality: p.quality,
-                risk: p.risk,
-            }),
-            tables: s.tables.clone(),
+            scheme: s.form,
+            reduced: !s.no_reduced,
+            rule: s.class_rule.unwrap_or_default(),
         };
-        request.check()?;
-        Ok(request)
+        let lot = (self.model == ModelKind::Hypergeometric).then_some(lot_size);
+        let model = Model::new(self.model, lot)?;
+        let request = StandardRequest::new(index, model).map_err(plain)?;
+        let consumer = self.consumer.map(|p| ConsumerPoint {
+            rql: p.quality,
+            beta: p.risk,
+            alpha: STANDARD_ALPHA,
+        });
+        StandardSourceRequest::new(request, consumer, s.tables.clone())
     }
 
     /// A new standard-indexed source for `request`, with the given title,
     /// not yet recorded ([`PlanSource::record_standard`] records its
-    /// plans).
+    /// plans; [`PlanSource::from_assessment`] makes and records one from
+    /// the answer of `lotsman standard`).
     ///
     /// ```
-    /// use lotsman::{ClassRule, InspectionLevel, ModelKind, PlanSource, Scheme, Severity,
-    ///     StandardSourceRequest, Tables, parse_classes};
-    /// let request = StandardSourceRequest {
+    /// use lotsman::{ClassRule, InspectionLevel, Model, ModelKind, PlanSource, Scheme, Severity,
+    ///     StandardIndex, StandardRequest, StandardSourceRequest, Tables, parse_classes};
+    /// let index = StandardIndex {
     ///     lot_size: 1500,
     ///     level: InspectionLevel::II,
     ///     classes: parse_classes(&["major=1.0", "minor=4.0"]).unwrap(),
     ///     severity: Severity::Normal,
-    ///     form: Scheme::Single,
-    ///     model: ModelKind::Binomial,
-    ///     no_reduced: false,
-    ///     class_rule: ClassRule::OwnPlans,
-    ///     consumer: None,
-    ///     tables: Vec::new(),
+    ///     scheme: Scheme::Single,
+    ///     reduced: true,
+    ///     rule: ClassRule::OwnPlans,
     /// };
+    /// let model = Model::new(ModelKind::Binomial, None).unwrap();
+    /// let request = StandardRequest::new(index, model).unwrap();
+    /// let request = StandardSourceRequest::new(request, None, Vec::new()).unwrap();
     /// let mut source = PlanSource::new_standard("Covers", &request).unwrap();
     /// source.record_standard(Tables::builtin().unwrap()).unwrap();
     /// let plan = source.plan.as_ref().unwrap();
     /// assert_eq!(plan.code_letter.unwrap().to_string(), "K");
+    /// // 105E Table II-A, code letter K, AQL 1.0: n 125, Ac 3, Re 4
     /// assert_eq!(plan.classes[0].normal.stages[0].n, 125);
     /// ```
     ///
     /// # Errors
-    /// As [`StandardSourceRequest::check`]; an empty title.
+    /// [`InputError`] for an empty title, or a request the source's
+    /// reader would refuse.
     pub fn new_standard(
         title: &str,
         request: &StandardSourceRequest,
     ) -> Result<PlanSource, InputError> {
-        request.check()?;
+        let r = &request.request;
         let mut source = PlanSource::bare(
             title,
             Scheme::Standard,
-            request.model,
-            Some(request.lot_size),
+            r.model().kind(),
+            Some(r.lot_size()),
         );
-        let single = request.classes.len() == 1 && request.classes[0].name.is_none();
+        let classes = r.classes();
+        let single = classes.len() == 1 && classes[0].name.is_none();
         source.standard = Some(StandardSource {
             edition: Edition::MilStd105E,
-            level: request.level,
-            aql: single.then(|| request.classes[0].aql),
+            level: r.level(),
+            aql: single.then(|| classes[0].aql),
             classes: if single {
                 Vec::new()
             } else {
-                request
-                    .classes
+                classes
                     .iter()
-                    .map(|c| ClassSource {
+                    .map(|c: &ClassAql| ClassSource {
                         name: c.name.clone().unwrap_or_default(),
                         aql: c.aql,
                     })
                     .collect()
             },
-            severity: request.severity,
-            form: request.form,
-            no_reduced: request.no_reduced,
-            class_rule: (request.class_rule != ClassRule::default()).then_some(request.class_rule),
+            severity: r.severity(),
+            form: r.scheme(),
+            no_reduced: !r.reduced(),
+            class_rule: (r.rule() != ClassRule::default()).then_some(r.rule()),
             tables: request.tables.clone(),
         });
         source.consumer = request.consumer.map(|p| PointSource {
-            quality: p.quality,
-            risk: p.risk,
+            quality: p.rql,
+            risk: p.beta,
         });
         source.standard_request()?;
         Ok(source)

@@ -8,26 +8,13 @@
 
 use std::path::{Component, Path, PathBuf};
 
-use sha2::{Digest, Sha256};
-
 use super::request::StandardSourceRequest;
 use super::schema::TableFileSource;
 use crate::input::InputError;
 use crate::plain::{io_reason, shell_path};
+use crate::source::user_table::read_table_text;
 use crate::source::{PlanSource, SourceError};
-use crate::standard::{Severity, TableSlot, Tables, load_user_table};
-
-/// The largest user table read: 1 MiB (the built-in tables are under
-/// 30 KiB each).
-pub const MAX_TABLE_BYTES: u64 = 1 << 20;
-
-/// The SHA-256 of `bytes` in lower-case hex.
-pub(crate) fn sha256_hex(bytes: &[u8]) -> String {
-    Sha256::digest(bytes)
-        .iter()
-        .map(|b| format!("{b:02x}"))
-        .collect()
-}
+use crate::standard::{Severity, TableSlot, Tables, load_user_table, text_sha256};
 
 /// Whether the recorded hashes must match the files (`verify`, `judge`,
 /// `evaluate`), or the files as they are now are taken and their hashes
@@ -55,7 +42,7 @@ impl PlanSource {
     /// # Errors
     /// [`SourceError::Invalid`] (naming the source) for a source that is
     /// not a valid standard-indexed one; a table file that is missing, not
-    /// readable, larger than [`MAX_TABLE_BYTES`], not UTF-8, whose SHA-256
+    /// readable, larger than [`MAX_SOURCE_BYTES`](crate::MAX_SOURCE_BYTES), not UTF-8, whose SHA-256
     /// differs from the recorded one, that does not have the tables'
     /// shape, that stands for a table another file replaces too, or whose
     /// severity is missing (a table of plans) or misplaced (Table I or
@@ -80,16 +67,14 @@ pub(crate) fn read_tables(
     let folder = path.parent().unwrap_or(Path::new(""));
     for (i, entry) in request.tables.iter().enumerate() {
         let place = folder.join(&entry.file);
-        let read = crate::fs::read_limited(&place, MAX_TABLE_BYTES, "a table file").map_err(|e| {
+        let text = read_table_text(&place).map_err(|e| {
             fail(InputError::Inconsistent(format!(
-                "the table file {} named under standard.tables (item {}) {}: it is looked for at {}, relative to the source's folder; put it there, or correct the path",
+                "the table file {} named under standard.tables (item {}) is looked for relative to the source's folder, and {e}; put it there, or correct the path",
                 entry.file,
                 i + 1,
-                io_reason(&e),
-                place.display()
             )))
         })?;
-        let sha256 = sha256_hex(&read);
+        let sha256 = text_sha256(&text);
         if hashes == Hashes::Checked && sha256 != entry.sha256 {
             return Err(fail(InputError::Inconsistent(format!(
                 "the table file {} has SHA-256 {sha256}, and the source records {}: the table has changed since the plans were recorded; restore the table the plans were read from, or read them again from the table as it is now with: lotsman design {} --in-place",
@@ -98,13 +83,6 @@ pub(crate) fn read_tables(
                 shell_path(path)
             ))));
         }
-        let text = String::from_utf8(read).map_err(|e| {
-            fail(InputError::Inconsistent(format!(
-                "the table file {} is not UTF-8 text (byte {} is not); save it as UTF-8",
-                entry.file,
-                e.utf8_error().valid_up_to() + 1
-            )))
-        })?;
         let user = load_user_table(
             &entry.file,
             &text,
