@@ -121,14 +121,14 @@ pub use print::{
     render_tradeoff_map, sheet_source_hash, source_hash, write_sheet, write_sheet_text,
 };
 pub use report::{
-    AlternativeReport, BatchSummary, ClassReport, ConsumerReport, CostReport, DemoReport, DemoRow,
-    DesignReport, EDITION, EvaluationBatchReport, EvaluationEntry, EvaluationReport, Failure,
-    Format, JudgeReport, MeasurementJudgeReport, Outcome, PointReport, ProtectionReport,
-    RectifyingPlanReport, RectifyingReport, Report, SeverityPlanReport, SourceEvaluation,
-    StandardJudgeReport, StandardPlansReport, StandardPoint, StandardReport, TradeoffCellReport,
-    TradeoffReport, TrueRisksReport, TwoPointReport, VariablesDesignReport,
-    VariablesEvaluationReport, VariablesReport, VerificationReport, VerifyEntry, VerifyStatus,
-    variables_rule, words, write_report,
+    AlternativeReport, BatchSummary, ClassEvaluationReport, ClassReport, ConsumerReport,
+    CostReport, DemoReport, DemoRow, DesignReport, EDITION, EvaluationBatchReport, EvaluationEntry,
+    EvaluationReport, Failure, Format, JudgeReport, MeasurementJudgeReport, Outcome, PointReport,
+    ProtectionReport, RectifyingPlanReport, RectifyingReport, Report, SeverityPlanReport,
+    SourceEvaluation, StandardEvaluationReport, StandardJudgeReport, StandardPlansReport,
+    StandardPoint, StandardReport, TradeoffCellReport, TradeoffReport, TrueRisksReport,
+    TwoPointReport, VariablesDesignReport, VariablesEvaluationReport, VariablesReport,
+    VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words, write_report,
 };
 pub use source::{
     Audit, Audited, ClassSource, Description, Difference, Discrepancy, Edition, Error,

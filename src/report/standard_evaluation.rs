@@ -16,7 +16,7 @@ use serde::Serialize;
 use super::evaluation::EvaluationReport;
 use super::format::Report;
 use super::table_kit::accepted_line;
-use crate::numeric::Checked;
+use crate::numeric::NumericalError;
 use crate::plain::escape_controls;
 use crate::standard::{Aql, CodeLetter, Severity};
 
@@ -69,7 +69,7 @@ impl StandardEvaluationReport {
     ///
     /// # Errors
     /// The first measure out of its range.
-    pub fn check(&self) -> Checked {
+    pub fn check(&self) -> Result<(), NumericalError> {
         for c in &self.classes {
             if let Some(e) = &c.evaluation {
                 e.check()?;

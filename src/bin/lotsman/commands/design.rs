@@ -160,10 +160,10 @@ fn write_source(args: &DesignArgs, source: &PlanSource) -> Result<(), Error> {
     Ok(())
 }
 
-/// `design --output` writes a plan source, so its name must end in
+/// `design --output` (and `standard --output`) writes a plan source, so its name must end in
 /// `.yaml` or `.yml`: the name the folder search finds, and not a PDF
 /// (the sheet is printed from the source by `lotsman sheet`).
-fn refuse_non_yaml_output(output: Option<&Path>) -> Result<(), InputError> {
+pub(crate) fn refuse_non_yaml_output(output: Option<&Path>) -> Result<(), InputError> {
     // A folder in the target's place is refused as such when written.
     let Some(target) = output.filter(|t| !t.is_dir()) else {
         return Ok(());
