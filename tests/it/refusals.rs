@@ -1928,7 +1928,7 @@ fn arguments_are_refused_in_one_line_and_named_alike() {
         refused(
             "no command",
             &[],
-            "give a command: design, evaluate, verify, judge, sheet, tradeoff, new, demo, rectify; what each does: lotsman --help",
+            "give a command: design, evaluate, verify, judge, sheet, tradeoff, new, demo, rectify, standard; what each does: lotsman --help",
         ),
         refused(
             "--in-place with --output",
