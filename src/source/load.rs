@@ -5,6 +5,7 @@
 use std::path::Path;
 
 use super::error::{SourceError, not_solved};
+use super::limits::MAX_SOURCE_BYTES;
 use super::schema::{PlanSource, PointSource, SCHEMA_VERSION};
 use super::yaml_words;
 use crate::design::{DesignRequest, Scheme, SchemeOptions, VariablesRequest};
@@ -12,9 +13,6 @@ use crate::input::InputError;
 use crate::model::Model;
 use crate::model::{RiskPair, RiskPoint};
 use crate::plan::{Specification, StagedPlan, VariablesPlan};
-
-/// The largest plan source read: 1 MiB, refused by size before parsing.
-pub const MAX_SOURCE_BYTES: u64 = 1 << 20;
 
 /// The deepest nesting of brackets (`[` and `{`) a source may have; a plan
 /// source needs two at most. The YAML parser's work grows with the depth

@@ -7,6 +7,7 @@ mod describe;
 mod discrepancy;
 mod error;
 mod keys;
+mod limits;
 mod load;
 mod measurements;
 mod record;
@@ -25,7 +26,8 @@ pub(crate) use audit::{attributes_risks, variables_risks};
 pub use describe::Description;
 pub use discrepancy::{Difference, Discrepancy, UnmetPoint};
 pub use error::{Error, SourceError};
-pub use load::{MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES};
+pub use limits::MAX_SOURCE_BYTES;
+pub use load::MAX_BRACKET_DEPTH;
 pub use measurements::{MAX_MEASUREMENTS_BYTES, read_measurements};
 pub use record::tool_version;
 pub use schema::{

@@ -5,7 +5,7 @@
 use std::path::Path;
 
 use super::error::{Error, SourceError};
-use super::load::MAX_SOURCE_BYTES;
+use super::limits::MAX_SOURCE_BYTES;
 use crate::fs::read_limited;
 use crate::input::InputError;
 use crate::standard::{Severity, UserTable, load_user_table};
