@@ -120,7 +120,10 @@ fn a_changed_number_is_a_mismatch_named_by_class_severity_and_stage() {
     assert_eq!(d["field"], "AQL 1.0, normal, stage 1 accept");
     assert_eq!(d["recorded"], "2");
     assert_eq!(d["resolved"], "3");
-    assert_eq!(v["results"][0]["differences"][1]["field"], "AQL 1.0, normal, stage 1 reject");
+    assert_eq!(
+        v["results"][0]["differences"][1]["field"],
+        "AQL 1.0, normal, stage 1 reject"
+    );
 }
 
 #[test]
