@@ -123,21 +123,24 @@ pub use print::{
     source_hash, write_sheet, write_sheet_text,
 };
 pub use report::{
-    AlternativeReport, BatchSummary, ClassReport, ConsumerReport, CostReport, DemoReport, DemoRow,
-    DesignReport, EDITION, EvaluationBatchReport, EvaluationEntry, EvaluationReport, Failure,
-    Format, JudgeReport, MeasurementJudgeReport, Outcome, PointReport, ProtectionReport,
-    RectifyingPlanReport, RectifyingReport, Report, SeverityPlanReport, SourceEvaluation,
+    AlternativeReport, BatchSummary, ClassEvaluationReport, ClassReport, ConsumerReport,
+    CostReport, DemoReport, DemoRow, DesignReport, EDITION, EvaluationBatchReport, EvaluationEntry,
+    EvaluationReport, Failure, Format, JudgeReport, MeasurementJudgeReport, Outcome, PointReport,
+    ProtectionReport, RectifyingPlanReport, RectifyingReport, Report, SeverityPlanReport,
+    SourceEvaluation, StandardEvaluationReport, StandardJudgeReport, StandardPlansReport,
     StandardPoint, StandardReport, TradeoffCellReport, TradeoffReport, TrueRisksReport,
     TwoPointReport, VariablesDesignReport, VariablesEvaluationReport, VariablesReport,
     VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words, write_report,
 };
 pub use source::{
-    Audit, Audited, Description, Difference, Discrepancy, Error, MAX_BRACKET_DEPTH,
-    MAX_MEASUREMENTS_BYTES, MAX_SOURCE_BYTES, Placeholder, PlanSource, PointSource, RISK_TOLERANCE,
-    RecordedPlan, RecordedVariables, SCHEMA_VERSION, SourceError, SourceJob, SourceText, TEMPLATES,
+    Audit, Audited, ClassSource, Description, Difference, Discrepancy, Edition, Error,
+    MAX_BRACKET_DEPTH, MAX_CLASSES, MAX_MEASUREMENTS_BYTES, MAX_SOURCE_BYTES, Placeholder,
+    PlanSource, PointSource, RISK_TOLERANCE, RecordedClass, RecordedPlan, RecordedTablePlan,
+    RecordedVariables, SCHEMA_VERSION, STANDARD_ALPHA, SourceError, SourceJob, SourceText,
+    StandardJudgement, StandardSource, StandardSourceRequest, TEMPLATES, TableFileSource,
     UnmetPoint, VariablesSource, Verdict, audit, check_batch, check_source, check_texts,
-    placeholders, read_measurements, read_user_table, source_work, template, template_kinds,
-    tool_version, verify,
+    parse_class_counts, placeholders, read_measurements, read_user_table, relative_table_path,
+    source_work, template, template_kinds, tool_version, verify, verify_at,
 };
 pub use standard::{
     ACCEPTED_TO_NORMAL, Counter, EXACT_STATES, LimitWindow, LotOutcomes, LotResult,
@@ -151,6 +154,6 @@ pub use standard::{
     InspectAll, InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable,
     SchemeRefusal, Severity, SeverityPa, StandardAnswer, StandardAssessment, StandardError,
     StandardIndex, StandardPlan, StandardRequest, TableCell, TableSlot, Tables, TrueRisks,
-    TwoPointPlan, UserTable, assess, judge_classes, load_user_table, parse_classes, scheme_curve,
-    table_name, true_risks,
+    TwoPointPlan, UserTable, assess, judge_classes, load_user_table, parse_classes,
+    plans_by_severity, scheme_curve, table_name, text_sha256, true_risks,
 };

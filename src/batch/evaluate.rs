@@ -4,10 +4,14 @@
 use std::path::Path;
 
 use crate::input::InputError;
+use crate::model::Model;
 use crate::plan::{
     default_qualities, evaluate, evaluate_variables, evaluate_with_decided, variables_qualities,
 };
-use crate::report::{EvaluationReport, SourceEvaluation, VariablesEvaluationReport};
+use crate::report::{
+    ClassEvaluationReport, EvaluationReport, SourceEvaluation, StandardEvaluationReport,
+    VariablesEvaluationReport,
+};
 use crate::source::{Audited, PlanSource, SourceText};
 use crate::source::{Error, SourceError};
 use crate::source::{SourceJob, check_source};
@@ -86,6 +90,14 @@ pub fn evaluate_text(
         path: path.to_path_buf(),
         source: e,
     };
+    if source.is_standard() {
+        let report =
+            evaluate_standard(&source, qualities, decided_at, accepted).map_err(|e| match e {
+                Error::Input(e) => invalid(e).into(),
+                other => other,
+            })?;
+        return Ok(SourceEvaluation::Standard(report));
+    }
     if source.is_variables() {
         let request = source.variables_request().map_err(invalid)?;
         let plan = source.recorded_variables_plan(&request).map_err(invalid)?;
@@ -138,6 +150,74 @@ pub fn evaluate_text(
     };
     report.check()?;
     Ok(SourceEvaluation::Attributes(report))
+}
+
+/// The evaluation of a standard-indexed source's recorded plans at the
+/// severity in force, each class's plan under the source's model, at
+/// `qualities` or, when none are given, at the default qualities of that
+/// plan with the class's AQL among them.
+fn evaluate_standard(
+    source: &PlanSource,
+    qualities: &[f64],
+    decided_at: bool,
+    accepted: Option<String>,
+) -> Result<StandardEvaluationReport, Error> {
+    let request = source.standard_request()?;
+    // The lot the plans were looked up for gives AOQ its factor and ATI
+    // its 100 percent inspection of rejected lots, whatever the model.
+    let lot_size = request.request.lot_size();
+    let model = &Model::new(request.request.model().kind(), Some(lot_size))?;
+    let plans = source.recorded_class_plans(None)?;
+    let mut classes = Vec::with_capacity(plans.classes.len());
+    for class in &plans.classes {
+        let table = class.answer.table_plan();
+        let Some(plan) = class.answer.plan() else {
+            classes.push(ClassEvaluationReport {
+                class: class.class.name.clone(),
+                aql: class.class.aql,
+                plan_letter: table.plan_letter,
+                evaluation: None,
+                inspect_all: Some(format!(
+                    "The plan's sample of {} units reaches the lot of {}: every unit is inspected (100 percent inspection), and there is no OC to evaluate.",
+                    table.stages.max_sample(),
+                    lot_size
+                )),
+            });
+            continue;
+        };
+        let staged = plan
+            .plan_for(model)
+            .map_err(|e| InputError::Inconsistent(e.to_string()))?;
+        let mut at = qualities.to_vec();
+        if at.is_empty() {
+            at = default_qualities(&staged, model, None);
+            let aql = class.class.aql.quality();
+            if !at.iter().any(|q| (q - aql).abs() <= 1e-12 * aql) {
+                at.push(aql);
+                at.sort_by(f64::total_cmp);
+            }
+        }
+        let evaluation = if decided_at {
+            evaluate_with_decided(&staged, model, &at)?
+        } else {
+            evaluate(&staged, model, &at)?
+        };
+        classes.push(ClassEvaluationReport {
+            class: class.class.name.clone(),
+            aql: class.class.aql,
+            plan_letter: plan.plan_letter,
+            evaluation: Some(EvaluationReport::from(&evaluation)),
+            inspect_all: None,
+        });
+    }
+    let report = StandardEvaluationReport {
+        severity: request.request.severity(),
+        code_letter: plans.code_letter,
+        classes,
+        accepted_recorded: accepted,
+    };
+    report.check()?;
+    Ok(report)
 }
 
 /// `source` used on lots of `lot_size` units: a source that gives no lot

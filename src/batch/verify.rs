@@ -6,10 +6,10 @@ use std::path::Path;
 use crate::input::InputError;
 use crate::print::SheetVerdict;
 use crate::report::{VerifyEntry, VerifyStatus};
-use crate::source::{Difference, PlanSource, SourceText, Verdict, verify};
+use crate::source::{Difference, PlanSource, SourceText, Verdict, verify_at};
 
 /// Reads, re-solves and compares the source at `path` (see
-/// [`verify`](crate::verify)). A file that cannot be read, parsed or
+/// [`verify_at`](crate::verify_at)). A file that cannot be read, parsed or
 /// solved, or that records a plan which is no valid plan (an acceptance
 /// number above the sample, stages out of order), is an
 /// [`VerifyStatus::Invalid`] entry whose message names the path and the
@@ -44,7 +44,7 @@ pub fn verify_text(read: &SourceText) -> VerifyEntry {
         Ok(s) => s,
         Err(e) => return invalid(path, e.to_string()),
     };
-    match verify(&source) {
+    match verify_at(&source, path) {
         Ok(Verdict::Match) => entry(VerifyStatus::Match, Vec::new(), None),
         // A recorded plan that is no valid plan at all (c above n, stages
         // out of order) is invalid, not merely different; the differing
@@ -130,7 +130,9 @@ fn recorded_plan_is_valid(source: &PlanSource) -> Result<(), InputError> {
     if source.plan.is_none() {
         return Ok(());
     }
-    if source.is_variables() {
+    if source.is_standard() {
+        source.recorded_standard()?;
+    } else if source.is_variables() {
         let request = source.variables_request()?;
         source.recorded_variables_plan(&request)?;
     } else {

@@ -88,6 +88,13 @@ pub fn design_for(request: &DesignRequest) -> Result<Design, DesignError> {
                         .to_string(),
             });
         }
+        Scheme::Standard => {
+            return Err(DesignError::NoPlan {
+                reason: "two risk points cannot describe a plan read from the standard's tables"
+                    .to_string(),
+                suggestion: "look the plan up with Tables::plan_for_lot by its AQL, inspection level and lot size".to_string(),
+            });
+        }
     })
 }
 

@@ -31,6 +31,10 @@ pub enum Scheme {
     /// double, from a process average and a protection
     /// ([`RectifyingRequest`](super::RectifyingRequest)).
     Rectifying,
+    /// A plan read from the tables of a sampling standard by its AQL index
+    /// (MIL-STD-105E), kept in a plan source with `scheme: standard`; its
+    /// table plans are single, double or multiple.
+    Standard,
 }
 
 impl Scheme {
@@ -43,6 +47,7 @@ impl Scheme {
             Scheme::Sequential => "sequential",
             Scheme::Variables => "variables",
             Scheme::Rectifying => "rectifying",
+            Scheme::Standard => "standard",
         }
     }
 }
@@ -117,6 +122,11 @@ impl SchemeOptions {
         if scheme == Scheme::Rectifying {
             return Err(InputError::Inconsistent(
                 "a minimum-inspection plan is designed from a process average and a protection (lotsman rectify), not from two risk points".to_string(),
+            ));
+        }
+        if scheme == Scheme::Standard {
+            return Err(InputError::Inconsistent(
+                "a standard-indexed plan is read from the standard's tables by its AQL, inspection level and lot size (lotsman standard), not designed from two risk points".to_string(),
             ));
         }
         if let Some(r) = self.second_ratio {

@@ -9,6 +9,7 @@ use serde::Serialize;
 use super::batch::{BatchSummary, Outcome};
 use super::evaluation::EvaluationReport;
 use super::format::{Report, cell, csv_writer, num, opt};
+use super::standard_evaluation::StandardEvaluationReport;
 use super::variables_evaluation::VariablesEvaluationReport;
 use crate::plain::escape_controls;
 
@@ -21,6 +22,8 @@ pub enum SourceEvaluation {
     Attributes(EvaluationReport),
     /// A variables plan.
     Variables(VariablesEvaluationReport),
+    /// The plans of a standard-indexed source, one per class.
+    Standard(StandardEvaluationReport),
 }
 
 impl SourceEvaluation {
@@ -30,6 +33,7 @@ impl SourceEvaluation {
         match self {
             SourceEvaluation::Attributes(r) => r.accepted_recorded.as_deref(),
             SourceEvaluation::Variables(r) => r.accepted_recorded.as_deref(),
+            SourceEvaluation::Standard(r) => r.accepted_recorded.as_deref(),
         }
     }
 }
@@ -97,6 +101,7 @@ impl Report for EvaluationBatchReport {
             match (&e.evaluation, &e.message) {
                 (Some(SourceEvaluation::Attributes(report)), _) => report.write_table(out)?,
                 (Some(SourceEvaluation::Variables(report)), _) => report.write_table(out)?,
+                (Some(SourceEvaluation::Standard(report)), _) => report.write_table(out)?,
                 (None, message) => writeln!(
                     out,
                     "invalid: {}",
@@ -172,6 +177,30 @@ impl Report for EvaluationBatchReport {
                             String::new(),
                             String::new(),
                         ])?;
+                    }
+                }
+                // One row per class and quality, the class named in the
+                // message column (the batch's columns have no class).
+                Some(SourceEvaluation::Standard(r)) => {
+                    for c in &r.classes {
+                        let Some(e) = &c.evaluation else { continue };
+                        for p in &e.points {
+                            w.write_record([
+                                path.clone(),
+                                status.clone(),
+                                num(p.quality),
+                                e.model.quality_unit().to_string(),
+                                cell(p.lot_nonconforming),
+                                opt(p.lot_quality),
+                                num(p.pa),
+                                String::new(),
+                                num(p.aoq),
+                                opt(p.ati),
+                                num(p.asn),
+                                opt(p.asn_curtailed),
+                                format!("class {}, {} inspection", c.label(), r.severity),
+                            ])?;
+                        }
                     }
                 }
                 None => {

@@ -17,6 +17,9 @@ mod judge;
 mod parts;
 mod rectifying;
 mod standard;
+mod standard_evaluation;
+mod standard_judge;
+mod standard_plans;
 mod table_kit;
 mod tradeoff;
 mod variables_design;
@@ -37,6 +40,9 @@ pub use self::standard::{
     ClassReport, ConsumerReport, EDITION, SeverityPlanReport, StandardPoint, StandardReport,
     TrueRisksReport, TwoPointReport,
 };
+pub use self::standard_evaluation::{ClassEvaluationReport, StandardEvaluationReport};
+pub use self::standard_judge::StandardJudgeReport;
+pub use self::standard_plans::StandardPlansReport;
 pub use self::tradeoff::{CostReport, TradeoffCellReport, TradeoffReport};
 pub use self::variables_design::VariablesDesignReport;
 pub use self::variables_evaluation::VariablesEvaluationReport;

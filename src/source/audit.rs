@@ -1,6 +1,6 @@
 //! The audit of a recorded plan before it is printed: does it still meet the
 //! risk points recorded beside it, and is it the plan a re-solve of those
-//! points gives (the comparison of [`verify`])? A sheet states a plan as the
+//! points gives (the comparison of [`verify`](crate::verify))? A sheet states a plan as the
 //! agreement, so a plan edited by hand, or solved by a tool that has since
 //! changed, must not reach one unnoticed.
 
@@ -10,7 +10,7 @@ use super::discrepancy::{Difference, Discrepancy, UnmetPoint};
 use super::error::{Error, SourceError};
 use super::schema::PlanSource;
 use super::text::SourceText;
-use super::verify::{RISK_TOLERANCE, Verdict, verify};
+use super::verify::{RISK_TOLERANCE, Verdict, verify_at};
 use crate::design::{Design, Protection, RectifyingPlan, VariablesRequest};
 use crate::input::InputError;
 use crate::model::RiskPair;
@@ -26,7 +26,10 @@ pub struct Audit {
     /// (not copied from the source). For a minimum-inspection plan, the
     /// chance of rejecting a lot at the process average and `Pa` at the
     /// LTPD (for an AOQL protection, at the plan's own LTPD, where `Pa`
-    /// falls to 0.10).
+    /// falls to 0.10). For a standard-indexed plan, those of the first
+    /// class's plan at the severity in force at its AQL and at the
+    /// consumer's quality (without one, where `Pa` falls to 0.10); both 0
+    /// when it inspects every unit.
     pub achieved: (f64, f64),
     /// What is wrong with the recorded plan; `None` when it is confirmed.
     pub discrepancy: Option<Discrepancy>,
@@ -34,7 +37,7 @@ pub struct Audit {
 
 /// Audits the plan that `source` (read from `path`) records: computes the
 /// risks it achieves at the recorded points, and re-solves the points as
-/// [`verify`] does.
+/// [`verify`](crate::verify) does.
 ///
 /// A risk counts as unmet when it exceeds the agreed one by more than
 /// [`RISK_TOLERANCE`] (relative), the tolerance `verify` allows recorded
@@ -60,6 +63,19 @@ pub fn audit(source: &PlanSource, path: &Path) -> Result<Audit, Error> {
         path: path.to_path_buf(),
         source: e,
     };
+    if source.is_standard() {
+        // A table plan is agreed by its index, not by risk points: only
+        // the comparison with the tables can fail.
+        let differences = differences(source, path)?;
+        let achieved = source.standard_achieved().map_err(invalid)?;
+        return Ok(Audit {
+            achieved,
+            discrepancy: (!differences.is_empty()).then_some(Discrepancy {
+                differences,
+                unmet: Vec::new(),
+            }),
+        });
+    }
     if source.is_rectifying() {
         let differences = differences(source, path)?;
         let (achieved, unmet) = rectifying_unmet(source).map_err(invalid)?;
@@ -250,9 +266,9 @@ impl PlanSource {
 }
 
 /// The fields in which `source` (read from `path`) differs from a
-/// re-solve, as [`verify`] names them.
+/// re-solve, as [`verify`](crate::verify) names them.
 fn differences(source: &PlanSource, path: &Path) -> Result<Vec<Difference>, Error> {
-    match verify(source) {
+    match verify_at(source, path) {
         Ok(Verdict::Match) => Ok(Vec::new()),
         Ok(Verdict::Mismatch(d)) => Ok(d),
         Err(Error::Input(e)) => Err(SourceError::Invalid {

@@ -5,6 +5,7 @@
 use std::path::Path;
 
 use super::error::{SourceError, not_solved};
+use super::limits::MAX_SOURCE_BYTES;
 use super::schema::{PlanSource, PointSource, SCHEMA_VERSION};
 use super::yaml_words;
 use crate::design::{DesignRequest, Scheme, SchemeOptions, VariablesRequest};
@@ -12,9 +13,6 @@ use crate::input::InputError;
 use crate::model::Model;
 use crate::model::{RiskPair, RiskPoint};
 use crate::plan::{Specification, StagedPlan, VariablesPlan};
-
-/// The largest plan source read: 1 MiB, refused by size before parsing.
-pub const MAX_SOURCE_BYTES: u64 = 1 << 20;
 
 /// The deepest nesting of brackets (`[` and `{`) a source may have; a plan
 /// source needs two at most. The YAML parser's work grows with the depth
@@ -65,6 +63,8 @@ impl PlanSource {
             source.variables_request().map(drop)
         } else if source.is_rectifying() {
             source.rectifying_request().map(drop)
+        } else if source.is_standard() {
+            source.standard_request().map(drop)
         } else {
             source.request().map(drop)
         };
@@ -143,6 +143,12 @@ impl PlanSource {
                 self.title
             )));
         }
+        if self.is_standard() {
+            return Err(InputError::Inconsistent(format!(
+                "the source '{}' is a standard-indexed plan (scheme: standard), read from the standard's tables by its AQL, not designed from two risk points",
+                self.title
+            )));
+        }
         if self.variables.is_some() {
             return Err(InputError::Inconsistent(format!(
                 "'variables' applies to variables plans only, and this source's scheme is {}",
@@ -150,6 +156,7 @@ impl PlanSource {
             )));
         }
         self.refuse_rectifying_section()?;
+        self.refuse_standard_section()?;
         let (model, risks) = self.model_and_risks()?;
         let options = self.scheme_options()?;
         Ok(DesignRequest {
@@ -191,6 +198,7 @@ impl PlanSource {
             }
         }
         self.refuse_rectifying_section()?;
+        self.refuse_standard_section()?;
         let spec = Specification::new(v.sigma, v.sigma_value, v.limit, v.lower, v.upper)?;
         let (model, risks) = self.model_and_risks()?;
         VariablesRequest::new(spec, risks, model)

@@ -7,11 +7,13 @@ mod describe;
 mod discrepancy;
 mod error;
 mod keys;
+mod limits;
 mod load;
 mod measurements;
 mod record;
 mod rectifying;
 mod schema;
+mod standard;
 mod templates;
 mod text;
 mod user_table;
@@ -24,14 +26,20 @@ pub(crate) use audit::{attributes_risks, variables_risks};
 pub use describe::Description;
 pub use discrepancy::{Difference, Discrepancy, UnmetPoint};
 pub use error::{Error, SourceError};
-pub use load::{MAX_BRACKET_DEPTH, MAX_SOURCE_BYTES};
+pub use limits::MAX_SOURCE_BYTES;
+pub use load::MAX_BRACKET_DEPTH;
 pub use measurements::{MAX_MEASUREMENTS_BYTES, read_measurements};
 pub use record::tool_version;
 pub use schema::{
     PlanSource, PointSource, RecordedPlan, RecordedVariables, SCHEMA_VERSION, VariablesSource,
 };
+pub use standard::{
+    ClassSource, Edition, MAX_CLASSES, RecordedClass, RecordedTablePlan, STANDARD_ALPHA,
+    StandardJudgement, StandardSource, StandardSourceRequest, TableFileSource, parse_class_counts,
+    relative_table_path,
+};
 pub use templates::{Placeholder, TEMPLATES, placeholders, template, template_kinds};
 pub use text::SourceText;
 pub use user_table::read_user_table;
-pub use verify::{RISK_TOLERANCE, Verdict, verify};
+pub use verify::{RISK_TOLERANCE, Verdict, verify, verify_at};
 pub use work::{SourceJob, check_batch, check_source, check_texts, source_work};

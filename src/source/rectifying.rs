@@ -78,6 +78,7 @@ impl PlanSource {
             ("second_ratio", self.second_ratio.is_some()),
             ("stage_count", self.stage_count.is_some()),
             ("variables", self.variables.is_some()),
+            ("standard", self.standard.is_some()),
         ] {
             if given {
                 return Err(InputError::Inconsistent(format!(
@@ -152,6 +153,16 @@ impl PlanSource {
                 self.scheme
             ))
         };
+        if recorded.code_letter.is_some() || !recorded.classes.is_empty() {
+            return Err(misplaced(
+                if recorded.classes.is_empty() {
+                    "code_letter"
+                } else {
+                    "classes"
+                },
+                "standard-indexed plans",
+            ));
+        }
         if !self.is_rectifying() {
             recorded
                 .producer_risk
@@ -222,6 +233,8 @@ impl PlanSource {
             stages: chosen.plan.stages().to_vec(),
             sequential: None,
             variables: None,
+            code_letter: None,
+            classes: Vec::new(),
             producer_risk: None,
             consumer_risk: chosen.pa_at_ltpd,
             ati: Some(chosen.ati),

@@ -13,9 +13,11 @@
 
 use serde::{Deserialize, Deserializer, Serialize};
 
+use super::standard::{RecordedClass, StandardSource, some_code_letter};
 use crate::design::{Criterion, Scheme};
 use crate::model::ModelKind;
 use crate::plan::{LimitKind, SequentialLines, SigmaKind, Stage};
+use crate::standard::CodeLetter;
 
 /// The schema version this tool reads and writes.
 pub const SCHEMA_VERSION: u32 = 1;
@@ -71,6 +73,10 @@ pub struct PlanSource {
     /// the process average and the protection.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub rectifying: Option<RectifyingSource>,
+    /// Standard-indexed plans (`scheme: standard`): what the contract
+    /// names (edition, inspection level, AQL or classes, severity, form).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub standard: Option<StandardSource>,
     /// Likelihood model (for a variables plan: the attributes model of the
     /// comparison plan).
     pub model: ModelKind,
@@ -116,6 +122,16 @@ pub struct RecordedPlan {
     /// The sample size and acceptance constant of a variables plan.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub variables: Option<RecordedVariables>,
+    /// Standard-indexed plans: the lot's code letter (Table I).
+    #[serde(
+        default,
+        skip_serializing_if = "Option::is_none",
+        deserialize_with = "some_code_letter"
+    )]
+    pub code_letter: Option<CodeLetter>,
+    /// Standard-indexed plans: each class's table plans, one per severity.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub classes: Vec<RecordedClass>,
     /// Achieved producer's risk `1 - Pa(p1)` (every scheme but
     /// `rectifying`).
     #[serde(default, skip_serializing_if = "Option::is_none")]

@@ -28,6 +28,7 @@ pub const TEMPLATES: &[(&str, &str)] = &[
         "rectifying",
         include_str!("../../templates/rectifying.yaml"),
     ),
+    ("standard", include_str!("../../templates/standard.yaml")),
 ];
 
 /// The template of `kind`, or `None` for an unknown kind.

@@ -1,9 +1,12 @@
 //! Verification: re-solve a source from its risk points and compare with the
 //! plan it records.
 
+use std::path::Path;
+
 use super::discrepancy::Difference;
 use super::error::{Error, not_solved};
 use super::schema::{PlanSource, RecordedPlan, RecordedVariables};
+use super::standard::standard_differences;
 use crate::design::{RectifyingPlan, design_for, design_rectifying};
 use crate::plan::{SequentialLines, Stage};
 
@@ -39,6 +42,37 @@ pub enum Verdict {
 /// assert_eq!(verify(&source).unwrap(), Verdict::Match);
 /// ```
 pub fn verify(source: &PlanSource) -> Result<Verdict, Error> {
+    verify_in(source, None)
+}
+
+/// [`verify`] of the source read from the file at `path`: a
+/// standard-indexed source's own tables (`standard.tables`) are read from
+/// beside it and checked by their SHA-256 before its plans are read from
+/// them again.
+///
+/// ```
+/// use lotsman::{PlanSource, Verdict, template, verify_at};
+/// let path = std::path::Path::new("s.yaml");
+/// let mut source = PlanSource::from_yaml(template("standard").unwrap(), path).unwrap();
+/// source.record_standard_at(path).unwrap();
+/// assert_eq!(verify_at(&source, path).unwrap(), Verdict::Match);
+/// source.plan.as_mut().unwrap().classes[1].normal.stages[0].accept = Some(2);
+/// let Verdict::Mismatch(d) = verify_at(&source, path).unwrap() else { panic!("a mismatch") };
+/// assert_eq!(d[0].field, "class major, normal, stage 1 accept");
+/// ```
+///
+/// # Errors
+/// As [`verify`]; [`Error::Source`](crate::Error::Source) for a user table
+/// that is missing, has changed since the plans were recorded, or is not
+/// a table.
+pub fn verify_at(source: &PlanSource, path: &Path) -> Result<Verdict, Error> {
+    verify_in(source, Some(path))
+}
+
+fn verify_in(source: &PlanSource, path: Option<&Path>) -> Result<Verdict, Error> {
+    if source.is_standard() {
+        return Ok(verdict(standard_differences(source, path)?));
+    }
     if source.is_variables() {
         return verify_variables(source);
     }

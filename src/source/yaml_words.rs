@@ -285,7 +285,9 @@ fn missing(field: Option<&str>, key: &str, file: &Path) -> String {
             let what = match key {
                 "schema" => "schema: 1 (the version of the layout)",
                 "title" => "title: the plan's name",
-                "scheme" => "scheme: single, double, multiple, sequential or variables",
+                "scheme" => {
+                    "scheme: single, double, multiple, sequential, variables, rectifying or standard"
+                }
                 "model" => "model: binomial, hypergeometric or poisson",
                 "producer" => {
                     "producer: with quality: (the AQL) and risk: (alpha) indented below it"
@@ -438,7 +440,7 @@ mod tests {
             ),
             (
                 &BASE.replace("scheme: single", "scheme: Single"),
-                "line 3: scheme must be one of single, double, multiple, sequential, variables, rectifying, not 'Single'; did you mean single?",
+                "line 3: scheme must be one of single, double, multiple, sequential, variables, rectifying, standard, not 'Single'; did you mean single?",
             ),
             (
                 &BASE.replace("model:", "modell:"),

@@ -279,18 +279,7 @@ pub fn assess(
     at: Option<&[f64]>,
     consumer: Option<ConsumerPoint>,
 ) -> Result<StandardAssessment, StandardError> {
-    let mut plans = Vec::new();
-    for severity in request.severities() {
-        let p = tables.classes_for_lot(
-            request.lot_size,
-            request.level,
-            &request.classes,
-            severity,
-            request.scheme,
-            request.rule,
-        )?;
-        plans.push((severity, p));
-    }
+    let plans = plans_by_severity(request, tables)?;
     let model = &request.model;
     let qualities = match at {
         Some(q) => q.to_vec(),
@@ -350,6 +339,33 @@ pub fn assess(
         plans,
         classes,
     })
+}
+
+/// The plans of every class of `request` at each severity of its scheme
+/// (normal, tightened and, unless left out, reduced), from `tables`: the
+/// look-up [`assess`] answers from, and which a plan source records.
+///
+/// # Errors
+/// As [`Tables::classes_for_lot`] for any severity of the scheme.
+pub fn plans_by_severity(
+    request: &StandardRequest,
+    tables: &Tables,
+) -> Result<Vec<(Severity, ClassPlans)>, StandardError> {
+    request
+        .severities()
+        .into_iter()
+        .map(|severity| {
+            let plans = tables.classes_for_lot(
+                request.lot_size,
+                request.level,
+                &request.classes,
+                severity,
+                request.scheme,
+                request.rule,
+            )?;
+            Ok((severity, plans))
+        })
+        .collect()
 }
 
 /// The qualities shown by default: those spread over the OC curve of the

@@ -63,6 +63,7 @@ pub use answer::{InspectAll, StandardAnswer, StandardPlan};
 pub use aql::{AQL_VALUES, Aql};
 pub use assessment::{
     ClassAssessment, SeverityPa, StandardAssessment, StandardIndex, StandardRequest, assess,
+    plans_by_severity,
 };
 pub use cell::TableCell;
 pub use class_scheme::ClassScheme;
@@ -84,4 +85,4 @@ pub use switching::{
     WindowAutomaton, WindowSolution, state_bound,
 };
 pub use table::{MasterTable, table_name};
-pub use tables::{TableSlot, Tables, UserTable, load_user_table};
+pub use tables::{TableSlot, Tables, UserTable, load_user_table, text_sha256};

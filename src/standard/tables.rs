@@ -92,6 +92,16 @@ enum Loaded {
     LimitNumbers(LimitNumberTable),
 }
 
+/// The SHA-256 of a table's text in lower-case hex: what a user table
+/// records of the file it was read from, and what a plan source checks
+/// the file against before reading plans from it again.
+pub fn text_sha256(text: &str) -> String {
+    Sha256::digest(text.as_bytes())
+        .iter()
+        .map(|b| format!("{b:02x}"))
+        .collect()
+}
+
 /// Reads a user's own table. Its header tells which kind it is: Table I
 /// (`lot_min,...`), Table VIII (`units_min,...`), or a master table of
 /// single, double or multiple plans (`code_letter,sample_size,...`,
@@ -148,14 +158,10 @@ pub fn load_user_table(
             ));
         }
     };
-    let sha256 = Sha256::digest(text.as_bytes())
-        .iter()
-        .map(|b| format!("{b:02x}"))
-        .collect();
     Ok(UserTable {
         slot,
         file: file.to_string(),
-        sha256,
+        sha256: text_sha256(text),
         table,
     })
 }

@@ -1773,7 +1773,7 @@ fn sources_and_files_are_refused_in_plain_words() {
             "a scheme in capitals (did you mean)",
             &v("@scheme-capital.yaml"),
             2,
-            "line 3: scheme must be one of single, double, multiple, sequential, variables, rectifying, not 'Single'; did you mean single?",
+            "line 3: scheme must be one of single, double, multiple, sequential, variables, rectifying, standard, not 'Single'; did you mean single?",
         ),
         reported(
             "a misspelt model (did you mean)",
@@ -1928,7 +1928,7 @@ fn arguments_are_refused_in_one_line_and_named_alike() {
         refused(
             "no command",
             &[],
-            "give a command: design, evaluate, verify, judge, sheet, tradeoff, new, demo, rectify; what each does: lotsman --help",
+            "give a command: design, evaluate, verify, judge, sheet, tradeoff, new, demo, rectify, standard; what each does: lotsman --help",
         ),
         refused(
             "--in-place with --output",

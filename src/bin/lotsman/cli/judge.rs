@@ -3,7 +3,7 @@
 use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
-use lotsman::{Format, InputError, parse_count};
+use lotsman::{Format, InputError, Severity, parse_count};
 
 use super::groups::FormatFlag;
 
@@ -13,7 +13,8 @@ pub struct JudgeArgs {
     #[arg(value_name = "FILE.yaml")]
     pub source: PathBuf,
     /// Count found in each stage's new units, in order (repeat per stage); with
-    /// --inspected, the one cumulative count so far
+    /// --inspected, the one cumulative count so far. A standard-indexed source with
+    /// classes: CLASS=K per class, K,K,.. per stage (--found major=1,3 --found minor=0)
     #[arg(
         long,
         value_name = "K",
@@ -36,8 +37,30 @@ pub struct JudgeArgs {
     /// points, the discrepancy stated beside the decision (without it, such a source is refused)
     #[arg(long)]
     pub accept_recorded: bool,
+    /// Standard-indexed sources: judge by the plans of this severity instead of the one
+    /// in force (standard.severity)
+    #[arg(long, value_enum, value_name = "SEVERITY")]
+    pub severity: Option<SeverityArg>,
     #[command(flatten)]
     pub report: FormatFlag<JudgeFormat>,
+}
+
+/// A severity of inspection.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum SeverityArg {
+    Normal,
+    Tightened,
+    Reduced,
+}
+
+impl From<SeverityArg> for Severity {
+    fn from(severity: SeverityArg) -> Self {
+        match severity {
+            SeverityArg::Normal => Severity::Normal,
+            SeverityArg::Tightened => Severity::Tightened,
+            SeverityArg::Reduced => Severity::Reduced,
+        }
+    }
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]

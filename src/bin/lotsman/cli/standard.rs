@@ -9,12 +9,16 @@ use lotsman::{
     StandardIndex, StandardRequest, parse_classes, parse_count, parse_fraction,
 };
 
-use super::groups::FormatFlag;
+use super::design::DescriptionFlags;
+use super::groups::{FormatFlag, OutputFlags};
 use super::qualities::Qualities;
 use super::values::{ModelArg, ReportFormatArg};
 
 /// `standard`: a plan from the AQL tables of MIL-STD-105E.
 #[derive(Debug, Args)]
+#[command(mut_arg("output", |a| a.value_name("FILE.yaml").help(
+    "Write a plan source that records the index and every severity's plans to this file (atomically); lotsman verify, judge and evaluate read it"
+)))]
 pub struct StandardArgs {
     /// Lot size N: gives the code letter (Table I)
     #[arg(long, value_name = "N", allow_hyphen_values = true)]
@@ -60,6 +64,13 @@ pub struct StandardArgs {
     /// --table reduced=mine-2c.csv; repeat for several tables
     #[arg(long, value_name = "[SEVERITY=]FILE.csv")]
     pub table: Vec<String>,
+    /// Title recorded in the plan source written with --output
+    #[arg(long, requires = "output")]
+    pub title: Option<String>,
+    #[command(flatten)]
+    pub description: DescriptionFlags,
+    #[command(flatten)]
+    pub output: OutputFlags,
     #[command(flatten)]
     pub report: FormatFlag<ReportFormatArg>,
 }

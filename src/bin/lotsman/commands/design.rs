@@ -6,9 +6,9 @@ use std::path::Path;
 
 use lotsman::{
     DesignError, DesignReport, DesignRequest, Error, Format, InputError, Outcome, PlanSource,
-    RectifyingReport, Report, SourceError, VariablesDesignReport, VariablesRequest,
-    design_rectifying, refuse_overwriting_input, sensitivity, shell_path, shell_word, solve,
-    solve_variables, write_atomic,
+    RectifyingReport, Report, SourceError, StandardPlansReport, VariablesDesignReport,
+    VariablesRequest, design_rectifying, refuse_overwriting_input, sensitivity, shell_path,
+    shell_word, solve, solve_variables, write_atomic,
 };
 
 use crate::cli::design::{DesignArgs, DesignFormat, SchemeArg};
@@ -31,6 +31,8 @@ pub fn run(args: DesignArgs) -> Result<Outcome, Error> {
             };
             if source.is_rectifying() {
                 rectifying(&args, source, path)
+            } else if source.is_standard() {
+                standard(&args, source, path)
             } else if source.is_variables() {
                 let request = source.variables_request().map_err(invalid)?;
                 variables(&args, source, &request)
@@ -102,6 +104,18 @@ fn rectifying(args: &DesignArgs, mut source: PlanSource, path: &Path) -> Result<
     finish(args, &report, &source)
 }
 
+/// `design FILE` of a standard-indexed source: its plans read from the
+/// tables (its own tables read from beside it as they are now, their
+/// hashes recorded anew), recorded, and reported.
+fn standard(args: &DesignArgs, mut source: PlanSource, path: &Path) -> Result<Outcome, Error> {
+    source.record_standard_at(path)?;
+    let report = StandardPlansReport::new(&source).map_err(|e| SourceError::Invalid {
+        path: path.to_path_buf(),
+        source: e,
+    })?;
+    finish(args, &report, &source)
+}
+
 /// Writes the solved source where asked, then prints the report, or with
 /// `--format yaml` the source itself.
 fn finish(args: &DesignArgs, report: &impl Report, source: &PlanSource) -> Result<Outcome, Error> {
@@ -146,10 +160,10 @@ fn write_source(args: &DesignArgs, source: &PlanSource) -> Result<(), Error> {
     Ok(())
 }
 
-/// `design --output` writes a plan source, so its name must end in
+/// `design --output` (and `standard --output`) writes a plan source, so its name must end in
 /// `.yaml` or `.yml`: the name the folder search finds, and not a PDF
 /// (the sheet is printed from the source by `lotsman sheet`).
-fn refuse_non_yaml_output(output: Option<&Path>) -> Result<(), InputError> {
+pub(crate) fn refuse_non_yaml_output(output: Option<&Path>) -> Result<(), InputError> {
     // A folder in the target's place is refused as such when written.
     let Some(target) = output.filter(|t| !t.is_dir()) else {
         return Ok(());

@@ -77,6 +77,7 @@ fn source(args: &EvaluateArgs, path: &Path) -> Result<Outcome, Error> {
     match &evaluation {
         SourceEvaluation::Attributes(r) => write_report(r, format, &mut text)?,
         SourceEvaluation::Variables(r) => write_report(r, format, &mut text)?,
+        SourceEvaluation::Standard(r) => write_report(r, format, &mut text)?,
     }
     warn_accepted(path, evaluation.accepted_recorded(), EVALUATED_AS_RECORDED);
     print_out(&text)?;

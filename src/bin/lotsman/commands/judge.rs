@@ -4,8 +4,9 @@
 use std::path::Path;
 
 use lotsman::{
-    Error, InputError, JudgeReport, MeasurementJudgeReport, Outcome, PlanSource, SourceJob,
-    check_source, judge, judge_cumulative, judge_measurements, read_measurements,
+    Audited, Error, InputError, JudgeReport, MeasurementJudgeReport, Outcome, PlanSource,
+    SourceError, SourceJob, StandardJudgeReport, check_source, judge, judge_cumulative,
+    judge_measurements, read_measurements,
 };
 
 use crate::cli::judge::{Found, JudgeArgs};
@@ -19,8 +20,19 @@ pub fn run(args: JudgeArgs) -> Result<Outcome, Error> {
     if let Some(csv) = &args.measurements {
         return by_measurements(&args, csv);
     }
-    let (audited, model, plan) =
-        PlanSource::load_with_plan(&args.source, args.accept_recorded, budget(&args.source))?;
+    let audited = Audited::load_checked(&args.source, args.accept_recorded, budget(&args.source))?;
+    if audited.source.is_standard() {
+        return by_classes(&args, audited);
+    }
+    if args.severity.is_some() {
+        return Err(not_standard("--severity"));
+    }
+    let invalid = |e| SourceError::Invalid {
+        path: args.source.clone(),
+        source: e,
+    };
+    let model = audited.source.staged_model().map_err(invalid)?;
+    let plan = audited.source.recorded_plan(&model).map_err(invalid)?;
     let judgement = match Found::try_from(&args)? {
         Found::Stages(counts) => judge(&plan, &model, &counts)?,
         Found::Cumulative { inspected, found } => {
@@ -41,8 +53,48 @@ pub fn run(args: JudgeArgs) -> Result<Outcome, Error> {
     )
 }
 
+/// A standard-indexed source: every class judged by its own plan at the
+/// severity in force (or `--severity`), and the lot overall.
+fn by_classes(args: &JudgeArgs, audited: Audited) -> Result<Outcome, Error> {
+    if args.inspected.is_some() {
+        return Err(InputError::Inconsistent(
+            "--inspected is for item-by-item plans; a standard-indexed plan takes the counts of each stage, --found CLASS=K,K,..".to_string(),
+        )
+        .into());
+    }
+    let found: Vec<&str> = args.found.iter().map(String::as_str).collect();
+    let judged =
+        audited
+            .source
+            .judge_standard(&args.source, args.severity.map(Into::into), &found)?;
+    let accepted = audited.accepted.map(|d| d.to_string());
+    let report = StandardJudgeReport {
+        verdict: judged.verdict,
+        plans: judged.plans,
+        severity: judged.severity,
+        source: args.source.clone(),
+        accepted_recorded: accepted.clone(),
+    };
+    print_warned(
+        args,
+        &report_bytes(&report, args.report.format.into())?,
+        accepted,
+    )
+}
+
+/// The refusal of a flag that only a standard-indexed source takes.
+fn not_standard(flag: &str) -> Error {
+    InputError::Inconsistent(format!(
+        "{flag} applies to standard-indexed plans (scheme: standard) only, and this source is designed from its own risk points"
+    ))
+    .into()
+}
+
 /// `judge --measurements`: a variables plan decides from the sample.
 fn by_measurements(args: &JudgeArgs, csv: &Path) -> Result<Outcome, Error> {
+    if args.severity.is_some() {
+        return Err(not_standard("--severity"));
+    }
     let (audited, request, plan) = PlanSource::load_with_variables_plan(
         &args.source,
         args.accept_recorded,
