@@ -151,9 +151,9 @@ pub use standard::{
 pub use standard::{
     AQL_VALUES, Aql, ClassAql, ClassAssessment, ClassDecision, ClassPlan, ClassPlans, ClassRule,
     ClassScheme, ClassVerdict, CodeLetter, CodeLetterTable, ConsumerPoint, ConsumerRisk,
-    InspectAll, InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable,
-    SchemeRefusal, Severity, SeverityPa, StandardAnswer, StandardAssessment, StandardError,
-    StandardIndex, StandardPlan, StandardRequest, TableCell, TableSlot, Tables, TrueRisks,
-    TwoPointPlan, UserTable, assess, judge_classes, load_user_table, parse_classes,
-    plans_by_severity, scheme_curve, table_name, text_sha256, true_risks,
+    InspectAll, InspectionLevel, LimitNumber, LimitNumberTable, LotRange, MasterTable, Severity,
+    SeverityPa, StandardAnswer, StandardAssessment, StandardError, StandardIndex, StandardPlan,
+    StandardRequest, TableCell, TableSlot, Tables, TrueRisks, TwoPointPlan, UserTable, assess,
+    judge_classes, load_user_table, parse_classes, plans_by_severity, table_name, text_sha256,
+    true_risks,
 };

@@ -8,13 +8,15 @@
 //! the facts hang together and draws them.
 
 use crate::design::Scheme;
+use crate::standard::ClassScheme;
+
 use crate::input::InputError;
 use crate::model::{Model, ModelKind};
 use crate::plan::{StagedPlan, quality_at_pa};
 use crate::print::chart::scale::nice_ceiling;
 use crate::standard::{
     Aql, ClassRule, CodeLetter, InspectionLevel, LimitNumber, Severity, StandardAnswer,
-    StandardAssessment, StandardError, StandardPlan, TableSlot, Tables, TrueRisks, scheme_curve,
+    StandardAssessment, StandardError, StandardPlan, TableSlot, Tables, TrueRisks,
 };
 
 /// The qualities at which the chart's scheme curve is computed.
@@ -205,20 +207,50 @@ impl StandardFacts {
             scheme_oc: SchemeCurve::Refused(String::new()),
         };
         facts.scheme_oc = match facts.chart_class() {
-            Some(k) => {
-                let reach = facts.chart_reach(k)?;
-                let qualities: Vec<f64> = (1..=SCHEME_POINTS)
-                    .map(|i| reach * i as f64 / SCHEME_POINTS as f64)
-                    .collect();
-                let limit = facts.classes[k].limit.map(|l| l.number);
-                match scheme_curve(a, k, limit, &qualities) {
-                    Ok(points) => SchemeCurve::Drawn(points),
-                    Err(why) => SchemeCurve::Refused(why),
-                }
-            }
+            Some(k) => facts.scheme_curve(a, k, tables)?,
             None => SchemeCurve::Refused("every class inspects every unit".to_string()),
         };
         Ok(facts)
+    }
+
+    /// The switching scheme's long-run OC of class `k` of `a` at
+    /// [`SCHEME_POINTS`] qualities evenly across the chart
+    /// ([`ClassScheme::long_run`]), or why it is not drawn: the scheme
+    /// cannot be built, its estimated work is beyond the budget, or a
+    /// point is refused.
+    ///
+    /// # Errors
+    /// As [`StandardFacts::chart_reach`].
+    fn scheme_curve(
+        &self,
+        a: &StandardAssessment,
+        k: usize,
+        tables: &Tables,
+    ) -> Result<SchemeCurve, StandardError> {
+        let reach = self.chart_reach(k)?;
+        let scheme = match ClassScheme::new(&a.classes[k], &a.request, tables) {
+            Ok(s) => s,
+            Err(e) => return Ok(SchemeCurve::Refused(e.to_string())),
+        };
+        if let Err(e) = scheme.work(SCHEME_POINTS).check(
+            "the switching scheme's curve",
+            "the chart shows each severity's own curve, and the standard command gives the scheme's OC at a few qualities",
+        ) {
+            return Ok(SchemeCurve::Refused(e.to_string()));
+        }
+        // The chain takes qualities up to 1: a chart of nonconformities
+        // per unit reaching beyond shows the scheme's curve up to 1.
+        let qualities = (1..=SCHEME_POINTS)
+            .map(|i| reach * i as f64 / SCHEME_POINTS as f64)
+            .filter(|&q| q <= 1.0);
+        let mut points = Vec::with_capacity(SCHEME_POINTS);
+        for q in qualities {
+            match scheme.long_run(q) {
+                Ok(oc) => points.push((q, oc.figures.pa)),
+                Err(e) => return Ok(SchemeCurve::Refused(e.to_string())),
+            }
+        }
+        Ok(SchemeCurve::Drawn(points))
     }
 
     /// The plans of class `k` at the severities on the sheet, ready to

@@ -53,7 +53,6 @@ mod limit_numbers;
 mod lookup;
 mod provenance;
 mod risks;
-mod scheme_curve;
 mod severity;
 mod switching;
 mod table;
@@ -76,7 +75,6 @@ pub use error::StandardError;
 pub use letter::{CodeLetter, InspectionLevel};
 pub use limit_numbers::{LimitNumber, LimitNumberTable};
 pub use risks::{ConsumerPoint, ConsumerRisk, TrueRisks, TwoPointPlan, true_risks};
-pub use scheme_curve::{SchemeRefusal, scheme_curve};
 pub use severity::Severity;
 pub use switching::{
     ACCEPTED_TO_NORMAL, Counter, EXACT_STATES, LimitWindow, LotOutcomes, LotResult,
