@@ -1,48 +1,44 @@
 //! The true-risk table of a standard-indexed plan: for each class, the
 //! table plan in force: its sample, its producer's risk at the AQL, the
 //! qualities at which it accepts 95, 50 and 10 percent of lots and, given
-//! a consumer's point, its Pa there; beside it, when that point is given,
-//! the plan the two-point designer gives for the same points, with its n
-//! against the table plan's. What no table booklet prints.
+//! a consumer's point, its Pa there and the plan the two-point designer
+//! gives for the same points (its n against the table plan's), with one
+//! line under the table naming the point. What no table booklet prints.
 
 use super::plan_table::{Cell, ROW_TYPES, TABLE_HEAD_H, Table, column_widths, plan_table};
-use crate::numeric::format_significant;
 use crate::print::canvas::Canvas;
-use crate::print::draw::{Face, grey};
+use crate::print::draw::Face;
 use crate::print::geometry::Rect;
 use crate::print::palette::{ACCEPT, REJECT};
 use crate::print::standard_facts::{StandardClassFacts, StandardFacts};
 use crate::print::text::Shrink;
 use crate::print::wording::sheet::{NOT_GIVEN, quality};
 use crate::print::wording::standard as words;
-use crate::standard::{ConsumerRisk, Severity, TrueRisks};
+use crate::standard::{ConsumerRisk, TrueRisks};
 
 /// The table's columns without a consumer's point, and with one.
-const PLAIN: usize = 7;
+const PLAIN: usize = 6;
 const WITH_RQL: usize = 8;
 
 /// Room above the table for the heading, mm; the rows' type.
 const TOP: f64 = 5.5;
 const ROWS: usize = 2;
 
-/// The narrowest the two-point design beside the table may be, mm.
-const MIN_DESIGN_W: f64 = 40.0;
+/// The size of the line naming the consumer's point, points.
+const CAPTION_SIZE: f64 = 6.5;
 
-/// The cells of one row: a class at one severity.
-fn row(cl: &StandardClassFacts, s: Severity, risks: Option<&TrueRisks>) -> Vec<Cell> {
+/// The cells of one row: a class's plan in force.
+fn row(f: &StandardFacts, cl: &StandardClassFacts, risks: Option<&TrueRisks>) -> Vec<Cell> {
     let q = |v: f64| quality(v, cl.per_unit());
-    let mut cells = vec![
-        Cell::plain(cl.name.clone()),
-        Cell::plain(s.name().to_string()),
-    ];
+    let mut cells = vec![Cell::plain(cl.name.clone())];
     match risks {
         Some(r) => {
             let n = cl
-                .at(s)
+                .at(f.severity)
                 .and_then(|a| a.plan())
                 .map_or(0, |p| p.sample_size());
             cells.push(Cell::plain(n.to_string()));
-            cells.push(Cell::plain(format_significant(r.producer_risk, 3)));
+            cells.push(Cell::plain(words::risk(r.producer_risk)));
             cells.push(Cell::plain(q(r.quality_at_pa_95)));
             cells.push(Cell::plain(q(r.quality_at_pa_50)));
             cells.push(Cell::plain(q(r.quality_at_pa_10)));
@@ -53,10 +49,11 @@ fn row(cl: &StandardClassFacts, s: Severity, risks: Option<&TrueRisks>) -> Vec<C
                     (">", REJECT)
                 };
                 cells.push(Cell {
-                    text: format!("{} {sign} β", format_significant(k.consumer_risk, 3)),
+                    text: format!("{}  {sign} β", words::risk(k.consumer_risk)),
                     face: Face::Bold,
                     color: colour,
                 });
+                cells.push(Cell::plain(words::two_point(k)));
             }
         }
         None => {
@@ -69,12 +66,13 @@ fn row(cl: &StandardClassFacts, s: Severity, risks: Option<&TrueRisks>) -> Vec<C
     cells
 }
 
-/// Every row: each class at the severity in force.
+/// Every row: each class at the severity in force, filled out to `width`
+/// cells.
 fn rows(f: &StandardFacts, width: usize) -> Vec<Vec<Cell>> {
     f.classes
         .iter()
         .map(|cl| {
-            let mut cells = row(cl, f.severity, cl.risks.as_ref());
+            let mut cells = row(f, cl, cl.risks.as_ref());
             while cells.len() < width {
                 cells.push(Cell::plain(NOT_GIVEN.to_string()));
             }
@@ -83,10 +81,18 @@ fn rows(f: &StandardFacts, width: usize) -> Vec<Vec<Cell>> {
         .collect()
 }
 
-/// The consumer's point of a class and what its plan in force gives
-/// there.
+/// The consumer's point and what a class's plan in force gives there.
 fn consumer(cl: &StandardClassFacts) -> Option<&ConsumerRisk> {
     cl.risks.as_ref().and_then(|r| r.consumer.as_ref())
+}
+
+/// The line naming the consumer's point, when one is given.
+fn caption(f: &StandardFacts) -> Option<String> {
+    let per_unit = f.classes.iter().any(StandardClassFacts::per_unit);
+    f.classes
+        .iter()
+        .find_map(consumer)
+        .map(|k| words::consumer_caption(&k.point, per_unit))
 }
 
 /// The table's rows and heads, with a consumer's point or without.
@@ -106,16 +112,7 @@ impl Laid {
         }
     }
 
-    /// The room the table may take in a block `w` mm wide: all of it, or
-    /// what the two-point design beside it leaves.
-    fn room(&self, w: f64) -> f64 {
-        match self {
-            Laid::Plain(..) => w,
-            Laid::WithRql(..) => w - MIN_DESIGN_W - 4.0,
-        }
-    }
-
-    /// The column widths in `room` mm.
+    /// The column widths, widened to share `room` mm.
     fn widths(&self, c: &Canvas, room: f64) -> Vec<f64> {
         match self {
             Laid::Plain(t, heads) => widths::<PLAIN>(c, &cells::<PLAIN>(t), heads, room).to_vec(),
@@ -163,74 +160,68 @@ fn widths<const K: usize>(
     widths
 }
 
-/// The two-point design's texts, one per class with a consumer's point.
-fn designs(f: &StandardFacts) -> Vec<String> {
-    f.classes
-        .iter()
-        .filter_map(|cl| {
-            let k = consumer(cl)?;
-            Some(words::two_point(cl, k, f.severity))
-        })
-        .collect()
+/// The caption's height `w` mm wide, with the gap above it; 0 without a
+/// consumer's point.
+fn caption_height(c: &Canvas, f: &StandardFacts, w: f64) -> f64 {
+    caption(f).map_or(0.0, |t| {
+        c.fit(&t, Face::Regular, w, f64::INFINITY, Shrink::fixed(CAPTION_SIZE))
+            .height
+            + 1.0
+    })
 }
 
-/// The design column's height `w` mm wide.
-fn designs_height(c: &Canvas, f: &StandardFacts, w: f64) -> f64 {
-    9.0 + designs(f)
-        .iter()
-        .map(|t| {
-            c.fit(t, Face::Regular, w, f64::INFINITY, Shrink::fixed(6.5))
-                .height
-                + 0.8
-        })
-        .sum::<f64>()
-}
-
-/// The height of the block `w` mm wide: the table's, or the two-point
-/// design's beside it where that is taller.
+/// The height of the block `w` mm wide: the table's, and the caption's
+/// under it when a consumer's point is given.
 pub fn true_risks_height(c: &Canvas, f: &StandardFacts, w: f64) -> f64 {
     let laid = Laid::of(f);
-    let table = TOP + TABLE_HEAD_H + ROW_TYPES[ROWS].pitch * laid.len() as f64 + 1.0;
-    match laid {
-        Laid::Plain(..) => table,
-        Laid::WithRql(..) => {
-            let used: f64 = laid.widths(c, laid.room(w)).iter().sum();
-            table.max(designs_height(c, f, w - used - 4.0) + 1.0)
-        }
-    }
+    TOP + TABLE_HEAD_H
+        + ROW_TYPES[ROWS].pitch * laid.len() as f64
+        + 1.0
+        + caption_height(c, f, w)
 }
 
-/// The true-risk table in `area`, and the two-point design beside it
-/// when a consumer's point is given.
+/// The true-risk table in `area`, with the line naming the consumer's
+/// point under it when one is given.
 pub fn true_risks_block(c: &mut Canvas, f: &StandardFacts, area: Rect) {
     let laid = Laid::of(f);
     let model = f.classes[0].model.kind().name().to_uppercase();
     c.claim("true risks", area);
-    c.heading(area.x, area.top() - 3.5, &words::true_risks_heading(&model));
+    c.heading(
+        area.x,
+        area.top() - 3.5,
+        &words::true_risks_heading(f.severity, &model),
+    );
     let at = (area.x, area.top() - TOP);
-    let room = laid.room(area.w);
-    let widths = laid.widths(c, room);
-    let used: f64 = widths.iter().sum();
+    let widths = laid.widths(c, area.w);
     let need: f64 = laid.widths(c, 0.0).iter().sum();
-    if need > room + 1e-6 {
+    if need > area.w + 1e-6 {
         c.fault(format!(
-            "true-risk table: {need:.0} mm wide, the page leaves {room:.0} mm"
+            "true-risk table: {need:.0} mm wide, the page leaves {:.0} mm",
+            area.w
         ));
     }
     let kind = ROW_TYPES[ROWS];
-    match &laid {
+    let table_h = match &laid {
         Laid::Plain(t, heads) => {
             let rows = cells::<PLAIN>(t);
             let w: [f64; PLAIN] = std::array::from_fn(|j| widths[j]);
-            plan_table(c, &table_of("true-risk table", heads, &rows), at, &w, kind);
+            plan_table(c, &table_of("true-risk table", heads, &rows), at, &w, kind)
         }
         Laid::WithRql(t, heads) => {
             let rows = cells::<WITH_RQL>(t);
             let w: [f64; WITH_RQL] = std::array::from_fn(|j| widths[j]);
-            plan_table(c, &table_of("true-risk table", heads, &rows), at, &w, kind);
-            let x = area.x + used + 4.0;
-            design_column(c, f, Rect::new(x, area.y, area.right() - x, area.h));
+            plan_table(c, &table_of("true-risk table", heads, &rows), at, &w, kind)
         }
+    };
+    if let Some(text) = caption(f) {
+        let top = area.top() - TOP - table_h - 1.0;
+        c.paragraph(
+            "true-risk table",
+            Rect::new(area.x, area.y, area.w, top - area.y),
+            &text,
+            Face::Regular,
+            Shrink::fixed(CAPTION_SIZE),
+        );
     }
 }
 
@@ -241,33 +232,4 @@ fn table_of<'a, const K: usize>(
     rows: &'a [[Cell; K]],
 ) -> Table<'a, K> {
     Table { name, heads, rows }
-}
-
-/// The two-point design for each class's points, in the column `area`.
-fn design_column(c: &mut Canvas, f: &StandardFacts, area: Rect) {
-    let (x, top, w) = (area.x, area.top(), area.w);
-    c.line(
-        &[(x - 2.0, top - 4.5), (x - 2.0, area.y)],
-        0.3,
-        grey(0.6),
-        None,
-    );
-    c.text(
-        x,
-        top - 7.5,
-        words::TWO_POINT_HEADING,
-        Face::Bold,
-        6.5,
-        grey(0.3),
-    );
-    let mut y = top - 9.0;
-    for text in designs(f) {
-        y -= c.paragraph(
-            "two-point design",
-            Rect::new(x, area.y, w, y - area.y),
-            &text,
-            Face::Regular,
-            Shrink::fixed(6.5),
-        ) + 0.8;
-    }
 }

@@ -407,15 +407,18 @@ pub const FOUND: &str = "Found:";
 /// table.
 pub const EVERY_UNIT_SHORT: &str = "every unit";
 
-/// The true-risk table's heading, under the `model` (its name in
-/// capitals).
-pub fn true_risks_heading(model: &str) -> String {
-    format!("WHAT THE TABLE PLANS REALLY GIVE: EXACT OC, {model} MODEL")
+/// The true-risk table's heading: the plans in force at `severity`,
+/// under the `model` (its name in capitals).
+pub fn true_risks_heading(severity: Severity, model: &str) -> String {
+    format!(
+        "WHAT THE PLANS IN FORCE ({}) REALLY GIVE: EXACT OC, {model} MODEL",
+        severity.name().to_uppercase()
+    )
 }
 
 /// The true-risk table's heads, two lines each, without a consumer's
 /// point.
-pub fn risk_heads(per_unit: bool) -> [[&'static str; 2]; 7] {
+pub fn risk_heads(per_unit: bool) -> [[&'static str; 2]; 6] {
     let q = if per_unit {
         "Per unit at"
     } else {
@@ -423,7 +426,6 @@ pub fn risk_heads(per_unit: bool) -> [[&'static str; 2]; 7] {
     };
     [
         ["", "Class"],
-        ["", "Inspection"],
         ["Sample", "n"],
         ["Producer's risk", "1 − Pa at AQL"],
         [q, "Pa = 0.95"],
@@ -432,45 +434,58 @@ pub fn risk_heads(per_unit: bool) -> [[&'static str; 2]; 7] {
     ]
 }
 
-/// [`risk_heads`] with the consumer's risk at the RQL.
+/// [`risk_heads`] with the consumer's risk at the RQL and the two-point
+/// plan for the same points.
 pub fn risk_heads_rql(per_unit: bool) -> [[&'static str; 2]; 8] {
-    let [a, b, c, d, e, f, g] = risk_heads(per_unit);
-    [a, b, c, d, e, f, g, ["Consumer's risk", "Pa at RQL"]]
+    let [a, b, c, d, e, f] = risk_heads(per_unit);
+    [
+        a,
+        b,
+        c,
+        d,
+        e,
+        f,
+        ["Consumer's risk", "Pa at RQL"],
+        ["Two-point plan", "same points"],
+    ]
 }
 
-/// The heading of the two-point design beside the true-risk table.
-pub const TWO_POINT_HEADING: &str = "TWO-POINT DESIGN, SAME POINTS";
+/// A probability in the true-risk table: three significant digits, and
+/// below 0.001 only that it is (a figure like `7.66e-33` reads as noise
+/// on a signed sheet, and no decision turns on its digits).
+pub fn risk(p: f64) -> String {
+    if p < 0.001 {
+        "< 0.001".to_string()
+    } else {
+        crate::numeric::format_significant(p, 3)
+    }
+}
 
-/// A class's two-point design against its table plan in force (at
-/// `severity`).
-pub fn two_point(
-    cl: &StandardClassFacts,
-    k: &crate::standard::ConsumerRisk,
-    severity: Severity,
-) -> String {
-    let per_unit = cl.per_unit();
-    let q = |v: f64| crate::print::wording::sheet::quality(v, per_unit);
-    let point = &k.point;
-    let design = match &k.design {
+/// A class's two-point plan for its AQL at alpha and its consumer's
+/// point, in a table cell: `n 105, Ac 2`, or the stages and largest
+/// sample of a staged design.
+pub fn two_point(k: &crate::standard::ConsumerRisk) -> String {
+    match &k.design {
         Ok(d) => match d.design.plan.as_single() {
-            Some((n, ac)) => format!("n = {n}, Ac {ac}"),
+            Some((n, ac)) => format!("n {n}, Ac {ac}"),
             None => format!(
-                "{} stages, up to {} units (ASN {:.1} at the AQL)",
+                "{} stages, n up to {}",
                 d.design.plan.stages().len(),
-                d.n,
-                d.asn_at_aql
+                d.n
             ),
         },
-        Err(_) => "no plan within the designer's limits".to_string(),
-    };
+        Err(_) => "none in the limits".to_string(),
+    }
+}
+
+/// The line under the true-risk table with a consumer's `point`: what
+/// the consumer's risk is judged against and what the two-point plan is.
+pub fn consumer_caption(point: &crate::standard::ConsumerPoint, per_unit: bool) -> String {
     format!(
-        "{}: AQL {} at α {}, RQL {} at β {}: {design}; the table plan at {severity} takes n = {}.",
-        cl.name,
-        q(cl.aql.quality()),
-        point.alpha,
-        q(point.rql),
+        "Consumer's point: RQL {} with β {}. Two-point plan: the designer's plan for that point and α {} at the class's AQL; compare its n with the table plan's.",
+        crate::print::wording::sheet::quality(point.rql, per_unit),
         point.beta,
-        k.table_n
+        point.alpha
     )
 }
 
