@@ -35,6 +35,7 @@ mod standard_classes;
 mod standard_cli;
 mod standard_judge;
 mod standard_risks;
+mod standard_sheet;
 mod standard_source;
 mod standard_tables;
 mod svg;

@@ -164,8 +164,14 @@ fn widths<const K: usize>(
 /// consumer's point.
 fn caption_height(c: &Canvas, f: &StandardFacts, w: f64) -> f64 {
     caption(f).map_or(0.0, |t| {
-        c.fit(&t, Face::Regular, w, f64::INFINITY, Shrink::fixed(CAPTION_SIZE))
-            .height
+        c.fit(
+            &t,
+            Face::Regular,
+            w,
+            f64::INFINITY,
+            Shrink::fixed(CAPTION_SIZE),
+        )
+        .height
             + 1.0
     })
 }
@@ -174,10 +180,7 @@ fn caption_height(c: &Canvas, f: &StandardFacts, w: f64) -> f64 {
 /// under it when a consumer's point is given.
 pub fn true_risks_height(c: &Canvas, f: &StandardFacts, w: f64) -> f64 {
     let laid = Laid::of(f);
-    TOP + TABLE_HEAD_H
-        + ROW_TYPES[ROWS].pitch * laid.len() as f64
-        + 1.0
-        + caption_height(c, f, w)
+    TOP + TABLE_HEAD_H + ROW_TYPES[ROWS].pitch * laid.len() as f64 + 1.0 + caption_height(c, f, w)
 }
 
 /// The true-risk table in `area`, with the line naming the consumer's

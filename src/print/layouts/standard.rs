@@ -76,9 +76,7 @@ pub fn standard_layout(c: &mut Canvas, f: &StandardFacts, page: Rect) -> Result<
         Rect::from_top(left, top, width, STAGED_TITLE_H),
     );
     top -= title_h + GAP;
-    let pb = standard_plan_box(c, f, Rect::top_edge(left, top, width));
-    top -= pb + GAP;
-    eprintln!("DBG title {title_h} planbox {pb}");
+    top -= standard_plan_box(c, f, Rect::top_edge(left, top, width)) + GAP;
 
     let proc_w = (width - GAP) * PROCEDURE_SHARE;
     let switch_w = width - GAP - proc_w;
@@ -102,7 +100,6 @@ pub fn standard_layout(c: &mut Canvas, f: &StandardFacts, page: Rect) -> Result<
         .find(|s| row_h(s) >= MIN_CHART_H.max(right_h))
         .unwrap_or(&options[options.len() - 1]);
 
-    eprintln!("DBG size {} band {} notes {} risks {risks_h} record {record_h} row {}", chosen.size, chosen.band, chosen.notes, row_h(chosen));
     if chosen.notes > 0.0 {
         notes_block(
             c,

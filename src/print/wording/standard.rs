@@ -468,11 +468,7 @@ pub fn two_point(k: &crate::standard::ConsumerRisk) -> String {
     match &k.design {
         Ok(d) => match d.design.plan.as_single() {
             Some((n, ac)) => format!("n {n}, Ac {ac}"),
-            None => format!(
-                "{} stages, n up to {}",
-                d.design.plan.stages().len(),
-                d.n
-            ),
+            None => format!("{} stages, n up to {}", d.design.plan.stages().len(), d.n),
         },
         Err(_) => "none in the limits".to_string(),
     }
@@ -482,7 +478,7 @@ pub fn two_point(k: &crate::standard::ConsumerRisk) -> String {
 /// the consumer's risk is judged against and what the two-point plan is.
 pub fn consumer_caption(point: &crate::standard::ConsumerPoint, per_unit: bool) -> String {
     format!(
-        "Consumer's point: RQL {} with β {}. Two-point plan: the designer's plan for that point and α {} at the class's AQL; compare its n with the table plan's.",
+        "Consumer's point: RQL {} at β {}. Two-point plan: the designer's plan for it and α {} at the AQL; compare its n with the table plan's.",
         crate::print::wording::sheet::quality(point.rql, per_unit),
         point.beta,
         point.alpha
