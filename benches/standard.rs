@@ -5,8 +5,8 @@
 //! level II, AQL 1.0 (code letter K; normal n = 125 Ac 3 Re 4, tightened
 //! Ac 2 Re 3, reduced n = 50 Ac 1 Re 4). `assess` reads the tables, finds
 //! every severity's plan, the true risks of the plan in force, and Pa of
-//! each severity and of the switching scheme at 1,001 qualities from 0 to
-//! 6%.
+//! each severity and of the switching scheme at 1,001 qualities from
+//! 0.006% to 6%.
 //!
 //! Without reduced inspection the scheme's chain is two alternating spells
 //! and exact in closed form. With reduced inspection, Table VIII's
@@ -41,9 +41,7 @@ fn request(lot_size: u64, reduced: bool) -> StandardRequest {
 }
 
 fn qualities(count: usize) -> Vec<f64> {
-    (0..count)
-        .map(|i| 0.06 * i as f64 / (count - 1) as f64)
-        .collect()
+    (1..=count).map(|i| 0.06 * i as f64 / count as f64).collect()
 }
 
 fn benches(c: &mut Criterion) {
