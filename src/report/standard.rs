@@ -414,11 +414,11 @@ impl StandardReport {
         writeln!(out, "{g}")?;
         writeln!(
             out,
-            "Pa scheme: the long-run share of lots accepted under the switching rules{}, production steady and reduced inspection approved whenever the rules allow it.",
+            "Pa scheme: the long-run share of lots accepted under the switching rules{}.",
             if reduced {
-                ""
+                ", production steady and reduced inspection approved whenever the rules allow it"
             } else {
-                " without reduced inspection"
+                " without reduced inspection, production steady"
             }
         )?;
         if let Some(note) = &c.scheme_note {

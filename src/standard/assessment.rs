@@ -15,6 +15,7 @@ use super::error::StandardError;
 use super::letter::InspectionLevel;
 use super::risks::{ConsumerPoint, TrueRisks, true_risks};
 use super::severity::Severity;
+use super::switching::SwitchingError;
 use super::tables::Tables;
 use crate::design::Scheme;
 use crate::input::InputError;
@@ -213,6 +214,25 @@ pub struct ClassAssessment {
 }
 
 impl ClassAssessment {
+    /// The class's switching scheme under `request`'s contract, with
+    /// Table VIII from `tables`.
+    ///
+    /// # Errors
+    /// As [`ClassScheme::new`].
+    pub fn scheme(
+        &self,
+        request: &StandardRequest,
+        tables: &Tables,
+    ) -> Result<ClassScheme, SwitchingError> {
+        ClassScheme::new(
+            &self.answers,
+            *request.model(),
+            request.lot_size(),
+            request.reduced(),
+            tables,
+        )
+    }
+
     /// The answer at `severity`, if it is part of the scheme.
     pub fn at(&self, severity: Severity) -> Option<&StandardAnswer> {
         self.answers
@@ -402,7 +422,7 @@ fn scheme_points(
     request: &StandardRequest,
     tables: &Tables,
 ) -> Option<String> {
-    let scheme = match ClassScheme::new(class, request, tables) {
+    let scheme = match class.scheme(request, tables) {
         Ok(s) => s,
         Err(e) => return Some(format!("the switching scheme's OC is not given: {e}")),
     };

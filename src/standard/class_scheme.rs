@@ -17,8 +17,7 @@
 //! number). Where Table VIII prints `*` for ten lots, the fewest more lots
 //! whose units reach a printed number are counted (its note).
 
-use super::answer::StandardPlan;
-use super::assessment::{ClassAssessment, StandardRequest};
+use super::answer::{StandardAnswer, StandardPlan};
 use super::limit_numbers::LimitNumber;
 use super::severity::Severity;
 use super::switching::{
@@ -42,13 +41,14 @@ pub struct ClassScheme {
     reduced: Option<(StagedPlan, StandardPlan)>,
 }
 
-/// The plan of `severity` in `class`, or why the scheme cannot sample.
+/// The plan of `severity` among `answers`, or why the scheme cannot
+/// sample.
 fn sampled(
-    class: &ClassAssessment,
+    answers: &[(Severity, StandardAnswer)],
     severity: Severity,
     model: &Model,
 ) -> Result<Option<(StagedPlan, StandardPlan)>, SwitchingError> {
-    match class.at(severity) {
+    match answers.iter().find(|(s, _)| *s == severity).map(|(_, a)| a) {
         None => Ok(None),
         Some(answer) => match answer.plan() {
             Some(plan) => {
@@ -84,27 +84,31 @@ fn limit_window(tables: &Tables, normal: &StandardPlan) -> Option<LimitWindow> {
 }
 
 impl ClassScheme {
-    /// The scheme of `class` under `request`'s contract, with Table VIII
-    /// from `tables`.
+    /// The scheme of a class whose answers at each severity are `answers`
+    /// (reduced among them when `reduced`, the contract keeping reduced
+    /// inspection), under `model` in lots of `lot_size`, with Table VIII
+    /// from `tables`. [`ClassAssessment::scheme`](super::ClassAssessment::scheme)
+    /// calls it with an assessed class.
     ///
     /// # Errors
     /// [`SwitchingError::Inconsistent`] when a severity's answer is to
     /// inspect every unit; [`SwitchingError::WindowTooLarge`] when the
     /// limit-number rule's exact window is beyond its budget.
     pub fn new(
-        class: &ClassAssessment,
-        request: &StandardRequest,
+        answers: &[(Severity, StandardAnswer)],
+        model: Model,
+        lot_size: u64,
+        reduced: bool,
         tables: &Tables,
     ) -> Result<ClassScheme, SwitchingError> {
-        let model = *request.model();
         let missing =
             |s: Severity| SwitchingError::Inconsistent(format!("the {s} plan was not looked up"));
         let (normal, normal_table) =
-            sampled(class, Severity::Normal, &model)?.ok_or_else(|| missing(Severity::Normal))?;
-        let (tightened, _) = sampled(class, Severity::Tightened, &model)?
+            sampled(answers, Severity::Normal, &model)?.ok_or_else(|| missing(Severity::Normal))?;
+        let (tightened, _) = sampled(answers, Severity::Tightened, &model)?
             .ok_or_else(|| missing(Severity::Tightened))?;
-        let (rules, reduced) = if request.reduced() {
-            let reduced = sampled(class, Severity::Reduced, &model)?
+        let (rules, reduced) = if reduced {
+            let reduced = sampled(answers, Severity::Reduced, &model)?
                 .ok_or_else(|| missing(Severity::Reduced))?;
             (
                 SwitchingRules::new(true, limit_window(tables, &normal_table)),
@@ -117,7 +121,7 @@ impl ClassScheme {
         Ok(ClassScheme {
             scheme: SwitchingScheme::new(rules, largest)?,
             model,
-            lot_size: request.lot_size(),
+            lot_size,
             normal,
             tightened,
             reduced,

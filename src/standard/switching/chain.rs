@@ -56,12 +56,21 @@ use super::window::WindowAutomaton;
 use crate::budget::Work;
 use crate::standard::Severity;
 
-/// Seconds per state and count per lot summed (calibration machine,
-/// release build), for [`SwitchingScheme::work`].
+/// Seconds per state and count per lot summed (release build), for
+/// [`SwitchingScheme::work`]: measured 4.2 ms per quality for letter K's
+/// 18,449-state window (benches/standard.rs, two cores shared with other
+/// builds), which this with [`ASSUMED_LOTS`] overestimates about twice.
 const SECONDS_PER_STATE_STEP: f64 = 2e-9;
 
-/// Lots summed per quality assumed by [`SwitchingScheme::work`].
-const ASSUMED_LOTS: f64 = 600.0;
+/// Lots summed per quality assumed by [`SwitchingScheme::work`]: the
+/// Collatz-Wielandt bound of the `run` module ends the sum after a few
+/// dozen lots past the window at most qualities.
+const ASSUMED_LOTS: f64 = 60.0;
+
+/// Seconds per multiply-add of an LU decomposition (release build):
+/// measured 0.4 ms per quality for letter H's 166-state window
+/// (benches/standard.rs), which `n^3 / 3` of these matches.
+const SECONDS_PER_LU_FLOP: f64 = 3e-10;
 
 /// The switching scheme of one set of plans, ready to give its long-run OC
 /// at any quality.
@@ -183,7 +192,7 @@ impl SwitchingScheme {
         let per_quality = match &self.window {
             None => 0.0,
             Some(w) if w.states() <= super::run::EXACT_STATES => {
-                (w.states() as f64).powi(3) / 3.0 * SECONDS_PER_STATE_STEP
+                (w.states() as f64).powi(3) / 3.0 * SECONDS_PER_LU_FLOP
             }
             Some(w) => w.states() as f64 * w.arity() as f64 * ASSUMED_LOTS * SECONDS_PER_STATE_STEP,
         };
