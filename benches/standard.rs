@@ -41,7 +41,9 @@ fn request(lot_size: u64, reduced: bool) -> StandardRequest {
 }
 
 fn qualities(count: usize) -> Vec<f64> {
-    (1..=count).map(|i| 0.06 * i as f64 / count as f64).collect()
+    (1..=count)
+        .map(|i| 0.06 * i as f64 / count as f64)
+        .collect()
 }
 
 fn benches(c: &mut Criterion) {

@@ -8,7 +8,6 @@
 //! the facts hang together and draws them.
 
 use crate::design::Scheme;
-use crate::standard::ClassScheme;
 
 use crate::input::InputError;
 use crate::model::{Model, ModelKind};
@@ -215,7 +214,7 @@ impl StandardFacts {
 
     /// The switching scheme's long-run OC of class `k` of `a` at
     /// [`SCHEME_POINTS`] qualities evenly across the chart
-    /// ([`ClassScheme::long_run`]), or why it is not drawn: the scheme
+    /// ([`ClassScheme::long_run`](crate::standard::ClassScheme::long_run)), or why it is not drawn: the scheme
     /// cannot be built, its estimated work is beyond the budget, or a
     /// point is refused.
     ///
@@ -228,7 +227,7 @@ impl StandardFacts {
         tables: &Tables,
     ) -> Result<SchemeCurve, StandardError> {
         let reach = self.chart_reach(k)?;
-        let scheme = match ClassScheme::new(&a.classes[k], &a.request, tables) {
+        let scheme = match a.classes[k].scheme(&a.request, tables) {
             Ok(s) => s,
             Err(e) => return Ok(SchemeCurve::Refused(e.to_string())),
         };
