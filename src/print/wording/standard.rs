@@ -488,7 +488,11 @@ pub fn consumer_caption(point: &crate::standard::ConsumerPoint, per_unit: bool) 
 /// The OC chart's title: which class it shows, short when the long one
 /// is wider than the chart.
 pub fn oc_title(cl: &StandardClassFacts, short: bool) -> String {
-    if short {
+    let aql = format!("AQL {}", cl.aql.label());
+    if cl.name == aql {
+        // A single AQL given without a class name: the name is the AQL.
+        format!("OC curves ({aql})")
+    } else if short {
         format!("OC curves: {}", cl.name)
     } else {
         format!("OC curves of class {} (AQL {})", cl.name, cl.aql.label())
