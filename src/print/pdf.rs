@@ -1,6 +1,6 @@
 //! The PDF backend: each drawing operation as printpdf operators, every
-//! one inside its own saved graphics state, and the one-page document
-//! with the embedded fonts and the metadata that make a sheet
+//! one inside its own saved graphics state, and the document of one page
+//! or more with the embedded fonts and the metadata that make a sheet
 //! reproducible.
 //!
 //! Determinism: fonts are registered under fixed resource names, the
@@ -222,6 +222,20 @@ pub fn save(
     size: (f64, f64),
     ops: Vec<Op>,
 ) -> Result<Vec<u8>, Error> {
+    save_pages(doc, fonts, size, vec![ops])
+}
+
+/// The PDF of `size` (mm) pages, one per list of `ops` in order, with the
+/// fonts embedded; one page gives the bytes of [`save`].
+///
+/// # Errors
+/// [`Error::Output`] when the document cannot be written.
+pub fn save_pages(
+    doc: &Document,
+    fonts: &Fonts,
+    size: (f64, f64),
+    pages: Vec<Vec<Op>>,
+) -> Result<Vec<u8>, Error> {
     let (pw, ph) = size;
     let mut warnings = Vec::new();
     let mut pdf = printpdf::PdfDocument::new(doc.title);
@@ -233,11 +247,12 @@ pub fn save(
             printpdf::PdfFont::new(fonts.face(face).clone()),
         );
     }
-    pdf.with_pages(vec![printpdf::PdfPage::new(
-        Mm(pw as f32),
-        Mm(ph as f32),
-        ops,
-    )]);
+    pdf.with_pages(
+        pages
+            .into_iter()
+            .map(|ops| printpdf::PdfPage::new(Mm(pw as f32), Mm(ph as f32), ops))
+            .collect(),
+    );
     let mut lo = pdf.to_lopdf_document(&printpdf::PdfSaveOptions::default(), &mut warnings);
     let id = lopdf::Object::String(
         doc.hash.as_bytes()[..32].to_vec(),

@@ -1,5 +1,6 @@
 //! The sheet of a standard-indexed plan: one A4 or Letter page laid out
-//! by [`super::layouts::standard`] from [`StandardFacts`], drawn as a PDF
+//! by [`super::layouts::standard`] from [`StandardFacts`], or two by
+//! [`super::layouts::standard_pages`] when one cannot hold it, drawn as a PDF
 //! ([`render_standard_sheet`]) or as SVG ([`render_standard_sheet_svg`]).
 //!
 //! Determinism as for the plan sheet: the date comes from the facts,
@@ -10,7 +11,9 @@
 use super::canvas::{Canvas, Laid};
 use super::draw::Draw;
 use super::fonts::Fonts;
+use super::geometry::Region;
 use super::layouts::standard::standard_layout;
+use super::layouts::standard_pages::{engineers_page, inspectors_page};
 use super::metadata::{HASH_PREFIX, SOURCE_NAME_KEY};
 use super::page::{Paper, printable};
 use super::pdf::{self, Document, PdfPage};
@@ -68,7 +71,7 @@ const MARGIN: f64 = 14.0;
 /// ```
 pub fn render_standard_sheet(facts: &StandardFacts, paper: Paper) -> Result<Sheet, Error> {
     let fonts = Fonts::embedded()?;
-    let (page, laid) = lay_out(facts, &fonts, paper, PdfPage::new())?;
+    let (pages, regions) = lay_out(facts, &fonts, paper, PdfPage::new, |_| PdfPage::new())?;
     let d = &facts.document;
     let subject = format!("{HASH_PREFIX}{}", d.source_sha256);
     let doc = Document {
@@ -77,33 +80,46 @@ pub fn render_standard_sheet(facts: &StandardFacts, paper: Paper) -> Result<Shee
         hash: &d.source_sha256,
         extra: &[(SOURCE_NAME_KEY, &d.file_name)],
     };
-    let pdf = pdf::save(&doc, &fonts, paper.size(), page.into_ops())?;
+    let ops = pages.into_iter().map(PdfPage::into_ops).collect();
+    let pdf = pdf::save_pages(&doc, &fonts, paper.size(), ops)?;
     Ok(Sheet {
         pdf,
         source_sha256: d.source_sha256.clone(),
-        regions: laid.regions,
+        regions,
     })
 }
 
-/// [`render_standard_sheet`] as a standalone SVG document: the same page,
-/// laid out by the same code and refused for the same reasons.
+/// [`render_standard_sheet`] as a standalone SVG document: the same
+/// pages, laid out by the same code and refused for the same reasons, a
+/// second page under the first.
 ///
 /// # Errors
 /// As [`render_standard_sheet`].
 pub fn render_standard_sheet_svg(facts: &StandardFacts, paper: Paper) -> Result<String, Error> {
     let fonts = Fonts::embedded()?;
-    let (page, _) = lay_out(facts, &fonts, paper, SvgPage::new(paper.size()))?;
-    Ok(page.finish(&facts.document.title))
+    let (pages, _) = lay_out(
+        facts,
+        &fonts,
+        paper,
+        || SvgPage::new(paper.size()),
+        SvgPage::next_page,
+    )?;
+    Ok(SvgPage::finish_pages(pages, &facts.document.title))
 }
 
-/// The page of `facts` on `paper`, drawn on `backend`, with what the
-/// layout left to check; refused when it is not clean.
+/// The pages of `facts` on `paper`, each drawn on a backend from `new`
+/// (the second from `next` of the first), with their blocks: one page
+/// when the sheet fits it, else two; refused when two are not clean.
+/// Page 2's blocks are named "page 2: ..." and stand one page height
+/// lower than page 1's, as if the pages lay one under the other, so that
+/// an overlap check over them all stays sound.
 fn lay_out<D: Draw>(
     facts: &StandardFacts,
     fonts: &Fonts,
     paper: Paper,
-    mut backend: D,
-) -> Result<(D, Laid), Error> {
+    new: impl Fn() -> D,
+    next: impl Fn(&D) -> D,
+) -> Result<(Vec<D>, Vec<Region>), Error> {
     facts.check()?;
     let hash = &facts.document.source_sha256;
     if hash.len() != 64 || !hash.chars().all(|ch| ch.is_ascii_hexdigit()) {
@@ -113,11 +129,42 @@ fn lay_out<D: Draw>(
         .into());
     }
     let (pw, ph) = paper.size();
-    let mut c = Canvas::new(&mut backend, fonts);
-    standard_layout(&mut c, facts, printable((pw, ph), MARGIN))?;
+    let area = printable((pw, ph), MARGIN);
+    let mut one = new();
+    let mut c = Canvas::new(&mut one, fonts);
+    standard_layout(&mut c, facts, area)?;
     let laid = c.finish(pw, ph);
+    if laid.is_clean() {
+        return Ok((vec![one], laid.regions));
+    }
+    let mut first = new();
+    let mut c = Canvas::new(&mut first, fonts);
+    inspectors_page(&mut c, facts, area);
+    let one = c.finish(pw, ph);
+    let mut second = next(&first);
+    let mut c = Canvas::new(&mut second, fonts);
+    engineers_page(&mut c, facts, area)?;
+    let two = c.finish(pw, ph);
+    let page_2 = |what: Vec<String>| what.into_iter().map(|w| format!("page 2: {w}"));
+    let laid = Laid {
+        overflows: one
+            .overflows
+            .into_iter()
+            .chain(page_2(two.overflows))
+            .collect(),
+        faults: one.faults.into_iter().chain(page_2(two.faults)).collect(),
+        regions: one
+            .regions
+            .into_iter()
+            .chain(two.regions.into_iter().map(|r| Region {
+                name: format!("page 2: {}", r.name),
+                y: r.y - ph,
+                ..r
+            }))
+            .collect(),
+    };
     if !laid.is_clean() {
         return Err(refusal(&laid, paper));
     }
-    Ok((backend, laid))
+    Ok((vec![first, second], laid.regions))
 }

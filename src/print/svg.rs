@@ -53,6 +53,49 @@ impl SvgPage {
         )
     }
 
+    /// An empty page of the same size to follow this one in a document
+    /// of several ([`SvgPage::finish_pages`]): its clip paths are
+    /// numbered on from this page's, so that no two share an id.
+    pub fn next_page(&self) -> Self {
+        SvgPage {
+            size: self.size,
+            body: String::new(),
+            clips: self.clips,
+        }
+    }
+
+    /// The standalone document of `pages` (of one size), titled `title`:
+    /// the pages one below the other, a grey gap between them.
+    pub fn finish_pages(pages: Vec<SvgPage>, title: &str) -> String {
+        let Some((w, h)) = pages.first().map(|p| p.size) else {
+            return String::new();
+        };
+        let total = h * pages.len() as f64 + PAGE_GAP * (pages.len() - 1) as f64;
+        let (ws, ts) = (number(w), number(total));
+        let mut out = format!(
+            "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n\
+             <svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" \
+             width=\"{ws}mm\" height=\"{ts}mm\" viewBox=\"0 0 {ws} {ts}\" \
+             font-family=\"{FAMILY}, Verdana, sans-serif\">\n\
+             <title>{}</title>\n\
+             <rect x=\"0\" y=\"0\" width=\"{ws}\" height=\"{ts}\" fill=\"#bfbfbf\"/>\n",
+            escape(title)
+        );
+        for (k, page) in pages.iter().enumerate() {
+            let top = number((h + PAGE_GAP) * k as f64);
+            let _ = write!(
+                out,
+                "<g transform=\"translate(0 {top})\">\n\
+                 <rect x=\"0\" y=\"0\" width=\"{ws}\" height=\"{}\" fill=\"#ffffff\"/>\n\
+                 {}</g>\n",
+                number(h),
+                page.body
+            );
+        }
+        out.push_str("</svg>\n");
+        out
+    }
+
     /// Page y (mm up from the bottom) as SVG y (down from the top).
     fn y(&self, y: f64) -> f64 {
         self.size.1 - y
@@ -95,6 +138,9 @@ impl SvgPage {
         self.path_data(rings.iter().map(|r| r.as_slice()), true)
     }
 }
+
+/// The gap between the pages of a document of several, mm.
+const PAGE_GAP: f64 = 8.0;
 
 /// A length or coordinate to 0.001 mm, without trailing zeros.
 fn number(v: f64) -> String {

@@ -103,10 +103,11 @@ fn group_cells(f: &StandardFacts, answer: &StandardAnswer) -> GroupCells {
     GroupCells::Plan(rows)
 }
 
-/// A class's cells: per severity shown, its group.
-fn class_cells(f: &StandardFacts, c: &StandardClassFacts) -> Vec<GroupCells> {
-    f.severities()
-        .into_iter()
+/// A class's cells: per severity of `shown`, its group.
+fn class_cells(f: &StandardFacts, c: &StandardClassFacts, shown: &[Severity]) -> Vec<GroupCells> {
+    shown
+        .iter()
+        .copied()
         .filter_map(|s| c.at(s).map(|a| group_cells(f, a)))
         .collect()
 }
@@ -144,11 +145,20 @@ const HEAD_SIZE: f64 = 6.5;
 const EVERY_SIZE: f64 = 7.0;
 
 /// The plan box hanging from the top edge `at`: heading, code letter,
-/// the table and its note. Returns its height.
-pub fn standard_plan_box(c: &mut Canvas, f: &StandardFacts, at: Rect) -> f64 {
+/// the table of the plans at the `severities` shown and its note.
+/// Returns its height.
+pub fn standard_plan_box(
+    c: &mut Canvas,
+    f: &StandardFacts,
+    at: Rect,
+    severities: &[Severity],
+) -> f64 {
     let (left, top, width) = (at.x, at.top(), at.w);
-    let severities = f.severities();
-    let all: Vec<Vec<GroupCells>> = f.classes.iter().map(|cl| class_cells(f, cl)).collect();
+    let all: Vec<Vec<GroupCells>> = f
+        .classes
+        .iter()
+        .map(|cl| class_cells(f, cl, severities))
+        .collect();
     let lines: Vec<usize> = all.iter().map(|g| class_lines(g)).collect();
     let total_lines: usize = lines.iter().sum();
     let (size, pitch) = row_type(total_lines);
@@ -156,13 +166,14 @@ pub fn standard_plan_box(c: &mut Canvas, f: &StandardFacts, at: Rect) -> f64 {
         .iter()
         .flatten()
         .any(|g| matches!(g, GroupCells::Plan(r) if r.len() > 1));
-    let gap = f.classes.iter().any(|cl| {
-        cl.at(Severity::Reduced).is_some_and(|p| {
-            p.plan()
-                .and_then(|p| p.table_numbers.last().copied())
-                .is_some_and(|s| s.accept.is_some_and(|a| a + 1 < s.reject))
-        })
-    });
+    let gap = severities.contains(&Severity::Reduced)
+        && f.classes.iter().any(|cl| {
+            cl.at(Severity::Reduced).is_some_and(|p| {
+                p.plan()
+                    .and_then(|p| p.table_numbers.last().copied())
+                    .is_some_and(|s| s.accept.is_some_and(|a| a + 1 < s.reject))
+            })
+        });
     let note = words::table_note(staged, gap);
     let inner = width - 8.0;
     let note_h = c

@@ -31,15 +31,15 @@ use crate::print::wording::standard as words;
 use crate::source::{Error, tool_version};
 
 /// The sizes the middle band's texts try, largest first.
-const TEXT_SIZES: [f64; 4] = [7.5, 7.0, 6.5, 6.0];
+pub(super) const TEXT_SIZES: [f64; 4] = [7.5, 7.0, 6.5, 6.0];
 
 /// The share of the width the procedure takes beside the switching
 /// rules, and the width of the column beside the chart, mm.
 const PROCEDURE_SHARE: f64 = 0.5;
-const RIGHT_W: f64 = 88.0;
+pub(super) const RIGHT_W: f64 = 88.0;
 
 /// The approval block's height, mm.
-const APPROVAL_H: f64 = 17.0;
+pub(super) const APPROVAL_H: f64 = 17.0;
 
 /// The heights of the sized blocks at one text size.
 struct Sized {
@@ -56,27 +56,9 @@ struct Sized {
 /// is out of range.
 pub fn standard_layout(c: &mut Canvas, f: &StandardFacts, page: Rect) -> Result<(), Error> {
     let (left, width) = (page.x, page.w);
-    let mut top = page.top();
     let d = &f.document;
-    let lot = format!("{} units", f.lot_size);
-    let scheme = format!("{}, MIL-STD-105E", f.scheme.name());
-    let heading = Heading {
-        title: &d.title,
-        item: &d.item,
-        characteristic: &d.characteristic,
-        id: &d.id,
-        revision: &d.revision,
-        date: &d.date,
-        lot,
-        scheme: &scheme,
-    };
-    let title_h = heading_block(
-        c,
-        &heading,
-        Rect::from_top(left, top, width, STAGED_TITLE_H),
-    );
-    top -= title_h + GAP;
-    top -= standard_plan_box(c, f, Rect::top_edge(left, top, width)) + GAP;
+    let mut top = page.top() - title(c, f, page) - GAP;
+    top -= standard_plan_box(c, f, Rect::top_edge(left, top, width), &f.severities()) + GAP;
 
     let proc_w = (width - GAP) * PROCEDURE_SHARE;
     let switch_w = width - GAP - proc_w;
@@ -111,20 +93,7 @@ pub fn standard_layout(c: &mut Canvas, f: &StandardFacts, page: Rect) -> Result<
     }
     let band = Rect::from_top(left, top, width, chosen.band);
     let (procedure, switching) = band.split_left(proc_w, GAP);
-    c.claim("procedure", procedure);
-    c.rect_stroke(procedure, 0.5, grey(0.0));
-    headed_steps(
-        c,
-        &words::procedure_heading(f.severity),
-        &steps,
-        Rect::new(
-            procedure.x + 2.0,
-            procedure.y,
-            procedure.w - 4.0,
-            procedure.h,
-        ),
-        chosen.size,
-    );
+    procedure_block(c, f, &steps, procedure, chosen.size);
     switching_block(c, f, switching, chosen.size);
     top -= chosen.band + GAP;
     true_risks_block(c, f, Rect::from_top(left, top, width, risks_h));
@@ -139,6 +108,77 @@ pub fn standard_layout(c: &mut Canvas, f: &StandardFacts, page: Rect) -> Result<
             row.h
         ));
     }
+    chart_block(c, f, chart)?;
+    class_record(
+        c,
+        f,
+        Rect::from_top(right.x, right.top(), right.w, record_h),
+    );
+    approval_of(
+        c,
+        [&d.prepared_by, &d.approved_by],
+        Rect::new(right.x, right.y, right.w, APPROVAL_H),
+    );
+    footer(c, f, page, None);
+    Ok(())
+}
+
+/// The title block at the top of `page`; returns its height.
+pub(super) fn title(c: &mut Canvas, f: &StandardFacts, page: Rect) -> f64 {
+    let d = &f.document;
+    let lot = format!("{} units", f.lot_size);
+    let scheme = format!("{}, MIL-STD-105E", f.scheme.name());
+    let heading = Heading {
+        title: &d.title,
+        item: &d.item,
+        characteristic: &d.characteristic,
+        id: &d.id,
+        revision: &d.revision,
+        date: &d.date,
+        lot,
+        scheme: &scheme,
+    };
+    heading_block(
+        c,
+        &heading,
+        Rect::from_top(page.x, page.top(), page.w, STAGED_TITLE_H),
+    )
+}
+
+/// The inspector's procedure for the severity in force, `steps`, framed
+/// in `area` at `size`; its heading on the line of the switching rules'
+/// heading beside it.
+pub(super) fn procedure_block(
+    c: &mut Canvas,
+    f: &StandardFacts,
+    steps: &[String],
+    area: Rect,
+    size: f64,
+) {
+    c.claim("procedure", area);
+    c.rect_stroke(area, 0.5, grey(0.0));
+    // `headed_steps` sets its heading 7 mm below the top it is given (the
+    // plan box's procedure column), the switching rules theirs 4 mm below
+    // their frame's: given a top 3 mm higher, the two headings align.
+    headed_steps(
+        c,
+        &words::procedure_heading(f.severity),
+        steps,
+        Rect::new(area.x + 2.0, area.y, area.w - 4.0, area.h + HEADING_RAISE),
+        size,
+    );
+}
+
+/// How much higher than its frame the procedure's text starts, mm.
+const HEADING_RAISE: f64 = 3.0;
+
+/// The OC chart of the first class sampled in `chart`, or the note that
+/// no class is sampled.
+///
+/// # Errors
+/// [`Error`] when a plan does not fit its class's model or a curve point
+/// is out of range.
+pub(super) fn chart_block(c: &mut Canvas, f: &StandardFacts, chart: Rect) -> Result<(), Error> {
     match f.chart_class() {
         Some(k) => standard_oc_chart(c, f, k, chart)?,
         None => {
@@ -153,23 +193,28 @@ pub fn standard_layout(c: &mut Canvas, f: &StandardFacts, page: Rect) -> Result<
             );
         }
     }
-    class_record(
-        c,
-        f,
-        Rect::from_top(right.x, right.top(), right.w, record_h),
-    );
-    approval_of(
-        c,
-        [&d.prepared_by, &d.approved_by],
-        Rect::new(right.x, right.y, right.w, APPROVAL_H),
-    );
+    Ok(())
+}
+
+/// The footer at the bottom of `page`: the cautions and the provenance,
+/// led by the page's number `(k, of)` on a sheet of several pages.
+pub(super) fn footer(
+    c: &mut Canvas,
+    f: &StandardFacts,
+    page: Rect,
+    number: Option<(usize, usize)>,
+) {
+    let d = &f.document;
     let provenance = words::provenance(
         &tool_version(),
         &d.file_name,
         &d.source_sha256,
         &d.regenerate,
     );
+    let provenance = match number {
+        Some((k, of)) => format!("{} {provenance}", words::page_of(k, of)),
+        None => provenance,
+    };
     let (foot, _) = page.split_bottom(STAGED_FOOT_H, 0.0);
     footer_lines(c, foot, &words::caution(), &provenance);
-    Ok(())
 }

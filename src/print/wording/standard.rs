@@ -536,6 +536,15 @@ pub fn provenance(version: &str, file: &str, hash: &str, regenerate: &str) -> St
     )
 }
 
+/// What page 2 of a sheet of two holds, as its heading line says.
+pub const ENGINEERS_PAGE: &str = "PLANS AT EVERY SEVERITY, TRUE RISKS, OC CURVES, SWITCHING RULES";
+
+/// The page's number on a sheet of several pages, as the footer leads
+/// with it.
+pub fn page_of(k: usize, of: usize) -> String {
+    format!("Page {k} of {of}.")
+}
+
 /// The caution of the footer: the usual one, and what an AQL is not.
 pub fn caution() -> String {
     format!(
