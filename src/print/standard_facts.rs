@@ -14,8 +14,9 @@ use crate::model::{Model, ModelKind};
 use crate::plan::{StagedPlan, quality_at_pa};
 use crate::print::chart::scale::nice_ceiling;
 use crate::standard::{
-    Aql, ClassRule, CodeLetter, InspectionLevel, LimitNumber, Severity, StandardAnswer,
-    StandardAssessment, StandardError, StandardPlan, TableSlot, Tables, TrueRisks,
+    Aql, ClassRule, ClassScheme, CodeLetter, InspectionLevel, LimitNumber, MIN_WINDOW_LOTS,
+    Severity, StandardAnswer, StandardAssessment, StandardError, StandardPlan, TableSlot, Tables,
+    TrueRisks,
 };
 
 /// The qualities at which the chart's scheme curve is computed.
@@ -55,9 +56,12 @@ pub struct SheetDocument {
 /// inspection (105E, 4.7.3 b).
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct ReducedLimit {
-    /// The sample units ten lots on normal inspection give: ten times the
-    /// sample (the first sample of a double or multiple plan, the least a
-    /// lot gives).
+    /// The lots the rule counts: ten, or more where Table VIII prints `*`
+    /// at ten (the window of [`ClassScheme::limit_window`]).
+    pub lots: u32,
+    /// The sample units those lots on normal inspection give: `lots`
+    /// times the sample (the first sample of a double or multiple plan,
+    /// the least a lot gives).
     pub units: u64,
     /// The limit number there.
     pub number: LimitNumber,
@@ -170,10 +174,21 @@ impl StandardFacts {
             .map(|c| {
                 let limit = match (r.reduced(), c.at(Severity::Normal).and_then(|n| n.plan())) {
                     (true, Some(plan)) => {
-                        let units = 10 * plan.stages.stages()[0].n;
+                        let first = plan.stages.stages()[0].n;
+                        // The window the scheme counts; where Table VIII
+                        // gives none, what it prints at ten lots says why.
+                        let (lots, number) = match ClassScheme::limit_window(tables, plan) {
+                            Some(w) => (w.lots(), LimitNumber::Number(u64::from(w.limit()))),
+                            None => (
+                                MIN_WINDOW_LOTS,
+                                tables
+                                    .limit_number(u64::from(MIN_WINDOW_LOTS) * first, c.class.aql),
+                            ),
+                        };
                         Some(ReducedLimit {
-                            units,
-                            number: tables.limit_number(units, c.class.aql),
+                            lots,
+                            units: u64::from(lots) * first,
+                            number,
                             from_memory: limit_from_memory,
                         })
                     }

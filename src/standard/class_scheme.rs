@@ -64,26 +64,28 @@ fn sampled(
     }
 }
 
-/// Table VIII's window for the normal plan `normal` at the class's AQL:
-/// ten lots, or the fewest more whose first-sample units reach a printed
-/// limit number; `None` when the table prints none.
-fn limit_window(tables: &Tables, normal: &StandardPlan) -> Option<LimitWindow> {
-    let first = normal.stages.stages().first().map_or(0, |s| s.n);
-    for lots in MIN_WINDOW_LOTS..=MAX_WINDOW_LOTS {
-        match tables.limit_number(u64::from(lots) * first, normal.aql) {
-            LimitNumber::Number(limit) => {
-                return u32::try_from(limit)
-                    .ok()
-                    .and_then(|l| LimitWindow::new(lots, l).ok());
-            }
-            LimitNumber::TooFewUnits => continue,
-            LimitNumber::NotPrinted => return None,
-        }
-    }
-    None
-}
-
 impl ClassScheme {
+    /// Table VIII's window for the normal plan `normal` at the class's
+    /// AQL, as the scheme counts it (105E 4.7.3 b and Table VIII's note):
+    /// ten lots, or the fewest more (up to [`MAX_WINDOW_LOTS`]) whose
+    /// first-sample units reach a printed limit number; `None` when the
+    /// table prints none. The sheet quotes the same window.
+    pub fn limit_window(tables: &Tables, normal: &StandardPlan) -> Option<LimitWindow> {
+        let first = normal.stages.stages().first().map_or(0, |s| s.n);
+        for lots in MIN_WINDOW_LOTS..=MAX_WINDOW_LOTS {
+            match tables.limit_number(u64::from(lots) * first, normal.aql) {
+                LimitNumber::Number(limit) => {
+                    return u32::try_from(limit)
+                        .ok()
+                        .and_then(|l| LimitWindow::new(lots, l).ok());
+                }
+                LimitNumber::TooFewUnits => continue,
+                LimitNumber::NotPrinted => return None,
+            }
+        }
+        None
+    }
+
     /// The scheme of a class whose answers at each severity are `answers`
     /// (reduced among them when `reduced`, the contract keeping reduced
     /// inspection), under `model` in lots of `lot_size`, with Table VIII
@@ -111,7 +113,7 @@ impl ClassScheme {
             let reduced = sampled(answers, Severity::Reduced, &model)?
                 .ok_or_else(|| missing(Severity::Reduced))?;
             (
-                SwitchingRules::new(true, limit_window(tables, &normal_table)),
+                SwitchingRules::new(true, Self::limit_window(tables, &normal_table)),
                 Some(reduced),
             )
         } else {

@@ -5,8 +5,8 @@
 //! cannot, it refuses in plain words rather than clip or overlap.
 
 use lotsman::{
-    ClassRule, ConsumerPoint, InspectionLevel, Model, Paper, Scheme, Severity, SheetDocument,
-    StandardFacts, StandardIndex, StandardRequest, Tables, assess, parse_classes,
+    ClassRule, ClassScheme, ConsumerPoint, InspectionLevel, Model, Paper, Scheme, Severity,
+    SheetDocument, StandardFacts, StandardIndex, StandardRequest, Tables, assess, parse_classes,
     render_standard_sheet, render_standard_sheet_svg,
 };
 use roxmltree::Document;
@@ -217,4 +217,27 @@ fn every_combination_is_laid_out_on_one_page_or_two() {
             }
         }
     }
+}
+
+#[test]
+fn the_rule_to_reduced_counts_the_lots_the_scheme_counts() {
+    let f = facts(
+        &["critical=0.065", "major=1.0", "minor=4.0"],
+        Scheme::Single,
+        true,
+        None,
+    );
+    let tables = Tables::builtin().unwrap();
+    let normal = f.classes[0].at(Severity::Normal).unwrap().plan().unwrap();
+    let w = ClassScheme::limit_window(tables, normal).unwrap();
+    // MIL-STD-105E Table VIII (built in from memory): at AQL 0.065 ten lots
+    // of 200 (2000 units) are too few (`*`); 3200 to 4999 units give 0, so
+    // the rule counts 16 lots, as the scheme does.
+    assert_eq!((w.lots(), w.limit()), (16, 0));
+    let all = texts(&render_standard_sheet_svg(&f, Paper::A4).unwrap()).join(" ");
+    assert!(
+        all.contains("critical 0† at 3200 units over 16 lots"),
+        "{all}"
+    );
+    assert!(all.contains("major 7† at 1250 units and"), "{all}");
 }

@@ -7,7 +7,7 @@
 //! standard's.
 
 use crate::print::standard_facts::{ReducedLimit, SchemeCurve, StandardClassFacts, StandardFacts};
-use crate::standard::{ClassRule, LimitNumber, Severity, StandardAnswer};
+use crate::standard::{ClassRule, LimitNumber, MIN_WINDOW_LOTS, Severity, StandardAnswer};
 
 /// The severity as the sheet heads it.
 pub fn severity_head(s: Severity) -> &'static str {
@@ -209,7 +209,12 @@ fn limit(name: &str, l: &ReducedLimit) -> String {
         LimitNumber::NotPrinted => "none printed".to_string(),
     };
     let mark = if l.from_memory { MEMORY_MARK } else { "" };
-    format!("{name} {number}{mark} at {} units", l.units)
+    let over = if l.lots == MIN_WINDOW_LOTS {
+        String::new()
+    } else {
+        format!(" over {} lots", l.lots)
+    };
+    format!("{name} {number}{mark} at {} units{over}", l.units)
 }
 
 /// The switching rules in plain words, each with its label and section:
