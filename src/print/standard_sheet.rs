@@ -14,7 +14,7 @@ use super::layouts::standard::standard_layout;
 use super::metadata::{HASH_PREFIX, SOURCE_NAME_KEY};
 use super::page::{Paper, printable};
 use super::pdf::{self, Document, PdfPage};
-use super::sheet::{Sheet, refusal};
+use super::rendered::{Sheet, refusal};
 use super::standard_facts::StandardFacts;
 use super::svg::SvgPage;
 use crate::input::InputError;
