@@ -9,6 +9,7 @@
 
 use std::path::Path;
 
+use crate::batch::evaluate_standard;
 use crate::budget::Work;
 use crate::fs::normalise_folder;
 use crate::fs::{Overwrite, write_set};
@@ -52,6 +53,10 @@ pub const DEMO_PLANS: &[(&str, &str)] = &[
         "tpw-packing-ring.yaml",
         include_str!("../plans/tpw-packing-ring.yaml"),
     ),
+    (
+        "tpw-seal-face-classes.yaml",
+        include_str!("../plans/tpw-seal-face-classes.yaml"),
+    ),
 ];
 
 /// The readings of one lot of cover plates (invented), judged by the
@@ -91,7 +96,9 @@ pub fn run_demo(dir: &Path, overwrite: Overwrite) -> Result<Vec<DemoRow>, Error>
     for (name, text) in DEMO_PLANS {
         let source = PlanSource::from_yaml(text, Path::new(name))?;
         let verified = verify(&source)? == Verdict::Match;
-        let (mut row, csv) = if source.is_variables() {
+        let (mut row, csv) = if source.is_standard() {
+            standard_row(&source, name)?
+        } else if source.is_variables() {
             variables_row(&source, name)?
         } else {
             attributes_row(&source, name)?
@@ -168,6 +175,53 @@ fn attributes_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>),
     ))
 }
 
+/// The row and OC table of a standard-indexed plan: each class's plan in
+/// force, the risks and AOQL of the first class's plan, and the OC of
+/// every class's plan in the CSV.
+fn standard_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>), Error> {
+    let request = source.standard_request()?;
+    let plans = source.recorded_class_plans(None)?;
+    let model = request.request.model();
+    let mut csv = Vec::new();
+    let report = evaluate_standard(source, &[], false, None)?;
+    report.check()?;
+    report.write_csv(&mut csv)?;
+    let mut plan = format!("code letter {}", plans.code_letter);
+    let mut limit = (f64::NAN, f64::NAN);
+    for (i, class) in plans.classes.iter().enumerate() {
+        match class.answer.plan() {
+            Some(p) => {
+                let staged = p.plan_for(model)?;
+                plan.push_str(&format!("; {} {staged}", class.class.label()));
+                if i == 0 {
+                    let a = aoql(&staged, model);
+                    limit = (a.value, a.quality);
+                }
+            }
+            None => plan.push_str(&format!("; {} every unit", class.class.label())),
+        }
+    }
+    Ok((
+        DemoRow {
+            file: name.to_string(),
+            title: source.title.clone(),
+            model: model.kind(),
+            plan,
+            // The first class's producer's risk at its AQL; the consumer's
+            // risk only where the source agrees an RQL.
+            risks: {
+                let (alpha, beta) = source.standard_achieved()?;
+                (alpha, request.consumer.map(|_| beta))
+            },
+            aoql: limit,
+            verified: false,
+            written: Vec::new(),
+            judged: None,
+        },
+        csv,
+    ))
+}
+
 /// The row and OC table of a variables plan, with its demo lot judged
 /// when the demo has readings for it (they are written beside the source).
 fn variables_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>), Error> {
@@ -216,9 +270,8 @@ fn variables_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>), 
     ))
 }
 
-fn recorded_risks(source: &PlanSource) -> (f64, f64) {
-    source.plan.as_ref().map_or((f64::NAN, f64::NAN), |p| {
-        let risk = |r: Option<f64>| r.unwrap_or(f64::NAN);
-        (risk(p.producer_risk), risk(p.consumer_risk))
+fn recorded_risks(source: &PlanSource) -> (f64, Option<f64>) {
+    source.plan.as_ref().map_or((f64::NAN, None), |p| {
+        (p.producer_risk.unwrap_or(f64::NAN), p.consumer_risk)
     })
 }

@@ -156,7 +156,7 @@ pub fn evaluate_text(
 /// severity in force, each class's plan under the source's model, at
 /// `qualities` or, when none are given, at the default qualities of that
 /// plan with the class's AQL among them.
-fn evaluate_standard(
+pub(crate) fn evaluate_standard(
     source: &PlanSource,
     qualities: &[f64],
     decided_at: bool,

@@ -36,6 +36,7 @@ mod targets;
 mod verify;
 
 pub use error::BatchError;
+pub(crate) use evaluate::evaluate_standard;
 pub use evaluate::{evaluate_source, evaluate_text};
 pub use paths::{SourceFile, expand_paths};
 pub use run::run_in_parallel;

@@ -30,9 +30,11 @@ pub(crate) mod names;
 pub(crate) mod page;
 pub(crate) mod palette;
 pub(crate) mod pdf;
+mod rendered;
 pub(crate) mod sheet;
 pub(crate) mod standard_facts;
 pub(crate) mod standard_sheet;
+mod standard_source;
 pub(crate) mod svg;
 pub(crate) mod text;
 pub(crate) mod wording;
@@ -42,9 +44,10 @@ pub use check::{MAX_SHEET_BYTES, SheetVerdict, check_sheet, check_sheet_text};
 pub use map::{ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map};
 pub use metadata::{HASH_PREFIX, SOURCE_NAME_KEY, sheet_source_hash, source_hash};
 pub use page::Paper;
+pub use rendered::Sheet;
 pub use sheet::{
-    Sheet, SheetNotes, SheetOptions, render_sheet, render_sheet_noting, render_sheet_svg,
-    write_sheet, write_sheet_text,
+    SheetNotes, SheetOptions, render_sheet, render_sheet_noting, render_sheet_svg, write_sheet,
+    write_sheet_text,
 };
 pub use standard_facts::{
     ReducedLimit, SCHEME_POINTS, SchemeCurve, SheetDocument, StandardClassFacts, StandardFacts,

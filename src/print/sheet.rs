@@ -18,7 +18,6 @@ use super::canvas::{Canvas, Laid};
 use super::draw::Draw;
 use super::facts::{Common, Facts, VariablesFacts};
 use super::fonts::Fonts;
-use super::geometry::Region;
 use super::layouts::single::single_layout;
 use super::layouts::staged::staged_layout;
 use super::layouts::variables::variables_layout;
@@ -26,27 +25,18 @@ use super::metadata::{HASH_PREFIX, SOURCE_NAME_KEY};
 use super::names::{notice_of, printed_name};
 use super::page::{Paper, printable};
 use super::pdf::{self, Document, PdfPage};
+use super::rendered::{Sheet, refusal};
+use super::standard_sheet::{render_standard_sheet, render_standard_sheet_svg};
+use super::standard_source::{not_as_recorded, standard_source_facts};
 use super::svg::SvgPage;
 use crate::design::RectifyingPlan;
 use crate::fs::{Overwrite, write_atomic};
-use crate::input::InputError;
 use crate::source::Error;
 use crate::source::{Audited, Discrepancy, PlanSource, SourceText};
 use crate::source::{Placeholder, placeholders};
 
 /// The page margin of a sheet, mm.
 const MARGIN: f64 = 14.0;
-
-/// A rendered sheet.
-#[derive(Clone, Debug)]
-pub struct Sheet {
-    /// The PDF.
-    pub pdf: Vec<u8>,
-    /// SHA-256 of the source text, hex, as printed on the sheet.
-    pub source_sha256: String,
-    /// The blocks of the layout, for the overlap check.
-    pub regions: Vec<Region>,
-}
 
 /// Renders the sheet of `source` (parsed from `text`, which is hashed);
 /// `file_name` is printed in the provenance line, as one shell word in
@@ -202,33 +192,6 @@ impl<'a> SheetFacts<'a> {
     }
 }
 
-/// The refusal of a sheet whose layout on `paper` left overflows or
-/// faults: the texts to shorten, and the blocks that do not fit.
-pub(crate) fn refusal(laid: &Laid, paper: Paper) -> Error {
-    let mut parts = Vec::new();
-    if !laid.overflows.is_empty() {
-        parts.push(format!(
-            "{}; shorten the text in the source",
-            laid.overflows.join("; ")
-        ));
-    }
-    if !laid.faults.is_empty() {
-        let paper_hint = match paper {
-            Paper::Letter => " (A4 is taller: try --paper a4)",
-            Paper::A4 => "",
-        };
-        parts.push(format!(
-            "{}; the plan is too long for one page{paper_hint}, and the terminal and JSON reports give its tables in full",
-            laid.faults.join("; ")
-        ));
-    }
-    InputError::Inconsistent(format!(
-        "the sheet cannot be laid out: {}",
-        parts.join("; ")
-    ))
-    .into()
-}
-
 /// [`render_sheet`] as a standalone SVG document instead of a PDF: the
 /// same page, laid out by the same code and refused for the same reasons,
 /// with its text as SVG text in the sheet's face, for a browser to show.
@@ -251,6 +214,10 @@ pub fn render_sheet_svg(
     file_name: &str,
     paper: Paper,
 ) -> Result<String, Error> {
+    if source.is_standard() {
+        let facts = standard_source_facts(source, text, file_name)?;
+        return render_standard_sheet_svg(&facts, paper);
+    }
     let fonts = Fonts::embedded()?;
     let shown = printed_name(file_name, &fonts);
     let mut facts = SheetFacts::gather(source, text, &shown, None)?;
@@ -270,6 +237,13 @@ fn render(
     paper: Paper,
     discrepancy: Option<&Discrepancy>,
 ) -> Result<Sheet, Error> {
+    if source.is_standard() {
+        if discrepancy.is_some() {
+            return Err(not_as_recorded(source));
+        }
+        let facts = standard_source_facts(source, text, file_name)?;
+        return render_standard_sheet(&facts, paper);
+    }
     let fonts = Fonts::embedded()?;
     let shown = printed_name(file_name, &fonts);
     let notice = discrepancy.map(|d| notice_of(d, &shown, NOTICE_FIELDS));

@@ -17,7 +17,7 @@ use super::layouts::standard_pages::{engineers_page, inspectors_page};
 use super::metadata::{HASH_PREFIX, SOURCE_NAME_KEY};
 use super::page::{Paper, printable};
 use super::pdf::{self, Document, PdfPage};
-use super::sheet::{Sheet, refusal};
+use super::rendered::{Sheet, refusal};
 use super::standard_facts::StandardFacts;
 use super::svg::SvgPage;
 use crate::input::InputError;

@@ -7,7 +7,7 @@ use std::path::PathBuf;
 
 use serde::Serialize;
 
-use super::format::{Report, csv_writer, num};
+use super::format::{Report, csv_writer, num, opt};
 use super::words;
 use crate::model::ModelKind;
 use crate::numeric::format_quality;
@@ -23,8 +23,9 @@ pub struct DemoRow {
     pub model: ModelKind,
     /// The recorded plan, as text.
     pub plan: String,
-    /// Achieved producer's and consumer's risks.
-    pub risks: (f64, f64),
+    /// Achieved producer's and consumer's risks (the consumer's only
+    /// where an RQL is agreed: a standard-indexed plan may have none).
+    pub risks: (f64, Option<f64>),
     /// The AOQL, with its quality.
     pub aoql: (f64, f64),
     /// Whether the recorded plan equals a fresh solve.
@@ -61,13 +62,15 @@ impl Report for DemoReport {
         for r in &self.rows {
             let per_unit = r.model == ModelKind::Poisson;
             text.push_str(&format!(
-                "{}\n  {}  [{} model]\n  plan {}; achieved alpha {:.4}, beta {:.4}; AOQL {} at quality {}\n  verify: {}\n{}  wrote {}\n\n",
+                "{}\n  {}  [{} model]\n  plan {}; achieved alpha {:.4}, {}; AOQL {} at quality {}\n  verify: {}\n{}  wrote {}\n\n",
                 r.title,
                 r.file,
                 r.model,
                 r.plan,
                 r.risks.0,
-                r.risks.1,
+                r.risks
+                    .1
+                    .map_or("no RQL agreed".to_string(), |b| format!("beta {b:.4}")),
                 format_quality(r.aoql.0, per_unit),
                 format_quality(r.aoql.1, per_unit),
                 if r.verified { "the recorded plan matches a fresh solve" } else { "MISMATCH" },
@@ -103,7 +106,7 @@ impl Report for DemoReport {
                 r.model.to_string(),
                 r.plan.clone(),
                 num(r.risks.0),
-                num(r.risks.1),
+                opt(r.risks.1),
                 num(r.aoql.0),
                 num(r.aoql.1),
                 r.verified.to_string(),
@@ -131,7 +134,7 @@ mod tests {
                 title: "Seals, visual".into(),
                 model: ModelKind::Binomial,
                 plan: "n = 80, c = 2".into(),
-                risks: (0.04, 0.09),
+                risks: (0.04, Some(0.09)),
                 aoql: (0.012, 0.02),
                 verified: true,
                 written: vec![

@@ -12,6 +12,7 @@ use super::format::{Report, cell, csv_writer, num, opt};
 use super::standard_evaluation::StandardEvaluationReport;
 use super::variables_evaluation::VariablesEvaluationReport;
 use crate::plain::escape_controls;
+use crate::plan::Measures;
 
 /// The evaluation of one source: of an attributes plan or of a variables
 /// plan, each in the shape `evaluate FILE.yaml` gives it alone.
@@ -143,21 +144,7 @@ impl Report for EvaluationBatchReport {
             match &e.evaluation {
                 Some(SourceEvaluation::Attributes(r)) => {
                     for p in &r.points {
-                        w.write_record([
-                            path.clone(),
-                            status.clone(),
-                            num(p.quality),
-                            r.model.quality_unit().to_string(),
-                            cell(p.lot_nonconforming),
-                            opt(p.lot_quality),
-                            num(p.pa),
-                            String::new(),
-                            num(p.aoq),
-                            opt(p.ati),
-                            num(p.asn),
-                            opt(p.asn_curtailed),
-                            String::new(),
-                        ])?;
+                        w.write_record(attributes_row(&path, &status, r, p, String::new()))?;
                     }
                 }
                 Some(SourceEvaluation::Variables(r)) => {
@@ -185,21 +172,8 @@ impl Report for EvaluationBatchReport {
                     for c in &r.classes {
                         let Some(e) = &c.evaluation else { continue };
                         for p in &e.points {
-                            w.write_record([
-                                path.clone(),
-                                status.clone(),
-                                num(p.quality),
-                                e.model.quality_unit().to_string(),
-                                cell(p.lot_nonconforming),
-                                opt(p.lot_quality),
-                                num(p.pa),
-                                String::new(),
-                                num(p.aoq),
-                                opt(p.ati),
-                                num(p.asn),
-                                opt(p.asn_curtailed),
-                                format!("class {}, {} inspection", c.label(), r.severity),
-                            ])?;
+                            let message = format!("class {}, {} inspection", c.label(), r.severity);
+                            w.write_record(attributes_row(&path, &status, e, p, message))?;
                         }
                     }
                 }
@@ -213,6 +187,32 @@ impl Report for EvaluationBatchReport {
         }
         w.flush()
     }
+}
+
+/// The CSV row of one point of an attributes plan's evaluation, with the
+/// batch's `message` column.
+fn attributes_row(
+    path: &str,
+    status: &str,
+    r: &EvaluationReport,
+    p: &Measures,
+    message: String,
+) -> [String; 13] {
+    [
+        path.to_string(),
+        status.to_string(),
+        num(p.quality),
+        r.model.quality_unit().to_string(),
+        cell(p.lot_nonconforming),
+        opt(p.lot_quality),
+        num(p.pa),
+        String::new(),
+        num(p.aoq),
+        opt(p.ati),
+        num(p.asn),
+        opt(p.asn_curtailed),
+        message,
+    ]
 }
 
 #[cfg(test)]

@@ -14,8 +14,9 @@ use crate::standard::{Severity, UserTable, load_user_table};
 /// master table of `severity` (see [`load_user_table`]).
 ///
 /// # Errors
-/// As [`read_table_text`]; [`Error::Standard`] when it does not have a
-/// table's shape.
+/// [`SourceError::Io`] when the file cannot be read or is larger than a
+/// table file may be; [`Error::Input`] when it is not UTF-8 text;
+/// [`Error::Standard`] when it does not have a table's shape.
 pub fn read_user_table(path: &Path, severity: Severity) -> Result<UserTable, Error> {
     let text = read_table_text(path)?;
     Ok(load_user_table(

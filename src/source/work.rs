@@ -47,12 +47,38 @@ const SHEET_WALKS: f64 = 600.0;
 /// processor time).
 const SHEET_LAYOUT: f64 = 0.01;
 
+/// Seconds per class of a standard-indexed source for the table lookups
+/// and the small OC walks of its plans: well under a millisecond each.
+const STANDARD_CLASS: f64 = 0.001;
+
+/// Seconds the sheet of a standard-indexed source takes apart from its
+/// scheme curve: the assessment, the layout and the PDF, with room to
+/// spare (the demo's three classes, scheme curve included, took 2.4 s in
+/// a debug build, which runs this code ten times slower or more). The
+/// scheme curve checks its own estimate
+/// ([`ClassScheme::work`](crate::ClassScheme::work)) against the budget
+/// before it is drawn, and the sheet notes it instead when it is beyond.
+const STANDARD_SHEET: f64 = 0.5;
+
 /// The qualities an evaluation takes when none are asked for.
 const DEFAULT_POINTS: usize = 10;
 
 /// The work of `job` on `source`; a source whose request or recorded plan
 /// is invalid is refused at once and costs nothing.
 pub fn source_work(source: &PlanSource, job: SourceJob) -> Work {
+    if source.is_standard() {
+        let classes = source
+            .standard_request()
+            .map_or(0, |r| r.request.classes().len()) as f64;
+        let lookups = Work::time(STANDARD_CLASS * classes);
+        return match job {
+            SourceJob::Sheet => lookups.and(Work::time(STANDARD_SHEET)),
+            SourceJob::Evaluate { points, .. } => {
+                Work::time(STANDARD_CLASS * classes * points.unwrap_or(DEFAULT_POINTS) as f64)
+            }
+            SourceJob::Verify | SourceJob::Judge => lookups,
+        };
+    }
     if source.is_variables() {
         let Ok(request) = source.variables_request() else {
             return Work::default();

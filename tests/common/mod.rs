@@ -44,6 +44,24 @@ pub fn stdout_of(args: &[&str]) -> String {
     String::from_utf8(out).unwrap()
 }
 
+/// The message of a run of `command` with `args` that exits 2, checked to
+/// contain every `needle`.
+pub fn refused_message(command: &str, args: &[&str], needles: &[&str]) -> String {
+    let out = lotsman()
+        .arg(command)
+        .args(args)
+        .assert()
+        .code(2)
+        .get_output()
+        .stderr
+        .clone();
+    let text = String::from_utf8(out).unwrap();
+    for needle in needles {
+        assert!(text.contains(needle), "{needle:?} not in {text}");
+    }
+    text
+}
+
 /// The JSON that a successful run with `args` prints.
 pub fn json_of(args: &[&str]) -> Value {
     serde_json::from_str(&stdout_of(args)).unwrap()

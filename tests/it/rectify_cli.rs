@@ -3,7 +3,7 @@
 //! (tests/data/minimum_reference.json) at the same conditions.
 
 use crate::common;
-use common::{lotsman, stdout_of};
+use common::{lotsman, refused_message, stdout_of};
 
 use predicates::prelude::*;
 use serde_json::Value;
@@ -16,19 +16,7 @@ fn json_of(args: &[&str]) -> Value {
 /// Exit 2 with a message on stderr that contains every `needle`; the
 /// message, for the one-line check.
 fn refused(args: &[&str], needles: &[&str]) -> String {
-    let out = lotsman()
-        .arg("rectify")
-        .args(args)
-        .assert()
-        .code(2)
-        .get_output()
-        .stderr
-        .clone();
-    let text = String::from_utf8(out).unwrap();
-    for needle in needles {
-        assert!(text.contains(needle), "{needle:?} not in {text}");
-    }
-    text
+    refused_message("rectify", args, needles)
 }
 
 /// As [`refused`], and the message is one line.

@@ -4,7 +4,7 @@
 //! scipy.stats, named beside each value.
 
 use crate::common;
-use common::lotsman;
+use common::{lotsman, refused_message};
 
 use serde_json::Value;
 
@@ -15,18 +15,7 @@ fn json_of(args: &[&str]) -> Value {
 
 /// Exit 2 with a one-line message on stderr that contains every `needle`.
 fn refused(args: &[&str], needles: &[&str]) {
-    let out = lotsman()
-        .arg("standard")
-        .args(args)
-        .assert()
-        .code(2)
-        .get_output()
-        .stderr
-        .clone();
-    let text = String::from_utf8(out).unwrap();
-    for needle in needles {
-        assert!(text.contains(needle), "{needle:?} not in {text}");
-    }
+    let text = refused_message("standard", args, needles);
     assert_eq!(text.lines().count(), 1, "{text}");
 }
 

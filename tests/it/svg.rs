@@ -14,13 +14,15 @@ use roxmltree::{Document, Node};
 /// The colour of the plan's curves (the sheet's blue), as the SVG writes it.
 const CURVE: &str = "#0d408c";
 
-/// The demo's attributes plans: name, plan, model and risk points.
+/// The demo's attributes plans designed from two risk points: name,
+/// plan, model and risk points (the standard-indexed one has its own
+/// sheet, tested in `standard_sheet`).
 fn demo_plans() -> Vec<(String, StagedPlan, Model, RiskPair)> {
     DEMO_PLANS
         .iter()
         .filter_map(|(name, text)| {
             let source = PlanSource::from_yaml(text, Path::new(name)).unwrap();
-            if source.is_variables() {
+            if source.is_variables() || source.is_standard() {
                 return None;
             }
             let request = source.request().unwrap();
@@ -209,6 +211,12 @@ fn every_demo_sheet_is_a_valid_svg_page_on_either_paper() {
     for (name, text) in DEMO_PLANS {
         let source = PlanSource::from_yaml(text, Path::new(name)).unwrap();
         for (paper, size) in [(Paper::A4, (210.0, 297.0)), (Paper::Letter, (215.9, 279.4))] {
+            // Three classes do not fit a Letter page yet: that sheet is
+            // refused in plain words (tests/it/standard_sheet.rs pins the
+            // combinations that lay out, and the refusals).
+            if source.is_standard() && paper == Paper::Letter {
+                continue;
+            }
             let what = format!("{name} on {}", paper.name());
             let svg = render_sheet_svg(text, &source, name, paper)
                 .unwrap_or_else(|e| panic!("{what}: {e}"));

@@ -49,7 +49,7 @@ impl PlanSource {
     /// ```
     ///
     /// # Errors
-    /// [`SourceError::Invalid`] naming `path`, as
+    /// [`SourceError::Invalid`](crate::SourceError::Invalid) naming `path`, as
     /// [`PlanSource::recorded_class_plans`]; [`Error::Input`] as
     /// [`parse_class_counts`], and when a class's counts do not fit its
     /// plan (more stages than it has, a count above the units inspected)
