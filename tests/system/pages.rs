@@ -67,10 +67,19 @@ fn lacking(a: &[String], b: &[String]) -> Vec<String> {
 fn poppler_renders_every_demo_sheet_and_the_map_without_a_complaint() {
     for (name, pdf) in pages() {
         let (pngs, said) = poppler::render(&pdf);
-        assert_eq!(pngs.len(), 1, "{name}: one page");
+        // One page, or two for a standard-indexed sheet whose classes do
+        // not fit one (the inspector's page and the engineer's).
+        let most = if name.contains("seal-face-classes") { 2 } else { 1 };
+        assert!(
+            (1..=most).contains(&pngs.len()),
+            "{name}: {} pages",
+            pngs.len()
+        );
         assert!(said.trim().is_empty(), "{name}: poppler said {said}");
         // A blank 40 dpi page compresses to well under a kilobyte.
-        assert!(pngs[0].len() > 4000, "{name}: {} bytes", pngs[0].len());
+        for png in &pngs {
+            assert!(png.len() > 4000, "{name}: {} bytes", png.len());
+        }
     }
 }
 
