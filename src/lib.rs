@@ -48,7 +48,8 @@ mod plain;
 // 1, likelihood models and risk points.
 mod model;
 
-// 2, plans and their measures.
+// 2, plans and their measures; the draw of the units to inspect.
+mod draw;
 mod plan;
 
 // 3, designers, and the standard's tables of plans.
@@ -86,14 +87,18 @@ pub use design::{
     single_alternatives, single_work, solve, solve_variables, tradeoff, tradeoff_work,
     variables_design_work, wald_lines,
 };
+pub use draw::{
+    CartonShare, DRAW_GENERATOR, Draw, DrawRequest, DrawnUnit, Generator, SeedSource,
+    carton_shares, draw, draw_seed, draw_work, floyd_sample,
+};
 pub use fs::{
     FileError, Overwrite, normalise_folder, read_limited, refuse_overwriting_input, same_file,
     write_atomic, write_set,
 };
 pub use input::InputError;
 pub use model::{
-    MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, Tails,
-    nonconforming_in_lot,
+    Interval, MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, Tails,
+    clopper_pearson, nonconforming_in_lot, poisson_rate_interval,
 };
 pub use numeric::{
     BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, NEAR_LIMIT, NumericalError, QualityRange, Quantity,
