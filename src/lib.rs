@@ -129,13 +129,14 @@ pub use print::{
 };
 pub use report::{
     AlternativeReport, BatchSummary, ClassEvaluationReport, ClassReport, ConsumerReport,
-    CostReport, DemoReport, DemoRow, DesignReport, EDITION, EvaluationBatchReport, EvaluationEntry,
-    EvaluationReport, Failure, Format, JudgeReport, MeasurementJudgeReport, Outcome, PointReport,
-    ProtectionReport, RectifyingPlanReport, RectifyingReport, Report, SeverityPlanReport,
-    SourceEvaluation, StandardEvaluationReport, StandardJudgeReport, StandardPlansReport,
-    StandardPoint, StandardReport, TradeoffCellReport, TradeoffReport, TrueRisksReport,
-    TwoPointReport, VariablesDesignReport, VariablesEvaluationReport, VariablesReport,
-    VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words, write_report,
+    CostReport, DemoReport, DemoRow, DesignReport, DrawReport, EDITION, EvaluationBatchReport,
+    EvaluationEntry, EvaluationReport, Failure, Format, JudgeReport, MeasurementJudgeReport,
+    Outcome, PointReport, ProtectionReport, RectifyingPlanReport, RectifyingReport, Report,
+    SeverityPlanReport, SourceEvaluation, StandardEvaluationReport, StandardJudgeReport,
+    StandardPlansReport, StandardPoint, StandardReport, TradeoffCellReport, TradeoffReport,
+    TrueRisksReport, TwoPointReport, VariablesDesignReport, VariablesEvaluationReport,
+    VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words,
+    write_report,
 };
 pub use source::{
     Audit, Audited, ClassSource, Description, Difference, Discrepancy, Edition, Error,
