@@ -69,7 +69,11 @@ fn poppler_renders_every_demo_sheet_and_the_map_without_a_complaint() {
         let (pngs, said) = poppler::render(&pdf);
         // One page, or two for a standard-indexed sheet whose classes do
         // not fit one (the inspector's page and the engineer's).
-        let most = if name.contains("seal-face-classes") { 2 } else { 1 };
+        let most = if name.contains("seal-face-classes") {
+            2
+        } else {
+            1
+        };
         assert!(
             (1..=most).contains(&pngs.len()),
             "{name}: {} pages",
