@@ -67,7 +67,7 @@ fn sampled(
 /// Table VIII's window for the normal plan `normal` at the class's AQL:
 /// ten lots, or the fewest more whose first-sample units reach a printed
 /// limit number; `None` when the table prints none.
-fn limit_window(tables: &Tables, normal: &StandardPlan) -> Option<LimitWindow> {
+pub(crate) fn limit_window(tables: &Tables, normal: &StandardPlan) -> Option<LimitWindow> {
     let first = normal.stages.stages().first().map_or(0, |s| s.n);
     for lots in MIN_WINDOW_LOTS..=MAX_WINDOW_LOTS {
         match tables.limit_number(u64::from(lots) * first, normal.aql) {

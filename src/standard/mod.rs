@@ -66,6 +66,7 @@ pub use assessment::{
 };
 pub use cell::TableCell;
 pub use class_scheme::ClassScheme;
+pub(crate) use class_scheme::limit_window;
 pub use classes::{
     ClassAql, ClassDecision, ClassPlan, ClassPlans, ClassRule, ClassVerdict, judge_classes,
     parse_classes,
