@@ -56,7 +56,8 @@ mod plan;
 mod design;
 mod standard;
 
-// 4, plan sources.
+// 4, plan sources, and the ledger of lots judged by them.
+mod ledger;
 mod source;
 
 // 5, reports.
@@ -96,6 +97,11 @@ pub use fs::{
     write_atomic, write_set,
 };
 pub use input::InputError;
+pub use ledger::{
+    COLUMNS, Decided, Finding, GENESIS, KnownPlan, LEDGER_FORMAT, Ledger, LedgerError, LedgerLine,
+    LedgerRow, LotDate, LotEntry, MAX_LEDGER_BYTES, Replay, Tally, TornLine, append_lot,
+    chain_break, chain_hash, decision_name, ledger_header, replay, row_line,
+};
 pub use model::{
     Interval, MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, Tails,
     clopper_pearson, nonconforming_in_lot, poisson_rate_interval,

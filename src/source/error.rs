@@ -93,6 +93,9 @@ pub enum Error {
     /// [`NumericalError`](crate::NumericalError).
     #[error(transparent)]
     Numerical(#[from] NumericalError),
+    /// A ledger of lots that cannot be read, extended or used.
+    #[error(transparent)]
+    Ledger(#[from] crate::ledger::LedgerError),
     /// Writing a report failed.
     #[error("{}", io_message(std::path::Path::new("the output"), .0).trim_start_matches("the output: "))]
     Output(#[from] std::io::Error),

@@ -43,6 +43,8 @@ const LAYERS: &[(&str, u8, &str)] = &[
     ("src/design/", 3, "design"),
     ("src/standard/", 3, "design"),
     ("src/source/", 4, "source"),
+    // The ledger decides its rows again by their plan sources.
+    ("src/ledger/", 4, "source"),
     ("src/report/", 5, "report"),
     ("src/print/", 6, "print"),
     ("src/batch/", 7, "orchestration"),

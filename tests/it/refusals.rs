@@ -277,6 +277,8 @@ impl Fixtures {
             ("nan.csv", with(4, "NaN")),
             ("short.csv", column(&values[..41])),
             ("same.csv", column(&["5.9"; 42])),
+            // A CSV file that is not a ledger (another header).
+            ("not-ledger.csv", "plate,thickness_mm\n1,5.9\n".into()),
             ("overflow.csv", {
                 let mut v = values.clone();
                 v[4] = "1e308";
@@ -1084,6 +1086,65 @@ fn judge_refuses_counts_and_measurements_it_cannot_use() {
         ),
     ];
     run("judge", &cases);
+}
+
+#[test]
+fn judge_record_refuses_what_a_ledger_cannot_keep() {
+    let rec = |more: &[&'static str]| {
+        let mut v = vec![
+            "judge",
+            "plans/tpw-seal-visual.yaml",
+            "--found",
+            "0",
+            "--lot",
+            "L1",
+            "--record",
+        ];
+        v.extend_from_slice(more);
+        v
+    };
+    let cases = [
+        refused(
+            "a record file that is not a ledger",
+            &rec(&["@not-ledger.csv"]),
+            "line 1: this is not a lotsman ledger",
+        ),
+        refused(
+            "a date that does not exist",
+            &rec(&["@log.csv", "--date", "2024-02-30"]),
+            "--date: '2024-02-30' is not a date written YYYY-MM-DD",
+        ),
+        refused(
+            "a lot identifier a spreadsheet reads as a formula",
+            &[
+                "judge",
+                "plans/tpw-seal-visual.yaml",
+                "--found",
+                "0",
+                "--lot",
+                "=SUM(A1)",
+                "--record",
+                "@log.csv",
+            ],
+            "starts with '=', which a spreadsheet reads as a formula",
+        ),
+        refused(
+            "a resubmitted lot the ledger does not hold",
+            &rec(&["@log.csv", "--resubmitted"]),
+            "is marked resubmitted but the ledger does not record it",
+        ),
+        refused(
+            "verify --plan without a ledger",
+            &[
+                "verify",
+                "plans/tpw-seal-visual.yaml",
+                "--plan",
+                "plans/tpw-seal-visual.yaml",
+            ],
+            "no ledger was given",
+        ),
+    ];
+    run("judge --record", &cases);
 }
 
 #[test]

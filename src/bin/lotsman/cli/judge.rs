@@ -42,7 +42,42 @@ pub struct JudgeArgs {
     #[arg(long, value_enum, value_name = "SEVERITY")]
     pub severity: Option<SeverityArg>,
     #[command(flatten)]
+    pub record: RecordFlags,
+    #[command(flatten)]
     pub report: FormatFlag<JudgeFormat>,
+}
+
+/// Recording the decided lot in a ledger (`--record`).
+#[derive(Debug, Args)]
+pub struct RecordFlags {
+    /// Append the decided lot to this ledger (created when missing); a standard-indexed
+    /// plan is applied at the severity the ledger's switching history requires
+    #[arg(long, value_name = "LOG.csv", requires = "lot")]
+    pub record: Option<PathBuf>,
+    /// The lot's identifier, once per ledger (with --record)
+    #[arg(long, value_name = "ID", requires = "record")]
+    pub lot: Option<String>,
+    /// The date the lot was judged, YYYY-MM-DD [default: today, UTC]
+    #[arg(long, value_name = "YYYY-MM-DD", requires = "record")]
+    pub date: Option<String>,
+    /// Who inspected the lot, for the ledger
+    #[arg(long, value_name = "NAME", requires = "record")]
+    pub inspector: Option<String>,
+    /// A remark kept in the ledger's row
+    #[arg(long, value_name = "TEXT", requires = "record")]
+    pub note: Option<String>,
+    /// The lot was rejected before and is submitted again (it does not count
+    /// for the switching rules)
+    #[arg(long, requires = "record")]
+    pub resubmitted: bool,
+    /// The lot's size, for the ledger [default: the source's lot size]
+    #[arg(
+        long,
+        value_name = "N",
+        requires = "record",
+        allow_hyphen_values = true
+    )]
+    pub lot_size: Option<String>,
 }
 
 /// A severity of inspection.

@@ -18,9 +18,19 @@ const DECIDED_AS_RECORDED: &str = "the lot is decided by the plan as recorded (-
 
 pub fn run(args: JudgeArgs) -> Result<Outcome, Error> {
     if let Some(csv) = &args.measurements {
+        if args.record.record.is_some() {
+            return Err(InputError::Inconsistent(
+                "--record keeps the counts found, and a variables plan decides from measurements, which the ledger does not record yet; judge it without --record".to_string(),
+            )
+            .into());
+        }
         return by_measurements(&args, csv);
     }
     let audited = Audited::load_checked(&args.source, args.accept_recorded, budget(&args.source))?;
+    if let Some(log) = args.record.record.clone() {
+        let (text, accepted) = super::record::run(&args, &log, audited)?;
+        return print_warned(&args, &text, accepted);
+    }
     if audited.source.is_standard() {
         return by_classes(&args, audited);
     }

@@ -6,12 +6,28 @@ use lotsman::{
     check_sheet, check_sheet_entry, check_sheet_text, expand_paths, verify_text,
 };
 
+use std::io::{BufRead, BufReader, Read};
+use std::path::Path;
+
 use super::batch::{check, finish_batch, read_all, run_batch};
 use crate::cli::values::ReportFormatArg;
 use crate::cli::verify::VerifyArgs;
 use crate::out::print_report;
 
 pub fn run(args: VerifyArgs) -> Result<Outcome, Error> {
+    if let [log] = args.sources.as_slice()
+        && is_ledger(log)
+    {
+        return super::verify_ledger::run(&args, log);
+    }
+    if let Some(plan) = args.plan.first() {
+        return Err(InputError::Inconsistent(format!(
+            "--plan {} names the plan of a ledger's rows, and no ledger was given: verify a ledger with lotsman verify LOG.csv --plan {}",
+            plan.display(),
+            plan.display()
+        ))
+        .into());
+    }
     if !args.sheet.is_empty() {
         if let Some(folder) = args.sources.iter().find(|p| p.is_dir()) {
             return Err(InputError::Inconsistent(format!(
@@ -65,4 +81,21 @@ pub fn run(args: VerifyArgs) -> Result<Outcome, Error> {
         &report.summary(),
         args.report.format == ReportFormatArg::Table,
     ))
+}
+
+/// Whether the file at `path` starts with the ledger's header line.
+fn is_ledger(path: &Path) -> bool {
+    let Ok(file) = std::fs::File::open(path) else {
+        return false;
+    };
+    let mut first = String::new();
+    let limit = lotsman::ledger_header().len() as u64 + 2;
+    if BufReader::new(file)
+        .take(limit)
+        .read_line(&mut first)
+        .is_err()
+    {
+        return false;
+    }
+    first.trim_end_matches(['\n', '\r']) == lotsman::ledger_header()
 }

@@ -1,0 +1,339 @@
+//! A plan source as the ledger knows it: its text's SHA-256 (the revision
+//! a row names), and what it needs to decide a lot again from the row's
+//! counts: the recorded plan, or for a standard-indexed source the plans
+//! of each severity and its switching rules.
+//!
+//! # One switching state per ledger
+//!
+//! MIL-STD-105E keeps a switching state per class of defects (4.6), yet a
+//! lot is sampled at one severity. The ledger keeps one state, driven by
+//! the lot's overall decision (accepted when every class accepts, 4.7.1 to
+//! 4.8), and applies that severity to every class. Reduced inspection
+//! (4.7.3) is reached only for a source with one AQL: the limit number of
+//! Table VIII is read per class, and one state cannot hold several
+//! classes' windows; a source with several classes stays on normal and
+//! tightened inspection, the stricter reading. For a source that keeps
+//! reduced inspection (no `no_reduced: true`), the ledger takes 4.7.3 (c)
+//! steady production and (d) the responsible authority's approval as
+//! given; a contract that does not give them sets `no_reduced: true`.
+
+use std::path::{Path, PathBuf};
+
+use crate::model::{Model, ModelKind};
+use crate::plan::{Decision, Judgement, StagedPlan, judge, judge_cumulative};
+use crate::source::{Error, PlanSource, SourceError, parse_class_counts};
+use crate::standard::{
+    ClassAql, ClassPlans, ClassScheme, ClassVerdict, LotResult, Severity, SwitchingRules,
+    judge_classes, text_sha256,
+};
+
+use super::tally::Tally;
+
+/// A plan source a ledger's rows may name, ready to decide their lots.
+#[derive(Clone, Debug)]
+pub struct KnownPlan {
+    /// Where it was read.
+    pub path: PathBuf,
+    /// The SHA-256 of its text.
+    pub sha256: String,
+    /// Its `id` (empty when it has none).
+    pub id: String,
+    /// Its `revision` (empty when it has none).
+    pub revision: String,
+    judge: PlanJudge,
+}
+
+#[derive(Clone, Debug)]
+enum PlanJudge {
+    Standard(Box<StandardPlans>),
+    Counted { model: Model, plan: StagedPlan },
+}
+
+#[derive(Clone, Debug)]
+struct StandardPlans {
+    kind: ModelKind,
+    classes: Vec<ClassAql>,
+    by_severity: Vec<(Severity, ClassPlans)>,
+    rules: SwitchingRules,
+}
+
+/// A lot decided by a known plan, with what the ledger records of it.
+#[derive(Clone, Debug)]
+pub struct Decided {
+    /// Accept, reject or continue.
+    pub decision: Decision,
+    /// The counts found, per class, in the plan's order.
+    pub found: Tally,
+    /// The units inspected in all, per class.
+    pub inspected: Tally,
+    /// The code letter (standard-indexed plans).
+    pub code_letter: Option<String>,
+    /// The lot as the switching rules read it (standard-indexed plans,
+    /// decided lots only).
+    pub lot: Option<LotResult>,
+    /// The judgement of a plan without classes.
+    pub judgement: Option<Judgement>,
+    /// The decisions of every class (standard-indexed plans).
+    pub verdict: Option<ClassVerdict>,
+}
+
+impl KnownPlan {
+    /// Reads and prepares the plan source at `path`.
+    ///
+    /// # Errors
+    /// As [`KnownPlan::from_source`]; [`SourceError`] when it cannot be
+    /// read.
+    pub fn load(path: &Path) -> Result<KnownPlan, Error> {
+        let text = PlanSource::read_text(path)?;
+        let source = PlanSource::from_yaml(&text, path)?;
+        KnownPlan::from_source(path, &text, &source)
+    }
+
+    /// Prepares `source`, read from `text` at `path`.
+    ///
+    /// # Errors
+    /// [`SourceError::Invalid`] for a source without a recorded plan, or
+    /// whose plans cannot be read; a variables plan (the ledger records
+    /// counts, not measurements).
+    pub fn from_source(path: &Path, text: &str, source: &PlanSource) -> Result<KnownPlan, Error> {
+        let invalid = |e| SourceError::Invalid {
+            path: path.to_path_buf(),
+            source: e,
+        };
+        let judge = if source.is_standard() {
+            let request = source.standard_request().map_err(invalid)?;
+            let mut by_severity = Vec::new();
+            for severity in [Severity::Normal, Severity::Tightened, Severity::Reduced] {
+                if severity == Severity::Reduced && !request.request.reduced() {
+                    continue;
+                }
+                let plans = source
+                    .recorded_class_plans(Some(severity))
+                    .map_err(invalid)?;
+                by_severity.push((severity, plans));
+            }
+            let classes = request.request.classes().to_vec();
+            let rules = ledger_rules(source, path, &by_severity, classes.len())?;
+            PlanJudge::Standard(Box::new(StandardPlans {
+                kind: request.request.model().kind(),
+                classes,
+                by_severity,
+                rules,
+            }))
+        } else if source.is_variables() {
+            return Err(crate::input::InputError::Inconsistent(format!(
+                "{}: a variables plan decides from measurements, which the ledger does not record; judge it without --record",
+                path.display()
+            ))
+            .into());
+        } else {
+            let model = source.staged_model().map_err(invalid)?;
+            let plan = source.recorded_plan(&model).map_err(invalid)?;
+            PlanJudge::Counted { model, plan }
+        };
+        Ok(KnownPlan {
+            path: path.to_path_buf(),
+            sha256: text_sha256(text),
+            id: source.id.clone().unwrap_or_default(),
+            revision: source.revision.clone().unwrap_or_default(),
+            judge,
+        })
+    }
+
+    /// The switching rules of a standard-indexed source, `None` for other
+    /// plans.
+    pub fn rules(&self) -> Option<&SwitchingRules> {
+        match &self.judge {
+            PlanJudge::Standard(s) => Some(&s.rules),
+            PlanJudge::Counted { .. } => None,
+        }
+    }
+
+    /// The plans of a standard-indexed source at `severity`.
+    pub fn plans_at(&self, severity: Severity) -> Option<&ClassPlans> {
+        match &self.judge {
+            PlanJudge::Standard(s) => s
+                .by_severity
+                .iter()
+                .find(|(s, _)| *s == severity)
+                .map(|(_, p)| p),
+            PlanJudge::Counted { .. } => None,
+        }
+    }
+
+    /// The recorded plan and model of a plan without classes.
+    pub fn counted_plan(&self) -> Option<(&StagedPlan, &Model)> {
+        match &self.judge {
+            PlanJudge::Counted { model, plan } => Some((plan, model)),
+            PlanJudge::Standard(_) => None,
+        }
+    }
+
+    /// Decides a lot of a plan without classes from `counts`, the count
+    /// in each stage's new units; or, with `cumulative` (the units
+    /// inspected, `judge --inspected`), from one cumulative count.
+    ///
+    /// # Errors
+    /// A message in plain words: the counts do not fit the plan, or this
+    /// is a standard-indexed source.
+    pub fn decide_counts(
+        &self,
+        counts: &[u64],
+        cumulative: Option<u64>,
+    ) -> Result<Decided, String> {
+        let PlanJudge::Counted { model, plan } = &self.judge else {
+            return Err(
+                "a standard-indexed plan takes the counts of each class (--found CLASS=K,K,..)"
+                    .into(),
+            );
+        };
+        let judgement = match (cumulative, counts) {
+            (Some(inspected), [k]) => judge_cumulative(plan, model, inspected, *k),
+            (Some(_), _) => {
+                return Err("with the units inspected give one cumulative count".into());
+            }
+            (None, _) => judge(plan, model, counts),
+        }
+        .map_err(|e| e.to_string())?;
+        Ok(Decided {
+            decision: judgement.decision,
+            found: Tally::single(counts.to_vec()),
+            inspected: Tally::single(vec![judgement.inspected]),
+            code_letter: None,
+            lot: None,
+            judgement: Some(judgement),
+            verdict: None,
+        })
+    }
+
+    /// Decides a row's lot again from its `found` and `inspected` cells:
+    /// a plan without classes reads one count on a plan of several stages
+    /// as the cumulative count at `inspected` units (see the row's
+    /// columns); a standard-indexed source judges at `severity`.
+    ///
+    /// # Errors
+    /// As [`KnownPlan::decide_counts`] and [`KnownPlan::decide_classes`].
+    pub fn decide_row(
+        &self,
+        severity: Option<Severity>,
+        found: &Tally,
+        inspected: &Tally,
+    ) -> Result<Decided, String> {
+        match &self.judge {
+            PlanJudge::Counted { plan, .. } => {
+                let counts = found.counts().concat();
+                let units = inspected.counts().concat();
+                let cumulative = match (counts.as_slice(), units.as_slice()) {
+                    ([_], [n]) if plan.stages().len() > 1 => Some(*n),
+                    _ => None,
+                };
+                self.decide_counts(&counts, cumulative)
+            }
+            PlanJudge::Standard(_) => {
+                self.decide_classes(severity.unwrap_or(Severity::Normal), &found.found_args())
+            }
+        }
+    }
+
+    /// Decides a lot of a standard-indexed source at `severity` from the
+    /// texts of `--found` ([`parse_class_counts`]).
+    ///
+    /// # Errors
+    /// A message in plain words: the counts do not fit the plans, the
+    /// severity has no plan, or this is not a standard-indexed source.
+    pub fn decide_classes(&self, severity: Severity, found: &[String]) -> Result<Decided, String> {
+        match &self.judge {
+            PlanJudge::Counted { .. } => {
+                Err("a severity applies only to a standard-indexed plan (scheme: standard)".into())
+            }
+            PlanJudge::Standard(s) => {
+                let plans = self.plans_at(severity).ok_or_else(|| {
+                    "the source leaves reduced inspection out (no_reduced: true), so it has no reduced plan".to_string()
+                })?;
+                let texts: Vec<&str> = found.iter().map(String::as_str).collect();
+                let counts = parse_class_counts(&texts, &s.classes).map_err(|e| e.to_string())?;
+                let verdict = judge_classes(plans, s.kind, &counts).map_err(|e| e.to_string())?;
+                let named = s.classes.iter().all(|c| c.name.is_some());
+                let per_class = |values: Vec<Vec<u64>>| {
+                    if named {
+                        Tally::named(
+                            s.classes
+                                .iter()
+                                .map(|c| c.name.clone().unwrap_or_default())
+                                .zip(values)
+                                .collect(),
+                        )
+                    } else {
+                        Tally::single(values.concat())
+                    }
+                };
+                let inspected: Vec<Vec<u64>> = verdict
+                    .classes
+                    .iter()
+                    .map(|c| vec![c.judgement.inspected])
+                    .collect();
+                let lot = lot_result(&verdict, counts.len());
+                Ok(Decided {
+                    decision: verdict.decision,
+                    found: per_class(counts),
+                    inspected: per_class(inspected),
+                    code_letter: Some(plans.code_letter.to_string()),
+                    lot,
+                    judgement: None,
+                    verdict: Some(verdict),
+                })
+            }
+        }
+    }
+}
+
+/// The lot as the switching rules read it: accepted or not, its count and
+/// units (the one class's, for the limit number; the largest over classes
+/// otherwise), and whether a count between Ac and Re on reduced
+/// inspection returns the next lot to normal (105E 4.10.1.4).
+fn lot_result(verdict: &ClassVerdict, classes: usize) -> Option<LotResult> {
+    let count = verdict
+        .classes
+        .iter()
+        .map(|c| c.judgement.cumulative_count)
+        .sum();
+    let units = verdict
+        .classes
+        .iter()
+        .map(|c| c.judgement.inspected)
+        .max()?;
+    let between = classes == 1 && verdict.classes.iter().any(|c| c.reinstates_normal);
+    match verdict.decision {
+        Decision::Accept if between => LotResult::accepted_between(count, units).ok(),
+        Decision::Accept => LotResult::accepted(count, units).ok(),
+        Decision::Reject => LotResult::rejected(count, units).ok(),
+        Decision::Continue => None,
+    }
+}
+
+/// The rules the ledger follows for a standard-indexed source (see the
+/// module doc): reduced inspection with Table VIII's window for a source
+/// with one AQL that keeps it, otherwise normal and tightened only.
+fn ledger_rules(
+    source: &PlanSource,
+    path: &Path,
+    by_severity: &[(Severity, ClassPlans)],
+    classes: usize,
+) -> Result<SwitchingRules, Error> {
+    let normal = by_severity
+        .iter()
+        .find(|(s, _)| *s == Severity::Normal)
+        .and_then(|(_, p)| p.classes.first())
+        .and_then(|c| c.answer.plan());
+    let keeps_reduced = by_severity.iter().any(|(s, _)| *s == Severity::Reduced);
+    match normal {
+        Some(plan) if keeps_reduced && classes == 1 => {
+            let tables = source.standard_tables(path)?;
+            Ok(SwitchingRules::new(
+                true,
+                ClassScheme::limit_window(&tables, plan),
+            ))
+        }
+        _ => Ok(SwitchingRules::without_reduced()),
+    }
+}
