@@ -3,6 +3,7 @@
 //! size-limited reader, the folders made for outputs, and the leftovers a
 //! killed run leaves.
 
+mod append;
 mod atomic;
 mod error;
 mod folder;
@@ -10,6 +11,7 @@ pub(crate) mod leftovers;
 mod overwrite;
 mod read;
 
+pub use append::{append_synced, open_locked_append};
 pub use atomic::{Overwrite, write_atomic, write_set};
 pub use error::FileError;
 pub use folder::normalise_folder;

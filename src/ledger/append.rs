@@ -15,14 +15,15 @@
 //! A crash during step 4 leaves at most a torn last line, which the next
 //! read reports.
 
-use std::fs::{File, OpenOptions};
-use std::io::{Read, Write};
+use std::fs::File;
+use std::io::Read;
 use std::path::Path;
 
 use super::error::LedgerError;
 use super::read::{Ledger, MAX_LEDGER_BYTES};
 use super::replay::chain_break;
 use super::row::{COLUMNS, LedgerRow, LotEntry, ledger_header};
+use crate::fs::{append_synced, open_locked_append};
 
 /// Appends the lot that `decide` gives, under the file's lock. `decide`
 /// sees the ledger as read under the lock and returns the lot to record
@@ -46,13 +47,7 @@ where
         path: path.to_path_buf(),
         source,
     };
-    let mut file = OpenOptions::new()
-        .read(true)
-        .append(true)
-        .create(true)
-        .open(path)
-        .map_err(io)?;
-    file.lock().map_err(io)?;
+    let mut file = open_locked_append(path).map_err(io)?;
     let ledger = read_locked(&mut file, path)?;
     if let Some(torn) = &ledger.torn {
         return Err(LedgerError::Torn {
@@ -110,9 +105,7 @@ where
         bytes.push(b'\n');
     }
     bytes.extend_from_slice(&row_line(&row).map_err(io)?);
-    file.write_all(&bytes).map_err(io)?;
-    file.sync_all().map_err(io)?;
-    file.unlock().map_err(io)?;
+    append_synced(&mut file, &bytes).map_err(io)?;
     Ok((Some(row), value))
 }
 
