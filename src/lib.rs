@@ -48,7 +48,8 @@ mod plain;
 // 1, likelihood models and risk points.
 mod model;
 
-// 2, plans and their measures.
+// 2, plans and their measures; the draw of the units to inspect.
+mod draw;
 mod plan;
 
 // 3, designers, and the standard's tables of plans.
@@ -87,6 +88,10 @@ pub use design::{
     single_alternatives, single_work, solve, solve_variables, tradeoff, tradeoff_work,
     variables_design_work, wald_lines,
 };
+pub use draw::{
+    CartonShare, DRAW_GENERATOR, Draw, DrawRequest, DrawnUnit, Generator, SeedSource,
+    carton_shares, draw, draw_seed, draw_work, floyd_sample,
+};
 pub use fs::{
     FileError, Overwrite, normalise_folder, read_limited, refuse_overwriting_input, same_file,
     write_atomic, write_set,
@@ -98,8 +103,8 @@ pub use ledger::{
     chain_break, chain_hash, decision_name, ledger_header, replay, row_line,
 };
 pub use model::{
-    MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, Tails,
-    nonconforming_in_lot,
+    Interval, MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, Tails,
+    clopper_pearson, nonconforming_in_lot, poisson_rate_interval,
 };
 pub use numeric::{
     BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, NEAR_LIMIT, NumericalError, QualityRange, Quantity,
@@ -130,13 +135,14 @@ pub use print::{
 };
 pub use report::{
     AlternativeReport, BatchSummary, ClassEvaluationReport, ClassReport, ConsumerReport,
-    CostReport, DemoReport, DemoRow, DesignReport, EDITION, EvaluationBatchReport, EvaluationEntry,
-    EvaluationReport, Failure, Format, JudgeReport, MeasurementJudgeReport, Outcome, PointReport,
-    ProtectionReport, RectifyingPlanReport, RectifyingReport, Report, SeverityPlanReport,
-    SourceEvaluation, StandardEvaluationReport, StandardJudgeReport, StandardPlansReport,
-    StandardPoint, StandardReport, TradeoffCellReport, TradeoffReport, TrueRisksReport,
-    TwoPointReport, VariablesDesignReport, VariablesEvaluationReport, VariablesReport,
-    VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words, write_report,
+    CostReport, DemoReport, DemoRow, DesignReport, DrawReport, EDITION, EvaluationBatchReport,
+    EvaluationEntry, EvaluationReport, Failure, Format, JudgeReport, MeasurementJudgeReport,
+    Outcome, PointReport, ProtectionReport, RectifyingPlanReport, RectifyingReport, Report,
+    SeverityPlanReport, SourceEvaluation, StandardEvaluationReport, StandardJudgeReport,
+    StandardPlansReport, StandardPoint, StandardReport, TradeoffCellReport, TradeoffReport,
+    TrueRisksReport, TwoPointReport, VariablesDesignReport, VariablesEvaluationReport,
+    VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words,
+    write_report,
 };
 pub use source::{
     Audit, Audited, ClassSource, Description, Difference, Discrepancy, Edition, Error,

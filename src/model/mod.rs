@@ -16,6 +16,7 @@
 
 mod binomial;
 mod hypergeometric;
+mod interval;
 pub(crate) mod noncentral_t;
 pub(crate) mod normal;
 mod poisson;
@@ -33,6 +34,7 @@ use crate::numeric::Quantity;
 use binomial::Binomial;
 use hypergeometric::Hypergeometric;
 pub use hypergeometric::nonconforming_in_lot;
+pub use interval::{Interval, clopper_pearson, poisson_rate_interval};
 pub use noncentral_t::NoncentralT;
 use poisson::Poisson;
 pub use risk::{RiskPair, RiskPoint};

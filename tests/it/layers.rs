@@ -39,6 +39,7 @@ const LAYERS: &[(&str, u8, &str)] = &[
     ("src/budget/", 0, "base"),
     ("src/model/", 1, "model"),
     ("src/plan/", 2, "plan"),
+    ("src/draw/", 2, "plan"),
     ("src/design/", 3, "design"),
     ("src/standard/", 3, "design"),
     ("src/source/", 4, "source"),

@@ -17,6 +17,7 @@ mod batch;
 mod cli;
 mod commands_doc;
 mod docs;
+mod draw;
 mod guards;
 mod layers;
 mod ledger_concurrency;

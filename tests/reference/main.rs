@@ -12,6 +12,7 @@
 
 mod fixtures;
 
+mod interval;
 mod published;
 mod rectifying;
 mod single;

@@ -42,6 +42,7 @@ fn run(command: Command) -> Result<Outcome, Error> {
         Command::Demo(args) => commands::demo::run(&args),
         Command::Rectify(args) => commands::rectify::run(args),
         Command::Standard(args) => commands::standard::run(*args),
+        Command::Draw(args) => commands::draw::run(args),
     }
 }
 

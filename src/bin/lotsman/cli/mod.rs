@@ -5,6 +5,7 @@
 
 pub mod demo;
 pub mod design;
+pub mod draw;
 pub mod evaluate;
 pub mod groups;
 pub mod judge;
@@ -52,6 +53,9 @@ pub enum Command {
     /// Look a plan up in the AQL tables of MIL-STD-105E: code letter, the plan at each severity,
     /// and the risks it really gives.
     Standard(Box<standard::StandardArgs>),
+    /// List the units of a lot to inspect, drawn at random from a seed that reproduces
+    /// them.
+    Draw(draw::DrawArgs),
 }
 
 impl Cli {

@@ -5,6 +5,7 @@
 pub mod batch;
 pub mod demo;
 pub mod design;
+pub mod draw;
 pub mod evaluate;
 pub mod judge;
 pub mod new;
