@@ -98,9 +98,11 @@ pub use fs::{
 };
 pub use input::InputError;
 pub use ledger::{
-    COLUMNS, Decided, Finding, GENESIS, KnownPlan, LEDGER_FORMAT, Ledger, LedgerError, LedgerLine,
-    LedgerRow, LotDate, LotEntry, MAX_LEDGER_BYTES, Replay, Tally, TornLine, append_lot,
-    chain_break, chain_hash, decision_name, ledger_header, replay, row_line,
+    COLUMNS, ClassAverage, Decided, Finding, GENESIS, KnownPlan, LEDGER_FORMAT, Ledger,
+    LedgerError, LedgerLine, LedgerRow, LedgerStatus, LotDate, LotEntry, LotSample,
+    MAX_LEDGER_BYTES, PROCESS_AVERAGE_LEVEL, QualityTarget, Replay, Tally, TornLine, append_lot,
+    chain_break, chain_hash, decision_name, ledger_header, ledger_status, lot_samples,
+    process_averages, replay, row_line,
 };
 pub use model::{
     Interval, MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, Tails,
@@ -137,12 +139,12 @@ pub use report::{
     AlternativeReport, BatchSummary, ClassEvaluationReport, ClassReport, ConsumerReport,
     CostReport, DemoReport, DemoRow, DesignReport, DrawReport, EDITION, EvaluationBatchReport,
     EvaluationEntry, EvaluationReport, Failure, Format, JudgeReport, MeasurementJudgeReport,
-    Outcome, PointReport, ProtectionReport, RectifyingPlanReport, RectifyingReport, Report,
-    SeverityPlanReport, SourceEvaluation, StandardEvaluationReport, StandardJudgeReport,
-    StandardPlansReport, StandardPoint, StandardReport, TradeoffCellReport, TradeoffReport,
-    TrueRisksReport, TwoPointReport, VariablesDesignReport, VariablesEvaluationReport,
-    VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words,
-    write_report,
+    NextClassPlan, NextPlan, Outcome, PointReport, ProtectionReport, RectifyingPlanReport,
+    RectifyingReport, Report, SeverityPlanReport, SourceEvaluation, StageJson,
+    StandardEvaluationReport, StandardJudgeReport, StandardPlansReport, StandardPoint,
+    StandardReport, StatusReport, TradeoffCellReport, TradeoffReport, TrueRisksReport,
+    TwoPointReport, VariablesDesignReport, VariablesEvaluationReport, VariablesReport,
+    VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words, write_report,
 };
 pub use source::{
     Audit, Audited, ClassSource, Description, Difference, Discrepancy, Edition, Error,

@@ -21,6 +21,7 @@ mod standard;
 mod standard_evaluation;
 mod standard_judge;
 mod standard_plans;
+mod status;
 mod table_kit;
 mod tradeoff;
 mod variables_design;
@@ -45,6 +46,7 @@ pub use self::standard::{
 pub use self::standard_evaluation::{ClassEvaluationReport, StandardEvaluationReport};
 pub use self::standard_judge::StandardJudgeReport;
 pub use self::standard_plans::StandardPlansReport;
+pub use self::status::{NextClassPlan, NextPlan, StageJson, StatusReport};
 pub use self::tradeoff::{CostReport, TradeoffCellReport, TradeoffReport};
 pub use self::variables_design::VariablesDesignReport;
 pub use self::variables_evaluation::VariablesEvaluationReport;

@@ -23,6 +23,7 @@ mod layers;
 mod ledger_concurrency;
 mod ledger_fixture;
 mod ledger_rules;
+mod ledger_status;
 mod ledger_tamper;
 mod no_panics;
 mod numbers;

@@ -14,6 +14,7 @@ pub mod qualities;
 pub mod rectify;
 pub mod sheet;
 pub mod standard;
+pub mod status;
 pub mod tradeoff;
 pub mod values;
 pub mod verify;
@@ -56,6 +57,9 @@ pub enum Command {
     /// List the units of a lot to inspect, drawn at random from a seed that reproduces
     /// them.
     Draw(draw::DrawArgs),
+    /// Where a supplier stands after its ledger's lots: the next lot's severity and plan,
+    /// the switching rules' counters, the process average.
+    Status(status::StatusArgs),
 }
 
 impl Cli {

@@ -13,6 +13,7 @@ pub mod record;
 pub mod rectify;
 pub mod sheet;
 pub mod standard;
+pub mod status;
 pub mod tradeoff;
 pub mod verify;
 pub mod verify_ledger;
