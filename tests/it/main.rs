@@ -22,6 +22,7 @@ mod guards;
 mod layers;
 mod ledger_concurrency;
 mod ledger_fixture;
+mod ledger_history;
 mod ledger_rules;
 mod ledger_status;
 mod ledger_tamper;

@@ -2,6 +2,7 @@
 //! single, staged (double, multiple, item-by-item) or variables plan's
 //! sheet go, and the trade-off map's page.
 
+pub(crate) mod history;
 pub(crate) mod map;
 pub(crate) mod shared;
 pub(crate) mod single;

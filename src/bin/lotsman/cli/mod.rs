@@ -8,6 +8,7 @@ pub mod design;
 pub mod draw;
 pub mod evaluate;
 pub mod groups;
+pub mod history;
 pub mod judge;
 pub mod new;
 pub mod qualities;
@@ -60,6 +61,9 @@ pub enum Command {
     /// Where a supplier stands after its ledger's lots: the next lot's severity and plan,
     /// the switching rules' counters, the process average.
     Status(status::StatusArgs),
+    /// Each lot of a ledger on a control chart (p- or u-chart of first samples) with the
+    /// running process average: a table, and a PDF or SVG chart.
+    History(history::HistoryArgs),
 }
 
 impl Cli {

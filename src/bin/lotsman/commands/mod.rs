@@ -7,6 +7,7 @@ pub mod demo;
 pub mod design;
 pub mod draw;
 pub mod evaluate;
+pub mod history;
 pub mod judge;
 pub mod new;
 pub mod record;
