@@ -98,9 +98,11 @@ pub use fs::{
 };
 pub use input::InputError;
 pub use ledger::{
-    COLUMNS, Decided, Finding, GENESIS, KnownPlan, LEDGER_FORMAT, Ledger, LedgerError, LedgerLine,
-    LedgerRow, LotDate, LotEntry, MAX_LEDGER_BYTES, Replay, Tally, TornLine, append_lot,
-    chain_break, chain_hash, decision_name, ledger_header, replay, row_line,
+    COLUMNS, ClassAverage, Decided, Finding, GENESIS, History, HistoryLot, KnownPlan,
+    LEDGER_FORMAT, Ledger, LedgerError, LedgerLine, LedgerRow, LedgerStatus, LotDate, LotEntry,
+    LotSample, MAX_LEDGER_BYTES, PROCESS_AVERAGE_LEVEL, QualityTarget, Replay, SIGMAS, Tally,
+    TornLine, append_lot, chain_break, chain_hash, control_limits, decision_name, ledger_header,
+    ledger_history, ledger_status, lot_samples, process_averages, replay, row_line,
 };
 pub use model::{
     Interval, MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, Tails,
@@ -126,23 +128,24 @@ pub use plan::{
     variables_qualities, walk_seconds,
 };
 pub use print::{
-    ChartKind, ContourLabel, HASH_PREFIX, MAX_SHEET_BYTES, MapContour, MapPanel, MapQuantity,
-    Paper, ReducedLimit, SCHEME_POINTS, SOURCE_NAME_KEY, SchemeCurve, Sheet, SheetDocument,
-    SheetNotes, SheetOptions, SheetVerdict, StandardClassFacts, StandardFacts, TradeoffMap,
-    chart_svg, check_sheet, check_sheet_text, render_sheet, render_sheet_noting, render_sheet_svg,
-    render_standard_sheet, render_standard_sheet_svg, render_tradeoff_map, sheet_source_hash,
-    source_hash, write_sheet, write_sheet_text,
+    ChartKind, ContourLabel, HASH_PREFIX, HistoryFormat, MAX_HISTORY_LOTS, MAX_SHEET_BYTES,
+    MapContour, MapPanel, MapQuantity, Paper, ReducedLimit, SCHEME_POINTS, SOURCE_NAME_KEY,
+    SchemeCurve, Sheet, SheetDocument, SheetNotes, SheetOptions, SheetVerdict, StandardClassFacts,
+    StandardFacts, TradeoffMap, chart_svg, check_sheet, check_sheet_text, render_history,
+    render_sheet, render_sheet_noting, render_sheet_svg, render_standard_sheet,
+    render_standard_sheet_svg, render_tradeoff_map, sheet_source_hash, source_hash, write_sheet,
+    write_sheet_text,
 };
 pub use report::{
     AlternativeReport, BatchSummary, ClassEvaluationReport, ClassReport, ConsumerReport,
     CostReport, DemoReport, DemoRow, DesignReport, DrawReport, EDITION, EvaluationBatchReport,
-    EvaluationEntry, EvaluationReport, Failure, Format, JudgeReport, MeasurementJudgeReport,
-    Outcome, PointReport, ProtectionReport, RectifyingPlanReport, RectifyingReport, Report,
-    SeverityPlanReport, SourceEvaluation, StandardEvaluationReport, StandardJudgeReport,
-    StandardPlansReport, StandardPoint, StandardReport, TradeoffCellReport, TradeoffReport,
-    TrueRisksReport, TwoPointReport, VariablesDesignReport, VariablesEvaluationReport,
-    VariablesReport, VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words,
-    write_report,
+    EvaluationEntry, EvaluationReport, Failure, Format, HistoryReport, JudgeReport,
+    MeasurementJudgeReport, NextClassPlan, NextPlan, Outcome, PointReport, ProtectionReport,
+    RectifyingPlanReport, RectifyingReport, Report, SeverityPlanReport, SourceEvaluation,
+    StageJson, StandardEvaluationReport, StandardJudgeReport, StandardPlansReport, StandardPoint,
+    StandardReport, StatusReport, TradeoffCellReport, TradeoffReport, TrueRisksReport,
+    TwoPointReport, VariablesDesignReport, VariablesEvaluationReport, VariablesReport,
+    VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words, write_report,
 };
 pub use source::{
     Audit, Audited, ClassSource, Description, Difference, Discrepancy, Edition, Error,

@@ -14,24 +14,33 @@
 //! For the commands built on it: the next lot's severity and the rules'
 //! counters are [`Replay::state`] (a [`SwitchingState`](crate::SwitchingState));
 //! the lots' counts and units are each row's
-//! [`LotEntry::found`] and [`LotEntry::inspected`].
+//! [`LotEntry::found`] and [`LotEntry::inspected`]; where the supplier
+//! stands, with the process average over first samples, is
+//! [`ledger_status`].
 
 mod append;
 mod date;
 mod error;
 mod hash;
+mod history;
 mod plan;
 mod read;
 mod replay;
 mod row;
+mod status;
 mod tally;
 
 pub use append::{append_lot, row_line};
 pub use date::LotDate;
 pub use error::LedgerError;
 pub use hash::{GENESIS, chain_hash};
-pub use plan::{Decided, KnownPlan};
+pub use history::{History, HistoryLot, SIGMAS, control_limits, ledger_history};
+pub use plan::{Decided, KnownPlan, QualityTarget};
 pub use read::{Ledger, LedgerLine, MAX_LEDGER_BYTES, TornLine};
 pub use replay::{Finding, Replay, chain_break, replay};
 pub use row::{COLUMNS, LEDGER_FORMAT, LedgerRow, LotEntry, decision_name, ledger_header};
+pub use status::{
+    ClassAverage, LedgerStatus, LotSample, PROCESS_AVERAGE_LEVEL, ledger_status, lot_samples,
+    process_averages,
+};
 pub use tally::Tally;

@@ -40,7 +40,23 @@ pub struct KnownPlan {
     pub id: String,
     /// Its `revision` (empty when it has none).
     pub revision: String,
+    /// The qualities its lots are held against, per class.
+    pub targets: Vec<QualityTarget>,
     judge: PlanJudge,
+}
+
+/// The qualities one class of a plan is held against: the AQL (for a
+/// designed plan, its producer's quality) and the RQL (its consumer's
+/// quality, or a standard-indexed source's consumer point), as fractions
+/// nonconforming or nonconformities per unit.
+#[derive(Clone, Debug, PartialEq)]
+pub struct QualityTarget {
+    /// The class's name; `None` for a plan without named classes.
+    pub class: Option<String>,
+    /// The AQL, if the plan has one.
+    pub aql: Option<f64>,
+    /// The RQL, if the plan has one.
+    pub rql: Option<f64>,
 }
 
 #[derive(Clone, Debug)]
@@ -100,6 +116,11 @@ impl KnownPlan {
             path: path.to_path_buf(),
             source: e,
         };
+        let mut targets = vec![QualityTarget {
+            class: None,
+            aql: source.producer.map(|p| p.quality),
+            rql: source.consumer.map(|c| c.quality),
+        }];
         let judge = if source.is_standard() {
             let request = source.standard_request().map_err(invalid)?;
             let mut by_severity = Vec::new();
@@ -113,6 +134,15 @@ impl KnownPlan {
                 by_severity.push((severity, plans));
             }
             let classes = request.request.classes().to_vec();
+            let rql = request.consumer.map(|c| c.rql);
+            targets = classes
+                .iter()
+                .map(|c| QualityTarget {
+                    class: c.name.clone(),
+                    aql: Some(c.aql.quality()),
+                    rql,
+                })
+                .collect();
             let rules = ledger_rules(source, path, &by_severity, classes.len())?;
             PlanJudge::Standard(Box::new(StandardPlans {
                 kind: request.request.model().kind(),
@@ -136,6 +166,7 @@ impl KnownPlan {
             sha256: text_sha256(text),
             id: source.id.clone().unwrap_or_default(),
             revision: source.revision.clone().unwrap_or_default(),
+            targets,
             judge,
         })
     }
@@ -158,6 +189,69 @@ impl KnownPlan {
                 .find(|(s, _)| *s == severity)
                 .map(|(_, p)| p),
             PlanJudge::Counted { .. } => None,
+        }
+    }
+
+    /// What its counts count: nonconforming units, or nonconformities
+    /// (Poisson).
+    pub fn model_kind(&self) -> ModelKind {
+        match &self.judge {
+            PlanJudge::Standard(s) => s.kind,
+            PlanJudge::Counted { model, .. } => model.kind(),
+        }
+    }
+
+    /// The first sample of a row's lot, per class in the plan's order:
+    /// `(count, units)` found in the first stage's units, judged at
+    /// `severity`. An item-by-item plan's whole sample is its first
+    /// sample. `None` when the row does not show it: one cumulative count
+    /// (`judge --inspected`) past the first stage, or counts that do not
+    /// fit the plan (which `verify` reports).
+    pub fn first_samples(
+        &self,
+        severity: Option<Severity>,
+        found: &Tally,
+        inspected: &Tally,
+    ) -> Option<Vec<(u64, u64)>> {
+        let counts = found.counts();
+        let units = inspected.counts();
+        if counts.len() != units.len() {
+            return None;
+        }
+        match &self.judge {
+            PlanJudge::Counted { plan, .. } => {
+                let (k, n) = (counts.first()?, *units.first()?.first()?);
+                if plan.sequential_lines().is_some() {
+                    return Some(vec![(k.iter().sum(), n)]);
+                }
+                let n1 = plan.stages().first()?.n;
+                match k.as_slice() {
+                    // A cumulative count past the first stage.
+                    [_] if n > n1 && plan.stages().len() > 1 => None,
+                    [k1, ..] => Some(vec![(*k1, n1.min(n))]),
+                    [] => None,
+                }
+            }
+            PlanJudge::Standard(_) => {
+                let plans = self.plans_at(severity.unwrap_or(Severity::Normal))?;
+                if plans.classes.len() != counts.len() {
+                    return None;
+                }
+                plans
+                    .classes
+                    .iter()
+                    .zip(counts.iter().zip(&units))
+                    .map(|(class, (k, n))| {
+                        let n = *n.first()?;
+                        let n1 = class
+                            .answer
+                            .plan()
+                            .and_then(|p| p.stages.stages().first().map(|s| s.n))
+                            .unwrap_or(n);
+                        Some((*k.first()?, n1.min(n)))
+                    })
+                    .collect()
+            }
         }
     }
 

@@ -43,6 +43,8 @@ fn run(command: Command) -> Result<Outcome, Error> {
         Command::Rectify(args) => commands::rectify::run(args),
         Command::Standard(args) => commands::standard::run(*args),
         Command::Draw(args) => commands::draw::run(args),
+        Command::Status(args) => commands::status::run(args),
+        Command::History(args) => commands::history::run(args),
     }
 }
 

@@ -10,6 +10,7 @@ pub(crate) mod axes;
 pub(crate) mod curve_chart;
 pub(crate) mod decision;
 pub(crate) mod guides;
+pub(crate) mod history;
 pub(crate) mod legend;
 pub(crate) mod marks;
 pub(crate) mod oc;

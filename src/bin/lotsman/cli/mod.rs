@@ -8,12 +8,14 @@ pub mod design;
 pub mod draw;
 pub mod evaluate;
 pub mod groups;
+pub mod history;
 pub mod judge;
 pub mod new;
 pub mod qualities;
 pub mod rectify;
 pub mod sheet;
 pub mod standard;
+pub mod status;
 pub mod tradeoff;
 pub mod values;
 pub mod verify;
@@ -56,6 +58,12 @@ pub enum Command {
     /// List the units of a lot to inspect, drawn at random from a seed that reproduces
     /// them.
     Draw(draw::DrawArgs),
+    /// Where a supplier stands after its ledger's lots: the next lot's severity and plan,
+    /// the switching rules' counters, the process average.
+    Status(status::StatusArgs),
+    /// Each lot of a ledger on a control chart (p- or u-chart of first samples) with the
+    /// running process average: a table, and a PDF or SVG chart.
+    History(history::HistoryArgs),
 }
 
 impl Cli {

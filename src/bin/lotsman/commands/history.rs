@@ -1,0 +1,55 @@
+//! `history LOG.csv`: each lot's first sample against its control limits
+//! and the running process average, as a table and a chart.
+
+use lotsman::{
+    Error, HistoryFormat, HistoryReport, InputError, KnownPlan, Ledger, Outcome, ledger_history,
+    render_history, write_atomic,
+};
+
+use crate::cli::history::HistoryArgs;
+use crate::out::{print_report, say, shown};
+
+pub fn run(args: HistoryArgs) -> Result<Outcome, Error> {
+    let chart = match &args.output.output {
+        None => None,
+        Some(path) => {
+            let ext = path
+                .extension()
+                .and_then(|e| e.to_str())
+                .map(str::to_ascii_lowercase);
+            let format = match ext.as_deref() {
+                Some("pdf") => HistoryFormat::Pdf,
+                Some("svg") => HistoryFormat::Svg,
+                _ => {
+                    return Err(InputError::Inconsistent(format!(
+                        "--output {}: the chart is drawn as a PDF or an SVG; name the file chart.pdf or chart.svg",
+                        shown(path)
+                    ))
+                    .into());
+                }
+            };
+            Some((path, format))
+        }
+    };
+    let plans = args
+        .plan
+        .iter()
+        .map(|p| KnownPlan::load(p))
+        .collect::<Result<Vec<_>, _>>()?;
+    let ledger = Ledger::read(&args.ledger)?;
+    let history = ledger_history(&ledger, &plans)?;
+    if let Some((path, format)) = chart {
+        let title = format!("Lot history: {}", shown(&args.ledger));
+        let bytes = render_history(&history, &title, format)?;
+        write_atomic(path, &bytes, args.output.overwrite())?;
+        say(format_args!("wrote {}", shown(path)));
+    }
+    print_report(
+        &HistoryReport {
+            ledger: args.ledger,
+            history,
+        },
+        args.report.format.into(),
+    )?;
+    Ok(Outcome::Ok)
+}
