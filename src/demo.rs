@@ -11,6 +11,7 @@ use std::path::Path;
 
 use crate::batch::evaluate_standard;
 use crate::budget::Work;
+use crate::demo_ledger::{DEMO_LEDGER_FILES, DEMO_LOTS, demo_ledger};
 use crate::fs::normalise_folder;
 use crate::fs::{Overwrite, write_set};
 use crate::input::InputError;
@@ -109,6 +110,13 @@ pub fn run_demo(dir: &Path, overwrite: Overwrite) -> Result<Vec<DemoRow>, Error>
             (name.replace(".yaml", "-oc.csv"), csv),
             (name.replace(".yaml", ".pdf"), sheet.pdf),
         ];
+        if source.is_standard() {
+            let ledger = demo_ledger(&source, text, name)?;
+            mine.push((DEMO_LOTS.0.to_string(), DEMO_LOTS.1.as_bytes().to_vec()));
+            for (file, bytes) in DEMO_LEDGER_FILES.iter().zip(ledger) {
+                mine.push((file.to_string(), bytes));
+            }
+        }
         let (readings_name, readings, _) = DEMO_READINGS;
         if row.judged.is_some() {
             mine.push((readings_name.to_string(), readings.as_bytes().to_vec()));

@@ -69,6 +69,7 @@ mod print;
 // 7, work over many sources, and the demo.
 mod batch;
 mod demo;
+mod demo_ledger;
 
 pub use batch::{
     BatchError, SourceFile, check_sheet_entry, evaluate_source, evaluate_text, expand_paths,
@@ -76,6 +77,7 @@ pub use batch::{
 };
 pub use budget::{Limit, MEMORY_BUDGET, OverBudget, TIME_BUDGET, Work};
 pub use demo::{DEMO_PLANS, DEMO_READINGS, run_demo};
+pub use demo_ledger::{DEMO_LEDGER_FILES, DEMO_LOTS};
 pub use design::{
     AOQL_PLAN_LTPD_RISK, Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design,
     DesignError, DesignRequest, Input, InspectionCost, MAX_AOQL_ACCEPTANCE_NUMBER,

@@ -112,20 +112,43 @@ pub fn control_limits(centre: f64, n: u64, per_unit: bool) -> (f64, f64) {
     ((centre - half).max(0.0), centre + half)
 }
 
-/// The history of `ledger`, its rows judged by `plans`, for the first
-/// class of the plan of the last lot.
+/// The history of `ledger`, its rows judged by `plans`, for the class
+/// named `class` of the plan of the last lot (`None`: its first class).
 ///
 /// # Errors
 /// As [`ledger_status`]: without a plan source, or over a ledger that does
-/// not verify.
-pub fn ledger_history(ledger: &Ledger, plans: &[KnownPlan]) -> Result<History, LedgerError> {
+/// not verify; [`LedgerError::Refused`] for a class the plan does not
+/// have, naming those it has.
+pub fn ledger_history(
+    ledger: &Ledger,
+    plans: &[KnownPlan],
+    class: Option<&str>,
+) -> Result<History, LedgerError> {
     let status = ledger_status(ledger, plans)?;
     let per_unit = status.plan.model_kind() == ModelKind::Poisson;
-    let target = status.plan.targets.first();
+    let targets = &status.plan.targets;
+    let index = match class {
+        None => 0,
+        Some(name) => targets
+            .iter()
+            .position(|t| t.class.as_deref() == Some(name))
+            .ok_or_else(|| LedgerError::Refused {
+                path: ledger.path.clone(),
+                message: format!(
+                    "--class {name}: the plan has no such class; its classes are {}",
+                    targets
+                        .iter()
+                        .filter_map(|t| t.class.as_deref())
+                        .collect::<Vec<_>>()
+                        .join(", ")
+                ),
+            })?,
+    };
+    let target = targets.get(index);
     let samples = lot_samples(ledger, plans);
     let firsts: Vec<Option<(u64, u64)>> = samples
         .iter()
-        .map(|s| s.first.as_ref().and_then(|f| f.first().copied()))
+        .map(|s| s.first.as_ref().and_then(|f| f.get(index).copied()))
         .collect();
     let (all_k, all_n) = firsts
         .iter()

@@ -49,6 +49,7 @@ const LAYERS: &[(&str, u8, &str)] = &[
     ("src/print/", 6, "print"),
     ("src/batch/", 7, "orchestration"),
     ("src/demo.rs", 7, "orchestration"),
+    ("src/demo_ledger.rs", 7, "orchestration"),
     // The crate root re-exports every layer; nothing imports it.
     ("src/lib.rs", 7, "orchestration"),
     ("src/bin/", 8, "binary"),

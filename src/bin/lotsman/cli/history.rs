@@ -20,6 +20,9 @@ pub struct HistoryArgs {
     /// A plan source the ledger's rows were judged by, each revision once (repeat)
     #[arg(long, value_name = "PLAN.yaml")]
     pub plan: Vec<PathBuf>,
+    /// The class of defects to chart, by its name in the plan source (default: its first class)
+    #[arg(long, value_name = "NAME")]
+    pub class: Option<String>,
     #[command(flatten)]
     pub output: OutputFlags,
     #[command(flatten)]

@@ -37,7 +37,7 @@ pub fn run(args: HistoryArgs) -> Result<Outcome, Error> {
         .map(|p| KnownPlan::load(p))
         .collect::<Result<Vec<_>, _>>()?;
     let ledger = Ledger::read(&args.ledger)?;
-    let history = ledger_history(&ledger, &plans)?;
+    let history = ledger_history(&ledger, &plans, args.class.as_deref())?;
     if let Some((path, format)) = chart {
         let title = format!("Lot history: {}", shown(&args.ledger));
         let bytes = render_history(&history, &title, format)?;
