@@ -40,13 +40,25 @@ use crate::fs::{append_synced, open_locked_append};
 /// the lot is refused; `decide`'s own error.
 pub fn append_lot<T, E, F>(path: &Path, decide: F) -> Result<(Option<LedgerRow>, T), E>
 where
-    F: FnOnce(&Ledger) -> Result<(Option<LotEntry>, T), E>,
+    F: Fn(&Ledger) -> Result<(Option<LotEntry>, T), E>,
     E: From<LedgerError>,
 {
     let io = |source| LedgerError::Io {
         path: path.to_path_buf(),
         source,
     };
+    if !path.exists() {
+        // A new ledger: the lot is tried on an empty ledger before the file
+        // is made, so that a refused or undecided lot leaves no empty file
+        // behind. Should another shell create the file meanwhile, the lot is
+        // decided again below, under the lock, on what the file then holds.
+        let empty = Ledger::parse(path, &[])?;
+        let (entry, value) = decide(&empty)?;
+        match entry {
+            None => return Ok((None, value)),
+            Some(entry) => check_lot(&empty, &entry, path)?,
+        }
+    }
     let mut file = open_locked_append(path).map_err(io)?;
     let ledger = read_locked(&mut file, path)?;
     if let Some(torn) = &ledger.torn {
@@ -70,29 +82,7 @@ where
     let Some(entry) = entry else {
         return Ok((None, value));
     };
-    let refuse = |message: String| LedgerError::Refused {
-        path: path.to_path_buf(),
-        message,
-    };
-    entry.check_text().map_err(refuse)?;
-    let earlier = ledger.rows.iter().find(|l| l.row.entry.lot == entry.lot);
-    match (earlier, entry.resubmitted) {
-        (Some(l), false) => {
-            return Err(refuse(format!(
-                "the lot '{}' is already recorded (seq {}, line {}); a resubmitted lot is recorded with --resubmitted, another lot needs its own identifier",
-                entry.lot, l.row.seq, l.line
-            ))
-            .into());
-        }
-        (None, true) => {
-            return Err(refuse(format!(
-                "the lot '{}' is marked resubmitted but the ledger does not record it; judge its first submission without --resubmitted",
-                entry.lot
-            ))
-            .into());
-        }
-        _ => {}
-    }
+    check_lot(&ledger, &entry, path)?;
     let seq = ledger.rows.len() as u64 + 1;
     let prev = ledger
         .last()
@@ -107,6 +97,29 @@ where
     bytes.extend_from_slice(&row_line(&row).map_err(io)?);
     append_synced(&mut file, &bytes).map_err(io)?;
     Ok((Some(row), value))
+}
+
+/// Refuses `entry` when its text cannot stand in a row, its lot is
+/// already in `ledger` and it is not marked resubmitted, or it is marked
+/// resubmitted without an earlier row.
+fn check_lot(ledger: &Ledger, entry: &LotEntry, path: &Path) -> Result<(), LedgerError> {
+    let refuse = |message: String| LedgerError::Refused {
+        path: path.to_path_buf(),
+        message,
+    };
+    entry.check_text().map_err(refuse)?;
+    let earlier = ledger.rows.iter().find(|l| l.row.entry.lot == entry.lot);
+    match (earlier, entry.resubmitted) {
+        (Some(l), false) => Err(refuse(format!(
+            "the lot '{}' is already recorded (seq {}, line {}); a resubmitted lot is recorded with --resubmitted, another lot needs its own identifier",
+            entry.lot, l.row.seq, l.line
+        ))),
+        (None, true) => Err(refuse(format!(
+            "the lot '{}' is marked resubmitted but the ledger does not record it; judge its first submission without --resubmitted",
+            entry.lot
+        ))),
+        _ => Ok(()),
+    }
 }
 
 /// The ledger as the locked file holds it.

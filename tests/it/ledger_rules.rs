@@ -4,6 +4,7 @@
 //! of code letter K at AQL 1.0 (Tables II-A, II-B, II-C): normal n = 125,
 //! Ac 3, Re 4; tightened n = 125, Ac 2, Re 3; reduced n = 50, Ac 1, Re 4.
 
+use crate::common::lotsman;
 use crate::ledger_fixture::{record, standard_source, verify};
 
 /// Records `lots` (the count found in each) and returns the severity each
@@ -100,4 +101,42 @@ fn a_resubmitted_lot_does_not_move_the_state() {
     assert_eq!(again["decision"], "reject");
     assert_eq!(severities(dir.path(), 2, &[0]), ["normal"]);
     assert_eq!(verify(dir.path(), &["s.yaml"]).0, 0);
+}
+
+/// A first lot that is refused, or not decided yet, makes no ledger file:
+/// nothing is half-written.
+#[test]
+fn a_refused_or_undecided_first_lot_leaves_no_file() {
+    let dir = tempfile::tempdir().unwrap();
+    standard_source(dir.path(), &["--aql", "1.0", "--scheme", "double"]);
+    let judge = |extra: &[&str]| {
+        lotsman()
+            .current_dir(dir.path())
+            .args([
+                "judge",
+                "s.yaml",
+                "--record",
+                "log.csv",
+                "--date",
+                "2024-03-15",
+            ])
+            .args(extra)
+            .assert()
+            .get_output()
+            .status
+            .code()
+    };
+    // Marked resubmitted, but the ledger does not record the lot: refused.
+    let code = judge(&["--lot", "L1", "--found", "0", "--resubmitted"]);
+    assert_eq!(code, Some(2));
+    assert!(!dir.path().join("log.csv").exists(), "refused");
+    // Double plan K at AQL 1.0 (Table III-A: 80 units, Ac 1 Re 4): a count
+    // of 2 on the first sample goes on to the second: not recorded.
+    let code = judge(&["--lot", "L1", "--found", "2"]);
+    assert_eq!(code, Some(0));
+    assert!(!dir.path().join("log.csv").exists(), "undecided");
+    // Decided: the file is made with its header and the row.
+    assert_eq!(judge(&["--lot", "L1", "--found", "0"]), Some(0));
+    let text = std::fs::read_to_string(dir.path().join("log.csv")).unwrap();
+    assert_eq!(text.lines().count(), 2, "{text}");
 }
