@@ -1,9 +1,10 @@
-//! Speed of the ledger's audit replay (issue 17: `verify` over a ledger
-//! of 100,000 lots in at most 1 s): the ledger is generated in the setup
+//! Speed of the ledger's audit replay and status (issue 17: `verify` and
+//! `status` over a ledger of 100,000 lots in at most 1 s each): the ledger is generated in the setup
 //! by the library (a standard-indexed source (the `standard` template: three classes, normal and tightened), lots accepted
 //! and rejected by a fixed pattern, each at the severity its history
 //! requires), then read strictly and replayed against its source: chain,
-//! plan revision, severity and decision of every row.
+//! plan revision, severity and decision of every row; the status replays it
+//! the same way, then estimates the process average of each class.
 
 // A bench may stop at an unexpected error: unwrap, expect and panic are
 // allowed here (the `[lints]` table of Cargo.toml denies them elsewhere).
@@ -15,7 +16,7 @@ use std::path::Path;
 use criterion::{Criterion, criterion_group, criterion_main};
 use lotsman::{
     GENESIS, KnownPlan, Ledger, LedgerRow, LotDate, LotEntry, PlanSource, SwitchingState,
-    ledger_header, replay, row_line, template,
+    ledger_header, ledger_status, replay, row_line, template,
 };
 
 const LOTS: usize = 100_000;
@@ -78,6 +79,12 @@ fn bench(c: &mut Criterion) {
         b.iter(|| {
             let ledger = Ledger::parse(Path::new("log.csv"), black_box(&bytes)).unwrap();
             replay(&ledger, &plans)
+        });
+    });
+    c.bench_function("status of a ledger of 100,000 lots", |b| {
+        b.iter(|| {
+            let ledger = Ledger::parse(Path::new("log.csv"), black_box(&bytes)).unwrap();
+            ledger_status(&ledger, &plans).unwrap()
         });
     });
 }

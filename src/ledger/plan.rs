@@ -323,8 +323,17 @@ impl KnownPlan {
                 };
                 self.decide_counts(&counts, cumulative)
             }
-            PlanJudge::Standard(_) => {
-                self.decide_classes(severity.unwrap_or(Severity::Normal), &found.found_args())
+            PlanJudge::Standard(s) => {
+                let severity = severity.unwrap_or(Severity::Normal);
+                // A row written by the ledger names the classes in the
+                // plan's order: its counts are taken as they stand. Any
+                // other cell is read as `--found` reads it, for its words.
+                let names = found.classes().iter().map(|(n, _)| n.as_deref());
+                if names.eq(s.classes.iter().map(|c| c.name.as_deref())) {
+                    self.decide_class_counts(s, severity, found.counts())
+                } else {
+                    self.decide_classes(severity, &found.found_args())
+                }
             }
         }
     }
@@ -341,43 +350,54 @@ impl KnownPlan {
                 Err("a severity applies only to a standard-indexed plan (scheme: standard)".into())
             }
             PlanJudge::Standard(s) => {
-                let plans = self.plans_at(severity).ok_or_else(|| {
-                    "the source leaves reduced inspection out (no_reduced: true), so it has no reduced plan".to_string()
-                })?;
                 let texts: Vec<&str> = found.iter().map(String::as_str).collect();
                 let counts = parse_class_counts(&texts, &s.classes).map_err(|e| e.to_string())?;
-                let verdict = judge_classes(plans, s.kind, &counts).map_err(|e| e.to_string())?;
-                let named = s.classes.iter().all(|c| c.name.is_some());
-                let per_class = |values: Vec<Vec<u64>>| {
-                    if named {
-                        Tally::named(
-                            s.classes
-                                .iter()
-                                .map(|c| c.name.clone().unwrap_or_default())
-                                .zip(values)
-                                .collect(),
-                        )
-                    } else {
-                        Tally::single(values.concat())
-                    }
-                };
-                let inspected: Vec<Vec<u64>> = verdict
-                    .classes
-                    .iter()
-                    .map(|c| vec![c.judgement.inspected])
-                    .collect();
-                let lot = lot_result(&verdict, counts.len());
-                Ok(Decided {
-                    decision: verdict.decision,
-                    found: per_class(counts),
-                    inspected: per_class(inspected),
-                    code_letter: Some(plans.code_letter.to_string()),
-                    lot,
-                    judgement: None,
-                    verdict: Some(verdict),
-                })
+                self.decide_class_counts(s, severity, counts)
             }
         }
+    }
+
+    /// Decides a lot of the standard-indexed source `s` at `severity`
+    /// from the counts of each class, in the plan's order.
+    fn decide_class_counts(
+        &self,
+        s: &StandardPlans,
+        severity: Severity,
+        counts: Vec<Vec<u64>>,
+    ) -> Result<Decided, String> {
+        let plans = self.plans_at(severity).ok_or_else(|| {
+                    "the source leaves reduced inspection out (no_reduced: true), so it has no reduced plan".to_string()
+                })?;
+        let verdict = judge_classes(plans, s.kind, &counts).map_err(|e| e.to_string())?;
+        let named = s.classes.iter().all(|c| c.name.is_some());
+        let per_class = |values: Vec<Vec<u64>>| {
+            if named {
+                Tally::named(
+                    s.classes
+                        .iter()
+                        .map(|c| c.name.clone().unwrap_or_default())
+                        .zip(values)
+                        .collect(),
+                )
+            } else {
+                Tally::single(values.concat())
+            }
+        };
+        let inspected: Vec<Vec<u64>> = verdict
+            .classes
+            .iter()
+            .map(|c| vec![c.judgement.inspected])
+            .collect();
+        let lot = lot_result(&verdict, counts.len());
+        Ok(Decided {
+            decision: verdict.decision,
+            found: per_class(counts),
+            inspected: per_class(inspected),
+            code_letter: Some(plans.code_letter.to_string()),
+            lot,
+            judgement: None,
+            verdict: Some(verdict),
+        })
     }
 }
 

@@ -6,6 +6,7 @@
 use std::path::{Path, PathBuf};
 
 use super::error::LedgerError;
+use super::hash::chain_hash;
 use super::row::{COLUMNS, LedgerRow, ledger_header};
 
 /// The most bytes a ledger may have: about three million lots.
@@ -18,6 +19,10 @@ pub struct LedgerLine {
     pub line: u64,
     /// The row.
     pub row: LedgerRow,
+    /// Whether the row's `hash` is the one its cells give, as read
+    /// ([`chain_hash`](super::chain_hash) of `prev_hash` and the cells
+    /// from `format` to `resubmitted`).
+    pub sealed: bool,
 }
 
 /// A last line cut short while it was written.
@@ -91,21 +96,46 @@ impl Ledger {
                     .into(),
             }
         })?;
-        let mut lines = text.split('\n');
-        if lines.next().map(|h| h.strip_suffix('\r').unwrap_or(h)) != Some(header.as_str()) {
+        let (first, body) = text.split_once('\n').unwrap_or((text, ""));
+        if first.strip_suffix('\r').unwrap_or(first) != header {
             return Err(not_ledger());
         }
         let complete = text.ends_with('\n');
-        let lines: Vec<&str> = lines.collect();
-        // After a final line break, split gives one empty piece: no line.
-        let count = if complete {
-            lines.len() - 1
-        } else {
-            lines.len()
-        };
-        for (i, line) in lines.iter().take(count).enumerate() {
-            let number = i as u64 + 2;
-            let last = i + 1 == count;
+        // Every row is one line (the writer refuses line breaks in a
+        // field), so a blank line is not part of any row: the csv crate
+        // would skip it, the ledger refuses it.
+        if let Some(at) = blank_line(body) {
+            return Err(LedgerError::Row {
+                path: path.to_path_buf(),
+                line: at,
+                found: 0,
+                expected: COLUMNS.len(),
+            });
+        }
+        // One reader for the whole file: building a csv reader per line
+        // cost half of a replay's time (benches/ledger.rs).
+        let mut reader = csv::ReaderBuilder::new()
+            .has_headers(false)
+            .flexible(true)
+            .from_reader(body.as_bytes());
+        let mut record = csv::StringRecord::new();
+        loop {
+            // The csv crate counts lines from 1 after the header.
+            let number = reader.position().line() + 1;
+            match reader.read_record(&mut record) {
+                Ok(true) => {}
+                Ok(false) => break,
+                Err(_) => {
+                    return Err(LedgerError::Field {
+                        path: path.to_path_buf(),
+                        line: number,
+                        column: "format",
+                        message: "the line is not one CSV row (a quote is not closed)".into(),
+                    });
+                }
+            }
+            let number = record.position().map_or(number, |p| p.line() + 1);
+            let last = reader.position().byte() >= body.len() as u64;
             if !complete && last {
                 ledger.torn = Some(TornLine {
                     line: number,
@@ -113,31 +143,41 @@ impl Ledger {
                 });
                 break;
             }
-            let cells = cells(path, number, line)?;
-            if cells.len() < COLUMNS.len() && last {
+            if record.len() < COLUMNS.len() && last {
                 ledger.torn = Some(TornLine {
                     line: number,
-                    reason: format!("it has {} of a row's {} fields", cells.len(), COLUMNS.len()),
+                    reason: format!(
+                        "it has {} of a row's {} fields",
+                        record.len(),
+                        COLUMNS.len()
+                    ),
                 });
                 break;
             }
-            if cells.len() != COLUMNS.len() {
+            if record.len() != COLUMNS.len() {
                 return Err(LedgerError::Row {
                     path: path.to_path_buf(),
                     line: number,
-                    found: cells.len(),
+                    found: record.len(),
                     expected: COLUMNS.len(),
                 });
             }
-            let refs: Vec<&str> = cells.iter().map(String::as_str).collect();
+            let cells: Vec<&str> = record.iter().collect();
             let row =
-                LedgerRow::from_fields(&refs).map_err(|(column, message)| LedgerError::Field {
+                LedgerRow::from_fields(&cells).map_err(|(column, message)| LedgerError::Field {
                     path: path.to_path_buf(),
                     line: number,
                     column,
                     message,
                 })?;
-            ledger.rows.push(LedgerLine { line: number, row });
+            // The hash is taken over the cells as written, which the strict
+            // reading above holds to the one text each value has.
+            let sealed = chain_hash(&row.prev_hash, &cells[..COLUMNS.len() - 2]) == row.hash;
+            ledger.rows.push(LedgerLine {
+                line: number,
+                row,
+                sealed,
+            });
         }
         Ok(ledger)
     }
@@ -148,22 +188,20 @@ impl Ledger {
     }
 }
 
-/// The cells of one line, read by the csv crate (quotes undone).
-fn cells(path: &Path, line: u64, text: &str) -> Result<Vec<String>, LedgerError> {
-    let text = text.strip_suffix('\r').unwrap_or(text);
-    let mut reader = csv::ReaderBuilder::new()
-        .has_headers(false)
-        .flexible(true)
-        .from_reader(text.as_bytes());
-    let mut record = csv::StringRecord::new();
-    match reader.read_record(&mut record) {
-        Ok(true) => Ok(record.iter().map(str::to_string).collect()),
-        Ok(false) => Ok(Vec::new()),
-        Err(_) => Err(LedgerError::Field {
-            path: path.to_path_buf(),
-            line,
-            column: "format",
-            message: "the line is not one CSV row (a quote is not closed)".into(),
-        }),
+/// The line (counted from 1, the header being line 1) of the first
+/// blank line in `body`, the text after the header. The piece after a
+/// last line break is the file's end, not a line.
+fn blank_line(body: &str) -> Option<u64> {
+    let mut line = 2;
+    let mut start = 0;
+    for (i, b) in body.bytes().enumerate() {
+        if b == b'\n' {
+            if matches!(&body.as_bytes()[start..i], b"" | b"\r") {
+                return Some(line);
+            }
+            line += 1;
+            start = i + 1;
+        }
     }
+    None
 }

@@ -116,3 +116,27 @@ fn a_plan_revision_not_given_is_caught() {
     assert_eq!(code, 1);
     assert!(out.contains("line 2 (seq 1), plan_sha256:"), "{out}");
 }
+
+#[test]
+fn a_blank_line_is_refused_with_its_line_and_windows_line_ends_still_verify() {
+    let dir = tempfile::tempdir().unwrap();
+    let mut lines = five_lots(dir.path());
+    // Saved again with CR LF line ends (as some editors do): the rows and
+    // their hashes are unchanged.
+    let crlf = lines.join("\r\n") + "\r\n";
+    fs::write(dir.path().join("log.csv"), crlf).unwrap();
+    assert_eq!(verify(dir.path(), &["s.yaml"]).0, 0);
+    // A blank line between rows 2 and 3 is no row: refused, never skipped.
+    lines.insert(3, String::new());
+    write(dir.path(), &lines, "\n");
+    let err = lotsman()
+        .current_dir(dir.path())
+        .args(["verify", "log.csv", "--plan", "s.yaml"])
+        .assert()
+        .code(2)
+        .get_output()
+        .stderr
+        .clone();
+    let text = String::from_utf8(err).unwrap();
+    assert!(text.contains("line 4"), "{text}");
+}

@@ -96,26 +96,31 @@ pub fn parse_class_counts(
     found: &[&str],
     classes: &[ClassAql],
 ) -> Result<Vec<Vec<u64>>, InputError> {
-    let names: Vec<String> = classes.iter().filter_map(|c| c.name.clone()).collect();
-    let example = names
-        .iter()
-        .map(|n| format!("--found {n}=K"))
-        .collect::<Vec<_>>()
-        .join(" ");
+    // The names and the example are written only into a refusal: a
+    // ledger's replay calls this once per row.
+    let names = || -> Vec<String> { classes.iter().filter_map(|c| c.name.clone()).collect() };
+    let example = || {
+        names()
+            .iter()
+            .map(|n| format!("--found {n}=K"))
+            .collect::<Vec<_>>()
+            .join(" ")
+    };
     if found.is_empty() {
-        return Err(InputError::Inconsistent(if names.is_empty() {
+        return Err(InputError::Inconsistent(if names().is_empty() {
             "give the count found with --found K (once per stage)".to_string()
         } else {
-            format!("give the count found in each class: {example}")
+            format!("give the count found in each class: {}", example())
         }));
     }
     let named = found.iter().any(|f| f.contains('='));
     if !named {
         if classes.len() != 1 {
             return Err(InputError::Inconsistent(format!(
-                "this source has the classes {}: give the count of each by its name, {example} (for double and multiple plans one count per stage, e.g. --found {}=1,3)",
-                names.join(", "),
-                names.first().map_or("major", String::as_str)
+                "this source has the classes {}: give the count of each by its name, {} (for double and multiple plans one count per stage, e.g. --found {}=1,3)",
+                names().join(", "),
+                example(),
+                names().first().map_or("major", String::as_str)
             )));
         }
         let mut counts = Vec::new();
@@ -128,7 +133,8 @@ pub fn parse_class_counts(
     for f in found {
         let Some((name, list)) = f.split_once('=') else {
             return Err(InputError::Inconsistent(format!(
-                "--found {f} gives no class: give every count as CLASS=K, e.g. {example}"
+                "--found {f} gives no class: give every count as CLASS=K, e.g. {}",
+                example()
             )));
         };
         let name = name.trim();
@@ -137,14 +143,14 @@ pub fn parse_class_counts(
                 .as_deref()
                 .is_some_and(|n| n.eq_ignore_ascii_case(name))
         }) else {
-            return Err(InputError::Inconsistent(if names.is_empty() {
+            return Err(InputError::Inconsistent(if names().is_empty() {
                 format!(
                     "--found {f} names the class '{name}', and this source has one AQL and no classes: give the counts alone, --found K"
                 )
             } else {
                 format!(
                     "--found {f} names the class '{name}', which this source does not have; its classes are {}",
-                    names.join(", ")
+                    names().join(", ")
                 )
             }));
         };
