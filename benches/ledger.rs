@@ -58,6 +58,7 @@ fn ledger_bytes(known: &KnownPlan) -> Vec<u8> {
             note: String::new(),
             seed: None,
             resubmitted: false,
+            measured: None,
         };
         state = rules.step(&state_now, &decided.lot.unwrap()).unwrap();
         let row: LedgerRow = entry.chained(i as u64 + 1, &prev);

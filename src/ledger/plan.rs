@@ -20,13 +20,17 @@
 use std::path::{Path, PathBuf};
 
 use crate::model::{Model, ModelKind};
-use crate::plan::{Decision, Judgement, StagedPlan, judge, judge_cumulative};
+use crate::plan::{
+    Decision, Judgement, StagedPlan, VariablesPlan, decide_from_statistics, judge, judge_cumulative,
+};
 use crate::source::{Error, PlanSource, SourceError, parse_class_counts};
 use crate::standard::{
     ClassAql, ClassPlans, ClassScheme, ClassVerdict, LotResult, Severity, SwitchingRules,
     judge_classes, text_sha256,
 };
 
+use super::measured::Measured;
+use super::row::LotEntry;
 use super::tally::Tally;
 
 /// A plan source a ledger's rows may name, ready to decide their lots.
@@ -63,6 +67,7 @@ pub struct QualityTarget {
 enum PlanJudge {
     Standard(Box<StandardPlans>),
     Counted { model: Model, plan: StagedPlan },
+    Variables(Box<VariablesPlan>),
 }
 
 #[derive(Clone, Debug)]
@@ -109,8 +114,7 @@ impl KnownPlan {
     ///
     /// # Errors
     /// [`SourceError::Invalid`] for a source without a recorded plan, or
-    /// whose plans cannot be read; a variables plan (the ledger records
-    /// counts, not measurements).
+    /// whose plans cannot be read.
     pub fn from_source(path: &Path, text: &str, source: &PlanSource) -> Result<KnownPlan, Error> {
         let invalid = |e| SourceError::Invalid {
             path: path.to_path_buf(),
@@ -151,11 +155,9 @@ impl KnownPlan {
                 rules,
             }))
         } else if source.is_variables() {
-            return Err(crate::input::InputError::Inconsistent(format!(
-                "{}: a variables plan decides from measurements, which the ledger does not record; judge it without --record",
-                path.display()
-            ))
-            .into());
+            let request = source.variables_request().map_err(invalid)?;
+            let plan = source.recorded_variables_plan(&request).map_err(invalid)?;
+            PlanJudge::Variables(Box::new(plan))
         } else {
             let model = source.staged_model().map_err(invalid)?;
             let plan = source.recorded_plan(&model).map_err(invalid)?;
@@ -176,7 +178,7 @@ impl KnownPlan {
     pub fn rules(&self) -> Option<&SwitchingRules> {
         match &self.judge {
             PlanJudge::Standard(s) => Some(&s.rules),
-            PlanJudge::Counted { .. } => None,
+            PlanJudge::Counted { .. } | PlanJudge::Variables(_) => None,
         }
     }
 
@@ -188,16 +190,26 @@ impl KnownPlan {
                 .iter()
                 .find(|(s, _)| *s == severity)
                 .map(|(_, p)| p),
-            PlanJudge::Counted { .. } => None,
+            PlanJudge::Counted { .. } | PlanJudge::Variables(_) => None,
         }
     }
 
     /// What its counts count: nonconforming units, or nonconformities
-    /// (Poisson).
+    /// (Poisson). A variables lot's count is of readings beyond a limit:
+    /// nonconforming units of a sample, read as binomial.
     pub fn model_kind(&self) -> ModelKind {
         match &self.judge {
             PlanJudge::Standard(s) => s.kind,
             PlanJudge::Counted { model, .. } => model.kind(),
+            PlanJudge::Variables(_) => ModelKind::Binomial,
+        }
+    }
+
+    /// The recorded plan of a variables source.
+    pub fn variables_plan(&self) -> Option<&VariablesPlan> {
+        match &self.judge {
+            PlanJudge::Variables(plan) => Some(plan),
+            PlanJudge::Standard(_) | PlanJudge::Counted { .. } => None,
         }
     }
 
@@ -219,6 +231,10 @@ impl KnownPlan {
             return None;
         }
         match &self.judge {
+            PlanJudge::Variables(_) => {
+                let (k, n) = (*counts.first()?.first()?, *units.first()?.first()?);
+                Some(vec![(k, n)])
+            }
             PlanJudge::Counted { plan, .. } => {
                 let (k, n) = (counts.first()?, *units.first()?.first()?);
                 if plan.sequential_lines().is_some() {
@@ -259,7 +275,7 @@ impl KnownPlan {
     pub fn counted_plan(&self) -> Option<(&StagedPlan, &Model)> {
         match &self.judge {
             PlanJudge::Counted { model, plan } => Some((plan, model)),
-            PlanJudge::Standard(_) => None,
+            PlanJudge::Standard(_) | PlanJudge::Variables(_) => None,
         }
     }
 
@@ -275,11 +291,19 @@ impl KnownPlan {
         counts: &[u64],
         cumulative: Option<u64>,
     ) -> Result<Decided, String> {
-        let PlanJudge::Counted { model, plan } = &self.judge else {
-            return Err(
-                "a standard-indexed plan takes the counts of each class (--found CLASS=K,K,..)"
-                    .into(),
-            );
+        let (model, plan) = match &self.judge {
+            PlanJudge::Counted { model, plan } => (model, plan),
+            PlanJudge::Standard(_) => {
+                return Err(
+                    "a standard-indexed plan takes the counts of each class (--found CLASS=K,K,..)"
+                        .into(),
+                );
+            }
+            PlanJudge::Variables(_) => {
+                return Err(
+                    "a variables plan decides from the sample's measurements (--measurements FILE), not from counts".into(),
+                );
+            }
         };
         let judgement = match (cumulative, counts) {
             (Some(inspected), [k]) => judge_cumulative(plan, model, inspected, *k),
@@ -300,21 +324,28 @@ impl KnownPlan {
         })
     }
 
-    /// Decides a row's lot again from its `found` and `inspected` cells:
-    /// a plan without classes reads one count on a plan of several stages
-    /// as the cumulative count at `inspected` units (see the row's
-    /// columns); a standard-indexed source judges at `severity`.
+    /// Decides a row's lot again from its cells: a plan without classes
+    /// reads one count on a plan of several stages as the cumulative count
+    /// at `inspected` units (see the row's columns); a standard-indexed
+    /// source judges at the row's severity; a variables plan decides from
+    /// the row's mean and standard deviation of its `inspected` readings.
     ///
     /// # Errors
-    /// As [`KnownPlan::decide_counts`] and [`KnownPlan::decide_classes`].
-    pub fn decide_row(
-        &self,
-        severity: Option<Severity>,
-        found: &Tally,
-        inspected: &Tally,
-    ) -> Result<Decided, String> {
-        match &self.judge {
-            PlanJudge::Counted { plan, .. } => {
+    /// As [`KnownPlan::decide_counts`] and [`KnownPlan::decide_classes`];
+    /// a variables row without its statistics, or an attributes row with
+    /// them.
+    pub fn decide_row(&self, e: &LotEntry) -> Result<Decided, String> {
+        let (found, inspected) = (&e.found, &e.inspected);
+        match (&self.judge, &e.measured) {
+            (PlanJudge::Variables(plan), Some(m)) => decide_measured(plan, e, m),
+            (PlanJudge::Variables(_), None) => {
+                Err("the row has no mean and sd, and a variables plan decides from them".into())
+            }
+            (_, Some(_)) => Err(
+                "the row has a mean and sd, and this plan decides from counts, not measurements"
+                    .into(),
+            ),
+            (PlanJudge::Counted { plan, .. }, None) => {
                 let counts = found.counts().concat();
                 let units = inspected.counts().concat();
                 let cumulative = match (counts.as_slice(), units.as_slice()) {
@@ -323,8 +354,8 @@ impl KnownPlan {
                 };
                 self.decide_counts(&counts, cumulative)
             }
-            PlanJudge::Standard(s) => {
-                let severity = severity.unwrap_or(Severity::Normal);
+            (PlanJudge::Standard(s), None) => {
+                let severity = e.severity.unwrap_or(Severity::Normal);
                 // A row written by the ledger names the classes in the
                 // plan's order: its counts are taken as they stand. Any
                 // other cell is read as `--found` reads it, for its words.
@@ -346,7 +377,7 @@ impl KnownPlan {
     /// severity has no plan, or this is not a standard-indexed source.
     pub fn decide_classes(&self, severity: Severity, found: &[String]) -> Result<Decided, String> {
         match &self.judge {
-            PlanJudge::Counted { .. } => {
+            PlanJudge::Counted { .. } | PlanJudge::Variables(_) => {
                 Err("a severity applies only to a standard-indexed plan (scheme: standard)".into())
             }
             PlanJudge::Standard(s) => {
@@ -399,6 +430,40 @@ impl KnownPlan {
             verdict: Some(verdict),
         })
     }
+}
+
+/// A variables row's lot decided again from its statistics: `n` is the
+/// row's units inspected, which must be the plan's sample.
+fn decide_measured(plan: &VariablesPlan, e: &LotEntry, m: &Measured) -> Result<Decided, String> {
+    let n = match e.inspected.counts().as_slice() {
+        [units] if units.as_slice() == [plan.n()] => plan.n(),
+        _ => {
+            return Err(format!(
+                "the units inspected are {}, and the variables plan measures n = {}",
+                e.inspected,
+                plan.n()
+            ));
+        }
+    };
+    match e.found.counts().as_slice() {
+        [k] if matches!(k.as_slice(), [k] if *k <= n) => {}
+        _ => {
+            return Err(format!(
+                "{} is not one count of readings beyond a limit, at most n = {n}",
+                e.found
+            ));
+        }
+    }
+    let decided = decide_from_statistics(plan, n, m.mean, m.sd);
+    Ok(Decided {
+        decision: decided.decision,
+        found: e.found.clone(),
+        inspected: e.inspected.clone(),
+        code_letter: None,
+        lot: None,
+        judgement: None,
+        verdict: None,
+    })
 }
 
 /// The lot as the switching rules read it: accepted or not, its count and

@@ -13,7 +13,7 @@ use super::row::{COLUMNS, LedgerRow, ledger_header};
 pub const MAX_LEDGER_BYTES: u64 = 1 << 30;
 
 /// A row and the line it stands on.
-#[derive(Clone, Debug, PartialEq, Eq)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct LedgerLine {
     /// The line, counted from 1 (the header is line 1).
     pub line: u64,
@@ -35,7 +35,7 @@ pub struct TornLine {
 }
 
 /// A ledger as read: its rows, and a torn last line if there is one.
-#[derive(Clone, Debug, PartialEq, Eq)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct Ledger {
     /// The file.
     pub path: PathBuf,

@@ -16,7 +16,8 @@
 //!   empty.
 //! - **The decision.** It follows from the row's counts by the plan at
 //!   the row's severity, and so do the units inspected and the code
-//!   letter.
+//!   letter; for a variables plan, from the row's `mean` and `sd` of its
+//!   `inspected` readings.
 //! - **The lots.** A lot appears once, unless later rows mark it
 //!   resubmitted; a resubmitted lot was recorded before.
 //!
@@ -203,18 +204,23 @@ pub fn replay(ledger: &Ledger, plans: &[KnownPlan]) -> Replay {
                     "is filled but the plan is not standard-indexed: it has no severity or code letter".into(),
                 );
             }
-            match plan.decide_row(e.severity, &e.found, &e.inspected) {
+            match plan.decide_row(e) {
                 Err(message) => find(
                     "found",
-                    format!("the counts do not fit the plan: {message}"),
+                    format!("the lot cannot be decided again by the plan: {message}"),
                 ),
                 Ok(decided) => {
                     if decided.decision != e.decision {
                         find(
                             "decision",
                             format!(
-                                "is {} but the counts give {} by the plan",
+                                "is {} but the {} give {} by the plan",
                                 decision_name(e.decision),
+                                if e.measured.is_some() {
+                                    "readings' mean and sd"
+                                } else {
+                                    "counts"
+                                },
                                 decision_name(decided.decision)
                             ),
                         );

@@ -13,12 +13,13 @@
 //! | `plan_sha256` | the SHA-256 of the plan source's text, 64 hex digits |
 //! | `severity` | `normal`, `tightened` or `reduced` for a standard-indexed plan; empty for other plans |
 //! | `code_letter` | the standard's code letter (Table I); empty for other plans |
-//! | `inspected` | units inspected in all when the lot was decided, per class where the plan has several ([`Tally`]) |
-//! | `found` | the count found in each stage's new units, per class ([`Tally`]); with one number and a multi-stage plan, the cumulative count at `inspected` units (`judge --inspected`) |
+//! | `inspected` | units inspected in all when the lot was decided, per class where the plan has several ([`Tally`]); for a variables lot, the units measured |
+//! | `found` | the count found in each stage's new units, per class ([`Tally`]); with one number and a multi-stage plan, the cumulative count at `inspected` units (`judge --inspected`); for a variables lot, the readings beyond a specification limit |
 //! | `decision` | `accept` or `reject` |
 //! | `inspector`, `note` | free text |
 //! | `seed` | the seed of the random draw of the sample's units, when recorded |
 //! | `resubmitted` | `yes` for a resubmitted lot, `no` otherwise |
+//! | `mean`, `sd`, `data_sha256` | for a variables lot: its readings' mean and standard deviation, and the SHA-256 of the measurements file ([`Measured`]); empty otherwise |
 //! | `prev_hash`, `hash` | the hash chain ([`chain_hash`](super::chain_hash)) |
 //!
 //! Free text may not hold line breaks or other control characters, and
@@ -30,13 +31,14 @@ use crate::standard::Severity;
 
 use super::date::LotDate;
 use super::hash::{GENESIS, chain_hash, is_hash};
+use super::measured::Measured;
 use super::tally::Tally;
 
 /// The layout's version, written in the `format` column of every row.
 pub const LEDGER_FORMAT: &str = "lotsman-ledger-1";
 
 /// The columns, in order; the header line names them.
-pub const COLUMNS: [&str; 19] = [
+pub const COLUMNS: [&str; 22] = [
     "format",
     "seq",
     "date",
@@ -54,6 +56,9 @@ pub const COLUMNS: [&str; 19] = [
     "note",
     "seed",
     "resubmitted",
+    "mean",
+    "sd",
+    "data_sha256",
     "prev_hash",
     "hash",
 ];
@@ -64,7 +69,7 @@ pub fn ledger_header() -> String {
 }
 
 /// What one lot's row records, before it is chained.
-#[derive(Clone, Debug, PartialEq, Eq)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct LotEntry {
     /// The date the lot was judged.
     pub date: LotDate,
@@ -96,10 +101,12 @@ pub struct LotEntry {
     pub seed: Option<String>,
     /// A resubmitted lot (105E 4.7 counts only original inspection).
     pub resubmitted: bool,
+    /// The statistics of a variables lot.
+    pub measured: Option<Measured>,
 }
 
 /// A row as it stands in the ledger: the lot, its place and its hashes.
-#[derive(Clone, Debug, PartialEq, Eq)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct LedgerRow {
     /// The row's number, from 1.
     pub seq: u64,
@@ -169,8 +176,9 @@ fn check_free_text(name: &str, text: &str) -> Result<(), String> {
 
 impl LedgerRow {
     /// The cells of the row, in column order.
-    pub fn fields(&self) -> [String; 19] {
+    pub fn fields(&self) -> [String; 22] {
         let e = &self.entry;
+        let [mean, sd, data_sha256] = Measured::cells(e.measured.as_ref());
         [
             LEDGER_FORMAT.to_string(),
             self.seq.to_string(),
@@ -189,6 +197,9 @@ impl LedgerRow {
             e.note.clone(),
             e.seed.clone().unwrap_or_default(),
             if e.resubmitted { "yes" } else { "no" }.to_string(),
+            mean,
+            sd,
+            data_sha256,
             self.prev_hash.clone(),
             self.hash.clone(),
         ]
@@ -197,7 +208,10 @@ impl LedgerRow {
     /// The hash this row's fields and `prev_hash` give.
     pub fn expected_hash(&self) -> String {
         let fields = self.fields();
-        let hashed: Vec<&str> = fields[..17].iter().map(String::as_str).collect();
+        let hashed: Vec<&str> = fields[..COLUMNS.len() - 2]
+            .iter()
+            .map(String::as_str)
+            .collect();
         chain_hash(&self.prev_hash, &hashed)
     }
 
@@ -225,6 +239,9 @@ impl LedgerRow {
             note,
             seed,
             resubmitted,
+            mean,
+            sd,
+            data_sha256,
             prev_hash,
             hash,
         ] = cells
@@ -331,6 +348,7 @@ impl LedgerRow {
             note: note.to_string(),
             seed: (!seed.is_empty()).then(|| seed.to_string()),
             resubmitted,
+            measured: Measured::from_cells(mean, sd, data_sha256)?,
         };
         entry.check_text().map_err(|m| ("lot", m))?;
         Ok(LedgerRow {

@@ -21,9 +21,9 @@
 use serde::Serialize;
 use statrs::distribution::{ChiSquared, ContinuousCDF};
 
-use super::estimate::{fraction_beyond_known, fraction_beyond_unknown};
 use super::judge::Decision;
-use super::variables::{LimitKind, VariablesPlan};
+use super::statistics_decision::{SideStatistic, StatisticsDecision, decide_from_statistics};
+use super::variables::VariablesPlan;
 use crate::input::InputError;
 use crate::model::normal;
 
@@ -250,17 +250,6 @@ fn csv_rows(text: &str) -> Result<Vec<(u64, Vec<String>)>, InputError> {
     Ok(rows)
 }
 
-/// The statistics of one side of the specification.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
-pub struct SideStatistic {
-    /// The limit.
-    pub limit: f64,
-    /// `(U - xbar) / sigma` or `(xbar - L) / sigma` (`s` for sigma).
-    pub q: f64,
-    /// The estimated fraction beyond the limit (MVU), where defined.
-    pub estimate: Option<f64>,
-}
-
 /// The judgement of a lot from its measurements.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct MeasurementJudgement {
@@ -334,67 +323,14 @@ pub fn judge_measurements(
         ));
     }
     let spec = plan.spec();
-    let sigma_used = spec.sigma().unwrap_or(s);
-    let side = |limit: Option<f64>, sign: f64| {
-        limit.map(|l| {
-            let q = sign * (l - mean) / sigma_used;
-            let estimate = match spec.sigma() {
-                Some(_) => Some(fraction_beyond_known(q, n)),
-                None if n >= 3 => Some(fraction_beyond_unknown(q, n)),
-                None => None,
-            };
-            SideStatistic {
-                limit: l,
-                q,
-                estimate,
-            }
-        })
-    };
-    let lower = side(spec.lower(), -1.0);
-    let upper = side(spec.upper(), 1.0);
-    let estimate = match (lower.map(|l| l.estimate), upper.map(|u| u.estimate)) {
-        (Some(Some(a)), Some(Some(b))) => Some(a + b),
-        (Some(Some(a)), None) | (None, Some(Some(a))) => Some(a),
-        _ => None,
-    };
-    let (decision, rule) = match (plan.k(), plan.m()) {
-        (Some(k), _) => {
-            let (name, q) = match spec.limit() {
-                LimitKind::Lower => ("Q_L", lower.map_or(f64::NAN, |l| l.q)),
-                _ => ("Q_U", upper.map_or(f64::NAN, |u| u.q)),
-            };
-            let accept = q >= k;
-            (
-                if accept {
-                    Decision::Accept
-                } else {
-                    Decision::Reject
-                },
-                format!(
-                    "{name} = {q:.4} {} k = {k}",
-                    if accept { ">=" } else { "<" }
-                ),
-            )
-        }
-        (_, m) => {
-            let m = m.unwrap_or(0.0);
-            let p = estimate.unwrap_or(1.0);
-            let accept = p <= m;
-            (
-                if accept {
-                    Decision::Accept
-                } else {
-                    Decision::Reject
-                },
-                format!(
-                    "p_hat_L + p_hat_U = {:.4}% {} M = {:.4}%",
-                    100.0 * p,
-                    if accept { "<=" } else { ">" },
-                    100.0 * m
-                ),
-            )
-        }
-    };
+    let StatisticsDecision {
+        sigma_used,
+        lower,
+        upper,
+        estimate,
+        decision,
+        rule,
+    } = decide_from_statistics(plan, n, mean, s);
     let mut warnings = Vec::new();
     let normality = (n >= 3).then(|| anderson_darling(values));
     match normality {

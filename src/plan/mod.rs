@@ -10,6 +10,7 @@ mod oc;
 mod sequential;
 mod stage;
 mod staged;
+mod statistics_decision;
 mod variables;
 mod variables_evaluation;
 mod work;
@@ -24,8 +25,8 @@ pub use limits::{
     MAX_VARIABLES_SAMPLE,
 };
 pub use measurements::{
-    AndersonDarling, MeasurementJudgement, NORMALITY_LEVEL, SIGMA_LEVEL, SideStatistic,
-    anderson_darling, judge_measurements, mean_and_sd, parse_measurements,
+    AndersonDarling, MeasurementJudgement, NORMALITY_LEVEL, SIGMA_LEVEL, anderson_darling,
+    judge_measurements, mean_and_sd, parse_measurements,
 };
 pub(crate) use measures::whole_argmax;
 pub use measures::{
@@ -37,6 +38,7 @@ pub use oc::{StageOutcomes, curtailed_outcomes, stage_outcomes};
 pub use sequential::{ItemRun, SequentialLines};
 pub use stage::{Stage, parse_stage};
 pub use staged::StagedPlan;
+pub use statistics_decision::{SideStatistic, StatisticsDecision, decide_from_statistics};
 pub use variables::{LimitKind, SigmaKind, Specification, VariablesPlan};
 pub use variables_evaluation::{
     VariablesEvaluation, VariablesPoint, evaluate_variables, variables_point, variables_qualities,

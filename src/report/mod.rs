@@ -16,6 +16,7 @@ mod evaluation_batch;
 mod format;
 mod history;
 mod judge;
+mod ledger_verify;
 mod parts;
 mod rectifying;
 mod standard;
@@ -39,6 +40,7 @@ pub use self::evaluation_batch::{EvaluationBatchReport, EvaluationEntry, SourceE
 pub use self::format::{Format, Report, write_report};
 pub use self::history::HistoryReport;
 pub use self::judge::{JudgeReport, MeasurementJudgeReport};
+pub use self::ledger_verify::LedgerVerifyReport;
 pub use self::parts::{PointReport, VariablesReport, variables_rule};
 pub use self::rectifying::{ProtectionReport, RectifyingPlanReport, RectifyingReport};
 pub use self::standard::{

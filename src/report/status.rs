@@ -56,7 +56,7 @@ pub struct NextClassPlan {
     pub aql: Option<String>,
     /// The plan in words (`n = 125, c = 3`, stages, or item-by-item lines).
     pub plan: String,
-    /// The stages (empty for an item-by-item plan or every unit).
+    /// The stages (empty for an item-by-item plan, a variables plan or every unit).
     pub stages: Vec<StageJson>,
     /// Every unit is to be inspected.
     pub inspect_all: bool,
@@ -133,15 +133,19 @@ impl StatusReport {
                 })
             }
             None => {
-                let (p, _) = plan.counted_plan()?;
+                let (text, stages) = match (plan.counted_plan(), plan.variables_plan()) {
+                    (Some((p, _)), _) => (p.to_string(), stages_of(p)),
+                    (None, Some(v)) => (v.to_string(), Vec::new()),
+                    (None, None) => return None,
+                };
                 Some(NextPlan {
                     severity: None,
                     code_letter: None,
                     classes: vec![NextClassPlan {
                         class: None,
                         aql: None,
-                        plan: p.to_string(),
-                        stages: stages_of(p),
+                        plan: text,
+                        stages,
                         inspect_all: false,
                     }],
                 })
@@ -162,6 +166,8 @@ impl StatusReport {
     pub fn interval_method(&self) -> &'static str {
         if self.status.nonconformities() {
             "exact Poisson (Garwood), two-sided 95%"
+        } else if self.status.plan.variables_plan().is_some() {
+            "Clopper-Pearson, two-sided 95%, of the readings beyond a specification limit"
         } else {
             "Clopper-Pearson, two-sided 95%"
         }

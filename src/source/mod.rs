@@ -28,7 +28,7 @@ pub use discrepancy::{Difference, Discrepancy, UnmetPoint};
 pub use error::{Error, SourceError};
 pub use limits::MAX_SOURCE_BYTES;
 pub use load::MAX_BRACKET_DEPTH;
-pub use measurements::{MAX_MEASUREMENTS_BYTES, read_measurements};
+pub use measurements::{MAX_MEASUREMENTS_BYTES, Readings, read_measurements};
 pub use record::tool_version;
 pub use schema::{
     PlanSource, PointSource, RecordedPlan, RecordedVariables, SCHEMA_VERSION, VariablesSource,

@@ -27,6 +27,7 @@ mod ledger_history;
 mod ledger_rules;
 mod ledger_status;
 mod ledger_tamper;
+mod ledger_variables;
 mod no_panics;
 mod numbers;
 mod plain_words;

@@ -17,13 +17,7 @@ use crate::out::{print_out, report_bytes, warn_accepted};
 const DECIDED_AS_RECORDED: &str = "the lot is decided by the plan as recorded (--accept-recorded), with the discrepancy stated beside the decision";
 
 pub fn run(args: JudgeArgs) -> Result<Outcome, Error> {
-    if let Some(csv) = &args.measurements {
-        if args.record.record.is_some() {
-            return Err(InputError::Inconsistent(
-                "--record keeps the counts found, and a variables plan decides from measurements, which the ledger does not record yet; judge it without --record".to_string(),
-            )
-            .into());
-        }
+    if let (Some(csv), None) = (&args.measurements, &args.record.record) {
         return by_measurements(&args, csv);
     }
     let audited = Audited::load_checked(&args.source, args.accept_recorded, budget(&args.source))?;
@@ -110,8 +104,9 @@ fn by_measurements(args: &JudgeArgs, csv: &Path) -> Result<Outcome, Error> {
         args.accept_recorded,
         budget(&args.source),
     )?;
-    let values = read_measurements(csv, args.column.as_deref())?;
-    let judgement = judge_measurements(&plan, &values, request.risks().producer().quality)?;
+    let readings = read_measurements(csv, args.column.as_deref())?;
+    let judgement =
+        judge_measurements(&plan, &readings.values, request.risks().producer().quality)?;
     judgement.check()?;
     let accepted = audited.accepted.map(|d| d.to_string());
     let report = MeasurementJudgeReport {

@@ -5,7 +5,8 @@ use std::path::Path;
 
 use lotsman::{
     Audited, Decided, Error, InputError, JudgeReport, KnownPlan, LedgerError, LotDate, LotEntry,
-    PlanSource, StandardJudgeReport, append_lot, parse_count, replay,
+    Measured, MeasurementJudgeReport, MeasurementJudgement, PlanSource, StandardJudgeReport, Tally,
+    VariablesPlan, append_lot, judge_measurements, parse_count, read_measurements, replay,
 };
 
 use crate::cli::judge::{Found, JudgeArgs};
@@ -36,14 +37,35 @@ pub fn run(
     };
     let text = PlanSource::read_text(&args.source)?;
     let known = KnownPlan::from_source(&args.source, &text, &audited.source)?;
-    let found = if known.rules().is_some() {
-        None
-    } else {
-        Some(Found::try_from(args)?)
-    };
     let invalid = |m: String| Error::from(InputError::Inconsistent(m));
-    let (row, (decided, severity)) = append_lot(log, |ledger| {
-        let (decided, severity) = if known.rules().is_some() {
+    // Every plan but a standard-indexed one decides the lot whatever the
+    // ledger holds: decided before the lock is taken.
+    let fixed = match (&args.measurements, known.variables_plan()) {
+        (Some(csv), Some(plan)) => Some(measured(args, csv, plan, &known)?),
+        (None, Some(_)) => {
+            return Err(invalid(
+                "a variables plan decides from the sample's measurements: give --measurements FILE (and --column NAME for a file with several columns)".into(),
+            ));
+        }
+        (Some(_), None) => {
+            return Err(invalid(
+                "--measurements is for variables plans; this plan decides from the counts found, --found K".into(),
+            ));
+        }
+        (None, None) if known.rules().is_some() => None,
+        (None, None) => Some(Lot {
+            decided: match Found::try_from(args)? {
+                Found::Stages(counts) => known.decide_counts(&counts, None),
+                Found::Cumulative { inspected, found } => {
+                    known.decide_counts(&[found], Some(inspected))
+                }
+            }
+            .map_err(invalid)?,
+            measured: None,
+        }),
+    };
+    let (row, (judged, severity)) = append_lot(log, |ledger| {
+        let (judged, severity) = if known.rules().is_some() {
             if args.inspected.is_some() {
                 return Err(invalid("--inspected is for item-by-item plans; a standard-indexed plan takes the counts of each stage, --found CLASS=K,K,..".into()));
             }
@@ -55,23 +77,25 @@ pub fn run(
                 }
                 .into());
             };
+            let decided = known
+                .decide_classes(severity, &args.found)
+                .map_err(invalid)?;
             (
-                known
-                    .decide_classes(severity, &args.found)
-                    .map_err(invalid)?,
+                Lot {
+                    decided,
+                    measured: None,
+                },
                 Some(severity),
             )
         } else {
-            let decided = match &found {
-                Some(Found::Stages(counts)) => known.decide_counts(counts, None),
-                Some(Found::Cumulative { inspected, found }) => {
-                    known.decide_counts(&[*found], Some(*inspected))
-                }
-                None => Err("no count was given".to_string()),
-            }
-            .map_err(invalid)?;
-            (decided, None)
+            (
+                fixed
+                    .clone()
+                    .ok_or_else(|| invalid("no count was given".into()))?,
+                None,
+            )
         };
+        let decided = &judged.decided;
         let entry = (decided.decision != lotsman::Decision::Continue).then(|| LotEntry {
             date,
             lot: lot.clone(),
@@ -88,11 +112,12 @@ pub fn run(
             note: flags.note.clone().unwrap_or_default(),
             seed: None,
             resubmitted: flags.resubmitted,
+            measured: judged.measured.as_ref().map(|m| m.cells.clone()),
         });
-        Ok::<_, Error>((entry, (decided, severity)))
+        Ok::<_, Error>((entry, (judged, severity)))
     })?;
     let accepted = audited.accepted.map(|d| d.to_string());
-    let bytes = report(args, &known, decided, severity, accepted.clone())?;
+    let bytes = report(args, &known, judged, severity, accepted.clone())?;
     let note = match row {
         Some(row) => format!("recorded as seq {} in {}", row.seq, log.display()),
         None => format!(
@@ -104,15 +129,86 @@ pub fn run(
     Ok((bytes, accepted))
 }
 
+/// A lot as judged, before it is recorded.
+#[derive(Clone)]
+struct Lot {
+    decided: Decided,
+    /// A variables lot's judgement and the cells the ledger keeps of it.
+    measured: Option<MeasuredLot>,
+}
+
+#[derive(Clone)]
+struct MeasuredLot {
+    judgement: MeasurementJudgement,
+    plan: VariablesPlan,
+    cells: Measured,
+}
+
+/// A variables lot judged from the readings in `csv`. The ledger counts
+/// the readings beyond a specification limit (a reading on a limit
+/// conforms) as the lot's `found`, for the process average and chart.
+fn measured(
+    args: &JudgeArgs,
+    csv: &Path,
+    plan: &VariablesPlan,
+    known: &KnownPlan,
+) -> Result<Lot, Error> {
+    let readings = read_measurements(csv, args.column.as_deref())?;
+    let aql = known.targets.first().and_then(|t| t.aql).ok_or_else(|| {
+        InputError::Inconsistent(format!(
+            "{}: the variables source names no producer's quality (AQL)",
+            args.source.display()
+        ))
+    })?;
+    let judgement = judge_measurements(plan, &readings.values, aql)?;
+    judgement.check()?;
+    let spec = plan.spec();
+    let beyond = readings
+        .values
+        .iter()
+        .filter(|&&v| spec.lower().is_some_and(|l| v < l) || spec.upper().is_some_and(|u| v > u))
+        .count() as u64;
+    Ok(Lot {
+        decided: Decided {
+            decision: judgement.decision,
+            found: Tally::single(vec![beyond]),
+            inspected: Tally::single(vec![judgement.n]),
+            code_letter: None,
+            lot: None,
+            judgement: None,
+            verdict: None,
+        },
+        measured: Some(MeasuredLot {
+            cells: Measured {
+                mean: judgement.mean,
+                sd: judgement.s,
+                data_sha256: readings.sha256,
+            },
+            judgement,
+            plan: *plan,
+        }),
+    })
+}
+
 /// The decision's report, as `judge` prints it without --record.
 fn report(
     args: &JudgeArgs,
     known: &KnownPlan,
-    decided: Decided,
+    judged: Lot,
     severity: Option<lotsman::Severity>,
     accepted: Option<String>,
 ) -> Result<Vec<u8>, Error> {
     let format = args.report.format.into();
+    if let Some(m) = judged.measured {
+        let report = MeasurementJudgeReport {
+            judgement: m.judgement,
+            plan: m.plan,
+            source: args.source.clone(),
+            accepted_recorded: accepted,
+        };
+        return report_bytes(&report, format);
+    }
+    let decided = judged.decided;
     if let (Some(verdict), Some(severity)) = (decided.verdict, severity) {
         let plans = known.plans_at(severity).cloned().ok_or_else(|| {
             InputError::Inconsistent(format!("the source has no {severity} plan"))
