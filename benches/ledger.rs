@@ -58,6 +58,7 @@ fn ledger_bytes(known: &KnownPlan) -> Vec<u8> {
             note: String::new(),
             seed: None,
             resubmitted: false,
+            corrective_action: None,
             measured: None,
         };
         state = rules.step(&state_now, &decided.lot.unwrap()).unwrap();

@@ -86,6 +86,7 @@ pub(crate) fn demo_ledger(
             note: String::new(),
             seed: None,
             resubmitted: false,
+            corrective_action: None,
             measured: None,
         };
         let prev = ledger.last().map_or(GENESIS, |r| r.hash.as_str());

@@ -43,8 +43,17 @@ impl LotDate {
         let (Ok(month), Ok(day)) = (u8::try_from(month), u8::try_from(day)) else {
             return Err(bad());
         };
-        if year < 1900 || !(1..=12).contains(&month) || day < 1 || day > days_in(year, month) {
-            return Err(bad());
+        if year < 1900 {
+            return Err(format!("'{text}': the year must be 1900 to 9999"));
+        }
+        if !(1..=12).contains(&month) {
+            return Err(format!("'{text}': the month must be 01 to 12"));
+        }
+        if day < 1 || day > days_in(year, month) {
+            return Err(format!(
+                "'{text}' is not a calendar date: month {month:02} of {year} has days 01 to {}",
+                days_in(year, month)
+            ));
         }
         Ok(LotDate { year, month, day })
     }

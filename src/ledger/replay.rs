@@ -12,7 +12,8 @@
 //!   is the one the switching rules of MIL-STD-105E required after the
 //!   rows before it (4.6 to 4.8, one state per ledger: see
 //!   [`KnownPlan`]); a resubmitted lot neither moves the state nor is
-//!   counted (4.7). For other plans the severity and code letter are
+//!   counted (4.7). After discontinuation (4.8), the row that records the
+//!   supplier's corrective action resumes inspection on tightened. For other plans the severity and code letter are
 //!   empty.
 //! - **The decision.** It follows from the row's counts by the plan at
 //!   the row's severity, and so do the units inspected and the code
@@ -175,12 +176,32 @@ pub fn replay(ledger: &Ledger, plans: &[KnownPlan]) -> Replay {
         let mut result = None;
         if let Some(plan) = known {
             let is_standard = plan.rules().is_some();
+            if let Some(current) = &state
+                && is_standard
+                && e.corrective_action.is_some()
+            {
+                match current.resume() {
+                    Ok(resumed) => state = Some(resumed),
+                    Err(_) => find(
+                        "corrective_action",
+                        format!(
+                            "is filled but inspection was on {} inspection, not discontinued: a corrective action resumes only a discontinued inspection (MIL-STD-105E 4.8)",
+                            current.standing()
+                        ),
+                    ),
+                }
+            } else if e.corrective_action.is_some() && !is_standard {
+                find(
+                    "corrective_action",
+                    "is filled but the plan is not standard-indexed: it has no switching rules to resume".into(),
+                );
+            }
             if is_standard {
                 let required = state.as_ref().map(SwitchingState::severity);
                 match required {
                     Some(None) => find(
                         "severity",
-                        "inspection under the standard was discontinued before this lot (MIL-STD-105E 4.8): no lot is to be accepted under the standard until the supplier's corrective action".into(),
+                        "inspection under the standard was discontinued before this lot (MIL-STD-105E 4.8) and the row records no corrective action: no lot is to be judged under the standard until the supplier's corrective action".into(),
                     ),
                     Some(Some(s)) if e.severity != Some(s) => find(
                         "severity",

@@ -19,6 +19,7 @@
 //! | `inspector`, `note` | free text |
 //! | `seed` | the seed of the random draw of the sample's units, when recorded |
 //! | `resubmitted` | `yes` for a resubmitted lot, `no` otherwise |
+//! | `corrective_action` | for the first lot after inspection under the standard was discontinued, the supplier's corrective action that let it resume (MIL-STD-105E 4.8); empty otherwise |
 //! | `mean`, `sd`, `data_sha256` | for a variables lot: its readings' mean and standard deviation, and the SHA-256 of the measurements file ([`Measured`]); empty otherwise |
 //! | `prev_hash`, `hash` | the hash chain ([`chain_hash`](super::chain_hash)) |
 //!
@@ -38,7 +39,7 @@ use super::tally::Tally;
 pub const LEDGER_FORMAT: &str = "lotsman-ledger-1";
 
 /// The columns, in order; the header line names them.
-pub const COLUMNS: [&str; 22] = [
+pub const COLUMNS: [&str; 23] = [
     "format",
     "seq",
     "date",
@@ -56,6 +57,7 @@ pub const COLUMNS: [&str; 22] = [
     "note",
     "seed",
     "resubmitted",
+    "corrective_action",
     "mean",
     "sd",
     "data_sha256",
@@ -101,6 +103,9 @@ pub struct LotEntry {
     pub seed: Option<String>,
     /// A resubmitted lot (105E 4.7 counts only original inspection).
     pub resubmitted: bool,
+    /// The supplier's corrective action after which inspection resumed
+    /// with this lot (105E 4.8).
+    pub corrective_action: Option<String>,
     /// The statistics of a variables lot.
     pub measured: Option<Measured>,
 }
@@ -140,6 +145,12 @@ impl LotEntry {
         if let Some(seed) = &self.seed {
             check_free_text("the seed", seed)?;
         }
+        if let Some(action) = &self.corrective_action {
+            if action.trim().is_empty() {
+                return Err("the corrective action is empty; say what the supplier did".into());
+            }
+            check_free_text("the corrective action", action)?;
+        }
         Ok(())
     }
 
@@ -176,7 +187,7 @@ fn check_free_text(name: &str, text: &str) -> Result<(), String> {
 
 impl LedgerRow {
     /// The cells of the row, in column order.
-    pub fn fields(&self) -> [String; 22] {
+    pub fn fields(&self) -> [String; 23] {
         let e = &self.entry;
         let [mean, sd, data_sha256] = Measured::cells(e.measured.as_ref());
         [
@@ -197,6 +208,7 @@ impl LedgerRow {
             e.note.clone(),
             e.seed.clone().unwrap_or_default(),
             if e.resubmitted { "yes" } else { "no" }.to_string(),
+            e.corrective_action.clone().unwrap_or_default(),
             mean,
             sd,
             data_sha256,
@@ -239,6 +251,7 @@ impl LedgerRow {
             note,
             seed,
             resubmitted,
+            corrective_action,
             mean,
             sd,
             data_sha256,
@@ -348,6 +361,8 @@ impl LedgerRow {
             note: note.to_string(),
             seed: (!seed.is_empty()).then(|| seed.to_string()),
             resubmitted,
+            corrective_action: (!corrective_action.is_empty())
+                .then(|| corrective_action.to_string()),
             measured: Measured::from_cells(mean, sd, data_sha256)?,
         };
         entry.check_text().map_err(|m| ("lot", m))?;

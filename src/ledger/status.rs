@@ -193,7 +193,7 @@ pub fn ledger_status(ledger: &Ledger, plans: &[KnownPlan]) -> Result<LedgerStatu
     let replayed = replay(ledger, plans);
     if let Some(f) = replayed.findings.first() {
         return Err(refuse(format!(
-            "the ledger does not verify ({} finding{}; the first: line {}, {}: {}); lotsman verify {} --plan ... lists them all",
+            "the ledger does not verify ({} finding{}; the first: line {}, {}: {}); lotsman verify {}{} lists them all",
             replayed.findings.len(),
             if replayed.findings.len() == 1 {
                 ""
@@ -203,7 +203,11 @@ pub fn ledger_status(ledger: &Ledger, plans: &[KnownPlan]) -> Result<LedgerStatu
             f.line,
             f.field,
             f.message,
-            ledger.path.display()
+            crate::plain::shell_path(&ledger.path),
+            plans
+                .iter()
+                .map(|p| format!(" --plan {}", crate::plain::shell_path(&p.path)))
+                .collect::<String>()
         )));
     }
     let plan = ledger

@@ -47,9 +47,10 @@ impl Report for HistoryReport {
             .as_ref()
             .map_or(String::new(), |c| format!(", class {c}"));
         let mut t = format!(
-            "Ledger {}: {} lots, {}-chart of first samples{class}, centre {} (three-sigma limits for each n)\n",
+            "Ledger {}: {} lot{}, {}-chart of first samples{class}, centre {} (three-sigma limits for each n)\n",
             self.ledger.display(),
             h.lots.len(),
+            if h.lots.len() == 1 { "" } else { "s" },
             h.chart,
             show(h.centre),
         );

@@ -301,7 +301,7 @@ impl Report for StatusReport {
                 }
             }
             (Some(_), None) => t.push_str(
-                "Next lot: inspection under the standard is discontinued (MIL-STD-105E 4.8)\n",
+                "Next lot: inspection under the standard is discontinued (MIL-STD-105E 4.8); when the supplier's corrective action is accepted, judge the next lot with --corrective-action \"WHAT WAS DONE\" --record: inspection resumes on tightened\n",
             ),
             (None, Some(next)) => {
                 for c in &next.classes {

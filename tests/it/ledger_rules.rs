@@ -64,9 +64,11 @@ fn a_rejection_on_reduced_restores_normal() {
 }
 
 /// 4.8: five lots not accepted on one spell of tightened inspection stop
-/// inspection under the standard; the next lot is refused, not recorded.
+/// inspection under the standard; the next lot is refused, not recorded,
+/// until the supplier's corrective action, after which it resumes on
+/// tightened inspection.
 #[test]
-fn five_not_accepted_on_tightened_discontinue() {
+fn five_not_accepted_on_tightened_discontinue_until_corrective_action() {
     let dir = tempfile::tempdir().unwrap();
     standard_source(dir.path(), &["--aql", "1.0"]);
     let got = severities(dir.path(), 1, &[4, 4, 3, 3, 3, 3, 3]);
@@ -86,8 +88,51 @@ fn five_not_accepted_on_tightened_discontinue() {
         text.contains("discontinued") && text.contains("4.8"),
         "{text}"
     );
+    assert!(text.contains("--corrective-action"), "{text}");
     let log = std::fs::read_to_string(dir.path().join("log.csv")).unwrap();
     assert_eq!(log.lines().count(), 8, "the header and seven lots");
+    // 4.8: after the supplier's corrective action, inspection resumes on
+    // tightened; the row keeps the action and verify accepts the resumption.
+    let resumed = record(
+        dir.path(),
+        "s.yaml",
+        "L8",
+        &["0"],
+        &[
+            "--corrective-action",
+            "CA-17: new lapping fixture, approved by QA",
+        ],
+    );
+    assert_eq!(resumed["severity"], "tightened");
+    assert_eq!(verify(dir.path(), &["s.yaml"]).0, 0);
+    // A corrective action where inspection is not discontinued is refused.
+    let out = crate::common::lotsman()
+        .current_dir(dir.path())
+        .args([
+            "judge", "s.yaml", "--found", "0", "--lot", "L9", "--record", "log.csv",
+        ])
+        .args(["--corrective-action", "again"])
+        .assert()
+        .code(2)
+        .get_output()
+        .stderr
+        .clone();
+    let text = String::from_utf8(out).unwrap();
+    assert!(text.contains("on tightened inspection"), "{text}");
+    // The corrective action edited out of the row: verify names the break.
+    let log = dir.path().join("log.csv");
+    let text = std::fs::read_to_string(&log).unwrap();
+    std::fs::write(
+        &log,
+        text.replace("CA-17: new lapping fixture, approved by QA", ""),
+    )
+    .unwrap();
+    let (code, out) = verify(dir.path(), &["s.yaml"]);
+    assert_eq!(code, 1);
+    assert!(
+        out.contains("line 9 (seq 8), severity:") && out.contains("no corrective action"),
+        "{out}"
+    );
 }
 
 /// 4.7: a resubmitted lot does not count: after R on normal, the same lot

@@ -167,12 +167,35 @@ fn a_bad_supplier_is_warned_of() {
 }
 
 /// Without the plan source, or over a ledger that does not verify, the
-/// status is refused in words, never guessed.
+/// Without --plan, status and history take the plan source beside the
+/// ledger whose SHA-256 the rows record; a source edited since is not
+/// that revision, and status is refused in words, never guessed; so is a
+/// status over a broken ledger.
 #[test]
-fn refuses_without_plan_or_over_a_broken_ledger() {
+fn finds_its_plan_beside_the_ledger_or_refuses_without_plan_or_over_a_broken_ledger() {
     let dir = tempfile::tempdir().unwrap();
     standard_source(dir.path(), &["--aql", "1.0"]);
     lots(dir.path(), 1, &[0, 1]);
+    let beside = lotsman()
+        .current_dir(dir.path())
+        .args(["status", "log.csv", "--format", "json"])
+        .assert()
+        .success()
+        .get_output()
+        .stdout
+        .clone();
+    assert_eq!(
+        serde_json::from_slice::<Value>(&beside).unwrap(),
+        status(dir.path())
+    );
+    lotsman()
+        .current_dir(dir.path())
+        .args(["history", "log.csv", "--format", "csv"])
+        .assert()
+        .success();
+    let source = dir.path().join("s.yaml");
+    let text = std::fs::read_to_string(&source).unwrap();
+    std::fs::write(&source, text.replacen("title:", "# edited\ntitle:", 1)).unwrap();
     let out = lotsman()
         .current_dir(dir.path())
         .args(["status", "log.csv"])
@@ -181,7 +204,12 @@ fn refuses_without_plan_or_over_a_broken_ledger() {
         .get_output()
         .stderr
         .clone();
-    assert!(String::from_utf8(out).unwrap().contains("--plan PLAN.yaml"));
+    let err = String::from_utf8(out).unwrap();
+    assert!(
+        err.contains("no plan source in the folder") && err.contains("--plan PLAN.yaml"),
+        "{err}"
+    );
+    std::fs::write(&source, text).unwrap();
     let log = dir.path().join("log.csv");
     let text = std::fs::read_to_string(&log).unwrap();
     std::fs::write(&log, text.replacen(",1,accept,", ",0,accept,", 1)).unwrap();

@@ -1112,7 +1112,7 @@ fn judge_record_refuses_what_a_ledger_cannot_keep() {
         refused(
             "a date that does not exist",
             &rec(&["@log.csv", "--date", "2024-02-30"]),
-            "--date: '2024-02-30' is not a date written YYYY-MM-DD",
+            "--date: '2024-02-30' is not a calendar date: month 02 of 2024 has days 01 to 29",
         ),
         refused(
             "a lot identifier a spreadsheet reads as a formula",

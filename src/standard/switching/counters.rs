@@ -54,9 +54,15 @@ impl SwitchingState {
                         lots(u64::from(k) + 1),
                         lots(u64::from(REJECTION_SPAN - 2 - k) + 1),
                     ),
+                    None if record.lots == 0 => format!(
+                        "no lot judged yet on normal inspection; two not accepted within {REJECTION_SPAN} consecutive lots switch to tightened inspection (MIL-STD-105E 4.7.1)"
+                    ),
                     None => format!(
-                        "no lot was not accepted in the last {} on normal inspection; two not accepted within {REJECTION_SPAN} consecutive lots switch to tightened inspection (MIL-STD-105E 4.7.1)",
-                        lots(u64::from(record.lots.min(REJECTION_SPAN - 1)))
+                        "{}; two not accepted within {REJECTION_SPAN} consecutive lots switch to tightened inspection (MIL-STD-105E 4.7.1)",
+                        match record.lots.min(REJECTION_SPAN - 1) {
+                            1 => "the last lot on normal inspection was accepted".to_string(),
+                            n => format!("the last {n} lots on normal inspection were all accepted"),
+                        }
                     ),
                 };
                 let mut out = vec![Counter {

@@ -18,6 +18,7 @@ pub struct HistoryArgs {
     #[arg(value_name = "LOG.csv")]
     pub ledger: PathBuf,
     /// A plan source the ledger's rows were judged by, each revision once (repeat)
+    /// [default: the plan sources in the ledger's folder whose SHA-256 its rows record]
     #[arg(long, value_name = "PLAN.yaml")]
     pub plan: Vec<PathBuf>,
     /// The class of defects to chart, by its name in the plan source (default: its first class)

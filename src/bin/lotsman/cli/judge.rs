@@ -70,6 +70,11 @@ pub struct RecordFlags {
     /// for the switching rules)
     #[arg(long, requires = "record")]
     pub resubmitted: bool,
+    /// After inspection under the standard was discontinued (five lots not accepted on
+    /// tightened): the supplier's corrective action that lets it resume, on tightened
+    /// inspection, from this lot (MIL-STD-105E 4.8); kept in the ledger's row
+    #[arg(long, value_name = "TEXT", requires = "record")]
+    pub corrective_action: Option<String>,
     /// The lot's size, for the ledger [default: the source's lot size]
     #[arg(
         long,

@@ -13,8 +13,9 @@ pub struct StatusArgs {
     /// The ledger, as judge --record writes it
     #[arg(value_name = "LOG.csv")]
     pub ledger: PathBuf,
-    /// A plan source the ledger's rows were judged by, each revision once (repeat);
-    /// the next lot's plan is the revision of the last row
+    /// A plan source the ledger's rows were judged by, each revision once (repeat); the
+    /// next lot's plan is the revision of the last row [default: the plan sources in the
+    /// ledger's folder whose SHA-256 its rows record]
     #[arg(long, value_name = "PLAN.yaml")]
     pub plan: Vec<PathBuf>,
     #[command(flatten)]

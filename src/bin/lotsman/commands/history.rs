@@ -3,7 +3,7 @@
 
 use lotsman::{
     Error, HistoryFormat, HistoryReport, InputError, KnownPlan, Ledger, Outcome, ledger_history,
-    render_history, write_atomic,
+    plans_beside, render_history, write_atomic,
 };
 
 use crate::cli::history::HistoryArgs;
@@ -31,12 +31,15 @@ pub fn run(args: HistoryArgs) -> Result<Outcome, Error> {
             Some((path, format))
         }
     };
-    let plans = args
-        .plan
-        .iter()
-        .map(|p| KnownPlan::load(p))
-        .collect::<Result<Vec<_>, _>>()?;
     let ledger = Ledger::read(&args.ledger)?;
+    let plans = if args.plan.is_empty() {
+        plans_beside(&ledger)?
+    } else {
+        args.plan
+            .iter()
+            .map(|p| KnownPlan::load(p))
+            .collect::<Result<Vec<_>, _>>()?
+    };
     let history = ledger_history(&ledger, &plans, args.class.as_deref())?;
     if let Some((path, format)) = chart {
         let title = format!("Lot history: {}", shown(&args.ledger));

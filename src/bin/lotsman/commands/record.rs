@@ -38,6 +38,11 @@ pub fn run(
     let text = PlanSource::read_text(&args.source)?;
     let known = KnownPlan::from_source(&args.source, &text, &audited.source)?;
     let invalid = |m: String| Error::from(InputError::Inconsistent(m));
+    if flags.corrective_action.is_some() && known.rules().is_none() {
+        return Err(invalid(
+            "--corrective-action resumes inspection under the standard's switching rules, and this plan has none: judge the lot without it".into(),
+        ));
+    }
     // Every plan but a standard-indexed one decides the lot whatever the
     // ledger holds: decided before the lock is taken.
     let fixed = match (&args.measurements, known.variables_plan()) {
@@ -69,11 +74,23 @@ pub fn run(
             if args.inspected.is_some() {
                 return Err(invalid("--inspected is for item-by-item plans; a standard-indexed plan takes the counts of each stage, --found CLASS=K,K,..".into()));
             }
-            let state = replay(ledger, std::slice::from_ref(&known)).state;
-            let Some(severity) = state.as_ref().and_then(lotsman::SwitchingState::severity) else {
+            let state = replay(ledger, std::slice::from_ref(&known))
+                .state
+                .unwrap_or_default();
+            let state = match (&flags.corrective_action, state.is_discontinued()) {
+                (Some(_), true) => state.resume().map_err(|e| invalid(e.to_string()))?,
+                (Some(_), false) => {
+                    return Err(invalid(format!(
+                        "--corrective-action resumes inspection after discontinuation, and the ledger is on {} inspection: judge the lot without it",
+                        state.standing()
+                    )));
+                }
+                (None, _) => state,
+            };
+            let Some(severity) = state.severity() else {
                 return Err(LedgerError::Refused {
                     path: log.to_path_buf(),
-                    message: "inspection under the standard is discontinued: five lots were not accepted on tightened inspection (MIL-STD-105E 4.8); no lot is accepted under the standard until the supplier's corrective action, and the lot was not recorded".to_string(),
+                    message: "inspection under the standard is discontinued: five lots were not accepted on tightened inspection (MIL-STD-105E 4.8); the lot was not recorded. When the supplier's corrective action is accepted, judge the next lot with --corrective-action \"WHAT WAS DONE\": inspection resumes on tightened".to_string(),
                 }
                 .into());
             };
@@ -112,6 +129,7 @@ pub fn run(
             note: flags.note.clone().unwrap_or_default(),
             seed: None,
             resubmitted: flags.resubmitted,
+            corrective_action: flags.corrective_action.clone(),
             measured: judged.measured.as_ref().map(|m| m.cells.clone()),
         });
         Ok::<_, Error>((entry, (judged, severity)))
