@@ -135,6 +135,25 @@ fn the_template_solves_with_design_and_verifies() {
     lotsman().arg("verify").arg(&solved).assert().success();
 }
 
+/// `design --in-place` records the plan in the source it read, as
+/// `--output` does in another file: it once said "re-solved" and left the
+/// template without its plan.
+#[test]
+fn the_template_solves_in_place() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("r.yaml");
+    std::fs::write(&path, stdout_of(&["new", "rectifying"])).unwrap();
+    lotsman()
+        .arg("design")
+        .arg(&path)
+        .arg("--in-place")
+        .assert()
+        .success();
+    let text = std::fs::read_to_string(&path).unwrap();
+    assert!(text.contains("plan:\n  stages:\n  - n: 766\n"), "{text}");
+    lotsman().arg("verify").arg(&path).assert().success();
+}
+
 #[test]
 fn verify_names_what_differs_in_an_edited_rectifying_source() {
     let dir = tempfile::tempdir().unwrap();
