@@ -290,7 +290,13 @@ fn round(template: &str) {
     for counts in kind.undecided {
         let (got, err) = judge(dir, "U1", 9, counts);
         assert_eq!(got, "continue", "{name}: {counts:?}");
+        let again = if counts.contains(&"--inspected") {
+            "with the units inspected in all and the cumulative count (--inspected N --found K)"
+        } else {
+            "with every stage's count"
+        };
         assert!(err.contains("not recorded in log.csv"), "{name}: {err}");
+        assert!(err.contains(again), "{name}: {err}");
         assert_eq!(ledger_lines(dir), lines, "{name}: {counts:?}");
     }
 
