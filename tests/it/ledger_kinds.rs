@@ -429,3 +429,28 @@ fn sequential_plan() {
 fn rectifying_plan() {
     round("rectifying");
 }
+
+/// A ledger of one multiple-plan lot given as one cumulative count: its
+/// first sample is not shown, and history and verify say so in words
+/// ("1 lot", no centre, the lot left off the chart), as status does.
+#[test]
+fn a_lot_without_its_first_sample_is_explained() {
+    let dir = tempfile::tempdir().unwrap();
+    let dir = dir.path();
+    std::fs::write(dir.join("p.yaml"), stdout_of(&["new", "multiple"])).unwrap();
+    run(dir, &["design", "p.yaml", "--in-place"]);
+    judge(dir, "L1", 1, &["--inspected", "84", "--found", "1"]);
+    let (_, history, _) = run(dir, &["history", "log.csv", "--plan", "p.yaml"]);
+    for words in [
+        "log.csv: 1 lot, p-chart of first samples, no first sample counted yet\n",
+        "(judge --inspected) shows no first sample: the chart leaves it out",
+    ] {
+        assert!(history.contains(words), "{history}");
+    }
+    let (code, verify, _) = run(dir, &["verify", "log.csv", "--plan", "p.yaml"]);
+    assert_eq!(code, 0);
+    assert!(
+        verify.starts_with("log.csv: 1 lot, the chain holds"),
+        "{verify}"
+    );
+}

@@ -54,9 +54,10 @@ pub fn run(args: &VerifyArgs, log: &Path) -> Result<Outcome, Error> {
         text
     } else {
         let mut text = format!(
-            "{}: {} lots, {}\n",
+            "{}: {} lot{}, {}\n",
             log.display(),
             result.rows,
+            if result.rows == 1 { "" } else { "s" },
             if result.findings.is_empty() {
                 "the chain holds".to_string()
             } else {
