@@ -19,6 +19,7 @@
 
 use std::path::{Path, PathBuf};
 
+use crate::design::Protection;
 use crate::model::{Model, ModelKind};
 use crate::plan::{
     Decision, Judgement, StagedPlan, VariablesPlan, decide_from_statistics, judge, judge_cumulative,
@@ -50,17 +51,23 @@ pub struct KnownPlan {
 }
 
 /// The qualities one class of a plan is held against: the AQL (for a
-/// designed plan, its producer's quality) and the RQL (its consumer's
-/// quality, or a standard-indexed source's consumer point), as fractions
-/// nonconforming or nonconformities per unit.
+/// designed plan, its producer's quality), the RQL (its consumer's
+/// quality, a standard-indexed source's consumer point, or a
+/// minimum-inspection plan's LTPD) and the process average a
+/// minimum-inspection plan was designed for, as fractions nonconforming
+/// or nonconformities per unit.
 #[derive(Clone, Debug, PartialEq)]
 pub struct QualityTarget {
     /// The class's name; `None` for a plan without named classes.
     pub class: Option<String>,
     /// The AQL, if the plan has one.
     pub aql: Option<f64>,
-    /// The RQL, if the plan has one.
+    /// The RQL, if the plan has one (a minimum-inspection plan's LTPD).
     pub rql: Option<f64>,
+    /// The process average a minimum-inspection plan (`scheme:
+    /// rectifying`) was designed for: it inspects the fewest units on
+    /// average at this quality, and more when the supplier runs worse.
+    pub design_average: Option<f64>,
 }
 
 #[derive(Clone, Debug)]
@@ -124,7 +131,16 @@ impl KnownPlan {
             class: None,
             aql: source.producer.map(|p| p.quality),
             rql: source.consumer.map(|c| c.quality),
+            design_average: None,
         }];
+        if source.is_rectifying() {
+            let request = source.rectifying_request().map_err(invalid)?;
+            targets[0].rql = match request.protection() {
+                Protection::Ltpd(point) => Some(point.quality),
+                Protection::Aoql(_) => None,
+            };
+            targets[0].design_average = Some(request.process_average());
+        }
         let judge = if source.is_standard() {
             let request = source.standard_request().map_err(invalid)?;
             let mut by_severity = Vec::new();
@@ -145,6 +161,7 @@ impl KnownPlan {
                     class: c.name.clone(),
                     aql: Some(c.aql.quality()),
                     rql,
+                    design_average: None,
                 })
                 .collect();
             let rules = ledger_rules(source, path, &by_severity, classes.len())?;

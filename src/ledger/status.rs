@@ -50,9 +50,11 @@ pub struct ClassAverage {
     pub interval: Interval,
     /// The AQL the plan assumes (a designed plan's producer's quality).
     pub aql: Option<f64>,
-    /// The RQL (a designed plan's consumer's quality, or a
-    /// standard-indexed source's consumer point).
+    /// The RQL (a designed plan's consumer's quality, a standard-indexed
+    /// source's consumer point, or a minimum-inspection plan's LTPD).
     pub rql: Option<f64>,
+    /// The process average a minimum-inspection plan was designed for.
+    pub design_average: Option<f64>,
 }
 
 impl ClassAverage {
@@ -60,6 +62,13 @@ impl ClassAverage {
     /// process average is worse than the plan assumes.
     pub fn above_aql(&self) -> bool {
         self.aql.is_some_and(|a| self.interval.lower > a)
+    }
+
+    /// Whether the whole interval lies above the process average a
+    /// minimum-inspection plan was designed for: the plan no longer
+    /// inspects the fewest units on average.
+    pub fn above_design_average(&self) -> bool {
+        self.design_average.is_some_and(|p| self.interval.lower > p)
     }
 
     /// Whether the interval's upper end reaches the RQL.
@@ -169,6 +178,7 @@ pub fn process_averages(
             interval,
             aql: target.aql,
             rql: target.rql,
+            design_average: target.design_average,
         });
     }
     Ok(out)

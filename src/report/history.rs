@@ -46,13 +46,16 @@ impl Report for HistoryReport {
             .class
             .as_ref()
             .map_or(String::new(), |c| format!(", class {c}"));
+        let centre = match h.centre {
+            Some(_) => format!("centre {} (three-sigma limits for each n)", show(h.centre)),
+            None => "no first sample counted yet".to_string(),
+        };
         let mut t = format!(
-            "Ledger {}: {} lot{}, {}-chart of first samples{class}, centre {} (three-sigma limits for each n)\n",
+            "Ledger {}: {} lot{}, {}-chart of first samples{class}, {centre}\n",
             self.ledger.display(),
             h.lots.len(),
             if h.lots.len() == 1 { "" } else { "s" },
             h.chart,
-            show(h.centre),
         );
         let head = [
             "seq",
@@ -115,6 +118,9 @@ impl Report for HistoryReport {
         t.push_str(&line(&head.map(String::from)));
         for r in &rows {
             t.push_str(&line(r));
+        }
+        if h.lots.iter().any(|l| l.n.is_none() && !l.resubmitted) {
+            t.push_str("- a lot recorded with one cumulative count past the first stage (judge --inspected) shows no first sample: the chart leaves it out\n");
         }
         if h.lots.iter().any(|l| l.out_of_control) {
             t.push_str("* outside its three-sigma limits: look for a cause beyond chance\n");

@@ -7,7 +7,8 @@
 //! `reduced`, `discontinued`, or null for a plan without switching
 //! rules), `next_plan` (null while discontinued), `counters` (each
 //! `key`, `value`, `limit`, `words`), `process_average` (`estimate`,
-//! `lower`, `upper`, `level`, `found`, `inspected`, `lots`, `aql`, `rql`;
+//! `lower`, `upper`, `level`, `found`, `inspected`, `lots`, `aql`, `rql`,
+//! `design_average`;
 //! for several classes an object of these per class name; null before
 //! the first lot), `interval_method`, `resubmitted_left_out`,
 //! `unread_left_out` and `warnings`.
@@ -193,6 +194,14 @@ impl StatusReport {
                     self.quality(aql)
                 ));
             }
+            if let (true, Some(p)) = (a.above_design_average(), a.design_average) {
+                out.push(format!(
+                    "the process average{of} is above the one the plan was designed for: its whole 95% interval, {} to {}, lies above {} (rectifying.process_average); the plan no longer inspects the fewest units on average: design it again with the supplier's process average",
+                    self.quality(a.interval.lower),
+                    self.quality(a.interval.upper),
+                    self.quality(p)
+                ));
+            }
             if let (true, Some(rql)) = (a.reaches_rql(), a.rql) {
                 out.push(format!(
                     "the process average{of} may reach the RQL: the upper end of its 95% interval, {}, is at or above {}",
@@ -217,6 +226,7 @@ struct AverageJson {
     lots: u64,
     aql: Option<f64>,
     rql: Option<f64>,
+    design_average: Option<f64>,
 }
 
 impl From<&ClassAverage> for AverageJson {
@@ -231,6 +241,7 @@ impl From<&ClassAverage> for AverageJson {
             lots: a.lots,
             aql: a.aql,
             rql: a.rql,
+            design_average: a.design_average,
         }
     }
 }
@@ -373,6 +384,7 @@ impl Report for StatusReport {
             "upper",
             "aql",
             "rql",
+            "design_average",
         ])?;
         let next = self.next_plan();
         let severity = self.severity().unwrap_or("");
@@ -396,6 +408,7 @@ impl Report for StatusReport {
                 opt(a.map(|a| a.interval.upper)),
                 opt(a.and_then(|a| a.aql)),
                 opt(a.and_then(|a| a.rql)),
+                opt(a.and_then(|a| a.design_average)),
             ])?;
         }
         w.flush()

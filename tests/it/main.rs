@@ -24,6 +24,7 @@ mod layers;
 mod ledger_concurrency;
 mod ledger_fixture;
 mod ledger_history;
+mod ledger_kinds;
 mod ledger_rules;
 mod ledger_status;
 mod ledger_tamper;

@@ -135,6 +135,25 @@ fn the_template_solves_with_design_and_verifies() {
     lotsman().arg("verify").arg(&solved).assert().success();
 }
 
+/// `design --in-place` records the plan in the source it read, as
+/// `--output` does in another file: it once said "re-solved" and left the
+/// template without its plan.
+#[test]
+fn the_template_solves_in_place() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("r.yaml");
+    std::fs::write(&path, stdout_of(&["new", "rectifying"])).unwrap();
+    lotsman()
+        .arg("design")
+        .arg(&path)
+        .arg("--in-place")
+        .assert()
+        .success();
+    let text = std::fs::read_to_string(&path).unwrap();
+    assert!(text.contains("plan:\n  stages:\n  - n: 766\n"), "{text}");
+    lotsman().arg("verify").arg(&path).assert().success();
+}
+
 #[test]
 fn verify_names_what_differs_in_an_edited_rectifying_source() {
     let dir = tempfile::tempdir().unwrap();
@@ -343,4 +362,54 @@ fn rectify_output_keeps_the_write_rules() {
         .code(2)
         .stderr(predicate::str::contains("lotsman sheet FILE.yaml"));
     assert!(!pdf.exists());
+}
+
+/// `status` holds a ledger of a minimum-inspection plan against the
+/// process average it was designed for, 0.25%, and its LTPD (it once
+/// compared with nothing and never warned). Clopper–Pearson intervals
+/// (scipy `beta.ppf`): LTPD 1%, n = 766, 4 + 5 found: 0.269% to 1.112%,
+/// above 0.25% and reaching the LTPD; AOQL 1%, n = 134, 2 + 3 found:
+/// 0.608% to 4.30%, above 0.25%, with no LTPD to reach.
+#[test]
+fn status_compares_the_process_average_with_the_design() {
+    for (protection, counts, rql, warnings) in [
+        ("ltpd: 1%\n  beta: 0.10", ["4", "5"], Some(0.01), 2),
+        ("aoql: 1%", ["2", "3"], None, 1),
+    ] {
+        let dir = tempfile::tempdir().unwrap();
+        let text = stdout_of(&["new", "rectifying"]).replace(
+            "ltpd: 1%                               # a lot this bad is accepted with probability at most beta\n  beta: 0.10",
+            protection,
+        );
+        std::fs::write(dir.path().join("r.yaml"), text).unwrap();
+        let run = |args: &[&str]| {
+            let out = lotsman()
+                .current_dir(dir.path())
+                .args(args)
+                .output()
+                .unwrap();
+            assert!(out.status.success(), "{args:?}: {out:?}");
+            String::from_utf8(out.stdout).unwrap()
+        };
+        run(&["design", "r.yaml", "--in-place"]);
+        for (lot, k) in ["L1", "L2"].into_iter().zip(counts) {
+            run(&[
+                "judge", "r.yaml", "--record", "log.csv", "--lot", lot, "--found", k,
+            ]);
+        }
+        let status: serde_json::Value = serde_json::from_str(&run(&[
+            "status", "log.csv", "--plan", "r.yaml", "--format", "json",
+        ]))
+        .unwrap();
+        let pa = &status["process_average"];
+        assert_eq!(pa["design_average"].as_f64(), Some(0.0025));
+        assert_eq!(pa["rql"].as_f64(), rql);
+        let w = status["warnings"].as_array().unwrap();
+        assert_eq!(w.len(), warnings, "{w:?}");
+        assert!(
+            w[0].as_str()
+                .unwrap()
+                .contains("above the one the plan was designed for")
+        );
+    }
 }

@@ -98,7 +98,8 @@ fn rectifying(args: &DesignArgs, mut source: PlanSource, path: &Path) -> Result<
     let design = design_rectifying(&request).map_err(|e| design_error(args, e))?;
     let report = RectifyingReport::new(&source.title, &design);
     report.check()?;
-    if args.output.output.is_some() || args.format.format == DesignFormat::Yaml {
+    let written = args.in_place || args.output.output.is_some();
+    if written || args.format.format == DesignFormat::Yaml {
         source.record_rectifying(&design).map_err(invalid)?;
     }
     finish(args, &report, &source)

@@ -134,15 +134,20 @@ pub fn run(
         });
         Ok::<_, Error>((entry, (judged, severity)))
     })?;
-    let accepted = audited.accepted.map(|d| d.to_string());
-    let bytes = report(args, &known, judged, severity, accepted.clone())?;
+    let again = if args.inspected.is_some() {
+        "judge it again with the units inspected in all and the cumulative count (--inspected N --found K)"
+    } else {
+        "judge it again with every stage's count"
+    };
     let note = match row {
         Some(row) => format!("recorded as seq {} in {}", row.seq, log.display()),
         None => format!(
-            "not recorded in {}: the lot is not decided yet; inspect the next stage and judge it again with every stage's count",
+            "not recorded in {}: the lot is not decided yet; inspect the next stage and {again}",
             log.display()
         ),
     };
+    let accepted = audited.accepted.map(|d| d.to_string());
+    let bytes = report(args, &known, judged, severity, accepted.clone())?;
     eprintln!("{note}");
     Ok((bytes, accepted))
 }
