@@ -17,7 +17,7 @@
 //! | `found` | the count found in each stage's new units, per class ([`Tally`]); with one number and a multi-stage plan, the cumulative count at `inspected` units (`judge --inspected`); for a variables lot, the readings beyond a specification limit |
 //! | `decision` | `accept` or `reject` |
 //! | `inspector`, `note` | free text |
-//! | `seed` | the seed of the random draw of the sample's units, when recorded |
+//! | `seed` | the seed of the random draw of the sample's units (`lotsman draw`), a whole number, when recorded (`judge --seed S` or `--seed-from-lot`) |
 //! | `resubmitted` | `yes` for a resubmitted lot, `no` otherwise |
 //! | `corrective_action` | for the first lot after inspection under the standard was discontinued, the supplier's corrective action that let it resume (MIL-STD-105E 4.8); empty otherwise |
 //! | `mean`, `sd`, `data_sha256` | for a variables lot: its readings' mean and standard deviation, and the SHA-256 of the measurements file ([`Measured`]); empty otherwise |
@@ -359,7 +359,11 @@ impl LedgerRow {
             decision,
             inspector: inspector.to_string(),
             note: note.to_string(),
-            seed: (!seed.is_empty()).then(|| seed.to_string()),
+            seed: if seed.is_empty() {
+                None
+            } else {
+                Some(number("seed", seed)?.to_string())
+            },
             resubmitted,
             corrective_action: (!corrective_action.is_empty())
                 .then(|| corrective_action.to_string()),

@@ -454,3 +454,54 @@ fn a_lot_without_its_first_sample_is_explained() {
         "{verify}"
     );
 }
+
+/// Issue 17: the draw is reproducible from its recorded seed. A lot judged
+/// with --seed-from-lot keeps the seed `draw --plan` used, and `draw
+/// --seed` with that cell draws the same units; --seed keeps a given one.
+#[test]
+fn the_recorded_seed_draws_the_same_units() {
+    let dir = tempfile::tempdir().unwrap();
+    let dir = dir.path();
+    std::fs::write(dir.join("p.yaml"), stdout_of(&["new", "binomial"])).unwrap();
+    run(dir, &["design", "p.yaml", "--in-place"]);
+    judge(dir, "L1", 1, &["--found", "0", "--seed-from-lot"]);
+    judge(dir, "L2", 2, &["--found", "0", "--seed", "987654321"]);
+    let rows = csv_rows(&std::fs::read_to_string(dir.join("log.csv")).unwrap());
+    let by_plan = json(
+        dir,
+        &[
+            "draw",
+            "--lot",
+            "L1",
+            "--lot-size",
+            "1000",
+            "--n",
+            "50",
+            "--plan",
+            "p.yaml",
+            "--format",
+            "json",
+        ],
+    );
+    let seed = rows[0]["seed"].as_str();
+    assert_eq!(seed, by_plan["seed"].to_string());
+    let again = json(
+        dir,
+        &[
+            "draw",
+            "--lot",
+            "L1",
+            "--lot-size",
+            "1000",
+            "--n",
+            "50",
+            "--seed",
+            seed,
+            "--format",
+            "json",
+        ],
+    );
+    assert_eq!(again["positions"], by_plan["positions"]);
+    assert_eq!(rows[1]["seed"], "987654321");
+    assert_eq!(run(dir, &["verify", "log.csv", "--plan", "p.yaml"]).0, 0);
+}

@@ -70,6 +70,20 @@ pub struct RecordFlags {
     /// for the switching rules)
     #[arg(long, requires = "record")]
     pub resubmitted: bool,
+    /// The seed of the draw the sample was taken by, as lotsman draw printed it; kept in
+    /// the ledger's row so that an auditor can draw the same units again
+    #[arg(
+        long,
+        value_name = "S",
+        requires = "record",
+        conflicts_with = "seed_from_lot",
+        allow_hyphen_values = true
+    )]
+    pub seed: Option<String>,
+    /// The sample was drawn with lotsman draw --lot ID --plan PLAN.yaml (seeded from the lot
+    /// ID and this plan source's SHA-256): keep that seed in the ledger's row
+    #[arg(long, requires = "record")]
+    pub seed_from_lot: bool,
     /// After inspection under the standard was discontinued (five lots not accepted on
     /// tightened): the supplier's corrective action that lets it resume, on tightened
     /// inspection, from this lot (MIL-STD-105E 4.8); kept in the ledger's row

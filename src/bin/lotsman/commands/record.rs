@@ -6,7 +6,8 @@ use std::path::Path;
 use lotsman::{
     Audited, Decided, Error, InputError, JudgeReport, KnownPlan, LedgerError, LotDate, LotEntry,
     Measured, MeasurementJudgeReport, MeasurementJudgement, PlanSource, StandardJudgeReport, Tally,
-    VariablesPlan, append_lot, judge_measurements, parse_count, read_measurements, replay,
+    VariablesPlan, append_lot, draw_seed, judge_measurements, parse_count, read_measurements,
+    replay, text_sha256,
 };
 
 use crate::cli::judge::{Found, JudgeArgs};
@@ -36,6 +37,13 @@ pub fn run(
         None => audited.source.lot_size,
     };
     let text = PlanSource::read_text(&args.source)?;
+    // The seed kept is one `lotsman draw` takes: a whole number, given, or
+    // the one it derives from the lot ID and this source's SHA-256.
+    let seed = match (&flags.seed, flags.seed_from_lot) {
+        (Some(s), _) => Some(parse_count("seed (--seed)", s, u64::MAX)?.to_string()),
+        (None, true) => Some(draw_seed(Some(&text_sha256(&text)), &lot).to_string()),
+        (None, false) => None,
+    };
     let known = KnownPlan::from_source(&args.source, &text, &audited.source)?;
     let invalid = |m: String| Error::from(InputError::Inconsistent(m));
     if flags.corrective_action.is_some() && known.rules().is_none() {
@@ -127,7 +135,7 @@ pub fn run(
             decision: decided.decision,
             inspector: flags.inspector.clone().unwrap_or_default(),
             note: flags.note.clone().unwrap_or_default(),
-            seed: None,
+            seed: seed.clone(),
             resubmitted: flags.resubmitted,
             corrective_action: flags.corrective_action.clone(),
             measured: judged.measured.as_ref().map(|m| m.cells.clone()),
