@@ -22,7 +22,7 @@ use serde::{Serialize, Serializer};
 
 use super::format::{Report, csv_writer};
 use crate::ledger::{ClassAverage, LedgerStatus};
-use crate::numeric::format_quality;
+use crate::numeric::{format_quality, format_short};
 use crate::plan::{Stage, StagedPlan};
 use crate::standard::Counter;
 
@@ -53,7 +53,8 @@ pub struct StageJson {
 pub struct NextClassPlan {
     /// The class (null for a plan without named classes).
     pub class: Option<String>,
-    /// Its AQL as the standard labels it (standard-indexed sources).
+    /// Its AQL as the standard labels it (standard-indexed sources), or a
+    /// designed plan's producer's quality as the report prints qualities.
     pub aql: Option<String>,
     /// The plan in words (`n = 125, c = 3`, stages, or item-by-item lines).
     pub plan: String,
@@ -144,7 +145,11 @@ impl StatusReport {
                     code_letter: None,
                     classes: vec![NextClassPlan {
                         class: None,
-                        aql: None,
+                        aql: plan
+                            .targets
+                            .first()
+                            .and_then(|t| t.aql)
+                            .map(|q| self.quality(q)),
                         plan: text,
                         stages,
                         inspect_all: false,
@@ -341,11 +346,31 @@ impl Report for StatusReport {
             ));
             for a in &st.averages {
                 let label = a.class.as_ref().map_or(String::new(), |c| format!("{c}: "));
+                // A rate reads "per unit (per 100 units)" already: its
+                // interval follows in words rather than in more brackets.
+                let (estimate, interval) = if st.nonconformities() {
+                    (
+                        self.quality(a.interval.estimate),
+                        format!(
+                            ", 95% interval {} to {} per unit ({} to {} per 100 units)",
+                            format_short(a.interval.lower, 4),
+                            format_short(a.interval.upper, 4),
+                            format_short(100.0 * a.interval.lower, 4),
+                            format_short(100.0 * a.interval.upper, 4)
+                        ),
+                    )
+                } else {
+                    (
+                        self.quality(a.interval.estimate),
+                        format!(
+                            " ({} to {})",
+                            self.quality(a.interval.lower),
+                            self.quality(a.interval.upper)
+                        ),
+                    )
+                };
                 t.push_str(&format!(
-                    "  {label}{} ({} to {}), {} found in {} units of {} lot{}\n",
-                    self.quality(a.interval.estimate),
-                    self.quality(a.interval.lower),
-                    self.quality(a.interval.upper),
+                    "  {label}{estimate}{interval}, {} found in {} units of {} lot{}\n",
                     a.found,
                     a.inspected,
                     a.lots,
