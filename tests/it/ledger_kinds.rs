@@ -464,7 +464,13 @@ fn the_recorded_seed_draws_the_same_units() {
     let dir = dir.path();
     std::fs::write(dir.join("p.yaml"), stdout_of(&["new", "binomial"])).unwrap();
     run(dir, &["design", "p.yaml", "--in-place"]);
-    judge(dir, "L1", 1, &["--found", "0", "--seed-from-lot"]);
+    let (_, said) = judge(dir, "L1", 1, &["--found", "0", "--seed-from-lot"]);
+    // The template's id is still a placeholder: the ledger keeps it, and
+    // judge says so.
+    assert!(
+        said.contains("the id still holds the template's placeholder <document number>"),
+        "{said}"
+    );
     judge(dir, "L2", 2, &["--found", "0", "--seed", "987654321"]);
     let rows = csv_rows(&std::fs::read_to_string(dir.join("log.csv")).unwrap());
     let by_plan = json(

@@ -6,12 +6,12 @@ use std::path::Path;
 use lotsman::{
     Audited, Decided, Error, InputError, JudgeReport, KnownPlan, LedgerError, LotDate, LotEntry,
     Measured, MeasurementJudgeReport, MeasurementJudgement, PlanSource, StandardJudgeReport, Tally,
-    VariablesPlan, append_lot, draw_seed, judge_measurements, parse_count, read_measurements,
-    replay, text_sha256,
+    VariablesPlan, append_lot, draw_seed, judge_measurements, parse_count, placeholders,
+    read_measurements, replay, text_sha256,
 };
 
 use crate::cli::judge::{Found, JudgeArgs};
-use crate::out::report_bytes;
+use crate::out::{report_bytes, say};
 
 /// Judges and records the lot of `args` by the audited source.
 pub fn run(
@@ -45,6 +45,20 @@ pub fn run(
         (None, false) => None,
     };
     let known = KnownPlan::from_source(&args.source, &text, &audited.source)?;
+    // The row keeps the source's id and revision as written: a template's
+    // placeholder there would name no document for years.
+    for p in placeholders(&audited.source)
+        .iter()
+        .filter(|p| matches!(p.field, "id" | "revision"))
+    {
+        say(format_args!(
+            "warning: {}: the {} still holds the template's placeholder {}; the ledger keeps it in this row as written: fill in the source's {} before recording more lots",
+            args.source.display(),
+            p.field,
+            p.text,
+            p.field
+        ));
+    }
     let invalid = |m: String| Error::from(InputError::Inconsistent(m));
     if flags.corrective_action.is_some() && known.rules().is_none() {
         return Err(invalid(
