@@ -248,11 +248,11 @@ fn variables_row(source: &PlanSource, name: &str) -> Result<(DemoRow, Vec<u8>), 
         let j = judge_measurements(&plan, &values, request.risks().producer().quality)?;
         let mut verdict = format!(
             "{} ({}; n = {}, mean {:.4}, s {:.4})",
-            match j.decision {
+            match j.decided.decision {
                 Decision::Accept => "ACCEPT",
                 _ => "REJECT",
             },
-            j.rule,
+            j.decided.rule,
             j.n,
             j.mean,
             j.s

@@ -21,8 +21,7 @@
 use serde::Serialize;
 use statrs::distribution::{ChiSquared, ContinuousCDF};
 
-use super::judge::Decision;
-use super::statistics_decision::{SideStatistic, StatisticsDecision, decide_from_statistics};
+use super::statistics_decision::{StatisticsDecision, decide_from_statistics};
 use super::variables::VariablesPlan;
 use crate::input::InputError;
 use crate::model::normal;
@@ -259,18 +258,10 @@ pub struct MeasurementJudgement {
     pub mean: f64,
     /// Sample standard deviation (`n - 1` divisor).
     pub s: f64,
-    /// The sigma the statistics divide by (the known one, or `s`).
-    pub sigma_used: f64,
-    /// Against the lower limit.
-    pub lower: Option<SideStatistic>,
-    /// Against the upper limit.
-    pub upper: Option<SideStatistic>,
-    /// The estimated fraction nonconforming beyond both limits.
-    pub estimate: Option<f64>,
-    /// Accept or reject.
-    pub decision: Decision,
-    /// The rule applied, with its numbers.
-    pub rule: String,
+    /// What the statistics decide: the quality statistics, the estimate,
+    /// the decision and its rule (flattened into the same JSON keys).
+    #[serde(flatten)]
+    pub decided: StatisticsDecision,
     /// The normality test (at least 3 distinct readings).
     pub normality: Option<AndersonDarling>,
     /// Sigma known: the p-value of the chi-square test of `s` against it.
@@ -323,14 +314,7 @@ pub fn judge_measurements(
         ));
     }
     let spec = plan.spec();
-    let StatisticsDecision {
-        sigma_used,
-        lower,
-        upper,
-        estimate,
-        decision,
-        rule,
-    } = decide_from_statistics(plan, n, mean, s);
+    let decided = decide_from_statistics(plan, n, mean, s);
     let mut warnings = Vec::new();
     let normality = (n >= 3).then(|| anderson_darling(values));
     match normality {
@@ -372,12 +356,7 @@ pub fn judge_measurements(
         n,
         mean,
         s,
-        sigma_used,
-        lower,
-        upper,
-        estimate,
-        decision,
-        rule,
+        decided,
         normality,
         sigma_p_value,
         warnings,

@@ -32,7 +32,7 @@ pub struct SideStatistic {
 }
 
 /// What the statistics decide under a variables plan.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct StatisticsDecision {
     /// The sigma the statistics divide by (the known one, or `s`).
     pub sigma_used: f64,

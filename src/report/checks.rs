@@ -214,12 +214,12 @@ impl MeasurementJudgement {
     /// # Errors
     /// [`NumericalError`] naming the first number out of its range.
     pub fn check(&self) -> Checked {
-        for side in self.lower.iter().chain(&self.upper) {
+        for side in self.decided.lower.iter().chain(&self.decided.upper) {
             if let Some(e) = side.estimate {
                 check(Quantity::Fraction, "estimated fraction beyond a limit", e)?;
             }
         }
-        if let Some(e) = self.estimate {
+        if let Some(e) = self.decided.estimate {
             check(Quantity::Fraction, "estimated fraction nonconforming", e)?;
         }
         if let Some(ad) = &self.normality {

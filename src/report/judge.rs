@@ -179,14 +179,14 @@ impl Report for MeasurementJudgeReport {
         for w in &j.warnings {
             t.push_str(&format!("WARNING: {w}\n"));
         }
-        let verdict = match (j.decision, j.warnings.is_empty()) {
+        let verdict = match (j.decided.decision, j.warnings.is_empty()) {
             (Decision::Accept, true) => "ACCEPT the lot",
             (Decision::Accept, false) => {
                 "ACCEPT the lot by the variables rule, but read the warnings above before releasing it"
             }
             _ => "REJECT the lot",
         };
-        t.push_str(&format!("{verdict}: {}\n", j.rule));
+        t.push_str(&format!("{verdict}: {}\n", j.decided.rule));
         t.push_str(&format!(
             "  n = {}, mean = {:.6}, s = {:.6}{}\n",
             j.n,
@@ -197,7 +197,10 @@ impl Report for MeasurementJudgeReport {
             ))
         ));
         let by = if known.is_some() { "sigma" } else { "s" };
-        for (name, side) in [("Q_L = (xbar - L)", j.lower), ("Q_U = (U - xbar)", j.upper)] {
+        for (name, side) in [
+            ("Q_L = (xbar - L)", j.decided.lower),
+            ("Q_U = (U - xbar)", j.decided.upper),
+        ] {
             if let Some(sd) = side {
                 t.push_str(&format!(
                     "  {name} / {by} = {:.4} (limit {}){}\n",
@@ -210,7 +213,7 @@ impl Report for MeasurementJudgeReport {
                 ));
             }
         }
-        if let Some(e) = j.estimate {
+        if let Some(e) = j.decided.estimate {
             t.push_str(&format!(
                 "  estimated fraction nonconforming {:.4}%\n",
                 100.0 * e
@@ -262,15 +265,15 @@ impl Report for MeasurementJudgeReport {
             "accepted_recorded",
         ])?;
         w.write_record([
-            decision_name(j.decision).to_string(),
-            j.rule.clone(),
+            decision_name(j.decided.decision).to_string(),
+            j.decided.rule.clone(),
             j.n.to_string(),
             num(j.mean),
             num(j.s),
-            num(j.sigma_used),
-            opt(j.lower.map(|sd| sd.q)),
-            opt(j.upper.map(|sd| sd.q)),
-            opt(j.estimate),
+            num(j.decided.sigma_used),
+            opt(j.decided.lower.map(|sd| sd.q)),
+            opt(j.decided.upper.map(|sd| sd.q)),
+            opt(j.decided.estimate),
             opt(j.normality.map(|ad| ad.p_value)),
             opt(j.sigma_p_value),
             j.warnings.join("; "),

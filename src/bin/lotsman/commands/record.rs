@@ -215,7 +215,7 @@ fn measured(
         .count() as u64;
     Ok(Lot {
         decided: Decided {
-            decision: judgement.decision,
+            decision: judgement.decided.decision,
             found: Tally::single(vec![beyond]),
             inspected: Tally::single(vec![judgement.n]),
             code_letter: None,
