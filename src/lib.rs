@@ -104,8 +104,8 @@ pub use ledger::{
     LEDGER_FORMAT, Ledger, LedgerError, LedgerLine, LedgerRow, LedgerStatus, LotDate, LotEntry,
     LotSample, MAX_FOLDER_FILES, MAX_LEDGER_BYTES, Measured, PROCESS_AVERAGE_LEVEL, QualityTarget,
     Replay, SIGMAS, Tally, TornLine, append_lot, chain_break, chain_hash, control_limits,
-    decision_name, ledger_header, ledger_history, ledger_status, lot_samples, plans_beside,
-    process_averages, replay, row_line,
+    decision_name, ledger_header, ledger_history, ledger_plans, ledger_status, lot_samples,
+    plans_beside, process_averages, replay, row_line,
 };
 pub use model::{
     Interval, MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, Tails,

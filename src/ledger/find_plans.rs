@@ -105,6 +105,19 @@ pub fn plans_beside(ledger: &Ledger) -> Result<Vec<KnownPlan>, Error> {
     Ok(found)
 }
 
+/// The plan sources of `ledger`'s rows: those `given` (`--plan`), or
+/// when none is given, the ones beside it ([`plans_beside`]).
+///
+/// # Errors
+/// As [`KnownPlan::load`] and [`plans_beside`].
+pub fn ledger_plans(ledger: &Ledger, given: &[PathBuf]) -> Result<Vec<KnownPlan>, Error> {
+    if given.is_empty() {
+        plans_beside(ledger)
+    } else {
+        given.iter().map(|p| KnownPlan::load(p)).collect()
+    }
+}
+
 fn is_yaml(path: &Path) -> bool {
     path.extension()
         .and_then(|e| e.to_str())

@@ -35,7 +35,7 @@ mod tally;
 pub use append::{append_lot, row_line};
 pub use date::LotDate;
 pub use error::LedgerError;
-pub use find_plans::{MAX_FOLDER_FILES, plans_beside};
+pub use find_plans::{MAX_FOLDER_FILES, ledger_plans, plans_beside};
 pub use hash::{GENESIS, chain_hash};
 pub use history::{History, HistoryLot, SIGMAS, control_limits, ledger_history};
 pub use measured::Measured;

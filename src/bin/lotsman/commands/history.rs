@@ -2,8 +2,8 @@
 //! and the running process average, as a table and a chart.
 
 use lotsman::{
-    Error, HistoryFormat, HistoryReport, InputError, KnownPlan, Ledger, Outcome, ledger_history,
-    plans_beside, render_history, write_atomic,
+    Error, HistoryFormat, HistoryReport, InputError, Ledger, Outcome, ledger_history, ledger_plans,
+    render_history, write_atomic,
 };
 
 use crate::cli::history::HistoryArgs;
@@ -32,14 +32,7 @@ pub fn run(args: HistoryArgs) -> Result<Outcome, Error> {
         }
     };
     let ledger = Ledger::read(&args.ledger)?;
-    let plans = if args.plan.is_empty() {
-        plans_beside(&ledger)?
-    } else {
-        args.plan
-            .iter()
-            .map(|p| KnownPlan::load(p))
-            .collect::<Result<Vec<_>, _>>()?
-    };
+    let plans = ledger_plans(&ledger, &args.plan)?;
     let history = ledger_history(&ledger, &plans, args.class.as_deref())?;
     if let Some((path, format)) = chart {
         let title = format!("Lot history: {}", shown(&args.ledger));
