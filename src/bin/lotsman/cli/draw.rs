@@ -10,6 +10,7 @@ use super::values::ReportFormatArg;
 
 /// `draw`: which units of a lot to inspect, drawn at random from a seed.
 #[derive(Debug, Args)]
+#[group(id = "units", required = true, multiple = false)]
 pub struct DrawArgs {
     /// The lot's ID, as on its label; it seeds the draw unless --seed is given
     #[arg(long, value_name = "ID")]
@@ -17,23 +18,22 @@ pub struct DrawArgs {
     /// Units in the lot, numbered 1 to N
     #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub lot_size: String,
-    /// Units to draw (the plan's sample size). For a double or multiple plan, give it once
-    /// per stage (--n 32 --n 32): stage 1 is the draw of its size alone, and each later
-    /// stage is drawn from the units the stages before it left
+    /// Units to draw (the plan's sample size); once per stage for a double or multiple plan
+    /// (--n 32 --n 32), each stage from the units the stages before it left
     #[arg(
         long = "n",
         value_name = "K",
         allow_hyphen_values = true,
-        required_unless_present = "items"
+        group = "units"
     )]
     pub sample: Vec<String>,
-    /// For an item-by-item plan: K units one at a time, in the order to inspect them, each
-    /// drawn from the units not drawn yet
+    /// For an item-by-item plan: K units one at a time, in the order to inspect them
     #[arg(
         long,
         value_name = "K",
         allow_hyphen_values = true,
-        conflicts_with_all = ["sample", "cartons"]
+        group = "units",
+        conflicts_with = "cartons"
     )]
     pub items: Option<String>,
     /// The plan source: its SHA-256 joins the lot ID in the seed
