@@ -17,6 +17,11 @@
 //! * Cartons ([`carton_shares`]): the sample is allocated to the cartons
 //!   in proportion to their sizes by largest remainders, then drawn
 //!   carton by carton, in carton order, from the one generator.
+//! * Stages ([`draw_stages`]): stage 1 is the single draw of its size;
+//!   each later stage, from the same generator, is Floyd's sample of the
+//!   units the stages before it left, so that no unit is drawn twice and
+//!   the first stages of a longer draw are the draw of those stages alone.
+//!   An item-by-item draw is stages of one unit each, in order.
 //!
 //! No higher-level sampling method of the `rand` crates is used: their
 //! output may change between versions, these steps cannot.
@@ -24,11 +29,17 @@
 mod cartons;
 mod floyd;
 mod generator;
+mod kind;
 mod request;
 mod seed;
+mod stages;
+mod work;
 
 pub use cartons::{CartonShare, carton_shares};
 pub use floyd::floyd_sample;
 pub use generator::{DRAW_GENERATOR, Generator};
-pub use request::{Draw, DrawRequest, DrawnUnit, draw, draw_work};
+pub use kind::DrawKind;
+pub use request::{Draw, DrawRequest, DrawnUnit, draw};
 pub use seed::{SeedSource, draw_seed};
+pub use stages::draw_stages;
+pub use work::draw_work;

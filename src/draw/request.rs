@@ -5,8 +5,10 @@ use serde::Serialize;
 use super::cartons::{CartonShare, carton_shares};
 use super::floyd::floyd_sample;
 use super::generator::Generator;
+use super::kind::{DrawKind, check_sizes};
 use super::seed::SeedSource;
-use crate::budget::Work;
+use super::stages::draw_stages;
+use super::work::draw_work;
 use crate::input::InputError;
 use crate::model::MAX_LOT_SIZE;
 use crate::plain::is_unsafe_char;
@@ -14,14 +16,15 @@ use crate::plain::is_unsafe_char;
 /// The longest lot ID, in bytes.
 const MAX_LOT_ID_BYTES: usize = 200;
 
-/// What to draw: from which lot, how many units, in how many cartons, with
-/// which seed. Built by [`DrawRequest::new`], so that a request that
-/// exists can be drawn.
+/// What to draw: from which lot, how many units in which stages, in how
+/// many cartons, with which seed. Built by [`DrawRequest::new`],
+/// [`DrawRequest::staged`] or [`DrawRequest::items`], so that a request
+/// that exists can be drawn.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct DrawRequest {
     lot: String,
     lot_size: u64,
-    sample: u64,
+    kind: DrawKind,
     cartons: Option<u64>,
     seed: u64,
     seed_source: SeedSource,
@@ -46,6 +49,72 @@ impl DrawRequest {
         seed: u64,
         seed_source: SeedSource,
     ) -> Result<Self, InputError> {
+        Self::staged(lot, lot_size, &[sample], cartons, seed, seed_source)
+    }
+
+    /// A draw in stages of `sizes` units (a double or multiple plan's
+    /// sample sizes, stage 1 first); one size is [`DrawRequest::new`]'s
+    /// draw. Stage 1 is the same as a single draw of its size, and each
+    /// later stage is drawn from the units the stages before it left
+    /// ([`draw`]), so that drawing the first stages again gives the same
+    /// units.
+    ///
+    /// # Errors
+    /// As [`DrawRequest::new`], and: no stage, a stage of 0 units, stages
+    /// that together pass the lot (the refusal names the total), and
+    /// cartons with more than one stage (the cartons' shares are of one
+    /// sample).
+    pub fn staged(
+        lot: &str,
+        lot_size: u64,
+        sizes: &[u64],
+        cartons: Option<u64>,
+        seed: u64,
+        seed_source: SeedSource,
+    ) -> Result<Self, InputError> {
+        Self::build(
+            lot,
+            lot_size,
+            DrawKind::Stages(sizes.to_vec()),
+            cartons,
+            seed,
+            seed_source,
+        )
+    }
+
+    /// A draw of `items` units one at a time, in the order to inspect
+    /// them, for an item-by-item (sequential) plan: `items` stages of one
+    /// unit each ([`DrawRequest::staged`]), each a uniform choice among
+    /// the units not drawn yet. The first items of a longer list are the
+    /// items of a shorter one.
+    ///
+    /// # Errors
+    /// As [`DrawRequest::new`] without cartons, with `--items` named.
+    pub fn items(
+        lot: &str,
+        lot_size: u64,
+        items: u64,
+        seed: u64,
+        seed_source: SeedSource,
+    ) -> Result<Self, InputError> {
+        Self::build(
+            lot,
+            lot_size,
+            DrawKind::Items(items),
+            None,
+            seed,
+            seed_source,
+        )
+    }
+
+    fn build(
+        lot: &str,
+        lot_size: u64,
+        kind: DrawKind,
+        cartons: Option<u64>,
+        seed: u64,
+        seed_source: SeedSource,
+    ) -> Result<Self, InputError> {
         if lot.trim().is_empty() {
             return Err(InputError::Inconsistent(
                 "the lot ID (--lot) is empty; give the lot's ID as written on its label".into(),
@@ -65,18 +134,7 @@ impl DrawRequest {
                 "a whole number from 1 to 1000000000000",
             ));
         }
-        if sample == 0 {
-            return Err(InputError::out_of_range(
-                "sample size (--n)",
-                0,
-                "at least 1 unit; a plan that inspects no unit needs no draw",
-            ));
-        }
-        if sample > lot_size {
-            return Err(InputError::Inconsistent(format!(
-                "the sample (--n {sample}) is larger than the lot (--lot-size {lot_size}): inspect every unit of the lot; there is nothing to draw"
-            )));
-        }
+        check_sizes(&kind, lot_size)?;
         if let Some(c) = cartons {
             if c == 0 {
                 return Err(InputError::out_of_range(
@@ -90,15 +148,23 @@ impl DrawRequest {
                     "{c} cartons (--cartons) cannot each hold a unit of a lot of {lot_size}: give at most {lot_size} cartons"
                 )));
             }
+            if kind.stage_count() > 1 || matches!(kind, DrawKind::Items(_)) {
+                return Err(InputError::Inconsistent(
+                    "--cartons shares one sample among cartons; for a plan of several stages or items draw without --cartons, or draw each stage's carton share by hand".into(),
+                ));
+            }
         }
-        draw_work(lot_size, sample, cartons).check(
-            "this draw",
-            "draw a smaller sample, or split the lot and draw each part",
-        )?;
+        let advice = match kind {
+            DrawKind::Items(_) => {
+                "draw fewer items: a longer list drawn later begins with the same items"
+            }
+            DrawKind::Stages(_) => "draw a smaller sample, or split the lot and draw each part",
+        };
+        draw_work(lot_size, &kind, cartons).check("this draw", advice)?;
         Ok(DrawRequest {
             lot: lot.to_string(),
             lot_size,
-            sample,
+            kind,
             cartons,
             seed,
             seed_source,
@@ -115,9 +181,14 @@ impl DrawRequest {
         self.lot_size
     }
 
-    /// The sample size n.
+    /// The sample size n: all stages' units together.
     pub fn sample(&self) -> u64 {
-        self.sample
+        self.kind.total()
+    }
+
+    /// How the units are laid out: stages, or items one at a time.
+    pub fn kind(&self) -> &DrawKind {
+        &self.kind
     }
 
     /// The number of cartons of a stratified draw.
@@ -136,24 +207,6 @@ impl DrawRequest {
     }
 }
 
-/// The work of a draw of `sample` units from `lot_size` in `cartons`.
-///
-/// Time: 150 ns per unit drawn (one ChaCha20 word, a set insertion, the
-/// sort and the printed row) and 100 ns per carton, on the calibration
-/// machine: a sample of 10^7 takes about 1.5 s. Memory: per unit drawn, 8
-/// bytes of position, 24 of hash set (or one bit per position of the
-/// carton, when smaller) and 48 of printed text; 80 bytes per carton. A
-/// sample of 10^7 needs about 800 MB, within the budget of 1 GiB.
-pub fn draw_work(lot_size: u64, sample: u64, cartons: Option<u64>) -> Work {
-    #[allow(clippy::cast_precision_loss)]
-    let (n, k, c) = (lot_size as f64, sample as f64, cartons.unwrap_or(1) as f64);
-    let set = (24.0 * k).min(n / 8.0);
-    Work {
-        seconds: 150e-9 * k + 100e-9 * c,
-        bytes: (8.0 + 48.0) * k + set + 80.0 * c,
-    }
-}
-
 /// One unit drawn: its lot position, and its carton and place in the
 /// carton in a stratified draw.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
@@ -166,7 +219,8 @@ pub struct DrawnUnit {
     pub in_carton: Option<u64>,
 }
 
-/// A draw: the request, the cartons' shares and the positions drawn.
+/// A draw: the request, the cartons' shares and the positions drawn,
+/// stage by stage and all together.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct Draw {
     /// What was drawn.
@@ -176,6 +230,10 @@ pub struct Draw {
     pub shares: Vec<CartonShare>,
     /// The positions drawn, in increasing order, without repeats.
     pub positions: Vec<u64>,
+    /// Each stage's positions, in increasing order, stage 1 first: one
+    /// stage for a single draw; for an item-by-item draw, one stage per
+    /// item, in the order to inspect them.
+    pub stages: Vec<Vec<u64>>,
 }
 
 impl Draw {
@@ -198,11 +256,13 @@ impl Draw {
 }
 
 /// Draws the units of `request`: the generator keyed by its seed
-/// ([`Generator::new`]); without cartons, Floyd's sample of the sample
-/// size from `1..=N`; with cartons, the shares of [`carton_shares`], then
-/// Floyd's sample of each carton's share from its units, carton 1 first,
-/// all from the one generator, each carton's positions shifted to the
-/// lot's numbering.
+/// ([`Generator::new`]); without cartons, the stages of [`draw_stages`]
+/// (for one stage, Floyd's sample of the sample size from `1..=N`; each
+/// later stage Floyd's sample from the units the stages before it left;
+/// an item-by-item draw as stages of one unit); with cartons (one stage),
+/// the shares of [`carton_shares`], then Floyd's sample of each carton's
+/// share from its units, carton 1 first, all from the one generator, each
+/// carton's positions shifted to the lot's numbering.
 ///
 /// ```
 /// use lotsman::{DrawRequest, SeedSource, draw};
@@ -211,27 +271,33 @@ impl Draw {
 /// assert_eq!(d.positions.len(), 20);
 /// assert!(d.positions.windows(2).all(|w| w[0] < w[1]));
 /// assert_eq!(d.positions, draw(&r).positions);
+/// // Stage 1 of a double plan's draw is the single draw of its size.
+/// let two = DrawRequest::staged("L-1", 500, &[20, 20], None, 42, SeedSource::Given).unwrap();
+/// assert_eq!(draw(&two).stages[0], d.positions);
 /// ```
 pub fn draw(request: &DrawRequest) -> Draw {
     let mut generator = Generator::new(request.seed);
-    let (shares, positions) = match request.cartons {
-        None => (
-            Vec::new(),
-            floyd_sample(&mut generator, request.lot_size, request.sample),
-        ),
+    let (shares, stages, positions) = match request.cartons {
+        None => {
+            let (stages, positions) =
+                draw_stages(&mut generator, request.lot_size, &request.kind.sizes());
+            (Vec::new(), stages, positions)
+        }
         Some(c) => {
-            let shares = carton_shares(request.lot_size, c, request.sample);
-            let mut positions = Vec::with_capacity(usize::try_from(request.sample).unwrap_or(0));
+            let sample = request.sample();
+            let shares = carton_shares(request.lot_size, c, sample);
+            let mut positions = Vec::with_capacity(usize::try_from(sample).unwrap_or(0));
             for share in &shares {
                 let drawn = floyd_sample(&mut generator, share.size, share.sample);
                 positions.extend(drawn.into_iter().map(|p| share.first + p - 1));
             }
-            (shares, positions)
+            (shares, vec![positions.clone()], positions)
         }
     };
     Draw {
         request: request.clone(),
         shares,
         positions,
+        stages,
     }
 }

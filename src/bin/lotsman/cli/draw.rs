@@ -10,6 +10,7 @@ use super::values::ReportFormatArg;
 
 /// `draw`: which units of a lot to inspect, drawn at random from a seed.
 #[derive(Debug, Args)]
+#[group(id = "units", required = true, multiple = false)]
 pub struct DrawArgs {
     /// The lot's ID, as on its label; it seeds the draw unless --seed is given
     #[arg(long, value_name = "ID")]
@@ -17,9 +18,24 @@ pub struct DrawArgs {
     /// Units in the lot, numbered 1 to N
     #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub lot_size: String,
-    /// Units to draw (the plan's sample size; for a staged plan, the stage's)
-    #[arg(long = "n", value_name = "K", allow_hyphen_values = true)]
-    pub sample: String,
+    /// Units to draw (the plan's sample size); once per stage for a double or multiple plan
+    /// (--n 32 --n 32), each stage from the units the stages before it left
+    #[arg(
+        long = "n",
+        value_name = "K",
+        allow_hyphen_values = true,
+        group = "units"
+    )]
+    pub sample: Vec<String>,
+    /// For an item-by-item plan: K units one at a time, in the order to inspect them
+    #[arg(
+        long,
+        value_name = "K",
+        allow_hyphen_values = true,
+        group = "units",
+        conflicts_with = "cartons"
+    )]
+    pub items: Option<String>,
     /// The plan source: its SHA-256 joins the lot ID in the seed
     #[arg(long, value_name = "PLAN.yaml")]
     pub plan: Option<PathBuf>,
@@ -49,7 +65,16 @@ impl DrawArgs {
     /// source's text when --plan was given.
     pub fn request(&self, plan_sha256: Option<String>) -> Result<DrawRequest, InputError> {
         let lot_size = parse_count("lot size (--lot-size)", &self.lot_size, MAX_LOT_SIZE)?;
-        let sample = parse_count("sample size (--n)", &self.sample, MAX_LOT_SIZE)?;
+        let sizes = self
+            .sample
+            .iter()
+            .map(|k| parse_count("sample size (--n)", k, MAX_LOT_SIZE))
+            .collect::<Result<Vec<u64>, InputError>>()?;
+        let items = self
+            .items
+            .as_deref()
+            .map(|k| parse_count("items to draw (--items)", k, MAX_LOT_SIZE))
+            .transpose()?;
         let cartons = self
             .cartons
             .as_deref()
@@ -66,6 +91,9 @@ impl DrawArgs {
                 SeedSource::PlanAndLot { plan_sha256: h },
             ),
         };
-        DrawRequest::new(&self.lot, lot_size, sample, cartons, seed, source)
+        match items {
+            Some(k) => DrawRequest::items(&self.lot, lot_size, k, seed, source),
+            None => DrawRequest::staged(&self.lot, lot_size, &sizes, cartons, seed, source),
+        }
     }
 }
