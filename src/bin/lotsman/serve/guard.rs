@@ -12,9 +12,9 @@ use axum::middleware::Next;
 use axum::response::{IntoResponse, Redirect, Response};
 use lotsman::escape_controls;
 
-use super::app::{AppState, MAX_BODY};
 use super::page::Refusal;
 use super::session::{Session, same};
+use super::state::{AppState, MAX_BODY};
 
 /// The form field of the CSRF token.
 pub const CSRF_FIELD: &str = "csrf";

@@ -7,7 +7,7 @@
 //! path from arguments to plan as `lotsman design`), so no page shows a
 //! number the command line would not print.
 //!
-//! - [`app`]: the routes and the state they share;
+//! - [`app`]: the routes; [`state`]: what the requests share;
 //! - [`guard`], [`session`]: the Host check, the login and the CSRF
 //!   token of every form;
 //! - [`workspace`]: file names confined to the workspace folder;
@@ -19,6 +19,7 @@ mod guard;
 mod page;
 mod pages;
 mod session;
+mod state;
 mod workspace;
 
 use std::io::{ErrorKind, Write};
@@ -27,7 +28,8 @@ use std::net::SocketAddr;
 use lotsman::{Error, InputError, Outcome, io_reason};
 
 use crate::cli::serve::{ServeArgs, ServeSettings};
-use app::{AppState, router};
+use app::router;
+use state::AppState;
 use workspace::Workspace;
 
 /// Runs the server until Ctrl-C.

@@ -6,8 +6,8 @@ use axum::extract::State;
 use axum::http::StatusCode;
 use axum::response::Response;
 
-use crate::serve::app::AppState;
 use crate::serve::page::render;
+use crate::serve::state::AppState;
 
 #[derive(Template)]
 #[template(path = "serve/home.html")]

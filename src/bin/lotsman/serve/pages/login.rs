@@ -11,10 +11,10 @@ use axum::extract::{Form, State};
 use axum::http::{HeaderValue, StatusCode, header};
 use axum::response::{IntoResponse, Redirect, Response};
 
-use crate::serve::app::AppState;
 use crate::serve::guard::posted;
 use crate::serve::page::{Refusal, render};
 use crate::serve::session::{Session, same};
+use crate::serve::state::AppState;
 
 #[derive(Template)]
 #[template(path = "serve/login.html")]

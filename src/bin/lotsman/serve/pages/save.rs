@@ -16,10 +16,10 @@ use lotsman::{Error, FileError, Overwrite, shell_word, write_atomic};
 
 use super::design::{DesignFields, design, headline};
 use crate::cli::design::DescriptionFlags;
-use crate::serve::app::AppState;
 use crate::serve::guard::posted;
 use crate::serve::page::{Refusal, render};
 use crate::serve::session::Session;
+use crate::serve::state::AppState;
 
 #[derive(Template)]
 #[template(path = "serve/saved.html")]
