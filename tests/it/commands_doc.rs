@@ -98,7 +98,7 @@ fn every_command_of_the_help_is_found() {
         names,
         [
             "design", "evaluate", "verify", "judge", "sheet", "tradeoff", "new", "demo", "rectify",
-            "standard", "draw", "status", "history"
+            "standard", "draw", "status", "history", "serve"
         ]
     );
 }

@@ -37,6 +37,7 @@ mod rectify_cli;
 mod rectify_source;
 mod rectifying;
 mod refusals;
+mod serve;
 mod sheet;
 mod snapshots;
 mod staged;

@@ -10,6 +10,7 @@ mod cli;
 mod commands;
 mod out;
 mod progress;
+mod serve;
 
 use std::process::ExitCode;
 
@@ -45,6 +46,7 @@ fn run(command: Command) -> Result<Outcome, Error> {
         Command::Draw(args) => commands::draw::run(args),
         Command::Status(args) => commands::status::run(args),
         Command::History(args) => commands::history::run(args),
+        Command::Serve(args) => serve::run(args),
     }
 }
 

@@ -118,7 +118,7 @@ pub enum LimitArg {
 }
 
 /// The document fields recorded in the plan source for its sheet.
-#[derive(Debug, Args)]
+#[derive(Debug, Default, Args)]
 pub struct DescriptionFlags {
     /// Plan identifier (document number), recorded as `id` for the sheet
     #[arg(long, value_name = "TEXT")]

@@ -13,6 +13,7 @@ pub mod judge;
 pub mod new;
 pub mod qualities;
 pub mod rectify;
+pub mod serve;
 pub mod sheet;
 pub mod standard;
 pub mod status;
@@ -64,6 +65,9 @@ pub enum Command {
     /// Each lot of a ledger on a control chart (p- or u-chart of first samples) with the
     /// running process average: a table, and a PDF or SVG chart.
     History(history::HistoryArgs),
+    /// The local web face: design a plan and save it as a plan source, in a browser on this
+    /// machine.
+    Serve(serve::ServeArgs),
 }
 
 impl Cli {

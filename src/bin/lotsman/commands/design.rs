@@ -6,7 +6,7 @@ use std::path::Path;
 
 use lotsman::{
     DesignError, DesignReport, DesignRequest, Error, Format, InputError, Outcome, PlanSource,
-    RectifyingReport, Report, SourceError, StandardPlansReport, VariablesDesignReport,
+    RectifyingReport, Report, Solution, SourceError, StandardPlansReport, VariablesDesignReport,
     VariablesRequest, design_rectifying, refuse_overwriting_input, sensitivity, shell_path,
     shell_word, solve, solve_variables, write_atomic,
 };
@@ -38,7 +38,8 @@ pub fn run(args: DesignArgs) -> Result<Outcome, Error> {
                 variables(&args, source, &request)
             } else {
                 let request = source.request().map_err(invalid)?;
-                attributes(&args, source, &request)
+                let designed = attributes(&args, source, request)?;
+                finish(&args, &designed.report, &designed.source)
             }
         }
         None if args.scheme == SchemeArg::Variables => {
@@ -49,12 +50,34 @@ pub fn run(args: DesignArgs) -> Result<Outcome, Error> {
             variables(&args, source, &request)
         }
         None => {
-            let request = DesignRequest::try_from(&args)?;
-            let mut source = PlanSource::new(&args.title(), &request);
-            source.describe((&args.description).into())?;
-            attributes(&args, source, &request)
+            let designed = from_flags(&args)?;
+            finish(&args, &designed.report, &designed.source)
         }
     }
+}
+
+/// An attributes plan designed from the flags, with what a caller shows
+/// of it: `lotsman design` prints the report, `lotsman serve` draws the
+/// plan's OC chart from the request and the solution beside it.
+pub(crate) struct Designed {
+    /// The validated request.
+    pub request: DesignRequest,
+    /// The solved plan, with the single plan and the alternatives.
+    pub solution: Solution,
+    /// The plan source recording it, ready to write.
+    pub source: PlanSource,
+    /// The report, its guard checked.
+    pub report: DesignReport,
+}
+
+/// The attributes plan of the flags (no plan source, not `--scheme
+/// variables`): the one path from flags to a plan, for the command line
+/// and the web page alike.
+pub(crate) fn from_flags(args: &DesignArgs) -> Result<Designed, Error> {
+    let request = DesignRequest::try_from(args)?;
+    let mut source = PlanSource::new(&args.title(), &request);
+    source.describe((&args.description).into())?;
+    attributes(args, source, request)
 }
 
 /// An attributes plan: solved, recorded, and reported with its
@@ -62,16 +85,21 @@ pub fn run(args: DesignArgs) -> Result<Outcome, Error> {
 fn attributes(
     args: &DesignArgs,
     mut source: PlanSource,
-    request: &DesignRequest,
-) -> Result<Outcome, Error> {
-    let solution = solve(request).map_err(|e| design_error(args, e))?;
+    request: DesignRequest,
+) -> Result<Designed, Error> {
+    let solution = solve(&request).map_err(|e| design_error(args, e))?;
     source.record(&solution);
     let steps = args.steps.steps(&request.risks)?;
     let rows = sensitivity(&request.model, &request.risks, solution.single.n, &steps);
     let report = DesignReport::new(&source.title, &solution).with_sensitivity(rows);
     // Nothing is written or printed from a report that fails its guard.
     report.check()?;
-    finish(args, &report, &source)
+    Ok(Designed {
+        request,
+        solution,
+        source,
+        report,
+    })
 }
 
 /// A variables plan: solved, recorded and reported.

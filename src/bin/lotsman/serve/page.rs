@@ -1,0 +1,145 @@
+//! What every page shares: rendering a template into a response, the
+//! refusal page (the same plain words as the command line, with a status
+//! of 400, 403, 404 or 413, never a trace), and the two assets embedded in
+//! the binary: the stylesheet and htmx.
+
+use askama::Template;
+use axum::http::{HeaderValue, StatusCode, header};
+use axum::response::{Html, IntoResponse, Response};
+use lotsman::{Error, InputError, escape_controls};
+
+/// The stylesheet of every page.
+pub const STYLE: &str = include_str!("../../../../templates/serve/style.css");
+
+/// htmx, vendored (`vendor/htmx/README.md` names its version and source).
+pub const HTMX: &str = include_str!("../../../../vendor/htmx/htmx.min.js");
+
+/// `template` rendered, with `status`.
+pub fn render(status: StatusCode, template: &impl Template) -> Response {
+    match template.render() {
+        Ok(text) => (status, Html(text)).into_response(),
+        // Only a failed write into a string gets here; there is no page
+        // to show it in.
+        Err(_) => (
+            StatusCode::INTERNAL_SERVER_ERROR,
+            "the page could not be drawn; reload it",
+        )
+            .into_response(),
+    }
+}
+
+/// An asset: `body` as `content_type`, kept by the browser for an hour.
+pub fn asset(content_type: &'static str, body: &'static str) -> Response {
+    (
+        [
+            (header::CONTENT_TYPE, HeaderValue::from_static(content_type)),
+            (
+                header::CACHE_CONTROL,
+                HeaderValue::from_static("private, max-age=3600"),
+            ),
+        ],
+        body,
+    )
+        .into_response()
+}
+
+/// A request refused, in words: the page says what is wrong and how to
+/// put it right.
+#[derive(Debug)]
+pub struct Refusal {
+    status: StatusCode,
+    heading: &'static str,
+    message: String,
+}
+
+impl Refusal {
+    /// Input that cannot be used (400), in the command line's words.
+    pub fn bad(message: impl Into<String>) -> Self {
+        Refusal {
+            status: StatusCode::BAD_REQUEST,
+            heading: "This cannot be done",
+            message: message.into(),
+        }
+    }
+
+    /// A request the server does not take from this sender (403).
+    pub fn forbidden(message: impl Into<String>) -> Self {
+        Refusal {
+            status: StatusCode::FORBIDDEN,
+            heading: "Refused",
+            message: message.into(),
+        }
+    }
+
+    /// No page at this address (404).
+    pub fn not_found() -> Self {
+        Refusal {
+            status: StatusCode::NOT_FOUND,
+            heading: "No such page",
+            message: "there is no page at this address; start from the home page".to_string(),
+        }
+    }
+
+    /// A form larger than the server takes (413).
+    pub fn too_large(limit: usize) -> Self {
+        Refusal {
+            status: StatusCode::PAYLOAD_TOO_LARGE,
+            heading: "Too much sent",
+            message: format!(
+                "the form sent more than {} kB, the most a page takes; send less",
+                limit / 1024
+            ),
+        }
+    }
+
+    /// Something the server could not do, not the sender's fault (500).
+    pub fn failed(message: impl Into<String>) -> Self {
+        Refusal {
+            status: StatusCode::INTERNAL_SERVER_ERROR,
+            heading: "Not done",
+            message: message.into(),
+        }
+    }
+
+    /// The status it answers with.
+    pub fn status(&self) -> StatusCode {
+        self.status
+    }
+
+    /// Its message.
+    pub fn message(&self) -> &str {
+        &self.message
+    }
+}
+
+impl From<Error> for Refusal {
+    fn from(e: Error) -> Self {
+        Refusal::bad(escape_controls(&e.to_string()).into_owned())
+    }
+}
+
+impl From<InputError> for Refusal {
+    fn from(e: InputError) -> Self {
+        Error::from(e).into()
+    }
+}
+
+/// The refusal page.
+#[derive(Template)]
+#[template(path = "serve/refusal.html")]
+struct RefusalPage<'a> {
+    title: &'a str,
+    message: &'a str,
+}
+
+impl IntoResponse for Refusal {
+    fn into_response(self) -> Response {
+        render(
+            self.status,
+            &RefusalPage {
+                title: self.heading,
+                message: &self.message,
+            },
+        )
+    }
+}
