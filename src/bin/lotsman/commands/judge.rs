@@ -124,7 +124,7 @@ fn by_measurements(args: &JudgeArgs, csv: &Path) -> Result<Outcome, Error> {
 
 /// The work-budget check of `judge` on the source at `path`: its audit
 /// re-solves the source before the lot is decided.
-fn budget(path: &Path) -> impl FnOnce(&PlanSource) -> Result<(), Error> + '_ {
+pub fn budget(path: &Path) -> impl FnOnce(&PlanSource) -> Result<(), Error> + '_ {
     move |source| {
         check_source(source, path, SourceJob::Judge).map_err(|e| InputError::from(e).into())
     }

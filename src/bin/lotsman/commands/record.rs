@@ -1,13 +1,15 @@
 //! `judge --record`: decide the lot under the ledger's lock, at the
-//! severity its history requires, and append the decided lot.
+//! severity its history requires, and append the decided lot. The web
+//! face's inspection screen takes the same path ([`judge_lot`]), both to
+//! show the decision before it is recorded and to record it.
 
 use std::path::Path;
 
 use lotsman::{
-    Audited, Decided, Error, InputError, JudgeReport, KnownPlan, LedgerError, LotDate, LotEntry,
-    Measured, MeasurementJudgeReport, MeasurementJudgement, PlanSource, StandardJudgeReport, Tally,
-    VariablesPlan, append_lot, draw_seed, judge_measurements, parse_count, placeholders,
-    read_measurements, replay, text_sha256,
+    Audited, Decided, Decision, Error, InputError, JudgeReport, KnownPlan, Ledger, LedgerError,
+    LotDate, LotEntry, Measured, MeasurementJudgeReport, MeasurementJudgement, PlanSource,
+    Readings, Severity, StandardJudgeReport, Tally, VariablesPlan, append_lot, draw_seed,
+    judge_measurements, parse_count, placeholders, read_measurements, replay, text_sha256,
 };
 
 use crate::cli::judge::{Found, JudgeArgs};
@@ -19,6 +21,61 @@ pub fn run(
     log: &Path,
     audited: Audited,
 ) -> Result<(Vec<u8>, Option<String>), Error> {
+    let readings = match &args.measurements {
+        Some(csv) => Measurements::File(csv, args.column.as_deref()),
+        None => Measurements::None,
+    };
+    let judged = judge_lot(args, log, audited, readings, Mode::Record)?;
+    eprintln!("{}", judged.note);
+    Ok((judged.report, judged.accepted))
+}
+
+/// Whether [`judge_lot`] appends the decided lot or only decides it.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Mode {
+    /// Append the decided lot to the ledger, under its lock.
+    Record,
+    /// Decide the lot as recording would, on the ledger as it stands, and
+    /// write nothing.
+    Preview,
+}
+
+/// The measurements of a variables lot: a CSV file (`--measurements`,
+/// `--column`), or readings already read (pasted into the web page).
+pub enum Measurements<'a> {
+    /// No measurements: the lot is decided from counts.
+    None,
+    /// A CSV file and the column to read.
+    File(&'a Path, Option<&'a str>),
+    /// Readings read elsewhere, with the SHA-256 of their text.
+    Given(Readings),
+}
+
+/// A lot judged by the path of `judge --record`.
+pub struct JudgedLot {
+    /// The decision's report, as `judge` prints it.
+    pub report: Vec<u8>,
+    /// Accept, reject, or continue to the next stage.
+    pub decision: Decision,
+    /// The row's `seq`, when the lot was recorded.
+    pub seq: Option<u64>,
+    /// What was done with the ledger, in words.
+    pub note: String,
+    /// The normality and spread warnings of a variables lot.
+    pub warnings: Vec<String>,
+    /// The discrepancy of a recorded plan used as recorded.
+    pub accepted: Option<String>,
+}
+
+/// Judges the lot of `args` by the audited source at the severity the
+/// ledger at `log` requires, and in [`Mode::Record`] appends it.
+pub fn judge_lot(
+    args: &JudgeArgs,
+    log: &Path,
+    audited: Audited,
+    readings: Measurements,
+    mode: Mode,
+) -> Result<JudgedLot, Error> {
     let flags = &args.record;
     if args.severity.is_some() {
         return Err(InputError::Inconsistent(
@@ -67,20 +124,20 @@ pub fn run(
     }
     // Every plan but a standard-indexed one decides the lot whatever the
     // ledger holds: decided before the lock is taken.
-    let fixed = match (&args.measurements, known.variables_plan()) {
-        (Some(csv), Some(plan)) => Some(measured(args, csv, plan, &known)?),
-        (None, Some(_)) => {
+    let fixed = match (readings, known.variables_plan()) {
+        (Measurements::None, Some(_)) => {
             return Err(invalid(
                 "a variables plan decides from the sample's measurements: give --measurements FILE (and --column NAME for a file with several columns)".into(),
             ));
         }
-        (Some(_), None) => {
+        (given, Some(plan)) => Some(measured(args, given.read()?, plan, &known)?),
+        (Measurements::File(..) | Measurements::Given(_), None) => {
             return Err(invalid(
                 "--measurements is for variables plans; this plan decides from the counts found, --found K".into(),
             ));
         }
-        (None, None) if known.rules().is_some() => None,
-        (None, None) => Some(Lot {
+        (Measurements::None, None) if known.rules().is_some() => None,
+        (Measurements::None, None) => Some(Lot {
             decided: match Found::try_from(args)? {
                 Found::Stages(counts) => known.decide_counts(&counts, None),
                 Found::Cumulative { inspected, found } => {
@@ -91,7 +148,7 @@ pub fn run(
             measured: None,
         }),
     };
-    let (row, (judged, severity)) = append_lot(log, |ledger| {
+    let decide = |ledger: &Ledger| {
         let (judged, severity) = if known.rules().is_some() {
             if args.inspected.is_some() {
                 return Err(invalid("--inspected is for item-by-item plans; a standard-indexed plan takes the counts of each stage, --found CLASS=K,K,..".into()));
@@ -135,7 +192,7 @@ pub fn run(
             )
         };
         let decided = &judged.decided;
-        let entry = (decided.decision != lotsman::Decision::Continue).then(|| LotEntry {
+        let entry = (decided.decision != Decision::Continue).then(|| LotEntry {
             date,
             lot: lot.clone(),
             lot_size,
@@ -155,23 +212,60 @@ pub fn run(
             measured: judged.measured.as_ref().map(|m| m.cells.clone()),
         });
         Ok::<_, Error>((entry, (judged, severity)))
-    })?;
+    };
+    let (row, (judged, severity)) = match mode {
+        Mode::Record => append_lot(log, decide)?,
+        Mode::Preview => {
+            let ledger = if log.exists() {
+                Ledger::read(log)?
+            } else {
+                Ledger::parse(log, &[])?
+            };
+            (None, decide(&ledger)?.1)
+        }
+    };
     let again = if args.inspected.is_some() {
         "judge it again with the units inspected in all and the cumulative count (--inspected N --found K)"
     } else {
         "judge it again with every stage's count"
     };
-    let note = match row {
-        Some(row) => format!("recorded as seq {} in {}", row.seq, log.display()),
-        None => format!(
+    let decision = judged.decided.decision;
+    let note = match (&row, mode) {
+        (Some(row), _) => format!("recorded as seq {} in {}", row.seq, log.display()),
+        (None, Mode::Record) => format!(
             "not recorded in {}: the lot is not decided yet; inspect the next stage and {again}",
             log.display()
         ),
+        (None, Mode::Preview) => format!("not recorded in {} yet", log.display()),
     };
     let accepted = audited.accepted.map(|d| d.to_string());
-    let bytes = report(args, &known, judged, severity, accepted.clone())?;
-    eprintln!("{note}");
-    Ok((bytes, accepted))
+    let warnings = judged
+        .measured
+        .as_ref()
+        .map(|m| m.judgement.warnings.clone())
+        .unwrap_or_default();
+    let report = report(args, &known, judged, severity, accepted.clone())?;
+    Ok(JudgedLot {
+        report,
+        decision,
+        seq: row.map(|r| r.seq),
+        note,
+        warnings,
+        accepted,
+    })
+}
+
+impl Measurements<'_> {
+    /// The readings: the file's, read now, or those given.
+    fn read(self) -> Result<Readings, Error> {
+        match self {
+            Measurements::File(csv, column) => read_measurements(csv, column),
+            Measurements::Given(readings) => Ok(readings),
+            Measurements::None => {
+                Err(InputError::Inconsistent("no measurements were given".to_string()).into())
+            }
+        }
+    }
 }
 
 /// A lot as judged, before it is recorded.
@@ -189,16 +283,15 @@ struct MeasuredLot {
     cells: Measured,
 }
 
-/// A variables lot judged from the readings in `csv`. The ledger counts
-/// the readings beyond a specification limit (a reading on a limit
-/// conforms) as the lot's `found`, for the process average and chart.
+/// A variables lot judged from `readings`. The ledger counts the
+/// readings beyond a specification limit (a reading on a limit conforms)
+/// as the lot's `found`, for the process average and chart.
 fn measured(
     args: &JudgeArgs,
-    csv: &Path,
+    readings: Readings,
     plan: &VariablesPlan,
     known: &KnownPlan,
 ) -> Result<Lot, Error> {
-    let readings = read_measurements(csv, args.column.as_deref())?;
     let aql = known.targets.first().and_then(|t| t.aql).ok_or_else(|| {
         InputError::Inconsistent(format!(
             "{}: the variables source names no producer's quality (AQL)",
@@ -240,7 +333,7 @@ fn report(
     args: &JudgeArgs,
     known: &KnownPlan,
     judged: Lot,
-    severity: Option<lotsman::Severity>,
+    severity: Option<Severity>,
     accepted: Option<String>,
 ) -> Result<Vec<u8>, Error> {
     let format = args.report.format.into();
