@@ -9,6 +9,7 @@
 //! refusals with its words.
 
 mod contract;
+mod inspect;
 mod security;
 
 use std::io::{BufRead, BufReader, Read, Write};

@@ -18,6 +18,10 @@ pub fn router(state: AppState) -> Router {
         .route("/", get(pages::home::show))
         .route("/design", get(pages::design::show))
         .route("/plans", post(pages::save::save))
+        .route("/inspect", get(pages::inspect::show))
+        .route("/inspect/judge", post(pages::inspect::decide))
+        .route("/inspect/record", post(pages::inspect::record))
+        .route("/history", get(pages::history::show))
         .route("/login", get(pages::login::show).post(pages::login::enter))
         .route(
             "/assets/style.css",

@@ -7,6 +7,12 @@ use std::path::{Component, Path, PathBuf};
 
 use lotsman::{InputError, escape_controls, io_reason};
 
+/// How many folders down [`Workspace::files`] looks.
+pub const LIST_DEPTH: usize = 3;
+
+/// The most files [`Workspace::files`] lists.
+pub const LIST_MOST: usize = 500;
+
 /// The workspace folder, resolved once at start (links followed), so
 /// that every file is compared with the real folder.
 #[derive(Debug)]
@@ -98,6 +104,50 @@ impl Workspace {
         Ok(target)
     }
 
+    /// The workspace's files whose names end in one of `extensions`
+    /// (lower case, without the dot), as the pages name them: relative,
+    /// sorted, from the workspace and the folders below it down to
+    /// [`LIST_DEPTH`], at most [`LIST_MOST`]. Hidden files and folders,
+    /// and links, are left out.
+    pub fn files(&self, extensions: &[&str]) -> Vec<String> {
+        let mut found = Vec::new();
+        let mut folders = vec![(self.root.clone(), 0)];
+        while let Some((folder, depth)) = folders.pop() {
+            let Ok(entries) = std::fs::read_dir(&folder) else {
+                continue;
+            };
+            for entry in entries.flatten() {
+                let name = entry.file_name();
+                if name.to_string_lossy().starts_with('.') {
+                    continue;
+                }
+                let Ok(kind) = entry.file_type() else {
+                    continue;
+                };
+                let path = entry.path();
+                if kind.is_dir() && depth < LIST_DEPTH {
+                    folders.push((path, depth + 1));
+                } else if kind.is_file()
+                    && path.extension().is_some_and(|e| {
+                        extensions.contains(&e.to_string_lossy().to_ascii_lowercase().as_str())
+                    })
+                    && found.len() < LIST_MOST
+                {
+                    found.push(self.shown(&path));
+                }
+            }
+        }
+        found.sort();
+        found
+    }
+
+    /// A message with the workspace's own paths made relative, as the
+    /// pages name files.
+    pub fn relative_words(&self, message: &str) -> String {
+        let root = format!("{}{}", self.root.display(), std::path::MAIN_SEPARATOR);
+        message.replace(&root, "")
+    }
+
     /// `path` as the pages show it: relative to the workspace.
     pub fn shown(&self, path: &Path) -> String {
         let relative = path.strip_prefix(&self.root).unwrap_or(path);
@@ -121,6 +171,24 @@ mod tests {
         let path = ws.file("./cover-fit.yaml").unwrap();
         assert_eq!(path, ws.root().join("cover-fit.yaml"));
         assert_eq!(ws.shown(&path), "cover-fit.yaml");
+    }
+
+    #[test]
+    fn files_are_listed_by_extension_without_hidden_ones() {
+        let (dir, ws) = workspace();
+        std::fs::create_dir(dir.path().join("plans")).unwrap();
+        std::fs::create_dir(dir.path().join(".hidden")).unwrap();
+        for name in [
+            "b.yaml",
+            "plans/a.YML",
+            "log.csv",
+            ".hidden/c.yaml",
+            "notes.txt",
+        ] {
+            std::fs::write(dir.path().join(name), "x").unwrap();
+        }
+        assert_eq!(ws.files(&["yaml", "yml"]), ["b.yaml", "plans/a.YML"]);
+        assert_eq!(ws.files(&["csv"]), ["log.csv"]);
     }
 
     #[test]

@@ -1,6 +1,10 @@
 //! The screens, one file each.
 
 pub mod design;
+pub mod history;
 pub mod home;
+pub mod inspect;
 pub mod login;
+mod lot_judge;
+mod lot_plan;
 pub mod save;
