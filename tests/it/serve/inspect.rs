@@ -117,6 +117,13 @@ fn the_inspect_page_shows_the_plan_in_force_and_the_units_of_draw_plan() {
     );
     // The plan sources of the workspace are offered.
     assert!(page.body.contains("<option value=\"s.yaml\" selected>"));
+    // A lot of another size than the source was made for is noted.
+    let other = server.get("/inspect?plan=s.yaml&lot=L-2031&lot_size=5000", None);
+    assert!(
+        other
+            .body
+            .contains("the plan source was made for lots of 1500 units, and this lot has 5000")
+    );
     // The home page links the screen.
     assert!(server.get("/", None).body.contains("href=\"/inspect\""));
 }
@@ -341,9 +348,9 @@ fn a_double_plan_says_go_on_and_a_variables_plan_warns_of_non_normal_readings() 
     assert!(variables.status.success(), "{variables:?}");
     // 42 readings on two values only: far from normal (hand computed: mean
     // 12.01, s 0.0101, so (U - mean) / s = 3.96 is above k and the lot is
-    // accepted, with the warning).
+    // accepted, with the warning); with the line ends a browser sends.
     let readings: String = (0..42)
-        .map(|i| if i % 2 == 0 { "12.00\n" } else { "12.02\n" })
+        .map(|i| if i % 2 == 0 { "12.00\r\n" } else { "12.02\r\n" })
         .collect();
     let form = [
         ("csrf", csrf.as_str()),

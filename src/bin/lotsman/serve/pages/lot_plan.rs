@@ -122,6 +122,8 @@ pub struct InForce {
     pub variables: Option<String>,
     /// The lot size used: the one given, or the source's.
     pub lot_size: Option<u64>,
+    /// A lot size other than the one the source was made for, in words.
+    pub lot_note: Option<String>,
     /// The units to draw, or why they are not shown.
     pub draw: Result<DrawShown, String>,
     /// The ledger's rows so far.
@@ -165,6 +167,7 @@ pub fn in_force(workspace: &Workspace, fields: &LotFields) -> Result<InForce, Er
         classes: Vec::new(),
         variables: None,
         lot_size,
+        lot_note: other_size(audited.source.lot_size, lot_size),
         draw: Err(String::new()),
         rows: ledger.rows.len(),
     };
@@ -199,6 +202,18 @@ pub fn in_force(workspace: &Workspace, fields: &LotFields) -> Result<InForce, Er
     };
     shown.draw = drawn(fields, lot_size, &known.sha256, sizes);
     Ok(shown)
+}
+
+/// The note on a lot of `given` units judged by a source made for lots
+/// of `made` units: its plan (a standard-indexed source's code letter, a
+/// hypergeometric model's lot) may not fit this lot.
+fn other_size(made: Option<u64>, given: Option<u64>) -> Option<String> {
+    match (made, given) {
+        (Some(made), Some(given)) if made != given => Some(format!(
+            "the plan source was made for lots of {made} units, and this lot has {given}: its plan may not be the one for this lot (the standard's code letter and a hypergeometric plan depend on the lot size); for lots of this size, use a plan source made for them"
+        )),
+        _ => None,
+    }
 }
 
 /// What to draw.
