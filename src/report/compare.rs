@@ -95,6 +95,25 @@ impl CompareReport {
         }
     }
 
+    /// The line that says the one model and lot of every plan, when they
+    /// share them; `None` when the plans differ.
+    pub fn shared_model(&self) -> Option<String> {
+        let (first, rest) = self.plans.split_first()?;
+        if rest
+            .iter()
+            .any(|p| p.model_and_lot() != first.model_and_lot())
+        {
+            return None;
+        }
+        Some(match first.lot_size {
+            Some(lot) => format!(
+                "Every plan under the {} model, in lots of {lot} units",
+                first.model
+            ),
+            None => format!("Every plan under the {} model", first.model),
+        })
+    }
+
     fn per_unit(&self) -> bool {
         self.quality_unit == ModelKind::Poisson.quality_unit()
     }
@@ -126,11 +145,14 @@ fn yes(b: bool) -> &'static str {
     if b { "yes" } else { "no" }
 }
 
-/// The model and lot of a plan, as the table's column says it.
-fn model_cell(p: &ComparedPlanReport) -> String {
-    match p.lot_size {
-        Some(lot) => format!("{}, N = {lot}", p.model),
-        None => p.model.to_string(),
+impl ComparedPlanReport {
+    /// The plan's model and lot, as the table's column says it
+    /// (`hypergeometric, lot of 2500`).
+    pub fn model_and_lot(&self) -> String {
+        match self.lot_size {
+            Some(lot) => format!("{}, lot of {lot}", self.model),
+            None => self.model.to_string(),
+        }
     }
 }
 
@@ -146,23 +168,33 @@ impl Report for CompareReport {
             self.beta,
             self.points_from
         )?;
-        let mut g = grid(&[
-            "Plan",
-            "Model",
+        // One model and lot for every plan is said once, above the table.
+        let shared = self.shared_model();
+        if let Some(line) = &shared {
+            writeln!(out, "{line}")?;
+        }
+        let mut header = vec!["Plan"];
+        if shared.is_none() {
+            header.push("Model");
+        }
+        header.extend([
             "n",
             "Pa at AQL",
             "Producer's risk",
-            "Consumer's risk (Pa at RQL)",
+            "Consumer's risk",
             "AOQL",
             "ASN at AQL",
             "ASN at RQL",
             "Meets alpha",
             "Meets beta",
         ]);
+        let mut g = grid(&header);
         for p in &self.plans {
-            g.add_row(vec![
-                p.label.clone(),
-                model_cell(p),
+            let mut row = vec![p.label.clone()];
+            if shared.is_none() {
+                row.push(p.model_and_lot());
+            }
+            row.extend([
                 p.n.map_or_else(|| format!("ASN {:.1}", p.asn_at_aql), |n| n.to_string()),
                 format!("{:.4}", p.pa_at_aql),
                 format!("{:.4}", p.producer_risk),
@@ -173,8 +205,13 @@ impl Report for CompareReport {
                 yes(p.meets_alpha).to_string(),
                 yes(p.meets_beta).to_string(),
             ]);
+            g.add_row(row);
         }
         writeln!(out, "{g}")?;
+        writeln!(
+            out,
+            "Producer's risk: 1 - Pa at the AQL; consumer's risk: Pa at the RQL."
+        )?;
         if self.plans.iter().any(|p| p.n.is_none()) {
             writeln!(
                 out,

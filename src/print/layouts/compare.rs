@@ -142,6 +142,15 @@ fn notes(c: &Canvas, report: &CompareReport, width: f64) -> Vec<String> {
         report.beta,
         &report.points_from,
     )];
+    match report.shared_model() {
+        Some(line) => texts.push(format!("{line}.")),
+        None => texts.extend(
+            report
+                .plans
+                .iter()
+                .map(|p| format!("{}: {} model.", p.label, p.model_and_lot())),
+        ),
+    }
     if report.plans.iter().any(|p| p.n.is_none()) {
         texts.push(words::STAGED_N.to_string());
     }

@@ -38,8 +38,8 @@ pub enum Command {
     Design(Box<design::DesignArgs>),
     /// Evaluate a plan: OC, AOQ, ATI and ASN at chosen qualities, AOQL.
     Evaluate(evaluate::EvaluateArgs),
-    /// Compare two to six plans at one pair of risk points: their true risks, AOQL and ASN,
-    /// and their OC, AOQ and ASN curves on one page.
+    /// Compare two to six plans at one pair of risk points: true risks, AOQL, ASN, and their
+    /// curves.
     Compare(compare::CompareArgs),
     /// Re-solve plan sources and compare with the plans they record.
     Verify(verify::VerifyArgs),
