@@ -6,7 +6,7 @@ use std::io::{self, Write};
 use serde::Serialize;
 
 use super::format::{Report, csv_writer, num, quality_column};
-use super::table_kit::grid;
+use super::table_kit::{grid, quality_head};
 use crate::model::ModelKind;
 use crate::numeric::{format_quality, format_quality_cell};
 use crate::plan::{ComparedRow, Comparison, Stage};
@@ -173,6 +173,7 @@ impl Report for CompareReport {
         if let Some(line) = &shared {
             writeln!(out, "{line}")?;
         }
+        let aoql = quality_head("AOQL", per_unit);
         let mut header = vec!["Plan"];
         if shared.is_none() {
             header.push("Model");
@@ -182,7 +183,7 @@ impl Report for CompareReport {
             "Pa at AQL",
             "Producer's risk",
             "Consumer's risk",
-            "AOQL",
+            &aoql,
             "ASN at AQL",
             "ASN at RQL",
             "Meets alpha",

@@ -260,3 +260,38 @@ fn the_svg_page_holds_three_charts_and_every_plans_label() {
     lotsman().args(args).assert().code(2);
     lotsman().args(args).arg("--force").assert().success();
 }
+
+#[test]
+fn the_pdf_page_is_one_a4_landscape_page_with_the_plans_and_their_units() {
+    let dir = tempfile::tempdir().unwrap();
+    let page = dir.path().join("housings.pdf");
+    lotsman()
+        .args([
+            "compare",
+            "plans/tpw-housing-finish.yaml",
+            "--stage",
+            "20:1:2",
+            "--model",
+            "poisson",
+            "--output",
+            page.to_str().unwrap(),
+        ])
+        .assert()
+        .success();
+    let pdf = std::fs::read(&page).unwrap();
+    let sizes = crate::common::pdf::page_sizes(&pdf);
+    assert_eq!(sizes.len(), 1);
+    // A4 turned: 297 x 210 mm.
+    let (w, h) = sizes[0];
+    assert!((w - 297.0 / 25.4 * 72.0).abs() < 0.5 && (h - 210.0 / 25.4 * 72.0).abs() < 0.5);
+    let text = crate::common::pdf::pdf_text(&pdf);
+    for needle in [
+        "plans/tpw-housing-finish.yaml",
+        "20:1:2",
+        "AOQL per unit (per 100)",
+        "Lot quality (nonconformities per unit)",
+        "poisson model, no lot size",
+    ] {
+        assert!(text.contains(needle), "{needle} not in the page");
+    }
+}

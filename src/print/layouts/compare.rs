@@ -144,12 +144,10 @@ fn notes(c: &Canvas, report: &CompareReport, width: f64) -> Vec<String> {
     )];
     match report.shared_model() {
         Some(line) => texts.push(format!("{line}.")),
-        None => texts.extend(
-            report
-                .plans
-                .iter()
-                .map(|p| format!("{}: {} model.", p.label, p.model_and_lot())),
-        ),
+        None => texts.extend(report.plans.iter().map(|p| match p.lot_size {
+            Some(lot) => format!("{}: {} model, lots of {lot} units.", p.label, p.model),
+            None => format!("{}: {} model, no lot size.", p.label, p.model),
+        })),
     }
     if report.plans.iter().any(|p| p.n.is_none()) {
         texts.push(words::STAGED_N.to_string());
@@ -190,12 +188,16 @@ fn true_risks(c: &mut Canvas, report: &CompareReport, area: Rect, notes: &[Strin
             ]
         })
         .collect();
+    let mut heads = words::HEADS.map(String::from);
+    if per_unit {
+        heads[4] = words::AOQL_PER_UNIT.to_string();
+    }
     // Each column as wide as its widest cell or head, and a gap.
-    let widths: Vec<f64> = (0..words::HEADS.len())
+    let widths: Vec<f64> = (0..heads.len())
         .map(|j| {
             rows.iter()
                 .map(|r| c.width(&r[j], Face::Regular, SIZE))
-                .fold(c.width(words::HEADS[j], Face::Bold, SIZE), f64::max)
+                .fold(c.width(&heads[j], Face::Bold, SIZE), f64::max)
                 + 3.0
         })
         .collect();
@@ -214,7 +216,7 @@ fn true_risks(c: &mut Canvas, report: &CompareReport, area: Rect, notes: &[Strin
     y -= ROW;
     c.text(area.x, y, "Plan", Face::Bold, SIZE, grey(0.0));
     let mut x = area.x + plan_w;
-    for (head, w) in words::HEADS.iter().zip(&widths) {
+    for (head, w) in heads.iter().zip(&widths) {
         x += w;
         c.text_right(x, y, head, Face::Bold, SIZE, grey(0.0));
     }

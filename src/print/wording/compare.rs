@@ -32,6 +32,9 @@ pub const HEADS: [&str; 9] = [
     "Meets beta",
 ];
 
+/// The AOQL's head for plans that count nonconformities per unit.
+pub const AOQL_PER_UNIT: &str = "AOQL per unit (per 100)";
+
 /// The line under the table: what the risks are held against.
 pub fn points(aql: &str, alpha: f64, rql: &str, beta: f64, from: &str) -> String {
     format!(
