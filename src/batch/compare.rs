@@ -19,30 +19,39 @@ pub struct SourcePlan {
     /// as its consumer's point states it) when it gives a consumer's
     /// point; none for a minimum-inspection plan.
     pub risks: Option<RiskPair>,
+    /// The discrepancy of a recorded plan that the audit does not confirm
+    /// and that is compared as recorded at the user's request; `None`
+    /// otherwise. The plan's note states it too.
+    pub accepted_recorded: Option<String>,
 }
 
 /// The plan that the source `read` records, audited as `evaluate`
-/// audits it: a designed single, double, multiple or item-by-item plan
+/// audits it (with `accept_recorded`, a plan the audit does not confirm
+/// is compared as recorded, its note stating the discrepancy): a designed single, double, multiple or item-by-item plan
 /// or a minimum-inspection plan as recorded, under its model; a
 /// standard-indexed source's normal-inspection plan of its first class,
 /// in its lot, with a note that says so.
 ///
 /// # Errors
 /// [`SourceError`] when the source cannot be parsed or validated, records
-/// no plan, or records one the audit does not confirm; a variables plan
+/// no plan, or records one the audit does not confirm (without
+/// `accept_recorded`); a variables plan
 /// (its OC is against the fraction beyond the specification limits of
 /// measured units, not against counted nonconforming units); a
 /// standard-indexed source whose first class inspects every unit; and
 /// work over the budget.
-pub fn compared_source(read: &SourceText) -> Result<SourcePlan, Error> {
+pub fn compared_source(read: &SourceText, accept_recorded: bool) -> Result<SourcePlan, Error> {
     let path = read.path.as_path();
     let job = SourceJob::Evaluate {
         points: Some(2),
         decided_at: false,
     };
-    let Audited { source, .. } = Audited::from_text(read.clone(), false, |source| {
+    let Audited {
+        source, accepted, ..
+    } = Audited::from_text(read.clone(), accept_recorded, |source| {
         check_source(source, path, job).map_err(|e| InputError::from(e).into())
     })?;
+    let accepted = accepted.map(|d| d.to_string());
     let invalid = |e| SourceError::Invalid {
         path: path.to_path_buf(),
         source: e,
@@ -56,7 +65,10 @@ pub fn compared_source(read: &SourceText) -> Result<SourcePlan, Error> {
         .into());
     }
     if source.is_standard() {
-        return standard_plan(&source, label).map_err(|e| invalid(e).into());
+        let mut plan = standard_plan(&source, label).map_err(invalid)?;
+        plan.compared.note = joined(plan.compared.note, accepted.as_deref());
+        plan.accepted_recorded = accepted;
+        return Ok(plan);
     }
     let (model, risks) = if source.is_rectifying() {
         (*source.rectifying_request().map_err(invalid)?.model(), None)
@@ -70,10 +82,21 @@ pub fn compared_source(read: &SourceText) -> Result<SourcePlan, Error> {
             label,
             plan,
             model,
-            note: None,
+            note: joined(None, accepted.as_deref()),
         },
         risks,
+        accepted_recorded: accepted,
     })
+}
+
+/// A plan's note with the discrepancy of a plan compared as recorded, if
+/// any, after it.
+fn joined(note: Option<String>, accepted: Option<&str>) -> Option<String> {
+    let accepted = accepted.map(|d| format!("compared as recorded (--accept-recorded): {d}"));
+    match (note, accepted) {
+        (Some(n), Some(a)) => Some(format!("{n}; {a}")),
+        (n, a) => n.or(a),
+    }
 }
 
 /// The normal-inspection plan of the first class of a standard-indexed
@@ -126,5 +149,6 @@ fn standard_plan(source: &PlanSource, label: String) -> Result<SourcePlan, Input
             )),
         },
         risks,
+        accepted_recorded: None,
     })
 }

@@ -295,3 +295,37 @@ fn the_pdf_page_is_one_a4_landscape_page_with_the_plans_and_their_units() {
         assert!(text.contains(needle), "{needle} not in the page");
     }
 }
+
+#[test]
+fn a_recorded_plan_the_audit_does_not_confirm_is_refused_or_compared_as_recorded() {
+    let dir = tempfile::tempdir().unwrap();
+    let source = dir.path().join("seal-visual.yaml");
+    let text = std::fs::read_to_string("plans/tpw-seal-visual.yaml").unwrap();
+    assert!(text.contains("  - n: 166\n"));
+    std::fs::write(&source, text.replace("  - n: 166\n", "  - n: 150\n")).unwrap();
+    let path = source.to_str().unwrap();
+    refused_message(
+        "compare",
+        &[path, "--stage", "80:2:3"],
+        &[
+            "stage 1 n: recorded 150, re-solved 166",
+            "--accept-recorded",
+        ],
+    );
+    let compared = json_of(&[
+        "compare",
+        path,
+        "--stage",
+        "80:2:3",
+        "--accept-recorded",
+        "--format",
+        "json",
+    ]);
+    let first = &compared["plans"][0];
+    assert_eq!(first["n"], 150);
+    let note = first["note"].as_str().unwrap();
+    assert!(
+        note.starts_with("compared as recorded (--accept-recorded): "),
+        "{note}"
+    );
+}

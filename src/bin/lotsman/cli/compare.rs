@@ -53,6 +53,10 @@ pub struct CompareArgs {
     /// Consumer's risk each plan is held to at the RQL [default: 0.10]
     #[arg(long, value_name = "B", requires = "aql", allow_hyphen_values = true)]
     pub beta: Option<String>,
+    /// Compare a recorded plan that differs from a re-solve or no longer meets its risk
+    /// points, the discrepancy stated in the output (without it, such a source is refused)
+    #[arg(long, requires = "sources")]
+    pub accept_recorded: bool,
     #[command(flatten)]
     pub output: OutputFlags,
     #[command(flatten)]

@@ -8,7 +8,12 @@ use lotsman::{
 };
 
 use crate::cli::compare::CompareArgs;
-use crate::out::{print_report, say, shown};
+use crate::out::{print_report, say, shown, warn_accepted};
+
+/// What was done with a recorded plan used at the user's request although
+/// the audit does not confirm it, for [`warn_accepted`].
+const COMPARED_AS_RECORDED: &str =
+    "compared as recorded (--accept-recorded), with the discrepancy stated in its note";
 
 pub fn run(args: CompareArgs) -> Result<Outcome, Error> {
     let page = match &args.output.output {
@@ -38,7 +43,12 @@ pub fn run(args: CompareArgs) -> Result<Outcome, Error> {
     let mut source_points = None;
     for path in &args.sources {
         let read = SourceText::read(path)?;
-        let source = compared_source(&read)?;
+        let source = compared_source(&read, args.accept_recorded)?;
+        warn_accepted(
+            path,
+            source.accepted_recorded.as_deref(),
+            COMPARED_AS_RECORDED,
+        );
         if source_points.is_none() {
             source_points = source.risks.map(|r| (r, shown(path)));
         }
