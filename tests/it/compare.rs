@@ -329,3 +329,34 @@ fn a_recorded_plan_the_audit_does_not_confirm_is_refused_or_compared_as_recorded
         "{note}"
     );
 }
+
+#[test]
+fn six_plans_fit_one_page_and_a_seventh_is_refused_before_any_work() {
+    let dir = tempfile::tempdir().unwrap();
+    let page = dir.path().join("six.svg");
+    let mut args = vec!["compare"];
+    for plan in [
+        "125:3:4",
+        "80:2:3",
+        "50:0:3+100:3:4",
+        "200:5:6",
+        "32:0:1",
+        "315:7:8",
+    ] {
+        args.extend(["--stage", plan]);
+    }
+    args.extend([
+        "--aql",
+        "1%",
+        "--rql",
+        "6%",
+        "--output",
+        page.to_str().unwrap(),
+    ]);
+    lotsman().args(&args).assert().success();
+    let svg = std::fs::read_to_string(&page).unwrap();
+    assert!(svg.contains(">315:7:8<"));
+    args.truncate(13);
+    args.extend(["--stage", "20:0:1", "--aql", "1%", "--rql", "6%"]);
+    refused_message("compare", &args[1..], &["7 plans were given"]);
+}
