@@ -72,8 +72,9 @@ mod demo;
 mod demo_ledger;
 
 pub use batch::{
-    BatchError, SourceFile, check_sheet_entry, evaluate_source, evaluate_text, expand_paths,
-    run_in_parallel, sheet_target, sheet_targets, verify_file, verify_text, write_source_sheet,
+    BatchError, SourceFile, SourcePlan, check_sheet_entry, compared_source, evaluate_source,
+    evaluate_text, expand_paths, run_in_parallel, sheet_target, sheet_targets, verify_file,
+    verify_text, write_source_sheet,
 };
 pub use budget::{Limit, MEMORY_BUDGET, OverBudget, TIME_BUDGET, Work};
 pub use demo::{DEMO_PLANS, DEMO_READINGS, run_demo};
@@ -118,12 +119,13 @@ pub use numeric::{
 };
 pub use plain::{escape_controls, io_message, io_reason, is_unsafe_char, shell_path, shell_word};
 pub use plan::{
-    AndersonDarling, Aoql, Decision, Evaluation, ItemRun, Judgement, LimitKind,
-    MAX_ACCEPTANCE_NUMBER, MAX_ITEMS, MAX_OPEN_COUNTS, MAX_SAMPLE_SIZE, MAX_STAGES,
-    MAX_VARIABLES_SAMPLE, MeasurementJudgement, Measures, NORMALITY_LEVEL, SIGMA_LEVEL,
-    SequentialLines, SideStatistic, SigmaKind, Specification, Stage, StageOutcomes, StagedPlan,
-    StatisticsDecision, VariablesEvaluation, VariablesPlan, VariablesPoint, acceptance_probability,
-    anderson_darling, aoql, average_outgoing_quality, curtailed_outcomes, curve_maximum,
+    AndersonDarling, Aoql, ComparedPlan, ComparedRow, Comparison, Decision, Evaluation, ItemRun,
+    Judgement, LimitKind, MAX_ACCEPTANCE_NUMBER, MAX_COMPARED, MAX_ITEMS, MAX_OPEN_COUNTS,
+    MAX_SAMPLE_SIZE, MAX_STAGES, MAX_VARIABLES_SAMPLE, MIN_COMPARED, MeasurementJudgement,
+    Measures, NORMALITY_LEVEL, SIGMA_LEVEL, SequentialLines, SideStatistic, SigmaKind,
+    Specification, Stage, StageOutcomes, StagedPlan, StatisticsDecision, VariablesEvaluation,
+    VariablesPlan, VariablesPoint, acceptance_probability, anderson_darling, aoql,
+    average_outgoing_quality, check_compared_count, compare, curtailed_outcomes, curve_maximum,
     decide_from_statistics, default_qualities, evaluate, evaluate_variables, evaluate_with_decided,
     evaluation_work, fraction_beyond_known, fraction_beyond_unknown, indifference_quality, judge,
     judge_cumulative, judge_measurements, largest_asn, mean_and_sd, measures, parse_measurements,
@@ -134,20 +136,20 @@ pub use print::{
     ChartKind, ContourLabel, HASH_PREFIX, HistoryFormat, MAX_HISTORY_LOTS, MAX_SHEET_BYTES,
     MapContour, MapPanel, MapQuantity, Paper, ReducedLimit, SCHEME_POINTS, SOURCE_NAME_KEY,
     SchemeCurve, Sheet, SheetDocument, SheetNotes, SheetOptions, SheetVerdict, StandardClassFacts,
-    StandardFacts, TradeoffMap, chart_svg, check_sheet, check_sheet_text, render_history,
-    render_sheet, render_sheet_noting, render_sheet_svg, render_standard_sheet,
+    StandardFacts, TradeoffMap, chart_svg, check_sheet, check_sheet_text, render_comparison,
+    render_history, render_sheet, render_sheet_noting, render_sheet_svg, render_standard_sheet,
     render_standard_sheet_svg, render_tradeoff_map, sheet_source_hash, source_hash, write_sheet,
     write_sheet_text,
 };
 pub use report::{
-    AlternativeReport, BatchSummary, ClassEvaluationReport, ClassReport, ConsumerReport,
-    CostReport, DemoReport, DemoRow, DesignReport, DrawReport, EDITION, EvaluationBatchReport,
-    EvaluationEntry, EvaluationReport, Failure, Format, HistoryReport, JudgeReport,
-    LedgerVerifyReport, MeasurementJudgeReport, NextClassPlan, NextPlan, Outcome, PointReport,
-    ProtectionReport, RectifyingPlanReport, RectifyingReport, Report, SeverityPlanReport,
-    SourceEvaluation, StageJson, StandardEvaluationReport, StandardJudgeReport,
-    StandardPlansReport, StandardPoint, StandardReport, StatusReport, TradeoffCellReport,
-    TradeoffReport, TrueRisksReport, TwoPointReport, VariablesDesignReport,
+    AlternativeReport, BatchSummary, ClassEvaluationReport, ClassReport, CompareReport,
+    ComparedPlanReport, ConsumerReport, CostReport, DemoReport, DemoRow, DesignReport, DrawReport,
+    EDITION, EvaluationBatchReport, EvaluationEntry, EvaluationReport, Failure, Format,
+    HistoryReport, JudgeReport, LedgerVerifyReport, MeasurementJudgeReport, NextClassPlan,
+    NextPlan, Outcome, PointReport, ProtectionReport, RectifyingPlanReport, RectifyingReport,
+    Report, SeverityPlanReport, SourceEvaluation, StageJson, StandardEvaluationReport,
+    StandardJudgeReport, StandardPlansReport, StandardPoint, StandardReport, StatusReport,
+    TradeoffCellReport, TradeoffReport, TrueRisksReport, TwoPointReport, VariablesDesignReport,
     VariablesEvaluationReport, VariablesReport, VerificationReport, VerifyEntry, VerifyStatus,
     variables_rule, words, write_report,
 };

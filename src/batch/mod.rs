@@ -27,6 +27,7 @@
 //! [`BatchSummary`](crate::BatchSummary) adds them up; the worst one decides
 //! the exit status. One bad file never stops the others.
 
+mod compare;
 mod error;
 mod evaluate;
 mod paths;
@@ -35,6 +36,7 @@ mod sheet;
 mod targets;
 mod verify;
 
+pub use compare::{SourcePlan, compared_source};
 pub use error::BatchError;
 pub(crate) use evaluate::evaluate_standard;
 pub use evaluate::{evaluate_source, evaluate_text};

@@ -1,5 +1,6 @@
 //! Attribute plans and variables plans, with their exact measures.
 
+mod comparison;
 mod estimate;
 mod evaluation;
 mod judge;
@@ -15,6 +16,10 @@ mod variables;
 mod variables_evaluation;
 mod work;
 
+pub use comparison::{
+    ComparedPlan, ComparedRow, Comparison, MAX_COMPARED, MIN_COMPARED, check_compared_count,
+    compare,
+};
 pub use estimate::{fraction_beyond_known, fraction_beyond_unknown, statistic_for_fraction};
 pub use evaluation::{
     Evaluation, default_qualities, evaluate, evaluate_with_decided, quality_at_pa,

@@ -41,6 +41,7 @@ pub(crate) mod wording;
 
 pub use chart::{ChartKind, chart_svg};
 pub use check::{MAX_SHEET_BYTES, SheetVerdict, check_sheet, check_sheet_text};
+pub use layouts::compare::render_comparison;
 pub use layouts::history::{HistoryFormat, MAX_HISTORY_LOTS, render_history};
 pub use map::{ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map};
 pub use metadata::{HASH_PREFIX, SOURCE_NAME_KEY, sheet_source_hash, source_hash};

@@ -6,6 +6,7 @@
 //! finite and not negative. A report that fails is not printed; the
 //! command stops with the [`NumericalError`] instead.
 
+use super::compare::CompareReport;
 use super::design::DesignReport;
 use super::evaluation::EvaluationReport;
 use super::parts::PointReport;
@@ -90,6 +91,31 @@ impl DesignReport {
             ] {
                 check(Amount, name, v)?;
             }
+        }
+        Ok(())
+    }
+}
+
+impl CompareReport {
+    /// Checks each plan's risks, AOQL and average sample numbers.
+    ///
+    /// # Errors
+    /// [`NumericalError`] naming the first number out of its range.
+    pub fn check(&self) -> Checked {
+        for p in &self.plans {
+            let quality = Quantity::quality(p.model);
+            check(Probability, at("Pa", self.aql), p.pa_at_aql)?;
+            check(Probability, at("Pa", self.rql), p.consumer_risk)?;
+            check(Probability, "producer's true risk", p.producer_risk)?;
+            aoql(
+                &Aoql {
+                    value: p.aoql,
+                    quality: p.aoql_quality,
+                },
+                quality,
+            )?;
+            check(Amount, at("ASN", self.aql), p.asn_at_aql)?;
+            check(Amount, at("ASN", self.rql), p.asn_at_rql)?;
         }
         Ok(())
     }

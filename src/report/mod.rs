@@ -8,6 +8,7 @@
 
 mod batch;
 mod checks;
+mod compare;
 mod demo;
 mod design;
 mod draw;
@@ -32,6 +33,7 @@ mod verification;
 pub mod words;
 
 pub use self::batch::{BatchSummary, Failure, Outcome};
+pub use self::compare::{CompareReport, ComparedPlanReport};
 pub use self::demo::{DemoReport, DemoRow};
 pub use self::design::{AlternativeReport, DesignReport};
 pub use self::draw::DrawReport;

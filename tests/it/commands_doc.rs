@@ -97,8 +97,8 @@ fn every_command_of_the_help_is_found() {
     assert_eq!(
         names,
         [
-            "design", "evaluate", "verify", "judge", "sheet", "tradeoff", "new", "demo", "rectify",
-            "standard", "draw", "status", "history", "serve"
+            "design", "evaluate", "compare", "verify", "judge", "sheet", "tradeoff", "new", "demo",
+            "rectify", "standard", "draw", "status", "history", "serve"
         ]
     );
 }

@@ -16,6 +16,7 @@ mod audit;
 mod batch;
 mod cli;
 mod commands_doc;
+mod compare;
 mod demo_ledger;
 mod docs;
 mod draw;

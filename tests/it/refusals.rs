@@ -1989,7 +1989,7 @@ fn arguments_are_refused_in_one_line_and_named_alike() {
         refused(
             "no command",
             &[],
-            "give a command: design, evaluate, verify, judge, sheet, tradeoff, new, demo, rectify, standard, draw, status, history, serve; what each does: lotsman --help",
+            "give a command: design, evaluate, compare, verify, judge, sheet, tradeoff, new, demo, rectify, standard, draw, status, history, serve; what each does: lotsman --help",
         ),
         refused(
             "--in-place with --output",

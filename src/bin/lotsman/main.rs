@@ -35,6 +35,7 @@ fn run(command: Command) -> Result<Outcome, Error> {
     match command {
         Command::Design(args) => commands::design::run(*args),
         Command::Evaluate(args) => commands::evaluate::run(args),
+        Command::Compare(args) => commands::compare::run(args),
         Command::Verify(args) => commands::verify::run(args),
         Command::Judge(args) => commands::judge::run(args),
         Command::Sheet(args) => commands::sheet::run(args),

@@ -7,6 +7,7 @@
 pub(crate) mod aoq;
 pub(crate) mod asn;
 pub(crate) mod axes;
+pub(crate) mod compare;
 pub(crate) mod curve_chart;
 pub(crate) mod decision;
 pub(crate) mod guides;

@@ -22,7 +22,9 @@ const PAGE: (f64, f64) = (297.0, 210.0);
 /// The most lots one page charts legibly (a point per 0.4 mm).
 pub const MAX_HISTORY_LOTS: usize = 600;
 
-/// The format of the history chart.
+/// The format of a page drawn as a PDF or an SVG: the history chart
+/// (`lotsman history --output`) and the comparison page (`lotsman compare
+/// --output`).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum HistoryFormat {
     /// A PDF page with the fonts embedded.

@@ -3,6 +3,7 @@
 //! sheet go, a standard-indexed plan's one page or two, and the
 //! trade-off map's page.
 
+pub(crate) mod compare;
 pub(crate) mod history;
 pub(crate) mod map;
 pub(crate) mod shared;

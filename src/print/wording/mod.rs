@@ -3,6 +3,7 @@
 //! inspector's steps and the cautions come from [`crate::report::words`],
 //! which the terminal prints too.
 
+pub(crate) mod compare;
 pub(crate) mod map;
 pub(crate) mod sheet;
 pub(crate) mod standard;

@@ -3,6 +3,7 @@
 //! in [`values`]. Each file also turns its arguments into validated library
 //! requests (`TryFrom`), so that the commands start from checked values.
 
+pub mod compare;
 pub mod demo;
 pub mod design;
 pub mod draw;
@@ -37,6 +38,9 @@ pub enum Command {
     Design(Box<design::DesignArgs>),
     /// Evaluate a plan: OC, AOQ, ATI and ASN at chosen qualities, AOQL.
     Evaluate(evaluate::EvaluateArgs),
+    /// Compare two to six plans at one pair of risk points: true risks, AOQL, ASN, and their
+    /// curves.
+    Compare(compare::CompareArgs),
     /// Re-solve plan sources and compare with the plans they record.
     Verify(verify::VerifyArgs),
     /// Decide a lot from the counts found: accept, reject, or go on.

@@ -3,6 +3,7 @@
 //! code. What several batch commands share is in [`batch`].
 
 pub mod batch;
+pub mod compare;
 pub mod demo;
 pub mod design;
 pub mod draw;
