@@ -135,10 +135,27 @@ impl StandardJudgeReport {
                 .zip(&sizes)
                 .map(|(c, n)| format!("{} {n}", c.class.label()))
                 .collect();
+            // The smaller samples must be random samples too: the units
+            // are drawn in nested stages, each class counting the first
+            // units in draw order, never the lowest positions of a sorted
+            // list (which would favour the front of the lot).
+            let mut nested: Vec<u64> = sizes.clone();
+            nested.sort_unstable();
+            nested.dedup();
+            let mut drawn = 0;
+            let flags: Vec<String> = nested
+                .iter()
+                .map(|&n| {
+                    let more = n - drawn;
+                    drawn = n;
+                    format!("--n {more}")
+                })
+                .collect();
             notes.push(format!(
-                "the classes' plans take different samples ({}): one draw of {} units serves all, each class counting in the first units of it, as many as its plan takes",
+                "the classes' plans take different samples ({}): one draw of {} units serves all, in nested stages (lotsman draw --lot ID --lot-size N {}), each class counting the units of the stages up to its own sample size, never the lowest positions of one sorted list",
                 each.join(", "),
-                self.plans.sample_size()
+                self.plans.sample_size(),
+                flags.join(" ")
             ));
         }
         notes
