@@ -63,3 +63,22 @@ pub fn warn_accepted(source: &Path, accepted: Option<&str>, done: &str) {
         ));
     }
 }
+
+/// The format of the page `--output path` asks for, by its extension:
+/// `.pdf` or `.svg`; `what` names the page in the refusal of another name
+/// ("the chart is", "the charts are").
+pub fn page_format(path: &Path, what: &str) -> Result<lotsman::HistoryFormat, Error> {
+    let ext = path
+        .extension()
+        .and_then(|e| e.to_str())
+        .map(str::to_ascii_lowercase);
+    match ext.as_deref() {
+        Some("pdf") => Ok(lotsman::HistoryFormat::Pdf),
+        Some("svg") => Ok(lotsman::HistoryFormat::Svg),
+        _ => Err(lotsman::InputError::Inconsistent(format!(
+            "--output {}: {what} drawn as a PDF or an SVG; name the file chart.pdf or chart.svg",
+            shown(path)
+        ))
+        .into()),
+    }
+}

@@ -4,25 +4,18 @@
 //! landscape, as a PDF or an SVG drawn by the same code.
 
 use super::history::HistoryFormat;
-use crate::input::InputError;
+use super::landscape::{PAGE, landscape_page};
 use crate::numeric::format_quality_cell;
 use crate::plan::Comparison;
 use crate::print::canvas::Canvas;
 use crate::print::chart::compare::{CompareCurves, Measure, compare_chart, fitted};
-use crate::print::draw::{Draw, Face, grey};
-use crate::print::fonts::Fonts;
+use crate::print::draw::{Face, grey};
 use crate::print::geometry::Rect;
 use crate::print::palette::COMPARED;
-use crate::print::pdf::{Document, PdfPage, save};
-use crate::print::svg::SvgPage;
 use crate::print::wording::compare as words;
 use crate::print::wording::sheet::quality;
 use crate::report::CompareReport;
 use crate::source::Error;
-use crate::standard::text_sha256;
-
-/// The page, mm: A4 turned.
-const PAGE: (f64, f64) = (297.0, 210.0);
 
 /// The margin, mm.
 const MARGIN: f64 = 12.0;
@@ -52,40 +45,13 @@ pub fn render_comparison(
     format: HistoryFormat,
 ) -> Result<Vec<u8>, Error> {
     let curves = CompareCurves::new(comparison)?;
-    let fonts = Fonts::embedded()?;
-    let (pw, ph) = PAGE;
-    let mut pdf = PdfPage::new();
-    let mut svg = SvgPage::new(PAGE);
-    let page: &mut dyn Draw = match format {
-        HistoryFormat::Pdf => &mut pdf,
-        HistoryFormat::Svg => &mut svg,
-    };
-    let mut c = Canvas::new(page, &fonts);
-    lay(&mut c, comparison, &curves, report, title);
-    let laid = c.finish(pw, ph);
-    if !laid.is_clean() {
-        let all: Vec<String> = laid.overflows.into_iter().chain(laid.faults).collect();
-        return Err(InputError::Inconsistent(format!(
-            "the comparison page cannot be laid out: {}",
-            all.join("; ")
-        ))
-        .into());
-    }
-    match format {
-        HistoryFormat::Svg => Ok(svg.finish(title).into_bytes()),
-        HistoryFormat::Pdf => {
-            let json = serde_json::to_string(report).unwrap_or_default();
-            let hash = text_sha256(&json);
-            let subject = format!("lotsman comparison of plans, data SHA-256 {hash}");
-            let doc = Document {
-                title,
-                subject: &subject,
-                hash: &hash,
-                extra: &[],
-            };
-            save(&doc, &fonts, PAGE, pdf.into_ops())
-        }
-    }
+    landscape_page(
+        format,
+        title,
+        ("the comparison page", "lotsman comparison of plans"),
+        report,
+        |c| lay(c, comparison, &curves, report, title),
+    )
 }
 
 fn lay(

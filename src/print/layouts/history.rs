@@ -3,21 +3,15 @@
 //! average below, and the usual caution; A4 landscape, as a PDF or an SVG
 //! drawn by the same code.
 
+use super::landscape::{PAGE, landscape_page};
 use crate::input::InputError;
 use crate::ledger::History;
 use crate::print::canvas::Canvas;
 use crate::print::chart::history::{REDUCED_BAND, TIGHTENED_BAND, control_chart, running_chart};
-use crate::print::draw::{Draw, Face, grey};
-use crate::print::fonts::Fonts;
+use crate::print::draw::{Face, grey};
 use crate::print::geometry::Rect;
 use crate::print::palette::{ACCEPT, PLAN, REJECT};
-use crate::print::pdf::{Document, PdfPage, save};
-use crate::print::svg::SvgPage;
 use crate::source::Error;
-use crate::standard::text_sha256;
-
-/// The page, mm: A4 turned.
-const PAGE: (f64, f64) = (297.0, 210.0);
 
 /// The most lots one page charts legibly (a point per 0.4 mm).
 pub const MAX_HISTORY_LOTS: usize = 600;
@@ -115,38 +109,11 @@ pub fn render_history(
         )
         .into());
     }
-    let fonts = Fonts::embedded()?;
-    let (pw, ph) = PAGE;
-    let mut pdf = PdfPage::new();
-    let mut svg = SvgPage::new(PAGE);
-    let page: &mut dyn Draw = match format {
-        HistoryFormat::Pdf => &mut pdf,
-        HistoryFormat::Svg => &mut svg,
-    };
-    let mut c = Canvas::new(page, &fonts);
-    lay(&mut c, history, title);
-    let laid = c.finish(pw, ph);
-    if !laid.is_clean() {
-        let all: Vec<String> = laid.overflows.into_iter().chain(laid.faults).collect();
-        return Err(InputError::Inconsistent(format!(
-            "the history chart cannot be laid out: {}",
-            all.join("; ")
-        ))
-        .into());
-    }
-    match format {
-        HistoryFormat::Svg => Ok(svg.finish(title).into_bytes()),
-        HistoryFormat::Pdf => {
-            let json = serde_json::to_string(history).unwrap_or_default();
-            let hash = text_sha256(&json);
-            let subject = format!("lotsman lot history, data SHA-256 {hash}");
-            let doc = Document {
-                title,
-                subject: &subject,
-                hash: &hash,
-                extra: &[],
-            };
-            save(&doc, &fonts, PAGE, pdf.into_ops())
-        }
-    }
+    landscape_page(
+        format,
+        title,
+        ("the history chart", "lotsman lot history"),
+        history,
+        |c| lay(c, history, title),
+    )
 }

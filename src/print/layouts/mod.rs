@@ -5,6 +5,7 @@
 
 pub(crate) mod compare;
 pub(crate) mod history;
+pub(crate) mod landscape;
 pub(crate) mod map;
 pub(crate) mod shared;
 pub(crate) mod single;

@@ -3,12 +3,12 @@
 //! their OC, AOQ and ASN charts.
 
 use lotsman::{
-    CompareReport, Error, HistoryFormat, InputError, Outcome, SourceText, check_compared_count,
-    compare, compared_source, format_quality, render_comparison, write_atomic,
+    CompareReport, Error, InputError, Outcome, SourceText, check_compared_count, compare,
+    compared_source, format_quality, render_comparison, write_atomic,
 };
 
 use crate::cli::compare::CompareArgs;
-use crate::out::{print_report, say, shown, warn_accepted};
+use crate::out::{page_format, print_report, say, shown, warn_accepted};
 
 /// What was done with a recorded plan used at the user's request although
 /// the audit does not confirm it, for [`warn_accepted`].
@@ -18,24 +18,7 @@ const COMPARED_AS_RECORDED: &str =
 pub fn run(args: CompareArgs) -> Result<Outcome, Error> {
     let page = match &args.output.output {
         None => None,
-        Some(path) => {
-            let ext = path
-                .extension()
-                .and_then(|e| e.to_str())
-                .map(str::to_ascii_lowercase);
-            let format = match ext.as_deref() {
-                Some("pdf") => HistoryFormat::Pdf,
-                Some("svg") => HistoryFormat::Svg,
-                _ => {
-                    return Err(InputError::Inconsistent(format!(
-                        "--output {}: the charts are drawn as a PDF or an SVG; name the file chart.pdf or chart.svg",
-                        shown(path)
-                    ))
-                    .into());
-                }
-            };
-            Some((path, format))
-        }
+        Some(path) => Some((path, page_format(path, "the charts are")?)),
     };
     check_compared_count(args.sources.len() + args.stage.len())?;
     let typed = args.typed_plans()?;

@@ -2,34 +2,17 @@
 //! and the running process average, as a table and a chart.
 
 use lotsman::{
-    Error, HistoryFormat, HistoryReport, InputError, Ledger, Outcome, ledger_history, ledger_plans,
-    render_history, write_atomic,
+    Error, HistoryReport, Ledger, Outcome, ledger_history, ledger_plans, render_history,
+    write_atomic,
 };
 
 use crate::cli::history::HistoryArgs;
-use crate::out::{print_report, say, shown};
+use crate::out::{page_format, print_report, say, shown};
 
 pub fn run(args: HistoryArgs) -> Result<Outcome, Error> {
     let chart = match &args.output.output {
         None => None,
-        Some(path) => {
-            let ext = path
-                .extension()
-                .and_then(|e| e.to_str())
-                .map(str::to_ascii_lowercase);
-            let format = match ext.as_deref() {
-                Some("pdf") => HistoryFormat::Pdf,
-                Some("svg") => HistoryFormat::Svg,
-                _ => {
-                    return Err(InputError::Inconsistent(format!(
-                        "--output {}: the chart is drawn as a PDF or an SVG; name the file chart.pdf or chart.svg",
-                        shown(path)
-                    ))
-                    .into());
-                }
-            };
-            Some((path, format))
-        }
+        Some(path) => Some((path, page_format(path, "the chart is")?)),
     };
     let ledger = Ledger::read(&args.ledger)?;
     let plans = ledger_plans(&ledger, &args.plan)?;
