@@ -35,7 +35,7 @@ const SAMPLE: f64 = 7.0;
 /// `format`.
 ///
 /// # Errors
-/// [`InputError`] when a plan's curves pass the work budget or the page
+/// [`InputError`](crate::InputError) when a plan's curves pass the work budget or the page
 /// does not lay out; [`Error::Numerical`] for a point of a curve out of
 /// its range; an output error when the PDF cannot be written.
 pub fn render_comparison(

@@ -87,7 +87,7 @@ fn lay(c: &mut Canvas, history: &History, title: &str) {
 /// The history page of `history`, titled `title`, in `format`.
 ///
 /// # Errors
-/// [`InputError`] for a ledger of no lot or of more than
+/// [`InputError`](crate::InputError) for a ledger of no lot or of more than
 /// [`MAX_HISTORY_LOTS`], or a page that does not lay out; an output error
 /// when the PDF cannot be written.
 pub fn render_history(
