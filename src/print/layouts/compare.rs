@@ -3,8 +3,7 @@
 //! the table of their true risks under them, and the caution; A4
 //! landscape, as a PDF or an SVG drawn by the same code.
 
-use super::history::HistoryFormat;
-use super::landscape::{PAGE, landscape_page};
+use super::landscape::{HistoryFormat, PAGE, landscape_page};
 use crate::numeric::format_quality_cell;
 use crate::plan::Comparison;
 use crate::print::canvas::Canvas;

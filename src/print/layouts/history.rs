@@ -3,7 +3,7 @@
 //! average below, and the usual caution; A4 landscape, as a PDF or an SVG
 //! drawn by the same code.
 
-use super::landscape::{PAGE, landscape_page};
+use super::landscape::{HistoryFormat, PAGE, landscape_page};
 use crate::input::InputError;
 use crate::ledger::History;
 use crate::print::canvas::Canvas;
@@ -15,17 +15,6 @@ use crate::source::Error;
 
 /// The most lots one page charts legibly (a point per 0.4 mm).
 pub const MAX_HISTORY_LOTS: usize = 600;
-
-/// The format of a page drawn as a PDF or an SVG: the history chart
-/// (`lotsman history --output`) and the comparison page (`lotsman compare
-/// --output`).
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub enum HistoryFormat {
-    /// A PDF page with the fonts embedded.
-    Pdf,
-    /// A standalone SVG document.
-    Svg,
-}
 
 fn lay(c: &mut Canvas, history: &History, title: &str) {
     let (pw, ph) = PAGE;

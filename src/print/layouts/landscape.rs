@@ -5,7 +5,6 @@
 
 use serde::Serialize;
 
-use super::history::HistoryFormat;
 use crate::input::InputError;
 use crate::print::canvas::Canvas;
 use crate::print::draw::Draw;
@@ -14,6 +13,17 @@ use crate::print::pdf::{Document, PdfPage, save};
 use crate::print::svg::SvgPage;
 use crate::source::Error;
 use crate::standard::text_sha256;
+
+/// The format of a page drawn as a PDF or an SVG: the history chart
+/// (`lotsman history --output`) and the comparison page (`lotsman compare
+/// --output`).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum HistoryFormat {
+    /// A PDF page with the fonts embedded.
+    Pdf,
+    /// A standalone SVG document.
+    Svg,
+}
 
 /// The page, mm: A4 turned.
 pub const PAGE: (f64, f64) = (297.0, 210.0);
