@@ -8,6 +8,7 @@
 //! compared with what `lotsman design` prints for the same flags, the
 //! refusals with its words.
 
+mod compare;
 mod contract;
 mod inspect;
 mod security;

@@ -22,6 +22,8 @@ pub fn router(state: AppState) -> Router {
         .route("/inspect/judge", post(pages::inspect::decide))
         .route("/inspect/record", post(pages::inspect::record))
         .route("/history", get(pages::history::show))
+        .route("/compare", get(pages::compare::show))
+        .route("/compare.csv", get(pages::compare::csv))
         .route("/login", get(pages::login::show).post(pages::login::enter))
         .route(
             "/assets/style.css",

@@ -1,5 +1,6 @@
 //! The screens, one file each.
 
+pub mod compare;
 pub mod design;
 pub mod history;
 pub mod home;
