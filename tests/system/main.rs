@@ -17,5 +17,6 @@ mod common;
 
 mod poppler;
 
+mod browser;
 mod pages;
 mod sheet;

@@ -43,9 +43,10 @@ impl LotFields {
         }
     }
 
-    /// The ledger's name: as given, or beside the plan, `PLAN-ledger.csv`.
+    /// The ledger's name: as given, or beside the plan, `PLAN-ledger.csv`;
+    /// empty while no plan is chosen.
     pub fn ledger_name(&self) -> String {
-        if !self.ledger.is_empty() {
+        if !self.ledger.is_empty() || self.plan.is_empty() {
             return self.ledger.clone();
         }
         let stem = self
