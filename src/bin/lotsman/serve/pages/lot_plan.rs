@@ -220,15 +220,19 @@ fn other_size(made: Option<u64>, given: Option<u64>) -> Option<String> {
 /// What to draw.
 enum Sizes {
     Stages(Vec<u64>),
+    /// The nested draw of classes whose plans take different samples:
+    /// each part's new units and who counts in them.
+    Nested(Vec<(u64, String)>),
     Items(u64),
     /// Nothing: every unit is inspected, or no plan applies.
     None,
 }
 
 /// A standard-indexed source: the severity the ledger's history requires
-/// and each class's plan at it; the units to draw in each stage are the
-/// most any class takes there (each class counts in the first units of
-/// the draw, as many as its own plan takes).
+/// and each class's plan at it. Classes whose plans take different
+/// samples share one nested draw ([`nested`]): each class counts in the
+/// first units of the draw, as many as its own plan takes, so no class
+/// favours the front of a sorted list.
 fn standard(shown: &mut InForce, known: &KnownPlan, ledger: &Ledger) -> Sizes {
     shown.entry = Entry::Classes;
     let state = replay(ledger, std::slice::from_ref(known))
@@ -245,44 +249,101 @@ fn standard(shown: &mut InForce, known: &KnownPlan, ledger: &Ledger) -> Sizes {
         return Sizes::None;
     };
     shown.code_letter = Some(plans.code_letter.to_string());
-    let mut sizes: Vec<u64> = Vec::new();
+    let mut cumulative: Vec<(String, Vec<u64>)> = Vec::new();
     for (i, class) in plans.classes.iter().enumerate() {
         let stages = class.answer.table_plan().stages.stages();
-        for (at, n) in new_units(stages).into_iter().enumerate() {
-            match sizes.get_mut(at) {
-                Some(most) => *most = (*most).max(n),
-                None => sizes.push(n),
-            }
+        let label = match &class.class.name {
+            Some(name) => format!("{name} (AQL {})", class.class.aql),
+            None => class.class.label(),
+        };
+        if class.answer.plan().is_some() {
+            cumulative.push((label.clone(), stages.iter().map(|s| s.n).collect()));
         }
         shown.classes.push(ClassRows {
-            label: match &class.class.name {
-                Some(name) => format!("{name} (AQL {})", class.class.aql),
-                None => class.class.label(),
-            },
+            label,
             name: class.class.name.clone(),
             field: format!("class_{}", i + 1),
             inspect_all: class.answer.plan().is_none(),
             stages: rows(stages),
         });
     }
-    if plans.inspect_all() {
-        Sizes::None
-    } else {
-        Sizes::Stages(sizes)
+    match cumulative.as_slice() {
+        _ if plans.inspect_all() => Sizes::None,
+        [] => Sizes::None,
+        [(_, one)] => Sizes::Stages(new_units_of(one)),
+        _ => Sizes::Nested(nested(&cumulative)),
     }
+}
+
+/// The parts of one nested draw for classes of the cumulative sample
+/// sizes given: a part ends at every cumulative size any class takes, and
+/// each part names who counts in its units (a class counts in the units
+/// drawn up to its own cumulative size at each stage): `Every class —
+/// units 1 to 125 of the draw (125 units)`, then `Major (AQL 0.65) only —
+/// units 126 to 200 of the draw (75 more)`. Drawn as `draw --n 125 --n 75`, the first part is
+/// exactly the single draw of 125.
+fn nested(classes: &[(String, Vec<u64>)]) -> Vec<(u64, String)> {
+    let ends: std::collections::BTreeSet<u64> = classes
+        .iter()
+        .flat_map(|(_, c)| c.iter().copied())
+        .collect();
+    let mut previous = 0;
+    ends.into_iter()
+        .map(|end| {
+            let users: Vec<(String, usize, usize)> = classes
+                .iter()
+                .filter_map(|(label, c)| {
+                    let stage = c.iter().position(|&n| n >= end)?;
+                    Some((label.clone(), stage, c.len()))
+                })
+                .collect();
+            let who = if users.len() == classes.len() && users.iter().all(|u| u.1 == 0) {
+                "every class".to_string()
+            } else {
+                let named: Vec<String> = users
+                    .iter()
+                    .map(|(label, stage, stages)| match stages {
+                        1 => label.clone(),
+                        _ => format!("{label}, stage {}", stage + 1),
+                    })
+                    .collect();
+                format!("{} only", named.join("; "))
+            };
+            let more = if previous == 0 { "units" } else { "more" };
+            let mut who = who.chars();
+            let first = who.next().map(|c| c.to_uppercase().to_string());
+            let part = (
+                end - previous,
+                format!(
+                    "{}{} \u{2014} units {} to {end} of the draw ({} {more})",
+                    first.unwrap_or_default(),
+                    who.as_str(),
+                    previous + 1,
+                    end - previous
+                ),
+            );
+            previous = end;
+            part
+        })
+        .collect()
+}
+
+/// The units each stage adds, from the cumulative sizes.
+fn new_units_of(cumulative: &[u64]) -> Vec<u64> {
+    let mut previous = 0;
+    cumulative
+        .iter()
+        .map(|&n| {
+            let added = n - previous;
+            previous = n;
+            added
+        })
+        .collect()
 }
 
 /// The units each stage adds.
 fn new_units(stages: &[Stage]) -> Vec<u64> {
-    let mut previous = 0;
-    stages
-        .iter()
-        .map(|s| {
-            let n = s.n - previous;
-            previous = s.n;
-            n
-        })
-        .collect()
+    new_units_of(&stages.iter().map(|s| s.n).collect::<Vec<_>>())
 }
 
 /// The stages as the page lists them.
@@ -320,8 +381,14 @@ fn drawn(
     let source = SeedSource::PlanAndLot {
         plan_sha256: sha256.to_string(),
     };
+    let mut labels = None;
     let request = match sizes {
         Sizes::Stages(sizes) => {
+            DrawRequest::staged(&fields.lot, lot_size, &sizes, None, seed, source)
+        }
+        Sizes::Nested(parts) => {
+            let sizes: Vec<u64> = parts.iter().map(|p| p.0).collect();
+            labels = Some(parts.into_iter().map(|p| p.1).collect::<Vec<_>>());
             DrawRequest::staged(&fields.lot, lot_size, &sizes, None, seed, source)
         }
         Sizes::Items(k) => DrawRequest::items(&fields.lot, lot_size, k, seed, source),
@@ -351,7 +418,9 @@ fn drawn(
             .iter()
             .enumerate()
             .map(|(i, positions)| DrawStage {
-                label: if count == 1 {
+                label: if let Some(said) = labels.as_ref().and_then(|l| l.get(i)) {
+                    said.clone()
+                } else if count == 1 {
                     format!("{} units", positions.len())
                 } else {
                     format!("stage {}: {} units", i + 1, positions.len())
