@@ -92,8 +92,8 @@ pub use design::{
     variables_design_work, wald_lines,
 };
 pub use draw::{
-    CartonShare, DRAW_GENERATOR, Draw, DrawKind, DrawRequest, DrawnUnit, Generator, SeedSource,
-    carton_shares, draw, draw_seed, draw_stages, draw_work, floyd_sample,
+    CartonShare, DRAW_GENERATOR, Draw, DrawKind, DrawRequest, DrawnUnit, Generator, NestedPart,
+    SeedSource, carton_shares, draw, draw_seed, draw_stages, draw_work, floyd_sample, nested_parts,
 };
 pub use fs::{
     FileError, Overwrite, normalise_folder, read_limited, refuse_overwriting_input, same_file,

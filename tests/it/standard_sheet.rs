@@ -241,3 +241,26 @@ fn the_rule_to_reduced_counts_the_lots_the_scheme_counts() {
     );
     assert!(all.contains("major 7† at 1250 units and"), "{all}");
 }
+
+#[test]
+fn classes_of_different_samples_are_drawn_in_nested_parts() {
+    // Lot 1500, level II: code letter K (n = 125) for major 1.0 and minor
+    // 4.0; the arrow of AQL 0.065 leads to letter L (n = 200) for
+    // critical (MIL-STD-105E Tables I and II-A). One nested draw of 125
+    // and 75 more, not "the first units" of one list of 200.
+    let f = facts(
+        &["critical=0.065", "major=1.0", "minor=4.0"],
+        Scheme::Single,
+        false,
+        None,
+    );
+    let all = texts(&render_standard_sheet_svg(&f, Paper::A4).unwrap()).join(" ");
+    for words in [
+        "Draw the sample in 2 parts, each at random from the units of the lot not",
+        "units 1 to 125 for every class; units 126",
+        "to 200 for critical only.",
+    ] {
+        assert!(all.contains(words), "{words}\n{all}");
+    }
+    assert!(!all.contains("the first units drawn"), "{all}");
+}

@@ -6,6 +6,7 @@
 //! normal, tightened and reduced inspection, limit number) are the
 //! standard's.
 
+use crate::draw::nested_parts;
 use crate::print::standard_facts::{ReducedLimit, SchemeCurve, StandardClassFacts, StandardFacts};
 use crate::standard::{ClassRule, LimitNumber, MIN_WINDOW_LOTS, Severity, StandardAnswer};
 
@@ -87,6 +88,41 @@ pub fn listed(items: &[String]) -> String {
     }
 }
 
+/// The draw of classes whose plans take different samples: one nested
+/// draw ([`nested_parts`]), each part at random from the units not drawn
+/// before, and each class counting in the parts it is named in; with
+/// `staged` plans, a part for a later stage is drawn only when that
+/// stage is reached.
+fn nested_draw(
+    sampled: &[(&StandardClassFacts, &crate::standard::StandardPlan)],
+    staged: bool,
+) -> String {
+    let classes: Vec<(String, Vec<u64>)> = sampled
+        .iter()
+        .map(|(c, p)| {
+            (
+                c.name.clone(),
+                p.stages.stages().iter().map(|s| s.n).collect(),
+            )
+        })
+        .collect();
+    let parts = nested_parts(&classes);
+    let each: Vec<String> = parts
+        .iter()
+        .map(|p| format!("units {} to {} for {}", p.from, p.to, p.who()))
+        .collect();
+    format!(
+        "Draw the sample in {} parts, each at random from the units of the lot not drawn before (every unit equally likely): {}. Each class counts only in the units of the parts it is named in{}.",
+        parts.len(),
+        each.join("; "),
+        if staged {
+            "; a part for a later stage is drawn only when that stage is reached"
+        } else {
+            ""
+        }
+    )
+}
+
 /// The inspector's procedure at the severity in force, one step per item.
 pub fn procedure(f: &StandardFacts) -> Vec<String> {
     let s = f.severity;
@@ -120,7 +156,9 @@ pub fn procedure(f: &StandardFacts) -> Vec<String> {
         .windows(2)
         .all(|w| w[0].1.stages.stages() == w[1].1.stages.stages());
     if !sampled.is_empty() {
-        let draw = if staged {
+        let draw = if !same {
+            nested_draw(&sampled, staged)
+        } else if staged {
             format!(
                 "Draw {first} units at random from the whole lot (every unit equally likely) for stage 1; at each later stage draw that stage's new units from the rest of the lot, up to {most} in all."
             )
@@ -129,20 +167,7 @@ pub fn procedure(f: &StandardFacts) -> Vec<String> {
                 "Draw {most} units at random from the whole lot (every unit equally likely to be drawn)."
             )
         };
-        let judged = if same {
-            String::new()
-        } else {
-            let each: Vec<String> = sampled
-                .iter()
-                .map(|(c, p)| format!("{} on the first {}", c.name, p.stages.stages()[0].n))
-                .collect();
-            format!(
-                " Each class is judged on the first units drawn, as many as its n: {}{}.",
-                listed(&each),
-                if staged { " at stage 1" } else { "" }
-            )
-        };
-        steps.push(format!("{draw}{judged}"));
+        steps.push(draw);
         let mixed =
             sampled.iter().any(|(c, _)| c.per_unit()) && sampled.iter().any(|(c, _)| !c.per_unit());
         let what = if mixed {

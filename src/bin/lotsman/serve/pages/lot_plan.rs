@@ -8,7 +8,8 @@ use std::path::PathBuf;
 
 use lotsman::{
     Audited, DrawRequest, Error, InputError, KnownPlan, Ledger, MAX_LOT_SIZE, PlanSource,
-    SeedSource, Severity, Stage, draw, draw_seed, format_significant, parse_count, replay,
+    SeedSource, Severity, Stage, draw, draw_seed, format_significant, nested_parts, parse_count,
+    replay,
 };
 
 use crate::commands::judge::budget;
@@ -276,54 +277,26 @@ fn standard(shown: &mut InForce, known: &KnownPlan, ledger: &Ledger) -> Sizes {
 }
 
 /// The parts of one nested draw for classes of the cumulative sample
-/// sizes given: a part ends at every cumulative size any class takes, and
-/// each part names who counts in its units (a class counts in the units
-/// drawn up to its own cumulative size at each stage): `Every class —
-/// units 1 to 125 of the draw (125 units)`, then `Major (AQL 0.65) only —
-/// units 126 to 200 of the draw (75 more)`. Drawn as `draw --n 125 --n 75`, the first part is
-/// exactly the single draw of 125.
+/// sizes given ([`nested_parts`]), each with its label: `Every class —
+/// units 1 to 125 of the draw (125 units)`, then `Critical (AQL 0.065)
+/// only — units 126 to 200 of the draw (75 more)`.
 fn nested(classes: &[(String, Vec<u64>)]) -> Vec<(u64, String)> {
-    let ends: std::collections::BTreeSet<u64> = classes
-        .iter()
-        .flat_map(|(_, c)| c.iter().copied())
-        .collect();
-    let mut previous = 0;
-    ends.into_iter()
-        .map(|end| {
-            let users: Vec<(String, usize, usize)> = classes
-                .iter()
-                .filter_map(|(label, c)| {
-                    let stage = c.iter().position(|&n| n >= end)?;
-                    Some((label.clone(), stage, c.len()))
-                })
-                .collect();
-            let who = if users.len() == classes.len() && users.iter().all(|u| u.1 == 0) {
-                "every class".to_string()
-            } else {
-                let named: Vec<String> = users
-                    .iter()
-                    .map(|(label, stage, stages)| match stages {
-                        1 => label.clone(),
-                        _ => format!("{label}, stage {}", stage + 1),
-                    })
-                    .collect();
-                format!("{} only", named.join("; "))
-            };
-            let more = if previous == 0 { "units" } else { "more" };
+    nested_parts(classes)
+        .into_iter()
+        .map(|part| {
+            let who = part.who();
             let mut who = who.chars();
             let first = who.next().map(|c| c.to_uppercase().to_string());
-            let part = (
-                end - previous,
-                format!(
-                    "{}{} \u{2014} units {} to {end} of the draw ({} {more})",
-                    first.unwrap_or_default(),
-                    who.as_str(),
-                    previous + 1,
-                    end - previous
-                ),
+            let more = if part.from == 1 { "units" } else { "more" };
+            let label = format!(
+                "{}{} \u{2014} units {} to {} of the draw ({} {more})",
+                first.unwrap_or_default(),
+                who.as_str(),
+                part.from,
+                part.to,
+                part.units()
             );
-            previous = end;
-            part
+            (part.units(), label)
         })
         .collect()
 }
