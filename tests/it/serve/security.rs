@@ -250,6 +250,14 @@ fn another_address_than_this_machine_needs_a_token() {
         ),
         (vec!["--listen", "here"], "--listen"),
         (vec!["--token", "short"], "give at least 12"),
+        (
+            vec!["--token-file", "no-such-token-file"],
+            "--token-file no-such-token-file: the file does not exist",
+        ),
+        (
+            vec!["--token", "correct horse battery", "--token-file", "t.txt"],
+            "--token",
+        ),
     ] {
         let out = Command::new(BIN).arg("serve").args(&args).output().unwrap();
         assert_eq!(out.status.code(), Some(2), "{args:?}");
@@ -258,4 +266,31 @@ fn another_address_than_this_machine_needs_a_token() {
         assert!(text.contains(words), "{args:?}: {text}");
         assert!(out.stdout.is_empty());
     }
+}
+
+#[test]
+fn the_token_can_come_from_a_file_and_a_wrong_login_waits() {
+    let dir = tempfile::tempdir().unwrap();
+    let file = dir.path().join("token.txt");
+    std::fs::write(&file, "correct horse battery\n").unwrap();
+    let server = Server::start(&["--token-file", file.to_str().unwrap()]);
+    let login = server.get("/login", None);
+    let cookie = login.cookie.clone().unwrap();
+    let csrf = csrf_of(&login.body);
+    // A wrong login is answered after a pause of a second (logins pass
+    // one at a time), so a token cannot be guessed quickly.
+    let started = std::time::Instant::now();
+    let wrong = server.post(
+        "/login",
+        Some(&cookie),
+        &[("csrf", &csrf), ("token", "correct horse batterY")],
+    );
+    assert_eq!(wrong.status, 403);
+    assert!(started.elapsed() >= std::time::Duration::from_millis(950));
+    let right = server.post(
+        "/login",
+        Some(&cookie),
+        &[("csrf", &csrf), ("token", "correct horse battery")],
+    );
+    assert_eq!(right.status, 303);
 }

@@ -27,9 +27,13 @@ pub struct ServeArgs {
     /// The address to listen on [default: 127.0.0.1, this machine only]; any other needs --token
     #[arg(long, value_name = "ADDR")]
     pub listen: Option<String>,
-    /// The login asked of every browser before any page (at least 12 characters)
-    #[arg(long, value_name = "T")]
+    /// The login asked of every browser before any page (at least 12 characters); other
+    /// users of this machine can read it in the process list: --token-file keeps it out
+    #[arg(long, value_name = "T", conflicts_with = "token_file")]
     pub token: Option<String>,
+    /// Read the login token from the first line of this file instead of --token
+    #[arg(long, value_name = "FILE")]
+    pub token_file: Option<PathBuf>,
 }
 
 /// What `serve` was asked for, checked.
@@ -62,7 +66,11 @@ impl TryFrom<ServeArgs> for ServeSettings {
                 "--listen {ip} would answer on every address, but each request is checked against the address it was sent to: give the one address the browsers reach this machine at, as 192.168.1.20"
             )));
         }
-        if let Some(token) = &args.token
+        let token = match &args.token_file {
+            None => args.token.clone(),
+            Some(path) => Some(token_of_file(path)?),
+        };
+        if let Some(token) = &token
             && token.chars().count() < MIN_TOKEN_CHARS
         {
             return Err(InputError::Inconsistent(format!(
@@ -70,7 +78,7 @@ impl TryFrom<ServeArgs> for ServeSettings {
                 token.chars().count()
             )));
         }
-        if !ip.is_loopback() && args.token.is_none() {
+        if !ip.is_loopback() && token.is_none() {
             return Err(InputError::Inconsistent(format!(
                 "--listen {ip} lets other machines reach the pages: give --token T as well, the login every browser is asked for"
             )));
@@ -78,7 +86,26 @@ impl TryFrom<ServeArgs> for ServeSettings {
         Ok(ServeSettings {
             workspace: args.workspace.unwrap_or_else(|| PathBuf::from(".")),
             address: SocketAddr::new(ip, args.port),
-            token: args.token,
+            token,
         })
     }
+}
+
+/// The token on the first line of the file at `path`, without its line
+/// end.
+fn token_of_file(path: &std::path::Path) -> Result<String, InputError> {
+    let shown = lotsman::shell_path(path);
+    let text = std::fs::read_to_string(path).map_err(|e| {
+        InputError::Inconsistent(format!(
+            "--token-file {shown}: the file {}; give a file whose first line is the token",
+            lotsman::io_reason(&e)
+        ))
+    })?;
+    let token = text.lines().next().unwrap_or("").trim_end_matches('\r');
+    if token.is_empty() {
+        return Err(InputError::Inconsistent(format!(
+            "--token-file {shown}: the first line is empty; write the token on it"
+        )));
+    }
+    Ok(token.to_string())
 }

@@ -23,7 +23,15 @@ struct Inner {
     hosts: Vec<String>,
     token: Option<String>,
     sessions: Sessions,
+    /// Held by a wrong login for [`WRONG_LOGIN_PAUSE`], so that logins
+    /// are tried one at a time, at most one wrong one a second.
+    login_gate: tokio::sync::Mutex<()>,
 }
+
+/// How long a wrong login holds the login gate: guessing a token of
+/// twelve characters or more, one a second, takes far longer than any
+/// server runs.
+pub const WRONG_LOGIN_PAUSE: std::time::Duration = std::time::Duration::from_secs(1);
 
 impl AppState {
     /// The state of a server over `workspace`, bound at `address`.
@@ -51,6 +59,7 @@ impl AppState {
             hosts,
             token,
             sessions: Sessions::new(port),
+            login_gate: tokio::sync::Mutex::new(()),
         }))
     }
 
@@ -73,6 +82,11 @@ impl AppState {
     /// The login token, if the server asks for one.
     pub fn token(&self) -> Option<&str> {
         self.0.token.as_deref()
+    }
+
+    /// The gate every login passes, one at a time.
+    pub fn login_gate(&self) -> &tokio::sync::Mutex<()> {
+        &self.0.login_gate
     }
 
     /// The sessions.

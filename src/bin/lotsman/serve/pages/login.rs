@@ -14,7 +14,7 @@ use axum::response::{IntoResponse, Redirect, Response};
 use crate::serve::guard::posted;
 use crate::serve::page::{Refusal, render};
 use crate::serve::session::{Session, same};
-use crate::serve::state::AppState;
+use crate::serve::state::{AppState, WRONG_LOGIN_PAUSE};
 
 #[derive(Template)]
 #[template(path = "serve/login.html")]
@@ -50,7 +50,10 @@ pub async fn enter(
         Err(r) => return r.into_response(),
     };
     let given = fields.get("token").map(String::as_str).unwrap_or("");
+    // One login at a time; a wrong one keeps the gate for a second.
+    let _gate = state.login_gate().lock().await;
     if !same(given, token) {
+        tokio::time::sleep(WRONG_LOGIN_PAUSE).await;
         return login_page(
             StatusCode::FORBIDDEN,
             &session,
