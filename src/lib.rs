@@ -134,12 +134,12 @@ pub use plan::{
 };
 pub use print::{
     ChartKind, ContourLabel, HASH_PREFIX, HistoryFormat, MAX_HISTORY_LOTS, MAX_SHEET_BYTES,
-    MapContour, MapPanel, MapQuantity, Paper, ReducedLimit, SCHEME_POINTS, SOURCE_NAME_KEY,
-    SchemeCurve, Sheet, SheetDocument, SheetNotes, SheetOptions, SheetVerdict, StandardClassFacts,
-    StandardFacts, TradeoffMap, chart_svg, check_sheet, check_sheet_text, render_comparison,
-    render_history, render_sheet, render_sheet_noting, render_sheet_svg, render_standard_sheet,
-    render_standard_sheet_svg, render_tradeoff_map, sheet_source_hash, source_hash, write_sheet,
-    write_sheet_text,
+    MapContour, MapPanel, MapQuantity, Paper, ReducedLimit, RiskAt, SCHEME_POINTS, SOURCE_NAME_KEY,
+    SchemeCurve, Sheet, SheetDocument, SheetNotes, SheetOptions, SheetVerdict, SourceOc,
+    StandardClassFacts, StandardFacts, TradeoffMap, chart_svg, check_sheet, check_sheet_text,
+    render_comparison, render_history, render_sheet, render_sheet_noting, render_sheet_svg,
+    render_standard_sheet, render_standard_sheet_svg, render_tradeoff_map, sheet_of_text,
+    sheet_source_hash, source_hash, source_oc_svg, write_sheet, write_sheet_text,
 };
 pub use report::{
     AlternativeReport, BatchSummary, ClassEvaluationReport, ClassReport, CompareReport,

@@ -32,6 +32,7 @@ pub(crate) mod palette;
 pub(crate) mod pdf;
 mod rendered;
 pub(crate) mod sheet;
+mod source_oc;
 pub(crate) mod standard_facts;
 pub(crate) mod standard_sheet;
 mod standard_source;
@@ -49,9 +50,10 @@ pub use metadata::{HASH_PREFIX, SOURCE_NAME_KEY, sheet_source_hash, source_hash}
 pub use page::Paper;
 pub use rendered::Sheet;
 pub use sheet::{
-    SheetNotes, SheetOptions, render_sheet, render_sheet_noting, render_sheet_svg, write_sheet,
-    write_sheet_text,
+    SheetNotes, SheetOptions, render_sheet, render_sheet_noting, render_sheet_svg, sheet_of_text,
+    write_sheet, write_sheet_text,
 };
+pub use source_oc::{RiskAt, SourceOc, source_oc_svg};
 pub use standard_facts::{
     ReducedLimit, SCHEME_POINTS, SchemeCurve, SheetDocument, StandardClassFacts, StandardFacts,
 };

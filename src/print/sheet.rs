@@ -327,20 +327,47 @@ pub fn write_sheet_text(
     target: &std::path::Path,
     options: &SheetOptions,
 ) -> Result<SheetNotes, Error> {
+    let (sheet, notes) = sheet_of_text(source, options.paper, options.accept_recorded)?;
+    write_atomic(target, &sheet.pdf, options.overwrite)?;
+    Ok(notes)
+}
+
+/// The sheet [`write_sheet_text`] writes, not written: the source read
+/// as `source` audited, and its sheet rendered on `paper` (with the
+/// discrepancy stated when `accept_recorded` prints an unconfirmed plan),
+/// with what it states or still holds. The same source gives the same
+/// bytes as the file the `sheet` command writes.
+///
+/// # Errors
+/// As [`write_sheet_text`], but for writing.
+///
+/// # Example
+/// ```
+/// use lotsman::{Paper, SourceText, sheet_of_text};
+/// let read = SourceText::read(std::path::Path::new("plans/tpw-seal-visual.yaml")).unwrap();
+/// let (sheet, notes) = sheet_of_text(&read, Paper::A4, false).unwrap();
+/// assert!(sheet.pdf.starts_with(b"%PDF"));
+/// assert!(notes.accepted.is_none());
+/// ```
+pub fn sheet_of_text(
+    source: &SourceText,
+    paper: Paper,
+    accept_recorded: bool,
+) -> Result<(Sheet, SheetNotes), Error> {
     let name = source
         .path
         .file_name()
         .map_or_else(|| "source.yaml".into(), |n| n.to_string_lossy().to_string());
-    let audited = Audited::from_text(source.clone(), options.accept_recorded, |parsed| {
+    let audited = Audited::from_text(source.clone(), accept_recorded, |parsed| {
         crate::source::check_source(parsed, &source.path, crate::source::SourceJob::Sheet)
             .map_err(|e| crate::input::InputError::from(e).into())
     })?;
-    let sheet = audited_sheet(&audited, &name, options.paper)?;
-    write_atomic(target, &sheet.pdf, options.overwrite)?;
-    Ok(SheetNotes {
+    let sheet = audited_sheet(&audited, &name, paper)?;
+    let notes = SheetNotes {
         placeholders: placeholders(&audited.source),
         accepted: audited.accepted,
-    })
+    };
+    Ok((sheet, notes))
 }
 
 /// The sheet of an audited source, printed from the file `name`: with the

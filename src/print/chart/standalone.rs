@@ -57,6 +57,23 @@ impl ChartKind {
     }
 }
 
+/// Refuses a chart `size` = (width, height) mm that is not from
+/// [`MIN_CHART_W`] (width) or [`MIN_CHART_H`] (height) to
+/// [`MAX_CHART_SIZE`], naming the chart `name`.
+pub(crate) fn check_size(name: &str, size: (f64, f64)) -> Result<(), InputError> {
+    let (w, h) = size;
+    for (what, v, least) in [("width", w, MIN_CHART_W), ("height", h, MIN_CHART_H)] {
+        if !(least..=MAX_CHART_SIZE).contains(&v) {
+            return Err(InputError::out_of_range(
+                &format!("{name} {what} (mm)"),
+                v,
+                &format!("{least} to {MAX_CHART_SIZE}"),
+            ));
+        }
+    }
+    Ok(())
+}
+
 /// The `kind` chart of `plan` under `model`, agreed on the risk points
 /// `risks`, as a standalone SVG document `size` = (width, height) mm
 /// large: the chart the plan's sheet prints, drawn by the same code, with
@@ -91,17 +108,8 @@ pub fn chart_svg(
     risks: &RiskPair,
     size: (f64, f64),
 ) -> Result<String, Error> {
+    check_size(kind.name(), size)?;
     let (w, h) = size;
-    for (what, v, least) in [("width", w, MIN_CHART_W), ("height", h, MIN_CHART_H)] {
-        if !(least..=MAX_CHART_SIZE).contains(&v) {
-            return Err(InputError::out_of_range(
-                &format!("{} {what} (mm)", kind.name()),
-                v,
-                &format!("{least} to {MAX_CHART_SIZE}"),
-            )
-            .into());
-        }
-    }
     let agreement = Agreement::points(plan, model, *risks);
     let subject = Subject {
         plan,

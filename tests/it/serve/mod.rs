@@ -11,6 +11,7 @@
 mod compare;
 mod contract;
 mod inspect;
+mod plans_audit;
 mod security;
 
 use std::io::{BufRead, BufReader, Read, Write};

@@ -84,7 +84,7 @@ pub fn run(args: VerifyArgs) -> Result<Outcome, Error> {
 }
 
 /// Whether the file at `path` starts with the ledger's header line.
-fn is_ledger(path: &Path) -> bool {
+pub fn is_ledger(path: &Path) -> bool {
     let Ok(file) = std::fs::File::open(path) else {
         return false;
     };

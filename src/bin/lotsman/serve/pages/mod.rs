@@ -1,5 +1,6 @@
 //! The screens, one file each.
 
+pub mod audit;
 pub mod compare;
 pub mod design;
 pub mod history;
@@ -8,4 +9,6 @@ pub mod inspect;
 pub mod login;
 mod lot_judge;
 mod lot_plan;
+pub mod plans;
 pub mod save;
+mod verified;
