@@ -1,8 +1,10 @@
 //! One walk through the screens as a quality engineer takes it: design a
-//! plan and save it, inspect and record three lots of a standard-indexed
-//! plan until the switching rules put the next lot on tightened
-//! inspection, the supplier's history, and a comparison of two plans;
-//! with the time the design screen takes to update after a change.
+//! plan and save it, find it among the plans and open its sheet, inspect
+//! and record three lots of a standard-indexed plan until the switching
+//! rules put the next lot on tightened inspection, the supplier's
+//! history, a comparison of two plans, and the audit of the ledger and
+//! the sources; with the time the design screen takes to update after a
+//! change.
 //!
 //! The standard-indexed source is MIL-STD-105E's plan for a lot of 1500
 //! at level II, AQL 1.0: code letter K, normal n = 125, Ac 3, Re 4,
@@ -50,9 +52,11 @@ async fn the_screens_in_a_browser() {
     let walk = Walk::start(standard_source).await;
     design_and_save(&walk).await;
     negotiate_updates_in_time(&walk).await;
+    plans_and_the_sheet(&walk).await;
     inspect_three_lots(&walk).await;
     history(&walk).await;
     compare_two(&walk).await;
+    audit(&walk).await;
     walk.end().await;
 }
 
@@ -175,4 +179,58 @@ async fn compare_two(walk: &Walk) {
     walk.click("form.compare button[type=submit]").await;
     walk.wait_text("#result h2", "Comparison of 2 plans").await;
     walk.shot("compare").await;
+}
+
+/// The saved plan in the list, verified; its page; and its sheet, the
+/// bytes `lotsman sheet` writes, drawn by poppler into the screenshots.
+async fn plans_and_the_sheet(walk: &Walk) {
+    walk.open("/").await;
+    walk.click("nav a[href=\"/plans\"]").await;
+    walk.wait_text("main", "cover-fit.yaml").await;
+    walk.shot("plans").await;
+    walk.click("a[href=\"/plans/view?file=cover-fit.yaml\"]")
+        .await;
+    walk.wait_text("main", "Cover fit, incoming").await;
+    walk.shot("plan").await;
+    walk.open("/plans").await;
+    let link = walk
+        .client
+        .find(fantoccini::Locator::Css(
+            "a[href=\"/plans/sheet?file=cover-fit.yaml\"]",
+        ))
+        .await
+        .expect("a sheet link for the saved plan");
+    let href = link.attr("href").await.unwrap().unwrap();
+    let url = format!("{}{}", walk.url, href.trim_start_matches('/'));
+    let pdf = ureq::get(&url)
+        .call()
+        .unwrap()
+        .body_mut()
+        .read_to_vec()
+        .unwrap();
+    let dir = walk.workspace.path();
+    lotsman(dir, &["sheet", "cover-fit.yaml", "--output", "printed.pdf"]);
+    assert_eq!(pdf, std::fs::read(dir.join("printed.pdf")).unwrap());
+    let shots = walk.shots_dir();
+    let out = Command::new("pdftoppm")
+        .args(["-png", "-r", "80", "-singlefile"])
+        .arg(dir.join("printed.pdf"))
+        .arg(shots.join("sheet"))
+        .output()
+        .expect("pdftoppm (poppler-utils)");
+    assert!(out.status.success(), "{out:?}");
+}
+
+/// The ledger's chain and decisions, and every source of the workspace,
+/// verified on the audit page.
+async fn audit(walk: &Walk) {
+    walk.click("nav a[href=\"/audit\"]").await;
+    walk.choose("form.audit", "ledger", "s-ledger.csv").await;
+    walk.click("form.audit:nth-of-type(2) button[type=submit]")
+        .await;
+    walk.wait_text("#audit-result", "Everything holds").await;
+    walk.shot("audit").await;
+    walk.click("form.audit:nth-of-type(1) button[type=submit]")
+        .await;
+    walk.wait_text("#audit-result", "Everything holds").await;
 }

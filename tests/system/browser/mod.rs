@@ -113,6 +113,11 @@ impl Walk {
         }
     }
 
+    /// The folder the screenshots are written to.
+    pub fn shots_dir(&self) -> &Path {
+        &self.shots
+    }
+
     /// Opens `path` (`/design?...`).
     pub async fn open(&self, path: &str) {
         self.client
