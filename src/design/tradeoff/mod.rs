@@ -211,16 +211,8 @@ fn solve_cell(
         Some((n, _)) => n as f64,
         None => measures(&plan, model, aql).asn,
     };
-    let cost = request.cost().map(|k| {
-        let m = measures(&plan, model, k.process_average());
-        // The request holds a lot size whenever it holds a cost.
-        let ati = m.ati.unwrap_or(f64::NAN);
-        CellCost {
-            pa: m.pa,
-            ati,
-            cost: k.per_unit() * ati,
-        }
-    });
+    // The request holds a lot size whenever it holds a cost.
+    let cost = request.cost().and_then(|k| k.at(&plan, model));
     Ok(CellPlan {
         plan,
         producer_risk,
