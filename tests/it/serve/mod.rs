@@ -10,6 +10,7 @@
 
 mod contract;
 mod inspect;
+mod negotiate;
 mod security;
 
 use std::io::{BufRead, BufReader, Read, Write};

@@ -17,6 +17,7 @@ pub fn router(state: AppState) -> Router {
     Router::new()
         .route("/", get(pages::home::show))
         .route("/design", get(pages::design::show))
+        .route("/design/map", get(pages::design_map::show))
         .route("/plans", post(pages::save::save))
         .route("/inspect", get(pages::inspect::show))
         .route("/inspect/judge", post(pages::inspect::decide))

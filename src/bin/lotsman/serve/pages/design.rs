@@ -1,8 +1,12 @@
-//! The design screen: the two risk points, the model and the scheme in a
-//! form; the plan, its risks, its OC chart and the report of `lotsman
-//! design` below it. The form's fields become the arguments of `lotsman
-//! design` and take the same path to a plan ([`from_flags`]), so the page
-//! parses, refuses and answers as the command does.
+//! The design and negotiation screen: the two risk points, the model, the
+//! scheme, a cost of inspection and a process quality in a form; the plan,
+//! its risks, its OC chart, the inspection at the process quality, the
+//! nearby plans, what one step of each input does, the trade-off map
+//! around the points ([`super::design_map`], loaded on its own) and the
+//! report of `lotsman design` below it. The form's fields become the
+//! arguments of `lotsman design` and take the same path to a plan
+//! ([`from_flags`]), so the page parses, refuses and answers as the
+//! command does.
 
 use std::collections::HashMap;
 
@@ -29,6 +33,9 @@ use crate::serve::guard::queried;
 use crate::serve::page::{Refusal, render};
 use crate::serve::session::Session;
 
+use super::design_map::MAP_SIZE;
+use super::negotiate::{AtProcess, Tables};
+
 /// The size of the OC chart, mm (it scales to the page's width).
 const CHART_SIZE: (f64, f64) = (160.0, 100.0);
 
@@ -44,6 +51,13 @@ pub struct DesignFields {
     pub model: String,
     pub lot_size: String,
     pub scheme: String,
+    /// The cost of inspecting one unit, empty for none.
+    pub cost: String,
+    /// The process quality at which the inspection is costed, empty for
+    /// the AQL.
+    pub process: String,
+    /// The number of AQL and of RQL values of the trade-off map.
+    pub map: String,
 }
 
 impl DesignFields {
@@ -66,7 +80,42 @@ impl DesignFields {
             model: text("model", ""),
             lot_size: text("lot_size", ""),
             scheme: text("scheme", "single"),
+            cost: text("cost", ""),
+            process: text("process", ""),
+            map: text("map", MAP_SIZE),
         }
+    }
+
+    /// The fields as a query string, for a link to the same design (or
+    /// its map): each field given, percent-encoded.
+    pub fn query(&self) -> String {
+        let encode = |text: &str| {
+            text.bytes()
+                .map(|b| match b {
+                    b'A'..=b'Z' | b'a'..=b'z' | b'0'..=b'9' | b'-' | b'.' | b'_' | b'~' => {
+                        (b as char).to_string()
+                    }
+                    _ => format!("%{b:02X}"),
+                })
+                .collect::<String>()
+        };
+        [
+            ("aql", &self.aql),
+            ("rql", &self.rql),
+            ("alpha", &self.alpha),
+            ("beta", &self.beta),
+            ("model", &self.model),
+            ("lot_size", &self.lot_size),
+            ("scheme", &self.scheme),
+            ("cost", &self.cost),
+            ("process", &self.process),
+            ("map", &self.map),
+        ]
+        .iter()
+        .filter(|(_, v)| !v.is_empty())
+        .map(|(k, v)| format!("{k}={}", encode(v)))
+        .collect::<Vec<_>>()
+        .join("&")
     }
 
     /// Whether a plan was asked for (an AQL or an RQL given), not only
@@ -197,7 +246,19 @@ struct Shown {
     stages: Vec<StageRow>,
     points: Vec<PointRow>,
     chart: String,
+    at_process: Option<AtProcess>,
+    tables: Tables,
+    map_query: String,
     report: String,
+}
+
+/// An SVG document as an HTML page inlines it: without the XML
+/// declaration.
+pub fn inline_svg(svg: String) -> String {
+    match svg.find("<svg") {
+        Some(at) => svg[at..].to_string(),
+        None => svg,
+    }
 }
 
 /// The plan in one line, as the report's first line gives it: `n = 110,
@@ -212,7 +273,7 @@ pub fn headline(designed: &Designed) -> String {
 }
 
 impl Shown {
-    fn of(designed: &Designed) -> Result<Self, Refusal> {
+    fn of(designed: &Designed, fields: &DesignFields) -> Result<Self, Refusal> {
         let (request, design) = (&designed.request, &designed.solution.design);
         let mut previous = 0;
         let stages = design
@@ -256,18 +317,16 @@ impl Shown {
             CHART_SIZE,
         )
         .map_err(Refusal::from)?;
-        // Inline in HTML, the SVG needs no XML declaration.
-        let chart = match svg.find("<svg") {
-            Some(at) => svg[at..].to_string(),
-            None => svg,
-        };
         let report = report_bytes(&designed.report, Format::Table).map_err(Refusal::from)?;
         Ok(Shown {
             headline: headline(designed),
             described: format!("{} plan, {}", request.scheme, request.model.described()),
             stages,
             points,
-            chart,
+            chart: inline_svg(svg),
+            at_process: AtProcess::of(fields, designed)?,
+            tables: Tables::of(&designed.report),
+            map_query: fields.query(),
             report: String::from_utf8_lossy(&report).into_owned(),
         })
     }
@@ -317,7 +376,7 @@ pub async fn show(
         Some(
             design(fields.clone(), None, DescriptionFlags::default())
                 .await
-                .and_then(|d| Shown::of(&d)),
+                .and_then(|d| Shown::of(&d, &fields)),
         )
     } else {
         None
@@ -328,7 +387,7 @@ pub async fn show(
         Some(Err(r)) => (r.status(), None, Some(r.message().to_string())),
     };
     let page = DesignPage {
-        title: "Design a plan",
+        title: "Design and negotiate a plan",
         models: choices(
             &[
                 ("", "binomial (hypergeometric with a lot size)"),

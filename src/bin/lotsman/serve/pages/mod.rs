@@ -1,10 +1,12 @@
 //! The screens, one file each.
 
 pub mod design;
+pub mod design_map;
 pub mod history;
 pub mod home;
 pub mod inspect;
 pub mod login;
 mod lot_judge;
 mod lot_plan;
+mod negotiate;
 pub mod save;
