@@ -44,7 +44,7 @@ use rayon::prelude::*;
 
 mod request;
 
-pub use self::request::{InspectionCost, RiskGrid, TradeoffRequest, tradeoff_work};
+pub use self::request::{CellCost, InspectionCost, RiskGrid, TradeoffRequest, tradeoff_work};
 
 use super::double::design_double;
 use super::request::Scheme;
@@ -52,17 +52,6 @@ use super::single::{Memo, design_single_with};
 use crate::design::DesignError;
 use crate::model::{RiskPair, RiskPoint};
 use crate::plan::{StagedPlan, measures};
-
-/// The expected inspection at the process average.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub struct CellCost {
-    /// `Pa(p̄)`.
-    pub pa: f64,
-    /// `ATI(p̄)`, units per lot.
-    pub ati: f64,
-    /// Cost per unit times `ATI(p̄)`.
-    pub cost: f64,
-}
 
 /// The plan of one cell with what it achieves.
 #[derive(Clone, Debug, PartialEq)]

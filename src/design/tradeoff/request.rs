@@ -9,7 +9,16 @@ use crate::input::InputError;
 use crate::model::{Model, check_quality, check_risks};
 use crate::plan::{ROW_OUTPUT, StagedPlan, measures};
 
-use super::CellCost;
+/// The expected inspection at the process average.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct CellCost {
+    /// `Pa(p̄)`.
+    pub pa: f64,
+    /// `ATI(p̄)`, units per lot.
+    pub ati: f64,
+    /// Cost per unit times `ATI(p̄)`.
+    pub cost: f64,
+}
 
 /// The cost of inspection, for the cost view of a grid.
 #[derive(Clone, Copy, Debug, PartialEq)]

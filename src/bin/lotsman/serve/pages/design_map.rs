@@ -20,7 +20,7 @@ use lotsman::{
     render_tradeoff_map_svg, shell_word, tradeoff,
 };
 
-use super::design::{DesignFields, design, inline_svg};
+use super::design_form::{DesignFields, design, inline_svg};
 use crate::cli::design::{DescriptionFlags, DesignArgs};
 use crate::cli::groups::{FormatFlag, OutputFlags, PaperFlag, RiskFlags};
 use crate::cli::tradeoff::{TradeoffArgs, TradeoffFormat};
@@ -28,9 +28,6 @@ use crate::cli::values::{PaperArg, SingleOrDoubleArg};
 use crate::commands::design::Designed;
 use crate::serve::guard::queried;
 use crate::serve::page::{Refusal, render};
-
-/// The values a side of a map, unless the page asks for others.
-pub const MAP_SIZE: &str = "7";
 
 /// The largest grid whose cells the page lists as a table; a larger one
 /// is shown as the map only (its numbers: the command, `--format csv`).

@@ -1,6 +1,7 @@
 //! The screens, one file each.
 
 pub mod design;
+mod design_form;
 pub mod design_map;
 pub mod history;
 pub mod home;

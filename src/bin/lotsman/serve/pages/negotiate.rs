@@ -10,7 +10,7 @@ use lotsman::{
     format_significant, measures, parse_number,
 };
 
-use super::design::DesignFields;
+use super::design_form::DesignFields;
 use crate::cli::qualities::Qualities;
 use crate::commands::design::Designed;
 use crate::serve::page::Refusal;
