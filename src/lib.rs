@@ -110,7 +110,7 @@ pub use ledger::{
 };
 pub use model::{
     Interval, MAX_LOT_SIZE, MAX_RATE, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, Tails,
-    clopper_pearson, nonconforming_in_lot, poisson_rate_interval,
+    check_quality, clopper_pearson, nonconforming_in_lot, poisson_rate_interval,
 };
 pub use numeric::{
     BARE_FRACTION_NOTE_ABOVE, MAX_RANGE_POINTS, NEAR_LIMIT, NumericalError, QualityRange, Quantity,
@@ -138,20 +138,20 @@ pub use print::{
     SchemeCurve, Sheet, SheetDocument, SheetNotes, SheetOptions, SheetVerdict, SourceOc,
     StandardClassFacts, StandardFacts, TradeoffMap, chart_svg, check_sheet, check_sheet_text,
     render_comparison, render_history, render_sheet, render_sheet_noting, render_sheet_svg,
-    render_standard_sheet, render_standard_sheet_svg, render_tradeoff_map, sheet_of_text,
-    sheet_source_hash, source_hash, source_oc_svg, write_sheet, write_sheet_text,
+    render_standard_sheet, render_standard_sheet_svg, render_tradeoff_map, render_tradeoff_map_svg,
+    sheet_of_text, sheet_source_hash, source_hash, source_oc_svg, write_sheet, write_sheet_text,
 };
 pub use report::{
     AlternativeReport, BatchSummary, ClassEvaluationReport, ClassReport, CompareReport,
     ComparedPlanReport, ConsumerReport, CostReport, DemoReport, DemoRow, DesignReport, DrawReport,
     EDITION, EvaluationBatchReport, EvaluationEntry, EvaluationReport, Failure, Format,
-    HistoryReport, JudgeReport, LedgerVerifyReport, MeasurementJudgeReport, NextClassPlan,
-    NextPlan, Outcome, PointReport, ProtectionReport, RectifyingPlanReport, RectifyingReport,
-    Report, SeverityPlanReport, SourceEvaluation, StageJson, StandardEvaluationReport,
-    StandardJudgeReport, StandardPlansReport, StandardPoint, StandardReport, StatusReport,
-    TradeoffCellReport, TradeoffReport, TrueRisksReport, TwoPointReport, VariablesDesignReport,
-    VariablesEvaluationReport, VariablesReport, VerificationReport, VerifyEntry, VerifyStatus,
-    variables_rule, words, write_report,
+    HistoryReport, JudgeReport, LedgerVerifyReport, MeasurementJudgeReport, NearbyRow,
+    NextClassPlan, NextPlan, Outcome, PointReport, ProtectionReport, RectifyingPlanReport,
+    RectifyingReport, Report, SeverityPlanReport, SourceEvaluation, StageJson,
+    StandardEvaluationReport, StandardJudgeReport, StandardPlansReport, StandardPoint,
+    StandardReport, StatusReport, TradeoffCellReport, TradeoffReport, TrueRisksReport,
+    TwoPointReport, VariablesDesignReport, VariablesEvaluationReport, VariablesReport,
+    VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words, write_report,
 };
 pub use source::{
     Audit, Audited, ClassSource, Description, Difference, Discrepancy, Edition, Error,

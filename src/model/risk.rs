@@ -84,11 +84,20 @@ impl RiskPair {
     }
 }
 
-/// Checks that `q` is a quality of `model` (see [`Model::accepts_quality`]).
+/// Checks that `q` is a quality of `model` (see [`Model::accepts_quality`]),
+/// in the words every command refuses one with.
 ///
 /// # Errors
 /// [`InputError::OutOfRange`] naming the quality as `name`.
-pub(crate) fn check_quality(model: &Model, name: &str, q: f64) -> Result<(), InputError> {
+///
+/// # Example
+/// ```
+/// use lotsman::{Model, ModelKind, check_quality};
+/// let model = Model::new(ModelKind::Binomial, None).unwrap();
+/// assert!(check_quality(&model, "process average", 0.01).is_ok());
+/// assert!(check_quality(&model, "process average", 1.5).is_err());
+/// ```
+pub fn check_quality(model: &Model, name: &str, q: f64) -> Result<(), InputError> {
     if model.accepts_quality(q) {
         return Ok(());
     }

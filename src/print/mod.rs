@@ -45,7 +45,10 @@ pub use check::{MAX_SHEET_BYTES, SheetVerdict, check_sheet, check_sheet_text};
 pub use layouts::compare::render_comparison;
 pub use layouts::history::{MAX_HISTORY_LOTS, render_history};
 pub use layouts::landscape::HistoryFormat;
-pub use map::{ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map};
+pub use map::{
+    ContourLabel, MapContour, MapPanel, MapQuantity, TradeoffMap, render_tradeoff_map,
+    render_tradeoff_map_svg,
+};
 pub use metadata::{HASH_PREFIX, SOURCE_NAME_KEY, sheet_source_hash, source_hash};
 pub use page::Paper;
 pub use rendered::Sheet;

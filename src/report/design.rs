@@ -96,7 +96,93 @@ pub struct DesignReport {
     pub solved_by: String,
 }
 
+/// One row of the nearby plans as the report prints it.
+#[derive(Clone, Debug, PartialEq)]
+pub struct NearbyRow {
+    /// Whether it is the chosen plan's acceptance number.
+    pub chosen: bool,
+    /// `c`, the smallest `n` meeting the RQL, the largest meeting the AQL,
+    /// and the range of `n` meeting both (or `no`).
+    pub cells: [String; 4],
+}
+
 impl DesignReport {
+    /// The nearby plans as the report's table prints them: how many
+    /// smaller acceptance numbers are left out (they meet no `n`), and
+    /// the rows shown, `c = 0` or the first shown to a little past the
+    /// chosen plan.
+    pub fn nearby_rows(&self) -> (usize, Vec<NearbyRow>) {
+        let chosen = self.stages.first().and_then(|s| s.accept).unwrap_or(0) as usize;
+        let last = self.alternatives.len();
+        let first = (chosen + 1 + 3).saturating_sub(ALTERNATIVE_ROWS).min(last);
+        let rows = self.alternatives[first..]
+            .iter()
+            .map(|a| NearbyRow {
+                chosen: a.c as usize == chosen,
+                cells: [
+                    a.c.to_string(),
+                    optional(a.n_min, ""),
+                    optional(a.n_max, ""),
+                    if a.feasible {
+                        format!("n = {} to {}", a.n_min.unwrap_or(0), a.n_max.unwrap_or(0))
+                    } else {
+                        "no".to_string()
+                    },
+                ],
+            })
+            .collect();
+        (first, rows)
+    }
+
+    /// The sensitivity as the report's table prints it: per input its
+    /// name, agreed value, step, the value conceded to and its `n`, the
+    /// value tightened to and its `n`; and, for each move with no plan,
+    /// the input, the value and why.
+    pub fn sensitivity_rows(&self) -> (Vec<[String; 7]>, Vec<String>) {
+        let per_unit = self.model == ModelKind::Poisson;
+        // The inputs and steps are decimals a person chose: print them as
+        // written, with no padding digits.
+        let decimal = |v: f64| format!("{}", format!("{v:.11e}").parse::<f64>().unwrap_or(v));
+        let value = |input: Input, v: f64| match input {
+            Input::Aql | Input::Rql if per_unit => {
+                format!("{} ({})", decimal(v), decimal(100.0 * v))
+            }
+            Input::Aql | Input::Rql => format!("{}%", decimal(100.0 * v)),
+            _ => decimal(v),
+        };
+        let n = |m: &Moved| match (m.n, m.change) {
+            (Some(n), Some(d)) if d != 0 => format!("{n} ({d:+})"),
+            (Some(n), _) => format!("{n} (same)"),
+            _ => "no plan".to_string(),
+        };
+        let mut reasons = Vec::new();
+        let rows = self
+            .sensitivity
+            .iter()
+            .map(|s| {
+                for m in [&s.conceded, &s.tightened] {
+                    if let Some(why) = &m.reason {
+                        reasons.push(format!(
+                            "{} = {}: {why}",
+                            s.input.label(),
+                            value(s.input, m.value)
+                        ));
+                    }
+                }
+                [
+                    s.input.label().to_string(),
+                    value(s.input, s.value),
+                    value(s.input, s.step),
+                    value(s.input, s.conceded.value),
+                    n(&s.conceded),
+                    value(s.input, s.tightened.value),
+                    n(&s.tightened),
+                ]
+            })
+            .collect();
+        (rows, reasons)
+    }
+
     /// The report with the sensitivity of the sample size to each input.
     pub fn with_sensitivity(mut self, rows: Vec<Sensitivity>) -> Self {
         self.sensitivity = rows;
@@ -248,23 +334,12 @@ impl Report for DesignReport {
             out,
             "Nearby plans (sample sizes meeting each point, by acceptance number)"
         )?;
-        let chosen = r.stages[0].accept.unwrap_or(0) as usize;
-        let last = r.alternatives.len();
-        let first = (chosen + 1 + 3).saturating_sub(ALTERNATIVE_ROWS).min(last);
+        let (first, rows) = r.nearby_rows();
         let mut g = grid(&["c", "meets RQL from n", "meets AQL up to n", "both"]);
-        for a in &r.alternatives[first..] {
-            let both = if a.feasible {
-                format!("n = {} to {}", a.n_min.unwrap_or(0), a.n_max.unwrap_or(0))
-            } else {
-                "no".to_string()
-            };
-            let mark = if a.c as usize == chosen { " *" } else { "" };
-            g.add_row(vec![
-                format!("{}{mark}", a.c),
-                optional(a.n_min, ""),
-                optional(a.n_max, ""),
-                both,
-            ]);
+        for row in rows {
+            let [c, from, to, both] = row.cells;
+            let mark = if row.chosen { " *" } else { "" };
+            g.add_row(vec![format!("{c}{mark}"), from, to, both]);
         }
         writeln!(out, "{g}")?;
         if first > 0 {
@@ -322,39 +397,9 @@ fn write_sensitivity(out: &mut dyn Write, r: &DesignReport, per_unit: bool) -> i
         "Tightened to",
         "n",
     ]);
-    // The inputs and steps are decimals a person chose: print them as
-    // written, with no padding digits.
-    let decimal = |v: f64| format!("{}", format!("{v:.11e}").parse::<f64>().unwrap_or(v));
-    let value = |input: Input, v: f64| match input {
-        Input::Aql | Input::Rql if per_unit => format!("{} ({})", decimal(v), decimal(100.0 * v)),
-        Input::Aql | Input::Rql => format!("{}%", decimal(100.0 * v)),
-        _ => decimal(v),
-    };
-    let n = |m: &Moved| match (m.n, m.change) {
-        (Some(n), Some(d)) if d != 0 => format!("{n} ({d:+})"),
-        (Some(n), _) => format!("{n} (same)"),
-        _ => "no plan".to_string(),
-    };
-    let mut reasons = Vec::new();
-    for s in &r.sensitivity {
-        for m in [&s.conceded, &s.tightened] {
-            if let Some(why) = &m.reason {
-                reasons.push(format!(
-                    "{} = {}: {why}",
-                    s.input.label(),
-                    value(s.input, m.value)
-                ));
-            }
-        }
-        g.add_row(vec![
-            s.input.label().to_string(),
-            value(s.input, s.value),
-            value(s.input, s.step),
-            value(s.input, s.conceded.value),
-            n(&s.conceded),
-            value(s.input, s.tightened.value),
-            n(&s.tightened),
-        ]);
+    let (rows, reasons) = r.sensitivity_rows();
+    for row in rows {
+        g.add_row(row.to_vec());
     }
     writeln!(out, "{g}")?;
     for why in reasons {

@@ -35,7 +35,7 @@ pub mod words;
 pub use self::batch::{BatchSummary, Failure, Outcome};
 pub use self::compare::{CompareReport, ComparedPlanReport};
 pub use self::demo::{DemoReport, DemoRow};
-pub use self::design::{AlternativeReport, DesignReport};
+pub use self::design::{AlternativeReport, DesignReport, NearbyRow};
 pub use self::draw::DrawReport;
 pub use self::evaluation::EvaluationReport;
 pub use self::evaluation_batch::{EvaluationBatchReport, EvaluationEntry, SourceEvaluation};

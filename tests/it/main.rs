@@ -55,6 +55,7 @@ mod switching_chain;
 mod switching_rules;
 mod tradeoff_cli;
 mod tradeoff_map;
+mod tradeoff_map_svg;
 mod variables;
 mod variables_cli;
 mod writes;

@@ -44,7 +44,7 @@ use rayon::prelude::*;
 
 mod request;
 
-pub use self::request::{InspectionCost, RiskGrid, TradeoffRequest, tradeoff_work};
+pub use self::request::{CellCost, InspectionCost, RiskGrid, TradeoffRequest, tradeoff_work};
 
 use super::double::design_double;
 use super::request::Scheme;
@@ -52,17 +52,6 @@ use super::single::{Memo, design_single_with};
 use crate::design::DesignError;
 use crate::model::{RiskPair, RiskPoint};
 use crate::plan::{StagedPlan, measures};
-
-/// The expected inspection at the process average.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub struct CellCost {
-    /// `Pa(p̄)`.
-    pub pa: f64,
-    /// `ATI(p̄)`, units per lot.
-    pub ati: f64,
-    /// Cost per unit times `ATI(p̄)`.
-    pub cost: f64,
-}
 
 /// The plan of one cell with what it achieves.
 #[derive(Clone, Debug, PartialEq)]
@@ -211,16 +200,8 @@ fn solve_cell(
         Some((n, _)) => n as f64,
         None => measures(&plan, model, aql).asn,
     };
-    let cost = request.cost().map(|k| {
-        let m = measures(&plan, model, k.process_average());
-        // The request holds a lot size whenever it holds a cost.
-        let ati = m.ati.unwrap_or(f64::NAN);
-        CellCost {
-            pa: m.pa,
-            ati,
-            cost: k.per_unit() * ati,
-        }
-    });
+    // The request holds a lot size whenever it holds a cost.
+    let cost = request.cost().and_then(|k| k.at(&plan, model));
     Ok(CellPlan {
         plan,
         producer_risk,

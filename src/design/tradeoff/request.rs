@@ -7,7 +7,18 @@ use crate::design::request::{Criterion, Scheme, SchemeOptions};
 use crate::design::work::{Approximation, double_cpu_seconds, single_cell_seconds};
 use crate::input::InputError;
 use crate::model::{Model, check_quality, check_risks};
-use crate::plan::ROW_OUTPUT;
+use crate::plan::{ROW_OUTPUT, StagedPlan, measures};
+
+/// The expected inspection at the process average.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct CellCost {
+    /// `Pa(p̄)`.
+    pub pa: f64,
+    /// `ATI(p̄)`, units per lot.
+    pub ati: f64,
+    /// Cost per unit times `ATI(p̄)`.
+    pub cost: f64,
+}
 
 /// The cost of inspection, for the cost view of a grid.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -17,6 +28,58 @@ pub struct InspectionCost {
 }
 
 impl InspectionCost {
+    /// The cost of inspecting one unit `per_unit` (in the user's
+    /// currency) and the process average at which it is taken, checked
+    /// for `model`: the one check of a cost, for a grid's cost view and
+    /// for the cost of one plan alike.
+    ///
+    /// # Errors
+    /// [`InputError::OutOfRange`] when the cost is not a positive number
+    /// or the process average is not a quality of `model`.
+    ///
+    /// # Example
+    /// ```
+    /// use lotsman::{InspectionCost, Model, ModelKind, design_single, RiskPair, RiskPoint};
+    /// let model = Model::new(ModelKind::Hypergeometric, Some(2000)).unwrap();
+    /// let risks = RiskPair::new(
+    ///     RiskPoint { quality: 0.01, risk: 0.05 },
+    ///     RiskPoint { quality: 0.06, risk: 0.10 },
+    ///     &model,
+    /// ).unwrap();
+    /// let plan = design_single(&model, &risks).unwrap().plan;
+    /// let cost = InspectionCost::new(2.0, 0.01, &model).unwrap();
+    /// let at = cost.at(&plan, &model).unwrap();
+    /// assert!((at.cost - 2.0 * at.ati).abs() < 1e-9);
+    /// assert!(InspectionCost::new(-2.0, 0.01, &model).is_err());
+    /// ```
+    pub fn new(per_unit: f64, process_average: f64, model: &Model) -> Result<Self, InputError> {
+        if !(per_unit.is_finite() && per_unit > 0.0) {
+            return Err(InputError::out_of_range(
+                "cost per unit inspected",
+                per_unit,
+                "a positive number",
+            ));
+        }
+        check_quality(model, "process average", process_average)?;
+        Ok(InspectionCost {
+            per_unit,
+            process_average,
+        })
+    }
+
+    /// The expected inspection of `plan` under `model` at the process
+    /// average: `Pa`, `ATI` (rejected lots screened 100%) and the cost
+    /// per unit times `ATI` ([`measures`]); `None` without a lot size,
+    /// which the ATI counts.
+    pub fn at(&self, plan: &StagedPlan, model: &Model) -> Option<CellCost> {
+        let m = measures(plan, model, self.process_average);
+        m.ati.map(|ati| CellCost {
+            pa: m.pa,
+            ati,
+            cost: self.per_unit * ati,
+        })
+    }
+
     /// The cost of inspecting one unit, in the user's currency.
     pub fn per_unit(&self) -> f64 {
         self.per_unit
@@ -122,23 +185,13 @@ impl TradeoffRequest {
         let cost = match cost {
             None => None,
             Some((per_unit, process_average)) => {
-                if !(per_unit.is_finite() && per_unit > 0.0) {
-                    return Err(InputError::out_of_range(
-                        "cost per unit inspected",
-                        per_unit,
-                        "a positive number",
-                    ));
-                }
-                check_quality(&model, "process average", process_average)?;
+                let cost = InspectionCost::new(per_unit, process_average, &model)?;
                 if model.lot_size().is_none() {
                     return Err(InputError::Inconsistent(
                         "the cost view needs a lot size: it counts the 100% inspection of rejected lots (ATI); give --lot-size N".to_string(),
                     ));
                 }
-                Some(InspectionCost {
-                    per_unit,
-                    process_average,
-                })
+                Some(cost)
             }
         };
         let request = TradeoffRequest {

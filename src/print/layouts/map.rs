@@ -11,7 +11,7 @@ use crate::print::geometry::Rect;
 use crate::print::map::field::{Field, Gap, MapQuantity};
 use crate::print::map::panel::{MapPanel, draw};
 use crate::print::map::plot::Panel;
-use crate::print::map::style::{contour_swatch, gap_swatch};
+use crate::print::map::style::{agreed_ring, contour_swatch, gap_swatch};
 use crate::print::page::printable;
 use crate::print::text::Shrink;
 use crate::print::wording::map as text;
@@ -27,12 +27,14 @@ const KEY_PITCH: f64 = 5.0;
 
 /// Lays out the map of `grid` on `c`, a landscape page `size` (mm), with
 /// the `title`, the `command` that regenerates it (if given) and the
-/// inputs' `hash`; returns the panels.
+/// inputs' `hash`, the `agreed` risk points `(RQL, AQL)` ringed on every
+/// panel when given; returns the panels.
 pub fn map_layout(
     c: &mut Canvas,
     grid: &TradeoffGrid,
     (title, command, hash): (&str, Option<&str>, &str),
     size: (f64, f64),
+    agreed: Option<(f64, f64)>,
 ) -> Vec<MapPanel> {
     let request = &grid.request;
     let per_unit = request.model().kind() == ModelKind::Poisson;
@@ -58,7 +60,7 @@ pub fn map_layout(
     footer(c, hash, command, foot);
     let gaps = fields[0].gaps();
     let key_at = Rect::new(left, foot_top + 2.0, width, 0.0);
-    let key_h = key(c, grid, (&gaps, &process), key_at);
+    let key_h = key(c, grid, (&gaps, &process, agreed.is_some()), key_at);
 
     let panels_top = top - title_h - 4.0;
     let panels_bottom = foot_top + 2.0 + key_h + 3.0;
@@ -86,6 +88,7 @@ pub fn map_layout(
                     rql: request.rql(),
                     aql: request.aql(),
                     per_unit,
+                    agreed,
                 },
             )
         })
@@ -174,18 +177,27 @@ fn title_block(c: &mut Canvas, grid: &TradeoffGrid, title: &str, at: Rect, per_u
 }
 
 /// The key above the footer, standing on the bottom edge `at`: a sample
-/// of the contour line, the double scheme's note, each reason for cells
-/// without a plan in `gaps` that occurs, and the cost's definition at the
-/// `process` quality, flowing over as many lines as they need. Returns
-/// its height.
-fn key(c: &mut Canvas, grid: &TradeoffGrid, (gaps, process): (&[Gap], &str), at: Rect) -> f64 {
+/// of the contour line, the ring of the agreed points when `ringed`, the
+/// double scheme's note, each reason for cells without a plan in `gaps`
+/// that occurs, and the cost's definition at the `process` quality,
+/// flowing over as many lines as they need. Returns its height.
+fn key(
+    c: &mut Canvas,
+    grid: &TradeoffGrid,
+    (gaps, process, ringed): (&[Gap], &str, bool),
+    at: Rect,
+) -> f64 {
     let (left, bottom, width) = (at.x, at.y, at.w);
     enum Sample {
         Contour,
+        Ring,
         Gap(Gap),
         None,
     }
     let mut entries: Vec<(Sample, String)> = vec![(Sample::Contour, text::CONTOUR_KEY.into())];
+    if ringed {
+        entries.push((Sample::Ring, text::AGREED_KEY.into()));
+    }
     if grid.request.scheme() == Scheme::Double {
         entries.push((Sample::None, text::ASN_KEY.into()));
     }
@@ -228,6 +240,10 @@ fn key(c: &mut Canvas, grid: &TradeoffGrid, (gaps, process): (&[Gap], &str), at:
             let tx = match sample {
                 Sample::Contour => {
                     contour_swatch(c, sx, base + 1.0, sample_w);
+                    sx + sample_w + 1.5
+                }
+                Sample::Ring => {
+                    agreed_ring(c, sx + sample_w / 2.0, base + 1.0);
                     sx + sample_w + 1.5
                 }
                 Sample::Gap(g) => {

@@ -44,4 +44,4 @@ pub(crate) mod style;
 
 pub use field::MapQuantity;
 pub use panel::{ContourLabel, MapContour, MapPanel};
-pub use render::{TradeoffMap, render_tradeoff_map};
+pub use render::{TradeoffMap, render_tradeoff_map, render_tradeoff_map_svg};

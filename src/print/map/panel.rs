@@ -11,7 +11,7 @@ use super::field::{LogScale, MapQuantity, levels, value_label};
 use super::labels::{SIMPLIFY, draw_box_text, draw_label, place_labels, simplify};
 use super::plot::{AxisMap, Panel, bordered, bordered_values, edges, ticks};
 use super::style::{
-    AXIS, BAR_GAP, BAR_W, BOTTOM_ROOM, DIGIT_HEIGHT, TICK, TICK_LEN, TITLE, TOP_ROOM,
+    AXIS, BAR_GAP, BAR_W, BOTTOM_ROOM, DIGIT_HEIGHT, TICK, TICK_LEN, TITLE, TOP_ROOM, agreed_ring,
     contour_strokes,
 };
 use crate::print::canvas::Canvas;
@@ -132,6 +132,12 @@ pub fn draw(c: &mut Canvas, name: &str, area: Rect, p: &Panel) -> MapPanel {
         for r in boxes {
             draw_label(c, &text, *r);
         }
+    }
+    if let Some((rql, aql)) = p.agreed
+        && (xs.lo..=xs.hi).contains(&rql)
+        && (ys.lo..=ys.hi).contains(&aql)
+    {
+        agreed_ring(c, xs.page(rql), ys.page(aql));
     }
     if range.is_none() {
         let tw = c.width(text::NO_CELL, Face::Bold, AXIS);

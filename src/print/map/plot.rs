@@ -23,6 +23,8 @@ pub struct Panel<'a> {
     pub aql: &'a [f64],
     /// Qualities per unit (Poisson) rather than percent.
     pub per_unit: bool,
+    /// The agreed risk points as `(RQL, AQL)`, ringed when given.
+    pub agreed: Option<(f64, f64)>,
 }
 
 /// One axis of the plot: data `lo..hi` onto page `p0..p1`.

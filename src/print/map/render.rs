@@ -1,7 +1,8 @@
-//! The trade-off map's entry: the checks of its grid, the page drawn by
+//! The trade-off map's entries: the checks of its grid, the page drawn by
 //! [`crate::print::layouts::map`], and the PDF whose document ID comes
 //! from a SHA-256 of the inputs, so that the same grid, title, command
-//! and paper give the same bytes.
+//! and paper give the same bytes; or the same page as an SVG, for a web
+//! page.
 
 use sha2::{Digest, Sha256};
 
@@ -9,11 +10,13 @@ use super::panel::MapPanel;
 use crate::design::TradeoffGrid;
 use crate::input::InputError;
 use crate::print::canvas::Canvas;
+use crate::print::draw::Draw;
 use crate::print::fonts::Fonts;
 use crate::print::geometry::Region;
 use crate::print::layouts::map::map_layout;
 use crate::print::page::Paper;
 use crate::print::pdf::{self, Document, PdfPage};
+use crate::print::svg::SvgPage;
 use crate::source::Error;
 use crate::source::tool_version;
 
@@ -69,6 +72,86 @@ pub fn render_tradeoff_map(
     command: Option<&str>,
     paper: Paper,
 ) -> Result<TradeoffMap, Error> {
+    check_grid(grid)?;
+    let fonts = Fonts::embedded()?;
+    let hash = inputs_hash(grid, title, command, paper);
+    let mut page = PdfPage::new();
+    let (regions, panels) = lay(
+        &mut page,
+        &fonts,
+        grid,
+        (title, command, &hash),
+        paper,
+        None,
+    )?;
+    let subject = format!("lotsman trade-off map, inputs SHA-256 {hash}");
+    let doc = Document {
+        title,
+        subject: &subject,
+        hash: &hash,
+        extra: &[],
+    };
+    let pdf = pdf::save(&doc, &fonts, landscape(paper), page.into_ops())?;
+    Ok(TradeoffMap {
+        pdf,
+        inputs_sha256: hash,
+        regions,
+        panels,
+    })
+}
+
+/// The same page as [`render_tradeoff_map`], drawn by the same layout as
+/// a standalone SVG document, for a web page to show inline, with the
+/// `agreed` risk points `(RQL, AQL)`, when given, ringed on every panel
+/// and named in the key.
+///
+/// # Errors
+/// As [`render_tradeoff_map`].
+///
+/// # Example
+/// ```
+/// use lotsman::{Criterion, Model, ModelKind, Paper, RiskGrid, Scheme, TradeoffRequest};
+/// use lotsman::{render_tradeoff_map_svg, tradeoff};
+/// let model = Model::new(ModelKind::Binomial, None).unwrap();
+/// let points = RiskGrid {
+///     aql: vec![0.005, 0.01, 0.015], rql: vec![0.04, 0.06, 0.08], alpha: 0.05, beta: 0.10,
+/// };
+/// let request = TradeoffRequest::new(points, model, Scheme::Single, Criterion::AsnAql, None).unwrap();
+/// let grid = tradeoff(&request, &|| {});
+/// let svg = render_tradeoff_map_svg(&grid, "Seal rings", None, Paper::A4, Some((0.06, 0.01))).unwrap();
+/// assert!(svg.contains("<svg") && svg.contains("The agreed risk points"));
+/// ```
+pub fn render_tradeoff_map_svg(
+    grid: &TradeoffGrid,
+    title: &str,
+    command: Option<&str>,
+    paper: Paper,
+    agreed: Option<(f64, f64)>,
+) -> Result<String, Error> {
+    check_grid(grid)?;
+    let fonts = Fonts::embedded()?;
+    let hash = inputs_hash(grid, title, command, paper);
+    let mut page = SvgPage::new(landscape(paper));
+    lay(
+        &mut page,
+        &fonts,
+        grid,
+        (title, command, &hash),
+        paper,
+        agreed,
+    )?;
+    Ok(page.finish(title))
+}
+
+/// The paper turned: landscape.
+fn landscape(paper: Paper) -> (f64, f64) {
+    let (ph, pw) = paper.size();
+    (pw, ph)
+}
+
+/// The checks of a grid before it is drawn: the report's guard, and two
+/// increasing values at least on each axis.
+fn check_grid(grid: &TradeoffGrid) -> Result<(), Error> {
     // The map colours what the report would print: the same guard first.
     crate::report::TradeoffReport::new(None, grid).check()?;
     let request = &grid.request;
@@ -91,13 +174,22 @@ pub fn render_tradeoff_map(
             .into());
         }
     }
-    let fonts = Fonts::embedded()?;
-    // Landscape: the paper turned.
-    let (ph, pw) = paper.size();
-    let hash = inputs_hash(grid, title, command, paper);
-    let mut page = PdfPage::new();
-    let mut c = Canvas::new(&mut page, &fonts);
-    let panels = map_layout(&mut c, grid, (title, command, &hash), (pw, ph));
+    Ok(())
+}
+
+/// The map laid out on `page` (either backend) by [`map_layout`], checked
+/// for overflows: the blocks and the panels.
+fn lay(
+    page: &mut dyn Draw,
+    fonts: &Fonts,
+    grid: &TradeoffGrid,
+    words: (&str, Option<&str>, &str),
+    paper: Paper,
+    agreed: Option<(f64, f64)>,
+) -> Result<(Vec<Region>, Vec<MapPanel>), Error> {
+    let (pw, ph) = landscape(paper);
+    let mut c = Canvas::new(page, fonts);
+    let panels = map_layout(&mut c, grid, words, (pw, ph), agreed);
     let laid = c.finish(pw, ph);
     if !laid.is_clean() {
         let all: Vec<String> = laid.overflows.into_iter().chain(laid.faults).collect();
@@ -107,21 +199,7 @@ pub fn render_tradeoff_map(
         ))
         .into());
     }
-    let subject = format!("lotsman trade-off map, inputs SHA-256 {hash}");
-    let doc = Document {
-        title,
-        subject: &subject,
-        hash: &hash,
-        extra: &[],
-    };
-    let pdf = pdf::save(&doc, &fonts, (pw, ph), page.into_ops())?;
-    let regions = laid.regions;
-    Ok(TradeoffMap {
-        pdf,
-        inputs_sha256: hash,
-        regions,
-        panels,
-    })
+    Ok((laid.regions, panels))
 }
 
 /// The hex SHA-256 of what the map is drawn from: the tool version, the

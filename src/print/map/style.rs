@@ -96,6 +96,23 @@ pub fn contour_swatch(c: &mut Canvas, x: f64, y: f64, w: f64) {
     contour_strokes(c, &[vec![(x, y), (x + w, y)]]);
 }
 
+/// Radius of the ring that marks the agreed risk points, mm.
+pub const AGREED_RING: f64 = 2.2;
+
+/// The ring that marks the agreed risk points, centred at `(x, y)`: a dark
+/// circle on a white casing, to read on every colour of the ramp.
+pub fn agreed_ring(c: &mut Canvas, x: f64, y: f64) {
+    let ring: Path = (0..=32)
+        .map(|k| {
+            let t = std::f64::consts::TAU * k as f64 / 32.0;
+            (x + AGREED_RING * t.cos(), y + AGREED_RING * t.sin())
+        })
+        .collect();
+    let ring = [ring];
+    c.polylines(&ring, 2.4, grey(1.0));
+    c.polylines(&ring, 1.0, grey(0.0));
+}
+
 /// Contour lines: a white casing under a dark line, so that they read on
 /// the palest and the darkest colours alike.
 pub fn contour_strokes(c: &mut Canvas, paths: &[Path]) {

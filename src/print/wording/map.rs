@@ -148,6 +148,9 @@ pub fn bar_title(quantity: MapQuantity) -> &'static str {
 /// The key's entry for the contour lines.
 pub const CONTOUR_KEY: &str = "Line of equal value, labelled with it; colours on a log scale, light for few units, dark for many";
 
+/// The key's entry for the ring on the agreed risk points.
+pub const AGREED_KEY: &str = "The agreed risk points (AQL, RQL)";
+
 /// The key's entry of a double scheme.
 pub const ASN_KEY: &str =
     "Double plans: the colour is the ASN at the AQL; a lot that needs the second sample takes more";

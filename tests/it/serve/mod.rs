@@ -11,6 +11,7 @@
 mod compare;
 mod contract;
 mod inspect;
+mod negotiate;
 mod plans_audit;
 mod security;
 

@@ -17,6 +17,7 @@ pub fn router(state: AppState) -> Router {
     Router::new()
         .route("/", get(pages::home::show))
         .route("/design", get(pages::design::show))
+        .route("/design/map", get(pages::design_map::show))
         .route("/plans", get(pages::plans::list).post(pages::save::save))
         .route("/plans/view", get(pages::plans::view))
         .route("/plans/sheet", get(pages::plans::sheet))

@@ -14,7 +14,8 @@ use axum::http::StatusCode;
 use axum::response::{IntoResponse, Response};
 use lotsman::{Error, FileError, Overwrite, shell_word, write_atomic};
 
-use super::design::{DesignFields, design, headline};
+use super::design::headline;
+use super::design_form::{DesignFields, design};
 use crate::cli::design::DescriptionFlags;
 use crate::serve::guard::posted;
 use crate::serve::page::{Refusal, render};
