@@ -160,3 +160,43 @@ fn the_library_never_uses_the_web_stack() {
     walk(Path::new("src"), &mut found);
     assert!(found.is_empty(), "{found:?}");
 }
+
+#[test]
+fn a_saved_source_carries_the_sheets_document_fields() {
+    let server = Server::start(&[]);
+    let (cookie, csrf) = server.session();
+    // The form offers today's date and revision A.
+    let page = server.get(&format!("/design?{DESIGN}"), Some(&cookie));
+    let today = lotsman::LotDate::today().unwrap().to_string();
+    assert!(
+        page.body
+            .contains(&format!("name=\"date\" value=\"{today}\""))
+    );
+    assert!(page.body.contains("name=\"revision\" value=\"A\""));
+    let mut form = super::save_form(&csrf, "fit.yaml");
+    form.extend([
+        ("id", "IQ-311"),
+        ("revision", "B"),
+        ("date", "2026-11-30"),
+        ("approved_by", "L. Marsh, quality manager"),
+    ]);
+    let saved = server.post("/plans", Some(&cookie), &form);
+    assert_eq!(saved.status, 200, "{}", saved.body);
+    let text = std::fs::read_to_string(server.path("fit.yaml")).unwrap();
+    for line in [
+        "id: IQ-311",
+        "revision: B",
+        "date: 2026-11-30",
+        "approved_by: L. Marsh, quality manager",
+    ] {
+        assert!(text.contains(line), "{line}\n{text}");
+    }
+    // A date not in the calendar is refused in the command's words.
+    let mut form = super::save_form(&csrf, "bad.yaml");
+    form.push(("date", "2026-13-40"));
+    let refused = server.post("/plans", Some(&cookie), &form);
+    assert_eq!(refused.status, 400);
+    let words = cli_refusal(&["--aql", "1%", "--rql", "6%", "--date", "2026-13-40"]);
+    assert!(refused.body.contains(&escaped(&words)), "{words}");
+    assert!(!server.path("bad.yaml").exists());
+}

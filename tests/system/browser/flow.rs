@@ -73,6 +73,17 @@ async fn design_and_save(walk: &Walk) {
     walk.fill("form.save", "title", "Cover fit, incoming").await;
     walk.fill("form.save", "prepared_by", "R. Okafor, incoming inspection")
         .await;
+    walk.fill("form.save", "approved_by", "H. Lindqvist, quality manager")
+        .await;
+    walk.fill("form.save", "id", "IQ-0412").await;
+    walk.fill("form.save", "item", "Pump cover PC-88, drawing rev. C")
+        .await;
+    walk.fill(
+        "form.save",
+        "characteristic",
+        "Fit of the cover on gauge G-12",
+    )
+    .await;
     walk.fill("form.save", "file", "cover-fit.yaml").await;
     walk.click("form.save button[type=submit]").await;
     walk.wait_text("main", "cover-fit.yaml").await;

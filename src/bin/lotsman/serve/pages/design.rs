@@ -161,6 +161,9 @@ struct DesignPage {
     error: Option<String>,
     result: Option<Shown>,
     csrf: String,
+    /// Today's date (UTC), the save form's date unless changed; empty
+    /// when the clock cannot say.
+    today: String,
 }
 
 /// `GET /design`: the form, and the plan when the risk points are given.
@@ -211,6 +214,9 @@ pub async fn show(
         error,
         result,
         csrf: session.csrf,
+        today: lotsman::LotDate::today()
+            .map(|d| d.to_string())
+            .unwrap_or_default(),
     };
     render(status, &page)
 }

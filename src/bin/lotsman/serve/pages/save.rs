@@ -69,10 +69,13 @@ async fn saved(
     let path = state.workspace().file(name)?;
     refuse_non_yaml(name, &path)?;
     let description = DescriptionFlags {
+        id: text("id"),
+        revision: text("revision"),
+        date: text("date"),
         item: text("item"),
         characteristic: text("characteristic"),
         prepared_by: Some(prepared_by),
-        ..DescriptionFlags::default()
+        approved_by: text("approved_by"),
     };
     let designed = design(DesignFields::of(&fields), Some(title), description).await?;
     let replace = fields.get("replace").is_some_and(|v| v == "yes");
