@@ -440,3 +440,30 @@ fn a_refusal_row_is_read_and_its_message_matched_with_cuts() {
     assert!(says("mismatch  s.yaml: f.pdf", &rows[1].message));
     assert!(!says("mismatch  s.yaml: f.pdf and more", &rows[1].message));
 }
+
+/// Every picture and every link to another page of the docs leads to a
+/// file of the repository (a screenshot renamed, a page moved, would
+/// leave a hole in the guide).
+#[test]
+fn every_picture_and_page_link_leads_to_a_file() {
+    let mut checked = 0;
+    for page in pages() {
+        let text = std::fs::read_to_string(&page).unwrap();
+        let folder = page.parent().unwrap();
+        for (at, _) in text.match_indices("](") {
+            let rest = &text[at + 2..];
+            let Some(end) = rest.find(')') else { continue };
+            let target = rest[..end].split('#').next().unwrap();
+            if target.is_empty() || target.contains("://") || target.contains(' ') {
+                continue;
+            }
+            assert!(
+                folder.join(target).exists(),
+                "{}: {target} does not exist",
+                page.display()
+            );
+            checked += 1;
+        }
+    }
+    assert!(checked > 20, "only {checked} links read");
+}

@@ -69,8 +69,8 @@ pub enum Command {
     /// Each lot of a ledger on a control chart (p- or u-chart of first samples) with the
     /// running process average: a table, and a PDF or SVG chart.
     History(history::HistoryArgs),
-    /// The local web face: design a plan and save it as a plan source, in a browser on this
-    /// machine.
+    /// The local web face in a browser on this machine: design and negotiate, plans and
+    /// sheets, inspect and record lots, supplier history, compare, audit.
     Serve(serve::ServeArgs),
 }
 
