@@ -143,3 +143,39 @@ impl IntoResponse for Refusal {
         )
     }
 }
+
+/// Runs `work` off the server's request threads (a design, a replay or a
+/// check can take a while), its error in the command line's words; `what`
+/// names the work in the refusal when it stops before it finishes ("the
+/// history").
+pub async fn off_thread<T: Send + 'static>(
+    what: &str,
+    work: impl FnOnce() -> Result<T, Error> + Send + 'static,
+) -> Result<T, Refusal> {
+    tokio::task::spawn_blocking(work)
+        .await
+        .map_err(|_| {
+            Refusal::failed(format!(
+                "{what} stopped before it finished; reload the page or send the form again"
+            ))
+        })?
+        .map_err(Refusal::from)
+}
+
+/// What a page shows of a piece of work asked for or not (`None`): its
+/// status, its result, and the refusal in words, with the workspace's
+/// paths made relative to it.
+pub fn shown_outcome<T>(
+    outcome: Option<Result<T, Refusal>>,
+    workspace: &super::workspace::Workspace,
+) -> (StatusCode, Option<T>, Option<String>) {
+    match outcome {
+        None => (StatusCode::OK, None, None),
+        Some(Ok(shown)) => (StatusCode::OK, Some(shown), None),
+        Some(Err(r)) => (
+            r.status(),
+            None,
+            Some(workspace.relative_words(r.message())),
+        ),
+    }
+}

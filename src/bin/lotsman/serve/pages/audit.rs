@@ -29,7 +29,7 @@ use super::verified::{VerifyRow, relative, verify_named};
 use crate::commands::verify::is_ledger;
 use crate::out::report_bytes;
 use crate::serve::guard::queried;
-use crate::serve::page::{Refusal, render};
+use crate::serve::page::{off_thread, render};
 use crate::serve::state::AppState;
 use crate::serve::workspace::Workspace;
 
@@ -114,7 +114,7 @@ pub async fn show(
         sheet: text("sheet"),
     };
     let (worker, asked) = (state.clone(), f.clone());
-    let outcome = tokio::task::spawn_blocking(move || {
+    let outcome = off_thread("the check", move || {
         let ws = worker.workspace();
         match asked.check.as_str() {
             "" => Ok(None),
@@ -128,9 +128,7 @@ pub async fn show(
             .into()),
         }
     })
-    .await
-    .map_err(|_| Refusal::failed("the check stopped before it finished; send the form again"))
-    .and_then(|r| r.map_err(Refusal::from));
+    .await;
     let (status, found, error) = match outcome {
         Ok(found) => (StatusCode::OK, found, None),
         Err(r) => (

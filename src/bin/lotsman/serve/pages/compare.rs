@@ -10,7 +10,7 @@ use std::path::PathBuf;
 use askama::Template;
 use axum::extract::rejection::QueryRejection;
 use axum::extract::{Query, State};
-use axum::http::{HeaderValue, StatusCode, header};
+use axum::http::{HeaderValue, header};
 use axum::response::{IntoResponse, Response};
 use lotsman::{
     CompareReport, Error, Format, HistoryFormat, InputError, format_quality, format_significant,
@@ -22,7 +22,7 @@ use crate::cli::groups::{FormatFlag, ModelFlags, OutputFlags};
 use crate::cli::values::{ModelArg, ReportFormatArg};
 use crate::commands::compare::{Compared, compared};
 use crate::out::report_bytes;
-use crate::serve::page::{Refusal, render};
+use crate::serve::page::{Refusal, off_thread, render, shown_outcome};
 use crate::serve::state::AppState;
 use crate::serve::workspace::Workspace;
 
@@ -271,28 +271,16 @@ pub async fn show(
     let outcome = if fields.asked() {
         let (worker, asked) = (state.clone(), fields.clone());
         Some(
-            tokio::task::spawn_blocking(move || {
+            off_thread("the comparison", move || {
                 let made = comparison(worker.workspace(), &asked)?;
                 Shown::of(&made, &asked)
             })
-            .await
-            .map_err(|_| {
-                Refusal::failed("the comparison stopped before it finished; send the form again")
-            })
-            .and_then(|r| r.map_err(Refusal::from)),
+            .await,
         )
     } else {
         None
     };
-    let (status, result, error) = match outcome {
-        None => (StatusCode::OK, None, None),
-        Some(Ok(shown)) => (StatusCode::OK, Some(shown), None),
-        Some(Err(r)) => (
-            r.status(),
-            None,
-            Some(state.workspace().relative_words(r.message())),
-        ),
-    };
+    let (status, result, error) = shown_outcome(outcome, state.workspace());
     let page = ComparePage {
         title: "Compare plans",
         sources: state

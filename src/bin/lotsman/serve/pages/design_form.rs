@@ -14,7 +14,7 @@ use crate::cli::design::{
 use crate::cli::groups::{FormatFlag, ModelFlags, OutputFlags, RiskFlags};
 use crate::cli::values::ModelArg;
 use crate::commands::design::{Designed, from_flags};
-use crate::serve::page::Refusal;
+use crate::serve::page::{Refusal, off_thread};
 
 /// The values a side of the trade-off map, unless the form asks for
 /// others.
@@ -197,10 +197,7 @@ pub async fn design(
     description: DescriptionFlags,
 ) -> Result<Designed, Refusal> {
     let args = fields.args(title, description)?;
-    tokio::task::spawn_blocking(move || from_flags(&args))
-        .await
-        .map_err(|_| Refusal::failed("the design stopped before it finished; send the form again"))?
-        .map_err(Refusal::from)
+    off_thread("the design", move || from_flags(&args)).await
 }
 
 /// An SVG document as an HTML page inlines it: without the XML

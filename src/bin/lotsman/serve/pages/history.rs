@@ -9,7 +9,6 @@ use std::collections::HashMap;
 use askama::Template;
 use axum::extract::rejection::QueryRejection;
 use axum::extract::{Query, State};
-use axum::http::StatusCode;
 use axum::response::{IntoResponse, Response};
 use lotsman::{
     Error, Format, HistoryFormat, Ledger, StatusReport, format_significant, ledger_history,
@@ -18,7 +17,7 @@ use lotsman::{
 
 use crate::out::report_bytes;
 use crate::serve::guard::queried;
-use crate::serve::page::{Refusal, render};
+use crate::serve::page::{off_thread, render, shown_outcome};
 use crate::serve::state::AppState;
 use crate::serve::workspace::Workspace;
 
@@ -84,23 +83,13 @@ pub async fn show(
     } else {
         let (worker, name, chosen) = (state.clone(), ledger.clone(), class.clone());
         Some(
-            tokio::task::spawn_blocking(move || shown(worker.workspace(), &name, &chosen))
-                .await
-                .map_err(|_| {
-                    Refusal::failed("the history stopped before it finished; reload the page")
-                })
-                .and_then(|r| r.map_err(Refusal::from)),
+            off_thread("the history", move || {
+                shown(worker.workspace(), &name, &chosen)
+            })
+            .await,
         )
     };
-    let (status, result, error) = match outcome {
-        None => (StatusCode::OK, None, None),
-        Some(Ok(shown)) => (StatusCode::OK, Some(shown), None),
-        Some(Err(r)) => (
-            r.status(),
-            None,
-            Some(state.workspace().relative_words(r.message())),
-        ),
-    };
+    let (status, result, error) = shown_outcome(outcome, state.workspace());
     let page = HistoryPage {
         title: "Supplier history",
         ledgers: state

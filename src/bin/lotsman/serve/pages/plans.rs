@@ -19,7 +19,7 @@ use lotsman::{
 
 use super::verified::{VerifyRow, verify_named};
 use crate::serve::guard::queried;
-use crate::serve::page::{Refusal, render};
+use crate::serve::page::{Refusal, off_thread, render};
 use crate::serve::state::AppState;
 use crate::serve::workspace::Workspace;
 
@@ -46,12 +46,7 @@ struct PlansPage {
 /// `GET /plans`: every plan source of the workspace, verified.
 pub async fn list(State(state): State<AppState>) -> Response {
     let worker = state.clone();
-    let listed = tokio::task::spawn_blocking(move || listed(worker.workspace()))
-        .await
-        .map_err(|_| {
-            Refusal::failed("the verification stopped before it finished; reload the page")
-        })
-        .and_then(|r| r.map_err(Refusal::from));
+    let listed = off_thread("the verification", move || listed(worker.workspace())).await;
     let (status, plans, error) = match listed {
         Ok(plans) => (StatusCode::OK, plans, None),
         Err(r) => (
@@ -131,12 +126,7 @@ pub async fn view(
         Err(r) => return r.into_response(),
     };
     let worker = state.clone();
-    let outcome = tokio::task::spawn_blocking(move || shown(worker.workspace(), &file))
-        .await
-        .map_err(|_| {
-            Refusal::failed("the verification stopped before it finished; reload the page")
-        })
-        .and_then(|r| r.map_err(Refusal::from));
+    let outcome = off_thread("the verification", move || shown(worker.workspace(), &file)).await;
     let (status, result, error) = match outcome {
         Ok(shown) => (StatusCode::OK, Some(shown), None),
         Err(r) => (
