@@ -351,6 +351,17 @@ fn a_double_plan_says_go_on_and_a_variables_plan_warns_of_non_normal_readings() 
         ],
     );
     assert!(variables.status.success(), "{variables:?}");
+    // The page gives the rule as the report does: what to compute, and
+    // when to accept (k = 1.901 for n = 42, sigma unknown, 1%/6%: the
+    // design the reference suite checks against scipy's noncentral t).
+    let shown = server.get("/inspect?plan=v.yaml&lot=V1&lot_size=500", None);
+    assert!(
+        shown.body.contains(
+            "Q_U = (12.05 - xbar) / s; ACCEPT the lot when Q_U &#62;= k = 1.901, otherwise REJECT."
+        ),
+        "{}",
+        shown.body
+    );
     // 42 readings on two values only: far from normal (hand computed: mean
     // 12.01, s 0.0101, so (U - mean) / s = 3.96 is above k and the lot is
     // accepted, with the warning); with the line ends a browser sends.

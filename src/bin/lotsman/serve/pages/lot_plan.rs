@@ -122,6 +122,9 @@ pub struct InForce {
     pub classes: Vec<ClassRows>,
     /// A variables plan: its n and constant, in words.
     pub variables: Option<String>,
+    /// A variables plan's rule, as its report and sheet give it: what to
+    /// compute from the readings and when to accept.
+    pub rule: Vec<String>,
     /// The lot size used: the one given, or the source's.
     pub lot_size: Option<u64>,
     /// A lot size other than the one the source was made for, in words.
@@ -168,6 +171,7 @@ pub fn in_force(workspace: &Workspace, fields: &LotFields) -> Result<InForce, Er
         code_letter: None,
         classes: Vec::new(),
         variables: None,
+        rule: Vec::new(),
         lot_size,
         lot_note: other_size(audited.source.lot_size, lot_size),
         draw: Err(String::new()),
@@ -183,6 +187,7 @@ pub fn in_force(workspace: &Workspace, fields: &LotFields) -> Result<InForce, Er
             (None, None) => String::new(),
         };
         shown.variables = Some(format!("n = {}, {constant}", plan.n()));
+        shown.rule = lotsman::variables_rule(plan);
         Sizes::Stages(vec![plan.n()])
     } else if let Some((plan, _)) = known.counted_plan() {
         let items = plan.sequential_lines().is_some();
