@@ -82,14 +82,14 @@ pub use demo_ledger::{DEMO_LEDGER_FILES, DEMO_LOTS};
 pub use design::{
     AOQL_PLAN_LTPD_RISK, Alternative, AsnSummary, CellCost, CellPlan, Criterion, Design,
     DesignError, DesignRequest, Input, InspectionCost, MAX_AOQL_ACCEPTANCE_NUMBER,
-    MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, Moved, Protection, RectifyingDesign,
-    RectifyingPlan, RectifyingRequest, RectifyingRow, RiskGrid, Scheme, SchemeOptions, Sensitivity,
-    SingleDesign, Solution, Steps, TradeoffCell, TradeoffGrid, TradeoffRequest, VariablesDesign,
-    VariablesRequest, VariablesSolution, WaldApproximation, design_double, design_for,
-    design_multiple, design_rectifying, design_sequential, design_single, design_variables,
-    design_work, double_work, multiple_work, rectifying_work, sensitivity, sequential_work,
-    single_alternatives, single_work, solve, solve_variables, tradeoff, tradeoff_work,
-    variables_design_work, wald_lines,
+    MAX_DESIGN_STAGES, MAX_DOUBLE_SINGLE_C, MAX_GRID_CELLS, Moved, Nearby, Protection,
+    RectifyingDesign, RectifyingPlan, RectifyingRequest, RectifyingRow, RiskGrid, Scheme,
+    SchemeOptions, Sensitivity, SingleDesign, Solution, Steps, TradeoffCell, TradeoffGrid,
+    TradeoffRequest, VariablesDesign, VariablesRequest, VariablesSolution, WaldApproximation,
+    design_double, design_for, design_multiple, design_rectifying, design_sequential,
+    design_single, design_variables, design_work, double_work, multiple_work, rectifying_work,
+    sensitivity, sequential_work, single_alternatives, single_work, solve, solve_listing,
+    solve_variables, tradeoff, tradeoff_work, variables_design_work, wald_lines,
 };
 pub use draw::{
     CartonShare, DRAW_GENERATOR, Draw, DrawKind, DrawRequest, DrawnUnit, Generator, NestedPart,

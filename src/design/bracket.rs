@@ -80,6 +80,53 @@ pub(crate) fn acceptance_number_for_ratio(
     Some(hi)
 }
 
+/// [`acceptance_number_for_ratio`] for a sample drawn from a finite lot of
+/// `lot` units, where `ratio` and the normal quantiles are as there and
+/// `p2` is the consumer's quality.
+///
+/// Drawn without replacement, the count's variance is that of the
+/// binomial times the finite-population correction
+/// `f = (N - n) / (N - 1) ~ 1 - n / N` (common practice), so the count
+/// behaves as a Poisson count whose quantiles lie `sqrt(f)` times as many
+/// standard deviations from its mean: the operating ratio is Cameron's
+/// with `z sqrt(f)` in place of each `z`. The sample, and with it `f`,
+/// depends on `c`: `n = lambda_beta(c) / -ln(1 - p2)`. The `f` that agrees
+/// with the `n` it leads to is found by bisection on `[0, 1]` (`f - (1 -
+/// n(f) / N)` rises with `f`: a larger `f` asks for a larger `c` and `n`);
+/// iterating `f` directly swings between a whole-lot and a no-lot answer at
+/// close points. At AQL 1.2% against RQL 1.25% in a lot of 10^6 this gives
+/// `c = 3602` for the exact 3594, where the lot-free ratio gives 5085.
+/// A guess only: `None` when even `c_max` is not enough.
+pub(crate) fn acceptance_number_in_lot(
+    ratio: f64,
+    (z_alpha, z_beta): (f64, f64),
+    p2: f64,
+    lot: u64,
+    c_max: u64,
+) -> Option<u64> {
+    let per_unit = -(-p2).ln_1p();
+    let at = |f: f64| {
+        let s = f.sqrt();
+        let c = acceptance_number_for_ratio(ratio, z_alpha * s, z_beta * s, c_max)?;
+        let n = poisson_mean_at(c, z_beta * s) / per_unit;
+        Some((c, n))
+    };
+    let (mut lo, mut hi) = (0.0f64, 1.0f64);
+    // 40 halvings leave f within 1e-12, far below what moves c by one.
+    for _ in 0..40 {
+        let mid = 0.5 * (lo + hi);
+        // Beyond c_max at this f: the sample is then larger still, so f is
+        // too large.
+        let rises = at(mid).is_none_or(|(_, n)| mid > 1.0 - (n / lot as f64).min(1.0));
+        if rises {
+            hi = mid;
+        } else {
+            lo = mid;
+        }
+    }
+    at(hi).map(|(c, _)| c)
+}
+
 /// Dodge and Romig's AOQL factor `y_c = max_x x P(Poisson(x) <= c)`, the
 /// `y` of `AOQL ≈ y / n (1 - n / N)`, approximately: the largest
 /// `q lambda_q(c)` over `q = 0.05, 0.10, ..., 0.95`.

@@ -3,6 +3,8 @@
 //! the same points, the nearby alternatives, the ASN against the single
 //! plan, Wald's approximations).
 
+use std::ops::RangeInclusive;
+
 use serde::Serialize;
 
 use super::double::design_double;
@@ -18,6 +20,34 @@ use crate::plan::{StagedPlan, largest_asn, measures};
 
 /// How many acceptance numbers past the chosen one the alternatives list.
 const ALTERNATIVES_PAST_OPTIMUM: u64 = 3;
+
+/// How many acceptance numbers below the chosen one the window of nearby
+/// plans lists: with the chosen one and the three past it, the twelve rows
+/// of the report's table.
+const WINDOW_BELOW_OPTIMUM: u64 = 8;
+
+/// Which nearby plans (alternatives) a single design lists.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub enum Nearby {
+    /// The acceptance numbers from eight below the chosen one (or 0) to
+    /// three past it: twelve pairs of searches whatever the plan.
+    #[default]
+    Window,
+    /// Every acceptance number from 0 to three past the chosen one: a pair
+    /// of searches for each, thousands at close points in a large lot.
+    All,
+}
+
+impl Nearby {
+    /// The acceptance numbers listed around the chosen `c`.
+    fn range(self, c: u64) -> RangeInclusive<u64> {
+        let first = match self {
+            Nearby::Window => c.saturating_sub(WINDOW_BELOW_OPTIMUM),
+            Nearby::All => 0,
+        };
+        first..=c + ALTERNATIVES_PAST_OPTIMUM
+    }
+}
 
 /// The average sample numbers of a staged plan against the single plan
 /// for the same points.
@@ -49,8 +79,9 @@ pub struct Solution {
     /// The single plan for the same points (the chosen plan itself for the
     /// single scheme).
     pub single: SingleDesign,
-    /// Single scheme: for `c = 0 ..= chosen c + 3`, the sample sizes meeting
-    /// each point. Empty for the other schemes.
+    /// Single scheme: for the acceptance numbers of [`Nearby`] (up to the
+    /// chosen `c` + 3), the sample sizes meeting each point. Empty for the
+    /// other schemes.
     pub alternatives: Vec<Alternative>,
     /// Staged schemes: the plan's ASN against the single plan.
     pub asn: Option<AsnSummary>,
@@ -99,12 +130,11 @@ pub fn design_for(request: &DesignRequest) -> Result<Design, DesignError> {
 }
 
 /// Solves a request: the plan of its scheme, the single plan for
-/// comparison, and for the single scheme the nearby alternatives.
+/// comparison, and for the single scheme the window of nearby
+/// alternatives ([`Nearby::Window`]; [`solve_listing`] lists them all).
 ///
 /// # Errors
-/// As [`design_for`]; [`DesignError::OverBudget`] when listing the single
-/// plan's alternatives (one pair of searches per acceptance number up to
-/// the plan's) would pass the work budget.
+/// As [`design_for`].
 ///
 /// # Example
 /// A double plan for AQL 1% (alpha 0.05) and RQL 6% (beta 0.10), with the
@@ -123,7 +153,17 @@ pub fn design_for(request: &DesignRequest) -> Result<Design, DesignError> {
 /// assert!(solution.design.producer_risk <= 0.05 && solution.design.consumer_risk <= 0.10);
 /// ```
 pub fn solve(request: &DesignRequest) -> Result<Solution, DesignError> {
-    if request.scheme == Scheme::Single {
+    solve_listing(request, Nearby::Window)
+}
+
+/// [`solve`], listing the single plan's `nearby` alternatives.
+///
+/// # Errors
+/// As [`design_for`]; [`DesignError::OverBudget`] when listing every
+/// alternative ([`Nearby::All`]: one pair of searches per acceptance number
+/// up to the plan's) would pass the work budget.
+pub fn solve_listing(request: &DesignRequest, nearby: Nearby) -> Result<Solution, DesignError> {
+    if request.scheme == Scheme::Single && nearby == Nearby::All {
         single_work(&request.model, &request.risks, true).check(
             &format!(
                 "the single plan and its alternatives ({})",
@@ -142,11 +182,9 @@ pub fn solve(request: &DesignRequest) -> Result<Solution, DesignError> {
         _ => (design_for(request)?, None),
     };
     let alternatives = match request.scheme {
-        Scheme::Single => single_alternatives(
-            &request.model,
-            &request.risks,
-            single.c + ALTERNATIVES_PAST_OPTIMUM,
-        ),
+        Scheme::Single => {
+            single_alternatives(&request.model, &request.risks, nearby.range(single.c))
+        }
         _ => Vec::new(),
     };
     let asn = (request.scheme != Scheme::Single)

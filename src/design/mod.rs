@@ -23,7 +23,10 @@ mod tradeoff;
 mod variables;
 mod work;
 
-pub use dispatch::{AsnSummary, Solution, VariablesSolution, design_for, solve, solve_variables};
+pub use dispatch::{
+    AsnSummary, Nearby, Solution, VariablesSolution, design_for, solve, solve_listing,
+    solve_variables,
+};
 pub use double::design_double;
 pub use error::DesignError;
 pub use limits::{

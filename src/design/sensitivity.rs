@@ -13,7 +13,7 @@
 
 use serde::Serialize;
 
-use super::single::design_single;
+use super::single::{Memo, design_single_with};
 use crate::input::InputError;
 use crate::model::Model;
 use crate::model::RiskPair;
@@ -165,13 +165,18 @@ pub struct Sensitivity {
 /// assert!(rows[2].tightened.change.unwrap() > 0);
 /// ```
 pub fn sensitivity(model: &Model, risks: &RiskPair, n: u64, steps: &Steps) -> Vec<Sensitivity> {
+    // The eight designs lie close together: each starts its searches from
+    // the one before (the memo's acceptance number, its sample sizes, and
+    // the producer's sample sizes while the producer's point stays), which
+    // changes no answer (see `design_single_with`).
+    let mut memo = Memo::default();
     [Input::Aql, Input::Alpha, Input::Rql, Input::Beta]
         .into_iter()
         .map(|input| {
             let value = value_of(risks, input);
             let step = steps.of(input);
             let sign = input.conceding_sign();
-            let moved = |v: f64| moved(model, risks, input, v, n);
+            let mut moved = |v: f64| moved(model, risks, input, v, n, &mut memo);
             Sensitivity {
                 input,
                 value,
@@ -193,7 +198,14 @@ fn value_of(risks: &RiskPair, input: Input) -> f64 {
     }
 }
 
-fn moved(model: &Model, risks: &RiskPair, input: Input, value: f64, n: u64) -> Moved {
+fn moved(
+    model: &Model,
+    risks: &RiskPair,
+    input: Input,
+    value: f64,
+    n: u64,
+    memo: &mut Memo,
+) -> Moved {
     let (mut p, mut c) = (risks.producer(), risks.consumer());
     match input {
         Input::Aql => p.quality = value,
@@ -203,7 +215,7 @@ fn moved(model: &Model, risks: &RiskPair, input: Input, value: f64, n: u64) -> M
     }
     let design = RiskPair::new(p, c, model)
         .map_err(|e| e.to_string())
-        .and_then(|pair| design_single(model, &pair).map_err(|e| e.to_string()));
+        .and_then(|pair| design_single_with(model, &pair, memo).map_err(|e| e.to_string()));
     match design {
         Ok(d) => Moved {
             value,

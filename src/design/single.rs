@@ -10,14 +10,21 @@
 //! smallest feasible `c`.
 //!
 //! 1. A guess `c0` comes from Cameron's Poisson operating ratio with the
-//!    Wilson–Hilferty approximation ([`bracket`](super::bracket)).
-//! 2. Going down from `c0`, stop at the first `c` that is certainly
-//!    infeasible together with every smaller one: `n_min(c) - n_max(c) >= 2`
-//!    means even the real-valued relaxation of `n` has no solution at `c`,
-//!    and the relaxation's operating ratio rises monotonically as `c` falls
-//!    (Cameron 1952 for the Poisson case; checked for all three models
-//!    against the exhaustive search of tests/reference/make_reference.py).
-//! 3. Going up from there, the first feasible `c` gives the answer.
+//!    Wilson–Hilferty approximation ([`bracket`](super::bracket)), with the
+//!    finite-population correction for a finite lot.
+//! 2. Find the largest `c` that is certainly infeasible together with every
+//!    smaller one: `n_min(c) - n_max(c) >= 2` means even the real-valued
+//!    relaxation of `n` has no solution at `c`, and the relaxation's
+//!    operating ratio rises monotonically as `c` falls (Cameron 1952 for the
+//!    Poisson case; checked for all three models against the exhaustive
+//!    search of tests/reference/make_reference.py, and against a walk over
+//!    every `c` in tests/it/single_search.rs). The test is a threshold in
+//!    `c`, so it is searched from `c0` by galloping, then interpolating and
+//!    bisecting ([`search`](super::search)): a few dozen pairs of searches
+//!    where a walk one `c` at a time took thousands at close points in a
+//!    large lot.
+//! 3. Going up from the `c` above it, the first feasible `c` gives the
+//!    answer.
 //!
 //! Each `n_min` and `n_max` is an exact threshold search on the model's
 //! tails ([`search`](super::search)), started from the approximation, so a
@@ -33,10 +40,14 @@
 //! left is as even as the whole numbers allow.
 
 use std::collections::HashMap;
+use std::ops::RangeInclusive;
 
 use serde::Serialize;
 
-use super::bracket::{acceptance_number_for_ratio, poisson_mean_at, sample_for_mean, z_upper};
+use super::bracket::{
+    acceptance_number_for_ratio, acceptance_number_in_lot, poisson_mean_at, sample_for_mean,
+    z_upper,
+};
 use super::request::Design;
 use super::search::first_true;
 use super::work::single_work;
@@ -231,13 +242,23 @@ impl Memo {
         found
     }
 
-    /// No `c' <= c` can be feasible (see the module documentation).
-    fn hopeless_at_and_below(&mut self, s: &Solver, c: u64) -> bool {
-        match (self.n_min(s, c), self.n_max(s, c)) {
-            (Some(lo), Some(hi)) => lo >= hi + 2,
-            (Some(_), None) => true,
-            (None, _) => false,
-        }
+    /// The smallest `c` at which the design can begin its walk up: the
+    /// `c` just above every acceptance number that is certainly
+    /// infeasible together with every smaller one (see the module
+    /// documentation), found from `start` by an exact threshold search
+    /// ([`first_true`]) on that test, which holds up to some `c` and fails
+    /// from there on. Its score for the interpolation is
+    /// `n_min(c) - n_max(c) - 1.5`, which falls nearly linearly as `c`
+    /// rises. `MAX_ACCEPTANCE_NUMBER + 1` when every `c` up to the cap is
+    /// hopeless.
+    fn above_the_hopeless(&mut self, s: &Solver, start: u64) -> u64 {
+        let hopeful = |memo: &mut Memo, c: u64| match (memo.n_min(s, c), memo.n_max(s, c)) {
+            (Some(lo), Some(hi)) => (lo < hi + 2, lo as f64 - hi as f64 - 1.5),
+            (Some(_), None) => (false, f64::INFINITY),
+            (None, _) => (true, f64::NEG_INFINITY),
+        };
+        first_true(0, MAX_ACCEPTANCE_NUMBER, start, |c| hopeful(self, c))
+            .unwrap_or(MAX_ACCEPTANCE_NUMBER + 1)
     }
 }
 
@@ -365,10 +386,21 @@ pub(crate) fn design_single_with(
     // memo suggests; otherwise the neighbour's c is the closer start.
     let c0 = acceptance_number_for_ratio(ratio, s.z_alpha, s.z_beta, MAX_ACCEPTANCE_NUMBER)
         .ok_or_else(beyond)?;
-    let mut c = memo.c.unwrap_or(c0);
-    while c > 0 && !memo.hopeless_at_and_below(&s, c - 1) {
-        c -= 1;
-    }
+    // A sample that takes a share of a finite lot needs a smaller c than
+    // the lot-free ratio says (at close points a third less): the guess
+    // with the finite-population correction starts nearer.
+    let guess = match (model.kind(), model.lot_size()) {
+        (ModelKind::Hypergeometric, Some(lot)) => acceptance_number_in_lot(
+            ratio,
+            (s.z_alpha, s.z_beta),
+            s.p2,
+            lot,
+            MAX_ACCEPTANCE_NUMBER,
+        )
+        .unwrap_or(c0),
+        _ => c0,
+    };
+    let mut c = memo.above_the_hopeless(&s, memo.c.unwrap_or(guess));
     let (n, c, producer_risk) = loop {
         if c > MAX_ACCEPTANCE_NUMBER {
             return Err(beyond());
@@ -430,11 +462,16 @@ pub(crate) fn design_single_with(
     })
 }
 
-/// For each acceptance number `0..=c_last`, the range of sample sizes that
-/// meets each risk point, for the haggling over nearby plans.
-pub fn single_alternatives(model: &Model, risks: &RiskPair, c_last: u64) -> Vec<Alternative> {
+/// For each acceptance number of `cs` (as `0..=c_last`), the range of
+/// sample sizes that meets each risk point, for the haggling over nearby
+/// plans.
+pub fn single_alternatives(
+    model: &Model,
+    risks: &RiskPair,
+    cs: RangeInclusive<u64>,
+) -> Vec<Alternative> {
     let s = Solver::new(model, risks);
-    (0..=c_last).map(|c| s.alternative(c)).collect()
+    cs.map(|c| s.alternative(c)).collect()
 }
 
 /// The single designer's answer as a staged design.

@@ -12,6 +12,9 @@ use crate::input::InputError;
 const REGULAR_TTF: &[u8] = include_bytes!("fonts/DejaVuSans.ttf");
 const BOLD_TTF: &[u8] = include_bytes!("fonts/DejaVuSans-Bold.ttf");
 
+/// The two font programs as a PDF embeds them, regular then bold.
+pub(crate) const PROGRAMS: [&[u8]; 2] = [REGULAR_TTF, BOLD_TTF];
+
 /// The family name of the embedded faces, as an SVG names it.
 pub const FAMILY: &str = "DejaVu Sans";
 

@@ -21,6 +21,7 @@ pub(crate) mod chart;
 pub(crate) mod check;
 pub(crate) mod draw;
 pub(crate) mod facts;
+pub(crate) mod font_programs;
 pub(crate) mod fonts;
 pub(crate) mod geometry;
 pub(crate) mod layouts;

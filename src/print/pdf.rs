@@ -14,6 +14,7 @@ use printpdf::{
 };
 
 use super::draw::{Colour, Draw, Face, Font, Stroke};
+use super::font_programs::deflate_font_programs;
 use super::fonts::Fonts;
 use super::geometry::{Corners, MM_PER_PT, Point};
 use crate::source::Error;
@@ -271,6 +272,8 @@ pub fn save_pages(
             info.set(*key, text_object(value));
         }
     }
+    // The font programs are deflated once per process; the rest here.
+    deflate_font_programs(&mut lo);
     lo.compress();
     let mut bytes = Vec::new();
     lo.save_to(&mut bytes)

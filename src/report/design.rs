@@ -19,9 +19,6 @@ use crate::plain::escape_controls;
 use crate::plan::{Stage, StagedPlan};
 use crate::source::tool_version;
 
-/// How many rows of alternatives a terminal table shows.
-const ALTERNATIVE_ROWS: usize = 12;
-
 /// One row of the alternatives.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct AlternativeReport {
@@ -85,7 +82,8 @@ pub struct DesignReport {
     /// All acceptance numbers that meet both points at the chosen `n`
     /// (single plans; empty otherwise).
     pub fitting_acceptance_numbers: Vec<u64>,
-    /// Nearby plans, `c = 0` to a little past the chosen one.
+    /// Nearby plans, from eight below the chosen acceptance number (or
+    /// `c = 0` with `--nearby all`) to three past it.
     pub alternatives: Vec<AlternativeReport>,
     /// Remarks a reader should see (100% inspection, ties).
     pub notes: Vec<String>,
@@ -109,13 +107,14 @@ pub struct NearbyRow {
 impl DesignReport {
     /// The nearby plans as the report's table prints them: how many
     /// smaller acceptance numbers are left out (they meet no `n`), and
-    /// the rows shown, `c = 0` or the first shown to a little past the
-    /// chosen plan.
+    /// the rows shown, every one the report holds (`c = 0` or the first
+    /// of the window, [`Nearby`](crate::Nearby), to a little past the
+    /// chosen plan).
     pub fn nearby_rows(&self) -> (usize, Vec<NearbyRow>) {
         let chosen = self.stages.first().and_then(|s| s.accept).unwrap_or(0) as usize;
-        let last = self.alternatives.len();
-        let first = (chosen + 1 + 3).saturating_sub(ALTERNATIVE_ROWS).min(last);
-        let rows = self.alternatives[first..]
+        let first = self.alternatives.first().map_or(0, |a| a.c as usize);
+        let rows = self
+            .alternatives
             .iter()
             .map(|a| NearbyRow {
                 chosen: a.c as usize == chosen,
@@ -345,7 +344,7 @@ impl Report for DesignReport {
         if first > 0 {
             writeln!(
                 out,
-                "({first} smaller acceptance numbers meet no n; --format json lists them all)"
+                "({first} smaller acceptance numbers meet no n; --nearby all lists them)"
             )?;
         }
         writeln!(out, "* the chosen plan.")?;

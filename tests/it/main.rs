@@ -40,6 +40,7 @@ mod rectifying;
 mod refusals;
 mod serve;
 mod sheet;
+mod single_search;
 mod snapshots;
 mod staged;
 mod standard;

@@ -3619,12 +3619,12 @@ fn work_beyond_the_budget_is_refused_within_half_a_second() {
             "solving the 20 x 20 grid of double plans would take about",
         ),
         refused_fast(
-            "single plan with its alternatives up to c = 85,000",
-            &["design", "--aql", "1%", "--rql", "1.01%"],
+            "single plan with every nearby plan up to c = 85,000",
+            &["design", "--aql", "1%", "--rql", "1.01%", "--nearby", "all"],
             "the single plan and its alternatives (binomial model) would take about",
         ),
         refused_fast(
-            "single plan in a lot of 10^8 at 1% against 1.01%",
+            "single plan in a lot of 10^8 at 1% against 1.01%, every nearby plan",
             &[
                 "design",
                 "--aql",
@@ -3633,6 +3633,8 @@ fn work_beyond_the_budget_is_refused_within_half_a_second() {
                 "1.01%",
                 "--lot-size",
                 "100000000",
+                "--nearby",
+                "all",
             ],
             TIME,
         ),

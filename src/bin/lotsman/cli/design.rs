@@ -6,7 +6,7 @@ use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
 use lotsman::{
-    Description, DesignRequest, InputError, LimitKind, Model, RiskPair, RiskPoint, Scheme,
+    Description, DesignRequest, InputError, LimitKind, Model, Nearby, RiskPair, RiskPoint, Scheme,
     SchemeOptions, SigmaKind, Specification, Steps, VariablesRequest, parse_count, parse_fraction,
     parse_number,
 };
@@ -35,6 +35,9 @@ pub struct DesignArgs {
     /// Sampling scheme
     #[arg(long, value_enum, ignore_case = true, default_value = "single")]
     pub scheme: SchemeArg,
+    /// Single plans: which nearby plans the report lists (table, JSON and CSV alike)
+    #[arg(long, value_enum, ignore_case = true, default_value = "window")]
+    pub nearby: NearbyArg,
     /// What a double or multiple plan minimises [default: asn-aql]
     #[arg(long, value_enum, ignore_case = true)]
     pub criterion: Option<CriterionArg>,
@@ -70,6 +73,23 @@ pub enum SchemeArg {
     Sequential,
     /// Measurements against specification limits (normal model)
     Variables,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum NearbyArg {
+    /// The acceptance numbers from eight below the chosen one to three past it
+    Window,
+    /// Every acceptance number from 0 to three past the chosen one (at close points in a large lot, thousands)
+    All,
+}
+
+impl From<NearbyArg> for Nearby {
+    fn from(arg: NearbyArg) -> Self {
+        match arg {
+            NearbyArg::Window => Nearby::Window,
+            NearbyArg::All => Nearby::All,
+        }
+    }
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]

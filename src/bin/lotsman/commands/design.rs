@@ -8,7 +8,7 @@ use lotsman::{
     DesignError, DesignReport, DesignRequest, Error, Format, InputError, Outcome, PlanSource,
     RectifyingReport, Report, Solution, SourceError, StandardPlansReport, VariablesDesignReport,
     VariablesRequest, design_rectifying, refuse_overwriting_input, sensitivity, shell_path,
-    shell_word, solve, solve_variables, write_atomic,
+    shell_word, solve_listing, solve_variables, write_atomic,
 };
 
 use crate::cli::design::{DesignArgs, DesignFormat, SchemeArg};
@@ -87,7 +87,8 @@ fn attributes(
     mut source: PlanSource,
     request: DesignRequest,
 ) -> Result<Designed, Error> {
-    let solution = solve(&request).map_err(|e| design_error(args, e))?;
+    let solution =
+        solve_listing(&request, args.nearby.into()).map_err(|e| design_error(args, e))?;
     source.record(&solution);
     let steps = args.steps.steps(&request.risks)?;
     let rows = sensitivity(&request.model, &request.risks, solution.single.n, &steps);

@@ -9,7 +9,7 @@ use clap::ValueEnum;
 use lotsman::{InputError, bare_fraction_note};
 
 use crate::cli::design::{
-    DescriptionFlags, DesignArgs, DesignFormat, SchemeArg, StepFlags, VariablesFlags,
+    DescriptionFlags, DesignArgs, DesignFormat, NearbyArg, SchemeArg, StepFlags, VariablesFlags,
 };
 use crate::cli::groups::{FormatFlag, ModelFlags, OutputFlags, RiskFlags};
 use crate::cli::values::ModelArg;
@@ -146,6 +146,7 @@ impl DesignFields {
                 lot_size: given(&self.lot_size),
             },
             scheme,
+            nearby: NearbyArg::Window,
             criterion: None,
             second_ratio: None,
             stage_count: None,
