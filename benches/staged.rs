@@ -1,7 +1,9 @@
 //! Speed of the staged-plan engine and designers (issue figures: exact OC
 //! and ASN of a 7-stage plan at 1,001 qualities <= 10 ms; the double
 //! designer <= 100 ms at p1 = 1%, p2 = 6% and <= 2 s at p1 = 0.1%,
-//! p2 = 0.3%; the sequential plan's exact OC at 1,001 qualities <= 50 ms).
+//! p2 = 0.3%; the sequential plan's exact OC at 1,001 qualities <= 50 ms;
+//! issue 19: the 0.1%/0.3% item-by-item plan evaluated at 1,001 qualities,
+//! the whole process within 30 times a typical design).
 
 // A bench may stop at an unexpected error: unwrap, expect and panic are
 // allowed here (the `[lints]` table of Cargo.toml denies them elsewhere).
@@ -14,7 +16,7 @@ use common::pair;
 use criterion::{Criterion, criterion_group, criterion_main};
 use lotsman::{
     Criterion as Minimise, Model, ModelKind, Stage, StagedPlan, design_double, design_sequential,
-    stage_outcomes,
+    evaluate, stage_outcomes,
 };
 
 /// OC and ASN of `plan` at 1,001 qualities from 0.01% to 20%.
@@ -82,6 +84,24 @@ fn benches(c: &mut Criterion) {
     group.bench_function(
         "sequential plan (p1 = 0.1%, p2 = 0.3%), exact OC and ASN at 1001 qualities",
         |b| b.iter(|| black_box(curve(&long.plan, &binomial))),
+    );
+    // What `lotsman evaluate` does with that plan at 1,001 qualities: the
+    // measures at each (curtailed ASN included) and the AOQL and
+    // indifference searches, on the machine's cores.
+    let qualities: Vec<f64> = (0..1001)
+        .map(|i| 1e-4 + 0.0099 * i as f64 / 1000.0)
+        .collect();
+    group.bench_function(
+        "sequential plan (p1 = 0.1%, p2 = 0.3%), evaluate at 1001 qualities",
+        |b| b.iter(|| black_box(evaluate(&long.plan, &binomial, &qualities).unwrap())),
+    );
+    // The hypergeometric item step: each state draws from what its lot has
+    // left.
+    let lot = Model::new(ModelKind::Hypergeometric, Some(20_000)).unwrap();
+    let (in_lot, _) = design_sequential(&lot, &pair(&lot, 0.01, 0.02)).unwrap();
+    group.bench_function(
+        "sequential plan (lot 20000, p1 = 1%, p2 = 2%), exact OC and ASN at 1001 qualities",
+        |b| b.iter(|| black_box(curve(&in_lot.plan, &lot))),
     );
     group.finish();
 }

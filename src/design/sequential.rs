@@ -254,8 +254,8 @@ fn truncate(
                     accept: Some(a_t),
                     reject: a_t + 1,
                 };
-                let producer = rejected_p1 + at_p1.clone().step(&close).reject;
-                let consumer = accepted_p2 + at_p2.clone().step(&close).accept;
+                let producer = rejected_p1 + at_p1.closing(&close).reject;
+                let consumer = accepted_p2 + at_p2.closing(&close).accept;
                 if producer <= alpha && consumer <= beta {
                     let margin = (producer / alpha).max(consumer / beta);
                     if best.is_none_or(|(m, _)| margin < m) {

@@ -73,6 +73,13 @@ impl Window {
         self.sf[self.cut(k)]
     }
 
+    /// The run of terms: its first count and `P(X = k)` for the counts
+    /// from there on (every count outside it has `P(X = k) = 0` as far as
+    /// [`Window::pmf`] tells).
+    pub(crate) fn run(&self) -> (u64, &[f64]) {
+        (self.lo, &self.pmf)
+    }
+
     /// `P(X = k)`.
     pub(crate) fn pmf(&self, k: u64) -> f64 {
         k.checked_sub(self.lo)

@@ -1,13 +1,14 @@
 //! The evaluation of a plan over a set of qualities: the rows of an OC
 //! table plus the curve's AOQL and indifference quality.
 
+use rayon::prelude::*;
+
 use super::work::{evaluation_advice, evaluation_work};
 use crate::input::InputError;
 use crate::model::Model;
 use crate::model::RiskPair;
-use crate::plan::{
-    Aoql, Measures, StagedPlan, acceptance_probability, aoql, measures, stage_outcomes,
-};
+use crate::plan::measures::measures_and_outcomes;
+use crate::plan::{Aoql, Measures, StagedPlan, acceptance_probability, aoql};
 
 /// A plan evaluated at a list of qualities.
 #[derive(Clone, Debug, PartialEq)]
@@ -57,8 +58,8 @@ pub fn evaluate(
 }
 
 /// [`evaluate`], with the distribution of the stage at which each lot is
-/// decided ([`Evaluation::decided`]): one more OC walk per quality, and
-/// one number per stage and quality.
+/// decided ([`Evaluation::decided`]), from the same walk as each quality's
+/// measures: one more number per stage and quality.
 ///
 /// # Errors
 /// As [`evaluate`].
@@ -86,21 +87,32 @@ fn evaluate_as(
         }
     }
     check_evaluation(plan, model, qualities.len(), decided_at)?;
+    // Every quality is its own walk, whose stage outcomes also give when
+    // its lots are decided, and the curve searches are two more chains of
+    // walks: they run side by side on the machine's cores (a walk of an
+    // item-by-item plan is one long chain of dependent steps, which one
+    // core cannot shorten). Each number is computed as on one core.
+    let (walked, (aoql, indifference_quality)) = rayon::join(
+        || {
+            qualities
+                .par_iter()
+                .map(|&q| {
+                    let (point, outcomes) = measures_and_outcomes(plan, model, q);
+                    (point, decided_at.then(|| outcomes.decided()))
+                })
+                .collect::<Vec<_>>()
+        },
+        || rayon::join(|| aoql(plan, model), || quality_at_pa(plan, model, 0.5)),
+    );
+    let (points, decided): (Vec<Measures>, Vec<Option<Vec<f64>>>) = walked.into_iter().unzip();
+    let decided = decided_at.then(|| decided.into_iter().flatten().collect());
     Ok(Evaluation {
         plan: plan.clone(),
         model: *model,
-        points: qualities
-            .iter()
-            .map(|&q| measures(plan, model, q))
-            .collect(),
-        decided: decided_at.then(|| {
-            qualities
-                .iter()
-                .map(|&q| stage_outcomes(plan, model, q).decided())
-                .collect()
-        }),
-        aoql: aoql(plan, model),
-        indifference_quality: quality_at_pa(plan, model, 0.5),
+        points,
+        decided,
+        aoql,
+        indifference_quality,
     })
 }
 

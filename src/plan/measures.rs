@@ -52,6 +52,18 @@ pub struct Measures {
 /// Quality Control*, the chapter on lot-by-lot acceptance sampling for
 /// attributes, from memory).
 pub fn measures(plan: &StagedPlan, model: &Model, asked: f64) -> Measures {
+    measures_and_outcomes(plan, model, asked).0
+}
+
+/// [`measures`] and the stage outcomes of the walk they come from (at the
+/// lot quality under the hypergeometric model, which has the same count
+/// `D` as `asked`), for an evaluation that also reports when lots are
+/// decided.
+pub(crate) fn measures_and_outcomes(
+    plan: &StagedPlan,
+    model: &Model,
+    asked: f64,
+) -> (Measures, StageOutcomes) {
     let p = model.lot_quality(asked);
     let outcomes = curtailed_outcomes(plan, model, p);
     let stages = plan.stages();
@@ -69,7 +81,7 @@ pub fn measures(plan: &StagedPlan, model: &Model, asked: f64) -> Measures {
         inspected + (1.0 - outcomes.pa()) * lot as f64
     });
     let lot_nonconforming = model.nonconforming_in_lot(asked);
-    Measures {
+    let measures = Measures {
         quality: asked,
         lot_nonconforming,
         lot_quality: lot_nonconforming.map(|_| p),
@@ -78,7 +90,8 @@ pub fn measures(plan: &StagedPlan, model: &Model, asked: f64) -> Measures {
         ati,
         asn,
         asn_curtailed: outcomes.curtailed_units,
-    }
+    };
+    (measures, outcomes)
 }
 
 /// AOQ from the stage outcomes: `sum_j a_j p (N - n_j) / N`, or `Pa p`

@@ -1,7 +1,9 @@
 //! Exact operating characteristic of a staged plan by dynamic programming
 //! over the cumulative count.
 
-use crate::model::{Model, Window};
+mod item;
+
+use crate::model::{Model, OneUnit, Window};
 use crate::plan::{Stage, StagedPlan};
 
 /// How lots of one quality end, stage by stage.
@@ -98,17 +100,24 @@ pub(crate) struct Step {
 pub(crate) struct Walk<'a> {
     model: &'a Model,
     p: f64,
+    /// The two-term count of one unit at `p` (binomial and hypergeometric
+    /// models), which a one-unit stage steps by instead of a window.
+    one_unit: Option<OneUnit>,
     /// Count of `open[0]`.
     lo: u64,
     /// `open[i]`: probability that the lot is still undecided with a
     /// cumulative count of `lo + i`.
     open: Vec<f64>,
+    /// Where a step builds the next open states before it swaps them with
+    /// `open`: a walk of thousands of stages allocates only while its width
+    /// grows.
+    next: Vec<f64>,
     drawn: u64,
     /// Expected units inspected so far under curtailment; `None` when not
     /// asked for, or once a stage could not give it.
     curtailed: Option<f64>,
     /// The last stage count window, reused while the model forgets the past
-    /// and the stage size and run stay the same (item-by-item plans).
+    /// and the stage size and run stay the same (stages of equal size).
     cache: Option<(u64, u64, u64, Window)>,
 }
 
@@ -118,8 +127,10 @@ impl<'a> Walk<'a> {
         Walk {
             model,
             p,
+            one_unit: model.one_unit(p),
             lo: 0,
             open: vec![1.0],
+            next: Vec::new(),
             drawn: 0,
             curtailed: curtail.then_some(0.0),
             cache: None,
@@ -135,20 +146,57 @@ impl<'a> Walk<'a> {
     /// Inspects `stage` (whose cumulative size exceeds what was drawn) on
     /// the lots still undecided.
     ///
+    /// A one-unit stage under the binomial and hypergeometric models (every
+    /// stage of an item-by-item plan) moves each open count up by one or
+    /// leaves it ([`Walk::item_step`]); any other stage convolves the open
+    /// counts with the stage count's window ([`Walk::stage_step`]).
+    pub(crate) fn step(&mut self, stage: &Stage) -> Step {
+        let m = stage.n - self.drawn;
+        let lowest_open = stage.accept.map_or(0, |a| a + 1);
+        let width = stage.reject.saturating_sub(lowest_open) as usize;
+        // A stage that leaves no count open keeps one empty state, so that
+        // a later step (a designer's candidate) still finds a walk.
+        let mut next = std::mem::take(&mut self.next);
+        let step = match (m, self.one_unit) {
+            (1, Some(one)) => self.item_step(stage, one, lowest_open, &mut next),
+            _ => {
+                next.clear();
+                next.resize(width.max(1), 0.0);
+                self.stage_step(stage, m, lowest_open, &mut next)
+            }
+        };
+        self.next = std::mem::replace(&mut self.open, next);
+        self.lo = lowest_open;
+        self.drawn = stage.n;
+        step
+    }
+
+    /// What stepping a last `stage` (one that decides every count) would
+    /// accept and reject, the walk left as it is: a designer tries several
+    /// closings of one prefix. A one-unit stage of a two-term model costs
+    /// one pass over the open counts; any other is stepped on a copy.
+    pub(crate) fn closing(&self, stage: &Stage) -> Step {
+        self.item_closing(stage)
+            .unwrap_or_else(|| self.clone().step(stage))
+    }
+
+    /// A stage of `m` units on the open counts: each count `d` moves to
+    /// `d + x` with the stage count's `P(X = x)`.
+    ///
     /// The count window of the stage spans every count a state can need:
     /// from the acceptance cut of the highest open state to the rejection
     /// cut of the lowest. For the binomial and Poisson models it is the same
     /// for every state and is computed once per stage (and reused across
     /// stages of the same size); the hypergeometric model needs one per
-    /// state, since each state left a different lot behind.
-    pub(crate) fn step(&mut self, stage: &Stage) -> Step {
+    /// state, since each state left a different lot behind. A state adds to
+    /// the next counts only over its window's run of terms (the rest are
+    /// zero), so a stage costs its open states times the shorter of the run
+    /// and the next states.
+    fn stage_step(&mut self, stage: &Stage, m: u64, lowest_open: u64, next: &mut [f64]) -> Step {
         let model = self.model;
-        let m = stage.n - self.drawn;
-        let lowest_open = stage.accept.map_or(0, |a| a + 1);
         let r = stage.reject;
         let d_lo = self.lo;
         let d_hi = self.lo + self.open.len() as u64 - 1;
-        let mut next = vec![0.0; r.saturating_sub(lowest_open) as usize];
         let (mut acc, mut rej) = (0.0, 0.0);
         let win_lo = lowest_open.saturating_sub(d_hi);
         let shared = if model.forgets_the_past() && r > d_lo {
@@ -196,10 +244,14 @@ impl<'a> Walk<'a> {
             if let Some(a) = accept_left {
                 acc += w * win.cdf(a);
             }
-            for (slot, d2) in next.iter_mut().zip(lowest_open..r) {
-                if d2 >= d {
-                    *slot += w * win.pmf(d2 - d);
-                }
+            // w'(d2) += w P(X = d2 - d) over the run's counts that stay
+            // open; the terms left out are zero, so the sums are the same
+            // to the bit as over every open count.
+            let (run_lo, run) = win.run();
+            let first = lowest_open.max(d + run_lo);
+            let end = r.min(d + run_lo + run.len() as u64);
+            for d2 in first..end {
+                next[(d2 - lowest_open) as usize] += w * run[(d2 - d - run_lo) as usize];
             }
             if let Some(total) = curtailed {
                 curtailed = model
@@ -208,9 +260,6 @@ impl<'a> Walk<'a> {
             }
         }
         self.curtailed = curtailed;
-        self.lo = lowest_open;
-        self.open = if next.is_empty() { vec![0.0] } else { next };
-        self.drawn = stage.n;
         Step {
             accept: acc,
             reject: rej,

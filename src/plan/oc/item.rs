@@ -1,0 +1,255 @@
+//! The walk's step over a one-unit stage (every stage of an item-by-item
+//! plan) under the binomial and hypergeometric models: each open count
+//! stays or rises by one.
+//!
+//! With `w(d)` the probability that the lot is undecided with count `d`
+//! before the unit, `q_d = P(X = 0)` and `p_d = P(X = 1)` for the unit
+//! ([`OneUnit`]), and the stage's numbers `a` (accept) and `r` (reject):
+//!
+//! ```text
+//! accept = sum_{d < a} w(d) + w(a) q_a
+//! reject = sum_{d >= r} w(d) + w(r - 1) p_{r-1}
+//! w'(e)  = w(e - 1) p_{e-1} + w(e) q_e,      a < e < r
+//! ```
+//!
+//! which is the convolution recursion of [`stage_outcomes`](super::stage_outcomes)
+//! with a count window of two terms. It costs two multiplications per open
+//! count, where a general window costs a saddle-point logarithm, two tail
+//! sums and a product per pair of counts; the two terms are exact to one
+//! rounding (`p`, `1 - p`, or one division for the hypergeometric model),
+//! where a window's come from an exponential and a ratio (a few roundings).
+//!
+//! Under full curtailment a lot inspects the stage's unit unless it is
+//! accepted whatever the unit holds (`d < a`): a state adds `w(d)` units or
+//! none. The closed forms of the stage mean (`Model::curtailed_stage_units`)
+//! give the same, `p + q` or 0, with the rounding of a few tails.
+
+use super::{Step, Walk};
+use crate::model::OneUnit;
+use crate::plan::Stage;
+
+impl Walk<'_> {
+    /// Steps the one-unit `stage` with the unit's two-term count `one`,
+    /// building the counts it leaves open (from `lowest_open` up) in `next`.
+    pub(super) fn item_step(
+        &mut self,
+        stage: &Stage,
+        one: OneUnit,
+        lowest_open: u64,
+        next: &mut Vec<f64>,
+    ) -> Step {
+        let drawn = self.drawn;
+        // The binomial odds do not depend on the count: a separate copy of
+        // the loops keeps them in registers.
+        match one {
+            OneUnit::Binomial { stay, up } => {
+                self.items(stage, lowest_open, next, |_| Some((stay, up)))
+            }
+            OneUnit::Hypergeometric { .. } => {
+                self.items(stage, lowest_open, next, |d| one.odds(drawn, d))
+            }
+        }
+    }
+
+    /// [`Walk::closing`] for a one-unit stage of a two-term model; `None`
+    /// for any other stage.
+    pub(super) fn item_closing(&self, stage: &Stage) -> Option<Step> {
+        if stage.n - self.drawn != 1 {
+            return None;
+        }
+        let drawn = self.drawn;
+        let one = self.one_unit?;
+        Some(match one {
+            OneUnit::Binomial { stay, up } => self.decide(stage, None, |_| Some((stay, up))).0,
+            OneUnit::Hypergeometric { .. } => self.decide(stage, None, |d| one.odds(drawn, d)).0,
+        })
+    }
+
+    fn items(
+        &mut self,
+        stage: &Stage,
+        lowest_open: u64,
+        next: &mut Vec<f64>,
+        odds: impl Fn(u64) -> Option<(f64, f64)>,
+    ) -> Step {
+        let (step, curtailed) = self.decide(stage, self.curtailed, &odds);
+        self.curtailed = curtailed;
+        self.carry(stage.reject, lowest_open, next, &odds);
+        step
+    }
+
+    /// The lots the unit decides, and the curtailed units `curtailed` grows
+    /// to; `odds(d)` is `(q_d, p_d)`, `None` for a state the earlier draws
+    /// cannot produce (it carries no probability; as under a window, its
+    /// count stays, and the curtailed units become unknown).
+    fn decide(
+        &self,
+        stage: &Stage,
+        mut curtailed: Option<f64>,
+        odds: impl Fn(u64) -> Option<(f64, f64)>,
+    ) -> (Step, Option<f64>) {
+        let r = stage.reject;
+        let (mut acc, mut rej) = (0.0, 0.0);
+        for (d, &w) in (self.lo..).zip(&self.open) {
+            if w == 0.0 {
+                continue;
+            }
+            if d >= r {
+                // Already at the rejection number: rejected before the unit.
+                rej += w;
+                continue;
+            }
+            let (stay, up) = odds(d).unwrap_or_else(|| {
+                curtailed = None;
+                (1.0, 0.0)
+            });
+            let certain = stage.accept.is_some_and(|a| d < a);
+            if certain {
+                acc += w;
+            } else if stage.accept == Some(d) {
+                acc += w * stay;
+            }
+            if d + 1 >= r {
+                rej += w * up;
+            }
+            if let Some(total) = curtailed.as_mut()
+                && !certain
+            {
+                *total += w;
+            }
+        }
+        (
+            Step {
+                accept: acc,
+                reject: rej,
+            },
+            curtailed,
+        )
+    }
+
+    /// `next[e - lowest_open] = w(e - 1) p_{e-1} + w(e) q_e` for the counts
+    /// `e` the stage leaves open (one zero slot when it leaves none). Each
+    /// slot is written once, from registers, rather than added to twice
+    /// in memory; a missing term is a zero, so the sum is the same either
+    /// way.
+    fn carry(
+        &self,
+        r: u64,
+        lowest_open: u64,
+        next: &mut Vec<f64>,
+        odds: impl Fn(u64) -> Option<(f64, f64)>,
+    ) {
+        let width = r.saturating_sub(lowest_open) as usize;
+        next.resize(width.max(1), 0.0);
+        next[0] = 0.0;
+        let open = &self.open;
+        // Counts are at most MAX_ACCEPTANCE_NUMBER + 1, far inside i64.
+        let len = open.len() as i64;
+        let base = lowest_open as i64 - self.lo as i64;
+        for (k, (e, slot)) in (lowest_open..r).zip(next.iter_mut()).enumerate() {
+            // `open[i]` holds the count `e`, `open[i - 1]` the count `e - 1`.
+            let i = base + k as i64;
+            let stayed = if (0..len).contains(&i) {
+                open[i as usize] * odds(e).map_or(1.0, |o| o.0)
+            } else {
+                0.0
+            };
+            let risen = if (1..=len).contains(&i) {
+                open[(i - 1) as usize] * odds(e - 1).map_or(0.0, |o| o.1)
+            } else {
+                0.0
+            };
+            *slot = risen + stayed;
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use crate::model::{Model, ModelKind};
+    use crate::plan::{Stage, StagedPlan, curtailed_outcomes};
+
+    /// One unit per stage; stage 7 accepts the count 2 whatever its unit
+    /// holds (curtailed: not inspected).
+    fn plan(model: &Model) -> StagedPlan {
+        let numbers = [
+            (None, 2),
+            (None, 3),
+            (Some(0), 3),
+            (Some(0), 3),
+            (Some(0), 4),
+            (Some(1), 4),
+            (Some(3), 4),
+        ];
+        let stages = (1..)
+            .zip(numbers)
+            .map(|(n, (accept, reject))| Stage { n, accept, reject })
+            .collect();
+        StagedPlan::new(stages, model).unwrap()
+    }
+
+    /// Exhaustive search: every sequence of 7 units, its probability
+    /// (`unit(found, drawn, bad)` gives the next unit's probability), the
+    /// stage that decides it, and the units a curtailed inspection takes.
+    fn enumerate(plan: &StagedPlan, unit: impl Fn(u64, u64, bool) -> f64) -> [Vec<f64>; 3] {
+        let stages = plan.stages();
+        let mut acc = vec![0.0; stages.len()];
+        let mut rej = vec![0.0; stages.len()];
+        let mut units = 0.0;
+        for bits in 0u32..1 << stages.len() {
+            let (mut weight, mut d) = (1.0, 0);
+            for j in 0..stages.len() as u64 {
+                let bad = bits >> j & 1 == 1;
+                weight *= unit(d, j, bad);
+                d += u64::from(bad);
+            }
+            let mut d = 0;
+            for (j, s) in stages.iter().enumerate() {
+                let certain = s.accept.is_some_and(|a| d < a);
+                d += u64::from(bits >> j & 1 == 1);
+                if s.accept.is_some_and(|a| d <= a) {
+                    acc[j] += weight;
+                } else if d >= s.reject {
+                    rej[j] += weight;
+                } else {
+                    continue;
+                }
+                units += weight * (j as f64 + if certain { 0.0 } else { 1.0 });
+                break;
+            }
+        }
+        [acc, rej, vec![units]]
+    }
+
+    fn agree(got: f64, want: f64, what: &str) {
+        assert!(
+            (got - want).abs() <= 1e-14 * want.abs().max(1e-300),
+            "{what}: {got:e} against {want:e}"
+        );
+    }
+
+    #[test]
+    fn item_steps_match_an_exhaustive_search() {
+        let binomial = Model::new(ModelKind::Binomial, None).unwrap();
+        let p = 0.3;
+        let want = enumerate(&plan(&binomial), |_, _, bad| if bad { p } else { 1.0 - p });
+        let lot = Model::new(ModelKind::Hypergeometric, Some(12)).unwrap();
+        // D = 3 of 12 at p = 0.25.
+        let want_lot = enumerate(&plan(&lot), |found, drawn, bad| {
+            let (left, bad_left) = (12.0 - drawn as f64, 3.0 - found as f64);
+            if bad {
+                bad_left.max(0.0) / left
+            } else {
+                (left - bad_left) / left
+            }
+        });
+        for (model, p, want) in [(binomial, p, want), (lot, 0.25, want_lot)] {
+            let got = curtailed_outcomes(&plan(&model), &model, p);
+            for (j, (a, r)) in got.accept.iter().zip(&got.reject).enumerate() {
+                agree(*a, want[0][j], &format!("{model:?} accept {j}"));
+                agree(*r, want[1][j], &format!("{model:?} reject {j}"));
+            }
+            agree(got.curtailed_units.unwrap(), want[2][0], "curtailed units");
+        }
+    }
+}
