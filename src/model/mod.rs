@@ -21,6 +21,7 @@ pub(crate) mod noncentral_t;
 pub(crate) mod normal;
 mod poisson;
 mod risk;
+pub(crate) mod rows;
 mod saddle;
 mod tail;
 mod window;
