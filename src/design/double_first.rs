@@ -20,9 +20,10 @@
 //! again; a quality asked once (an AOQ curve's, the largest ASN's) is
 //! computed on its own.
 
+use std::ops::RangeInclusive;
 use std::sync::Arc;
 
-use crate::model::rows::{Rows, once};
+use crate::model::rows::Rows;
 use crate::model::{Model, Window};
 
 /// Where the counts' windows come from.
@@ -30,7 +31,9 @@ use crate::model::{Model, Window};
 pub(super) enum Counts<'a> {
     /// The design's store, for a quality the search asks again.
     Stored(&'a Rows),
-    /// Computed on their own, for a quality asked once.
+    /// Computed on their own, for a quality asked once: only the run the
+    /// caller reads, as the designers computed every window before the
+    /// store (the points of an AOQ curve cost no more than they did).
     Once(&'a Model),
 }
 
@@ -42,10 +45,14 @@ impl Counts<'_> {
         }
     }
 
-    fn get(&self, m: u64, p: f64, drawn: u64, found: u64, top: u64) -> Arc<Window> {
+    /// The counts in `m` units at quality `p` (a first sample, or a
+    /// second one under a model that forgets the past), from which the
+    /// caller reads the terms and cuts of `run` and nothing above `top`
+    /// (the final acceptance number).
+    fn get(&self, m: u64, p: f64, run: RangeInclusive<u64>, top: u64) -> Arc<Window> {
         match self {
-            Counts::Stored(rows) => rows.get(m, p, drawn, found, top),
-            Counts::Once(model) => once(model, m, p, drawn, found, top),
+            Counts::Stored(rows) => rows.get(m, p, top),
+            Counts::Once(model) => Arc::new(model.window(m, *run.start(), *run.end(), p, 0, 0)),
         }
     }
 }
@@ -83,7 +90,9 @@ pub(super) struct FirstStage {
 impl FirstStage {
     /// The first stage of `n1` units with the numbers `k` at quality `p`.
     pub(super) fn new(source: Counts<'_>, n1: u64, k: Numbers, p: f64) -> Self {
-        let counts = source.get(n1, p, 0, 0, k.c2);
+        // The first stage reads P(d1 = d) for the open counts, P(d1 <= c1)
+        // below them and P(d1 >= r1) above.
+        let counts = source.get(n1, p, k.lowest_open()..=k.r1 - 1, k.c2);
         let second = (k.lowest_open()..k.r1).map(|d| counts.pmf(d)).sum();
         FirstStage {
             k,
@@ -107,20 +116,25 @@ impl FirstStage {
     /// `source` is where the first stage's counts came from.
     pub(super) fn outcome(&self, source: Counts<'_>, n1: u64, n2: u64, p: f64) -> (f64, f64) {
         let c2 = self.k.c2;
-        let counts = |drawn, found| source.get(n2, p, drawn, found, c2);
+        let lowest = self.k.lowest_open();
         let (mut acc, mut rej) = (self.accept, self.reject);
-        let open = self.k.lowest_open()..self.k.r1;
+        let open = lowest..self.k.r1;
         if source.model().forgets_the_past() {
-            let w = counts(0, 0);
+            // The second stage: both tails at the cuts c2 - d.
+            let w = source.get(n2, p, c2 + 2 - self.k.r1..=c2 - lowest, c2);
             for d in open {
                 let f = self.counts.pmf(d);
                 acc += f * w.cdf(c2 - d);
                 rej += f * w.sf(c2 - d);
             }
         } else {
+            // The hypergeometric second sample depends on the first's size
+            // and count too: its windows are seldom asked twice, and the
+            // bare cut at c2 - d costs less than a stored run from zero.
+            let model = source.model();
             for d in open {
                 let f = self.counts.pmf(d);
-                let w = counts(n1, d);
+                let w = model.window(n2, c2 - d + 1, c2 - d, p, n1, d);
                 acc += f * w.cdf(c2 - d);
                 rej += f * w.sf(c2 - d);
             }

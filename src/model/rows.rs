@@ -9,7 +9,8 @@
 //! (one saddle-point log-probability and two tail sums each), they took
 //! about 60% of a design, and the buffers of each window another 19%. Here
 //! each distribution's run `0..=hi` is computed once per design and thread
-//! and kept in that thread's part of the store, which is dropped with the
+//! and kept in that thread's part of the store, indexed by the sample size
+//! (the sweep steps through neighbouring sizes), which is dropped with the
 //! design. The threads do not share runs: a run read by two cores at once
 //! sends its reference count back and forth between their caches, which
 //! cost more (half of a design, measured) than computing each run twice.
@@ -27,56 +28,33 @@
 //! a run is served only to a request with the same rounded top: a value
 //! never depends on which requests came before it, or on which thread.
 
-use std::collections::HashMap;
-use std::hash::{BuildHasherDefault, Hasher};
 use std::sync::{Arc, Mutex};
 
 use super::{Model, Window};
 
-/// Runs a thread's part holds before it is emptied (some hundred bytes
-/// each): more than the searches the work budget allows ask for (a double
-/// design at 0.1% and 0.3%, single plan n = 3,922, asks for 20,000 a
-/// thread), so that no search grows without bound.
-const PART_CAP: usize = 1 << 18;
+/// Sample sizes up to this one are stored (an index of 8 bytes a size);
+/// larger ones, beyond any search the work budget allows, are computed
+/// each time.
+const MAX_STORED: u64 = 1 << 20;
 
-/// What a run depends on besides the model.
-#[derive(Clone, Copy, PartialEq, Eq, Hash)]
-struct Key {
+/// The runs of one quality and top, indexed by the sample size.
+struct Column {
     p: u64,
-    m: u64,
-    drawn: u64,
-    found: u64,
     hi: u64,
+    runs: Vec<Option<Arc<Window>>>,
 }
 
-/// A multiplicative hash (Fibonacci hashing) of the key's words: the keys
-/// are the store's own, so a hash built against adversaries is not needed.
-#[derive(Default)]
-struct WordHash(u64);
-
-impl Hasher for WordHash {
-    fn finish(&self) -> u64 {
-        self.0
-    }
-
-    fn write(&mut self, bytes: &[u8]) {
-        for &b in bytes {
-            self.write_u64(u64::from(b));
-        }
-    }
-
-    fn write_u64(&mut self, x: u64) {
-        self.0 = (self.0.rotate_left(5) ^ x).wrapping_mul(0x9E37_79B9_7F4A_7C15);
-    }
-}
-
-type Part = HashMap<Key, Arc<Window>, BuildHasherDefault<WordHash>>;
+/// One thread's part, alone on its cache lines: two parts on one line
+/// would send the line between the cores at every lock (measured: half of
+/// a grid's time).
+#[repr(align(128))]
+struct Part(Mutex<Vec<Column>>);
 
 /// The runs of one design's search under one model: one part for each
 /// thread of the pool, and one for a caller outside it.
 pub(crate) struct Rows {
     model: Model,
-    parts: Vec<Mutex<Part>>,
+    parts: Vec<Part>,
 }
 
 /// The top of the run served for a request reaching count `top`.
@@ -90,7 +68,7 @@ impl Rows {
         Rows {
             model: *model,
             parts: (0..=rayon::current_num_threads())
-                .map(|_| Mutex::new(Part::default()))
+                .map(|_| Part(Mutex::new(Vec::new())))
                 .collect(),
         }
     }
@@ -101,39 +79,39 @@ impl Rows {
     }
 
     /// `P(X = d)`, `P(X <= d)` and `P(X > d)` for `d = 0..=top` (at least)
-    /// of the count `X` in the next `m` units at quality `p`, after `drawn`
-    /// units holding `found` (as [`Model::window`]).
-    pub(crate) fn get(&self, m: u64, p: f64, drawn: u64, found: u64, top: u64) -> Arc<Window> {
-        let key = Key {
-            p: p.to_bits(),
-            m,
-            drawn,
-            found,
-            hi: rounded(top),
-        };
+    /// of the count `X` in `m` units at quality `p` (as [`Model::window`]
+    /// with nothing drawn before).
+    pub(crate) fn get(&self, m: u64, p: f64, top: u64) -> Arc<Window> {
+        let (bits, hi) = (p.to_bits(), rounded(top));
+        let fresh = || Arc::new(self.model.window(m, 0, hi, p, 0, 0));
+        if m > MAX_STORED {
+            return fresh();
+        }
         // This thread's part: its lock is never contended (a caller
         // outside the pool shares the last part, still correct).
         let last = self.parts.len() - 1;
         let part = &self.parts[rayon::current_thread_index().map_or(last, |i| i.min(last))];
         // A panic elsewhere cannot leave a half-written run: take the part
         // as it is.
-        let mut part = part.lock().unwrap_or_else(|e| e.into_inner());
-        if let Some(w) = part.get(&key) {
-            return Arc::clone(w);
+        let mut part = part.0.lock().unwrap_or_else(|e| e.into_inner());
+        let at = match part.iter().position(|c| c.p == bits && c.hi == hi) {
+            Some(at) => at,
+            None => {
+                part.push(Column {
+                    p: bits,
+                    hi,
+                    runs: Vec::new(),
+                });
+                part.len() - 1
+            }
+        };
+        let runs = &mut part[at].runs;
+        let i = m as usize;
+        if runs.len() <= i {
+            runs.resize(i + 1, None);
         }
-        if part.len() >= PART_CAP {
-            part.clear();
-        }
-        let w = Arc::new(self.model.window(m, 0, key.hi, p, drawn, found));
-        part.insert(key, Arc::clone(&w));
-        w
+        Arc::clone(runs[i].get_or_insert_with(fresh))
     }
-}
-
-/// The same run computed without a store, for a quality that is asked
-/// once (the quality of the largest ASN, the points of an AOQ curve).
-pub(crate) fn once(model: &Model, m: u64, p: f64, drawn: u64, found: u64, top: u64) -> Arc<Window> {
-    Arc::new(model.window(m, 0, rounded(top), p, drawn, found))
 }
 
 #[cfg(test)]
@@ -142,16 +120,16 @@ mod tests {
     use crate::model::ModelKind;
 
     #[test]
-    fn a_stored_run_equals_a_fresh_one_and_the_tails() {
+    fn a_stored_run_equals_a_window_from_zero_and_the_tails() {
         let model = Model::new(ModelKind::Binomial, None).unwrap();
         let rows = Rows::new(&model);
-        let a = rows.get(300, 0.02, 0, 0, 5);
-        let b = rows.get(300, 0.02, 0, 0, 6);
+        let a = rows.get(300, 0.02, 5);
+        let b = rows.get(300, 0.02, 6);
         assert!(
             Arc::ptr_eq(&a, &b),
             "the same rounded top is served from the store"
         );
-        assert_eq!(*a, *once(&model, 300, 0.02, 0, 0, 7));
+        assert_eq!(*a, model.window(300, 0, 7, 0.02, 0, 0));
         // Against the tails summed on their own (the computation the
         // designers used before the store), to the last bits.
         for d in 0..=7 {
@@ -162,12 +140,12 @@ mod tests {
     }
 
     #[test]
-    fn runs_after_earlier_draws_agree_with_their_tails() {
+    fn hypergeometric_runs_of_every_size_agree_with_their_tails() {
         let model = Model::new(ModelKind::Hypergeometric, Some(500)).unwrap();
         let rows = Rows::new(&model);
         for m in 1..200 {
-            let w = rows.get(m, 0.03, 20, 1, 3);
-            let t = model.tails(m, 3, 0.03, 20, 1);
+            let w = rows.get(m, 0.03, 3);
+            let t = model.tails(m, 3, 0.03, 0, 0);
             assert!((w.cdf(3) - t.cdf).abs() <= 1e-14 && (w.sf(3) - t.sf).abs() <= 1e-14);
         }
     }
