@@ -1,5 +1,7 @@
 //! Speed of the trade-off grid (issue figure: a 100 x 100 single-plan grid,
-//! p1 0.2% to 2% and p2 3% to 12%, in <= 0.2 s including the JSON output).
+//! p1 0.2% to 2% and p2 3% to 12%, in <= 0.2 s including the JSON output;
+//! issue 19: a 10 x 10 double-plan grid, p1 0.5% to 2% and p2 3% to 12%, at
+//! most 150 times a typical design as a whole process).
 
 // A bench may stop at an unexpected error: unwrap, expect and panic are
 // allowed here (the `[lints]` table of Cargo.toml denies them elsewhere).
@@ -47,6 +49,25 @@ fn benches(c: &mut Criterion) {
     let report = TradeoffReport::new(None, &grid);
     group.bench_function("100 x 100 single grid report, guarded", |b| {
         b.iter(|| black_box(report.check()))
+    });
+    group.finish();
+    let double = TradeoffRequest::new(
+        RiskGrid {
+            aql: axis("0.5%:2%:10"),
+            rql: axis("3%:12%:10"),
+            alpha: 0.05,
+            beta: 0.10,
+        },
+        model,
+        Scheme::Double,
+        Minimised::AsnAql,
+        None,
+    )
+    .unwrap();
+    let mut group = c.benchmark_group("tradeoff");
+    group.sample_size(10);
+    group.bench_function("10 x 10 double grid, solved", |b| {
+        b.iter(|| black_box(tradeoff(&double, &|| {})))
     });
     group.finish();
 }

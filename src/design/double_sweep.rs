@@ -41,6 +41,7 @@ use std::ops::RangeInclusive;
 
 use rayon::prelude::*;
 
+pub(super) use super::double_first::{FirstStage, Numbers};
 use crate::model::{Model, ModelKind};
 
 /// How many final acceptance numbers past the last improving one the
@@ -49,71 +50,6 @@ pub(super) const C2_PATIENCE: u64 = 3;
 
 /// Criterion values this close (relative) are ties.
 pub(super) const TIE: f64 = 1e-12;
-
-/// The numbers of a double plan: accept on the first sample at `d1 <= c1`,
-/// reject at `d1 >= r1`, and after the second sample accept when the
-/// cumulative count is at most `c2`.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub(super) struct Numbers {
-    pub(super) c1: u64,
-    pub(super) r1: u64,
-    pub(super) c2: u64,
-}
-
-/// The first stage of a double plan at one quality.
-pub(super) struct FirstStage {
-    /// The first acceptance number `c1`.
-    c1: u64,
-    /// `P(d1 <= c1)`.
-    pub(super) accept: f64,
-    /// `P(d1 >= r1)`.
-    pub(super) reject: f64,
-    /// `P(d1 = d)` for `d = c1 + 1 .. r1 - 1`.
-    pub(super) open: Vec<f64>,
-}
-
-impl FirstStage {
-    pub(super) fn new(model: &Model, n1: u64, c1: u64, r1: u64, p: f64) -> Self {
-        let w = model.window(n1, c1 + 1, r1 - 1, p, 0, 0);
-        FirstStage {
-            c1,
-            accept: w.cdf(c1),
-            reject: w.sf(r1 - 1),
-            open: (c1 + 1..r1).map(|d| w.pmf(d)).collect(),
-        }
-    }
-
-    /// `P(c1 < d1 < r1)`: the chance of a second sample.
-    pub(super) fn second_sample(&self) -> f64 {
-        self.open.iter().sum()
-    }
-
-    /// Cumulative acceptance and rejection probabilities of the plan at
-    /// quality `p` (this first stage's quality) with `n2` more units and
-    /// the final acceptance number `c2`: the first stage's decisions plus,
-    /// for each open count `d`, `P(d1 = d)` times the second sample's
-    /// tails at `c2 - d`. The hypergeometric second sample draws from what
-    /// the first left of the lot.
-    pub(super) fn outcome(&self, model: &Model, n1: u64, n2: u64, c2: u64, p: f64) -> (f64, f64) {
-        let c1 = self.c1;
-        let r1 = c1 + 1 + self.open.len() as u64;
-        let (mut acc, mut rej) = (self.accept, self.reject);
-        if model.forgets_the_past() {
-            let w = model.window(n2, c2 + 2 - r1, c2 - c1 - 1, p, 0, 0);
-            for (d, f) in (c1 + 1..r1).zip(&self.open) {
-                acc += f * w.cdf(c2 - d);
-                rej += f * w.sf(c2 - d);
-            }
-        } else {
-            for (d, f) in (c1 + 1..r1).zip(&self.open) {
-                let w = model.window(n2, c2 - d + 1, c2 - d, p, n1, d);
-                acc += f * w.cdf(c2 - d);
-                rej += f * w.sf(c2 - d);
-            }
-        }
-        (acc, rej)
-    }
-}
 
 /// One candidate plan and what it scored.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -131,7 +67,8 @@ pub(super) struct Candidate {
 impl Candidate {
     /// Whether `self` beats `other`: the smaller criterion; within [`TIE`]
     /// the smaller largest sample `n1 + n2`, then the smaller margin, then
-    /// the smaller `(c2, c1, r1, n1)`.
+    /// the smaller `(c2, c1, r1, n1)`, a first stage that cannot accept
+    /// (no `c1`) before every `c1`.
     pub(super) fn beats(&self, other: &Candidate) -> bool {
         let scale = self.value.abs().max(other.value.abs());
         if (self.value - other.value).abs() > TIE * scale {
@@ -162,9 +99,9 @@ pub(super) trait DoubleProblem: Sync {
     /// The largest sample `n1 + n2`.
     fn limit(&self) -> u64;
 
-    /// The first samples worth trying for `(c1, r1)`, from single-plan
-    /// bounds; `None` when there are none.
-    fn first_sample_range(&self, c1: u64, r1: u64) -> Option<(u64, u64)>;
+    /// The first samples worth trying for the numbers `k`, from
+    /// single-plan bounds; `None` when there are none.
+    fn first_sample_range(&self, k: Numbers) -> Option<(u64, u64)>;
 
     /// The per-`n1` data of the requirement's test.
     fn first(&self, n1: u64, k: Numbers) -> Self::First;
@@ -184,11 +121,17 @@ pub(super) trait DoubleProblem: Sync {
         None
     }
 
+    /// The first acceptance numbers searched with `c2`: every `c1` from 0
+    /// to `c2 - 1`.
+    fn first_acceptances(&self, c2: u64) -> Vec<Option<u64>> {
+        (0..c2).map(Some).collect()
+    }
+
     /// The first rejection numbers `r1` searched with `c1` and `c2`: every
-    /// one from `c1 + 2` (one count open after the first sample) to
-    /// `c2 + 1`.
-    fn first_rejections(&self, c1: u64, c2: u64) -> RangeInclusive<u64> {
-        c1 + 2..=c2 + 1
+    /// one from `c1 + 2` (one count open after the first sample; 1 for a
+    /// first stage that cannot accept) to `c2 + 1`.
+    fn first_rejections(&self, c1: Option<u64>, c2: u64) -> RangeInclusive<u64> {
+        c1.map_or(1, |c| c + 2)..=c2 + 1
     }
 
     /// Whether every plan `(n1, k, n2)` with `n2 >= lo2` certainly scores
@@ -261,10 +204,10 @@ fn bisect(mut bad: u64, mut good: u64, mut holds: impl FnMut(u64) -> bool) -> u6
 fn sweep<P: DoubleProblem>(problem: &P, k: Numbers, best: &mut Option<Candidate>) {
     let unit = problem.model().kind() != ModelKind::Poisson;
     let limit = problem.limit();
-    let Some((lo1, hi1)) = problem.first_sample_range(k.c1, k.r1) else {
+    let Some((lo1, hi1)) = problem.first_sample_range(k) else {
         return;
     };
-    let lo1 = lo1.max(if unit { k.c1 + 1 } else { 1 });
+    let lo1 = lo1.max(if unit { k.lowest_open() } else { 1 }).max(1);
     // Every criterion is at least n1.
     let below_bound = (bound(problem, best).ceil() as u64).saturating_sub(1);
     let hi1 = hi1.min(limit - 1).min(below_bound);
@@ -315,8 +258,9 @@ fn sweep<P: DoubleProblem>(problem: &P, k: Numbers, best: &mut Option<Candidate>
 /// The best plan of `problem`: `c2` runs up from 1 and stops
 /// [`C2_PATIENCE`] values after the last one that improved the best plan,
 /// and not before `start + C2_PATIENCE`. The numbers `(c1, r1)` of one
-/// `c2`, with `c1 < c2` and `c1 + 2 <= r1 <= c2 + 1`, are swept in
-/// parallel (with the problem's [`first_rejections`](DoubleProblem::first_rejections)),
+/// `c2` (the problem's [`first_acceptances`](DoubleProblem::first_acceptances)
+/// and [`first_rejections`](DoubleProblem::first_rejections)) are swept in
+/// parallel,
 /// each from the best plan of the smaller `c2`; the merge keeps the tie
 /// rule's winner, so the answer does not depend on the order.
 pub(super) fn search<P: DoubleProblem>(problem: &P, start: u64) -> Option<Candidate> {
@@ -325,7 +269,9 @@ pub(super) fn search<P: DoubleProblem>(problem: &P, start: u64) -> Option<Candid
     let mut c2 = 1;
     while c2 <= last_improved + C2_PATIENCE {
         let before = best;
-        let sets: Vec<Numbers> = (0..c2)
+        let sets: Vec<Numbers> = problem
+            .first_acceptances(c2)
+            .into_iter()
             .flat_map(|c1| {
                 problem
                     .first_rejections(c1, c2)

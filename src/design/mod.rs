@@ -9,6 +9,7 @@
 mod bracket;
 mod dispatch;
 mod double;
+mod double_first;
 mod double_sweep;
 mod error;
 mod limits;

@@ -22,6 +22,7 @@ pub(crate) mod normal;
 mod one_unit;
 mod poisson;
 mod risk;
+pub(crate) mod rows;
 mod saddle;
 mod tail;
 mod window;

@@ -16,14 +16,17 @@ use super::tail::{Terms, at_most_one, tails};
 /// `P(X = k)` for `k` in `lo..=hi`, with `below = P(X < lo)` and
 /// `above = P(X > hi)`; terms outside the distribution's support are left
 /// out of the run (the run is clamped to the support).
+///
+/// The terms and both tails lie in one buffer (one allocation, and one
+/// run of memory for the designers that read many windows).
 #[derive(Clone, Debug, PartialEq)]
 pub(crate) struct Window {
     lo: u64,
-    pmf: Vec<f64>,
-    /// `cdf[i] = P(X <= lo + i - 1)`, `i = 0..=len`.
-    cdf: Vec<f64>,
-    /// `sf[i] = P(X > lo + i - 1)`, `i = 0..=len`.
-    sf: Vec<f64>,
+    /// Terms in the run.
+    len: usize,
+    /// `P(X = lo + i)` for `i = 0..len`, then `P(X <= lo + i - 1)` for
+    /// `i = 0..=len`, then `P(X > lo + i - 1)` for `i = 0..=len`.
+    terms: Vec<f64>,
 }
 
 impl Window {
@@ -38,39 +41,41 @@ impl Window {
         Self::from_terms(0, Vec::new(), 0.0, 1.0)
     }
 
-    fn from_terms(lo: u64, pmf: Vec<f64>, below: f64, above: f64) -> Self {
-        let mut cdf = Vec::with_capacity(pmf.len() + 1);
+    fn from_terms(lo: u64, mut terms: Vec<f64>, below: f64, above: f64) -> Self {
+        let len = terms.len();
+        terms.reserve(2 * len + 2);
         let mut acc = below;
-        cdf.push(acc);
-        for &t in &pmf {
-            acc += t;
-            cdf.push(at_most_one(acc));
+        terms.push(acc);
+        for i in 0..len {
+            acc += terms[i];
+            terms.push(at_most_one(acc));
         }
-        let mut sf = vec![0.0; pmf.len() + 1];
+        let sf = terms.len();
+        terms.resize(sf + len + 1, 0.0);
         let mut acc = above;
-        sf[pmf.len()] = acc;
-        for (i, &t) in pmf.iter().enumerate().rev() {
-            acc += t;
-            sf[i] = at_most_one(acc);
+        terms[sf + len] = acc;
+        for i in (0..len).rev() {
+            acc += terms[i];
+            terms[sf + i] = at_most_one(acc);
         }
-        Window { lo, pmf, cdf, sf }
+        Window { lo, len, terms }
     }
 
-    /// Index into `cdf`/`sf` for the cut `k`, clamped to the run.
+    /// Index into the cuts for the cut `k`, clamped to the run.
     fn cut(&self, k: u64) -> usize {
         // k < lo - 1 is never asked except where the run was clamped to the
         // support, and there the clamped value is the right one.
-        (k + 1).saturating_sub(self.lo).min(self.pmf.len() as u64) as usize
+        (k + 1).saturating_sub(self.lo).min(self.len as u64) as usize
     }
 
     /// `P(X <= k)`.
     pub(crate) fn cdf(&self, k: u64) -> f64 {
-        self.cdf[self.cut(k)]
+        self.terms[self.len + self.cut(k)]
     }
 
     /// `P(X > k)`.
     pub(crate) fn sf(&self, k: u64) -> f64 {
-        self.sf[self.cut(k)]
+        self.terms[2 * self.len + 1 + self.cut(k)]
     }
 
     /// The run of terms: its first count and `P(X = k)` for the counts
@@ -83,9 +88,8 @@ impl Window {
     /// `P(X = k)`.
     pub(crate) fn pmf(&self, k: u64) -> f64 {
         k.checked_sub(self.lo)
-            .and_then(|i| self.pmf.get(i as usize))
-            .copied()
-            .unwrap_or(0.0)
+            .filter(|&i| i < self.len as u64)
+            .map_or(0.0, |i| self.terms[i as usize])
     }
 }
 

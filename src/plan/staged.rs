@@ -75,16 +75,23 @@ impl StagedPlan {
     }
 
     /// The double plan `(n1, c1, r1; n1 + n2, c2)` of a designer that has
-    /// already checked it against the model (`c1 + 2 <= r1 <= c2 + 1`,
+    /// already checked it against the model (`c1 + 2 <= r1 <= c2 + 1`, or
+    /// `1 <= r1 <= c2 + 1` for a first stage that cannot accept,
     /// `c1 < n1` and `c2 < n1 + n2` for the unit-count models, the whole
     /// sample within the lot).
-    pub(crate) fn double_checked_by_designer(n1: u64, c1: u64, r1: u64, n2: u64, c2: u64) -> Self {
-        debug_assert!(n1 >= 1 && n2 >= 1 && c1 + 2 <= r1 && r1 <= c2 + 1);
+    pub(crate) fn double_checked_by_designer(
+        n1: u64,
+        c1: Option<u64>,
+        r1: u64,
+        n2: u64,
+        c2: u64,
+    ) -> Self {
+        debug_assert!(n1 >= 1 && n2 >= 1 && c1.map_or(1, |c| c + 2) <= r1 && r1 <= c2 + 1);
         StagedPlan {
             stages: vec![
                 Stage {
                     n: n1,
-                    accept: Some(c1),
+                    accept: c1,
                     reject: r1,
                 },
                 Stage {

@@ -19,6 +19,7 @@ mod commands_doc;
 mod compare;
 mod demo_ledger;
 mod docs;
+mod double_family;
 mod draw;
 mod guards;
 mod layers;

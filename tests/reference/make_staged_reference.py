@@ -692,6 +692,11 @@ class Feasibility:
 # --------------------------------------------------------------------------
 
 
+def _lowest_open(c1):
+    """The lowest first count that goes on: c1 + 1, or 0 when c1 is None."""
+    return 0 if c1 is None else c1 + 1
+
+
 def double_stages(n1, c1, r1, n2, c2):
     """Stages of the double plan (n1, c1, r1, n2, c2)."""
     return [[n1, c1, r1], [n1 + n2, c2, c2 + 1]]
@@ -754,7 +759,9 @@ class DoubleSearch:
     """Exhaustive double-plan design over the box of the brief.
 
     Plans (n1, c1, r1, n2, c2) with 0 <= c1 < c2 <= 2 c_single + 4,
-    c1 + 2 <= r1 <= c2 + 1, 1 <= n1 <= n_single, 1 <= n2 <= 4 n_single
+    c1 + 2 <= r1 <= c2 + 1, and for asn-aql / asn-rql also first stages
+    that cannot accept (c1 = None: 1 <= r1 <= c2 + 1, the first sample
+    rejects at r1 or goes on), 1 <= n1 <= n_single, 1 <= n2 <= 4 n_single
     (n2 = ratio n1 when ``second_ratio`` is set), and for the unit-count
     models c1 < n1, c2 < n1 + n2, n1 + n2 <= N.
 
@@ -785,8 +792,9 @@ class DoubleSearch:
                     f" ratio={second_ratio}")
         self.feas = Feasibility(alpha, beta, self._mp_feasible)
         self._stage1 = {}  # hypergeometric asn-max: stage-1 pmf over D for one n1
-        self.triples = [(c1, r1, c2) for c2 in range(1, self.K + 1) for c1 in range(c2)
-                        for r1 in range(c1 + 2, c2 + 2)]
+        firsts = (lambda c2: ([None] if criterion != "asn-max" else []) + list(range(c2)))
+        self.triples = [(c1, r1, c2) for c2 in range(1, self.K + 1) for c1 in firsts(c2)
+                        for r1 in range(_lowest_open(c1) + 1, c2 + 2)]
 
     # -- 50-digit evaluations -------------------------------------------
     def _mp_eval(self, plan):
@@ -825,11 +833,12 @@ class DoubleSearch:
                 F2, S2 = count_cdf_sf(model, dd[:K + 1, None], n2s[None, :], q)
                 tabs.append((f1, F1, S1, F2, S2))
             for c1, r1, c2 in self.triples:
-                ds = np.arange(c1 + 1, r1)
+                ds = np.arange(_lowest_open(c1), r1)
                 ks = c2 - ds
                 (f1a, F1a, S1a, F2a, S2a), (f1b, F1b, S1b, F2b, S2b) = tabs
                 pr = S1a[:, r1 - 1][:, None] + f1a[:, ds] @ S2a[ks, :]
-                cr = F1b[:, c1][:, None] + f1b[:, ds] @ F2b[ks, :]
+                first = 0.0 if c1 is None else F1b[:, c1][:, None]
+                cr = first + f1b[:, ds] @ F2b[ks, :]
                 yield (n1s[:, None], n2s[None, :], (c1, r1, c2), pr, cr,
                        f1a[:, ds].sum(1)[:, None], f1b[:, ds].sum(1)[:, None])
             return
@@ -850,10 +859,11 @@ class DoubleSearch:
                 tabs.append((f1, F1, S1, F2, S2))
             (f1a, F1a, S1a, F2a, S2a), (f1b, F1b, S1b, F2b, S2b) = tabs
             for c1, r1, c2 in self.triples:
-                ds = np.arange(c1 + 1, r1)
+                ds = np.arange(_lowest_open(c1), r1)
                 ks = c2 - ds
                 pr = S1a[r1 - 1] + (f1a[ds][:, None] * S2a[ds, ks, :]).sum(0)
-                cr = F1b[c1] + (f1b[ds][:, None] * F2b[ds, ks, :]).sum(0)
+                first = 0.0 if c1 is None else F1b[c1]
+                cr = first + (f1b[ds][:, None] * F2b[ds, ks, :]).sum(0)
                 yield (np.array([[n1]]), n2s[None, :], (c1, r1, c2), pr[None, :], cr[None, :],
                        np.array([[f1a[ds].sum()]]), np.array([[f1b[ds].sum()]]))
 
@@ -890,7 +900,7 @@ class DoubleSearch:
         for n1, n2, (c1, r1, c2), pr, cr, cont1, cont2 in self._blocks():
             valid = np.ones(pr.shape, bool)
             if self.model != POI:
-                valid &= (n1 > c1) & (n1 + n2 > c2)
+                valid &= (n1 >= _lowest_open(c1)) & (n1 + n2 > c2)
             if self.ratio is not None:
                 valid &= n2 == self.ratio * n1
             sure, maybe = self.feas.masks(pr, cr)
@@ -911,7 +921,9 @@ class DoubleSearch:
             for i, j in zip(*np.nonzero(sel)):
                 a, b = int(n1[i, 0]), int(n2[0, j])
                 ratio = max(pr[i, j] / self.alpha, cr[i, j] / self.beta)
-                kept.append(Candidate(crit[i, j], a + b, ratio, (c2, c1, r1, a),
+                # A first stage that cannot accept comes before every c1.
+                kept.append(Candidate(crit[i, j], a + b, ratio,
+                                      (c2, -1 if c1 is None else c1, r1, a),
                                       (a, c1, r1, b, c2)))
         win, run, tied = select(kept, self._mp_ratio, self.notes, self.tag)
         return self._row(win, run, tied, n_feasible, time.perf_counter() - t0)

@@ -68,10 +68,12 @@ use super::design::{RectifyingPlan, RectifyingRow};
 use super::request::Protection;
 use super::single::SingleSearch;
 use crate::design::DesignError;
+use crate::design::double_first::Counts;
 use crate::design::double_sweep::{Candidate, DoubleProblem, FirstStage, Numbers, search};
 use crate::design::limits::MAX_DOUBLE_SINGLE_C;
 use crate::design::work::rectifying_double_work;
 use crate::model::Model;
+use crate::model::rows::Rows;
 use crate::plan::{StagedPlan, curve_maximum};
 
 /// The minimum-inspection problem for the shared double sweep.
@@ -82,6 +84,9 @@ struct DoubleRectifying<'a> {
     n_min: Mutex<HashMap<u64, Option<u64>>>,
     /// The best single plan's ATI, or the lot size.
     initial: f64,
+    /// The counts at the process average and the LTPD, computed once for
+    /// the search.
+    rows: Rows,
 }
 
 impl DoubleRectifying<'_> {
@@ -92,20 +97,23 @@ impl DoubleRectifying<'_> {
     /// `S(p)`, the units a lot at quality `p` saves against 100%
     /// inspection, from the first stage at `p`:
     /// `a1 (N - n1) + a2 (N - n1 - n2) = Pa (N - n1 - n2) + a1 n2`.
-    fn saving(&self, first: &FirstStage, k: Numbers, n1: u64, n2: u64, p: f64) -> f64 {
-        let pa = first.outcome(self.model(), n1, n2, k.c2, p).0;
+    fn saving(&self, source: Counts<'_>, first: &FirstStage, n1: u64, n2: u64, p: f64) -> f64 {
+        let pa = first.outcome(source, n1, n2, p).0;
         pa * (self.lot() - (n1 + n2) as f64) + first.accept * n2 as f64
     }
 
     fn ati(&self, k: Numbers, n1: u64, n2: u64) -> f64 {
         let p = self.single.request.process_average();
-        let first = FirstStage::new(self.model(), n1, k.c1, k.r1, p);
-        self.lot() - self.saving(&first, k, n1, n2, p)
+        let stored = Counts::Stored(&self.rows);
+        let first = FirstStage::new(stored, n1, k, p);
+        self.lot() - self.saving(stored, &first, n1, n2, p)
     }
 
     fn aoq(&self, k: Numbers, n1: u64, n2: u64, p: f64) -> f64 {
-        let first = FirstStage::new(self.model(), n1, k.c1, k.r1, p);
-        p * self.saving(&first, k, n1, n2, p) / self.lot()
+        // The AOQ curve's qualities are asked once each: not stored.
+        let once = Counts::Once(self.model());
+        let first = FirstStage::new(once, n1, k, p);
+        p * self.saving(once, &first, n1, n2, p) / self.lot()
     }
 }
 
@@ -126,7 +134,9 @@ impl DoubleProblem for DoubleRectifying<'_> {
 
     /// From the single plan's `n_min(c1)` up; the sweep stops below the
     /// best ATI.
-    fn first_sample_range(&self, c1: u64, _r1: u64) -> Option<(u64, u64)> {
+    fn first_sample_range(&self, k: Numbers) -> Option<(u64, u64)> {
+        // Dodge and Romig's first stage always accepts at d1 <= c1.
+        let c1 = k.c1?;
         // A panic elsewhere cannot leave a half-written entry: take the map
         // as it is.
         let cache = || self.n_min.lock().unwrap_or_else(|e| e.into_inner());
@@ -144,9 +154,12 @@ impl DoubleProblem for DoubleRectifying<'_> {
 
     fn first(&self, n1: u64, k: Numbers) -> Option<FirstStage> {
         match self.single.request.protection() {
-            Protection::Ltpd(point) => {
-                Some(FirstStage::new(self.model(), n1, k.c1, k.r1, point.quality))
-            }
+            Protection::Ltpd(point) => Some(FirstStage::new(
+                Counts::Stored(&self.rows),
+                n1,
+                k,
+                point.quality,
+            )),
             Protection::Aoql(_) => None,
         }
     }
@@ -161,7 +174,9 @@ impl DoubleProblem for DoubleRectifying<'_> {
     ) -> bool {
         match self.single.request.protection() {
             Protection::Ltpd(point) => first.as_ref().is_some_and(|f| {
-                f.outcome(self.model(), n1, n2, k.c2, point.quality).0 <= point.risk
+                f.outcome(Counts::Stored(&self.rows), n1, n2, point.quality)
+                    .0
+                    <= point.risk
             }),
             Protection::Aoql(limit) => {
                 if let Some(q) = *memo
@@ -179,7 +194,7 @@ impl DoubleProblem for DoubleRectifying<'_> {
     }
 
     /// Dodge and Romig's form: the first sample rejects only beyond `c2`.
-    fn first_rejections(&self, _c1: u64, c2: u64) -> RangeInclusive<u64> {
+    fn first_rejections(&self, _c1: Option<u64>, c2: u64) -> RangeInclusive<u64> {
         c2 + 1..=c2 + 1
     }
 
@@ -188,14 +203,15 @@ impl DoubleProblem for DoubleRectifying<'_> {
     /// there at best: `ATI >= N - a1 (N - n1) - P(c1 < d1 < r1) (N - n1 - lo2)`.
     fn beyond(&self, k: Numbers, n1: u64, lo2: u64, bound: f64) -> bool {
         let p = self.single.request.process_average();
-        let first = FirstStage::new(self.model(), n1, k.c1, k.r1, p);
+        let stored = Counts::Stored(&self.rows);
+        let first = FirstStage::new(stored, n1, k, p);
         let lot = self.lot();
         let rest = lot - n1 as f64;
         let quick = lot - first.accept * rest - first.second_sample() * (rest - lo2 as f64);
         if quick > bound {
             return true;
         }
-        lot - self.saving(&first, k, n1, lo2, p) > bound
+        lot - self.saving(stored, &first, n1, lo2, p) > bound
     }
 
     fn score(
@@ -267,6 +283,7 @@ pub(super) fn design_double_rectifying(
         single,
         n_min: Mutex::new(rows.iter().map(|r| (r.c, r.n_min)).collect()),
         initial: best_single.map_or(request.lot_size() as f64, |s| s.ati),
+        rows: Rows::new(request.model()),
     };
     let Some(best) = search(&problem, start) else {
         return match best_single {
