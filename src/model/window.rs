@@ -82,7 +82,7 @@ impl Window {
     /// from there on (every count outside it has `P(X = k) = 0` as far as
     /// [`Window::pmf`] tells).
     pub(crate) fn run(&self) -> (u64, &[f64]) {
-        (self.lo, &self.pmf)
+        (self.lo, &self.terms[..self.len])
     }
 
     /// `P(X = k)`.
