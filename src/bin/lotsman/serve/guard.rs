@@ -146,9 +146,27 @@ pub fn posted(
 pub fn queried(
     query: Result<Query<HashMap<String, String>>, QueryRejection>,
 ) -> Result<HashMap<String, String>, Refusal> {
-    query.map(|Query(fields)| fields).map_err(|_| {
-        Refusal::bad("the address's fields could not be read; send the form again from the page")
-    })
+    query.map(|Query(fields)| fields).map_err(|_| unreadable())
+}
+
+/// The fields of a query string in order, a name given more than once
+/// (ticked boxes) kept each time.
+pub fn queried_pairs(
+    query: Result<Query<Vec<(String, String)>>, QueryRejection>,
+) -> Result<Vec<(String, String)>, Refusal> {
+    query.map(|Query(pairs)| pairs).map_err(|_| unreadable())
+}
+
+fn unreadable() -> Refusal {
+    Refusal::bad("the address's fields could not be read; send the form again from the page")
+}
+
+/// The field `key` of a form or query, trimmed; empty when absent.
+pub fn field(fields: &HashMap<String, String>, key: &str) -> String {
+    fields
+        .get(key)
+        .map(|v| v.trim().to_string())
+        .unwrap_or_default()
 }
 
 #[cfg(test)]

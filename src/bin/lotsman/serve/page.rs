@@ -110,6 +110,15 @@ impl Refusal {
     pub fn message(&self) -> &str {
         &self.message
     }
+
+    /// The same refusal with the workspace's paths in its words made
+    /// relative to it.
+    pub fn relative_to(self, workspace: &super::workspace::Workspace) -> Self {
+        Refusal {
+            message: workspace.relative_words(&self.message),
+            ..self
+        }
+    }
 }
 
 impl From<Error> for Refusal {
@@ -177,5 +186,64 @@ pub fn shown_outcome<T>(
             None,
             Some(workspace.relative_words(r.message())),
         ),
+    }
+}
+
+/// `bytes` as a download of `content_type` named `name` (a sheet, a
+/// table).
+pub fn download(content_type: &'static str, name: &str, bytes: Vec<u8>) -> Response {
+    let disposition = HeaderValue::from_str(&attachment(name))
+        .unwrap_or_else(|_| HeaderValue::from_static("attachment"));
+    (
+        [
+            (header::CONTENT_TYPE, HeaderValue::from_static(content_type)),
+            (header::CONTENT_DISPOSITION, disposition),
+        ],
+        bytes,
+    )
+        .into_response()
+}
+
+/// The Content-Disposition of a download named `name`: a plain ASCII
+/// name for every browser, and the name itself, percent-encoded, for
+/// those that read it (RFC 6266).
+fn attachment(name: &str) -> String {
+    let plain: String = name
+        .chars()
+        .map(|c| {
+            if c.is_ascii_graphic() && c != '"' && c != '\\' || c == ' ' {
+                c
+            } else {
+                '_'
+            }
+        })
+        .collect();
+    let encoded: String = name
+        .bytes()
+        .map(|b| {
+            if b.is_ascii_alphanumeric() || b"-._~".contains(&b) {
+                (b as char).to_string()
+            } else {
+                format!("%{b:02X}")
+            }
+        })
+        .collect();
+    format!("attachment; filename=\"{plain}\"; filename*=UTF-8''{encoded}")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_download_name_is_quoted_and_encoded() {
+        assert_eq!(
+            attachment("cover-fit.pdf"),
+            "attachment; filename=\"cover-fit.pdf\"; filename*=UTF-8''cover-fit.pdf"
+        );
+        assert_eq!(
+            attachment("a\"b é.pdf"),
+            "attachment; filename=\"a_b _.pdf\"; filename*=UTF-8''a%22b%20%C3%A9.pdf"
+        );
     }
 }

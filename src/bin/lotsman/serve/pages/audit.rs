@@ -28,7 +28,7 @@ use super::plans::SOURCES;
 use super::verified::{VerifyRow, relative, verify_named};
 use crate::commands::verify::is_ledger;
 use crate::out::report_bytes;
-use crate::serve::guard::queried;
+use crate::serve::guard::{field, queried};
 use crate::serve::page::{off_thread, render};
 use crate::serve::state::AppState;
 use crate::serve::workspace::Workspace;
@@ -99,12 +99,7 @@ pub async fn show(
         Ok(f) => f,
         Err(r) => return r.into_response(),
     };
-    let text = |key: &str| {
-        fields
-            .get(key)
-            .map(|v| v.trim().to_string())
-            .unwrap_or_default()
-    };
+    let text = |key: &str| field(&fields, key);
     let f = Fields {
         check: text("check"),
         folder: text("folder"),

@@ -10,7 +10,6 @@ use std::path::PathBuf;
 use askama::Template;
 use axum::extract::rejection::QueryRejection;
 use axum::extract::{Query, State};
-use axum::http::{HeaderValue, header};
 use axum::response::{IntoResponse, Response};
 use lotsman::{
     CompareReport, Error, Format, HistoryFormat, InputError, format_quality, format_significant,
@@ -22,7 +21,8 @@ use crate::cli::groups::{FormatFlag, ModelFlags, OutputFlags};
 use crate::cli::values::{ModelArg, ReportFormatArg};
 use crate::commands::compare::{Compared, compared};
 use crate::out::report_bytes;
-use crate::serve::page::{Refusal, off_thread, render, shown_outcome};
+use crate::serve::guard::queried_pairs;
+use crate::serve::page::{Refusal, download, off_thread, render, shown_outcome};
 use crate::serve::state::AppState;
 use crate::serve::workspace::Workspace;
 
@@ -261,11 +261,9 @@ pub async fn show(
     State(state): State<AppState>,
     query: Result<Query<Vec<(String, String)>>, QueryRejection>,
 ) -> Response {
-    let Ok(Query(pairs)) = query else {
-        return Refusal::bad(
-            "the address's fields could not be read; send the form again from the page",
-        )
-        .into_response();
+    let pairs = match queried_pairs(query) {
+        Ok(pairs) => pairs,
+        Err(r) => return r.into_response(),
     };
     let fields = CompareFields::of(pairs);
     let outcome = if fields.asked() {
@@ -305,11 +303,9 @@ pub async fn csv(
     State(state): State<AppState>,
     query: Result<Query<Vec<(String, String)>>, QueryRejection>,
 ) -> Response {
-    let Ok(Query(pairs)) = query else {
-        return Refusal::bad(
-            "the address's fields could not be read; send the form again from the page",
-        )
-        .into_response();
+    let pairs = match queried_pairs(query) {
+        Ok(pairs) => pairs,
+        Err(r) => return r.into_response(),
     };
     let fields = CompareFields::of(pairs);
     if !fields.asked() {
@@ -317,31 +313,13 @@ pub async fn csv(
             .into_response();
     }
     let worker = state.clone();
-    let made = tokio::task::spawn_blocking(move || {
+    let made = off_thread("the comparison", move || {
         comparison(worker.workspace(), &fields)
             .and_then(|made| report_bytes(&made.report, Format::Csv))
     })
     .await;
     match made {
-        Ok(Ok(bytes)) => (
-            [
-                (
-                    header::CONTENT_TYPE,
-                    HeaderValue::from_static("text/csv; charset=utf-8"),
-                ),
-                (
-                    header::CONTENT_DISPOSITION,
-                    HeaderValue::from_static("attachment; filename=\"comparison.csv\""),
-                ),
-            ],
-            bytes,
-        )
-            .into_response(),
-        Ok(Err(e)) => {
-            let r = Refusal::from(e);
-            Refusal::bad(state.workspace().relative_words(r.message())).into_response()
-        }
-        Err(_) => Refusal::failed("the comparison stopped before it finished; send the form again")
-            .into_response(),
+        Ok(bytes) => download("text/csv; charset=utf-8", "comparison.csv", bytes),
+        Err(r) => r.relative_to(state.workspace()).into_response(),
     }
 }

@@ -16,7 +16,7 @@ use lotsman::{
 };
 
 use crate::out::report_bytes;
-use crate::serve::guard::queried;
+use crate::serve::guard::{field, queried};
 use crate::serve::page::{off_thread, render, shown_outcome};
 use crate::serve::state::AppState;
 use crate::serve::workspace::Workspace;
@@ -71,12 +71,7 @@ pub async fn show(
         Ok(f) => f,
         Err(r) => return r.into_response(),
     };
-    let text = |key: &str| {
-        fields
-            .get(key)
-            .map(|v| v.trim().to_string())
-            .unwrap_or_default()
-    };
+    let text = |key: &str| field(&fields, key);
     let (ledger, class) = (text("ledger"), text("class"));
     let outcome = if ledger.is_empty() {
         None

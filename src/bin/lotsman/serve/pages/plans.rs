@@ -10,7 +10,7 @@ use std::collections::HashMap;
 use askama::Template;
 use axum::extract::rejection::QueryRejection;
 use axum::extract::{Query, State};
-use axum::http::{HeaderValue, StatusCode, header};
+use axum::http::StatusCode;
 use axum::response::{IntoResponse, Response};
 use lotsman::{
     Error, Paper, SourceText, format_quality, format_significant, sheet_of_text, shell_word,
@@ -18,8 +18,8 @@ use lotsman::{
 };
 
 use super::verified::{VerifyRow, verify_named};
-use crate::serve::guard::queried;
-use crate::serve::page::{Refusal, off_thread, render};
+use crate::serve::guard::{field, queried};
+use crate::serve::page::{download, off_thread, render};
 use crate::serve::state::AppState;
 use crate::serve::workspace::Workspace;
 
@@ -119,10 +119,7 @@ pub async fn view(
     query: Result<Query<HashMap<String, String>>, QueryRejection>,
 ) -> Response {
     let file = match queried(query) {
-        Ok(f) => f
-            .get("file")
-            .map(|v| v.trim().to_string())
-            .unwrap_or_default(),
+        Ok(f) => field(&f, "file"),
         Err(r) => return r.into_response(),
     };
     let worker = state.clone();
@@ -223,14 +220,11 @@ pub async fn sheet(
     query: Result<Query<HashMap<String, String>>, QueryRejection>,
 ) -> Response {
     let file = match queried(query) {
-        Ok(f) => f
-            .get("file")
-            .map(|v| v.trim().to_string())
-            .unwrap_or_default(),
+        Ok(f) => field(&f, "file"),
         Err(r) => return r.into_response(),
     };
     let worker = state.clone();
-    let made = tokio::task::spawn_blocking(move || -> Result<(String, Vec<u8>), Error> {
+    let made = off_thread("the sheet", move || -> Result<(String, Vec<u8>), Error> {
         let path = worker.workspace().file(&file)?;
         let read = SourceText::read(&path)?;
         let (sheet, _) = sheet_of_text(&read, Paper::A4, false)?;
@@ -242,69 +236,7 @@ pub async fn sheet(
     })
     .await;
     match made {
-        Ok(Ok((name, pdf))) => {
-            let disposition = HeaderValue::from_str(&attachment(&name))
-                .unwrap_or_else(|_| HeaderValue::from_static("attachment; filename=\"sheet.pdf\""));
-            (
-                [
-                    (
-                        header::CONTENT_TYPE,
-                        HeaderValue::from_static("application/pdf"),
-                    ),
-                    (header::CONTENT_DISPOSITION, disposition),
-                ],
-                pdf,
-            )
-                .into_response()
-        }
-        Ok(Err(e)) => Refusal::bad(state.workspace().relative_words(Refusal::from(e).message()))
-            .into_response(),
-        Err(_) => {
-            Refusal::failed("the sheet stopped before it was drawn; try again").into_response()
-        }
-    }
-}
-
-/// The Content-Disposition of a download named `name`: a plain ASCII
-/// name for every browser, and the name itself, percent-encoded, for
-/// those that read it (RFC 6266).
-fn attachment(name: &str) -> String {
-    let plain: String = name
-        .chars()
-        .map(|c| {
-            if c.is_ascii_graphic() && c != '"' && c != '\\' || c == ' ' {
-                c
-            } else {
-                '_'
-            }
-        })
-        .collect();
-    let encoded: String = name
-        .bytes()
-        .map(|b| {
-            if b.is_ascii_alphanumeric() || b"-._~".contains(&b) {
-                (b as char).to_string()
-            } else {
-                format!("%{b:02X}")
-            }
-        })
-        .collect();
-    format!("attachment; filename=\"{plain}\"; filename*=UTF-8''{encoded}")
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn a_download_name_is_quoted_and_encoded() {
-        assert_eq!(
-            attachment("cover-fit.pdf"),
-            "attachment; filename=\"cover-fit.pdf\"; filename*=UTF-8''cover-fit.pdf"
-        );
-        assert_eq!(
-            attachment("a\"b é.pdf"),
-            "attachment; filename=\"a_b _.pdf\"; filename*=UTF-8''a%22b%20%C3%A9.pdf"
-        );
+        Ok((name, pdf)) => download("application/pdf", &name, pdf),
+        Err(r) => r.relative_to(state.workspace()).into_response(),
     }
 }
