@@ -178,6 +178,7 @@ async fn inspect_three_lots(walk: &Walk) {
         if i > 0 {
             walk.fill("#decision form.dock", "lot", lot).await;
             walk.click("#decision form.dock button[type=submit]").await;
+            walk.wait_url(&format!("lot={lot}")).await;
             walk.wait_text(".inforce h2", "").await;
         }
         walk.fill("form.counts", "class_1", found).await;

@@ -128,14 +128,44 @@ impl Walk {
 
     /// Types `value` into the field named `name` of the form `form` (a
     /// CSS selector), replacing what it held.
+    ///
+    /// A field that a swap or a page load replaces between finding it and
+    /// typing (a stale element) is found again, until [`PATIENCE`].
     pub async fn fill(&self, form: &str, name: &str, value: &str) {
-        let field = self
-            .client
-            .find(Locator::Css(&format!("{form} [name=\"{name}\"]")))
-            .await
-            .unwrap_or_else(|e| panic!("no field {name} in {form}: {e}"));
-        field.clear().await.unwrap();
-        field.send_keys(value).await.unwrap();
+        let css = format!("{form} [name=\"{name}\"]");
+        let started = Instant::now();
+        loop {
+            let typed = match self.client.find(Locator::Css(&css)).await {
+                Ok(field) => match field.clear().await {
+                    Ok(()) => field.send_keys(value).await.map_err(|e| e.to_string()),
+                    Err(e) => Err(e.to_string()),
+                },
+                Err(e) => Err(e.to_string()),
+            };
+            match typed {
+                Ok(()) => return,
+                Err(e) if started.elapsed() > PATIENCE => panic!("no field {name} in {form}: {e}"),
+                Err(_) => tokio::time::sleep(Duration::from_millis(50)).await,
+            }
+        }
+    }
+
+    /// Waits until the page's address holds `part` (a page loaded by a
+    /// plain form, not swapped in place).
+    pub async fn wait_url(&self, part: &str) {
+        let started = Instant::now();
+        loop {
+            if let Ok(url) = self.client.current_url().await
+                && url.as_str().contains(part)
+            {
+                return;
+            }
+            assert!(
+                started.elapsed() <= PATIENCE,
+                "the address never held {part}"
+            );
+            tokio::time::sleep(Duration::from_millis(50)).await;
+        }
     }
 
     /// Chooses `value` in the select named `name` of `form`.
