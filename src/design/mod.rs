@@ -23,6 +23,8 @@ mod single;
 mod tradeoff;
 mod variables;
 mod work;
+#[cfg(test)]
+mod work_calibration;
 
 pub use dispatch::{
     AsnSummary, Nearby, Solution, VariablesSolution, design_for, solve, solve_listing,
@@ -48,6 +50,6 @@ pub use tradeoff::{
 };
 pub use variables::{VariablesDesign, design_variables};
 pub use work::{
-    design_work, double_work, multiple_work, rectifying_work, sequential_work, single_work,
-    variables_design_work,
+    design_work, double_work, multiple_work, rectifying_double_work, rectifying_work,
+    sequential_work, single_work, variables_design_work,
 };
