@@ -14,10 +14,9 @@
 use super::bracket::{
     acceptance_number_for_ratio, aoql_factor, poisson_mean_at, sample_for_mean, z_upper,
 };
-use super::dispatch::Nearby;
 use super::limits::{MAX_AOQL_ACCEPTANCE_NUMBER, MAX_DOUBLE_SINGLE_C};
 use super::rectifying::request::{Protection, RectifyingRequest};
-use super::request::{Criterion, DesignRequest, Scheme};
+use super::request::{Criterion, DesignRequest, Nearby, Scheme};
 use crate::budget::Work;
 use crate::model::{Model, ModelKind, RiskPair, normal};
 use crate::plan::{LimitKind, MAX_ACCEPTANCE_NUMBER, Specification, tail_terms};
