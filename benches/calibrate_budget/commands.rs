@@ -11,7 +11,8 @@ use lotsman::{
 
 use crate::{Case, model, qualities};
 
-/// Grids, minimum-inspection designs and sheets.
+/// Grids (timed with their table, as `tradeoff` prints it), minimum-inspection
+/// designs and sheets.
 pub(crate) fn commands(cases: &mut Vec<Case>) {
     let binomial = model(ModelKind::Binomial, None);
     let lot = model(ModelKind::Hypergeometric, Some(100_000));
@@ -118,7 +119,7 @@ pub(crate) fn commands(cases: &mut Vec<Case>) {
     sheets(cases);
 }
 
-/// Sheets of single, double and item-by-item plans.
+/// Sheets of a sequential, a single Poisson and a long item-by-item plan.
 fn sheets(cases: &mut Vec<Case>) {
     for path in [
         "plans/tpw-sleeve-hardness.yaml",
