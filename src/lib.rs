@@ -87,9 +87,10 @@ pub use design::{
     SchemeOptions, Sensitivity, SingleDesign, Solution, Steps, TradeoffCell, TradeoffGrid,
     TradeoffRequest, VariablesDesign, VariablesRequest, VariablesSolution, WaldApproximation,
     design_double, design_for, design_multiple, design_rectifying, design_sequential,
-    design_single, design_variables, design_work, double_work, multiple_work, rectifying_work,
-    sensitivity, sequential_work, single_alternatives, single_work, solve, solve_listing,
-    solve_variables, tradeoff, tradeoff_work, variables_design_work, wald_lines,
+    design_single, design_variables, design_work, double_work, multiple_work,
+    rectifying_double_work, rectifying_work, sensitivity, sequential_work, single_alternatives,
+    single_work, solve, solve_listing, solve_variables, tradeoff, tradeoff_work,
+    variables_design_work, wald_lines,
 };
 pub use draw::{
     CartonShare, DRAW_GENERATOR, Draw, DrawKind, DrawRequest, DrawnUnit, Generator, NestedPart,

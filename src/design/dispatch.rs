@@ -3,13 +3,11 @@
 //! the same points, the nearby alternatives, the ASN against the single
 //! plan, Wald's approximations).
 
-use std::ops::RangeInclusive;
-
 use serde::Serialize;
 
 use super::double::design_double;
 use super::multiple::design_multiple;
-use super::request::{Design, DesignRequest, Scheme, VariablesRequest};
+use super::request::{Design, DesignRequest, Nearby, Scheme, VariablesRequest};
 use super::sequential::{WaldApproximation, design_sequential};
 use super::single::{Alternative, SingleDesign, design_single, single_alternatives};
 use super::variables::{VariablesDesign, design_variables};
@@ -17,37 +15,6 @@ use super::work::single_work;
 use crate::design::DesignError;
 use crate::model::{Model, RiskPair};
 use crate::plan::{StagedPlan, largest_asn, measures};
-
-/// How many acceptance numbers past the chosen one the alternatives list.
-const ALTERNATIVES_PAST_OPTIMUM: u64 = 3;
-
-/// How many acceptance numbers below the chosen one the window of nearby
-/// plans lists: with the chosen one and the three past it, the twelve rows
-/// of the report's table.
-const WINDOW_BELOW_OPTIMUM: u64 = 8;
-
-/// Which nearby plans (alternatives) a single design lists.
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
-pub enum Nearby {
-    /// The acceptance numbers from eight below the chosen one (or 0) to
-    /// three past it: twelve pairs of searches whatever the plan.
-    #[default]
-    Window,
-    /// Every acceptance number from 0 to three past the chosen one: a pair
-    /// of searches for each, thousands at close points in a large lot.
-    All,
-}
-
-impl Nearby {
-    /// The acceptance numbers listed around the chosen `c`.
-    fn range(self, c: u64) -> RangeInclusive<u64> {
-        let first = match self {
-            Nearby::Window => c.saturating_sub(WINDOW_BELOW_OPTIMUM),
-            Nearby::All => 0,
-        };
-        first..=c + ALTERNATIVES_PAST_OPTIMUM
-    }
-}
 
 /// The average sample numbers of a staged plan against the single plan
 /// for the same points.

@@ -23,10 +23,11 @@ mod single;
 mod tradeoff;
 mod variables;
 mod work;
+#[cfg(test)]
+mod work_calibration;
 
 pub use dispatch::{
-    AsnSummary, Nearby, Solution, VariablesSolution, design_for, solve, solve_listing,
-    solve_variables,
+    AsnSummary, Solution, VariablesSolution, design_for, solve, solve_listing, solve_variables,
 };
 pub use double::design_double;
 pub use error::DesignError;
@@ -38,7 +39,9 @@ pub use rectifying::{
     AOQL_PLAN_LTPD_RISK, Protection, RectifyingDesign, RectifyingPlan, RectifyingRequest,
     RectifyingRow, design_rectifying,
 };
-pub use request::{Criterion, Design, DesignRequest, Scheme, SchemeOptions, VariablesRequest};
+pub use request::{
+    Criterion, Design, DesignRequest, Nearby, Scheme, SchemeOptions, VariablesRequest,
+};
 pub use sensitivity::{Input, Moved, Sensitivity, Steps, sensitivity};
 pub use sequential::{WaldApproximation, design_sequential, wald_lines};
 pub use single::{Alternative, SingleDesign, design_single, single_alternatives};
@@ -48,6 +51,6 @@ pub use tradeoff::{
 };
 pub use variables::{VariablesDesign, design_variables};
 pub use work::{
-    design_work, double_work, multiple_work, rectifying_work, sequential_work, single_work,
-    variables_design_work,
+    design_work, double_work, multiple_work, rectifying_double_work, rectifying_work,
+    sequential_work, single_work, variables_design_work,
 };

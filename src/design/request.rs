@@ -4,6 +4,7 @@
 //! ([`solve`](super::solve)) build on these.
 
 use std::fmt;
+use std::ops::RangeInclusive;
 
 use serde::{Deserialize, Serialize};
 
@@ -248,5 +249,36 @@ impl VariablesRequest {
     /// The attributes model of the comparison plan, with the lot size.
     pub fn model(&self) -> &Model {
         &self.model
+    }
+}
+
+/// How many acceptance numbers past the chosen one the alternatives list.
+const ALTERNATIVES_PAST_OPTIMUM: u64 = 3;
+
+/// How many acceptance numbers below the chosen one the window of nearby
+/// plans lists: with the chosen one and the three past it, the twelve rows
+/// of the report's table.
+const WINDOW_BELOW_OPTIMUM: u64 = 8;
+
+/// Which nearby plans (alternatives) a single design lists.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub enum Nearby {
+    /// The acceptance numbers from eight below the chosen one (or 0) to
+    /// three past it: twelve pairs of searches whatever the plan.
+    #[default]
+    Window,
+    /// Every acceptance number from 0 to three past the chosen one: a pair
+    /// of searches for each, thousands at close points in a large lot.
+    All,
+}
+
+impl Nearby {
+    /// The acceptance numbers listed around the chosen `c`.
+    pub(crate) fn range(self, c: u64) -> RangeInclusive<u64> {
+        let first = match self {
+            Nearby::Window => c.saturating_sub(WINDOW_BELOW_OPTIMUM),
+            Nearby::All => 0,
+        };
+        first..=c + ALTERNATIVES_PAST_OPTIMUM
     }
 }

@@ -49,7 +49,6 @@ pub use variables_evaluation::{
     VariablesEvaluation, VariablesPoint, evaluate_variables, variables_point, variables_qualities,
 };
 pub(crate) use work::{
-    ROW_OUTPUT, evaluation_advice, evaluation_advice_for, most_variables_qualities, tail_terms,
-    walk_parts,
+    evaluation_advice, evaluation_advice_for, most_variables_qualities, tail_terms, walk_parts,
 };
 pub use work::{evaluation_work, variables_evaluation_work, walk_seconds};

@@ -43,22 +43,24 @@ const SHEET_CURTAILED_WALKS: f64 = 250.0;
 const SHEET_WALKS: f64 = 600.0;
 
 /// Seconds to lay out and write a sheet's PDF, whatever its plan: about
-/// 8 ms (1001 sheets of the demo plans, audits included, took 11.7 s of
-/// processor time).
-const SHEET_LAYOUT: f64 = 0.01;
+/// 3 ms since the font programs are deflated once per process (the sheet
+/// of a single Poisson plan of 36 units took 3.8 ms of processor time, its
+/// audit included; 4 December 2026).
+const SHEET_LAYOUT: f64 = 0.003;
 
 /// Seconds per class of a standard-indexed source for the table lookups
-/// and the small OC walks of its plans: well under a millisecond each.
-const STANDARD_CLASS: f64 = 0.001;
+/// and the small OC walks of its plans: about half a millisecond each
+/// (verifying the demo's source of three classes took 1.5 ms more than a
+/// single plan's).
+const STANDARD_CLASS: f64 = 5.0e-4;
 
-/// Seconds the sheet of a standard-indexed source takes apart from its
-/// scheme curve: the assessment, the layout and the PDF, with room to
-/// spare (the demo's three classes, scheme curve included, took 2.4 s in
-/// a debug build, which runs this code ten times slower or more). The
+/// Seconds the sheet of a standard-indexed source takes: the assessment,
+/// the layout and the PDF (the demo's three classes, scheme curve
+/// included, took 0.13 s of processor time in a release build). The
 /// scheme curve checks its own estimate
 /// ([`ClassScheme::work`](crate::ClassScheme::work)) against the budget
 /// before it is drawn, and the sheet notes it instead when it is beyond.
-const STANDARD_SHEET: f64 = 0.5;
+const STANDARD_SHEET: f64 = 0.13;
 
 /// The qualities an evaluation takes when none are asked for.
 const DEFAULT_POINTS: usize = 10;
@@ -102,7 +104,7 @@ pub fn source_work(source: &PlanSource, job: SourceJob) -> Work {
     };
     let recorded = || source.recorded_plan(&request.model).ok();
     match job {
-        SourceJob::Verify | SourceJob::Judge => design_work(&request, false),
+        SourceJob::Verify | SourceJob::Judge => design_work(&request, None),
         SourceJob::Sheet => {
             let render = recorded().map_or(Work::default(), |plan| {
                 let (outcomes, curtailed) = walk_parts(&plan, &request.model);
@@ -112,11 +114,11 @@ pub fn source_work(source: &PlanSource, job: SourceJob) -> Work {
                         + SHEET_LAYOUT,
                 )
             });
-            design_work(&request, false).and(render)
+            design_work(&request, None).and(render)
         }
         // The audit re-solves the source before the evaluation.
         SourceJob::Evaluate { points, decided_at } => {
-            design_work(&request, false).and(recorded().map_or(Work::default(), |plan| {
+            design_work(&request, None).and(recorded().map_or(Work::default(), |plan| {
                 evaluation_work(
                     &plan,
                     &request.model,
