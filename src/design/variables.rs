@@ -104,10 +104,10 @@ impl Quantiles {
 }
 
 /// The smallest risk a two-limit, sigma-unknown plan is designed for: its
-/// mean-centred OC is integrated to about `1e-10` (relative), so a
+/// OC at a split is integrated to about `1e-10` (relative), so a
 /// producer's risk found as `1 - Pa` is good to about `1e-10` absolute, one
 /// percent of this floor.
-const CENTRED_RISK_FLOOR: f64 = 1e-8;
+const SPLIT_RISK_FLOOR: f64 = 1e-8;
 
 /// The interval `(lo, hi)` of the constant at `n`; empty when `lo > hi`
 /// (kept, crossed, where its ends are known, as a score for the search
@@ -121,7 +121,7 @@ type Interval = Option<(f64, f64)>;
 /// [`DesignError::NoPlan`] when two limits are so close for the known sigma
 /// that a centred process already exceeds the AQL (or the RQL), or when a
 /// two-limit plan with sigma unknown is asked for a risk below `1e-8`
-/// (its mean-centred OC, a quadrature, cannot vouch for less);
+/// (its OC at a split, a quadrature, cannot vouch for less);
 /// [`DesignError::BeyondCap`] when `n` would exceed 10^4.
 pub fn design_variables(
     spec: &Specification,
@@ -133,13 +133,13 @@ pub fn design_variables(
             ("beta", risks.consumer().risk),
         ]
         .iter()
-        .filter(|(_, r)| *r < CENTRED_RISK_FLOOR)
+        .filter(|(_, r)| *r < SPLIT_RISK_FLOOR)
         .map(|(name, r)| format!("{name} = {}", Short(*r)))
         .collect();
         if !below.is_empty() {
             return Err(DesignError::NoPlan {
                 reason: format!(
-                    "with two limits and sigma unknown the plan is held to the mean-centred configuration, whose OC is a quadrature good to about 1e-10, and {} {} below the {CENTRED_RISK_FLOOR:e} it can vouch for",
+                    "with two limits and sigma unknown the plan is held to the worst split of the nonconforming between the limits, whose OC is a quadrature good to about 1e-10, and {} {} below the {SPLIT_RISK_FLOOR:e} it can vouch for",
                     below.join(" and "),
                     if below.len() == 1 { "is" } else { "are" }
                 ),
