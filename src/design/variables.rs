@@ -109,6 +109,10 @@ impl Quantiles {
 /// percent of this floor.
 const SPLIT_RISK_FLOOR: f64 = 1e-8;
 
+/// Two limits, sigma unknown: the starting `n` over the large-sample
+/// approximation's.
+const TWO_LIMIT_GUESS: f64 = 1.06;
+
 /// The interval `(lo, hi)` of the constant at `n`; empty when `lo > hi`
 /// (kept, crossed, where its ends are known, as a score for the search
 /// over `n`) or `None`.
@@ -186,6 +190,11 @@ pub fn design_variables(
     };
     let meets = |i: &Interval| matches!(i, Some((lo, hi)) if lo <= hi);
     let guess = match (spec.limit(), spec.sigma()) {
+        // The worst split needs 5 to 10 percent more than the one-limit
+        // approximation (1.06 its median over the reference's 15 designs),
+        // and each n costs a worst-split search: starting there ends most
+        // searches after two or three n.
+        (LimitKind::Both, None) => (TWO_LIMIT_GUESS * large_sample_n(&z)).ceil() as u64,
         (LimitKind::Both, _) | (_, None) => large_sample_n(&z).ceil() as u64,
         (_, Some(_)) => known_sigma_n,
     };
