@@ -148,8 +148,9 @@ impl VariablesPlan {
     }
 
     /// `Pa(p)`: the OC at quality `p`, `lowest_quality < p < 1`. For two
-    /// limits with sigma unknown this is the one-sided configuration; see
-    /// [`VariablesPlan::pa_centred`] for the other.
+    /// limits with sigma unknown this is the one-sided end, all of `p`
+    /// beyond one limit; see [`VariablesPlan::pa_at_split`] for the other
+    /// splits and [`VariablesPlan::worst_split`] for the worst.
     pub fn pa(&self, p: f64) -> f64 {
         let nf = self.n as f64;
         let z = normal::upper_quantile(p);
@@ -176,7 +177,7 @@ impl VariablesPlan {
     /// `1 - Pa(p)`, the probability of rejection, from the rejection tails
     /// themselves rather than as `1 -` the OC: where `Pa` rounds to 1 (a
     /// producer's risk of `5e-17` or `1e-30`) it keeps its digits. For two
-    /// limits with sigma unknown this is the one-sided configuration, as
+    /// limits with sigma unknown this is the one-sided end, as
     /// [`VariablesPlan::pa`].
     ///
     /// ```text
