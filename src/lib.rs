@@ -125,13 +125,14 @@ pub use plan::{
     MAX_SAMPLE_SIZE, MAX_STAGES, MAX_VARIABLES_SAMPLE, MIN_COMPARED, MeasurementJudgement,
     Measures, NORMALITY_LEVEL, SIGMA_LEVEL, SequentialLines, SideStatistic, SigmaKind,
     Specification, Stage, StageOutcomes, StagedPlan, StatisticsDecision, VariablesEvaluation,
-    VariablesPlan, VariablesPoint, acceptance_probability, anderson_darling, aoql,
-    average_outgoing_quality, check_compared_count, compare, curtailed_outcomes, curve_maximum,
-    decide_from_statistics, default_qualities, evaluate, evaluate_variables, evaluate_with_decided,
-    evaluation_work, fraction_beyond_known, fraction_beyond_unknown, indifference_quality, judge,
-    judge_cumulative, judge_measurements, largest_asn, mean_and_sd, measures, parse_measurements,
-    parse_stage, quality_at_pa, stage_outcomes, statistic_for_fraction, variables_evaluation_work,
-    variables_point, variables_qualities, walk_seconds,
+    VariablesPlan, VariablesPoint, Worst, WorstSplit, acceptance_probability, anderson_darling,
+    aoql, average_outgoing_quality, check_compared_count, compare, curtailed_outcomes,
+    curve_maximum, decide_from_statistics, default_qualities, evaluate, evaluate_variables,
+    evaluate_with_decided, evaluation_work, fraction_beyond_known, fraction_beyond_unknown,
+    indifference_quality, judge, judge_cumulative, judge_measurements, largest_asn, mean_and_sd,
+    measures, parse_measurements, parse_stage, quality_at_pa, stage_outcomes,
+    statistic_for_fraction, variables_evaluation_work, variables_point, variables_qualities,
+    walk_seconds,
 };
 pub use print::{
     ChartKind, ContourLabel, HASH_PREFIX, HistoryFormat, MAX_HISTORY_LOTS, MAX_SHEET_BYTES,
@@ -152,7 +153,8 @@ pub use report::{
     StandardEvaluationReport, StandardJudgeReport, StandardPlansReport, StandardPoint,
     StandardReport, StatusReport, TradeoffCellReport, TradeoffReport, TrueRisksReport,
     TwoPointReport, VariablesDesignReport, VariablesEvaluationReport, VariablesReport,
-    VerificationReport, VerifyEntry, VerifyStatus, variables_rule, words, write_report,
+    VerificationReport, VerifyEntry, VerifyStatus, WorstSplitReport, variables_rule, words,
+    write_report,
 };
 pub use source::{
     Audit, Audited, ClassSource, Description, Difference, Discrepancy, Edition, Error,

@@ -9,6 +9,8 @@ mod measurements;
 mod measures;
 mod oc;
 mod sequential;
+mod specification;
+mod split_oc;
 mod stage;
 mod staged;
 mod statistics_decision;
@@ -41,10 +43,12 @@ pub use measures::{
 pub(crate) use oc::Walk;
 pub use oc::{StageOutcomes, curtailed_outcomes, stage_outcomes};
 pub use sequential::{ItemRun, SequentialLines};
+pub use specification::{LimitKind, SigmaKind, Specification};
+pub use split_oc::{Worst, WorstSplit};
 pub use stage::{Stage, parse_stage};
 pub use staged::StagedPlan;
 pub use statistics_decision::{SideStatistic, StatisticsDecision, decide_from_statistics};
-pub use variables::{LimitKind, SigmaKind, Specification, VariablesPlan};
+pub use variables::VariablesPlan;
 pub use variables_evaluation::{
     VariablesEvaluation, VariablesPoint, evaluate_variables, variables_point, variables_qualities,
 };

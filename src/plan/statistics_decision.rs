@@ -18,7 +18,8 @@ use serde::Serialize;
 
 use super::estimate::{fraction_beyond_known, fraction_beyond_unknown};
 use super::judge::Decision;
-use super::variables::{LimitKind, VariablesPlan};
+use super::specification::LimitKind;
+use super::variables::VariablesPlan;
 
 /// The statistics of one side of the specification.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]

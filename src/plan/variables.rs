@@ -32,227 +32,33 @@
 //! of that interval.
 //!
 //! Two limits, sigma unknown: `Pa` depends on how `p` splits between the
-//! tails, not on `p` alone. The plan is held to two configurations, the
-//! ends of that family:
-//! - *one-sided*: all of `p` beyond one limit, the other tail vanishing;
-//!   then `p_hat <= M` is `Q >= k_M` with `k_M` from
-//!   [`statistic_for_fraction`](super::estimate::statistic_for_fraction),
-//!   and `Pa` is the one-limit noncentral t formula;
-//! - *centred*: the mean at the midpoint and `p/2` in each tail; `Pa` is a
-//!   one-dimensional integral over `s` of the normal probability of the
-//!   accepted interval of `xbar`, by adaptive Gauss–Kronrod quadrature.
+//! tails, not on `p` alone. The plan is held to the worst split: the
+//! producer's risk is the largest rejection probability over splits at
+//! the AQL, the consumer's the largest `Pa` over splits at the RQL
+//! ([`split_oc`](super::split_oc)). The end with all of `p` beyond one limit
+//! is the one-limit noncentral t formula with the equivalent `k_M` from
+//! [`statistic_for_fraction`](super::estimate::statistic_for_fraction).
 //!
-//! Known limitation: intermediate splits are not always between the two
-//! (the reference script's `split_check`, tests/data/README.md: by about
-//! 1e-6 at n = 43, up to 4e-4 at n <= 18), and at n = 3 the accepted
-//! means can form two intervals. Holding the plan to the worst split is
-//! the open fix.
+//! Known limitation: at n = 3 the accepted means can form two intervals;
+//! the OC there takes them as one (off by up to about 2e-4).
 
 use std::fmt;
+use std::sync::Arc;
 
-use serde::{Deserialize, Serialize};
-
-use super::estimate::{fraction_beyond_known, fraction_beyond_unknown, statistic_for_fraction};
+use super::estimate::{fraction_beyond_known, statistic_for_fraction};
 use super::limits::MAX_VARIABLES_SAMPLE;
+use super::specification::{LimitKind, Specification};
+use super::split_oc::{HalfWidths, Worst, WorstSplit, pa_at_split, worst_split, worst_split_near};
 use crate::input::InputError;
 use crate::model::NoncentralT;
-use crate::model::noncentral_t::ScaleDensity;
 use crate::model::normal;
-use crate::numeric::{brent, integrate};
-
-/// Whether the process standard deviation is known or estimated from each
-/// sample.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "lowercase")]
-pub enum SigmaKind {
-    /// Known from a stable process record: the statistic divides by sigma.
-    Known,
-    /// Estimated: the statistic divides by the sample standard deviation.
-    Unknown,
-}
-
-impl SigmaKind {
-    /// The name used on the command line, in YAML and in JSON.
-    pub fn name(self) -> &'static str {
-        match self {
-            SigmaKind::Known => "known",
-            SigmaKind::Unknown => "unknown",
-        }
-    }
-}
-
-/// Which specification limits the characteristic has.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "lowercase")]
-pub enum LimitKind {
-    /// A lower limit `L` only.
-    Lower,
-    /// An upper limit `U` only.
-    Upper,
-    /// Both `L` and `U`.
-    Both,
-}
-
-impl LimitKind {
-    /// The name used on the command line, in YAML and in JSON.
-    pub fn name(self) -> &'static str {
-        match self {
-            LimitKind::Lower => "lower",
-            LimitKind::Upper => "upper",
-            LimitKind::Both => "both",
-        }
-    }
-}
-
-/// The measured characteristic's specification: its limits and what is
-/// known of its standard deviation. Valid means: the limits the kind needs
-/// are given and finite (and no others), `L < U`, and a known sigma is a
-/// finite positive number.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub struct Specification {
-    sigma: Option<f64>,
-    limit: LimitKind,
-    lower: Option<f64>,
-    upper: Option<f64>,
-}
-
-impl Specification {
-    /// Validates a specification.
-    ///
-    /// # Errors
-    /// [`InputError`] naming the missing, misplaced or out-of-range value.
-    pub fn new(
-        sigma: SigmaKind,
-        sigma_value: Option<f64>,
-        limit: LimitKind,
-        lower: Option<f64>,
-        upper: Option<f64>,
-    ) -> Result<Self, InputError> {
-        let sigma = match (sigma, sigma_value) {
-            (SigmaKind::Known, Some(v)) if v.is_finite() && v > 0.0 => Some(v),
-            (SigmaKind::Known, Some(v)) => {
-                return Err(InputError::out_of_range(
-                    "sigma value (--sigma-value)",
-                    v,
-                    "a finite number above 0, in the unit of the measurements",
-                ));
-            }
-            (SigmaKind::Known, None) => {
-                return Err(InputError::Inconsistent(
-                    "sigma known needs its value: give --sigma-value S (sigma_value in the plan source)"
-                        .to_string(),
-                ));
-            }
-            (SigmaKind::Unknown, Some(_)) => {
-                return Err(InputError::Inconsistent(
-                    "sigma unknown is estimated from each sample; drop --sigma-value (sigma_value), or use sigma known"
-                        .to_string(),
-                ));
-            }
-            (SigmaKind::Unknown, None) => None,
-        };
-        let need = |name: &str, value: Option<f64>, wanted: bool| -> Result<(), InputError> {
-            match (value, wanted) {
-                (Some(v), true) if v.is_finite() => Ok(()),
-                (Some(v), true) => Err(InputError::out_of_range(name, v, "a finite number")),
-                (None, true) => Err(InputError::Inconsistent(format!(
-                    "the {} limit needs its value: give {name}",
-                    limit.name()
-                ))),
-                (Some(_), false) => Err(InputError::Inconsistent(format!(
-                    "{name} was given, but the limit is {}; use --limit both for two limits",
-                    limit.name()
-                ))),
-                (None, false) => Ok(()),
-            }
-        };
-        need(
-            "--lower L (lower)",
-            lower,
-            matches!(limit, LimitKind::Lower | LimitKind::Both),
-        )?;
-        need(
-            "--upper U (upper)",
-            upper,
-            matches!(limit, LimitKind::Upper | LimitKind::Both),
-        )?;
-        if let (Some(l), Some(u)) = (lower, upper)
-            && l >= u
-        {
-            return Err(InputError::Inconsistent(format!(
-                "the lower limit {l} must be below the upper limit {u}"
-            )));
-        }
-        Ok(Specification {
-            sigma,
-            limit,
-            lower,
-            upper,
-        })
-    }
-
-    /// The known sigma, or `None` when it is estimated.
-    pub fn sigma(&self) -> Option<f64> {
-        self.sigma
-    }
-
-    /// Known or unknown.
-    pub fn sigma_kind(&self) -> SigmaKind {
-        match self.sigma {
-            Some(_) => SigmaKind::Known,
-            None => SigmaKind::Unknown,
-        }
-    }
-
-    /// Which limits.
-    pub fn limit(&self) -> LimitKind {
-        self.limit
-    }
-
-    /// The lower limit `L`.
-    pub fn lower(&self) -> Option<f64> {
-        self.lower
-    }
-
-    /// The upper limit `U`.
-    pub fn upper(&self) -> Option<f64> {
-        self.upper
-    }
-
-    /// Sigma known, two limits: half the tolerance in standard deviations,
-    /// `D = (U - L) / (2 sigma)`.
-    pub fn half_width(&self) -> Option<f64> {
-        match (self.sigma, self.lower, self.upper) {
-            (Some(s), Some(l), Some(u)) => Some((u - l) / (2.0 * s)),
-            _ => None,
-        }
-    }
-
-    /// The least fraction nonconforming a process can have under this
-    /// specification: `2 Phi(-D)` with the mean centred, for two limits and
-    /// a known sigma; 0 otherwise.
-    pub fn lowest_quality(&self) -> f64 {
-        self.half_width().map_or(0.0, |d| 2.0 * normal::cdf(-d))
-    }
-
-    /// The smallest sample the rule is defined for: 1 (one limit, sigma
-    /// known), 2 (one limit with `s`, or two limits with sigma known: the
-    /// estimator needs `n - 1 > 0`), 3 (two limits with `s`: the beta
-    /// estimator needs `n/2 - 1 > 0`).
-    pub fn smallest_sample(&self) -> u64 {
-        match (self.limit, self.sigma) {
-            (LimitKind::Both, None) => 3,
-            (LimitKind::Both, Some(_)) | (_, None) => 2,
-            (_, Some(_)) => 1,
-        }
-    }
-}
+use crate::numeric::brent;
 
 /// A variables plan: sample size and acceptance constant (`k` for one
 /// limit, `M` for two) for a specification. It exists only if valid: `n`
 /// within `smallest_sample ..= 10^4`, `k` finite with `|k| <= 40`, `M`
 /// strictly between 0 and 1/2.
-#[derive(Clone, Copy, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct VariablesPlan {
     spec: Specification,
     n: u64,
@@ -261,6 +67,9 @@ pub struct VariablesPlan {
     /// interval of `(xbar - mid) / sigma` (`None`: nothing is accepted);
     /// sigma unknown, the equivalent one-sided `k_M`.
     derived: Option<f64>,
+    /// Two limits, sigma unknown: the accepted half-width of the sample
+    /// mean as a function of `s`, shared by every split and quality.
+    half_widths: Option<Arc<HalfWidths>>,
 }
 
 impl VariablesPlan {
@@ -277,7 +86,7 @@ impl VariablesPlan {
                 &format!("{least} to {MAX_VARIABLES_SAMPLE} for this specification"),
             ));
         }
-        let two = spec.limit == LimitKind::Both;
+        let two = spec.limit() == LimitKind::Both;
         if two && !(constant > 0.0 && constant < 0.5) {
             return Err(InputError::out_of_range(
                 "maximum allowable fraction M",
@@ -298,11 +107,14 @@ impl VariablesPlan {
             (true, Some(d)) => accepted_half_width(d, n, constant),
             (true, None) => Some(statistic_for_fraction(constant, n, false)),
         };
+        let half_widths =
+            (two && spec.sigma().is_none()).then(|| Arc::new(HalfWidths::new(n, constant)));
         Ok(VariablesPlan {
             spec,
             n,
             constant,
             derived,
+            half_widths,
         })
     }
 
@@ -318,30 +130,31 @@ impl VariablesPlan {
 
     /// One limit: the acceptance constant `k`.
     pub fn k(&self) -> Option<f64> {
-        (self.spec.limit != LimitKind::Both).then_some(self.constant)
+        (self.spec.limit() != LimitKind::Both).then_some(self.constant)
     }
 
     /// Two limits: the maximum allowable fraction `M`.
     pub fn m(&self) -> Option<f64> {
-        (self.spec.limit == LimitKind::Both).then_some(self.constant)
+        (self.spec.limit() == LimitKind::Both).then_some(self.constant)
     }
 
     /// Two limits, sigma unknown: the one-sided statistic `k_M` at which
     /// the estimate equals `M`.
     pub fn one_sided_k(&self) -> Option<f64> {
-        match (self.spec.limit, self.spec.sigma) {
+        match (self.spec.limit(), self.spec.sigma()) {
             (LimitKind::Both, None) => self.derived,
             _ => None,
         }
     }
 
     /// `Pa(p)`: the OC at quality `p`, `lowest_quality < p < 1`. For two
-    /// limits with sigma unknown this is the one-sided configuration; see
-    /// [`VariablesPlan::pa_centred`] for the other.
+    /// limits with sigma unknown this is the one-sided end, all of `p`
+    /// beyond one limit; see [`VariablesPlan::pa_at_split`] for the other
+    /// splits and [`VariablesPlan::worst_split`] for the worst.
     pub fn pa(&self, p: f64) -> f64 {
         let nf = self.n as f64;
         let z = normal::upper_quantile(p);
-        match (self.spec.limit, self.spec.sigma, self.spec.half_width()) {
+        match (self.spec.limit(), self.spec.sigma(), self.spec.half_width()) {
             (LimitKind::Both, Some(_), Some(d)) => match self.derived {
                 None => 0.0,
                 Some(h) => {
@@ -364,7 +177,7 @@ impl VariablesPlan {
     /// `1 - Pa(p)`, the probability of rejection, from the rejection tails
     /// themselves rather than as `1 -` the OC: where `Pa` rounds to 1 (a
     /// producer's risk of `5e-17` or `1e-30`) it keeps its digits. For two
-    /// limits with sigma unknown this is the one-sided configuration, as
+    /// limits with sigma unknown this is the one-sided end, as
     /// [`VariablesPlan::pa`].
     ///
     /// ```text
@@ -375,7 +188,7 @@ impl VariablesPlan {
     pub fn reject(&self, p: f64) -> f64 {
         let nf = self.n as f64;
         let z = normal::upper_quantile(p);
-        match (self.spec.limit, self.spec.sigma, self.spec.half_width()) {
+        match (self.spec.limit(), self.spec.sigma(), self.spec.half_width()) {
             (LimitKind::Both, Some(_), Some(d)) => match self.derived {
                 None => 1.0,
                 Some(h) => {
@@ -397,31 +210,102 @@ impl VariablesPlan {
 
     /// The producer's and consumer's risks the plan achieves at the
     /// qualities `p1` and `p2`: the larger probability of rejection at
-    /// `p1` and the larger `Pa` at `p2` over the configurations the plan
-    /// is held to, each from its own tail ([`VariablesPlan::reject`]).
+    /// `p1` and the larger `Pa` at `p2` over the splits of the lot's
+    /// fraction between the limits, each from its own tail
+    /// ([`VariablesPlan::reject`]).
     pub fn achieved_risks(&self, p1: f64, p2: f64) -> (f64, f64) {
-        let producer = match self.pa_centred(p1) {
-            Some(centred) => self.reject(p1).max(1.0 - centred),
-            None => self.reject(p1),
-        };
-        (producer, self.pa_bounds(p2).1)
+        self.achieved_risks_and_splits(p1, p2).0
+    }
+
+    /// [`VariablesPlan::achieved_risks`] with, for two limits and sigma
+    /// unknown, the splits where they are reached (producer's, then
+    /// consumer's).
+    pub fn achieved_risks_and_splits(
+        &self,
+        p1: f64,
+        p2: f64,
+    ) -> ((f64, f64), Option<(WorstSplit, WorstSplit)>) {
+        match (
+            self.worst_split(p1, Worst::Lowest),
+            self.worst_split(p2, Worst::Highest),
+        ) {
+            (Some(low), Some(high)) => {
+                // The one-sided end from its own tail, which keeps the
+                // digits of a risk that 1 - Pa would lose.
+                let producer = if low.share == 0.0 {
+                    self.reject(p1)
+                } else {
+                    1.0 - low.pa
+                };
+                ((producer, high.pa), Some((low, high)))
+            }
+            _ => ((self.reject(p1), self.pa(p2)), None),
+        }
+    }
+
+    /// Two limits, sigma unknown: `Pa(p)` with the share `share` of `p`
+    /// beyond the lower limit (`0 < share < 1`), by the integral of
+    /// [`split_oc`](super::split_oc). `None` for the other plans, whose OC
+    /// depends on `p` alone.
+    pub fn pa_at_split(&self, p: f64, share: f64) -> Option<f64> {
+        self.half_widths
+            .as_ref()
+            .map(|h| pa_at_split(h, self.n, p, share))
     }
 
     /// Two limits, sigma unknown: `Pa(p)` with the mean centred between the
-    /// limits and `p/2` beyond each. `None` for the other plans, whose OC
-    /// depends on `p` alone.
+    /// limits and `p/2` beyond each (the split 1/2).
     pub fn pa_centred(&self, p: f64) -> Option<f64> {
-        (self.spec.limit == LimitKind::Both && self.spec.sigma.is_none())
-            .then(|| centred_acceptance(self.n, self.constant, p))
+        self.pa_at_split(p, 0.5)
     }
 
-    /// The smaller and larger `Pa` over the configurations the plan is
-    /// held to (equal for every plan but two limits with sigma unknown).
+    /// Two limits, sigma unknown: the split of `p` with the smallest
+    /// ([`Worst::Lowest`]) or largest ([`Worst::Highest`]) `Pa`, the
+    /// one-sided end (share 0) included. `None` for the other plans.
+    pub fn worst_split(&self, p: f64, worst: Worst) -> Option<WorstSplit> {
+        let inside = self.worst_inside(p, worst)?;
+        let one = self.pa(p);
+        let one_worse = match worst {
+            Worst::Lowest => one <= inside.pa,
+            Worst::Highest => one >= inside.pa,
+        };
+        Some(if one_worse {
+            WorstSplit {
+                share: 0.0,
+                pa: one,
+            }
+        } else {
+            inside
+        })
+    }
+
+    /// The worst split strictly inside `(0, 1/2]`, the one-sided end left
+    /// out (the designer takes that end from the noncentral t quantiles).
+    pub(crate) fn worst_inside(&self, p: f64, worst: Worst) -> Option<WorstSplit> {
+        let h = self.half_widths.as_ref()?;
+        Some(worst_split(|w| pa_at_split(h, self.n, p, w), worst))
+    }
+
+    /// [`VariablesPlan::worst_inside`] searched only near the share
+    /// `around`, a worst split found at a nearby plan.
+    pub(crate) fn worst_near(&self, p: f64, worst: Worst, around: f64) -> Option<WorstSplit> {
+        let h = self.half_widths.as_ref()?;
+        Some(worst_split_near(
+            |w| pa_at_split(h, self.n, p, w),
+            worst,
+            around,
+        ))
+    }
+
+    /// The smaller and larger `Pa` over the splits of `p` (equal for
+    /// every plan but two limits with sigma unknown).
     pub fn pa_bounds(&self, p: f64) -> (f64, f64) {
-        let pa = self.pa(p);
-        match self.pa_centred(p) {
-            Some(c) => (pa.min(c), pa.max(c)),
-            None => (pa, pa),
+        match (
+            self.worst_split(p, Worst::Lowest),
+            self.worst_split(p, Worst::Highest),
+        ) {
+            (Some(low), Some(high)) => (low.pa, high.pa),
+            _ => (self.pa(p), self.pa(p)),
         }
     }
 }
@@ -437,8 +321,8 @@ impl fmt::Display for VariablesPlan {
             f,
             " (sigma {}, {} limit{})",
             self.spec.sigma_kind().name(),
-            self.spec.limit.name(),
-            if self.spec.limit == LimitKind::Both {
+            self.spec.limit().name(),
+            if self.spec.limit() == LimitKind::Both {
                 "s"
             } else {
                 ""
@@ -471,43 +355,4 @@ fn mean_offset(d: f64, p: f64) -> f64 {
         return 0.0;
     }
     brent(|y| fraction(y) - p, 0.0, d + 40.0, 1e-14 * (1.0 + d)).unwrap_or(0.0)
-}
-
-/// Two limits, sigma unknown, mean centred, `p/2` in each tail: with
-/// sigma = 1 and the limits at `-D, D`, `D = z_{p/2}`,
-///
-/// ```text
-/// Pa = ∫ f_S(s) [Phi(sqrt(n) h(s)) - Phi(-sqrt(n) h(s))] ds
-/// ```
-///
-/// where `|xbar| <= h(s)` is where `p_hat_U + p_hat_L <= M` for a sample
-/// with `s`. The estimate at `xbar = 0` reaches `M` at
-/// `s_max = D / k_{M/2}`; beyond it nothing is accepted. Near `s_max`,
-/// `h ~ sqrt(s_max - s)`, so the integral is taken in `u` with
-/// `s = s_max - u^2`, where the integrand is smooth.
-fn centred_acceptance(n: u64, m: f64, p: f64) -> f64 {
-    let d = normal::upper_quantile(0.5 * p);
-    let root_n = (n as f64).sqrt();
-    let density = ScaleDensity::new(n - 1);
-    let (lo, hi) = density.bulk();
-    let s_max = d / statistic_for_fraction(0.5 * m, n, false);
-    if s_max <= lo {
-        return 0.0;
-    }
-    let accepted = |s: f64| -> f64 {
-        let estimate = |y: f64| {
-            fraction_beyond_unknown((d - y) / s, n) + fraction_beyond_unknown((d + y) / s, n)
-        };
-        let h = if estimate(0.0) > m {
-            0.0
-        } else {
-            brent(|y| estimate(y) - m, 0.0, d, 1e-13 * (1.0 + d)).unwrap_or(0.0)
-        };
-        density.pdf(s) * (1.0 - 2.0 * normal::cdf(-root_n * h))
-    };
-    if s_max >= hi {
-        return integrate(accepted, lo, hi, 4, 1e-10).clamp(0.0, 1.0);
-    }
-    let top = (s_max - lo).sqrt();
-    integrate(|u| 2.0 * u * accepted(s_max - u * u), 0.0, top, 4, 1e-10).clamp(0.0, 1.0)
 }

@@ -111,7 +111,7 @@ pub fn evaluate_variables(
     let quality = smooth_maximum(&aoq, lowest, ceiling);
     let indifference = bisect_quality(|p| plan.pa(p) <= 0.5, lowest, ceiling);
     Ok(VariablesEvaluation {
-        plan: *plan,
+        plan: plan.clone(),
         lot_size,
         points: qualities
             .iter()

@@ -14,8 +14,8 @@
 use crate::budget::{MEMORY_BUDGET, TIME_BUDGET, Work};
 use crate::model::{Model, ModelKind};
 
+use super::specification::{LimitKind, Specification};
 use super::staged::StagedPlan;
-use super::variables::{LimitKind, Specification};
 
 /// Seconds per cell of the OC recursion (one open state carried into one
 /// next state): 3 ns, from the item-by-item walks of the calibration.

@@ -54,6 +54,6 @@ pub use self::standard_judge::StandardJudgeReport;
 pub use self::standard_plans::StandardPlansReport;
 pub use self::status::{NextClassPlan, NextPlan, StageJson, StatusReport};
 pub use self::tradeoff::{CostReport, TradeoffCellReport, TradeoffReport};
-pub use self::variables_design::VariablesDesignReport;
+pub use self::variables_design::{VariablesDesignReport, WorstSplitReport};
 pub use self::variables_evaluation::VariablesEvaluationReport;
 pub use self::verification::{VerificationReport, VerifyEntry, VerifyStatus};

@@ -16,7 +16,7 @@ use crate::design::VariablesSolution;
 use crate::model::ModelKind;
 use crate::numeric::{format_quality, format_significant};
 use crate::plain::escape_controls;
-use crate::plan::{LimitKind, SigmaKind, VariablesPlan};
+use crate::plan::{LimitKind, SigmaKind, VariablesPlan, WorstSplit};
 use crate::source::tool_version;
 
 /// What `design` reports for a variables plan.
@@ -39,6 +39,9 @@ pub struct VariablesDesignReport {
     pub producer: PointReport,
     /// The consumer's point and achieved risk.
     pub consumer: PointReport,
+    /// Two limits, sigma unknown: the split of the nonconforming between
+    /// the tails at which each risk is reached; `null` otherwise.
+    pub worst_split: Option<WorstSplitReport>,
     /// The sample size the same points need with sigma known.
     pub known_sigma_n: u64,
     /// Sigma unknown, one limit: the large-sample approximation of `n`.
@@ -52,6 +55,17 @@ pub struct VariablesDesignReport {
     pub notes: Vec<String>,
     /// Tool and version.
     pub solved_by: String,
+}
+
+/// The worst splits of a two-limit, sigma-unknown design: each the share
+/// of the nonconforming beyond the lower limit (0 to 1/2; the mirror
+/// image is as bad) and `Pa` there.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct WorstSplitReport {
+    /// At the AQL: the split with the lowest `Pa`.
+    pub producer: WorstSplit,
+    /// At the RQL: the split with the highest `Pa`.
+    pub consumer: WorstSplit,
 }
 
 impl VariablesDesignReport {
@@ -89,10 +103,22 @@ impl VariablesDesignReport {
                 d.plan.n()
             ));
         }
-        if two && d.plan.spec().sigma().is_none() {
-            notes.push(
-                "with two limits and sigma estimated, Pa depends on how the nonconforming split between the tails; the plan meets both points with all beyond one limit and with the mean centred".to_string(),
-            );
+        if let Some((producer, consumer)) = d.worst_splits {
+            let split = |w: WorstSplit| {
+                if w.share == 0.0 {
+                    "all beyond one limit".to_string()
+                } else {
+                    format!(
+                        "{} beyond one limit and the rest beyond the other",
+                        format_quality(w.share, false)
+                    )
+                }
+            };
+            notes.push(format!(
+                "with two limits and sigma estimated, Pa depends on how the nonconforming split between the limits; the plan meets both points at the worst split: at the AQL {}, at the RQL {}",
+                split(producer),
+                split(consumer)
+            ));
         }
         notes.push(
             "the rule rests on normally distributed measurements: judge each lot from its readings (judge with --measurements), which also tests them for normality".to_string(),
@@ -108,10 +134,13 @@ impl VariablesDesignReport {
             scheme: "variables",
             model: model.kind(),
             lot_size: model.lot_size(),
-            plan: d.plan,
+            plan: d.plan.clone(),
             variables: VariablesReport::new(&d.plan, Some(d.range)),
             producer,
             consumer,
+            worst_split: d
+                .worst_splits
+                .map(|(producer, consumer)| WorstSplitReport { producer, consumer }),
             known_sigma_n: d.known_sigma_n,
             large_sample_n: d.approximate_n,
             attributes_plan: attributes.map(|a| SinglePlanReport { n: a.n, c: a.c }),

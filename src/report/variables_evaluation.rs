@@ -39,7 +39,7 @@ impl From<&VariablesEvaluation> for VariablesEvaluationReport {
     fn from(e: &VariablesEvaluation) -> Self {
         VariablesEvaluationReport {
             variables: VariablesReport::new(&e.plan, None),
-            plan: e.plan,
+            plan: e.plan.clone(),
             lot_size: e.lot_size,
             points: e.points.clone(),
             aoql: e.aoql,

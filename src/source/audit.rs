@@ -327,8 +327,8 @@ pub(crate) fn attributes_risks(plan: &StagedPlan, model: &Model, risks: &RiskPai
 }
 
 /// The producer's and consumer's risks of a variables plan at the points,
-/// each in the configuration that is worse for that party (as the designer
-/// holds them).
+/// each at the split of the nonconforming between two limits that is worse
+/// for that party (as the designer holds them).
 pub(crate) fn variables_risks(plan: &VariablesPlan, risks: &RiskPair) -> (f64, f64) {
     plan.achieved_risks(risks.producer().quality, risks.consumer().quality)
 }

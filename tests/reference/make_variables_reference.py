@@ -32,8 +32,9 @@ Conventions (mirrored by the Rust code):
   ``p_hat <= M``; the lot mean mu >= 0 solves ``Phi(mu - D) + Phi(-mu - D) = p``;
 * ``unknown-two``: ``p_hat_U = I_x(n/2 - 1, n/2 - 1)`` with ``x = clamp(1/2 -
   Q_U sqrt(n) / (2 (n - 1)), 0, 1)``, likewise ``p_hat_L``; accept when
-  ``p_hat_U + p_hat_L <= M``; OC in the one-sided and the centred
-  configuration, the design needing both;
+  ``p_hat_U + p_hat_L <= M``; OC at every split of p between the tails, the
+  design held to the worst split (the largest rejection at p1, the largest
+  Pa at p2), found by a scan of the split and a bounded scalar refinement;
 * every minimal n comes from an upward scan over every n from the smallest
   allowed one.
 
@@ -831,6 +832,47 @@ def _m_root_centred(n, p, target, guess, nodes=32):
     return opt.brentq(f, lo, hi, xtol=1e-18, rtol=1e-15)
 
 
+#: Shares w of p beyond the upper limit scanned for the worst split (w and
+#: 1 - w give the same Pa by symmetry): even steps over [0.5, 0.95], then
+#: geometric steps towards the one-sided end w -> 1.
+WORST_SCAN = tuple(float(w) for w in np.concatenate(
+    [np.linspace(0.5, 0.95, 19), 1 - np.geomspace(0.05, 1e-4, 12)[1:]]))
+
+
+def worst_split(n, M, p, lowest):
+    """The split of p with the lowest (producer) or highest (consumer) Pa.
+
+    A brute scan over WORST_SCAN, a bounded scalar search between the worst
+    point's neighbours, and the one-sided end (mpmath noncentral t) compared
+    with both.  Returns (share beyond the lower limit, Pa): share 0 is the
+    one-sided end, 1/2 the centred process.
+    """
+    sign = 1.0 if lowest else -1.0
+    vals = [sign * pa_split(n, M, p, w) for w in WORST_SCAN]
+    i = int(np.argmin(vals))
+    lo = WORST_SCAN[max(i - 1, 0)]
+    hi = WORST_SCAN[i + 1] if i + 1 < len(WORST_SCAN) else 1 - 1e-7
+    r = opt.minimize_scalar(lambda w: sign * pa_split(n, M, p, w), bounds=(lo, hi),
+                            method="bounded", options=dict(xatol=1e-7))
+    best = min([(vals[i], WORST_SCAN[i]), (float(r.fun), float(r.x))])
+    one = sign * float(pa_two_one(n, M, p))
+    if one <= best[0]:
+        return 0.0, sign * one
+    return 1.0 - best[1], sign * best[0]
+
+
+def _m_root_worst(n, p, target, lowest, start):
+    """M with the worst-split Pa(p; M) = target (Pa rises with M), from ``start``."""
+    f = lambda M: worst_split(n, M, p, lowest)[1] - target  # noqa: E731
+    lo, hi = start * (1 - 1e-3), start * (1 + 1e-3)
+    flo, fhi = f(lo), f(hi)
+    while flo > 0:
+        lo, flo = lo * 0.97, f(lo * 0.97)
+    while fhi < 0:
+        hi, fhi = min(hi * 1.03, (hi + 0.5) / 2), f(min(hi * 1.03, (hi + 0.5) / 2))
+    return opt.brentq(f, lo, hi, xtol=1e-17, rtol=1e-13)
+
+
 def design_unknown_two(p1, alpha, p2, beta, notes, scan):
     """Smallest n >= 3 with an M meeting both points in both configurations."""
     # Each n is decided from the definition; the cheap tests first.  With
@@ -861,17 +903,25 @@ def design_unknown_two(p1, alpha, p2, beta, notes, scan):
             n_min = n
         n += 1
     _monotone_note(UNKNOWN_TWO, (p1, alpha, p2, beta), feas, n_min, notes)
-    # final values at n_min: one-sided ends from the mpmath k interval
-    k_lo, k_hi = k_interval_mp(n_min, p1, alpha, p2, beta)
-    m_lo1, m_hi1 = m_of_k(n_min, k_hi), m_of_k(n_min, k_lo)
-    m_lo2 = _m_root_centred(n_min, p1, 1 - alpha, float(m_lo1))
-    m_hi2 = _m_root_centred(n_min, p2, beta, float(m_hi1))
-    lo = m_lo1 if m_lo1 >= m_lo2 else mpf(m_lo2)
-    hi = m_hi1 if m_hi1 <= m_hi2 else mpf(m_hi2)
-    if not lo <= hi:
-        raise RuntimeError("unknown-two: final re-evaluation infeasible")
-    binding = ("one" if m_lo1 >= m_lo2 else "centred", "one" if m_hi1 <= m_hi2 else "centred")
-    return n_min, (lo, hi), (m_lo1, m_hi1), (m_lo2, m_hi2), binding
+    # The scan above holds the plan to the one-sided and centred
+    # configurations, which the worst split includes: its n is a lower
+    # bound.  From there each n is decided at the worst split.
+    n = n_min
+    while True:
+        k_lo, k_hi = k_interval_mp(n, p1, alpha, p2, beta)
+        m_lo1, m_hi1 = m_of_k(n, k_hi), m_of_k(n, k_lo)
+        m_lo2 = _m_root_worst(n, p1, 1 - alpha, True, float(m_lo1))
+        m_hi2 = _m_root_worst(n, p2, beta, False, float(m_hi1))
+        lo = m_lo1 if m_lo1 >= m_lo2 else mpf(m_lo2)
+        hi = m_hi1 if m_hi1 <= m_hi2 else mpf(m_hi2)
+        if lo <= hi:
+            break
+        notes.append(f"unknown-two {(p1, alpha, p2, beta)}: n {n} feasible in both "
+                     f"configurations, not at the worst split")
+        n += 1
+    binding = ("one" if m_lo1 >= m_lo2 else "split", "one" if m_hi1 <= m_hi2 else "split")
+    split = [worst_split(n, float(lo), p1, True)[0], worst_split(n, float(hi), p2, False)[0]]
+    return n, (lo, hi), (m_lo1, m_hi1), (m_lo2, m_hi2), binding, split
 
 
 # --------------------------------------------------------------------------
@@ -935,7 +985,7 @@ def _design_rows(point):
     p1, alpha, p2, beta, D = point
     notes, cache, rows = [], {}, []
     base = dict(half_width=None, n_approx=None, n_known=None, range_one=None,
-                range_centred=None, binding=None)
+                range_split=None, binding=None, split=None)
     pt = dict(p1=p1, alpha=alpha, p2=p2, beta=beta)
     n_a, (lo, hi) = design_known_one(p1, alpha, p2, beta, notes)
     rows.append(dict(base, kind=KNOWN_ONE, n=n_a, range=_interval(lo, hi),
@@ -954,11 +1004,12 @@ def _design_rows(point):
                      near_tie=_rel_width(lo, hi) < NEAR_TIE, **pt))
     cache[(KNOWN_TWO, p1, alpha, p2, beta)] = (n_c, (lo, hi), D)
 
-    n_d, (lo, hi), one, cen, binding = design_unknown_two(p1, alpha, p2, beta, notes, scan)
+    n_d, (lo, hi), one, worst, binding, split = design_unknown_two(
+        p1, alpha, p2, beta, notes, scan)
     rows.append(dict(base, kind=UNKNOWN_TWO, n=n_d, range=_interval(lo, hi),
                      near_tie=_rel_width(lo, hi) < NEAR_TIE, range_one=_interval(*one),
-                     range_centred=[float(cen[0]), float(cen[1])], binding=list(binding),
-                     **pt))
+                     range_split=[float(worst[0]), float(worst[1])], binding=list(binding),
+                     split=split, **pt))
     cache[(UNKNOWN_TWO, p1, alpha, p2, beta)] = (n_d, (lo, hi))
     if scan.redecided:
         notes.append(f"one-sided scan {pt}: {scan.redecided} n re-decided with mpmath")
@@ -987,7 +1038,7 @@ def build_extreme_designs(notes):
         rows.append(dict(kind=KNOWN_ONE, p1=p1, alpha=alpha, p2=p2, beta=beta, n=n,
                          range=_interval(lo, hi), near_tie=_rel_width(lo, hi) < NEAR_TIE,
                          half_width=None, n_approx=None, n_known=None, range_one=None,
-                         range_centred=None, binding=None))
+                         range_split=None, binding=None, split=None))
     return rows
 
 
@@ -1068,6 +1119,24 @@ def build_split(notes, cache):
                 outside.append((n, M, p, w, pa, one, cen))
     notes.append(f"split_check: {len(rows)} rows, {len(outside)} outside "
                  f"[min, max](one, centred)" + (f": {outside}" if outside else ""))
+    return rows
+
+
+def build_worst_split(cache):
+    """The worst split at the unknown-two OC plans and a few small samples."""
+    cases = []
+    for i in OC_DESIGNS[UNKNOWN_TWO]:
+        p1, alpha, p2, beta, _ = DESIGN_POINTS[i]
+        n, (lo, hi) = cache[(UNKNOWN_TWO, p1, alpha, p2, beta)]
+        M = _mid(lo, hi)
+        cases += [(n, M, p1), (n, M, p2)]
+    cases += [(4, 0.1, 0.01), (6, 0.08, 0.1), (12, 0.05, 0.02), (18, 0.0878, 0.04)]
+    rows = []
+    for n, M, p in cases:
+        for lowest in (True, False):
+            share, pa = worst_split(n, M, p, lowest)
+            rows.append(dict(n=n, m=M, p=p, worst="lowest" if lowest else "highest",
+                             share=share, pa=pa))
     return rows
 
 
@@ -1225,6 +1294,7 @@ def build_fixture(notes, timings):
                                    [res[("design", i)] for i in range(len(DESIGN_POINTS))])
     for name, fn in (("oc", lambda: build_oc(cache)),
                      ("split_check", lambda: build_split(notes, cache)),
+                     ("worst_split", lambda: build_worst_split(cache)),
                      ("mvu", build_mvu),
                      ("anderson", lambda: build_anderson(notes)),
                      ("extreme_designs", lambda: build_extreme_designs(notes))):

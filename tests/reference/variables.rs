@@ -8,7 +8,7 @@ use crate::fixtures;
 use fixtures::{close, f, fixture, rows, u};
 use lotsman::{
     LimitKind, Model, ModelKind, NoncentralT, RiskPair, RiskPoint, SigmaKind, Specification,
-    VariablesPlan, anderson_darling, design_variables, fraction_beyond_known,
+    VariablesPlan, Worst, anderson_darling, design_variables, fraction_beyond_known,
     fraction_beyond_unknown, mean_and_sd,
 };
 use serde_json::Value;
@@ -147,6 +147,50 @@ fn check_designs(key: &str) {
         if let Some(a) = row["n_approx"].as_f64() {
             assert!(close(d.approximate_n.unwrap(), a, 1e-9), "{row}");
         }
+        if let Some(split) = row["split"].as_array() {
+            check_worst_found(row, &d, split);
+        }
+    }
+}
+
+/// Two limits, sigma unknown: the worst splits the designer reports are at
+/// least as bad, by the library's own OC, as the splits the reference
+/// found by its brute scan (whose shares are ill-determined where `Pa` is
+/// flat in the split, so they are not compared directly).
+fn check_worst_found(row: &Value, d: &lotsman::VariablesDesign, split: &[Value]) {
+    let (producer, consumer) = d.worst_splits.expect("two limits, sigma unknown");
+    let (p1, p2) = (f(row, "p1"), f(row, "p2"));
+    let at = |p: f64, share: f64| match share {
+        0.0 => d.plan.pa(p),
+        _ => d.plan.pa_at_split(p, share).unwrap(),
+    };
+    let want = (split[0].as_f64().unwrap(), split[1].as_f64().unwrap());
+    assert!(producer.pa <= at(p1, want.0) + 1e-10, "{row}: {producer:?}");
+    assert!(consumer.pa >= at(p2, want.1) - 1e-10, "{row}: {consumer:?}");
+}
+
+/// The worst split at given plans: the library's worst `Pa` against the
+/// reference's scan-and-refine over the split (quadrature at about 1e-12)
+/// to 1e-9 absolute.
+#[test]
+fn worst_splits() {
+    let v = data();
+    for row in rows(&v, "worst_split") {
+        let spec = Specification::new(
+            SigmaKind::Unknown,
+            None,
+            LimitKind::Both,
+            Some(-1.0),
+            Some(1.0),
+        )
+        .unwrap();
+        let plan = VariablesPlan::new(spec, u(row, "n"), f(row, "m")).unwrap();
+        let worst = match row["worst"].as_str().unwrap() {
+            "lowest" => Worst::Lowest,
+            _ => Worst::Highest,
+        };
+        let got = plan.worst_split(f(row, "p"), worst).unwrap();
+        assert!((got.pa - f(row, "pa")).abs() < 1e-9, "{row}: {got:?}");
     }
 }
 

@@ -323,7 +323,7 @@ fn measured(
                 data_sha256: readings.sha256,
             },
             judgement,
-            plan: *plan,
+            plan: plan.clone(),
         }),
     })
 }
