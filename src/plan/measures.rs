@@ -4,7 +4,8 @@
 use serde::Serialize;
 
 use crate::model::{Model, ModelKind, nonconforming_in_lot};
-use crate::plan::{StageOutcomes, StagedPlan, curtailed_outcomes, stage_outcomes};
+use crate::plan::oc::lane_outcomes;
+use crate::plan::{StageOutcomes, StagedPlan, stage_outcomes};
 
 /// The measures of a plan at one quality.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
@@ -64,8 +65,39 @@ pub(crate) fn measures_and_outcomes(
     model: &Model,
     asked: f64,
 ) -> (Measures, StageOutcomes) {
-    let p = model.lot_quality(asked);
-    let outcomes = curtailed_outcomes(plan, model, p);
+    let [point] = lane_measures(plan, model, [asked]);
+    point
+}
+
+/// [`measures_and_outcomes`] at `L` qualities, walked side by side in the
+/// lanes of one walk; each lane's numbers are those of its own walk.
+pub(crate) fn lane_measures<const L: usize>(
+    plan: &StagedPlan,
+    model: &Model,
+    asked: [f64; L],
+) -> [(Measures, StageOutcomes); L] {
+    let ps = asked.map(|q| model.lot_quality(q));
+    let mut outcomes = lane_outcomes(plan, model, ps, true).into_iter();
+    std::array::from_fn(|lane| {
+        let outcomes = outcomes.next().unwrap_or_else(|| StageOutcomes {
+            accept: Vec::new(),
+            reject: Vec::new(),
+            curtailed_units: None,
+        });
+        let point = measures_from(plan, model, asked[lane], ps[lane], &outcomes);
+        (point, outcomes)
+    })
+}
+
+/// The measures at the asked quality `asked` from the stage outcomes at its
+/// lot quality `p`.
+fn measures_from(
+    plan: &StagedPlan,
+    model: &Model,
+    asked: f64,
+    p: f64,
+    outcomes: &StageOutcomes,
+) -> Measures {
     let stages = plan.stages();
     let asn = stages
         .iter()
@@ -81,17 +113,16 @@ pub(crate) fn measures_and_outcomes(
         inspected + (1.0 - outcomes.pa()) * lot as f64
     });
     let lot_nonconforming = model.nonconforming_in_lot(asked);
-    let measures = Measures {
+    Measures {
         quality: asked,
         lot_nonconforming,
         lot_quality: lot_nonconforming.map(|_| p),
         pa: outcomes.pa(),
-        aoq: aoq_from(&outcomes, plan, model, p),
+        aoq: aoq_from(outcomes, plan, model, p),
         ati,
         asn,
         asn_curtailed: outcomes.curtailed_units,
-    };
-    (measures, outcomes)
+    }
 }
 
 /// AOQ from the stage outcomes: `sum_j a_j p (N - n_j) / N`, or `Pa p`
