@@ -7,8 +7,8 @@ use super::work::{evaluation_advice, evaluation_work};
 use crate::input::InputError;
 use crate::model::Model;
 use crate::model::RiskPair;
-use crate::plan::measures::lane_measures;
-use crate::plan::{Aoql, Measures, StagedPlan, acceptance_probability, aoql};
+use crate::plan::measures::{lane_measures, quality_at_pa};
+use crate::plan::{Aoql, Measures, StagedPlan, aoql};
 
 /// How many qualities one walk of an evaluation carries side by side.
 const LANES: usize = 4;
@@ -158,17 +158,6 @@ fn check_evaluation(
         &advice,
     )?;
     Ok(())
-}
-
-/// The quality at which the OC falls to `target` (`0 < target < 1`).
-///
-/// `Pa` falls as `p` rises, so bisection on `p` finds it to a relative
-/// width of `1e-13`; for the hypergeometric model it is the smallest lot
-/// quality `D / N` with `Pa <= target`.
-pub fn quality_at_pa(plan: &StagedPlan, model: &Model, target: f64) -> f64 {
-    super::measures::quality_where(plan, model, |p| {
-        acceptance_probability(plan, model, p) <= target
-    })
 }
 
 /// Qualities for an OC table when none are asked for.

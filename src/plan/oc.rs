@@ -100,6 +100,30 @@ pub(crate) fn lane_outcomes<const L: usize>(
     })
 }
 
+/// The stage outcomes (without curtailment) of `plan` at each of `ps`:
+/// groups of up to eight qualities walked side by side ([`lane_outcomes`];
+/// a group of three fills a fourth lane with its last quality), the groups
+/// on the machine's cores. A curve search that asks for several points at
+/// once pays about one walk for a group.
+pub(crate) fn outcomes_at(plan: &StagedPlan, model: &Model, ps: &[f64]) -> Vec<StageOutcomes> {
+    use rayon::prelude::*;
+    fn group<const L: usize>(plan: &StagedPlan, model: &Model, ps: &[f64]) -> Vec<StageOutcomes> {
+        let mut lanes = [ps[ps.len() - 1]; L];
+        lanes[..ps.len()].copy_from_slice(ps);
+        let mut outcomes = lane_outcomes(plan, model, lanes, false).to_vec();
+        outcomes.truncate(ps.len());
+        outcomes
+    }
+    ps.par_chunks(8)
+        .flat_map_iter(|g| match g.len() {
+            1 => group::<1>(plan, model, g),
+            2 => group::<2>(plan, model, g),
+            3 | 4 => group::<4>(plan, model, g),
+            _ => group::<8>(plan, model, g),
+        })
+        .collect()
+}
+
 /// What one stage did to the lots that reached it.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub(crate) struct Step {
