@@ -10,8 +10,11 @@ use crate::model::RiskPair;
 use crate::plan::measures::{lane_measures, quality_at_pa};
 use crate::plan::{Aoql, Measures, StagedPlan, aoql};
 
-/// How many qualities one walk of an evaluation carries side by side.
-const LANES: usize = 4;
+/// How many qualities one walk of an evaluation carries side by side:
+/// eight took 64 ms of CPU for the 0.1%/0.3% item-by-item plan at 1,001
+/// qualities where four took 75 ms and sixteen 66 ms (whole process,
+/// release build, this machine, 4 December 2026).
+const LANES: usize = 8;
 
 /// A plan evaluated at a list of qualities.
 #[derive(Clone, Debug, PartialEq)]
