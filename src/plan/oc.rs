@@ -187,17 +187,6 @@ impl<'a> Walk<'a> {
         let [step] = self.steps(stage);
         step
     }
-
-    /// What stepping a last `stage` (one that decides every count) would
-    /// accept and reject, the walk left as it is: a designer tries several
-    /// closings of one prefix. A one-unit stage of a two-term model costs
-    /// one pass over the open counts; any other is stepped on a copy.
-    pub(crate) fn closing(&self, stage: &Stage) -> Step {
-        let [step] = self
-            .item_closing(stage)
-            .unwrap_or_else(|| self.clone().steps(stage));
-        step
-    }
 }
 
 impl<'a, const L: usize> Walk<'a, L> {
@@ -230,6 +219,16 @@ impl<'a, const L: usize> Walk<'a, L> {
     /// stage could not give it.
     pub(crate) fn curtailed_units_of(&self, lane: usize) -> Option<f64> {
         (self.curtail && self.units_known[lane]).then_some(self.units[lane])
+    }
+
+    /// What stepping a last `stage` (one that decides every count) would
+    /// accept and reject in each lane, the walk left as it is: a designer
+    /// tries several closings of one prefix. A one-unit stage of a
+    /// two-term model costs one pass over the open counts; any other is
+    /// stepped on a copy.
+    pub(crate) fn closings(&self, stage: &Stage) -> [Step; L] {
+        self.item_closing(stage)
+            .unwrap_or_else(|| self.clone().steps(stage))
     }
 
     /// Inspects `stage` (whose cumulative size exceeds what was drawn) on
