@@ -173,7 +173,7 @@ pub struct Aoql {
 
 /// The AOQL of `plan` and the quality where it occurs.
 ///
-/// See [`curve_maximum`] for the search.
+/// See [`curve_maximum`](crate::curve_maximum) for the search.
 pub fn aoql(plan: &StagedPlan, model: &Model) -> Aoql {
     let aoqs = |asked: &[f64]| {
         let ps: Vec<f64> = asked.iter().map(|&q| model.lot_quality(q)).collect();
@@ -188,7 +188,7 @@ pub fn aoql(plan: &StagedPlan, model: &Model) -> Aoql {
 }
 
 /// The largest average sample number of `plan` over all qualities, and the
-/// quality where it occurs (`(quality, asn)`), by [`curve_maximum`].
+/// quality where it occurs (`(quality, asn)`), by [`curve_maximum`](crate::curve_maximum).
 pub fn largest_asn(plan: &StagedPlan, model: &Model) -> (f64, f64) {
     let stages = plan.stages();
     let asns = |ps: &[f64]| {
@@ -219,7 +219,7 @@ pub fn indifference_quality(plan: &StagedPlan, model: &Model) -> f64 {
 /// `Pa` falls as `p` rises, so bisection on `p` finds it to a relative
 /// width of `1e-13`; for the hypergeometric model it is the smallest lot
 /// quality `D / N` with `Pa <= target`. The bisection walks the qualities
-/// of its next three steps side by side ([`searches`](super::searches)).
+/// of its next three steps side by side.
 pub fn quality_at_pa(plan: &StagedPlan, model: &Model, target: f64) -> f64 {
     let reached = |ps: &[f64]| {
         searches::acceptance_probabilities(plan, model, ps)

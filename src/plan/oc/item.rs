@@ -97,7 +97,7 @@ impl<const L: usize> Walk<'_, L> {
         }
     }
 
-    /// [`Walk::closing`] for a one-unit stage of a two-term model; `None`
+    /// [`Walk::closings`] for a one-unit stage of a two-term model; `None`
     /// for any other stage.
     pub(super) fn item_closing(&self, stage: &Stage) -> Option<[Step; L]> {
         if stage.n - self.drawn != 1 {
