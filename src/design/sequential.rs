@@ -45,8 +45,8 @@
 //! truncation in the window; the report gives the nominal risks used.
 //!
 //! The exact risks come from the staged-plan recursion carried item by item
-//! (one walk per risk point, cloned to try each closing), so every candidate
-//! costs one item step.
+//! (one walk with a lane per risk point, each closing tried on it), so
+//! every candidate costs one item step.
 
 use serde::Serialize;
 
@@ -232,8 +232,8 @@ fn truncate(
 ) -> Result<Option<StagedPlan>, DesignError> {
     let (pr, co) = (risks.producer(), risks.consumer());
     let (alpha, beta) = (pr.risk, co.risk);
-    let mut at_p1 = Walk::new(model, pr.quality, false);
-    let mut at_p2 = Walk::new(model, co.quality, false);
+    // Lots at p1 (lane 0) and p2 (lane 1), walked side by side.
+    let mut walk = Walk::lanes(model, [pr.quality, co.quality], false);
     let (mut rejected_p1, mut accepted_p2) = (0.0, 0.0);
     let unit = model.kind() != ModelKind::Poisson;
     for n in 1..=last {
@@ -254,8 +254,9 @@ fn truncate(
                     accept: Some(a_t),
                     reject: a_t + 1,
                 };
-                let producer = rejected_p1 + at_p1.closing(&close).reject;
-                let consumer = accepted_p2 + at_p2.closing(&close).accept;
+                let [at_p1, at_p2] = walk.closings(&close);
+                let producer = rejected_p1 + at_p1.reject;
+                let consumer = accepted_p2 + at_p2.accept;
                 if producer <= alpha && consumer <= beta {
                     let margin = (producer / alpha).max(consumer / beta);
                     if best.is_none_or(|(m, _)| margin < m) {
@@ -282,8 +283,9 @@ fn truncate(
             return Ok(None);
         }
         let stage = Stage { n, accept, reject };
-        rejected_p1 += at_p1.step(&stage).reject;
-        accepted_p2 += at_p2.step(&stage).accept;
+        let [at_p1, at_p2] = walk.steps(&stage);
+        rejected_p1 += at_p1.reject;
+        accepted_p2 += at_p2.accept;
     }
     Ok(None)
 }

@@ -3,8 +3,10 @@
 
 use serde::Serialize;
 
-use crate::model::{Model, ModelKind, nonconforming_in_lot};
-use crate::plan::{StageOutcomes, StagedPlan, curtailed_outcomes, stage_outcomes};
+use crate::model::Model;
+use crate::plan::oc::{lane_outcomes, outcomes_at};
+use crate::plan::searches::{self, LOOKAHEAD};
+use crate::plan::{StageOutcomes, StagedPlan, stage_outcomes};
 
 /// The measures of a plan at one quality.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
@@ -64,8 +66,39 @@ pub(crate) fn measures_and_outcomes(
     model: &Model,
     asked: f64,
 ) -> (Measures, StageOutcomes) {
-    let p = model.lot_quality(asked);
-    let outcomes = curtailed_outcomes(plan, model, p);
+    let [point] = lane_measures(plan, model, [asked]);
+    point
+}
+
+/// [`measures_and_outcomes`] at `L` qualities, walked side by side in the
+/// lanes of one walk; each lane's numbers are those of its own walk.
+pub(crate) fn lane_measures<const L: usize>(
+    plan: &StagedPlan,
+    model: &Model,
+    asked: [f64; L],
+) -> [(Measures, StageOutcomes); L] {
+    let ps = asked.map(|q| model.lot_quality(q));
+    let mut outcomes = lane_outcomes(plan, model, ps, true).into_iter();
+    std::array::from_fn(|lane| {
+        let outcomes = outcomes.next().unwrap_or_else(|| StageOutcomes {
+            accept: Vec::new(),
+            reject: Vec::new(),
+            curtailed_units: None,
+        });
+        let point = measures_from(plan, model, asked[lane], ps[lane], &outcomes);
+        (point, outcomes)
+    })
+}
+
+/// The measures at the asked quality `asked` from the stage outcomes at its
+/// lot quality `p`.
+fn measures_from(
+    plan: &StagedPlan,
+    model: &Model,
+    asked: f64,
+    p: f64,
+    outcomes: &StageOutcomes,
+) -> Measures {
     let stages = plan.stages();
     let asn = stages
         .iter()
@@ -81,17 +114,16 @@ pub(crate) fn measures_and_outcomes(
         inspected + (1.0 - outcomes.pa()) * lot as f64
     });
     let lot_nonconforming = model.nonconforming_in_lot(asked);
-    let measures = Measures {
+    Measures {
         quality: asked,
         lot_nonconforming,
         lot_quality: lot_nonconforming.map(|_| p),
         pa: outcomes.pa(),
-        aoq: aoq_from(&outcomes, plan, model, p),
+        aoq: aoq_from(outcomes, plan, model, p),
         ati,
         asn,
         asn_curtailed: outcomes.curtailed_units,
-    };
-    (measures, outcomes)
+    }
 }
 
 /// AOQ from the stage outcomes: `sum_j a_j p (N - n_j) / N`, or `Pa p`
@@ -139,159 +171,39 @@ pub struct Aoql {
     pub quality: f64,
 }
 
-/// Largest quality the curve searches need: where `Pa` has fallen below
-/// `1e-12`, found by doubling from `r / n` (the quality at which the expected
-/// count reaches the last rejection number), or halving the distance to a
-/// fraction's end at 1. A plan on a few units still accepts lots above 50%
-/// nonconforming, and its AOQ can peak there: the ceiling goes on up to
-/// within `1e-12` of 1 rather than stop at one half.
-fn quality_ceiling(plan: &StagedPlan, model: &Model) -> f64 {
-    let last = plan.stages()[plan.stages().len() - 1];
-    let top = match model.kind() {
-        ModelKind::Poisson => f64::MAX,
-        _ => 1.0,
-    };
-    let mut p = (last.reject as f64 / last.n as f64).min(0.5 * top);
-    while acceptance_probability(plan, model, p) > 1e-12 && top - p > 1e-12 {
-        p = (2.0 * p).min(0.5 * (p + top));
-    }
-    p
-}
-
 /// The AOQL of `plan` and the quality where it occurs.
 ///
-/// See [`curve_maximum`] for the search.
+/// See [`curve_maximum`](crate::curve_maximum) for the search.
 pub fn aoql(plan: &StagedPlan, model: &Model) -> Aoql {
-    let (quality, value) = curve_maximum(plan, model, |p| average_outgoing_quality(plan, model, p));
+    let aoqs = |asked: &[f64]| {
+        let ps: Vec<f64> = asked.iter().map(|&q| model.lot_quality(q)).collect();
+        outcomes_at(plan, model, &ps)
+            .iter()
+            .zip(&ps)
+            .map(|(o, &p)| aoq_from(o, plan, model, p))
+            .collect()
+    };
+    let (quality, value) = searches::curve_maximum_of(plan, model, &aoqs, LOOKAHEAD);
     Aoql { value, quality }
 }
 
 /// The largest average sample number of `plan` over all qualities, and the
-/// quality where it occurs (`(quality, asn)`), by [`curve_maximum`].
+/// quality where it occurs (`(quality, asn)`), by [`curve_maximum`](crate::curve_maximum).
 pub fn largest_asn(plan: &StagedPlan, model: &Model) -> (f64, f64) {
     let stages = plan.stages();
-    curve_maximum(plan, model, |p| {
-        let o = stage_outcomes(plan, model, p);
-        stages
+    let asns = |ps: &[f64]| {
+        outcomes_at(plan, model, ps)
             .iter()
-            .zip(o.decided())
-            .map(|(s, share)| share * s.n as f64)
-            .sum()
-    })
-}
-
-/// The maximum over all qualities of a curve `f(p)` of `plan` that rises to
-/// one peak and falls (AOQ, ASN): `(quality, value)`.
-///
-/// For the binomial and Poisson models the curve is smooth in `p`: a
-/// coarse pass of 64 points up to where `Pa < 1e-12` brackets the maximum,
-/// then golden-section search narrows the bracket to a relative width of
-/// `1e-12` (about 60 evaluations). For the hypergeometric model a lot's
-/// quality can only be `D / N`: after the same coarse bracket, a ternary
-/// search over the whole numbers `D` narrows it to three candidates, and
-/// the best of them is taken.
-///
-/// Source: the golden-section search, e.g. Press et al., *Numerical
-/// Recipes* (3rd ed.), section 10.2.
-pub fn curve_maximum(plan: &StagedPlan, model: &Model, f: impl Fn(f64) -> f64) -> (f64, f64) {
-    let ceiling = quality_ceiling(plan, model);
-    const COARSE: usize = 64;
-    if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {
-        let d_top = nonconforming_in_lot(ceiling, lot).max(1);
-        let at = |d: u64| f(d as f64 / lot as f64);
-        let grid: Vec<u64> = (0..=COARSE as u64)
-            .map(|i| d_top * i / COARSE as u64)
-            .collect();
-        let best = argmax(&grid, |&d| at(d));
-        let (lo, hi) = (grid[best.saturating_sub(1)], grid[(best + 1).min(COARSE)]);
-        let d = whole_argmax(lo, hi, at);
-        let quality = d as f64 / lot as f64;
-        return (quality, f(quality));
-    }
-    let quality = smooth_maximum(&f, 0.0, ceiling);
-    (quality, f(quality))
-}
-
-/// The maximiser on `(lo, hi]` of a smooth curve that rises to one peak
-/// and falls: a 64-point grid finds the peak's neighbourhood, golden
-/// section the peak.
-pub(crate) fn smooth_maximum(f: &impl Fn(f64) -> f64, lo: f64, hi: f64) -> f64 {
-    const COARSE: usize = 64;
-    let grid: Vec<f64> = (1..=COARSE)
-        .map(|i| lo + (hi - lo) * i as f64 / COARSE as f64)
-        .collect();
-    let best = argmax(&grid, |&p| f(p));
-    let a = if best == 0 { lo } else { grid[best - 1] };
-    let b = grid[(best + 1).min(COARSE - 1)];
-    golden_max(f, a, b)
-}
-
-/// The point in `[lo, hi]` where a condition that holds from some quality
-/// on starts to hold, by bisection to a relative width of `1e-13`.
-pub(crate) fn bisect_quality(reached: impl Fn(f64) -> bool, mut lo: f64, mut hi: f64) -> f64 {
-    while hi - lo > 1e-13 * hi {
-        let mid = 0.5 * (lo + hi);
-        if reached(mid) {
-            hi = mid;
-        } else {
-            lo = mid;
-        }
-    }
-    0.5 * (lo + hi)
-}
-
-/// The maximiser over the whole numbers `lo..=hi` of `f`, which rises to
-/// one peak and falls: ternary search down to three candidates, then the
-/// best of them.
-pub(crate) fn whole_argmax(mut lo: u64, mut hi: u64, f: impl Fn(u64) -> f64) -> u64 {
-    while hi - lo > 2 {
-        let m1 = lo + (hi - lo) / 3;
-        let m2 = hi - (hi - lo) / 3;
-        if f(m1) < f(m2) {
-            lo = m1;
-        } else {
-            hi = m2;
-        }
-    }
-    let candidates: Vec<u64> = (lo..=hi).collect();
-    candidates[argmax(&candidates, |&d| f(d))]
-}
-
-fn argmax<T>(xs: &[T], f: impl Fn(&T) -> f64) -> usize {
-    let mut best = 0;
-    let mut best_value = f64::NEG_INFINITY;
-    for (i, x) in xs.iter().enumerate() {
-        let v = f(x);
-        if v > best_value {
-            best = i;
-            best_value = v;
-        }
-    }
-    best
-}
-
-/// Maximiser of a unimodal `f` on `[lo, hi]` by golden-section search.
-fn golden_max(f: &impl Fn(f64) -> f64, mut lo: f64, mut hi: f64) -> f64 {
-    const INV_PHI: f64 = 0.618_033_988_749_894_8;
-    let mut x1 = hi - INV_PHI * (hi - lo);
-    let mut x2 = lo + INV_PHI * (hi - lo);
-    let (mut f1, mut f2) = (f(x1), f(x2));
-    while hi - lo > 1e-12 * hi {
-        if f1 < f2 {
-            lo = x1;
-            x1 = x2;
-            f1 = f2;
-            x2 = lo + INV_PHI * (hi - lo);
-            f2 = f(x2);
-        } else {
-            hi = x2;
-            x2 = x1;
-            f2 = f1;
-            x1 = hi - INV_PHI * (hi - lo);
-            f1 = f(x1);
-        }
-    }
-    0.5 * (lo + hi)
+            .map(|o| {
+                stages
+                    .iter()
+                    .zip(o.decided())
+                    .map(|(s, share)| share * s.n as f64)
+                    .sum()
+            })
+            .collect()
+    };
+    searches::curve_maximum_of(plan, model, &asns, LOOKAHEAD)
 }
 
 /// The indifference quality: where `Pa = 0.5`.
@@ -299,32 +211,21 @@ fn golden_max(f: &impl Fn(f64) -> f64, mut lo: f64, mut hi: f64) -> f64 {
 /// See [`quality_at_pa`](crate::quality_at_pa), of which it is the case
 /// `target = 0.5`.
 pub fn indifference_quality(plan: &StagedPlan, model: &Model) -> f64 {
-    quality_where(plan, model, |p| {
-        acceptance_probability(plan, model, p) <= 0.5
-    })
+    quality_at_pa(plan, model, 0.5)
 }
 
-/// The smallest quality at which `reached(p)` holds, for a condition that
-/// turns true once as `p` rises from 0 to the search ceiling: bisection on
-/// `p` to a relative width of `1e-13`, or on `D` for the hypergeometric
-/// model (the lot quality `D / N`).
-pub(crate) fn quality_where(
-    plan: &StagedPlan,
-    model: &Model,
-    reached: impl Fn(f64) -> bool,
-) -> f64 {
-    let ceiling = quality_ceiling(plan, model);
-    if let (ModelKind::Hypergeometric, Some(lot)) = (model.kind(), model.lot_size()) {
-        let (mut lo, mut hi) = (0u64, nonconforming_in_lot(ceiling, lot).max(1));
-        while hi - lo > 1 {
-            let mid = lo + (hi - lo) / 2;
-            if reached(mid as f64 / lot as f64) {
-                hi = mid;
-            } else {
-                lo = mid;
-            }
-        }
-        return hi as f64 / lot as f64;
-    }
-    bisect_quality(reached, 0.0, ceiling)
+/// The quality at which the OC falls to `target` (`0 < target < 1`).
+///
+/// `Pa` falls as `p` rises, so bisection on `p` finds it to a relative
+/// width of `1e-13`; for the hypergeometric model it is the smallest lot
+/// quality `D / N` with `Pa <= target`. The bisection walks the qualities
+/// of its next three steps side by side.
+pub fn quality_at_pa(plan: &StagedPlan, model: &Model, target: f64) -> f64 {
+    let reached = |ps: &[f64]| {
+        searches::acceptance_probabilities(plan, model, ps)
+            .into_iter()
+            .map(|pa| pa <= target)
+            .collect()
+    };
+    searches::quality_where(plan, model, &reached)
 }

@@ -8,6 +8,7 @@ mod limits;
 mod measurements;
 mod measures;
 mod oc;
+mod searches;
 mod sequential;
 mod specification;
 mod split_oc;
@@ -23,9 +24,7 @@ pub use comparison::{
     compare,
 };
 pub use estimate::{fraction_beyond_known, fraction_beyond_unknown, statistic_for_fraction};
-pub use evaluation::{
-    Evaluation, default_qualities, evaluate, evaluate_with_decided, quality_at_pa,
-};
+pub use evaluation::{Evaluation, default_qualities, evaluate, evaluate_with_decided};
 pub use judge::{Decision, Judgement, judge, judge_cumulative};
 pub use limits::{
     MAX_ACCEPTANCE_NUMBER, MAX_ITEMS, MAX_OPEN_COUNTS, MAX_SAMPLE_SIZE, MAX_STAGES,
@@ -35,13 +34,14 @@ pub use measurements::{
     AndersonDarling, MeasurementJudgement, NORMALITY_LEVEL, SIGMA_LEVEL, anderson_darling,
     judge_measurements, mean_and_sd, parse_measurements,
 };
-pub(crate) use measures::whole_argmax;
 pub use measures::{
-    Aoql, Measures, acceptance_probability, aoql, average_outgoing_quality, curve_maximum,
-    indifference_quality, largest_asn, measures,
+    Aoql, Measures, acceptance_probability, aoql, average_outgoing_quality, indifference_quality,
+    largest_asn, measures, quality_at_pa,
 };
 pub(crate) use oc::Walk;
 pub use oc::{StageOutcomes, curtailed_outcomes, stage_outcomes};
+pub use searches::curve_maximum;
+pub(crate) use searches::whole_argmax;
 pub use sequential::{ItemRun, SequentialLines};
 pub use specification::{LimitKind, SigmaKind, Specification};
 pub use split_oc::{Worst, WorstSplit};

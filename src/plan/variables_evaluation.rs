@@ -17,7 +17,8 @@
 use serde::Serialize;
 
 use super::evaluation::bracketing_qualities;
-use super::measures::{Aoql, bisect_quality, smooth_maximum};
+use super::measures::Aoql;
+use super::searches::{bisect_quality, smooth_maximum};
 use super::variables::VariablesPlan;
 use super::work::{evaluation_advice_for, most_variables_qualities, variables_evaluation_work};
 use crate::input::InputError;
@@ -108,8 +109,12 @@ pub fn evaluate_variables(
     )?;
     let ceiling = quality_ceiling(plan);
     let aoq = |p: f64| variables_point(plan, lot_size, p).aoq;
-    let quality = smooth_maximum(&aoq, lowest, ceiling);
-    let indifference = bisect_quality(|p| plan.pa(p) <= 0.5, lowest, ceiling);
+    // Each point costs its own integrals: the searches ask for one at a
+    // time.
+    let aoqs = |ps: &[f64]| ps.iter().map(|&p| aoq(p)).collect();
+    let quality = smooth_maximum(&aoqs, lowest, ceiling, 1);
+    let reached = |ps: &[f64]| ps.iter().map(|&p| plan.pa(p) <= 0.5).collect();
+    let indifference = bisect_quality(&reached, lowest, ceiling, 1);
     Ok(VariablesEvaluation {
         plan: plan.clone(),
         lot_size,

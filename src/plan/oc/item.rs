@@ -28,40 +28,91 @@ use super::{Step, Walk};
 use crate::model::OneUnit;
 use crate::plan::Stage;
 
-impl Walk<'_> {
-    /// Steps the one-unit `stage` with the unit's two-term count `one`,
+/// The two terms of one unit in each lane for one count: `(q_d, p_d)`,
+/// and whether the earlier draws can produce the state at all (a
+/// hypergeometric state that they cannot carries no probability; as under
+/// a window, its count stays, `(1, 0)`, and its curtailed units become
+/// unknown).
+#[derive(Clone, Copy)]
+struct Odds<const L: usize> {
+    stay: [f64; L],
+    up: [f64; L],
+    possible: [bool; L],
+}
+
+impl<const L: usize> Odds<L> {
+    /// The binomial terms, which do not depend on the count.
+    fn binomial(units: &[OneUnit; L]) -> Self {
+        let mut odds = Odds {
+            stay: [1.0; L],
+            up: [0.0; L],
+            possible: [true; L],
+        };
+        for (lane, unit) in units.iter().enumerate() {
+            if let OneUnit::Binomial { stay, up } = *unit {
+                (odds.stay[lane], odds.up[lane]) = (stay, up);
+            }
+        }
+        odds
+    }
+
+    /// Each lane's terms for the count `found` after `drawn` units.
+    fn at(units: &[OneUnit; L], drawn: u64, found: u64) -> Self {
+        let mut odds = Odds {
+            stay: [1.0; L],
+            up: [0.0; L],
+            possible: [true; L],
+        };
+        for (lane, unit) in units.iter().enumerate() {
+            match unit.odds(drawn, found) {
+                Some((stay, up)) => (odds.stay[lane], odds.up[lane]) = (stay, up),
+                None => odds.possible[lane] = false,
+            }
+        }
+        odds
+    }
+}
+
+impl<const L: usize> Walk<'_, L> {
+    /// Steps the one-unit `stage` with each lane's two-term count `units`,
     /// building the counts it leaves open (from `lowest_open` up) in `next`.
     pub(super) fn item_step(
         &mut self,
         stage: &Stage,
-        one: OneUnit,
+        units: [OneUnit; L],
         lowest_open: u64,
-        next: &mut Vec<f64>,
-    ) -> Step {
+        next: &mut Vec<[f64; L]>,
+    ) -> [Step; L] {
         let drawn = self.drawn;
         // The binomial odds do not depend on the count: a separate copy of
         // the loops keeps them in registers.
-        match one {
-            OneUnit::Binomial { stay, up } => {
-                self.items(stage, lowest_open, next, |_| Some((stay, up)))
+        match units[0] {
+            OneUnit::Binomial { .. } => {
+                let odds = Odds::binomial(&units);
+                self.items(stage, lowest_open, next, |_| odds)
             }
             OneUnit::Hypergeometric { .. } => {
-                self.items(stage, lowest_open, next, |d| one.odds(drawn, d))
+                self.items(stage, lowest_open, next, |d| Odds::at(&units, drawn, d))
             }
         }
     }
 
-    /// [`Walk::closing`] for a one-unit stage of a two-term model; `None`
+    /// [`Walk::closings`] for a one-unit stage of a two-term model; `None`
     /// for any other stage.
-    pub(super) fn item_closing(&self, stage: &Stage) -> Option<Step> {
+    pub(super) fn item_closing(&self, stage: &Stage) -> Option<[Step; L]> {
         if stage.n - self.drawn != 1 {
             return None;
         }
         let drawn = self.drawn;
-        let one = self.one_unit?;
-        Some(match one {
-            OneUnit::Binomial { stay, up } => self.decide(stage, None, |_| Some((stay, up))).0,
-            OneUnit::Hypergeometric { .. } => self.decide(stage, None, |d| one.odds(drawn, d)).0,
+        let units = self.one_unit?;
+        Some(match units[0] {
+            OneUnit::Binomial { .. } => {
+                let odds = Odds::binomial(&units);
+                self.decide(stage, false, |_| odds).0
+            }
+            OneUnit::Hypergeometric { .. } => {
+                self.decide(stage, false, |d| Odds::at(&units, drawn, d)).0
+            }
         })
     }
 
@@ -69,79 +120,88 @@ impl Walk<'_> {
         &mut self,
         stage: &Stage,
         lowest_open: u64,
-        next: &mut Vec<f64>,
-        odds: impl Fn(u64) -> Option<(f64, f64)>,
-    ) -> Step {
-        let (step, curtailed) = self.decide(stage, self.curtailed, &odds);
-        self.curtailed = curtailed;
+        next: &mut Vec<[f64; L]>,
+        odds: impl Fn(u64) -> Odds<L>,
+    ) -> [Step; L] {
+        let (step, (units, known)) = self.decide(stage, self.curtail, &odds);
+        (self.units, self.units_known) = (units, known);
         self.carry(stage.reject, lowest_open, next, &odds);
         step
     }
 
-    /// The lots the unit decides, and the curtailed units `curtailed` grows
-    /// to; `odds(d)` is `(q_d, p_d)`, `None` for a state the earlier draws
-    /// cannot produce (it carries no probability; as under a window, its
-    /// count stays, and the curtailed units become unknown).
+    /// The lots the unit decides in each lane, and the curtailed units
+    /// (with whether each lane still knows them) when `curtail` asks for
+    /// them.
+    ///
+    /// A lane whose lot cannot be at a count (`w(d) = 0`) adds zeros there:
+    /// `x + 0 = x` to the bit for the non-negative sums here, so the lanes
+    /// need not branch on it, and each sum is the one a walk of its own
+    /// (which skips such counts) forms.
+    #[allow(clippy::type_complexity)]
     fn decide(
         &self,
         stage: &Stage,
-        mut curtailed: Option<f64>,
-        odds: impl Fn(u64) -> Option<(f64, f64)>,
-    ) -> (Step, Option<f64>) {
+        curtail: bool,
+        odds: impl Fn(u64) -> Odds<L>,
+    ) -> ([Step; L], ([f64; L], [bool; L])) {
         let r = stage.reject;
-        let (mut acc, mut rej) = (0.0, 0.0);
-        for (d, &w) in (self.lo..).zip(&self.open) {
-            if w == 0.0 {
-                continue;
-            }
+        let (mut acc, mut rej) = ([0.0; L], [0.0; L]);
+        let (mut units, mut known) = (self.units, self.units_known);
+        for (d, w) in (self.lo..).zip(&self.open) {
             if d >= r {
                 // Already at the rejection number: rejected before the unit.
-                rej += w;
+                for lane in 0..L {
+                    rej[lane] += w[lane];
+                }
                 continue;
             }
-            let (stay, up) = odds(d).unwrap_or_else(|| {
-                curtailed = None;
-                (1.0, 0.0)
-            });
+            let o = odds(d);
             let certain = stage.accept.is_some_and(|a| d < a);
             if certain {
-                acc += w;
+                for lane in 0..L {
+                    acc[lane] += w[lane];
+                }
             } else if stage.accept == Some(d) {
-                acc += w * stay;
+                for lane in 0..L {
+                    acc[lane] += w[lane] * o.stay[lane];
+                }
             }
             if d + 1 >= r {
-                rej += w * up;
+                for lane in 0..L {
+                    rej[lane] += w[lane] * o.up[lane];
+                }
             }
-            if let Some(total) = curtailed.as_mut()
-                && !certain
-            {
-                *total += w;
+            if curtail {
+                for lane in 0..L {
+                    known[lane] &= o.possible[lane] || w[lane] == 0.0;
+                    if !certain {
+                        units[lane] += w[lane];
+                    }
+                }
             }
         }
-        (
-            Step {
-                accept: acc,
-                reject: rej,
-            },
-            curtailed,
-        )
+        let steps = std::array::from_fn(|lane| Step {
+            accept: acc[lane],
+            reject: rej[lane],
+        });
+        (steps, (units, known))
     }
 
-    /// `next[e - lowest_open] = w(e - 1) p_{e-1} + w(e) q_e` for the counts
-    /// `e` the stage leaves open (one zero slot when it leaves none). Each
-    /// slot is written once, from registers, rather than added to twice
-    /// in memory; a missing term is a zero, so the sum is the same either
-    /// way.
+    /// `next[e - lowest_open] = w(e - 1) p_{e-1} + w(e) q_e` in each lane
+    /// for the counts `e` the stage leaves open (one zero slot when it
+    /// leaves none). Each slot is written once, from registers, rather than
+    /// added to twice in memory; a missing term is a zero, so the sum is the
+    /// same either way.
     fn carry(
         &self,
         r: u64,
         lowest_open: u64,
-        next: &mut Vec<f64>,
-        odds: impl Fn(u64) -> Option<(f64, f64)>,
+        next: &mut Vec<[f64; L]>,
+        odds: impl Fn(u64) -> Odds<L>,
     ) {
         let width = r.saturating_sub(lowest_open) as usize;
-        next.resize(width.max(1), 0.0);
-        next[0] = 0.0;
+        next.resize(width.max(1), [0.0; L]);
+        next[0] = [0.0; L];
         let open = &self.open;
         // Counts are at most MAX_ACCEPTANCE_NUMBER + 1, far inside i64.
         let len = open.len() as i64;
@@ -149,17 +209,23 @@ impl Walk<'_> {
         for (k, (e, slot)) in (lowest_open..r).zip(next.iter_mut()).enumerate() {
             // `open[i]` holds the count `e`, `open[i - 1]` the count `e - 1`.
             let i = base + k as i64;
-            let stayed = if (0..len).contains(&i) {
-                open[i as usize] * odds(e).map_or(1.0, |o| o.0)
-            } else {
-                0.0
-            };
-            let risen = if (1..=len).contains(&i) {
-                open[(i - 1) as usize] * odds(e - 1).map_or(0.0, |o| o.1)
-            } else {
-                0.0
-            };
-            *slot = risen + stayed;
+            let mut stayed = [0.0; L];
+            if (0..len).contains(&i) {
+                let (o, w) = (odds(e), &open[i as usize]);
+                for lane in 0..L {
+                    stayed[lane] = w[lane] * o.stay[lane];
+                }
+            }
+            let mut risen = [0.0; L];
+            if (1..=len).contains(&i) {
+                let (o, w) = (odds(e - 1), &open[(i - 1) as usize]);
+                for lane in 0..L {
+                    risen[lane] = w[lane] * o.up[lane];
+                }
+            }
+            for lane in 0..L {
+                slot[lane] = risen[lane] + stayed[lane];
+            }
         }
     }
 }
