@@ -245,7 +245,7 @@ impl VariablesPlan {
 
     /// Two limits, sigma unknown: `Pa(p)` with the share `share` of `p`
     /// beyond the lower limit (`0 < share < 1`), by the integral of
-    /// [`split_oc`](super::split_oc). `None` for the other plans, whose OC
+    /// `src/plan/split_oc.rs`. `None` for the other plans, whose OC
     /// depends on `p` alone.
     pub fn pa_at_split(&self, p: f64, share: f64) -> Option<f64> {
         self.half_widths
