@@ -28,12 +28,15 @@
 #![allow(clippy::unwrap_used, clippy::expect_used, clippy::panic)]
 
 mod commands;
+#[path = "../common/mod.rs"]
+mod common;
 mod designs;
 mod evaluations;
 
 use std::time::Instant;
 
-use lotsman::{Model, ModelKind, RiskPair, RiskPoint, Work};
+pub(crate) use common::pair;
+use lotsman::{Model, ModelKind, Work};
 
 /// One case: its name, its estimate, and the job to time.
 pub(crate) struct Case {
@@ -49,22 +52,6 @@ pub(crate) struct Case {
 
 pub(crate) fn model(kind: ModelKind, lot: Option<u64>) -> Model {
     Model::new(kind, lot).unwrap()
-}
-
-/// The risk pair at `p1` (alpha 0.05) and `p2` (beta 0.10).
-pub(crate) fn pair(model: &Model, p1: f64, p2: f64) -> RiskPair {
-    RiskPair::new(
-        RiskPoint {
-            quality: p1,
-            risk: 0.05,
-        },
-        RiskPoint {
-            quality: p2,
-            risk: 0.10,
-        },
-        model,
-    )
-    .unwrap()
 }
 
 pub(crate) fn qualities(count: usize, top: f64) -> Vec<f64> {
