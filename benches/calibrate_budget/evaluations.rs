@@ -43,15 +43,6 @@ pub(crate) fn evaluations(cases: &mut Vec<Case>) {
         accept: Some(480),
         reject: 481,
     });
-    let sequential = |m: &Model, p1: f64, p2: f64| {
-        let request = DesignRequest {
-            scheme: Scheme::Sequential,
-            options: SchemeOptions::default(),
-            model: *m,
-            risks: pair(m, p1, p2),
-        };
-        solve(&request).unwrap().design.plan
-    };
     let plans: Vec<(String, StagedPlan, Model, usize)> = vec![
         (
             "single 125/3 binomial".into(),
@@ -85,13 +76,13 @@ pub(crate) fn evaluations(cases: &mut Vec<Case>) {
         ),
         (
             "item by item 0.1%/0.3% binomial".into(),
-            sequential(&binomial, 0.001, 0.003),
+            sequential_plan(&binomial, 0.001, 0.003),
             binomial,
             1_000,
         ),
         (
             "item by item 1%/2% lot 20000".into(),
-            sequential(&lot, 0.01, 0.02),
+            sequential_plan(&lot, 0.01, 0.02),
             lot,
             200,
         ),
@@ -135,25 +126,16 @@ pub(crate) fn walks() {
     let binomial = model(ModelKind::Binomial, None);
     let lot = model(ModelKind::Hypergeometric, Some(20_000));
     let poisson = model(ModelKind::Poisson, None);
-    let sequential = |m: &Model, p1: f64, p2: f64| {
-        let request = DesignRequest {
-            scheme: Scheme::Sequential,
-            options: SchemeOptions::default(),
-            model: *m,
-            risks: pair(m, p1, p2),
-        };
-        solve(&request).unwrap().design.plan
-    };
     let plans = [
         (
             "item by item binomial",
-            sequential(&binomial, 0.001, 0.003),
+            sequential_plan(&binomial, 0.001, 0.003),
             binomial,
         ),
-        ("item by item lot", sequential(&lot, 0.01, 0.02), lot),
+        ("item by item lot", sequential_plan(&lot, 0.01, 0.02), lot),
         (
             "item by item poisson",
-            sequential(&poisson, 0.001, 0.003),
+            sequential_plan(&poisson, 0.001, 0.003),
             poisson,
         ),
         (
@@ -177,4 +159,15 @@ pub(crate) fn walks() {
             walk_seconds(&plan, &m)
         );
     }
+}
+
+/// The sequential plan designed for `p1` and `p2` under `m`.
+fn sequential_plan(m: &Model, p1: f64, p2: f64) -> StagedPlan {
+    let request = DesignRequest {
+        scheme: Scheme::Sequential,
+        options: SchemeOptions::default(),
+        model: *m,
+        risks: pair(m, p1, p2),
+    };
+    solve(&request).unwrap().design.plan
 }
